@@ -1,0 +1,89 @@
+import fc from "fast-check";
+import { expect, test } from "vitest";
+import {
+  IN_TO_MM,
+  formatInches,
+  formatLength,
+  formatMm,
+  inToMm,
+  mmToIn,
+  parseLength,
+} from "~/domain/units";
+
+test("one inch is exactly 25.4 mm (NIST SP 811, appendix B)", () => {
+  expect(IN_TO_MM).toBe(25.4);
+  expect(inToMm(1)).toBe(25.4);
+  expect(mmToIn(25.4)).toBe(1);
+});
+
+test("25 ft is 7620 mm (NIST SP 811: 1 ft = 12 in = 304.8 mm)", () => {
+  expect(inToMm(25 * 12)).toBeCloseTo(7620, 9);
+});
+
+test("a 36.575 in bowl reads 36 9/16 in on a tape (nearest 1/16 in)", () => {
+  expect(formatInches(36.575)).toBe("36 9/16 in");
+});
+
+test("whole inches print without a fraction", () => {
+  expect(formatInches(32)).toBe("32 in");
+  expect(formatInches(31.97)).toBe("32 in");
+});
+
+test("fractions below one inch print alone and reduce to lowest terms", () => {
+  expect(formatInches(0.1875)).toBe("3/16 in");
+  expect(formatInches(0.5)).toBe("1/2 in");
+  expect(formatInches(12.625)).toBe("12 5/8 in");
+});
+
+test("negative lengths keep their sign and tiny values print as zero", () => {
+  expect(formatInches(-36.575)).toBe("-36 9/16 in");
+  expect(formatInches(-0.01)).toBe("0 in");
+  expect(formatMm(-0.01)).toBe("0 mm");
+});
+
+test("millimetres print whole: 36.575 in is 929 mm (NIST SP 811 factor)", () => {
+  expect(formatMm(36.575)).toBe("929 mm");
+  expect(formatLength(36.575, "mm")).toBe("929 mm");
+  expect(formatLength(36.575, "in")).toBe("36 9/16 in");
+});
+
+test("tape readings parse in every common spelling", () => {
+  expect(parseLength("36")).toBe(36);
+  expect(parseLength("36.5")).toBe(36.5);
+  expect(parseLength("36 9/16")).toBe(36.5625);
+  expect(parseLength("36-9/16 in")).toBe(36.5625);
+  expect(parseLength('36 9/16"')).toBe(36.5625);
+  expect(parseLength("9/16")).toBe(0.5625);
+  expect(parseLength("3 ft")).toBe(36);
+});
+
+test("metric lengths parse to inches with the exact factor (NIST SP 811)", () => {
+  expect(parseLength("930 mm")).toBeCloseTo(930 / 25.4, 12);
+  expect(parseLength("93 cm")).toBeCloseTo(930 / 25.4, 12);
+  expect(parseLength("0.93 m")).toBeCloseTo(930 / 25.4, 12);
+});
+
+test("unreadable lengths parse to null", () => {
+  for (const text of ["", "abc", "36 in in", "9/0", "36 17/16", "1/2/3", "36.5 1/2", "--3"]) {
+    expect(parseLength(text), text).toBeNull();
+  }
+});
+
+test("formatting then parsing returns the length rounded to 1/16 in (round trip property)", () => {
+  fc.assert(
+    fc.property(fc.double({ min: -600, max: 600, noNaN: true }), (lengthIn) => {
+      const parsed = parseLength(formatInches(lengthIn));
+      expect(parsed).not.toBeNull();
+      expect(Math.abs((parsed as number) - lengthIn)).toBeLessThanOrEqual(1 / 32 + 1e-9);
+    }),
+  );
+});
+
+test("millimetre round trip stays within half a millimetre (property)", () => {
+  fc.assert(
+    fc.property(fc.double({ min: 0, max: 600, noNaN: true }), (lengthIn) => {
+      const parsed = parseLength(formatMm(lengthIn)) as number;
+      expect(Math.abs(inToMm(parsed) - inToMm(lengthIn))).toBeLessThanOrEqual(0.5 + 1e-9);
+    }),
+  );
+});
