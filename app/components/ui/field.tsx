@@ -1,0 +1,79 @@
+import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+
+type FieldProps = {
+  label: ReactNode;
+  name: string;
+  error?: string;
+  hint?: ReactNode;
+  suffix?: string;
+} & Omit<InputHTMLAttributes<HTMLInputElement>, "name">;
+
+/** A labelled input with its hint and error tied to it for screen readers. */
+export function TextField({ label, name, error, hint, suffix, className, ...input }: FieldProps) {
+  const id = useId();
+  const hintId = `${id}-hint`;
+  const errorId = `${id}-error`;
+  const describedBy = [hint ? hintId : null, error ? errorId : null].filter(Boolean).join(" ") || undefined;
+  return (
+    <div className={className}>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      <div className="relative">
+        <input
+          id={id}
+          name={name}
+          aria-invalid={error ? true : undefined}
+          aria-describedby={describedBy}
+          className={`field-input ${suffix ? "pr-12" : ""}`}
+          {...input}
+        />
+        {suffix ? (
+          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">{suffix}</span>
+        ) : null}
+      </div>
+      {hint ? <p id={hintId} className="field-hint">{hint}</p> : null}
+      {error ? <p id={errorId} className="field-error">{error}</p> : null}
+    </div>
+  );
+}
+
+type SelectProps = {
+  label: ReactNode;
+  name: string;
+  error?: string;
+  hint?: ReactNode;
+  children: ReactNode;
+} & Omit<SelectHTMLAttributes<HTMLSelectElement>, "name">;
+
+export function SelectField({ label, name, error, hint, children, className, ...select }: SelectProps) {
+  const id = useId();
+  return (
+    <div className={className}>
+      <label htmlFor={id} className="field-label">
+        {label}
+      </label>
+      <select
+        id={id}
+        name={name}
+        aria-invalid={error ? true : undefined}
+        aria-describedby={error ? `${id}-error` : hint ? `${id}-hint` : undefined}
+        className="field-input"
+        {...select}
+      >
+        {children}
+      </select>
+      {hint ? <p id={`${id}-hint`} className="field-hint">{hint}</p> : null}
+      {error ? <p id={`${id}-error`} className="field-error">{error}</p> : null}
+    </div>
+  );
+}
+
+/** A form-level message (e.g. a failed sign-in), announced to screen readers. */
+export function FormAlert({ children }: { children: ReactNode }) {
+  return (
+    <div role="alert" className="rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+      {children}
+    </div>
+  );
+}

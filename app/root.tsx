@@ -1,0 +1,50 @@
+import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
+import type { Route } from "./+types/root";
+import { ProblemPage } from "~/components/problem-page";
+import { useNonce } from "~/components/nonce";
+import { securityMiddleware } from "~/lib/security.server";
+import "./app.css";
+
+export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
+
+export const links: Route.LinksFunction = () => [
+  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
+];
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const nonce = useNonce();
+  return (
+    <html lang="en">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <meta name="theme-color" content="#1f1b19" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="min-h-dvh">
+        {children}
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
+      </body>
+    </html>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  if (isRouteErrorResponse(error)) {
+    if (error.status === 404) {
+      return <ProblemPage status={404} title="We could not find that page" detail="The link may be old, or the page may belong to another account." />;
+    }
+    const detail = typeof error.data === "string" ? error.data : error.statusText;
+    return <ProblemPage status={error.status} title="That did not work" detail={detail} />;
+  }
+  if (import.meta.env.DEV && error instanceof Error) {
+    return <ProblemPage status={500} title="Something broke" detail={error.message} stack={error.stack} />;
+  }
+  return <ProblemPage status={500} title="Something broke on our side" detail="Please try again in a moment. If it keeps happening, tell us what you were doing." />;
+}

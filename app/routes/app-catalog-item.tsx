@@ -1,0 +1,126 @@
+import { useState } from "react";
+import { data, Form, Link, redirect, useNavigation } from "react-router";
+import type { Route } from "./+types/app-catalog-item";
+import { TextField, SelectField } from "~/components/ui/field";
+import { CATALOG_KINDS, type CatalogKind } from "~/db/schema";
+import { KIND_DIMENSIONS, KIND_INFO, parseCatalogForm } from "~/lib/catalog-schema";
+import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog.server";
+import { requireUser } from "~/lib/session.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.item ? data.item.name : "New item"} · Catalog · Emberwright` },
+];
+
+/** Parses the :itemId param; anything but a positive integer is a 404. */
+function parseItemId(raw: string | undefined): number | null {
+  if (raw === undefined) return null;
+  const id = Number(raw);
+  if (!Number.isSafeInteger(id) || id <= 0) throw new Response("Not found", { status: 404 });
+  return id;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  const itemId = parseItemId(params.itemId);
+  if (itemId === null) return { item: null };
+  const item = await findCatalogItem(user.companyId, itemId);
+  if (!item) throw new Response("Not found", { status: 404 });
+  return { item };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  const itemId = parseItemId(params.itemId);
+  const form = await request.formData();
+  const parsed = parseCatalogForm(form);
+  if (!parsed.ok) {
+    return data({ errors: parsed.errors }, { status: 400 });
+  }
+  if (itemId === null) {
+    await createCatalogItem(user.companyId, parsed.value);
+  } else if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
+    throw new Response("Not found", { status: 404 });
+  }
+  return redirect("/app/catalog");
+}
+
+export default function CatalogItemRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { item } = loaderData;
+  const errors: Record<string, string> = actionData?.errors ?? {};
+  const [kind, setKind] = useState<CatalogKind>(item?.kind ?? "wall-unit");
+  const navigation = useNavigation();
+  const dims = KIND_DIMENSIONS[kind];
+  return (
+    <div className="mx-auto flex max-w-2xl flex-col gap-6">
+      <div>
+        <Link to="/app/catalog" className="text-sm font-bold text-ember-700 hover:underline">
+          ← Catalog
+        </Link>
+        <h1 className="mt-2 text-2xl font-extrabold">{item ? `Edit ${item.name}` : "Add a catalog item"}</h1>
+      </div>
+      <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
+        {Object.keys(errors).length ? (
+          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+            Nothing was saved. Fix the fields marked below.
+          </p>
+        ) : null}
+        <SelectField
+          label="Kind"
+          name="kind"
+          value={kind}
+          onChange={(e) => setKind(e.target.value as CatalogKind)}
+          error={errors.kind}
+        >
+          {CATALOG_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {KIND_INFO[k].label}
+            </option>
+          ))}
+        </SelectField>
+        <TextField label="Name" name="name" defaultValue={item?.name ?? ""} error={errors.name} maxLength={80} required />
+        <div className="grid gap-4 sm:grid-cols-[1fr_10rem]">
+          <TextField label="Colour name" name="colourName" defaultValue={item?.colourName ?? ""} error={errors.colourName} />
+          <TextField label="Colour" name="colourHex" type="color" defaultValue={item?.colourHex ?? "#8a8178"} error={errors.colourHex} className="[&_input]:h-10 [&_input]:p-1" />
+        </div>
+        {dims.length ? (
+          <fieldset className="grid gap-4 sm:grid-cols-2">
+            <legend className="mb-2 text-sm font-extrabold text-char-700">Size (inches, decimals like 11.75)</legend>
+            {dims.map((rule) => (
+              <TextField
+                key={`${kind}-${rule.key}`}
+                label={rule.label}
+                name={rule.key}
+                inputMode="decimal"
+                suffix="in"
+                hint={rule.hint ? `${rule.hint}. ${rule.min}–${rule.max} in.` : `${rule.min}–${rule.max} in.`}
+                defaultValue={item?.[rule.key] ?? ""}
+                error={errors[rule.key]}
+              />
+            ))}
+          </fieldset>
+        ) : null}
+        <TextField
+          label={`Price per ${KIND_INFO[kind].priceUnit}`}
+          name="price"
+          inputMode="decimal"
+          suffix="USD"
+          hint="What you charge, before overhead and margin."
+          defaultValue={item ? (item.priceCents / 100).toFixed(2) : ""}
+          error={errors.price}
+        />
+        <label className="flex items-center gap-3 text-sm font-bold text-char-700">
+          <input type="checkbox" name="isActive" defaultChecked={item?.isActive ?? true} className="h-5 w-5 accent-ember-500" />
+          Offered in the configurator
+        </label>
+        <div className="flex gap-3">
+          <button type="submit" className="btn-primary" disabled={navigation.state === "submitting"}>
+            {item ? "Save changes" : "Add item"}
+          </button>
+          <Link to="/app/catalog" className="btn-quiet">
+            Cancel
+          </Link>
+        </div>
+      </Form>
+    </div>
+  );
+}

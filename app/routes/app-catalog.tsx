@@ -1,0 +1,99 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/app-catalog";
+import { CATALOG_KINDS, STAFF_ROLES, type CatalogItem } from "~/db/schema";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-schema";
+import { listCatalog } from "~/lib/catalog.server";
+import { formatMoney } from "~/lib/money";
+import { requireUser } from "~/lib/session.server";
+import { formatInches } from "~/domain/units";
+
+export const meta: Route.MetaFunction = () => [{ title: "Catalog · Emberwright" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: STAFF_ROLES });
+  const items = await listCatalog(user.companyId);
+  return { items, canEdit: user.role === "owner" };
+}
+
+function sizeOf(item: CatalogItem): string {
+  const parts = KIND_DIMENSIONS[item.kind]
+    .map((rule) => item[rule.key])
+    .filter((v): v is number => typeof v === "number")
+    .map((v) => formatInches(v).replace(/ in$/, ""));
+  return parts.length ? `${parts.join(" × ")} in` : "—";
+}
+
+export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
+  const { items, canEdit } = loaderData;
+  const groups = CATALOG_KINDS.map((kind) => ({ kind, items: items.filter((i) => i.kind === kind) })).filter((g) => g.items.length);
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-extrabold">Catalog</h1>
+          <p className="text-char-600">
+            The units and supplies your configurator offers and your estimates price. Sizes in inches{canEdit ? "" : "; only the owner can change them"}.
+          </p>
+        </div>
+        {canEdit ? (
+          <Link to="/app/catalog/new" className="btn-primary">
+            Add an item
+          </Link>
+        ) : null}
+      </div>
+      {groups.length === 0 ? <p className="card p-6 text-char-600">No items yet.</p> : null}
+      {groups.map((group) => (
+        <section key={group.kind} aria-labelledby={`kind-${group.kind}`} className="card overflow-hidden">
+          <h2 id={`kind-${group.kind}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase">
+            {KIND_INFO[group.kind].plural}
+          </h2>
+          <div className="overflow-x-auto">
+            <table className="w-full min-w-[36rem] text-left text-sm">
+              <thead className="text-xs text-char-500 uppercase">
+                <tr>
+                  <th scope="col" className="px-4 py-2 font-bold">Name</th>
+                  <th scope="col" className="px-4 py-2 font-bold">Colour</th>
+                  <th scope="col" className="px-4 py-2 font-bold">Size</th>
+                  <th scope="col" className="px-4 py-2 text-right font-bold">Price</th>
+                  <th scope="col" className="px-4 py-2 font-bold">Status</th>
+                </tr>
+              </thead>
+              <tbody className="divide-y divide-ash-200">
+                {group.items.map((item) => (
+                  <tr key={item.id} className={item.isActive ? "" : "text-char-500"}>
+                    <td className="px-4 py-2.5 font-bold">
+                      {canEdit ? (
+                        <Link to={`/app/catalog/${item.id}`} className="text-ember-700 underline-offset-2 hover:underline">
+                          {item.name}
+                        </Link>
+                      ) : (
+                        item.name
+                      )}
+                    </td>
+                    <td className="px-4 py-2.5">
+                      <span className="inline-flex items-center gap-2">
+                        <span className="h-4 w-4 rounded border border-char-800/20" style={{ backgroundColor: item.colourHex }} aria-hidden="true" />
+                        {item.colourName || "—"}
+                      </span>
+                    </td>
+                    <td className="px-4 py-2.5 tabular-nums">{sizeOf(item)}</td>
+                    <td className="px-4 py-2.5 text-right tabular-nums">
+                      {formatMoney(item.priceCents)} <span className="text-char-500">/ {KIND_INFO[item.kind].priceUnit}</span>
+                    </td>
+                    <td className="px-4 py-2.5">
+                      {item.isActive ? (
+                        <span className="rounded-full bg-moss-100 px-2 py-0.5 text-xs font-bold text-moss-700">Offered</span>
+                      ) : (
+                        <span className="rounded-full bg-ash-200 px-2 py-0.5 text-xs font-bold text-char-600">Hidden</span>
+                      )}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </section>
+      ))}
+    </div>
+  );
+}

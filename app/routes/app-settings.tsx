@@ -1,0 +1,87 @@
+import { eq } from "drizzle-orm";
+import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
+import type { Route } from "./+types/app-settings";
+import { SelectField, TextField } from "~/components/ui/field";
+import { companies } from "~/db/schema";
+import { getCompany } from "~/lib/catalog.server";
+import { companySettingsSchema, timeZoneList } from "~/lib/company-schema";
+import { db } from "~/lib/db.server";
+import { requireUser } from "~/lib/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Company settings · Emberwright" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  return { company: await getCompany(user.companyId), timeZones: timeZoneList() };
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  const form = Object.fromEntries(await request.formData());
+  const parsed = companySettingsSchema.safeParse(form);
+  if (!parsed.success) {
+    const errors: Record<string, string> = {};
+    for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
+    return data({ errors }, { status: 400 });
+  }
+  const { consultFee, labourRate, ...rest } = parsed.data;
+  await db
+    .update(companies)
+    .set({ ...rest, consultFeeCents: consultFee, labourRateCents: labourRate })
+    .where(eq(companies.id, user.companyId));
+  return redirect("/app/settings?saved=1");
+}
+
+export default function SettingsRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { company, timeZones } = loaderData;
+  const errors: Record<string, string> = actionData?.errors ?? {};
+  const [params] = useSearchParams();
+  const navigation = useNavigation();
+  return (
+    <div className="mx-auto flex max-w-3xl flex-col gap-6">
+      <div>
+        <h1 className="text-2xl font-extrabold">Company settings</h1>
+        <p className="text-char-600">
+          Your public page lives at <code className="rounded bg-ash-200 px-1.5 py-0.5">/c/{company.slug}</code>.
+        </p>
+      </div>
+      {params.get("saved") && !actionData ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Settings saved.</p>
+      ) : null}
+      <Form method="post" className="flex flex-col gap-6" noValidate>
+        {Object.keys(errors).length ? (
+          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+            Nothing was saved. Fix the fields marked below.
+          </p>
+        ) : null}
+        <section className="card grid gap-4 p-6 sm:grid-cols-2">
+          <h2 className="text-lg font-extrabold sm:col-span-2">Company</h2>
+          <TextField label="Company name" name="name" defaultValue={company.name} error={errors.name} className="sm:col-span-2" />
+          <TextField label="E-mail for new requests" name="email" type="email" defaultValue={company.email} error={errors.email} />
+          <TextField label="Phone" name="phone" defaultValue={company.phone} error={errors.phone} />
+          <TextField label="Town" name="town" defaultValue={company.town} error={errors.town} />
+          <SelectField label="Time zone" name="timeZone" defaultValue={company.timeZone} error={errors.timeZone}>
+            {timeZones.map((tz) => (
+              <option key={tz} value={tz}>{tz}</option>
+            ))}
+          </SelectField>
+        </section>
+        <section className="card grid gap-4 p-6 sm:grid-cols-2">
+          <h2 className="text-lg font-extrabold sm:col-span-2">Pricing</h2>
+          <TextField label="Labour rate" name="labourRate" suffix="$/h" inputMode="decimal" defaultValue={(company.labourRateCents / 100).toFixed(2)} error={errors.labourRate} hint="Per labour-hour, billed to the customer." />
+          <TextField label="Design consult fee" name="consultFee" suffix="$" inputMode="decimal" defaultValue={(company.consultFeeCents / 100).toFixed(2)} error={errors.consultFee} hint="Credited toward the build." />
+          <TextField label="Overhead" name="overheadPct" suffix="%" inputMode="decimal" defaultValue={company.overheadPct} error={errors.overheadPct} />
+          <TextField label="Margin" name="marginPct" suffix="%" inputMode="decimal" defaultValue={company.marginPct} error={errors.marginPct} />
+          <TextField label="Price range spread" name="priceSpreadPct" suffix="%" inputMode="decimal" defaultValue={company.priceSpreadPct} error={errors.priceSpreadPct} hint="Homeowners see the price as a range this far either side of your estimate." />
+        </section>
+        <section className="card grid gap-4 p-6 sm:grid-cols-2">
+          <h2 className="text-lg font-extrabold sm:col-span-2">Safety</h2>
+          <TextField label="Required setback from buildings" name="setbackFt" suffix="ft" inputMode="decimal" defaultValue={company.setbackFt} error={errors.setbackFt} hint="Use your fire authority's figure. The International Fire Code's is 25 ft for recreational fires; towns range from 10 to 50 ft." className="sm:col-span-2" />
+        </section>
+        <div>
+          <button type="submit" className="btn-primary" disabled={navigation.state === "submitting"}>Save settings</button>
+        </div>
+      </Form>
+    </div>
+  );
+}

@@ -1,0 +1,20 @@
+#!/usr/bin/env bash
+# The server the end-to-end tests run against: a fresh database, demo data, fakes, production build.
+set -euo pipefail
+cd "$(dirname "$0")/.."
+rm -rf data/e2e && mkdir -p data/e2e
+export DATABASE_URL="file:./data/e2e/emberwright.db"
+export UPLOADS_DIR="./data/e2e/uploads"
+export PAYMENTS_FAKE_STATE="./data/e2e/payments-fake.json"
+export SESSION_SECRET="e2e-secret-0123456789abcdef0123456789abcdef"
+export PORT="${E2E_PORT:-3210}" HOST=127.0.0.1
+export EMAIL_FAKE_PORT=4110 PAYMENTS_FAKE_PORT=4120
+npm run --silent db:migrate
+npm run --silent db:seed
+pids=()
+trap 'for pid in "${pids[@]}"; do kill "$pid" 2>/dev/null || true; done' EXIT INT TERM
+# shellcheck source=/dev/null
+source scripts/start-fakes.sh
+NODE_ENV=production npx react-router-serve ./build/server/index.js &
+pids+=($!)
+wait "${pids[-1]}"
