@@ -203,7 +203,8 @@ function layWholeRing(wallUnit: WallUnitSize, unitCount: number): CourseLayout {
  * face is 2(a + T)·tan(φ/2) wide. Rules (common practice, no source):
  *  - a leftover under MIN_CLOSURE_FACE_IN at the face is shared among the face joints, no closure;
  *  - a closure must be at least half a unit wide at the face; a narrower leftover is instead split,
- *    with one whole unit, into two equal closure units (each between half and a whole unit).
+ *    with one whole unit, into two equal closure units, each spanning between half and a whole
+ *    unit's angle (so about half a unit wide or more, never a sliver).
  */
 function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): CourseLayout {
   const { faceIn: f, backIn: b, depthIn: t } = wallUnit;

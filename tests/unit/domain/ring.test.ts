@@ -253,7 +253,9 @@ test("an exact bowl's whole units and closures always add up to 360° with closu
       expect(plan.unitCount * unitDeg + closureDeg + spreadDeg).toBeCloseTo(360, 9);
       expect(plan.bowlDiameterIn).toBe(bowlDiameterIn);
       if (plan.closure) {
-        expect(plan.closure.faceWidthIn).toBeGreaterThanOrEqual(wallUnit.faceIn / 2 - 1e-6);
+        // A single closure is at least half a unit at the face; split closures at least half a unit's angle.
+        if (plan.closure.countPerCourse === 1) expect(plan.closure.faceWidthIn).toBeGreaterThanOrEqual(wallUnit.faceIn / 2 - 1e-9);
+        expect(plan.closure.angleDeg).toBeGreaterThanOrEqual(plan.runningBondDeg - 1e-9);
         expect(plan.closure.faceWidthIn).toBeLessThanOrEqual(wallUnit.faceIn + 1e-9);
         expect(plan.closure.backWidthIn).toBeLessThanOrEqual(wallUnit.backIn + 1e-9);
       } else {
