@@ -11,6 +11,7 @@ export default defineConfig({
   test: {
     include: ["tests/unit/**/*.test.{ts,tsx}"],
     environment: "node",
+    setupFiles: ["tests/unit/support/setup-env.ts"],
     pool: "forks",
     testTimeout: 20_000,
     hookTimeout: 30_000,

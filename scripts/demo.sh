@@ -34,6 +34,6 @@ cat <<INFO
 ${FAKES_INFO:-}
 INFO
 
-NODE_ENV=production npx react-router-serve ./build/server/index.js &
+NODE_ENV=production node_modules/.bin/react-router-serve ./build/server/index.js &
 pids+=($!)
 wait "${pids[-1]}"

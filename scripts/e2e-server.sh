@@ -15,6 +15,6 @@ pids=()
 trap 'for pid in "${pids[@]}"; do kill "$pid" 2>/dev/null || true; done' EXIT INT TERM
 # shellcheck source=/dev/null
 source scripts/start-fakes.sh
-NODE_ENV=production npx react-router-serve ./build/server/index.js &
+NODE_ENV=production node_modules/.bin/react-router-serve ./build/server/index.js &
 pids+=($!)
 wait "${pids[-1]}"

@@ -4,7 +4,7 @@ FAKES_INFO=""
 if [ -f fakes/email/server.ts ]; then
   export EMAIL_FAKE_PORT="${EMAIL_FAKE_PORT:-4010}"
   export RESEND_BASE_URL="http://127.0.0.1:${EMAIL_FAKE_PORT}"
-  npx tsx fakes/email/server.ts &
+  node_modules/.bin/tsx fakes/email/server.ts &
   pids+=($!)
   FAKES_INFO+="  Local mail catcher:          ${RESEND_BASE_URL}"$'\n'
 fi
@@ -12,7 +12,7 @@ if [ -f fakes/payments/server.ts ]; then
   export PAYMENTS_FAKE_PORT="${PAYMENTS_FAKE_PORT:-4020}"
   export STRIPE_API_BASE="http://127.0.0.1:${PAYMENTS_FAKE_PORT}"
   export PAYMENTS_FAKE_WEBHOOK_URL="http://127.0.0.1:${PORT}/api/webhooks/stripe"
-  npx tsx fakes/payments/server.ts &
+  node_modules/.bin/tsx fakes/payments/server.ts &
   pids+=($!)
   FAKES_INFO+="  Local payments service:      ${STRIPE_API_BASE}"$'\n'
 fi

@@ -48,11 +48,11 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
             {KIND_INFO[group.kind].plural}
           </h2>
           <div className="overflow-x-auto">
-            <table className="w-full min-w-[36rem] text-left text-sm">
+            <table className="w-full sm:min-w-[36rem] text-left text-sm">
               <thead className="text-xs text-char-500 uppercase">
                 <tr>
                   <th scope="col" className="px-4 py-2 font-bold">Name</th>
-                  <th scope="col" className="px-4 py-2 font-bold">Colour</th>
+                  <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">Colour</th>
                   <th scope="col" className="px-4 py-2 font-bold">Size</th>
                   <th scope="col" className="px-4 py-2 text-right font-bold">Price</th>
                   <th scope="col" className="px-4 py-2 font-bold">Status</th>
@@ -70,13 +70,13 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
                         item.name
                       )}
                     </td>
-                    <td className="px-4 py-2.5">
+                    <td className="hidden px-4 py-2.5 sm:table-cell">
                       <span className="inline-flex items-center gap-2">
                         <span className="h-4 w-4 rounded border border-char-800/20" style={{ backgroundColor: item.colourHex }} aria-hidden="true" />
                         {item.colourName || "—"}
                       </span>
                     </td>
-                    <td className="px-4 py-2.5 tabular-nums">{sizeOf(item)}</td>
+                    <td className="px-4 py-2.5 whitespace-nowrap tabular-nums">{sizeOf(item)}</td>
                     <td className="px-4 py-2.5 text-right tabular-nums">
                       {formatMoney(item.priceCents)} <span className="text-char-500">/ {KIND_INFO[item.kind].priceUnit}</span>
                     </td>

@@ -66,7 +66,7 @@ export default function HomeRoute() {
           <h2 className="text-2xl font-extrabold">Built on the trade's geometry</h2>
           <p className="mt-3 max-w-3xl text-char-600">
             Straight units around a centre make a polygon, not a circle. Emberwright measures every diameter to the
-            middle of a unit's face, tells you whether the face joints or the back joints close first, and cuts each
+            middle of a unit's straight face, not its corners, tells you whether the face joints or the back joints close first, and cuts each
             cap as an identical wedge so the joints stay even all the way round.
           </p>
         </section>
