@@ -4,6 +4,7 @@ set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-chromium.sh
 npm run --silent typecheck
+node scripts/check-boundaries.mjs
 npx vitest run
 npm run --silent build
 npx playwright test
