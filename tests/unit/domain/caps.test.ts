@@ -1,0 +1,169 @@
+import fc from "fast-check";
+import { expect, test } from "vitest";
+import { planCaps, type CapBlank } from "~/domain/caps";
+import { PlanGeometryError } from "~/domain/plan-geometry-error";
+import { capPolygon, gapBetween, overlapArea } from "./flatten-shapes";
+
+// Worked example: wall back edge distance 18 in, 8 in deep wall, 16 × 12 in blanks, 2 in inner
+// overhang, 3/16 in joints (derived here from the regular-polygon formulas).
+const BLANK: CapBlank = { lengthIn: 16, depthIn: 12, thicknessIn: 2.5, innerOverhangIn: 2 };
+const example = () => planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: BLANK, jointIn: 3 / 16, spares: 1 });
+
+function thrown(fn: () => unknown): PlanGeometryError {
+  try {
+    fn();
+  } catch (error) {
+    if (error instanceof PlanGeometryError) return error;
+    throw error;
+  }
+  throw new Error("expected a PlanGeometryError");
+}
+
+test("16 × 12 in blanks on an 18 in edge distance wall make 12 caps, 8.380 in inside and 14.811 in outside (derived here from the formulas)", () => {
+  const caps = example();
+  expect(caps.count).toBe(12);
+  expect(caps.innerEdgeDistanceIn).toBe(16);
+  expect(caps.outerEdgeDistanceIn).toBe(28);
+  expect(caps.outerOverhangIn).toBe(2);
+  expect(caps.innerWidthIn).toBeCloseTo(8.38, 3);
+  expect(caps.outerWidthIn).toBeCloseTo(14.811, 3);
+});
+
+test("the worked-example caps are marked 3.810 in and 0.594 in from each corner and cut 12.423 in long, 15° off square (derived here from the formulas)", () => {
+  const caps = example();
+  expect(caps.innerMarkIn).toBeCloseTo(3.81, 3);
+  expect(caps.outerMarkIn).toBeCloseTo(0.594, 3);
+  expect(caps.sideCutLengthIn).toBeCloseTo(12.423, 3);
+  expect(caps.offSquareDeg).toBeCloseTo(15, 12);
+  expect(caps.ripToDepthIn).toBeNull();
+});
+
+test("the worked-example blanks lose about 28 % to offcut (trapezoid against the blank, derived here)", () => {
+  const caps = example();
+  expect(caps.offcutShare).toBeCloseTo(1 - (((8.380259873969 + 14.811040492316) / 2) * 12) / (16 * 12), 9);
+  expect(caps.offcutShare).toBeGreaterThan(0.2);
+  expect(caps.offcutShare).toBeLessThan(0.3);
+});
+
+test("arced edges obey the circle-segment formulas c = 2r·sin(α/2), h = r(1 − cos(α/2)), l = π·r·α/180 (Machinery's Handbook, Segments of a Circle)", () => {
+  const caps = example();
+  const inner = { r: caps.innerRadiusIn, alpha: caps.innerArcDeg };
+  expect(2 * inner.r * Math.sin((inner.alpha * Math.PI) / 360)).toBeCloseTo(caps.innerWidthIn, 9);
+  expect(inner.r * (1 - Math.cos((inner.alpha * Math.PI) / 360))).toBeCloseTo(caps.innerSagittaIn, 9);
+  expect((Math.PI * inner.r * inner.alpha) / 180).toBeCloseTo(caps.innerArcLengthIn, 9);
+  const outer = { r: caps.outerRadiusIn, alpha: caps.outerArcDeg };
+  expect(outer.r).toBe(28);
+  expect(2 * outer.r * Math.sin((outer.alpha * Math.PI) / 360)).toBeCloseTo(caps.outerWidthIn, 9);
+  expect(outer.r * (1 - Math.cos((outer.alpha * Math.PI) / 360))).toBeCloseTo(caps.outerSagittaIn, 9);
+  expect((Math.PI * outer.r * outer.alpha) / 180).toBeCloseTo(caps.outerArcLengthIn, 9);
+});
+
+test("the inner arc passes through both inner corners (distance from the centre, Pythagoras)", () => {
+  const caps = example();
+  expect(Math.hypot(caps.innerEdgeDistanceIn, caps.innerWidthIn / 2)).toBeCloseTo(caps.innerRadiusIn, 12);
+  expect(caps.innerSagittaIn).toBeGreaterThan(0);
+});
+
+test("an outer overhang asked for rips the blank to T + o_i + o_o deep", () => {
+  const caps = planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: { ...BLANK, outerOverhangIn: 1 }, jointIn: 3 / 16, spares: 1 });
+  expect(caps.ripToDepthIn).toBe(11);
+  expect(caps.capDepthIn).toBe(11);
+  expect(caps.outerOverhangIn).toBe(1);
+  expect(caps.outerEdgeDistanceIn).toBe(27);
+  expect(caps.sideCutLengthIn).toBeCloseTo(11 / Math.cos(Math.PI / caps.count), 12);
+});
+
+test("caps that cannot be cut or cannot sit on the wall are refused with the field to blame", () => {
+  const plan = (cap: CapBlank, edgeDistanceIn = 18, jointIn = 3 / 16) =>
+    planCaps({ edgeDistanceIn, wallDepthIn: 8, cap, jointIn, spares: 1 });
+  expect(thrown(() => plan({ ...BLANK, outerOverhangIn: 3 })).path).toBe("cap.outerOverhangIn");
+  const shallow = thrown(() => plan({ ...BLANK, depthIn: 5 }));
+  expect(shallow.path).toBe("cap.depthIn");
+  expect(shallow.message).toMatch(/not deep enough to sit on the wall: .* at least 6 in deep .* and 10 in to cover it/);
+  expect(thrown(() => plan({ ...BLANK, innerOverhangIn: 6 }, 5)).path).toBe("cap.innerOverhangIn");
+  expect(thrown(() => plan({ ...BLANK, depthIn: 0 })).path).toBe("cap.depthIn");
+  expect(thrown(() => plan(BLANK, 18, -1)).path).toBe("jointIn");
+});
+
+const capCase = fc.record({
+  edgeDistanceIn: fc.double({ min: 12, max: 36, noNaN: true }),
+  wallDepthIn: fc.double({ min: 5, max: 12, noNaN: true }),
+  lengthIn: fc.double({ min: 12, max: 30, noNaN: true }),
+  extraDepthIn: fc.double({ min: 0, max: 6, noNaN: true }),
+  innerOverhangIn: fc.double({ min: 0, max: 3, noNaN: true }),
+  jointIn: fc.double({ min: 0, max: 0.5, noNaN: true }),
+});
+type CapCase = { edgeDistanceIn: number; wallDepthIn: number; lengthIn: number; extraDepthIn: number; innerOverhangIn: number; jointIn: number };
+const planCase = (c: CapCase) =>
+  planCaps({
+    edgeDistanceIn: c.edgeDistanceIn,
+    wallDepthIn: c.wallDepthIn,
+    cap: { lengthIn: c.lengthIn, depthIn: c.wallDepthIn + c.innerOverhangIn + c.extraDepthIn, thicknessIn: 2.5, innerOverhangIn: c.innerOverhangIn },
+    jointIn: c.jointIn,
+    spares: 1,
+  });
+
+test("caps close the circle: N_c times the angle between a cap's side cuts is 360° (property, derived here)", () => {
+  fc.assert(
+    fc.property(capCase, (c) => {
+      const caps = planCase(c);
+      const sideAngle = 2 * Math.atan((caps.outerWidthIn - caps.innerWidthIn) / (2 * caps.capDepthIn));
+      expect((caps.count * sideAngle * 180) / Math.PI).toBeCloseTo(360, 9);
+      expect(caps.count * 2 * caps.offSquareDeg).toBeCloseTo(360, 9);
+    }),
+  );
+});
+
+test("caps narrow toward the fire and never exceed the blank: 0 < inner < outer ≤ length (property)", () => {
+  fc.assert(
+    fc.property(capCase, (c) => {
+      const caps = planCase(c);
+      expect(caps.innerWidthIn).toBeGreaterThan(0);
+      expect(caps.innerWidthIn).toBeLessThan(caps.outerWidthIn);
+      expect(caps.outerWidthIn).toBeLessThanOrEqual(caps.blankLengthIn + 1e-9);
+      // One cap fewer would not fit the blank: the count is the smallest that works.
+      if (caps.count > 3) {
+        const half = Math.PI / (caps.count - 1);
+        expect(2 * caps.outerEdgeDistanceIn * Math.tan(half) - caps.jointIn / Math.cos(half)).toBeGreaterThan(caps.blankLengthIn);
+      }
+    }),
+  );
+});
+
+test("a shorter blank never fits fewer caps (property)", () => {
+  fc.assert(
+    fc.property(capCase, fc.double({ min: 0, max: 8, noNaN: true }), (c, shorterByIn) => {
+      const long = planCase(c);
+      const short = planCase({ ...c, lengthIn: c.lengthIn - shorterByIn });
+      expect(short.count).toBeGreaterThanOrEqual(long.count);
+    }),
+  );
+});
+
+test("a ring of caps laid out with flatten-js: no overlaps, every joint exactly j wide, all inside the annulus a1…outer corner (@flatten-js/core as reference)", () => {
+  for (const [edgeDistanceIn, jointIn, lengthIn] of [
+    [18, 3 / 16, 16],
+    [20, 0.25, 20],
+    [15, 0, 16],
+    [24, 0.5, 18],
+  ]) {
+    const caps = planCaps({ edgeDistanceIn, wallDepthIn: 8, cap: { ...BLANK, lengthIn }, jointIn, spares: 1 });
+    const step = (2 * Math.PI) / caps.count;
+    const polygons = Array.from({ length: caps.count }, (_, k) =>
+      capPolygon(caps.innerEdgeDistanceIn, caps.outerEdgeDistanceIn, caps.innerWidthIn, caps.outerWidthIn, k * step),
+    );
+    for (let k = 0; k < caps.count; k++) {
+      const next = polygons[(k + 1) % caps.count];
+      expect(overlapArea(polygons[k], next)).toBeLessThan(1e-9);
+      expect(Math.abs(gapBetween(polygons[k], next) - jointIn)).toBeLessThan(1e-6);
+      for (const v of polygons[k].vertices) {
+        const r = Math.hypot(v.x, v.y);
+        expect(r).toBeGreaterThanOrEqual(caps.innerEdgeDistanceIn - 1e-9);
+        expect(r).toBeLessThanOrEqual(caps.outerCornerRadiusIn + 1e-9);
+      }
+    }
+    // The caps cover the wall's top: the wall's back at a and face at a + T lie between a1 and a2.
+    expect(caps.innerEdgeDistanceIn).toBeLessThanOrEqual(edgeDistanceIn);
+    expect(caps.outerEdgeDistanceIn).toBeGreaterThanOrEqual(edgeDistanceIn + 8);
+  }
+});
