@@ -119,3 +119,135 @@ export const catalogItems = sqliteTable(
 export type Company = typeof companies.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type CatalogItem = typeof catalogItems.$inferSelect;
+
+export const LEAD_STATUSES = ["new", "contacted", "consult-booked", "proposal-sent", "won", "lost"] as const;
+export type LeadStatus = (typeof LEAD_STATUSES)[number];
+
+export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
+export type BuildWindow = (typeof BUILD_WINDOWS)[number];
+
+// A homeowner's request. The design, the computed plan and the price are a snapshot taken when it
+// was sent, so later catalog or price changes never alter what the customer saw.
+export const leads = sqliteTable(
+  "leads",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    homeownerId: integer("homeowner_id").references(() => users.id),
+    status: text("status", { enum: LEAD_STATUSES }).notNull().default("new"),
+    lostReason: text("lost_reason"),
+    assignedUserId: integer("assigned_user_id").references(() => users.id),
+    customerName: text("customer_name").notNull(),
+    email: text("email").notNull(),
+    phone: text("phone").notNull(),
+    street: text("street").notNull(),
+    town: text("town").notNull(),
+    buildWindow: text("build_window", { enum: BUILD_WINDOWS }).notNull(),
+    notes: text("notes").notNull().default(""),
+    designJson: text("design_json").notNull(),
+    planJson: text("plan_json").notNull(),
+    stoneName: text("stone_name").notNull(),
+    bowlDiameterIn: real("bowl_diameter_in").notNull(),
+    priceLowCents: integer("price_low_cents"),
+    priceHighCents: integer("price_high_cents"),
+    createdAt: createdAt(),
+    updatedAt: text("updated_at")
+      .notNull()
+      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+  },
+  (t) => [
+    index("leads_company_created_idx").on(t.companyId, t.createdAt),
+    index("leads_company_status_created_idx").on(t.companyId, t.status, t.createdAt),
+    index("leads_company_assignee_idx").on(t.companyId, t.assignedUserId, t.createdAt),
+    index("leads_company_email_idx").on(t.companyId, t.email),
+    index("leads_company_town_idx").on(t.companyId, t.town),
+    index("leads_homeowner_idx").on(t.homeownerId),
+  ],
+);
+
+export const leadPhotos = sqliteTable(
+  "lead_photos",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    // A generated name; the customer's file name is kept only as a label.
+    storedName: text("stored_name").notNull().unique(),
+    originalName: text("original_name").notNull(),
+    mimeType: text("mime_type").notNull(),
+    sizeBytes: integer("size_bytes").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("lead_photos_lead_idx").on(t.leadId)],
+);
+
+export const leadEvents = sqliteTable(
+  "lead_events",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    actorUserId: integer("actor_user_id").references(() => users.id),
+    kind: text("kind").notNull(),
+    detail: text("detail").notNull().default(""),
+    createdAt: createdAt(),
+  },
+  (t) => [index("lead_events_lead_idx").on(t.leadId, t.createdAt)],
+);
+
+export const OUTBOX_STATUSES = ["pending", "sent", "failed"] as const;
+
+// Transactional outbox: written in the same batch as the row that triggers the e-mail; a worker
+// sends it with the idempotency key, so each message goes out once even across retries.
+export const emailOutbox = sqliteTable(
+  "email_outbox",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id").references(() => companies.id),
+    idempotencyKey: text("idempotency_key").notNull().unique(),
+    toAddress: text("to_address").notNull(),
+    subject: text("subject").notNull(),
+    html: text("html").notNull(),
+    text: text("text").notNull(),
+    attachmentsJson: text("attachments_json").notNull().default("[]"),
+    status: text("status", { enum: OUTBOX_STATUSES }).notNull().default("pending"),
+    attempts: integer("attempts").notNull().default(0),
+    sendAfter: text("send_after")
+      .notNull()
+      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+    lastError: text("last_error"),
+    providerId: text("provider_id"),
+    sentAt: text("sent_at"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("email_outbox_due_idx").on(t.status, t.sendAfter)],
+);
+
+// One-time links (set a password, accept an invitation). Only the SHA-256 of the token is kept.
+export const oneTimeTokens = sqliteTable(
+  "one_time_tokens",
+  {
+    tokenHash: text("token_hash").primaryKey(),
+    userId: integer("user_id")
+      .notNull()
+      .references(() => users.id, { onDelete: "cascade" }),
+    purpose: text("purpose", { enum: ["set-password", "invite"] }).notNull(),
+    expiresAt: text("expires_at").notNull(),
+    usedAt: text("used_at"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("one_time_tokens_user_idx").on(t.userId)],
+);
+
+export type Lead = typeof leads.$inferSelect;
+export type LeadPhoto = typeof leadPhotos.$inferSelect;
