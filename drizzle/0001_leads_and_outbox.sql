@@ -52,6 +52,7 @@ CREATE TABLE `leads` (
 	`id` integer PRIMARY KEY AUTOINCREMENT NOT NULL,
 	`company_id` integer NOT NULL,
 	`homeowner_id` integer,
+	`ref` text NOT NULL,
 	`status` text DEFAULT 'new' NOT NULL,
 	`lost_reason` text,
 	`assigned_user_id` integer,
@@ -75,6 +76,7 @@ CREATE TABLE `leads` (
 	FOREIGN KEY (`assigned_user_id`) REFERENCES `users`(`id`) ON UPDATE no action ON DELETE no action
 );
 --> statement-breakpoint
+CREATE UNIQUE INDEX `leads_ref_unique` ON `leads` (`ref`);--> statement-breakpoint
 CREATE INDEX `leads_company_created_idx` ON `leads` (`company_id`,`created_at`);--> statement-breakpoint
 CREATE INDEX `leads_company_status_created_idx` ON `leads` (`company_id`,`status`,`created_at`);--> statement-breakpoint
 CREATE INDEX `leads_company_assignee_idx` ON `leads` (`company_id`,`assigned_user_id`,`created_at`);--> statement-breakpoint

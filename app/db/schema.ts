@@ -136,6 +136,8 @@ export const leads = sqliteTable(
       .notNull()
       .references(() => companies.id),
     homeownerId: integer("homeowner_id").references(() => users.id),
+    // Unguessable handle for the homeowner's confirmation page (ids are sequential).
+    ref: text("ref").notNull().unique(),
     status: text("status", { enum: LEAD_STATUSES }).notNull().default("new"),
     lostReason: text("lost_reason"),
     assignedUserId: integer("assigned_user_id").references(() => users.id),

@@ -34,3 +34,16 @@ export const db = opened.db;
 
 // Migrations run once, when the server first loads this module.
 await prepareDatabase(client, db, env.DATABASE_URL);
+
+let writeQueue: Promise<unknown> = Promise.resolve();
+
+/**
+ * Runs an interactive write transaction behind an in-process queue. libSQL answers SQLITE_BUSY at
+ * once when a second write meets an open transaction, so writes that need one wait their turn.
+ * Never await a network call (payments, e-mail) inside `work`.
+ */
+export function writeTransaction<T>(work: Parameters<Db["transaction"]>[0] extends (tx: infer Tx) => unknown ? (tx: Tx) => Promise<T> : never): Promise<T> {
+  const run = writeQueue.then(() => db.transaction(work));
+  writeQueue = run.catch(() => undefined);
+  return run;
+}

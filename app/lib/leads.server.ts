@@ -1,0 +1,156 @@
+import { and, desc, eq } from "drizzle-orm";
+import { emailOutbox, leadEvents, leadPhotos, leads, oneTimeTokens, users, type Company, type Lead } from "~/db/schema";
+import type { DesignSummaryLine } from "~/emails/design-summary";
+import { LeadReceivedEmail } from "~/emails/lead-received";
+import { NewLeadEmail } from "~/emails/new-lead";
+import { db, writeTransaction } from "~/lib/db.server";
+import { prepareOutboxRow } from "~/lib/email.server";
+import type { LeadFormInput } from "~/lib/lead-schema";
+import { createRef, createToken } from "~/lib/tokens.server";
+import { deleteStoredPhotos, storePhotos, type CheckedPhoto } from "~/lib/uploads.server";
+
+export type LeadSnapshot = {
+  design: unknown;
+  plan: unknown;
+  stoneName: string;
+  bowlDiameterIn: number;
+  priceLowCents: number | null;
+  priceHighCents: number | null;
+  summary: DesignSummaryLine[];
+};
+
+const SET_PASSWORD_DAYS = 7;
+
+/**
+ * Saves a homeowner's request: photos on disk first (generated names), then in one transaction the
+ * lead with its design snapshot, its photos, a timeline event, the homeowner's account (new ones get
+ * a one-time set-password link) and two outbox e-mails. If the transaction fails the photos are
+ * deleted again, so nothing is half-saved; the outbox worker sends the e-mails later.
+ */
+export async function createLead(args: {
+  company: Company;
+  form: LeadFormInput;
+  snapshot: LeadSnapshot;
+  photos: CheckedPhoto[];
+  origin: string;
+}): Promise<Pick<Lead, "id" | "ref">> {
+  const { company, form, snapshot, photos, origin } = args;
+  const email = form.email.toLowerCase();
+  const storedNames = await storePhotos(photos);
+  try {
+    return await writeTransaction(async (tx) => {
+      const [existing] = await tx.select().from(users).where(eq(users.email, email)).limit(1);
+      let homeownerId: number | null = null;
+      let accountLink: string | null = null;
+      if (!existing) {
+        const [created] = await tx
+          .insert(users)
+          .values({ companyId: company.id, email, name: form.customerName, role: "homeowner" })
+          .returning({ id: users.id });
+        homeownerId = created!.id;
+      } else if (existing.role === "homeowner") {
+        homeownerId = existing.id;
+      }
+      if (homeownerId !== null && (!existing || !existing.passwordHash)) {
+        const { token, tokenHash } = createToken();
+        await tx.insert(oneTimeTokens).values({
+          tokenHash,
+          userId: homeownerId,
+          purpose: "set-password",
+          expiresAt: new Date(Date.now() + SET_PASSWORD_DAYS * 86_400_000).toISOString(),
+        });
+        accountLink = `${origin}/welcome/${token}`;
+      }
+
+      const ref = createRef();
+      const [lead] = await tx
+        .insert(leads)
+        .values({
+          companyId: company.id,
+          homeownerId,
+          ref,
+          customerName: form.customerName,
+          email,
+          phone: form.phone,
+          street: form.street,
+          town: form.town,
+          buildWindow: form.buildWindow,
+          notes: form.notes,
+          designJson: JSON.stringify(snapshot.design),
+          planJson: JSON.stringify(snapshot.plan),
+          stoneName: snapshot.stoneName,
+          bowlDiameterIn: snapshot.bowlDiameterIn,
+          priceLowCents: snapshot.priceLowCents,
+          priceHighCents: snapshot.priceHighCents,
+        })
+        .returning({ id: leads.id, ref: leads.ref });
+      const leadId = lead!.id;
+
+      if (storedNames.length) {
+        await tx.insert(leadPhotos).values(
+          storedNames.map((storedName, i) => ({
+            companyId: company.id,
+            leadId,
+            storedName,
+            originalName: photos[i]!.originalName,
+            mimeType: photos[i]!.mimeType,
+            sizeBytes: photos[i]!.bytes.byteLength,
+          })),
+        );
+      }
+      await tx.insert(leadEvents).values({
+        companyId: company.id,
+        leadId,
+        kind: "received",
+        detail: `Request sent from the configurator with ${storedNames.length} photo${storedNames.length === 1 ? "" : "s"}.`,
+      });
+
+      // Rendering is local CPU work; nothing here waits on the network.
+      const outbox = await Promise.all([
+        prepareOutboxRow({
+          idempotencyKey: `lead-received/${leadId}`,
+          companyId: company.id,
+          to: email,
+          subject: `${company.name} received your fire-pit request`,
+          template: LeadReceivedEmail({
+            companyName: company.name,
+            customerName: form.customerName,
+            summary: snapshot.summary,
+            accountLink,
+            requestLink: `${origin}/my`,
+          }),
+        }),
+        prepareOutboxRow({
+          idempotencyKey: `lead-new/${leadId}`,
+          companyId: company.id,
+          to: company.email,
+          subject: `New fire-pit request: ${form.customerName}, ${form.town}`,
+          template: NewLeadEmail({
+            companyName: company.name,
+            customerName: form.customerName,
+            town: form.town,
+            photoCount: storedNames.length,
+            summary: snapshot.summary,
+            leadLink: `${origin}/app/leads/${leadId}`,
+          }),
+        }),
+      ]);
+      await tx.insert(emailOutbox).values(outbox);
+      return { id: leadId, ref };
+    });
+  } catch (error) {
+    await deleteStoredPhotos(storedNames);
+    throw error;
+  }
+}
+
+/** A lead by its public reference, scoped to the company whose page it came from. */
+export async function findLeadByRef(companyId: number, ref: string): Promise<Lead | null> {
+  const [row] = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.ref, ref))).limit(1);
+  return row ?? null;
+}
+
+/** A homeowner's own requests, newest first. */
+export function listHomeownerLeads(homeownerId: number) {
+  return db.select().from(leads).where(eq(leads.homeownerId, homeownerId)).orderBy(desc(leads.createdAt));
+}
