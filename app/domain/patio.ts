@@ -94,8 +94,9 @@ export function planPatio(args: {
   const pitFootprintIn2 = Math.PI * pitOutsideEdgeDistanceIn ** 2;
   const fieldAreaIn2 = Math.PI * r * r - pitFootprintIn2;
   const pavedAreaIn2 = Math.PI * R * R - pitFootprintIn2;
-  const paverCount = Math.ceil(
-    (fieldAreaIn2 / (paver.lengthIn * paver.widthIn)) * (1 + factors.paverWastePct / 100) - 1e-9,
+  const paverCount = Math.max(
+    0,
+    Math.ceil((fieldAreaIn2 / (paver.lengthIn * paver.widthIn)) * (1 + factors.paverWastePct / 100) - 1e-9),
   );
   const beddingSandYd3 = (pavedAreaIn2 * factors.beddingSandDepthIn) / IN3_PER_YD3;
   const pavedAreaFt2 = pavedAreaIn2 / IN2_PER_FT2;
@@ -113,6 +114,6 @@ export function planPatio(args: {
     paverCount,
     beddingSandYd3,
     beddingSandTons: beddingSandYd3 * factors.sandTonsPerYd3,
-    jointSandBags: Math.ceil((pavedAreaFt2 * factors.jointSandLbPerFt2) / factors.jointSandBagLb - 1e-9),
+    jointSandBags: Math.max(0, Math.ceil((pavedAreaFt2 * factors.jointSandLbPerFt2) / factors.jointSandBagLb - 1e-9)),
   };
 }

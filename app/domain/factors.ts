@@ -1,0 +1,144 @@
+/**
+ * Every contractor-editable number the estimate depends on. Company settings override any of
+ * them; the defaults below are starting points, each tagged with where it comes from. Percent
+ * values are 0–100 (15 means 15 %), matching how the company settings store them.
+ */
+export type CompanyFactors = {
+  /** Extra wall units for breakage, % of units laid. */
+  wallUnitSparePct: number;
+  /** Never fewer spare wall units than this. */
+  wallUnitMinSpares: number;
+  /** Extra cap blanks for breakage and a bad cut. */
+  capSpares: number;
+  firebrickSparePct: number;
+  borderUnitSparePct: number;
+  /** Extra field pavers for cuts and breakage, %. */
+  paverWastePct: number;
+
+  /** Compacted base depth under the pit, in. */
+  baseDepthIn: number;
+  /** How far the base reaches past the pit's outside corners, in. */
+  baseBeyondFaceIn: number;
+  /** Compacted base depth under a patio, in. */
+  patioBaseDepthIn: number;
+  /** Loose volume per compacted volume of base aggregate. */
+  baseLooseFactor: number;
+  /** Extra aggregate for spillage and uneven ground, %. */
+  baseWastePct: number;
+  /** Weight of loose base aggregate, short tons per yd³. */
+  baseTonsPerYd3: number;
+
+  /** Length of 3/8 in bead one 10.1 fl oz cartridge lays, in. */
+  adhesiveBeadInPerCartridge: number;
+  /** Beads run along each unit (or cap) for every glued layer. */
+  adhesiveBeadsPerUnit: number;
+  /** Courses glued to the one below, counted from the top. Caps are always glued. */
+  gluedCourses: number;
+
+  /** Smallest gap each side between a steel ring insert and the wall, in. */
+  linerMinGapIn: number;
+
+  beddingSandDepthIn: number;
+  /** Weight of bedding sand, short tons per yd³. */
+  sandTonsPerYd3: number;
+  /** Joint sand used per ft² of paving, lb. */
+  jointSandLbPerFt2: number;
+  jointSandBagLb: number;
+
+  /** The company's required distance from the fire to structures and combustibles, ft. */
+  requiredSetbackFt: number;
+
+  /** Layout, set-up and clean-up for the job, labour-hours. */
+  setupHours: number;
+  /** Excavating and compacting the pit's base, labour-hours per ft² of base. */
+  basePrepHoursPerFt2: number;
+  /** Setting one wall unit above the first course, labour-minutes. */
+  minutesPerUnitSet: number;
+  /** Setting and levelling one first-course unit, labour-minutes. */
+  minutesPerFirstCourseUnit: number;
+  /** One wet saw cut through a cap or wall unit (side cut, rip, closure cut, trim), labour-minutes. */
+  minutesPerSawCut: number;
+  /** Gluing and setting one cap, labour-minutes. */
+  minutesPerCapSet: number;
+  /** Setting a steel ring insert and backfilling its gap, labour-hours. */
+  steelRingHours: number;
+  /** Setting one firebrick, labour-minutes. */
+  minutesPerFirebrick: number;
+  /** Base, bedding, border, field cuts and joint sand for a patio, labour-hours per ft². */
+  patioHoursPerFt2: number;
+
+  labourRateCentsPerHour: number;
+  overheadPct: number;
+  marginPct: number;
+  /** The quoted range runs this % either side of the total. */
+  priceSpreadPct: number;
+  /** The range's ends are rounded out to a multiple of this, cents (low down, high up). */
+  priceRoundCents: number;
+};
+
+export const DEFAULT_FACTORS: CompanyFactors = {
+  wallUnitSparePct: 5, // common practice, no source: wall units +5 % or 1–2 spares
+  wallUnitMinSpares: 1, // common practice, no source
+  capSpares: 1, // common practice, no source: caps + 1 spare
+  firebrickSparePct: 5, // common practice, no source
+  borderUnitSparePct: 5, // common practice, no source
+  paverWastePct: 10, // common practice, no source: round patios cut many pavers
+
+  baseDepthIn: 6, // from memory: compacted dense-graded stone 4–6 in, in lifts
+  baseBeyondFaceIn: 6, // from memory: about 6 in past the outside face
+  patioBaseDepthIn: 4, // from memory: 4–6 in under foot-traffic paving
+  baseLooseFactor: 1.25, // from memory: loose ≈ compacted × 1.2–1.3
+  baseWastePct: 10, // common practice, no source: aggregate +10–15 %
+  baseTonsPerYd3: 1.4, // from memory: about 1.4 t per yd³ of crushed stone
+
+  // 10.1 US fl oz = 10.1 × 231/128 in³ = 18.23 in³ (NIST SP 811); a 3/8 in bead has
+  // π(3/16)² = 0.1104 in² of section, so one cartridge lays 18.23 / 0.1104 ≈ 165 in (derived here).
+  adhesiveBeadInPerCartridge: 165,
+  adhesiveBeadsPerUnit: 2, // from memory: unit makers' gluing instructions show two beads
+  gluedCourses: 1, // common practice, no source: glue at least the top course and the caps
+
+  linerMinGapIn: 0.25, // common practice, no source: a small gravel-filled gap
+
+  beddingSandDepthIn: 1, // common practice, no source: 1 in screeded bedding
+  sandTonsPerYd3: 1.35, // from memory
+  jointSandLbPerFt2: 1, // from memory: polymeric sand coverage varies with joint and paver size
+  jointSandBagLb: 50, // from memory: the common bag size
+
+  requiredSetbackFt: 25, // International Fire Code §307.4.2: 25 ft from structures and combustibles
+
+  // Labour, from memory: a two-person crew builds a 3-course, 14-unit pit with 12 cut caps and a
+  // steel ring in roughly 8–14 labour-hours; these split that figure across the work.
+  setupHours: 2,
+  basePrepHoursPerFt2: 0.15,
+  minutesPerUnitSet: 3,
+  minutesPerFirstCourseUnit: 5,
+  minutesPerSawCut: 3,
+  minutesPerCapSet: 5,
+  steelRingHours: 0.5,
+  minutesPerFirebrick: 2,
+  patioHoursPerFt2: 0.12,
+
+  labourRateCentsPerHour: 7500, // placeholder, set by each company
+  overheadPct: 15, // placeholder, set by each company
+  marginPct: 20, // placeholder, set by each company
+  priceSpreadPct: 12, // placeholder, set by each company
+  priceRoundCents: 5000, // round the range to $50
+};
+
+/** Prices of the bulk supplies the plan itself quantifies, integer cents. */
+export type SupplyPrices = {
+  aggregatePerTonCents?: number | null;
+  adhesivePerCartridgeCents?: number | null;
+  beddingSandPerTonCents?: number | null;
+  jointSandPerBagCents?: number | null;
+};
+
+/** Merges company overrides over the defaults (no rounding); unknown or non-finite overrides are ignored. */
+export function resolveFactors(overrides?: Partial<CompanyFactors>): CompanyFactors {
+  const factors: CompanyFactors = { ...DEFAULT_FACTORS };
+  for (const key of Object.keys(DEFAULT_FACTORS) as (keyof CompanyFactors)[]) {
+    const value = overrides?.[key];
+    if (typeof value === "number" && Number.isFinite(value)) factors[key] = value;
+  }
+  return factors;
+}

@@ -1,0 +1,191 @@
+/**
+ * computePlan: the whole estimate for one round fire pit, from the wall ring to the price. Pure
+ * and synchronous; all lengths in inches, money in integer cents, the result JSON-serialisable.
+ */
+import { listCautions, listWarnings, type Caution, type Warning } from "~/domain/advice";
+import { planCaps, type CapBlank, type CapPlan } from "~/domain/caps";
+import { resolveFactors, type CompanyFactors, type SupplyPrices } from "~/domain/factors";
+import { planFirebrick, planSteelRing, type LinerPlan } from "~/domain/liner";
+import { planPatio, type PatioPlan } from "~/domain/patio";
+import { PlanGeometryError } from "~/domain/plan-geometry-error";
+import { estimateLabour, priceJob, type LabourTask, type PriceEstimate, type UnitPrices } from "~/domain/pricing";
+import {
+  estimateAdhesive,
+  estimateBase,
+  listMaterials,
+  type AdhesiveEstimate,
+  type BaseEstimate,
+  type MaterialLine,
+} from "~/domain/quantities";
+import {
+  MAX_UNITS_PER_COURSE,
+  MIN_UNITS_PER_COURSE,
+  bowlDiameterForCount,
+  planRing,
+  type RingNeighbour,
+  type RingPlan,
+  type RingTarget,
+  type WallUnitSize,
+} from "~/domain/ring";
+
+export { PlanGeometryError };
+
+/** Sanded joints between caps are about 3/16 in (common practice, no source). */
+export const DEFAULT_JOINT_IN = 3 / 16;
+
+type Priced = { priceCents?: number; name?: string };
+
+export type WallUnitInput = WallUnitSize & Priced;
+export type CapInput = CapBlank & Priced;
+export type LinerInput =
+  | { kind: "none" }
+  | ({ kind: "steel-ring"; outsideDiameterIn: number; heightIn: number } & Priced)
+  | ({ kind: "firebrick"; lengthIn: number; widthIn: number; heightIn: number } & Priced);
+export type PatioInput = {
+  outsideRadiusIn: number;
+  border: { widthIn: number; lengthIn: number } & Priced;
+  paver: { lengthIn: number; widthIn: number } & Priced;
+};
+
+export type PlanInput = {
+  ring: RingTarget;
+  wallUnit: WallUnitInput;
+  courses: number;
+  cap: CapInput | null;
+  jointIn?: number;
+  liner?: LinerInput;
+  patio?: PatioInput | null;
+  site?: { setbackFt?: number };
+};
+
+export type PlanOptions = { factors?: Partial<CompanyFactors>; supplyPrices?: SupplyPrices };
+
+export type Plan = {
+  ring: RingPlan;
+  caps: CapPlan | null;
+  liner: LinerPlan | null;
+  patio: PatioPlan | null;
+  base: BaseEstimate;
+  adhesive: AdhesiveEstimate;
+  materials: MaterialLine[];
+  labour: { hours: number; tasks: LabourTask[]; sawCuts: number };
+  price: PriceEstimate | null;
+  warnings: Warning[];
+  cautions: Caution[];
+};
+
+function findRingForBowl(wallUnit: WallUnitSize, bowlDiameterIn: number): RingNeighbour | null {
+  for (let n = MIN_UNITS_PER_COURSE; n <= MAX_UNITS_PER_COURSE; n++) {
+    const id = bowlDiameterForCount(wallUnit, n);
+    if (id >= bowlDiameterIn - 1e-9) return { unitCount: n, bowlDiameterIn: id };
+  }
+  return null;
+}
+
+/** Computes the full plan (in, ft², yd³, integer cents; see each part for its rounding); throws PlanGeometryError when it cannot be built. */
+export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
+  const factors = resolveFactors(options.factors);
+  const jointIn = input.jointIn ?? DEFAULT_JOINT_IN;
+  const { wallUnit, cap } = input;
+  const liner = input.liner ?? { kind: "none" };
+  const patioInput = input.patio ?? null;
+
+  const ring = planRing({
+    target: input.ring,
+    wallUnit,
+    courses: input.courses,
+    capThicknessIn: cap ? cap.thicknessIn : 0,
+  });
+  const caps = cap
+    ? planCaps({
+        edgeDistanceIn: ring.edgeDistanceIn,
+        wallDepthIn: wallUnit.depthIn,
+        cap,
+        jointIn,
+        spares: factors.capSpares,
+      })
+    : null;
+
+  const linedHeightIn = ring.courses * wallUnit.heightIn;
+  let linerPlan: LinerPlan | null = null;
+  if (liner.kind === "steel-ring") {
+    for (const key of ["outsideDiameterIn", "heightIn"] as const) {
+      if (!Number.isFinite(liner[key]) || liner[key] <= 0) {
+        throw new PlanGeometryError(`liner.${key}`, "This size must be a length above 0 in.");
+      }
+    }
+    linerPlan = planSteelRing({ bowlDiameterIn: ring.bowlDiameterIn, insert: liner, minGapIn: factors.linerMinGapIn });
+  } else if (liner.kind === "firebrick") {
+    for (const key of ["lengthIn", "widthIn", "heightIn"] as const) {
+      if (!Number.isFinite(liner[key]) || liner[key] <= 0) {
+        throw new PlanGeometryError(`liner.${key}`, "This size must be a length above 0 in.");
+      }
+    }
+    linerPlan = planFirebrick({ bowlDiameterIn: ring.bowlDiameterIn, linedHeightIn, brick: liner });
+  }
+
+  const patio = patioInput
+    ? planPatio({
+        patio: patioInput,
+        pitOutsideEdgeDistanceIn: ring.edgeDistanceIn + wallUnit.depthIn,
+        // Caps overhang above grade, so only the wall's own corners limit the border at grade.
+        pitOutsideCornerRadiusIn: ring.outsideCornerRadiusIn,
+        factors,
+      })
+    : null;
+
+  const base = estimateBase({ ring, patio, factors });
+  const adhesive = estimateAdhesive({ ring, wallUnit, hasCaps: caps !== null, factors });
+  const linerName = liner.kind === "none" ? undefined : liner.name;
+  const materials = listMaterials({
+    ring,
+    wallUnit,
+    caps,
+    capName: cap?.name,
+    liner: linerPlan,
+    linerName,
+    patio,
+    borderName: patioInput?.border.name,
+    paverName: patioInput?.paver.name,
+    base,
+    adhesive,
+    factors,
+  });
+  const labour = estimateLabour({ ring, caps, liner: linerPlan, patio, base, factors });
+
+  const supply = options.supplyPrices ?? {};
+  const unitPrices: UnitPrices = {
+    "wall-unit": wallUnit.priceCents,
+    cap: cap?.priceCents,
+    "steel-ring": liner.kind === "steel-ring" ? liner.priceCents : undefined,
+    firebrick: liner.kind === "firebrick" ? liner.priceCents : undefined,
+    paver: patioInput?.paver.priceCents,
+    "border-unit": patioInput?.border.priceCents,
+    aggregate: supply.aggregatePerTonCents,
+    adhesive: supply.adhesivePerCartridgeCents,
+    "bedding-sand": supply.beddingSandPerTonCents,
+    "joint-sand": supply.jointSandPerBagCents,
+  };
+  const price = priceJob({ materials, unitPrices, labourHours: labour.hours, factors });
+
+  const setbackFt = input.site?.setbackFt;
+  if (setbackFt !== undefined && (!Number.isFinite(setbackFt) || setbackFt < 0)) {
+    throw new PlanGeometryError("site.setbackFt", "The setback must be a distance of 0 ft or more.");
+  }
+  const warnings = listWarnings({
+    ring,
+    caps,
+    liner: linerPlan,
+    ringForLiner:
+      linerPlan?.kind === "steel-ring" && !linerPlan.fits
+        ? findRingForBowl(wallUnit, linerPlan.requiredBowlDiameterIn)
+        : null,
+  });
+  const cautions = listCautions({
+    linerKind: liner.kind,
+    requiredSetbackFt: factors.requiredSetbackFt,
+    siteSetbackFt: setbackFt,
+  });
+
+  return { ring, caps, liner: linerPlan, patio, base, adhesive, materials, labour, price, warnings, cautions };
+}
