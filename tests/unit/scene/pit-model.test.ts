@@ -1,0 +1,278 @@
+/*
+ * The preview's layout checked against independent geometry: plan polygons are rebuilt as
+ * @flatten-js/core polygons (reference library) and overlap is measured by its boolean
+ * intersection, not by the layout's own formulas.
+ */
+import { BooleanOperations, Polygon, point } from "@flatten-js/core";
+import fc from "fast-check";
+import { expect, test } from "vitest";
+import { planCaps } from "~/domain/caps";
+import { planRing, type WallUnitSize } from "~/domain/ring";
+import {
+  drawPitPlan,
+  frameCamera,
+  measureBorderInnerRadius,
+  measurePit,
+  outlineBorderUnit,
+  outlineCap,
+  outlineClosureUnit,
+  outlineWallUnit,
+  placeBorderUnits,
+  placeCaps,
+  placeFirebrick,
+  placeWallUnits,
+  planAngleOf,
+  toPlanPolygon,
+  type PartPlacement,
+  type PitSceneInput,
+  type PlanPolygon,
+} from "~/scene/pit-model";
+
+// Illustrative tapered unit: 12 in face, 8 in back, 8 in deep, 4 in high.
+const UNIT: WallUnitSize = { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 };
+
+function inputFor(ring: ReturnType<typeof planRing>, extra: Partial<PitSceneInput> = {}): PitSceneInput {
+  return {
+    wallUnit: { ...UNIT, colourHex: "#978873" },
+    ring: {
+      unitCount: ring.unitCount,
+      courses: ring.courses,
+      edgeDistanceIn: ring.edgeDistanceIn,
+      runningBondDeg: ring.runningBondDeg,
+      closure: ring.closure,
+    },
+    caps: null,
+    liner: { kind: "none" },
+    patio: null,
+    ...extra,
+  };
+}
+
+const wholeRing = (unitCount: number, courses = 3) => inputFor(planRing({ target: { unitCount }, wallUnit: UNIT, courses }));
+const exactRing = (bowlDiameterIn: number, courses = 3) =>
+  inputFor(planRing({ target: { bowlDiameterIn, fit: "exact" }, wallUnit: UNIT, courses }));
+
+// Worked-example caps: 16 × 12 in blanks, 2 in inner overhang, 3/16 in joints on an 18 in wall.
+function withCaps(input: PitSceneInput): PitSceneInput {
+  const caps = planCaps({
+    edgeDistanceIn: input.ring.edgeDistanceIn,
+    wallDepthIn: UNIT.depthIn,
+    cap: { lengthIn: 16, depthIn: 12, thicknessIn: 2.5, innerOverhangIn: 2 },
+    jointIn: 3 / 16,
+    spares: 1,
+  });
+  return {
+    ...input,
+    caps: {
+      count: caps.count,
+      innerWidthIn: caps.innerWidthIn,
+      outerWidthIn: caps.outerWidthIn,
+      innerEdgeDistanceIn: caps.innerEdgeDistanceIn,
+      outerEdgeDistanceIn: caps.outerEdgeDistanceIn,
+      thicknessIn: caps.thicknessIn,
+      colourHex: "#d6c9b7",
+    },
+  };
+}
+
+const FIREBRICK = { kind: "firebrick", perRow: 11, rows: 3, lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } as const;
+const PATIO = { outsideRadiusIn: 84, borderWidthIn: 6, borderCount: 42, borderColourHex: "#8c7f70", fieldColourHex: "#c9bca9" };
+
+const flat = (polygon: PlanPolygon) => new Polygon(polygon.map(([x, y]) => point(x, y)));
+const overlapArea = (p: PlanPolygon, q: PlanPolygon) => BooleanOperations.intersect(flat(p), flat(q)).area();
+const distance = (p: PartPlacement) => Math.hypot(p.x, p.z);
+const byAngle = (p: PlanPolygon) => Math.atan2(...centroid(p).reverse() as [number, number]);
+function centroid(p: PlanPolygon): [number, number] {
+  return [p.reduce((s, q) => s + q[0], 0) / p.length, p.reduce((s, q) => s + q[1], 0) / p.length];
+}
+
+/** Area each plan piece shares with its neighbours around the ring (sorted by angle, wrapping). */
+function neighbourOverlaps(pieces: PlanPolygon[]): number[] {
+  const sorted = [...pieces].sort((p, q) => byAngle(p) - byAngle(q));
+  return sorted.map((p, i) => overlapArea(p, sorted[(i + 1) % sorted.length]));
+}
+
+test("a 14-unit, 3-course ring lays 42 wall units and no closures", () => {
+  const { whole, closures } = placeWallUnits(wholeRing(14, 3));
+  expect(whole).toHaveLength(42);
+  expect(closures).toHaveLength(0);
+});
+
+test("an exact 40 in bowl lays unitCount × courses whole units plus its closure units in every course", () => {
+  const input = exactRing(40, 4);
+  const closure = input.ring.closure;
+  expect(closure).not.toBeNull();
+  const { whole, closures } = placeWallUnits(input);
+  expect(whole).toHaveLength(input.ring.unitCount * 4);
+  expect(closures).toHaveLength(closure!.countPerCourse * 4);
+});
+
+test("every wall unit's back middle lies at edge distance a (to 1e-9 in), whole and closure alike", () => {
+  for (const input of [wholeRing(12), wholeRing(14), wholeRing(23), exactRing(40), exactRing(33.3)]) {
+    const { whole, closures } = placeWallUnits(input);
+    for (const p of [...whole, ...closures]) expect(Math.abs(distance(p) - input.ring.edgeDistanceIn)).toBeLessThan(1e-9);
+  }
+});
+
+test("every wall unit is turned to face the centre: its back (local −u) points at the middle of the pit", () => {
+  const input = exactRing(40);
+  const { whole, closures } = placeWallUnits(input);
+  for (const p of [...whole, ...closures]) {
+    // Local −u after the turn about the vertical, in scene x/z: (−cos θ, +sin θ).
+    const back = [-Math.cos(p.rotationY), Math.sin(p.rotationY)];
+    const toCentre = [-p.x / distance(p), -p.z / distance(p)];
+    expect(back[0]).toBeCloseTo(toCentre[0], 12);
+    expect(back[1]).toBeCloseTo(toCentre[1], 12);
+  }
+});
+
+test("whole units of an uncut ring stand on 2πi/N, and courses sit one unit height apart", () => {
+  const input = wholeRing(14, 3);
+  const { whole } = placeWallUnits(input);
+  const first = whole.filter((p) => p.layer === 0);
+  first.forEach((p, i) => expect(p.rotationY).toBeCloseTo((2 * Math.PI * i) / 14, 12));
+  expect(new Set(whole.map((p) => p.y))).toEqual(new Set([0, 4, 8]));
+});
+
+test("odd courses are turned by the running bond (half a unit, common practice); even courses are not", () => {
+  for (const input of [wholeRing(14, 4), exactRing(40, 4)]) {
+    const { whole, closures } = placeWallUnits(input);
+    const bond = (input.ring.runningBondDeg * Math.PI) / 180;
+    for (const set of [whole, closures]) {
+      const course = (k: number) => set.filter((p) => p.layer === k);
+      course(1).forEach((p, i) => expect(p.rotationY - course(0)[i].rotationY).toBeCloseTo(bond, 12));
+      course(2).forEach((p, i) => expect(p.rotationY).toBeCloseTo(course(0)[i].rotationY, 12));
+      course(3).forEach((p, i) => expect(p.rotationY - course(0)[i].rotationY).toBeCloseTo(bond, 12));
+    }
+  }
+});
+
+test("with a closure, whole units step by the planned unit angle and the closures fill exactly the rest of the circle", () => {
+  const input = exactRing(40, 1);
+  const { whole, closures } = placeWallUnits(input);
+  const step = whole[1].rotationY - whole[0].rotationY;
+  expect(step).toBeCloseTo((2 * input.ring.runningBondDeg * Math.PI) / 180, 12);
+  const closureRad = (input.ring.closure!.angleDeg * Math.PI) / 180;
+  const last = whole[whole.length - 1].rotationY;
+  const end = closures[closures.length - 1].rotationY + closureRad / 2;
+  expect(end - (whole[0].rotationY - step / 2)).toBeCloseTo(2 * Math.PI, 12);
+  expect(closures[0].rotationY - last).toBeCloseTo(step / 2 + closureRad / 2, 12);
+});
+
+test("the closure outline is a unit cut along radial lines: its face and back widths match the ring plan's closure (derived here from the formulas)", () => {
+  for (const bowl of [33.3, 40, 44.5]) {
+    const input = exactRing(bowl, 1);
+    const closure = input.ring.closure!;
+    expect(closure).not.toBeNull();
+    const outline = outlineClosureUnit(input)!;
+    const at = (u: number) => outline.filter(([x]) => Math.abs(x - u) < 1e-9).map(([, v]) => v);
+    const width = (u: number) => Math.max(...at(u)) - Math.min(...at(u));
+    expect(width(UNIT.depthIn)).toBeCloseTo(closure.faceWidthIn, 9);
+    expect(width(0)).toBeCloseTo(closure.backWidthIn, 9);
+  }
+});
+
+test("neighbouring plan polygons of one course do not overlap (flatten-js boolean intersection), whole-unit and closure rings", () => {
+  // A 30 in exact bowl is tighter than the backs allow (ID* = 32 in), so its units come out trimmed.
+  for (const input of [wholeRing(12), wholeRing(13), wholeRing(14), wholeRing(30), exactRing(30), exactRing(33.3), exactRing(40), exactRing(44.5)]) {
+    const { whole, closures } = placeWallUnits(input);
+    const unit = outlineWallUnit(input);
+    const closure = outlineClosureUnit(input);
+    for (const course of [0, 1]) {
+      const pieces = [
+        ...whole.filter((p) => p.layer === course).map((p) => toPlanPolygon(unit, p)),
+        ...(closure ? closures.filter((p) => p.layer === course).map((p) => toPlanPolygon(closure, p)) : []),
+      ];
+      for (const area of neighbourOverlaps(pieces)) expect(area).toBeLessThan(1e-6);
+    }
+  }
+});
+
+test("for any exact bowl from 30 to 60 in, no two pieces of a course overlap (flatten-js, property)", () => {
+  fc.assert(
+    fc.property(fc.double({ min: 30, max: 60, noNaN: true }), (bowl) => {
+      const input = exactRing(bowl, 1);
+      const { whole, closures } = placeWallUnits(input);
+      const closure = outlineClosureUnit(input);
+      const pieces = [
+        ...whole.map((p) => toPlanPolygon(outlineWallUnit(input), p)),
+        ...(closure ? closures.map((p) => toPlanPolygon(closure, p)) : []),
+      ];
+      return neighbourOverlaps(pieces).every((area) => area < 1e-6);
+    }),
+    { numRuns: 40 },
+  );
+});
+
+test("caps sit on the wall with their inner-edge middles at a1, centred on 2πi/N_c, and never overlap (flatten-js)", () => {
+  const input = withCaps(wholeRing(14, 3));
+  const caps = placeCaps(input);
+  expect(caps).toHaveLength(input.caps!.count);
+  caps.forEach((p, i) => {
+    expect(Math.abs(distance(p) - input.caps!.innerEdgeDistanceIn)).toBeLessThan(1e-9);
+    expect(p.rotationY).toBeCloseTo((2 * Math.PI * i) / caps.length, 12);
+    expect(planAngleOf(p)).toBeCloseTo(Math.atan2(Math.sin(p.rotationY), Math.cos(p.rotationY)), 12);
+    expect(p.y).toBe(12);
+  });
+  const outline = outlineCap(input)!;
+  for (const area of neighbourOverlaps(caps.map((p) => toPlanPolygon(outline, p)))) expect(area).toBeLessThan(1e-6);
+});
+
+test("cap outlines reach a2 at the middle of their outer edges (edge-distance convention)", () => {
+  const input = withCaps(wholeRing(14));
+  const polygon = toPlanPolygon(outlineCap(input)!, placeCaps(input)[0]);
+  const [x, y] = [(polygon[1][0] + polygon[2][0]) / 2, (polygon[1][1] + polygon[2][1]) / 2];
+  expect(Math.hypot(x, y)).toBeCloseTo(input.caps!.outerEdgeDistanceIn, 12);
+});
+
+test("firebrick count is perRow × rows; rows stack one brick width apart, every other row turned half a brick", () => {
+  const input = { ...wholeRing(14), liner: FIREBRICK };
+  const bricks = placeFirebrick(input);
+  expect(bricks).toHaveLength(11 * 3);
+  expect(new Set(bricks.map((p) => p.y))).toEqual(new Set([0, 4.5, 9]));
+  const row1 = bricks.filter((p) => p.layer === 1);
+  expect(row1[0].rotationY).toBeCloseTo(Math.PI / 11, 12);
+  // Fire-side corners touching: a_in = L / (2·tan(π/M)) (regular-polygon chord, Machinery's Handbook).
+  for (const p of bricks) expect(distance(p)).toBeCloseTo(9 / (2 * Math.tan(Math.PI / 11)), 9);
+});
+
+test("the border course has borderCount units with inner faces at R − w, and no two overlap (flatten-js)", () => {
+  const input = { ...wholeRing(14), patio: PATIO };
+  const border = placeBorderUnits(input);
+  expect(border).toHaveLength(42);
+  for (const p of border) expect(distance(p)).toBeCloseTo(measureBorderInnerRadius(PATIO), 12);
+  const outline = outlineBorderUnit(input)!;
+  for (const area of neighbourOverlaps(border.map((p) => toPlanPolygon(outline, p)))) expect(area).toBeLessThan(1e-6);
+});
+
+test("no patio, no caps, no liner: nothing but the wall is placed", () => {
+  const input = wholeRing(14);
+  expect(placeCaps(input)).toEqual([]);
+  expect(placeFirebrick(input)).toEqual([]);
+  expect(placeBorderUnits(input)).toEqual([]);
+  const plan = drawPitPlan(input);
+  expect(plan.wallUnits).toHaveLength(14);
+  expect(plan.caps).toEqual([]);
+  expect(plan.steelRingRadiusIn).toBeNull();
+});
+
+test("a 14-unit 12/8/8 ring measures a 36.575 in bowl and 52.575 in outside (derived here from the regular-polygon formulas)", () => {
+  const m = measurePit(withCaps(wholeRing(14, 3)));
+  expect(m.bowlDiameterIn).toBeCloseTo(36.575, 3);
+  expect(m.outsideDiameterIn).toBeCloseTo(52.575, 3);
+  expect(m.wallTopIn).toBe(12);
+  expect(m.topIn).toBe(14.5);
+});
+
+test("the camera's view holds a sphere around the whole pit and patio, in portrait and landscape", () => {
+  const input = withCaps({ ...wholeRing(14), patio: PATIO });
+  const { extentRadiusIn, topIn } = measurePit(input);
+  for (const aspect of [0.6, 1, 1.8]) {
+    const framing = frameCamera(input, aspect, 35);
+    const d = Math.hypot(...framing.position.map((c, i) => c - framing.target[i]));
+    const halfV = (35 * Math.PI) / 360;
+    const halfH = Math.atan(Math.tan(halfV) * aspect);
+    expect(d * Math.sin(Math.min(halfV, halfH))).toBeGreaterThanOrEqual(Math.hypot(extentRadiusIn, topIn / 2));
+    expect(framing.far).toBeGreaterThan(d + extentRadiusIn);
+  }
+});
