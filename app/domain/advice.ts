@@ -156,7 +156,7 @@ export function listCautions(args: {
     {
       code: "setback",
       audience: "both",
-      message: `Keep the fire at least ${requiredSetbackFt} ft from buildings, fences, decks and anything that burns. The International Fire Code (§307.4.2) sets 25 ft for recreational fires; local rules range from 10 to 50 ft. ${LOCAL_RULES}`,
+      message: `Keep the fire at least ${requiredSetbackFt} ft from buildings, fences, decks and anything that burns. The International Fire Code (§307.4.2) sets 25 ft for recreational fires, and some local editions allow permanent fire pits closer; local rules range from 10 to 50 ft. ${LOCAL_RULES}`,
     },
   ];
   if (siteSetbackFt !== undefined && siteSetbackFt < requiredSetbackFt) {

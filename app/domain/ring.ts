@@ -205,6 +205,8 @@ function layWholeRing(wallUnit: WallUnitSize, unitCount: number): CourseLayout {
  *  - a closure must be at least half a unit wide at the face; a narrower leftover is instead split,
  *    with one whole unit, into two equal closure units, each spanning between half and a whole
  *    unit's angle (so about half a unit wide or more, never a sliver).
+ * Beside a closure the two face corners lie on the same radial cut but at slightly different
+ * radii (chords of different angles end at different distances), leaving a hairline at the face.
  */
 function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): CourseLayout {
   const { faceIn: f, backIn: b, depthIn: t } = wallUnit;
@@ -244,6 +246,12 @@ function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): CourseLay
     };
   }
   const unitsPerCourse = unitCount + (closure?.countPerCourse ?? 0);
+  if (unitsPerCourse > MAX_UNITS_PER_COURSE) {
+    throw new PlanGeometryError(
+      "ring.bowlDiameterIn",
+      `A ${formatInches(bowlDiameterIn)} bowl needs more than ${MAX_UNITS_PER_COURSE} of these units a course.`,
+    );
+  }
   if (unitsPerCourse < MIN_UNITS_PER_COURSE) {
     throw new PlanGeometryError(
       "ring.bowlDiameterIn",
