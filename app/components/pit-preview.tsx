@@ -1,0 +1,127 @@
+import { Component, Suspense, lazy, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
+import { PitPlanSvg } from "~/components/pit-plan-svg";
+import type { LengthUnit } from "~/domain/units";
+import type { PitSceneInput } from "~/scene/pit-model";
+
+export type PitPreviewProps = {
+  input: PitSceneInput;
+  /** Key dimensions in words, shown under the preview. */
+  caption: string;
+  unit: LengthUnit;
+  formatLength: (inches: number) => string;
+};
+
+// three.js and react-three-fiber arrive only through this import, after hydration, on the client.
+// The server build drops the branch entirely, so no 3D code lands in the server bundle either.
+const PitScene = import.meta.env.SSR ? null : lazy(() => import("~/scene/pit-scene"));
+
+const UNAVAILABLE_NOTE = "3D preview unavailable on this device; showing the plan";
+
+/** True when this browser can create a WebGL context; the test context is released at once. */
+function detectWebGl(): boolean {
+  try {
+    const canvas = document.createElement("canvas");
+    const gl = canvas.getContext("webgl2") ?? canvas.getContext("webgl");
+    if (!gl) return false;
+    gl.getExtension("WEBGL_lose_context")?.loseContext();
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/** `?preview=2d` forces the plan drawing (for tests, and for anyone who prefers it). */
+function isPlanForced(search: string): boolean {
+  return new URLSearchParams(search).get("preview") === "2d";
+}
+
+type SceneBoundaryProps = { fallback: ReactNode; onError: () => void; children: ReactNode };
+
+/** Keeps a failing 3D scene (lost context, driver trouble) from taking the whole page down. */
+class SceneBoundary extends Component<SceneBoundaryProps, { hasFailed: boolean }> {
+  state = { hasFailed: false };
+
+  static getDerivedStateFromError() {
+    return { hasFailed: true };
+  }
+
+  componentDidCatch(error: unknown, info: ErrorInfo) {
+    console.warn("The 3D pit preview failed; showing the plan instead.", error, info.componentStack);
+    this.props.onError();
+  }
+
+  render() {
+    return this.state.hasFailed ? this.props.fallback : this.props.children;
+  }
+}
+
+type Support = "checking" | "webgl" | "none" | "forced-plan";
+
+/** The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle. */
+export function PitPreview({ input, caption, unit, formatLength }: PitPreviewProps) {
+  const [support, setSupport] = useState<Support>("checking");
+  const [view, setView] = useState<"3d" | "plan">("3d");
+  const [hasSceneFailed, setHasSceneFailed] = useState(false);
+  const [resetSignal, setResetSignal] = useState(0);
+
+  useEffect(() => {
+    if (isPlanForced(window.location.search)) setSupport("forced-plan");
+    else setSupport(PitScene && detectWebGl() ? "webgl" : "none");
+  }, []);
+
+  const can3d = support === "webgl" && !hasSceneFailed && PitScene !== null;
+  const shows3d = can3d && view === "3d";
+  const showsNote = support === "none" || hasSceneFailed;
+  const plan = <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" />;
+  const planWithNote = (
+    <div className="flex h-full w-full flex-col">
+      <div className="min-h-0 flex-1">{plan}</div>
+      <p role="status" className="px-3 pb-2 text-center text-xs font-semibold text-char-600">
+        {UNAVAILABLE_NOTE}
+      </p>
+    </div>
+  );
+
+  return (
+    <figure className="card overflow-hidden">
+      <div className="relative aspect-square w-full bg-ash-100 sm:aspect-[4/3]" data-preview={shows3d ? "3d" : "plan"}>
+        {shows3d && PitScene ? (
+          <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>
+            <Suspense fallback={plan}>
+              <PitScene input={input} resetSignal={resetSignal} className="h-full w-full touch-none" />
+            </Suspense>
+          </SceneBoundary>
+        ) : showsNote ? (
+          planWithNote
+        ) : (
+          plan
+        )}
+      </div>
+      <div className="flex flex-wrap items-center justify-between gap-2 border-t border-ash-200 bg-ash-50 px-3 py-2">
+        <div role="group" aria-label="Preview" className="inline-flex gap-1">
+          <button
+            type="button"
+            className={view === "3d" && can3d ? "btn-primary" : "btn-quiet"}
+            aria-pressed={view === "3d" && can3d}
+            disabled={!can3d}
+            onClick={() => setView("3d")}
+          >
+            3D view
+          </button>
+          <button
+            type="button"
+            className={shows3d ? "btn-quiet" : "btn-primary"}
+            aria-pressed={!shows3d}
+            onClick={() => setView("plan")}
+          >
+            Plan view
+          </button>
+        </div>
+        <button type="button" className="btn-quiet" disabled={!shows3d} onClick={() => setResetSignal((n) => n + 1)}>
+          Reset view
+        </button>
+      </div>
+      <figcaption className="px-4 py-3 text-sm text-char-700">{caption}</figcaption>
+    </figure>
+  );
+}
