@@ -84,9 +84,15 @@ export const FALLBACK_COLOURS = {
 } as const;
 
 /** Firebrick and gravel are not chosen by the contractor; these read as buff brick and grey stone. */
+/**
+ * Without a patio the pit stands on its base pad: compacted stone reaching about 6 in past the
+ * outside face (common practice, no source). The preview draws it, so it counts in the extent.
+ */
+export const BASE_PAD_REACH_IN = 6;
+
 export const FIREBRICK_COLOUR = "#d8b98a";
 export const GRAVEL_COLOUR = "#7d776f";
-export const STEEL_RING_COLOUR = "#3a3633";
+export const STEEL_RING_COLOUR = "#4f4843";
 
 // Below this, lengths and angles count as zero: far under anything a saw or a screen can show.
 const EPS = 1e-9;
@@ -376,7 +382,9 @@ export type PitMeasurements = {
   wallTopIn: number;
   /** Top of the caps (or of the wall without caps), in. */
   topIn: number;
-  /** Farthest anything reaches from the centre in plan: wall, caps or patio, in. */
+  /** Radius of the base pad drawn when there is no patio: wall corners + BASE_PAD_REACH_IN, in. */
+  basePadRadiusIn: number;
+  /** Farthest anything reaches from the centre in plan: wall, caps, base pad or patio, in. */
   extentRadiusIn: number;
   /** Radius of the gravel floor: out to the back corners, so it fills any V-gaps behind the units, in. */
   gravelRadiusIn: number;
@@ -397,13 +405,22 @@ export function measurePit(input: PitSceneInput): PitMeasurements {
   const wallTopIn = measureWallTopIn(input);
   const n = wholeCount(input.ring.unitCount) + countClosuresPerCourse(input.ring);
   const backCorner = n >= 3 ? a / Math.cos(Math.PI / n) : a;
+  const basePadRadiusIn = wallCornerRadiusIn + BASE_PAD_REACH_IN;
   return {
     bowlDiameterIn: 2 * a,
     outsideDiameterIn: 2 * (a + t),
     wallCornerRadiusIn,
     wallTopIn,
     topIn: wallTopIn + (input.caps ? input.caps.thicknessIn : 0),
-    extentRadiusIn: Math.max(wallCornerRadiusIn, capReach, borderReach, input.patio?.outsideRadiusIn ?? 0, a),
+    basePadRadiusIn,
+    extentRadiusIn: Math.max(
+      input.patio ? 0 : basePadRadiusIn,
+      wallCornerRadiusIn,
+      capReach,
+      borderReach,
+      input.patio?.outsideRadiusIn ?? 0,
+      a,
+    ),
     gravelRadiusIn: Math.max(a, backCorner),
     fieldRadiusIn: input.patio ? measureBorderInnerRadius(input.patio) : null,
   };
@@ -450,27 +467,84 @@ export type CameraFraming = {
   far: number;
 };
 
+type Vec3 = [x: number, y: number, z: number];
+
+const sub = (p: Vec3, q: Vec3): Vec3 => [p[0] - q[0], p[1] - q[1], p[2] - q[2]];
+const dot = (p: Vec3, q: Vec3) => p[0] * q[0] + p[1] * q[1] + p[2] * q[2];
+const cross = (p: Vec3, q: Vec3): Vec3 => [p[1] * q[2] - p[2] * q[1], p[2] * q[0] - p[0] * q[2], p[0] * q[1] - p[1] * q[0]];
+function normalise(p: Vec3): Vec3 {
+  const length = Math.hypot(...p) || 1;
+  return [p[0] / length, p[1] / length, p[2] / length];
+}
+
 /**
- * Camera looking down at the pit from the south-east, about 35° above the ground, far enough that
- * a sphere around everything drawn (pit, caps and patio) fits the narrower side of the view.
+ * Where a point (scene in) lands in a perspective view from `position` looking at `target` (y up):
+ * horizontal and vertical offsets as tangents of the angle off the view axis, and its depth (in).
+ */
+export function projectPoint(point: Vec3, position: Vec3, target: Vec3): { x: number; y: number; depth: number } {
+  const forward = normalise(sub(target, position));
+  const right = normalise(cross(forward, [0, 1, 0]));
+  const up = cross(right, forward);
+  const v = sub(point, position);
+  const depth = dot(v, forward);
+  return { x: dot(v, right) / depth, y: dot(v, up) / depth, depth };
+}
+
+/** Points (scene in) outlining everything drawn: the rim of the ground footprint and the rim of the pit's top. */
+export function sampleSceneOutline(input: PitSceneInput): Vec3[] {
+  const m = measurePit(input);
+  const capReach = input.caps ? measureReach(outlineCap(input), input.caps.innerEdgeDistanceIn) : 0;
+  const topReach = Math.max(m.wallCornerRadiusIn, capReach);
+  const points: Vec3[] = [];
+  for (let i = 0; i < 48; i++) {
+    const t = (2 * Math.PI * i) / 48;
+    points.push([m.extentRadiusIn * Math.cos(t), 0, m.extentRadiusIn * Math.sin(t)]);
+    points.push([topReach * Math.cos(t), m.topIn, topReach * Math.sin(t)]);
+  }
+  return points;
+}
+
+/** Share of the view's half-width and half-height the scene may fill; the rest is margin. */
+export const FRAME_FILL = 0.9;
+
+/**
+ * Camera looking down at the pit from the south-east, 35° above the ground, just far enough that
+ * the pit, caps and patio fill no more than FRAME_FILL of the view for this aspect ratio and
+ * vertical field of view (bisection on the distance, projecting the scene's outline). In, degrees.
  */
 export function frameCamera(input: PitSceneInput, aspect: number, fovDeg: number): CameraFraming {
   const { extentRadiusIn, topIn } = measurePit(input);
-  const radius = Math.hypot(extentRadiusIn, topIn / 2) || 1;
-  const halfV = (fovDeg * DEG) / 2;
   const safeAspect = Number.isFinite(aspect) && aspect > 0 ? aspect : 1;
-  const halfH = Math.atan(Math.tan(halfV) * safeAspect);
-  const distance = (radius / Math.sin(Math.min(halfV, halfH))) * 1.05;
+  const tanV = Math.tan((fovDeg * DEG) / 2) * FRAME_FILL;
+  const tanH = Math.tan((fovDeg * DEG) / 2) * safeAspect * FRAME_FILL;
   const elevation = 35 * DEG;
   // 40° east of south; scene +z is plan south.
   const azimuth = 40 * DEG;
-  const target: [number, number, number] = [0, topIn * 0.3, 0];
-  const flat = distance * Math.cos(elevation);
+  const target: Vec3 = [0, topIn * 0.3, 0];
+  const direction: Vec3 = [Math.cos(elevation) * Math.sin(azimuth), Math.sin(elevation), Math.cos(elevation) * Math.cos(azimuth)];
+  const positionAt = (d: number): Vec3 => [target[0] + d * direction[0], target[1] + d * direction[1], target[2] + d * direction[2]];
+  const outline = sampleSceneOutline(input);
+  const fits = (d: number) => {
+    const position = positionAt(d);
+    return outline.every((p) => {
+      const q = projectPoint(p, position, target);
+      return q.depth > 0 && Math.abs(q.x) <= tanH && Math.abs(q.y) <= tanV;
+    });
+  };
+  const radius = Math.max(Math.hypot(extentRadiusIn, topIn), 1);
+  let low = 0;
+  let high = radius * 2;
+  while (!fits(high)) high *= 2;
+  for (let i = 0; i < 40; i++) {
+    const mid = (low + high) / 2;
+    if (fits(mid)) high = mid;
+    else low = mid;
+  }
   return {
-    position: [flat * Math.sin(azimuth), target[1] + distance * Math.sin(elevation), flat * Math.cos(azimuth)],
+    position: positionAt(high),
     target,
-    near: Math.max(0.5, distance / 100),
-    far: distance * 10,
+    near: Math.max(0.5, high / 100),
+    far: high * 10 + radius * 2,
   };
 }
 

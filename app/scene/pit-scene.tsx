@@ -2,8 +2,9 @@
  * The 3D pit preview (client only, loaded lazily by components/pit-preview.tsx).
  *
  * One scene unit is one inch (see pit-model.ts). Every repeated part is one instanced mesh, so a pit
- * with closures, caps, a liner and a patio costs at most 8 draw calls: ground, gravel, patio field,
- * border units, whole wall units, closure units, caps, and firebrick or the steel ring.
+ * with closures, caps, a liner and a patio costs at most 8 draw calls: ground, gravel, patio field
+ * (or the base pad without a patio), border units, whole wall units, closure units, caps, and
+ * firebrick or the steel ring.
  * Frames are drawn on demand only: after a change of input, of camera, or of canvas size.
  */
 import { OrbitControls } from "@react-three/drei";
@@ -71,7 +72,7 @@ declare global {
 
 const FOV_DEG = 35;
 const BACKGROUND = "#f4eee5";
-const GROUND_COLOUR = "#ddd3c4";
+const PAD_COLOUR = "#d9cfbf";
 // A border course of 60 mm (2 3/8 in) pavers, a common paver thickness [practice]; only its look matters here.
 const BORDER_THICKNESS_IN = 2.375;
 // Flat layers sit a hair apart so the depth buffer never has to choose between them.
@@ -225,8 +226,12 @@ function PitParts({ input }: { input: PitSceneInput }) {
   const fieldRadiusIn = m.fieldRadiusIn ?? 0;
   const hasField = patio !== null && fieldRadiusIn > outsideEdgeIn;
 
-  const groundRadiusIn = m.extentRadiusIn + 24;
-  const ground = useDisposable(useMemo(() => new CircleGeometry(groundRadiusIn, 96).rotateX(-Math.PI / 2), [groundRadiusIn]));
+  // The ground is unlit and the colour of the background, so it has no visible edge; it hides
+  // whatever lies below grade (the border's bedding depth).
+  const groundRadiusIn = m.extentRadiusIn * 12;
+  const ground = useDisposable(useMemo(() => new CircleGeometry(groundRadiusIn, 64).rotateX(-Math.PI / 2), [groundRadiusIn]));
+  const padRadiusIn = m.basePadRadiusIn;
+  const pad = useDisposable(useMemo(() => new CircleGeometry(padRadiusIn, 96).rotateX(-Math.PI / 2), [padRadiusIn]));
   const gravel = useDisposable(useMemo(() => new CircleGeometry(m.gravelRadiusIn, 96).rotateX(-Math.PI / 2), [m.gravelRadiusIn]));
   const gravelTexture = useDisposable(useMemo(() => paintGravelTexture(), []));
   gravelTexture.repeat.setScalar((2 * m.gravelRadiusIn) / GRAVEL_TILE_IN);
@@ -253,8 +258,13 @@ function PitParts({ input }: { input: PitSceneInput }) {
   return (
     <group>
       <mesh geometry={ground}>
-        <meshStandardMaterial color={GROUND_COLOUR} roughness={1} polygonOffset polygonOffsetFactor={2} polygonOffsetUnits={2} />
+        <meshBasicMaterial color={BACKGROUND} toneMapped={false} polygonOffset polygonOffsetFactor={2} polygonOffsetUnits={2} />
       </mesh>
+      {!hasField && (
+        <mesh geometry={pad} position={[0, FIELD_Y_IN, 0]}>
+          <meshStandardMaterial color={PAD_COLOUR} roughness={1} />
+        </mesh>
+      )}
       <mesh geometry={gravel} position={[0, LAYER_Y_IN, 0]}>
         <meshStandardMaterial map={gravelTexture} roughness={1} />
       </mesh>
@@ -292,7 +302,8 @@ function PitParts({ input }: { input: PitSceneInput }) {
       )}
       {steel && (
         <mesh geometry={steelGeometry} position={[0, LAYER_Y_IN + steel.heightIn / 2, 0]}>
-          <meshStandardMaterial color={STEEL_RING_COLOUR} roughness={0.55} metalness={0.35} side={DoubleSide} />
+          {/* No environment map to reflect, so a plain dull finish: real metalness would render black. */}
+          <meshStandardMaterial color={STEEL_RING_COLOUR} roughness={0.6} metalness={0} side={DoubleSide} />
         </mesh>
       )}
     </group>
@@ -375,6 +386,9 @@ export default function PitScene({ input, onReady, resetSignal = 0, className }:
     <div className={className ?? "h-full w-full"}>
       <Canvas
         frameloop="demand"
+        // No tone mapping: the units should look like the colour the contractor picked, and the
+        // unlit ground must match the background exactly.
+        flat
         dpr={[1, 2]}
         camera={{ fov: FOV_DEG, near: initial.near, far: initial.far, position: initial.position }}
         gl={{ antialias: true, powerPreference: "low-power" }}
@@ -387,10 +401,10 @@ export default function PitScene({ input, onReady, resetSignal = 0, className }:
         role="img"
       >
         <color attach="background" args={[BACKGROUND]} />
-        <hemisphereLight args={["#fff8ee", "#8a7f72", 1.5]} />
-        {/* Low, raking light from the south-west: it catches each unit's face at a different angle. */}
-        <directionalLight position={[-80, 120, 90]} intensity={1.8} />
-        <directionalLight position={[90, 60, -60]} intensity={0.35} />
+        <hemisphereLight args={["#fff8ee", "#8a7f72", 1.7]} />
+        {/* Key light from the south-south-west: it catches each unit's face at a different angle, so joints show. */}
+        <directionalLight position={[-40, 110, 110]} intensity={1.9} />
+        <directionalLight position={[90, 60, -60]} intensity={0.4} />
         <PitParts input={stableInput} />
         <CameraRig input={stableInput} resetSignal={resetSignal} />
         <RenderAndReport onReady={onReady} />

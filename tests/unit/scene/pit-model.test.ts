@@ -9,6 +9,7 @@ import { expect, test } from "vitest";
 import { planCaps } from "~/domain/caps";
 import { planRing, type WallUnitSize } from "~/domain/ring";
 import {
+  FRAME_FILL,
   drawPitPlan,
   frameCamera,
   measureBorderInnerRadius,
@@ -22,6 +23,8 @@ import {
   placeFirebrick,
   placeWallUnits,
   planAngleOf,
+  projectPoint,
+  sampleSceneOutline,
   toPlanPolygon,
   type PartPlacement,
   type PitSceneInput,
@@ -264,15 +267,22 @@ test("a 14-unit 12/8/8 ring measures a 36.575 in bowl and 52.575 in outside (der
   expect(m.topIn).toBe(14.5);
 });
 
-test("the camera's view holds a sphere around the whole pit and patio, in portrait and landscape", () => {
-  const input = withCaps({ ...wholeRing(14), patio: PATIO });
-  const { extentRadiusIn, topIn } = measurePit(input);
-  for (const aspect of [0.6, 1, 1.8]) {
-    const framing = frameCamera(input, aspect, 35);
-    const d = Math.hypot(...framing.position.map((c, i) => c - framing.target[i]));
-    const halfV = (35 * Math.PI) / 360;
-    const halfH = Math.atan(Math.tan(halfV) * aspect);
-    expect(d * Math.sin(Math.min(halfV, halfH))).toBeGreaterThanOrEqual(Math.hypot(extentRadiusIn, topIn / 2));
-    expect(framing.far).toBeGreaterThan(d + extentRadiusIn);
+test("the camera's view holds the whole pit and patio, in portrait and landscape, and stands no farther back than needed", () => {
+  for (const input of [withCaps({ ...wholeRing(14), patio: PATIO }), withCaps(wholeRing(14)), wholeRing(30, 6)]) {
+    for (const aspect of [0.6, 1, 1.8]) {
+      const framing = frameCamera(input, aspect, 35);
+      const tanV = Math.tan((35 * Math.PI) / 360);
+      const tanH = tanV * aspect;
+      const projected = sampleSceneOutline(input).map((p) => projectPoint(p, framing.position, framing.target));
+      for (const q of projected) {
+        expect(q.depth).toBeGreaterThan(framing.near);
+        expect(q.depth).toBeLessThan(framing.far);
+        expect(Math.abs(q.x)).toBeLessThanOrEqual(tanH * FRAME_FILL + 1e-9);
+        expect(Math.abs(q.y)).toBeLessThanOrEqual(tanV * FRAME_FILL + 1e-9);
+      }
+      // Tight: somewhere the scene reaches the margin.
+      const reach = Math.max(...projected.map((q) => Math.max(Math.abs(q.x) / tanH, Math.abs(q.y) / tanV)));
+      expect(reach).toBeGreaterThan(FRAME_FILL - 1e-3);
+    }
   }
 });
