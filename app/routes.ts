@@ -4,7 +4,11 @@ export default [
   index("routes/home.tsx"),
   route("login", "routes/login.tsx"),
   route("logout", "routes/logout.tsx"),
-  route("c/:companySlug", "routes/company-public.tsx"),
+  route("c/:companySlug", "routes/configurator.tsx"),
+  route("c/:companySlug/sent/:ref", "routes/request-sent.tsx"),
+  route("welcome/:token", "routes/welcome.tsx"),
+  route("my", "routes/my.tsx"),
+  route("photos/:photoId", "routes/photo.ts"),
 
   ...prefix("app", [
     layout("routes/app-layout.tsx", [
@@ -19,6 +23,7 @@ export default [
   ...prefix("api", [
     route("health", "routes/api/health.ts"),
     route("catalog/:companySlug", "routes/api/catalog.ts"),
+    route("plan", "routes/api/plan.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),

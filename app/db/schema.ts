@@ -1,5 +1,8 @@
 import { sql } from "drizzle-orm";
 import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ROLES } from "~/db/enums";
+
+export * from "~/db/enums";
 
 /*
  * Every company-owned row carries company_id; every query in app/lib scopes by it.
@@ -31,9 +34,6 @@ export const companies = sqliteTable("companies", {
   createdAt: createdAt(),
 });
 
-export const ROLES = ["owner", "estimator", "crew", "homeowner"] as const;
-export type Role = (typeof ROLES)[number];
-export const STAFF_ROLES = ["owner", "estimator", "crew"] as const satisfies readonly Role[];
 
 export const users = sqliteTable(
   "users",
@@ -71,19 +71,6 @@ export const sessions = sqliteTable(
   (t) => [index("sessions_user_idx").on(t.userId)],
 );
 
-export const CATALOG_KINDS = [
-  "wall-unit",
-  "cap",
-  "steel-ring",
-  "firebrick",
-  "paver",
-  "border-unit",
-  "aggregate",
-  "adhesive",
-  "bedding-sand",
-  "joint-sand",
-] as const;
-export type CatalogKind = (typeof CATALOG_KINDS)[number];
 
 // One table for the whole stock: each kind uses the dimension columns that describe it
 // (validated per kind in app/lib/catalog-schema.ts), the others stay null.
@@ -120,11 +107,6 @@ export type Company = typeof companies.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type CatalogItem = typeof catalogItems.$inferSelect;
 
-export const LEAD_STATUSES = ["new", "contacted", "consult-booked", "proposal-sent", "won", "lost"] as const;
-export type LeadStatus = (typeof LEAD_STATUSES)[number];
-
-export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
-export type BuildWindow = (typeof BUILD_WINDOWS)[number];
 
 // A homeowner's request. The design, the computed plan and the price are a snapshot taken when it
 // was sent, so later catalog or price changes never alter what the customer saw.

@@ -1,63 +1,6 @@
 import { z } from "zod";
-import { CATALOG_KINDS, type CatalogKind } from "~/db/schema";
-
-/** What each kind is called on screen, and what its price is per. */
-export const KIND_INFO: Record<CatalogKind, { label: string; plural: string; priceUnit: string }> = {
-  "wall-unit": { label: "Wall unit", plural: "Wall units", priceUnit: "each" },
-  cap: { label: "Cap", plural: "Caps", priceUnit: "each" },
-  "steel-ring": { label: "Steel ring insert", plural: "Steel ring inserts", priceUnit: "each" },
-  firebrick: { label: "Firebrick", plural: "Firebrick", priceUnit: "each" },
-  paver: { label: "Patio paver", plural: "Patio pavers", priceUnit: "each" },
-  "border-unit": { label: "Border unit", plural: "Border units", priceUnit: "each" },
-  aggregate: { label: "Base aggregate", plural: "Base aggregate", priceUnit: "ton" },
-  adhesive: { label: "Adhesive", plural: "Adhesive", priceUnit: "cartridge" },
-  "bedding-sand": { label: "Bedding sand", plural: "Bedding sand", priceUnit: "ton" },
-  "joint-sand": { label: "Joint sand", plural: "Joint sand", priceUnit: "bag" },
-};
-
-export type DimensionKey = "faceIn" | "backIn" | "depthIn" | "heightIn" | "lengthIn" | "widthIn" | "thicknessIn" | "diameterIn";
-
-type DimensionRule = { key: DimensionKey; label: string; hint: string; min: number; max: number };
-
-const d = (key: DimensionKey, label: string, hint: string, min: number, max: number): DimensionRule => ({ key, label, hint, min, max });
-
-/** The dimensions each kind needs, with the range accepted (inches). Ranges cover every unit sold for this work with room to spare. */
-export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
-  "wall-unit": [
-    d("faceIn", "Face length", "The outer, exposed face", 2, 36),
-    d("backIn", "Back length", "The face toward the fire; no longer than the face", 2, 36),
-    d("depthIn", "Depth", "Front to back", 2, 24),
-    d("heightIn", "Height", "One course", 1, 12),
-  ],
-  cap: [
-    d("lengthIn", "Blank length", "Laid along the ring", 4, 48),
-    d("depthIn", "Blank depth", "Across the wall, toward the fire", 4, 36),
-    d("thicknessIn", "Thickness", "", 0.5, 8),
-  ],
-  "steel-ring": [
-    d("diameterIn", "Outside diameter", "", 12, 96),
-    d("heightIn", "Height", "", 2, 36),
-  ],
-  firebrick: [
-    d("lengthIn", "Length", "A straight is 9 in", 4, 18),
-    d("widthIn", "Width", "A straight is 4 1/2 in", 1, 9),
-    d("heightIn", "Thickness", "A straight is 2 1/2 in; a split 1 1/4 in", 0.5, 6),
-  ],
-  paver: [
-    d("lengthIn", "Length", "", 2, 36),
-    d("widthIn", "Width", "", 2, 36),
-    d("thicknessIn", "Thickness", "", 1, 6),
-  ],
-  "border-unit": [
-    d("lengthIn", "Length", "Laid along the circle", 2, 36),
-    d("widthIn", "Width", "The border course's width", 2, 36),
-    d("thicknessIn", "Thickness", "", 1, 6),
-  ],
-  aggregate: [],
-  adhesive: [],
-  "bedding-sand": [],
-  "joint-sand": [],
-};
+import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
+import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog-kinds";
 
 const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
 

@@ -22,6 +22,8 @@ export const envSchema = z
     STRIPE_WEBHOOK_SECRET: z.string().default("whsec_emberwright_local"),
     STRIPE_API_BASE: z.url().optional(),
     OUTBOX_WORKER: z.enum(["on", "off"]).default("on"),
+    // Requests and bookings one address may send in 10 minutes (honest households send one or two).
+    PUBLIC_FORM_LIMIT: z.coerce.number().int().min(1).max(100_000).default(10),
   })
   .transform((env, ctx) => {
     const secrets = (env.SESSION_SECRET ?? "")

@@ -1,13 +1,5 @@
 import { z } from "zod";
-import { BUILD_WINDOWS } from "~/db/schema";
-
-export const BUILD_WINDOW_LABEL: Record<(typeof BUILD_WINDOWS)[number], string> = {
-  "within-a-month": "Within a month",
-  "one-to-three-months": "In one to three months",
-  "this-season": "Later this season",
-  "next-year": "Next year",
-  "not-sure": "Not sure yet",
-};
+import { BUILD_WINDOWS } from "~/db/enums";
 
 /** The homeowner's request form (the design itself travels in the search params). */
 export const leadFormSchema = z.object({

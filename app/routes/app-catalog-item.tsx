@@ -2,8 +2,9 @@ import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { TextField, SelectField } from "~/components/ui/field";
-import { CATALOG_KINDS, type CatalogKind } from "~/db/schema";
-import { KIND_DIMENSIONS, KIND_INFO, parseCatalogForm } from "~/lib/catalog-schema";
+import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
+import { parseCatalogForm } from "~/lib/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog.server";
 import { requireUser } from "~/lib/session.server";
 

@@ -1,7 +1,8 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/app-catalog";
-import { CATALOG_KINDS, STAFF_ROLES, type CatalogItem } from "~/db/schema";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-schema";
+import { CATALOG_KINDS, STAFF_ROLES } from "~/db/enums";
+import type { CatalogItem } from "~/db/schema";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
 import { listCatalog } from "~/lib/catalog.server";
 import { formatMoney } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";

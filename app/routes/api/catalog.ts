@@ -1,5 +1,5 @@
 import type { Route } from "./+types/catalog";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-schema";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
 import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
 
 // Public: what a homeowner may choose from. Dimensions, names and colours only; no prices.

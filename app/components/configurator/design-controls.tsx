@@ -1,0 +1,305 @@
+import { useId, type ReactNode } from "react";
+import { MAX_COURSES } from "~/domain/ring";
+import { formatLength, type LengthUnit } from "~/domain/units";
+import {
+  MAX_INNER_OVERHANG_IN,
+  OVERHANG_STEP_IN,
+  PATIO_RADIUS_FT,
+  offeredRingSizes,
+  type CatalogChoice,
+  type Design,
+  type LinerKind,
+} from "~/lib/design";
+import { describeSeat } from "~/lib/design-plan";
+
+type Props = {
+  design: Design;
+  catalog: CatalogChoice[];
+  /** The plan's bowl when it is sized to the steel ring (the slider then shows it, disabled). */
+  plannedUnitCount: number | null;
+  onChange: (patch: Partial<Design>) => void;
+};
+
+function Section({ title, hint, children }: { title: string; hint?: ReactNode; children: ReactNode }) {
+  return (
+    <fieldset className="border-b border-ash-200 pb-5 last:border-b-0">
+      <legend className="text-base font-extrabold text-char-900">{title}</legend>
+      {hint ? <p className="mt-0.5 mb-2 text-sm text-char-600">{hint}</p> : <div className="mb-2" />}
+      {children}
+    </fieldset>
+  );
+}
+
+const sizeText = (item: CatalogChoice, unit: LengthUnit) =>
+  `${formatLength(item.faceIn ?? 0, unit)} face, ${formatLength(item.heightIn ?? 0, unit)} high`;
+
+/**
+ * The configurator's controls. Every input carries the search-param name it stands for, so the
+ * form also works as a plain GET without JavaScript.
+ */
+export function DesignControls({ design, catalog, plannedUnitCount, onChange }: Props) {
+  const ids = useId();
+  const unit = design.unit;
+  const f = (inches: number) => formatLength(inches, unit);
+  const ofKind = (kind: string) => catalog.filter((i) => i.kind === kind);
+  const stones = ofKind("wall-unit");
+  const caps = ofKind("cap");
+  const rings = ofKind("steel-ring");
+  const hasFirebrick = ofKind("firebrick").length > 0;
+  const pavers = ofKind("paver");
+  const borders = ofKind("border-unit");
+  const stone = stones.find((s) => s.id === design.stoneId) ?? stones[0]!;
+  const sizes = offeredRingSizes(stone);
+  const shownCount = design.fitToRing && plannedUnitCount ? plannedUnitCount : design.unitCount;
+  const shownSize = sizes.find((s) => s.unitCount === shownCount);
+  const minCount = sizes[0]?.unitCount ?? 3;
+  const maxCount = sizes.at(-1)?.unitCount ?? 40;
+  const wallHeightIn = design.courses * (stone.heightIn ?? 0) + (design.capId !== null ? (caps.find((c) => c.id === design.capId)?.thicknessIn ?? 0) : 0);
+
+  return (
+    <div className="flex flex-col gap-5">
+      <Section title="Wall stone" hint="The blocks that make the ring. Tapered ones close up into a tight circle.">
+        <div className="grid gap-2 sm:grid-cols-2">
+          {stones.map((s) => (
+            <label
+              key={s.id}
+              className="flex cursor-pointer items-center gap-3 rounded-lg border border-ash-300 bg-white p-2.5 has-checked:border-ember-500 has-checked:ring-2 has-checked:ring-ember-200"
+            >
+              <input
+                type="radio"
+                name="stone"
+                value={s.id}
+                checked={s.id === design.stoneId}
+                onChange={() => onChange({ stoneId: s.id, fitToRing: design.linerKind === "steel-ring" && design.fitToRing })}
+                className="sr-only"
+              />
+              <span className="h-9 w-9 shrink-0 rounded-md border border-char-800/20" style={{ backgroundColor: s.colourHex }} aria-hidden="true" />
+              <span className="min-w-0 text-sm leading-tight">
+                <span className="block font-extrabold text-char-900">{s.name}</span>
+                <span className="block text-char-600">
+                  {s.colourName} · {sizeText(s, unit)}
+                </span>
+              </span>
+            </label>
+          ))}
+        </div>
+      </Section>
+
+      <Section title="Bowl size" hint="Across the inside of the ring. Each step adds or removes one block a course, so every size needs no cut blocks.">
+        <label htmlFor={`${ids}-units`} className="flex items-baseline justify-between gap-3 text-sm">
+          <span className="font-bold text-char-700">Inside diameter</span>
+          <output htmlFor={`${ids}-units`} className="text-lg font-extrabold text-char-900 tabular-nums">
+            {shownSize ? `${f(shownSize.bowlDiameterIn)} across inside` : `${shownCount} blocks a course`}
+          </output>
+        </label>
+        <input
+          id={`${ids}-units`}
+          type="range"
+          name="units"
+          min={minCount}
+          max={maxCount}
+          step={1}
+          value={Math.min(maxCount, Math.max(minCount, shownCount))}
+          disabled={design.fitToRing}
+          aria-valuetext={shownSize ? `${f(shownSize.bowlDiameterIn)} across inside, ${shownCount} blocks a course` : undefined}
+          onChange={(e) => onChange({ unitCount: Number(e.target.value), fitToRing: false })}
+          className="mt-2 w-full accent-ember-500 disabled:opacity-50"
+        />
+        <p className="text-xs text-char-500">{shownCount} blocks a course</p>
+        {design.linerKind === "steel-ring" && rings.length ? (
+          <label className="mt-3 flex items-center gap-2 text-sm font-bold text-char-700">
+            <input
+              type="checkbox"
+              name="fit"
+              value="ring"
+              checked={design.fitToRing}
+              onChange={(e) => onChange({ fitToRing: e.target.checked, unitCount: shownCount })}
+              className="h-4 w-4 accent-ember-500"
+            />
+            Size the bowl to fit my steel ring insert
+          </label>
+        ) : null}
+      </Section>
+
+      <Section title="Height" hint={`${design.courses} courses (rows of blocks): ${f(wallHeightIn)} high with the cap, ${describeSeat(wallHeightIn)}.`}>
+        <div className="flex items-center gap-3">
+          <button type="button" className="btn-quiet h-10 w-10 text-lg" aria-label="One course fewer" disabled={design.courses <= 1} onClick={() => onChange({ courses: design.courses - 1 })}>
+            −
+          </button>
+          <label className="sr-only" htmlFor={`${ids}-courses`}>Courses</label>
+          <input
+            id={`${ids}-courses`}
+            type="number"
+            name="courses"
+            min={1}
+            max={MAX_COURSES}
+            value={design.courses}
+            onChange={(e) => onChange({ courses: Math.min(MAX_COURSES, Math.max(1, Number(e.target.value) || 1)) })}
+            className="field-input mt-0 w-20 text-center"
+          />
+          <button type="button" className="btn-quiet h-10 w-10 text-lg" aria-label="One course more" disabled={design.courses >= MAX_COURSES} onClick={() => onChange({ courses: design.courses + 1 })}>
+            +
+          </button>
+          <span className="text-sm text-char-600">courses</span>
+        </div>
+      </Section>
+
+      <Section title="Cap" hint="Flat stones cut to wedges that finish the top of the wall.">
+        <label className="field-label" htmlFor={`${ids}-cap`}>Cap stone</label>
+        <select
+          id={`${ids}-cap`}
+          name="cap"
+          value={design.capId === null ? "none" : String(design.capId)}
+          onChange={(e) => onChange({ capId: e.target.value === "none" ? null : Number(e.target.value) })}
+          className="field-input"
+        >
+          {caps.map((c) => (
+            <option key={c.id} value={c.id}>
+              {c.name} ({c.colourName})
+            </option>
+          ))}
+          <option value="none">No caps</option>
+        </select>
+        {design.capId !== null ? (
+          <>
+            <label htmlFor={`${ids}-overhang`} className="mt-3 flex items-baseline justify-between text-sm">
+              <span className="font-bold text-char-700">Overhang toward the fire</span>
+              <output className="font-extrabold tabular-nums">{f(design.innerOverhangIn)}</output>
+            </label>
+            <input
+              id={`${ids}-overhang`}
+              type="range"
+              name="overhang"
+              min={0}
+              max={MAX_INNER_OVERHANG_IN}
+              step={OVERHANG_STEP_IN}
+              value={design.innerOverhangIn}
+              onChange={(e) => onChange({ innerOverhangIn: Number(e.target.value) })}
+              className="mt-1 w-full accent-ember-500"
+            />
+          </>
+        ) : null}
+      </Section>
+
+      <Section title="Liner" hint="Protects the blocks from direct flame, which can crack or spall them.">
+        <div className="flex flex-col gap-2">
+          {(
+            [
+              ["steel-ring", "Steel ring insert", rings.length > 0],
+              ["firebrick", "Firebrick lining", hasFirebrick],
+              ["none", "No liner", true],
+            ] as [LinerKind, string, boolean][]
+          )
+            .filter(([, , offered]) => offered)
+            .map(([kind, label]) => (
+              <label key={kind} className="flex items-center gap-2 text-sm font-bold text-char-700">
+                <input
+                  type="radio"
+                  name="liner"
+                  value={kind}
+                  checked={design.linerKind === kind}
+                  onChange={() => onChange({ linerKind: kind, fitToRing: kind === "steel-ring" ? design.fitToRing : false })}
+                  className="h-4 w-4 accent-ember-500"
+                />
+                {label}
+              </label>
+            ))}
+        </div>
+        {design.linerKind === "steel-ring" ? (
+          <>
+            <label className="field-label mt-3" htmlFor={`${ids}-ring`}>Ring insert</label>
+            <select
+              id={`${ids}-ring`}
+              name="ring"
+              value={design.ringId ?? ""}
+              onChange={(e) => onChange({ ringId: Number(e.target.value) })}
+              className="field-input"
+            >
+              {rings.map((r) => (
+                <option key={r.id} value={r.id}>
+                  {r.name} ({f(r.diameterIn ?? 0)} outside)
+                </option>
+              ))}
+            </select>
+          </>
+        ) : null}
+      </Section>
+
+      {pavers.length && borders.length ? (
+        <Section title="Patio around it" hint="An optional round paver patio with a border course at its edge.">
+          <label className="flex items-center gap-2 text-sm font-bold text-char-700">
+            <input
+              type="checkbox"
+              checked={design.patioRadiusFt > 0}
+              onChange={(e) => onChange({ patioRadiusFt: e.target.checked ? 8 : 0 })}
+              className="h-4 w-4 accent-ember-500"
+            />
+            Add a round patio
+          </label>
+          {design.patioRadiusFt > 0 ? (
+            <div className="mt-3 flex flex-col gap-3">
+              <div>
+                <label htmlFor={`${ids}-patio`} className="flex items-baseline justify-between text-sm">
+                  <span className="font-bold text-char-700">Patio radius</span>
+                  <output className="font-extrabold tabular-nums">
+                    {design.patioRadiusFt} ft ({f(design.patioRadiusFt * 24)} across)
+                  </output>
+                </label>
+                <input
+                  id={`${ids}-patio`}
+                  type="range"
+                  name="patio"
+                  min={PATIO_RADIUS_FT.min}
+                  max={PATIO_RADIUS_FT.max}
+                  step={0.5}
+                  value={design.patioRadiusFt}
+                  onChange={(e) => onChange({ patioRadiusFt: Number(e.target.value) })}
+                  className="mt-1 w-full accent-ember-500"
+                />
+              </div>
+              <div className="grid gap-3 sm:grid-cols-2">
+                <div>
+                  <label className="field-label" htmlFor={`${ids}-paver`}>Pavers</label>
+                  <select id={`${ids}-paver`} name="paver" value={design.paverId ?? ""} onChange={(e) => onChange({ paverId: Number(e.target.value) })} className="field-input">
+                    {pavers.map((p) => (
+                      <option key={p.id} value={p.id}>{p.name}</option>
+                    ))}
+                  </select>
+                </div>
+                <div>
+                  <label className="field-label" htmlFor={`${ids}-border`}>Border</label>
+                  <select id={`${ids}-border`} name="border" value={design.borderId ?? ""} onChange={(e) => onChange({ borderId: Number(e.target.value) })} className="field-input">
+                    {borders.map((b) => (
+                      <option key={b.id} value={b.id}>{b.name}</option>
+                    ))}
+                  </select>
+                </div>
+              </div>
+            </div>
+          ) : (
+            <input type="hidden" name="patio" value="0" />
+          )}
+        </Section>
+      ) : null}
+
+      <Section title="Where it goes" hint="Fires need room: we compare this with the setback your contractor works to.">
+        <label className="field-label" htmlFor={`${ids}-setback`}>Distance to the nearest building, fence or tree</label>
+        <div className="relative mt-1 max-w-48">
+          <input
+            id={`${ids}-setback`}
+            type="number"
+            name="setback"
+            min={0}
+            max={500}
+            inputMode="numeric"
+            value={design.setbackFt ?? ""}
+            placeholder="e.g. 30"
+            onChange={(e) => onChange({ setbackFt: e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))) })}
+            className="field-input mt-0 pr-10"
+          />
+          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">ft</span>
+        </div>
+      </Section>
+    </div>
+  );
+}

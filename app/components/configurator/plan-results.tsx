@@ -1,0 +1,79 @@
+import { formatLength, type LengthUnit } from "~/domain/units";
+import type { PublicPlan } from "~/lib/design-plan";
+import { formatMoneyWhole } from "~/lib/money";
+
+/** Price, key numbers, warnings and cautions beside the preview. */
+export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {
+  const f = (inches: number) => formatLength(inches, unit);
+  const wallUnits = plan.materials.find((m) => m.key === "wall-unit");
+  const caps = plan.materials.find((m) => m.key === "cap");
+  const cautions = plan.cautions.filter((c) => c.audience !== "crew");
+  return (
+    <section aria-labelledby="plan-summary-title" aria-busy={isUpdating} className="flex flex-col gap-4">
+      <div className="card p-5">
+        <h2 id="plan-summary-title" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">
+          Your fire pit
+        </h2>
+        <p className="mt-1 text-3xl font-extrabold text-char-900" data-testid="price-range">
+          {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "Price on request"}
+        </p>
+        <p className="text-sm text-char-600">Installed, as an estimate. The contractor confirms the price after seeing your yard.</p>
+        <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm" data-testid="plan-summary">
+          <div>
+            <dt className="text-char-500">Inside (bowl)</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.bowlDiameterIn)}</dd>
+          </div>
+          <div>
+            <dt className="text-char-500">Outside footprint</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.outsideDiameterIn)}</dd>
+          </div>
+          <div>
+            <dt className="text-char-500">Wall height</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.wallHeightIn)}</dd>
+          </div>
+          <div>
+            <dt className="text-char-500">Wall blocks</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">
+              {plan.ring.totalUnits}
+              {wallUnits && wallUnits.quantity > plan.ring.totalUnits ? ` + ${wallUnits.quantity - plan.ring.totalUnits} spare` : ""}
+            </dd>
+          </div>
+          <div>
+            <dt className="text-char-500">Caps</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">
+              {plan.caps ? `${plan.caps.count}${caps && caps.quantity > plan.caps.count ? ` + ${caps.quantity - plan.caps.count} spare` : ""}` : "None"}
+            </dd>
+          </div>
+          {plan.patio ? (
+            <div>
+              <dt className="text-char-500">Patio</dt>
+              <dd className="font-extrabold text-char-900 tabular-nums">{Math.round(plan.patio.pavedAreaFt2)} ft²</dd>
+            </div>
+          ) : null}
+        </dl>
+      </div>
+
+      {plan.warnings.length ? (
+        <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4" role="status">
+          <h3 className="font-extrabold text-ember-700">Worth a second look</h3>
+          <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
+            {plan.warnings.map((w) => (
+              <li key={w.code} data-code={w.code}>{w.message}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+
+      <div className="card p-4">
+        <h3 className="font-extrabold">Safety first</h3>
+        <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
+          {cautions.map((c) => (
+            <li key={c.code} data-code={c.code} className="border-l-3 border-ash-300 pl-3">
+              {c.message}
+            </li>
+          ))}
+        </ul>
+      </div>
+    </section>
+  );
+}

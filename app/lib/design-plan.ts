@@ -1,0 +1,160 @@
+import { DEFAULT_FACTORS } from "~/domain/factors";
+import type { Plan } from "~/domain/plan";
+import { formatLength, type LengthUnit } from "~/domain/units";
+import type { CatalogChoice, Design } from "~/lib/design";
+import type { PitSceneInput } from "~/scene/pit-model";
+
+/*
+ * Bridges a homeowner's design (catalog choices) and the engine: the /api/plan request it makes,
+ * the 3D/plan preview input built from the plan, and the summary shown in e-mails and pages.
+ */
+
+export type PublicPlan = Omit<Plan, "price"> & { price: { lowCents: number; highCents: number } | null };
+
+export type PlanRequestBody = Record<string, unknown>;
+
+const byId = (catalog: CatalogChoice[], id: number | null) => (id === null ? undefined : catalog.find((i) => i.id === id));
+
+/** The JSON body for POST /api/plan: catalog references plus the company, so prices apply. */
+export function designToPlanRequest(design: Design, companySlug: string, catalog: CatalogChoice[]): PlanRequestBody {
+  const ring = byId(catalog, design.ringId);
+  const firebrick = catalog.find((i) => i.kind === "firebrick");
+  const useRing = design.linerKind === "steel-ring" && ring?.diameterIn;
+  return {
+    company: companySlug,
+    // Sized to the insert: the smallest whole-unit ring that clears it with the usual gravel gap.
+    ring:
+      design.fitToRing && useRing
+        ? { bowlDiameterIn: ring.diameterIn! + 2 * DEFAULT_FACTORS.linerMinGapIn, fit: "at-least" }
+        : { unitCount: design.unitCount },
+    wallUnit: { id: design.stoneId },
+    courses: design.courses,
+    cap: design.capId === null ? null : { id: design.capId, innerOverhangIn: design.innerOverhangIn },
+    liner:
+      useRing ? { id: ring.id } : design.linerKind === "firebrick" && firebrick ? { id: firebrick.id } : { kind: "none" },
+    patio:
+      design.patioRadiusFt > 0 && design.paverId !== null && design.borderId !== null
+        ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { id: design.borderId }, paver: { id: design.paverId } }
+        : null,
+    ...(design.setbackFt !== null ? { site: { setbackFt: design.setbackFt } } : {}),
+  };
+}
+
+/** The preview's input: real unit sizes from the catalog, placements from the plan. */
+export function planToSceneInput(plan: PublicPlan, design: Design, catalog: CatalogChoice[]): PitSceneInput {
+  const stone = byId(catalog, design.stoneId);
+  const cap = byId(catalog, design.capId);
+  const brick = catalog.find((i) => i.kind === "firebrick");
+  const paver = byId(catalog, design.paverId);
+  const border = byId(catalog, design.borderId);
+  const liner = plan.liner;
+  return {
+    wallUnit: {
+      faceIn: stone?.faceIn ?? 12,
+      backIn: stone?.backIn ?? 8,
+      depthIn: stone?.depthIn ?? 8,
+      heightIn: stone?.heightIn ?? 4,
+      colourHex: stone?.colourHex ?? "#8a8178",
+    },
+    ring: {
+      unitCount: plan.ring.unitCount,
+      courses: plan.ring.courses,
+      edgeDistanceIn: plan.ring.edgeDistanceIn,
+      runningBondDeg: plan.ring.runningBondDeg,
+      closure: plan.ring.closure,
+    },
+    caps: plan.caps
+      ? {
+          count: plan.caps.count,
+          innerWidthIn: plan.caps.innerWidthIn,
+          outerWidthIn: plan.caps.outerWidthIn,
+          innerEdgeDistanceIn: plan.caps.innerEdgeDistanceIn,
+          outerEdgeDistanceIn: plan.caps.outerEdgeDistanceIn,
+          thicknessIn: plan.caps.thicknessIn,
+          colourHex: cap?.colourHex ?? "#6f655d",
+        }
+      : null,
+    liner:
+      liner?.kind === "steel-ring"
+        ? { kind: "steel-ring", outsideDiameterIn: liner.outsideDiameterIn, heightIn: liner.heightIn }
+        : liner?.kind === "firebrick" && liner.fits
+          ? {
+              kind: "firebrick",
+              perRow: liner.bricksPerRow,
+              rows: liner.rows,
+              lengthIn: brick?.lengthIn ?? 9,
+              widthIn: liner.rowHeightIn,
+              heightIn: liner.thicknessIn,
+            }
+          : { kind: "none" },
+    patio: plan.patio
+      ? {
+          outsideRadiusIn: plan.patio.outsideRadiusIn,
+          borderWidthIn: plan.patio.borderWidthIn,
+          borderCount: plan.patio.borderUnitCount,
+          borderColourHex: border?.colourHex ?? "#4f4a46",
+          fieldColourHex: paver?.colourHex ?? "#a07d63",
+        }
+      : null,
+  };
+}
+
+export type SummaryLine = { label: string; value: string };
+
+/** Whether a wall (cap included) makes a comfortable seat: 17–20 in (from memory). */
+export function describeSeat(wallHeightIn: number): string {
+  if (wallHeightIn < 12) return "low: good for looking into the fire, too low to sit on";
+  if (wallHeightIn < 17) return "a low seat";
+  if (wallHeightIn <= 20) return "a comfortable seat";
+  return "above seat height: good for resting feet on";
+}
+
+/** The design in a few plain lines (shown on pages and in e-mails). */
+export function summarizeDesign(plan: PublicPlan, design: Design, catalog: CatalogChoice[], unit: LengthUnit = "in"): SummaryLine[] {
+  const f = (inches: number) => formatLength(inches, unit);
+  const stone = byId(catalog, design.stoneId);
+  const cap = byId(catalog, design.capId);
+  const ring = byId(catalog, design.ringId);
+  const lines: SummaryLine[] = [
+    { label: "Wall stone", value: stone ? `${stone.name}${stone.colourName ? `, ${stone.colourName}` : ""}` : "—" },
+    { label: "Bowl", value: `${f(plan.ring.bowlDiameterIn)} across inside, ${plan.ring.unitsPerCourse} units a course` },
+    { label: "Outside", value: `${f(plan.ring.outsideDiameterIn)} across` },
+    { label: "Height", value: `${plan.ring.courses} courses, ${f(plan.ring.wallHeightIn)} with the cap (${describeSeat(plan.ring.wallHeightIn)})` },
+    {
+      label: "Cap",
+      value: plan.caps && cap ? `${cap.name}: ${plan.caps.count} caps, ${f(plan.caps.innerOverhangIn)} over the fire` : "No caps",
+    },
+    {
+      label: "Liner",
+      value:
+        plan.liner?.kind === "steel-ring"
+          ? `${ring?.name ?? "Steel ring"} (${f(plan.liner.outsideDiameterIn)} steel ring)`
+          : plan.liner?.kind === "firebrick"
+            ? `Firebrick, ${plan.liner.totalBricks} bricks on edge`
+            : "None",
+    },
+  ];
+  if (plan.patio) {
+    const paver = byId(catalog, design.paverId);
+    const border = byId(catalog, design.borderId);
+    lines.push({
+      label: "Patio",
+      value: `${design.patioRadiusFt} ft radius, ${paver?.name ?? "pavers"} with a ${border?.name ?? "border"} edge`,
+    });
+  }
+  return lines;
+}
+
+/** The caption under the preview. */
+export function describePreview(plan: PublicPlan, unit: LengthUnit): string {
+  const f = (inches: number) => formatLength(inches, unit);
+  const parts = [
+    `Bowl ${f(plan.ring.bowlDiameterIn)} across inside`,
+    `${f(plan.ring.outsideDiameterIn)} outside`,
+    `${f(plan.ring.wallHeightIn)} high`,
+    `${plan.ring.unitsPerCourse} units in each of ${plan.ring.courses} courses`,
+  ];
+  if (plan.caps) parts.push(`${plan.caps.count} caps`);
+  if (plan.patio) parts.push(`patio ${f(plan.patio.outsideRadiusIn * 2)} across`);
+  return parts.join(" · ");
+}

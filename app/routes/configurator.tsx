@@ -1,0 +1,232 @@
+import { useEffect, useRef, useState } from "react";
+import { data, Form, redirect, useFetcher, type ShouldRevalidateFunctionArgs } from "react-router";
+import type { Route } from "./+types/configurator";
+import { DesignControls } from "~/components/configurator/design-controls";
+import { PlanResults } from "~/components/configurator/plan-results";
+import { RequestForm } from "~/components/configurator/request-form";
+import { PitPreview } from "~/components/pit-preview";
+import { PublicShell } from "~/components/public-shell";
+import { formatLength } from "~/domain/units";
+import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
+import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { designToSearchParams, parseDesign, type Design } from "~/lib/design";
+import { describePreview, designToPlanRequest, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { appOrigin } from "~/lib/email.server";
+import { env } from "~/lib/env.server";
+import { fieldErrors, leadFormSchema } from "~/lib/lead-schema";
+import { createLead } from "~/lib/leads.server";
+import type { PlanFieldError } from "~/lib/plan-schema";
+import { publicPlan } from "~/lib/plan.server";
+import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
+import { checkPhotos, MAX_FORM_BYTES } from "~/lib/uploads.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
+  { name: "description", content: "Size a round masonry fire pit, see it in 3D and get a price range." },
+];
+
+async function loadCompanyCatalog(slug: string) {
+  const company = await findCompanyBySlug(slug);
+  if (!company) throw new Response("Not found", { status: 404 });
+  const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
+  return { company, catalog };
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
+  const design = parseDesign(new URL(request.url).searchParams, catalog);
+  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] };
+  return {
+    company: { slug: company.slug, name: company.name, town: company.town, phone: company.phone },
+    catalog,
+    design,
+    plan: result.plan ? (publicPlan(result.plan) as PublicPlan) : null,
+    planErrors: result.errors,
+  };
+}
+
+// Requests from one address in 10 minutes; honest households send one or two.
+const requestLimiter = createLimiter(env.PUBLIC_FORM_LIMIT, 10 * 60);
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const limit = await spendLimit(requestLimiter, clientAddress(request));
+  if (!limit.ok) {
+    return data(
+      { errors: { form: "Too many requests from this address. Please wait a few minutes and try again." }, values: {} },
+      { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
+    );
+  }
+  const length = Number(request.headers.get("Content-Length") ?? "NaN");
+  if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
+    return data({ errors: { photos: "The request is too large: attach at most 6 photos of 10 MB each." }, values: {} }, { status: 413 });
+  }
+  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
+  let form: FormData;
+  try {
+    form = await request.formData();
+  } catch {
+    return data({ errors: { form: "We could not read that form. Please try again." }, values: {} }, { status: 400 });
+  }
+  const values = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string" && e[0] !== "website"));
+  const parsed = leadFormSchema.safeParse(values);
+  const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
+  const photoCheck = await checkPhotos(form.getAll("photos").filter((f): f is File => f instanceof File));
+  if (!photoCheck.ok) errors.photos = photoCheck.message;
+  if (!parsed.success || !photoCheck.ok) return data({ errors, values }, { status: 400 });
+
+  const design = parseDesign(new URLSearchParams(String(form.get("design") ?? "")), catalog);
+  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] as PlanFieldError[] };
+  if (!design || !result.plan) {
+    const message = result.errors[0]?.message ?? "This design cannot be built as it stands.";
+    return data({ errors: { form: `Change the design first: ${message}` }, values }, { status: 422 });
+  }
+  const { plan } = result;
+  const lead = await createLead({
+    company,
+    form: parsed.data,
+    photos: photoCheck.photos,
+    origin: appOrigin(request),
+    snapshot: {
+      design: { choices: design, summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in") },
+      plan,
+      stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
+      bowlDiameterIn: plan.ring.bowlDiameterIn,
+      priceLowCents: plan.price?.lowCents ?? null,
+      priceHighCents: plan.price?.highCents ?? null,
+      summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in"),
+    },
+  });
+  return redirect(`/c/${company.slug}/sent/${lead.ref}`);
+}
+
+// The plan API answers the live updates itself; re-running this loader after each would be waste.
+export function shouldRevalidate({ formAction, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  return formAction === "/api/plan" ? false : defaultShouldRevalidate;
+}
+
+const UPDATE_DELAY_MS = 60;
+
+export default function ConfiguratorRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { company, catalog } = loaderData;
+  const [design, setDesign] = useState<Design | null>(loaderData.design);
+  const [plan, setPlan] = useState<PublicPlan | null>(loaderData.plan);
+  const [planErrors, setPlanErrors] = useState<PlanFieldError[]>(loaderData.planErrors);
+  const [isHydrated, setIsHydrated] = useState(false);
+  const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
+  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+
+  useEffect(() => setIsHydrated(true), []);
+  useEffect(() => {
+    setDesign(loaderData.design);
+    setPlan(loaderData.plan);
+    setPlanErrors(loaderData.planErrors);
+  }, [loaderData]);
+  useEffect(() => {
+    // A newer submission cancels an older one, so only the latest design's answer lands here.
+    if (!fetcher.data) return;
+    if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
+    else {
+      setPlan(fetcher.data);
+      setPlanErrors([]);
+    }
+  }, [fetcher.data]);
+
+  if (!design) {
+    return (
+      <PublicShell>
+        <main className="mx-auto max-w-3xl px-4 py-16">
+          <h1 className="text-3xl font-extrabold">{company.name}</h1>
+          <p className="mt-3 text-char-600">This contractor is not taking fire-pit requests online yet.</p>
+        </main>
+      </PublicShell>
+    );
+  }
+
+  const designQuery = designToSearchParams(design).toString();
+  const changeDesign = (patch: Partial<Design>) => {
+    const next = { ...design, ...patch };
+    setDesign(next);
+    const query = designToSearchParams(next).toString();
+    // Keep the design in the address bar (bookmark, share, reload) without a navigation.
+    window.history.replaceState(window.history.state, "", `${window.location.pathname}?${query}`);
+    if (timer.current) clearTimeout(timer.current);
+    timer.current = setTimeout(() => {
+      fetcher.submit(designToPlanRequest(next, company.slug, catalog) as never, {
+        method: "post",
+        action: "/api/plan",
+        encType: "application/json",
+      });
+    }, UPDATE_DELAY_MS);
+  };
+  const f = (inches: number) => formatLength(inches, design.unit);
+
+  return (
+    <PublicShell>
+      <main className="mx-auto flex max-w-7xl flex-col gap-8 px-4 py-6 sm:px-6 sm:py-8">
+        <div className="flex flex-wrap items-end justify-between gap-4">
+          <div>
+            <p className="text-sm font-extrabold tracking-widest text-ember-600 uppercase">{company.name}</p>
+            <h1 className="text-3xl font-extrabold sm:text-4xl">Design your fire pit</h1>
+          </div>
+          <div role="group" aria-label="Units" className="inline-flex rounded-lg border border-ash-300 bg-white p-0.5 text-sm font-bold">
+            {(["in", "mm"] as const).map((u) => (
+              <button
+                key={u}
+                type="button"
+                aria-pressed={design.unit === u}
+                onClick={() => changeDesign({ unit: u })}
+                className={`rounded-md px-3 py-1.5 ${design.unit === u ? "bg-char-800 text-ash-50" : "text-char-700 hover:bg-ash-100"}`}
+              >
+                {u === "in" ? "Inches" : "Millimetres"}
+              </button>
+            ))}
+          </div>
+        </div>
+
+        <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
+          <div className="flex min-w-0 flex-col gap-6">
+            {plan ? (
+              <PitPreview input={planToSceneInput(plan, design, catalog)} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} />
+            ) : null}
+            {planErrors.length ? (
+              <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+                {planErrors.map((e) => e.message).join(" ")}
+              </p>
+            ) : null}
+            {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
+          </div>
+          <Form method="get" className="card p-5 lg:sticky lg:top-4" aria-label="Design choices" onSubmit={(e) => isHydrated && e.preventDefault()}>
+            <input type="hidden" name="unit" value={design.unit} />
+            <DesignControls
+              design={design}
+              catalog={catalog}
+              plannedUnitCount={plan?.ring.unitCount ?? null}
+              onChange={changeDesign}
+            />
+            {isHydrated ? null : (
+              <button type="submit" className="btn-primary mt-4 w-full">
+                Update the design
+              </button>
+            )}
+          </Form>
+        </div>
+
+        {plan ? (
+          <section aria-label="What you will get" className="card p-5 text-sm">
+            <h2 className="text-lg font-extrabold">Your design in short</h2>
+            <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2">
+              {summarizeDesign(plan, design, catalog, design.unit).map((line) => (
+                <div key={line.label} className="flex gap-2">
+                  <dt className="font-bold text-char-700">{line.label}:</dt>
+                  <dd>{line.value}</dd>
+                </div>
+              ))}
+            </dl>
+          </section>
+        ) : null}
+
+        <RequestForm designQuery={designQuery} state={actionData} companyName={company.name} />
+      </main>
+    </PublicShell>
+  );
+}

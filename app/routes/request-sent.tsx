@@ -1,0 +1,65 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/request-sent";
+import { PublicShell } from "~/components/public-shell";
+import type { DesignSummaryLine } from "~/emails/design-summary";
+import { findCompanyBySlug } from "~/lib/catalog.server";
+import { findLeadByRef } from "~/lib/leads.server";
+import { formatMoneyWhole } from "~/lib/money";
+
+export const meta: Route.MetaFunction = () => [{ title: "Request sent · Emberwright" }];
+
+// Reached through the unguessable ref in the redirect after sending; shows no contact details.
+export async function loader({ params }: Route.LoaderArgs) {
+  const company = await findCompanyBySlug(params.companySlug);
+  const lead = company ? await findLeadByRef(company.id, params.ref) : null;
+  if (!company || !lead) throw new Response("Not found", { status: 404 });
+  const design = JSON.parse(lead.designJson) as { summary?: DesignSummaryLine[] };
+  return {
+    companyName: company.name,
+    companySlug: company.slug,
+    firstName: lead.customerName.split(" ")[0],
+    summary: design.summary ?? [],
+    price:
+      lead.priceLowCents !== null && lead.priceHighCents !== null
+        ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`
+        : null,
+  };
+}
+
+export default function RequestSentRoute({ loaderData }: Route.ComponentProps) {
+  const { companyName, firstName, summary, price, companySlug } = loaderData;
+  return (
+    <PublicShell>
+      <main className="mx-auto flex max-w-3xl flex-col gap-6 px-4 py-10 sm:px-6">
+        <div>
+          <p className="text-sm font-extrabold tracking-widest text-moss-600 uppercase">Request sent</p>
+          <h1 className="mt-1 text-3xl font-extrabold">Thank you, {firstName}. {companyName} has your design.</h1>
+        </div>
+        <section className="card p-6" aria-labelledby="sent-design">
+          <h2 id="sent-design" className="text-lg font-extrabold">Your design</h2>
+          <dl className="mt-2 grid gap-y-1 text-sm">
+            {summary.map((line) => (
+              <div key={line.label} className="flex gap-2">
+                <dt className="font-bold text-char-700">{line.label}:</dt>
+                <dd>{line.value}</dd>
+              </div>
+            ))}
+          </dl>
+          {price ? <p className="mt-3 text-xl font-extrabold">Estimated {price}</p> : null}
+        </section>
+        <section className="card p-6" aria-labelledby="next-steps">
+          <h2 id="next-steps" className="text-lg font-extrabold">What happens next</h2>
+          <ol className="mt-2 flex list-decimal flex-col gap-2 pl-5 text-char-700">
+            <li>We sent you an e-mail with your design. It has a link to set a password, so you can follow your request at any time.</li>
+            <li>{companyName} looks at your design and your yard photos, usually within two working days.</li>
+            <li>They get in touch to visit, or to confirm a firm price.</li>
+          </ol>
+          <p className="mt-4 text-sm text-char-600">
+            Before anyone digs: call 811 so buried lines are marked, and check your town's rules on outdoor fires.
+          </p>
+        </section>
+        <Link to={`/c/${companySlug}`} className="btn-quiet self-start">Design another</Link>
+      </main>
+    </PublicShell>
+  );
+}
