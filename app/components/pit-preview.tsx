@@ -88,7 +88,7 @@ export function PitPreview({ input, caption, unit, formatLength }: PitPreviewPro
         {shows3d && PitScene ? (
           <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>
             <Suspense fallback={plan}>
-              <PitScene input={input} resetSignal={resetSignal} className="h-full w-full touch-none" />
+              <PitScene input={input} resetSignal={resetSignal} className="h-full w-full" />
             </Suspense>
           </SceneBoundary>
         ) : showsNote ? (
