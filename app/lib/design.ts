@@ -114,8 +114,15 @@ export function parseDesign(params: URLSearchParams, catalog: CatalogChoice[]): 
   const capId = capParam === "none" ? null : pickId(caps, intParam(params, "cap"));
 
   const overhang = numberParam(params, "overhang");
-  const innerOverhangIn =
-    overhang === null ? 1 : clamp(Math.round(overhang / OVERHANG_STEP_IN) * OVERHANG_STEP_IN, 0, MAX_INNER_OVERHANG_IN);
+  // By default the cap reaches about 2 in past the outside face and gives the rest to the fire side
+  // (outward 1–2 in, inward 0–2 in is usual; common practice, no source).
+  const cap = caps.find((c) => c.id === capId);
+  const defaultOverhang = cap ? clamp((cap.depthIn ?? 0) - (stone.depthIn ?? 0) - 2, 0, 2) : 1;
+  const innerOverhangIn = clamp(
+    Math.round((overhang ?? defaultOverhang) / OVERHANG_STEP_IN) * OVERHANG_STEP_IN,
+    0,
+    MAX_INNER_OVERHANG_IN,
+  );
 
   const rings = ofKind("steel-ring");
   const bricks = ofKind("firebrick");

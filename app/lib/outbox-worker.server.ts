@@ -18,7 +18,7 @@ export function retryDelayMs(attempts: number): number {
  * Sends every due outbox row once. Each send carries the row's idempotency key, so a crash
  * between "sent" and "marked sent" cannot produce a second e-mail. Returns how many were sent.
  */
-export async function deliverDueEmails(now = new Date()): Promise<number> {
+export async function deliverDueEmails(now = new Date(), client: Pick<typeof resend, "emails"> = resend): Promise<number> {
   const due = await db
     .select()
     .from(emailOutbox)
@@ -28,7 +28,7 @@ export async function deliverDueEmails(now = new Date()): Promise<number> {
   let sent = 0;
   for (const row of due) {
     const attachments = JSON.parse(row.attachmentsJson) as OutboxAttachment[];
-    const { data, error } = await resend.emails.send(
+    const { data, error } = await client.emails.send(
       {
         from: env.EMAIL_FROM,
         to: row.toAddress,

@@ -67,8 +67,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   } catch {
     return data({ errors: { form: "We could not read that form. Please try again." }, values: {} }, { status: 400 });
   }
-  const values = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string" && e[0] !== "website"));
-  const parsed = leadFormSchema.safeParse(values);
+  const fields = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const parsed = leadFormSchema.safeParse(fields);
+  const { website: _honeypot, ...values } = fields;
   const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
   const photoCheck = await checkPhotos(form.getAll("photos").filter((f): f is File => f instanceof File));
   if (!photoCheck.ok) errors.photos = photoCheck.message;
