@@ -1,6 +1,6 @@
 import { DEFAULT_FACTORS } from "~/domain/factors";
 import type { Plan } from "~/domain/plan";
-import { formatLength, type LengthUnit } from "~/domain/units";
+import { formatLength, inToMm, type LengthUnit } from "~/domain/units";
 import type { CatalogChoice, Design } from "~/lib/design";
 import type { PitSceneInput } from "~/scene/pit-model";
 
@@ -155,6 +155,10 @@ export function describePreview(plan: PublicPlan, unit: LengthUnit): string {
     `${plan.ring.unitsPerCourse} units in each of ${plan.ring.courses} courses`,
   ];
   if (plan.caps) parts.push(`${plan.caps.count} caps`);
-  if (plan.patio) parts.push(`patio ${f(plan.patio.outsideRadiusIn * 2)} across`);
+  if (plan.patio) {
+    const acrossIn = plan.patio.outsideRadiusIn * 2;
+    // A patio reads better in feet than in inches.
+    parts.push(`patio ${unit === "mm" ? `${(inToMm(acrossIn) / 1000).toFixed(2)} m` : `${Math.round((acrossIn / 12) * 10) / 10} ft`} across`);
+  }
   return parts.join(" · ");
 }

@@ -10,11 +10,11 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.getByRole("button", { name: "Sign in" }).click();
 }
 
-/** Saves a full-page screenshot at desktop and phone width under test-results/screens. */
+/** Saves a full-page screenshot at desktop and phone width under data/screens (kept between runs, unlike test-results/). */
 export async function screenshotBothWidths(page: Page, name: string) {
   for (const [label, width, height] of [["desktop", 1280, 900], ["phone", 375, 812]] as const) {
     await page.setViewportSize({ width, height });
-    await page.screenshot({ path: `test-results/screens/${name}-${label}.png`, fullPage: true });
+    await page.screenshot({ path: `data/screens/${name}-${label}.png`, fullPage: true });
     // The page must not scroll sideways on a phone: that is what "looks broken" usually is.
     const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
     expect(overflow, `${name} at ${label} width scrolls sideways`).toBeLessThanOrEqual(1);
