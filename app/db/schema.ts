@@ -29,6 +29,11 @@ export const companies = sqliteTable("companies", {
   overheadPct: real("overhead_pct").notNull().default(15),
   marginPct: real("margin_pct").notNull().default(20),
   priceSpreadPct: real("price_spread_pct").notNull().default(12),
+  // Design consults: weekly hours as JSON {"1":[[540,1020]], …} (ISO weekday → [start, end) minutes
+  // after local midnight), slot length, and how far ahead people may book.
+  consultHoursJson: text("consult_hours_json").notNull().default('{"1":[[540,1020]],"2":[[540,1020]],"3":[[540,1020]],"4":[[540,1020]],"5":[[540,960]]}'),
+  consultSlotMinutes: integer("consult_slot_minutes").notNull().default(60),
+  consultHorizonDays: integer("consult_horizon_days").notNull().default(21),
   // Overrides of the estimating engine's factors (waste, base depth, labour minutes…), JSON.
   factorsJson: text("factors_json").notNull().default("{}"),
   createdAt: createdAt(),
@@ -48,6 +53,8 @@ export const users = sqliteTable(
     // Null until the person sets a password from their one-time link.
     passwordHash: text("password_hash"),
     isActive: integer("is_active", { mode: "boolean" }).notNull().default(true),
+    // Leads newer than this are marked unseen in the inbox.
+    inboxSeenAt: text("inbox_seen_at"),
     createdAt: createdAt(),
   },
   (t) => [
@@ -123,6 +130,8 @@ export const leads = sqliteTable(
     status: text("status", { enum: LEAD_STATUSES }).notNull().default("new"),
     lostReason: text("lost_reason"),
     assignedUserId: integer("assigned_user_id").references(() => users.id),
+    // The crew member who builds a won job.
+    crewUserId: integer("crew_user_id").references(() => users.id),
     customerName: text("customer_name").notNull(),
     email: text("email").notNull(),
     phone: text("phone").notNull(),
@@ -148,7 +157,33 @@ export const leads = sqliteTable(
     index("leads_company_email_idx").on(t.companyId, t.email),
     index("leads_company_town_idx").on(t.companyId, t.town),
     index("leads_homeowner_idx").on(t.homeownerId),
+    index("leads_company_crew_idx").on(t.companyId, t.crewUserId),
+    index("leads_company_name_idx").on(t.companyId, t.customerName),
+    index("leads_company_price_idx").on(t.companyId, t.priceLowCents),
   ],
+);
+
+// Staff revisions of a lead's design; the homeowner's original stays on the lead untouched.
+export const leadRevisions = sqliteTable(
+  "lead_revisions",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    authorUserId: integer("author_user_id")
+      .notNull()
+      .references(() => users.id),
+    designJson: text("design_json").notNull(),
+    planJson: text("plan_json").notNull(),
+    priceLowCents: integer("price_low_cents"),
+    priceHighCents: integer("price_high_cents"),
+    createdAt: createdAt(),
+  },
+  (t) => [index("lead_revisions_lead_idx").on(t.leadId, t.createdAt)],
 );
 
 export const leadPhotos = sqliteTable(
@@ -235,3 +270,70 @@ export const oneTimeTokens = sqliteTable(
 
 export type Lead = typeof leads.$inferSelect;
 export type LeadPhoto = typeof leadPhotos.$inferSelect;
+
+export const consultBlockedDays = sqliteTable(
+  "consult_blocked_days",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    /** A local calendar day in the company's time zone, YYYY-MM-DD. */
+    day: text("day").notNull(),
+  },
+  (t) => [uniqueIndex("consult_blocked_days_unique").on(t.companyId, t.day)],
+);
+
+export const BOOKING_STATUSES = ["held", "confirmed", "cancelled", "expired"] as const;
+export type BookingStatus = (typeof BOOKING_STATUSES)[number];
+
+// A paid design consult. A slot is held while checkout is open and confirmed by the signed
+// webhook. The partial unique index is what makes "one booking per slot" true under any race.
+export const bookings = sqliteTable(
+  "bookings",
+  {
+    id: integer("id").primaryKey({ autoIncrement: true }),
+    companyId: integer("company_id")
+      .notNull()
+      .references(() => companies.id),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    homeownerId: integer("homeowner_id").references(() => users.id),
+    startsAt: text("starts_at").notNull(),
+    endsAt: text("ends_at").notNull(),
+    status: text("status", { enum: BOOKING_STATUSES }).notNull().default("held"),
+    holdExpiresAt: text("hold_expires_at").notNull(),
+    amountCents: integer("amount_cents").notNull(),
+    checkoutSessionId: text("checkout_session_id").unique(),
+    paymentIntentId: text("payment_intent_id"),
+    isPaid: integer("is_paid", { mode: "boolean" }).notNull().default(false),
+    refundId: text("refund_id"),
+    refundedAt: text("refunded_at"),
+    cancelledBy: text("cancelled_by"),
+    cancelReason: text("cancel_reason"),
+    createdAt: createdAt(),
+    updatedAt: text("updated_at")
+      .notNull()
+      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+  },
+  (t) => [
+    uniqueIndex("bookings_slot_taken_unique")
+      .on(t.companyId, t.startsAt)
+      .where(sql`status in ('held', 'confirmed')`),
+    index("bookings_company_starts_idx").on(t.companyId, t.startsAt),
+    index("bookings_lead_idx").on(t.leadId),
+    index("bookings_status_hold_idx").on(t.status, t.holdExpiresAt),
+  ],
+);
+
+// Every payment-service event id, recorded once in the same transaction as its effect.
+export const paymentEvents = sqliteTable("payment_events", {
+  id: text("id").primaryKey(),
+  type: text("type").notNull(),
+  bookingId: integer("booking_id").references(() => bookings.id),
+  receivedAt: createdAt(),
+});
+
+export type Booking = typeof bookings.$inferSelect;
+export type LeadRevision = typeof leadRevisions.$inferSelect;
