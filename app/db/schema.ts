@@ -224,7 +224,8 @@ export const leadEvents = sqliteTable(
   (t) => [index("lead_events_lead_idx").on(t.leadId, t.createdAt)],
 );
 
-export const OUTBOX_STATUSES = ["pending", "sent", "failed"] as const;
+// "cancelled": a scheduled message (a consult reminder) that is no longer wanted.
+export const OUTBOX_STATUSES = ["pending", "sent", "failed", "cancelled"] as const;
 
 // Transactional outbox: written in the same batch as the row that triggers the e-mail; a worker
 // sends it with the idempotency key, so each message goes out once even across retries.
@@ -305,6 +306,8 @@ export const bookings = sqliteTable(
     status: text("status", { enum: BOOKING_STATUSES }).notNull().default("held"),
     holdExpiresAt: text("hold_expires_at").notNull(),
     amountCents: integer("amount_cents").notNull(),
+    // The homeowner's own time zone (from their browser), for e-mails in their local time.
+    customerTimeZone: text("customer_time_zone"),
     checkoutSessionId: text("checkout_session_id").unique(),
     paymentIntentId: text("payment_intent_id"),
     isPaid: integer("is_paid", { mode: "boolean" }).notNull().default(false),
