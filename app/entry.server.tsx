@@ -8,7 +8,7 @@ import { NonceProvider } from "~/components/nonce";
 import { nonceContext } from "~/lib/security.server";
 import "~/lib/env.server";
 import "~/lib/db.server";
-import "~/lib/outbox-worker.server";
+import "~/lib/background.server";
 
 export const streamTimeout = 5_000;
 

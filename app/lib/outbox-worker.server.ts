@@ -65,25 +65,3 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
   }
   return sent;
 }
-
-let timer: NodeJS.Timeout | null = null;
-let isRunning = false;
-
-/** Polls the outbox in this process; one pass at a time. */
-export function startOutboxWorker(intervalMs = 1_000): void {
-  if (timer) return;
-  timer = setInterval(async () => {
-    if (isRunning) return;
-    isRunning = true;
-    try {
-      await deliverDueEmails();
-    } catch (err) {
-      console.error("outbox: pass failed", err);
-    } finally {
-      isRunning = false;
-    }
-  }, intervalMs);
-  timer.unref();
-}
-
-if (env.OUTBOX_WORKER === "on" && !process.env.VITEST) startOutboxWorker();

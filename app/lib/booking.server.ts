@@ -1,0 +1,376 @@
+import { and, eq, gt, inArray, isNull, lt, sql } from "drizzle-orm";
+import { createEvent } from "ics";
+import type Stripe from "stripe";
+import {
+  bookings,
+  companies,
+  consultBlockedDays,
+  emailOutbox,
+  leadEvents,
+  leads,
+  paymentEvents,
+  type Booking,
+  type Company,
+  type Lead,
+} from "~/db/schema";
+import { ConsultCancelledEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
+import { db, writeTransaction } from "~/lib/db.server";
+import { prepareOutboxRow } from "~/lib/email.server";
+import { formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
+import { formatMoney } from "~/lib/money";
+import { stripe as defaultStripe } from "~/lib/payments.server";
+
+/*
+ * Paid design consults. A booking holds its slot from the moment checkout starts (the partial
+ * unique index on bookings makes a second holder impossible), the signed webhook confirms it,
+ * expiry releases it, and refunds go out from a worker with idempotency keys, never from inside
+ * a webhook or a transaction.
+ */
+
+// A Checkout Session stays open 30 minutes by default; the hold outlives it a little so the
+// session's own expiry event is what releases the slot.
+const HOLD_MINUTES = 35;
+export const HOMEOWNER_CANCEL_CUTOFF_HOURS = 24;
+
+export class SlotUnavailableError extends Error {}
+
+const isUniqueViolation = (error: unknown) => /UNIQUE constraint failed/i.test(String((error as { message?: string })?.message ?? error)) || /UNIQUE constraint failed/i.test(String((error as { cause?: { message?: string } })?.cause?.message ?? ""));
+
+/** Marks holds whose time ran out as expired, freeing their slots. */
+export async function releaseLapsedHolds(now = new Date()): Promise<void> {
+  await db
+    .update(bookings)
+    .set({ status: "expired", updatedAt: now.toISOString() })
+    .where(and(eq(bookings.status, "held"), lt(bookings.holdExpiresAt, now.toISOString())));
+}
+
+/** Free consult slots of a company from now to its horizon. */
+export async function listCompanySlots(company: Company, now = new Date()): Promise<Slot[]> {
+  await releaseLapsedHolds(now);
+  const [blocked, taken] = await Promise.all([
+    db.select({ day: consultBlockedDays.day }).from(consultBlockedDays).where(eq(consultBlockedDays.companyId, company.id)),
+    db
+      .select({ startsAt: bookings.startsAt })
+      .from(bookings)
+      .where(and(eq(bookings.companyId, company.id), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.startsAt, now.toISOString()))),
+  ]);
+  return listFreeSlots({
+    hours: parseWeeklyHours(company.consultHoursJson),
+    slotMinutes: company.consultSlotMinutes,
+    horizonDays: company.consultHorizonDays,
+    timeZone: company.timeZone,
+    blockedDays: new Set(blocked.map((b) => b.day)),
+    takenStarts: new Set(taken.map((t) => t.startsAt)),
+    now,
+  });
+}
+
+/** The lead's current live booking (held or confirmed), if any. */
+export async function findLiveBooking(leadId: number): Promise<Booking | null> {
+  const [row] = await db
+    .select()
+    .from(bookings)
+    .where(and(eq(bookings.leadId, leadId), inArray(bookings.status, ["held", "confirmed"])))
+    .limit(1);
+  return row ?? null;
+}
+
+/**
+ * Holds a slot for a lead. Throws SlotUnavailableError when the slot is not offered or another
+ * booking holds it (the database decides, not a check-then-write).
+ */
+export async function holdSlot(args: { company: Company; lead: Lead; startsAt: string; customerTimeZone: string | null; now?: Date }): Promise<Booking> {
+  const now = args.now ?? new Date();
+  const slot = (await listCompanySlots(args.company, now)).find((s) => s.startsAt === args.startsAt);
+  if (!slot) throw new SlotUnavailableError("That time is no longer free. Pick another.");
+  try {
+    const [row] = await db
+      .insert(bookings)
+      .values({
+        companyId: args.company.id,
+        leadId: args.lead.id,
+        homeownerId: args.lead.homeownerId,
+        startsAt: slot.startsAt,
+        endsAt: slot.endsAt,
+        status: "held",
+        holdExpiresAt: new Date(now.getTime() + HOLD_MINUTES * 60_000).toISOString(),
+        amountCents: args.company.consultFeeCents,
+        customerTimeZone: args.customerTimeZone,
+      })
+      .returning();
+    return row!;
+  } catch (error) {
+    if (isUniqueViolation(error)) throw new SlotUnavailableError("Someone booked that time a moment ago. Pick another.");
+    throw error;
+  }
+}
+
+/** Opens (or, on a retry, reopens) the hosted checkout for a held booking; returns its URL. */
+export async function startCheckout(args: { booking: Booking; company: Company; lead: Lead; origin: string; basePath: string; client?: Stripe }): Promise<string> {
+  const client = args.client ?? defaultStripe;
+  const { booking, company, lead, origin, basePath } = args;
+  const session = await client.checkout.sessions.create(
+    {
+      mode: "payment",
+      line_items: [
+        {
+          price_data: {
+            currency: "usd",
+            unit_amount: booking.amountCents,
+            product_data: { name: `Fire pit design consult with ${company.name}` },
+          },
+          quantity: 1,
+        },
+      ],
+      customer_email: lead.email,
+      client_reference_id: String(booking.id),
+      metadata: { booking_id: String(booking.id), lead_id: String(lead.id) },
+      // Copied onto the charge, so a refund event names its booking too.
+      payment_intent_data: { metadata: { booking_id: String(booking.id) } },
+      success_url: `${origin}${basePath}/done?session_id={CHECKOUT_SESSION_ID}`,
+      cancel_url: `${origin}${basePath}?left=${booking.id}`,
+    },
+    // The same booking always sends the same body and key: a retry cannot open a second payment.
+    { idempotencyKey: `checkout:${booking.id}` },
+  );
+  await db.update(bookings).set({ checkoutSessionId: session.id, updatedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
+  if (!session.url) throw new Error("The payment service returned no checkout page.");
+  return session.url;
+}
+
+/** The homeowner came back without paying: close the checkout and free the slot now. */
+export async function abandonCheckout(bookingId: number, leadId: number, client: Stripe = defaultStripe): Promise<void> {
+  const [booking] = await db.select().from(bookings).where(and(eq(bookings.id, bookingId), eq(bookings.leadId, leadId))).limit(1);
+  if (!booking || booking.status !== "held") return;
+  if (booking.checkoutSessionId) {
+    // The expired event that follows finds the booking already released and changes nothing.
+    await client.checkout.sessions.expire(booking.checkoutSessionId).catch(() => undefined);
+  }
+  await db.update(bookings).set({ status: "expired", updatedAt: new Date().toISOString() }).where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
+}
+
+function calendarFile(booking: Booking, company: Company, lead: Lead): string {
+  const start = new Date(booking.startsAt);
+  const { value, error } = createEvent({
+    uid: `consult-${booking.id}@emberwright`,
+    start: start.getTime(),
+    startInputType: "utc",
+    startOutputType: "utc",
+    duration: { minutes: Math.round((new Date(booking.endsAt).getTime() - start.getTime()) / 60_000) },
+    title: `Fire pit design consult: ${company.name}`,
+    description: `Design consult for the fire pit at ${lead.street}, ${lead.town}.`,
+    location: `${lead.street}, ${lead.town}`,
+    productId: "emberwright/consults",
+  });
+  if (error || !value) throw error ?? new Error("calendar file failed");
+  return value;
+}
+
+function designLine(lead: Lead): string {
+  const design = JSON.parse(lead.designJson) as { summary?: { label: string; value: string }[] };
+  const bowl = design.summary?.find((l) => l.label === "Bowl")?.value;
+  return [lead.stoneName, bowl].filter(Boolean).join(", ");
+}
+
+async function confirmationEmails(booking: Booking, company: Company, lead: Lead) {
+  const homeownerZone = booking.customerTimeZone ?? company.timeZone;
+  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents) };
+  const ics = Buffer.from(calendarFile(booking, company, lead)).toString("base64");
+  const attachments = [{ filename: "design-consult.ics", content: ics, contentType: "text/calendar" }];
+  const reminderAt = new Date(new Date(booking.startsAt).getTime() - 24 * 60 * 60_000);
+  return Promise.all([
+    prepareOutboxRow({
+      idempotencyKey: `consult-confirmed/${booking.id}`,
+      companyId: company.id,
+      to: lead.email,
+      subject: `Design consult booked with ${company.name}: ${formatSlot(booking.startsAt, homeownerZone)}`,
+      template: ConsultConfirmedEmail({ ...common, recipientName: lead.customerName, customerName: lead.customerName, when: formatSlot(booking.startsAt, homeownerZone), forCompany: false }),
+      attachments,
+    }),
+    prepareOutboxRow({
+      idempotencyKey: `consult-confirmed-company/${booking.id}`,
+      companyId: company.id,
+      to: company.email,
+      subject: `Consult booked: ${lead.customerName}, ${formatSlot(booking.startsAt, company.timeZone)}`,
+      template: ConsultConfirmedEmail({ ...common, recipientName: company.name, customerName: lead.customerName, when: formatSlot(booking.startsAt, company.timeZone), forCompany: true }),
+      attachments,
+    }),
+    prepareOutboxRow({
+      idempotencyKey: `consult-reminder/${booking.id}`,
+      companyId: company.id,
+      to: lead.email,
+      subject: `Tomorrow: your design consult with ${company.name}`,
+      template: ConsultReminderEmail({ ...common, recipientName: lead.customerName, when: formatSlot(booking.startsAt, homeownerZone) }),
+      sendAfter: reminderAt,
+    }),
+  ]);
+}
+
+async function cancellationEmails(booking: Booking, company: Company, lead: Lead, reason: string) {
+  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents), reason, isRefunded: booking.isPaid };
+  return Promise.all([
+    prepareOutboxRow({
+      idempotencyKey: `consult-cancelled/${booking.id}`,
+      companyId: company.id,
+      to: lead.email,
+      subject: `Design consult cancelled${booking.isPaid ? " and refunded" : ""}`,
+      template: ConsultCancelledEmail({ ...common, recipientName: lead.customerName, when: formatSlot(booking.startsAt, booking.customerTimeZone ?? company.timeZone) }),
+    }),
+    prepareOutboxRow({
+      idempotencyKey: `consult-cancelled-company/${booking.id}`,
+      companyId: company.id,
+      to: company.email,
+      subject: `Consult cancelled: ${lead.customerName}, ${formatSlot(booking.startsAt, company.timeZone)}`,
+      template: ConsultCancelledEmail({ ...common, recipientName: company.name, when: formatSlot(booking.startsAt, company.timeZone) }),
+    }),
+  ]);
+}
+
+async function loadBookingContext(bookingId: number) {
+  const [row] = await db
+    .select({ booking: bookings, lead: leads, company: companies })
+    .from(bookings)
+    .innerJoin(leads, eq(leads.id, bookings.leadId))
+    .innerJoin(companies, eq(companies.id, bookings.companyId))
+    .where(eq(bookings.id, bookingId))
+    .limit(1);
+  return row ?? null;
+}
+
+export type WebhookOutcome = "applied" | "duplicate" | "ignored";
+
+/**
+ * Applies one verified payment event. The event id is recorded under its primary key in the same
+ * transaction as the effect, so a repeat (or a concurrent twin) changes nothing. States only move
+ * forward: an expiry after a payment leaves the booking paid.
+ */
+export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOutcome> {
+  const bookingId = bookingIdOf(event);
+  const context = bookingId ? await loadBookingContext(bookingId) : null;
+  // E-mails are rendered up front (local work), so the transaction holds only writes.
+  const confirmRows = context && event.type === "checkout.session.completed" ? await confirmationEmails(context.booking, context.company, context.lead) : [];
+  const slotTakenRows =
+    context && event.type === "checkout.session.completed"
+      ? await cancellationEmails({ ...context.booking, isPaid: true }, context.company, context.lead, "Another booking took that time while your payment was going through.")
+      : [];
+
+  return writeTransaction(async (tx) => {
+    const recorded = await tx
+      .insert(paymentEvents)
+      .values({ id: event.id, type: event.type, bookingId: context?.booking.id ?? null })
+      .onConflictDoNothing()
+      .returning({ id: paymentEvents.id });
+    if (recorded.length === 0) return "duplicate";
+    if (!context) return "ignored";
+    const now = new Date().toISOString();
+    const [booking] = await tx.select().from(bookings).where(eq(bookings.id, context.booking.id));
+    if (!booking) return "ignored";
+
+    if (event.type === "checkout.session.completed") {
+      const session = event.data.object as Stripe.Checkout.Session;
+      if (session.payment_status !== "paid" || booking.isPaid) return "ignored";
+      const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+      if (booking.status === "held" || booking.status === "expired") {
+        // An expired hold may have lost its slot meanwhile; the unique index decides.
+        const taken = await tx
+          .select({ id: bookings.id })
+          .from(bookings)
+          .where(and(eq(bookings.companyId, booking.companyId), eq(bookings.startsAt, booking.startsAt), inArray(bookings.status, ["held", "confirmed"]), sql`${bookings.id} <> ${booking.id}`));
+        if (taken.length === 0) {
+          await tx.update(bookings).set({ status: "confirmed", isPaid: true, paymentIntentId, updatedAt: now }).where(eq(bookings.id, booking.id));
+          await tx.insert(emailOutbox).values(confirmRows).onConflictDoNothing();
+          await tx.insert(leadEvents).values({ companyId: booking.companyId, leadId: booking.leadId, kind: "consult-booked", detail: `Design consult paid and booked for ${formatSlot(booking.startsAt, context.company.timeZone)}.` });
+          await tx
+            .update(leads)
+            .set({ status: "consult-booked", updatedAt: now })
+            .where(and(eq(leads.id, booking.leadId), inArray(leads.status, ["new", "contacted"])));
+          return "applied";
+        }
+      }
+      // Paid for a slot it no longer holds (or a cancelled booking): refund, and say so.
+      await tx
+        .update(bookings)
+        .set({ status: "cancelled", isPaid: true, paymentIntentId, cancelledBy: "system", cancelReason: "slot-taken", updatedAt: now })
+        .where(eq(bookings.id, booking.id));
+      await tx.insert(emailOutbox).values(slotTakenRows).onConflictDoNothing();
+      return "applied";
+    }
+    if (event.type === "checkout.session.expired") {
+      await tx.update(bookings).set({ status: "expired", updatedAt: now }).where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
+      return "applied";
+    }
+    if (event.type === "charge.refunded") {
+      const charge = event.data.object as Stripe.Charge;
+      const refundId = charge.refunds?.data?.[0]?.id ?? booking.refundId ?? "refunded";
+      await tx
+        .update(bookings)
+        .set({ refundId, refundedAt: booking.refundedAt ?? now, updatedAt: now })
+        .where(eq(bookings.id, booking.id));
+      return "applied";
+    }
+    return "ignored";
+  });
+}
+
+function bookingIdOf(event: Stripe.Event): number | null {
+  const object = event.data.object as { metadata?: Record<string, string> | null; client_reference_id?: string | null };
+  const raw = object.metadata?.booking_id ?? object.client_reference_id ?? null;
+  const id = Number(raw);
+  return Number.isSafeInteger(id) && id > 0 ? id : null;
+}
+
+/** Finds the booking of a refunded charge by its payment intent (charges carry no booking id). */
+export async function bookingIdForPaymentIntent(paymentIntentId: string): Promise<number | null> {
+  const [row] = await db.select({ id: bookings.id }).from(bookings).where(eq(bookings.paymentIntentId, paymentIntentId)).limit(1);
+  return row?.id ?? null;
+}
+
+/**
+ * Cancels a live booking (staff any time, the homeowner up to 24 h ahead). A paid booking is
+ * refunded by the refund worker; both sides get an e-mail; the reminder is withdrawn.
+ */
+export async function cancelBooking(args: { bookingId: number; companyId: number; by: "homeowner" | "staff"; actorUserId: number | null; now?: Date }): Promise<Booking> {
+  const now = args.now ?? new Date();
+  const context = await loadBookingContext(args.bookingId);
+  if (!context || context.booking.companyId !== args.companyId) throw new Response("Not found", { status: 404 });
+  const { booking, company, lead } = context;
+  if (booking.status !== "confirmed" && booking.status !== "held") {
+    throw new Response("This consult is not booked.", { status: 409 });
+  }
+  if (args.by === "homeowner" && new Date(booking.startsAt).getTime() - now.getTime() < HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000) {
+    throw new Response(`Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.`, { status: 409 });
+  }
+  const reason = args.by === "homeowner" ? "You cancelled it." : `${company.name} cancelled it and will be in touch to find another time.`;
+  const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, reason) : [];
+  await db.batch([
+    db
+      .update(bookings)
+      .set({ status: "cancelled", cancelledBy: args.by, cancelReason: args.by === "homeowner" ? "homeowner" : "staff", updatedAt: now.toISOString() })
+      .where(eq(bookings.id, booking.id)),
+    db.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending"))),
+    db.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` }),
+    ...(rows.length ? [db.insert(emailOutbox).values(rows).onConflictDoNothing()] : []),
+  ]);
+  return { ...booking, status: "cancelled" };
+}
+
+/** Sends the refunds owed (cancelled after payment), each once, keyed `refund:<bookingId>`. */
+export async function processRefunds(client: Stripe = defaultStripe): Promise<number> {
+  const owed = await db
+    .select()
+    .from(bookings)
+    .where(and(eq(bookings.status, "cancelled"), eq(bookings.isPaid, true), isNull(bookings.refundId)))
+    .limit(20);
+  let done = 0;
+  for (const booking of owed) {
+    if (!booking.paymentIntentId) continue;
+    try {
+      const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId }, { idempotencyKey: `refund:${booking.id}` });
+      await db.update(bookings).set({ refundId: refund.id, refundedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
+      done += 1;
+    } catch (error) {
+      console.error(`refund for booking ${booking.id} failed; will retry`, (error as Error).message);
+    }
+  }
+  return done;
+}

@@ -1,0 +1,34 @@
+import type Stripe from "stripe";
+import type { Route } from "./+types/webhooks-stripe";
+import { applyPaymentEvent, bookingIdForPaymentIntent } from "~/lib/booking.server";
+import { env } from "~/lib/env.server";
+import { stripe } from "~/lib/payments.server";
+
+const MAX_BODY_BYTES = 256 * 1024;
+
+export function loader() {
+  return Response.json({ error: "Webhooks arrive by POST." }, { status: 405 });
+}
+
+// The one route other machines post to: no session, no origin check. The HMAC signature over the
+// raw body is the proof; anything unsigned, stale (over 300 s) or altered answers 400 and changes nothing.
+export async function action({ request }: Route.ActionArgs) {
+  const body = await request.text();
+  if (body.length > MAX_BODY_BYTES) return Response.json({ error: "Body too large." }, { status: 413 });
+  let event: Stripe.Event;
+  try {
+    event = stripe.webhooks.constructEvent(body, request.headers.get("stripe-signature") ?? "", env.STRIPE_WEBHOOK_SECRET);
+  } catch {
+    return Response.json({ error: "Signature check failed." }, { status: 400 });
+  }
+  if (event.type === "charge.refunded") {
+    const charge = event.data.object as Stripe.Charge;
+    const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
+    if (!charge.metadata?.booking_id && paymentIntent) {
+      const bookingId = await bookingIdForPaymentIntent(paymentIntent);
+      if (bookingId) charge.metadata = { ...charge.metadata, booking_id: String(bookingId) };
+    }
+  }
+  const outcome = await applyPaymentEvent(event);
+  return Response.json({ received: true, outcome });
+}
