@@ -6,6 +6,8 @@ export default [
   route("logout", "routes/logout.tsx"),
   route("c/:companySlug", "routes/configurator.tsx"),
   route("c/:companySlug/sent/:ref", "routes/request-sent.tsx"),
+  route("c/:companySlug/consult/:ref", "routes/consult.tsx"),
+  route("c/:companySlug/consult/:ref/done", "routes/consult-done.tsx"),
   route("welcome/:token", "routes/welcome.tsx"),
   route("my", "routes/my.tsx"),
   route("photos/:photoId", "routes/photo.ts"),
@@ -24,6 +26,7 @@ export default [
     route("health", "routes/api/health.ts"),
     route("catalog/:companySlug", "routes/api/catalog.ts"),
     route("plan", "routes/api/plan.ts"),
+    route("webhooks/stripe", "routes/api/webhooks-stripe.ts"),
   ]),
 
   route("*", "routes/not-found.tsx"),
