@@ -1,0 +1,82 @@
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { eq } from "drizzle-orm";
+import { afterAll, beforeAll, expect, test } from "vitest";
+import { bookings, leads } from "~/db/schema";
+import { cancelBooking, holdSlot, listCompanySlots, processRefunds, startCheckout } from "~/lib/booking.server";
+import { db } from "~/lib/db.server";
+import { createStripe } from "~/lib/payments.server";
+import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
+import { demoCompany } from "./support/demo";
+import { createTestLead } from "./support/leads";
+
+let fake: PaymentsFake;
+beforeAll(async () => {
+  fake = await startPaymentsFake({ port: 0, webhookUrl: null, stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-pay-")), "state.json"), log: () => {} });
+});
+afterAll(() => fake.close());
+
+const control = async (pathName: string, body?: unknown) => {
+  const res = await fetch(`${fake.url}/_fake/${pathName}`, body === undefined ? {} : { method: "POST", body: JSON.stringify(body), headers: { "Content-Type": "application/json" } });
+  return res.json();
+};
+
+async function heldBooking() {
+  const { company } = await demoCompany();
+  const { id } = await createTestLead(company);
+  const [lead] = await db.select().from(leads).where(eq(leads.id, id));
+  const slots = await listCompanySlots(company);
+  const slot = slots[Math.floor(Math.random() * slots.length)]!;
+  const booking = await holdSlot({ company, lead: lead!, startsAt: slot.startsAt, customerTimeZone: null });
+  return { company, lead: lead!, booking };
+}
+
+test("checkout opens with our own idempotency key: a retry returns the same session, not a second one", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  const first = await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  const second = await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  expect(second).toBe(first);
+  const requests = (await control("requests")) as { data: { idempotencyKey?: string; idempotency_key?: string }[] };
+  expect(JSON.stringify(requests)).toContain(`checkout:${booking.id}`);
+});
+
+test("with the payment service down, checkout fails loudly, nothing is charged and the slot stays held for a retry", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  await control("fail-next", { down: true });
+  await expect(startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client })).rejects.toThrow();
+  await control("fail-next", { down: false });
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(row).toMatchObject({ status: "held", isPaid: false, checkoutSessionId: null });
+  const url = await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  expect(url).toContain("/pay/");
+});
+
+test("a staff cancellation of a paid consult is refunded once, keyed refund:<booking>, however often the worker runs", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  const [withSession] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  await control(`sessions/${withSession!.checkoutSessionId}/pay`, { card: "4242424242424242" });
+  const session = await client.checkout.sessions.retrieve(withSession!.checkoutSessionId!);
+  await db.update(bookings).set({ status: "confirmed", isPaid: true, paymentIntentId: String(session.payment_intent) }).where(eq(bookings.id, booking.id));
+
+  await cancelBooking({ bookingId: booking.id, companyId: company.id, by: "staff", actorUserId: null });
+  await Promise.all([processRefunds(client), processRefunds(client)]);
+  await processRefunds(client);
+  const refunds = (await control("refunds")) as { data: { payment_intent: string }[] };
+  expect(refunds.data.filter((r) => r.payment_intent === String(session.payment_intent))).toHaveLength(1);
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(row!.refundId).toMatch(/^re_/);
+});
+
+test("a homeowner cannot cancel online within 24 hours of the consult", async () => {
+  const { company, booking } = await heldBooking();
+  await db.update(bookings).set({ status: "confirmed" }).where(eq(bookings.id, booking.id));
+  const now = new Date(new Date(booking.startsAt).getTime() - 3 * 3_600_000);
+  const error = await cancelBooking({ bookingId: booking.id, companyId: company.id, by: "homeowner", actorUserId: null, now }).catch((e: unknown) => e);
+  expect(error).toBeInstanceOf(Response);
+  expect((error as Response).status).toBe(409);
+});
