@@ -1,9 +1,13 @@
-import { inArray } from "drizzle-orm";
-import { Form } from "react-router";
+import { and, eq, inArray } from "drizzle-orm";
+import { data, Form, Link } from "react-router";
+import { z } from "zod";
 import type { Route } from "./+types/my";
+import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
-import { leadPhotos } from "~/db/schema";
+import { FormAlert } from "~/components/ui/field";
+import { bookings, companies, leadPhotos, leads } from "~/db/schema";
 import type { DesignSummaryLine } from "~/emails/design-summary";
+import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
 import { listHomeownerLeads } from "~/lib/leads.server";
@@ -15,18 +19,26 @@ export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests ·
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
   const rows = await listHomeownerLeads(user.id);
-  const photos = rows.length
-    ? await db
-        .select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName })
-        .from(leadPhotos)
-        .where(inArray(leadPhotos.leadId, rows.map((r) => r.id)))
-    : [];
+  const ids = rows.map((r) => r.id);
+  const [photos, liveBookings, companyRows] = ids.length
+    ? await Promise.all([
+        db.select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName }).from(leadPhotos).where(inArray(leadPhotos.leadId, ids)),
+        db.select().from(bookings).where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
+        db.select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone }).from(companies).where(inArray(companies.id, rows.map((r) => r.companyId))),
+      ])
+    : [[], [], []];
+  const now = Date.now();
   return {
     name: user.name,
     requests: rows.map((lead) => {
       const design = JSON.parse(lead.designJson) as { summary?: DesignSummaryLine[] };
+      const company = companyRows.find((c) => c.id === lead.companyId)!;
+      const booking = liveBookings.find((b) => b.leadId === lead.id && b.status === "confirmed");
       return {
         id: lead.id,
+        companyName: company.name,
+        companyTimeZone: company.timeZone,
+        consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
         summary: design.summary ?? [],
@@ -35,12 +47,43 @@ export async function loader({ request }: Route.LoaderArgs) {
             ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`
             : null,
         photos: photos.filter((p) => p.leadId === lead.id),
+        consult: booking
+          ? {
+              bookingId: booking.id,
+              startsAt: booking.startsAt,
+              canCancel: new Date(booking.startsAt).getTime() - now >= HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000,
+            }
+          : null,
+        isOpen: lead.status !== "won" && lead.status !== "lost",
       };
     }),
   };
 }
 
-export default function MyRequestsRoute({ loaderData }: Route.ComponentProps) {
+const cancelSchema = z.object({ bookingId: z.coerce.number().int().positive({ error: "Choose a consult to cancel." }) });
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: ["homeowner"] });
+  const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
+  // Only a booking on one of this homeowner's own requests; anything else is "not found".
+  const [row] = await db
+    .select({ booking: bookings })
+    .from(bookings)
+    .innerJoin(leads, eq(leads.id, bookings.leadId))
+    .where(and(eq(bookings.id, parsed.data.bookingId), eq(leads.homeownerId, user.id)))
+    .limit(1);
+  if (!row) return data({ error: "That consult was not found." }, { status: 404 });
+  try {
+    await cancelBooking({ bookingId: row.booking.id, companyId: row.booking.companyId, by: "homeowner", actorUserId: user.id });
+  } catch (error) {
+    if (error instanceof Response) return data({ error: await error.text() }, { status: error.status });
+    throw error;
+  }
+  return data({ error: null, cancelled: true });
+}
+
+export default function MyRequestsRoute({ loaderData, actionData }: Route.ComponentProps) {
   return (
     <PublicShell
       right={
@@ -54,11 +97,19 @@ export default function MyRequestsRoute({ loaderData }: Route.ComponentProps) {
           <h1 className="text-3xl font-extrabold">Your fire-pit requests</h1>
           <p className="mt-1 text-char-600">Signed in as {loaderData.name}.</p>
         </div>
+        {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
+        {actionData && "cancelled" in actionData ? (
+          <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+            Your consult is cancelled. The fee is refunded to your card; you will get an e-mail.
+          </p>
+        ) : null}
         {loaderData.requests.length === 0 ? <p className="card p-6">You have not sent a request yet.</p> : null}
         {loaderData.requests.map((req) => (
           <article key={req.id} className="card flex flex-col gap-4 p-6" aria-labelledby={`req-${req.id}`}>
             <div className="flex flex-wrap items-baseline justify-between gap-2">
-              <h2 id={`req-${req.id}`} className="text-xl font-extrabold">Request sent {req.sentOn}</h2>
+              <h2 id={`req-${req.id}`} className="text-xl font-extrabold">
+                Request sent {req.sentOn} <span className="font-semibold text-char-600">to {req.companyName}</span>
+              </h2>
               <span className="rounded-full bg-ember-50 px-3 py-1 text-sm font-bold text-ember-700">{req.status}</span>
             </div>
             <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
@@ -70,6 +121,23 @@ export default function MyRequestsRoute({ loaderData }: Route.ComponentProps) {
               ))}
             </dl>
             {req.price ? <p className="text-lg font-extrabold">Estimated {req.price}</p> : null}
+            {req.consult ? (
+              <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg bg-moss-100 px-4 py-3 text-sm">
+                <span>
+                  <strong>Design consult:</strong> <LocalTime iso={req.consult.startsAt} companyTimeZone={req.companyTimeZone} />
+                </span>
+                {req.consult.canCancel ? (
+                  <Form method="post">
+                    <input type="hidden" name="bookingId" value={req.consult.bookingId} />
+                    <button type="submit" className="btn-quiet">Cancel the consult</button>
+                  </Form>
+                ) : (
+                  <span className="text-char-600">Less than a day to go: call {req.companyName} to change it.</span>
+                )}
+              </div>
+            ) : req.isOpen ? (
+              <Link to={req.consultPath} className="btn-quiet self-start">Book a design consult</Link>
+            ) : null}
             {req.photos.length ? (
               <ul className="flex flex-wrap gap-3" aria-label="Your yard photos">
                 {req.photos.map((photo) => (

@@ -4,7 +4,7 @@ import { PublicShell } from "~/components/public-shell";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { findCompanyBySlug } from "~/lib/catalog.server";
 import { findLeadByRef } from "~/lib/leads.server";
-import { formatMoneyWhole } from "~/lib/money";
+import { formatMoney, formatMoneyWhole } from "~/lib/money";
 
 export const meta: Route.MetaFunction = () => [{ title: "Request sent · Emberwright" }];
 
@@ -17,6 +17,8 @@ export async function loader({ params }: Route.LoaderArgs) {
   return {
     companyName: company.name,
     companySlug: company.slug,
+    ref: lead.ref,
+    consultFee: formatMoney(company.consultFeeCents),
     firstName: lead.customerName.split(" ")[0],
     summary: design.summary ?? [],
     price:
@@ -27,7 +29,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export default function RequestSentRoute({ loaderData }: Route.ComponentProps) {
-  const { companyName, firstName, summary, price, companySlug } = loaderData;
+  const { companyName, firstName, summary, price, companySlug, ref, consultFee } = loaderData;
   return (
     <PublicShell>
       <main className="mx-auto flex max-w-3xl flex-col gap-6 px-4 py-10 sm:px-6">
@@ -46,6 +48,13 @@ export default function RequestSentRoute({ loaderData }: Route.ComponentProps) {
             ))}
           </dl>
           {price ? <p className="mt-3 text-xl font-extrabold">Estimated {price}</p> : null}
+        </section>
+        <section className="card flex flex-col gap-3 border-ember-200 bg-ember-50 p-6 sm:flex-row sm:items-center sm:justify-between" aria-labelledby="consult-offer">
+          <div>
+            <h2 id="consult-offer" className="text-lg font-extrabold">Want it settled sooner?</h2>
+            <p className="text-char-700">Book a design consult at your home: {consultFee}, credited toward the build.</p>
+          </div>
+          <Link to={`/c/${companySlug}/consult/${ref}`} className="btn-primary shrink-0">Book a design consult</Link>
         </section>
         <section className="card p-6" aria-labelledby="next-steps">
           <h2 id="next-steps" className="text-lg font-extrabold">What happens next</h2>

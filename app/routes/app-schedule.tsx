@@ -1,0 +1,108 @@
+import { and, asc, eq, gt, inArray } from "drizzle-orm";
+import { data, Form, Link, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/app-schedule";
+import { FormAlert } from "~/components/ui/field";
+import { bookings, leads } from "~/db/schema";
+import { cancelBooking } from "~/lib/booking.server";
+import { getCompany } from "~/lib/catalog.server";
+import { localDay } from "~/lib/consult-slots";
+import { db } from "~/lib/db.server";
+import { formatMoney } from "~/lib/money";
+import { requireUser } from "~/lib/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Consult schedule · Emberwright" }];
+
+const SCHEDULE_ROLES = ["owner", "estimator"] as const;
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: SCHEDULE_ROLES });
+  const company = await getCompany(user.companyId);
+  const rows = await db
+    .select({ booking: bookings, customerName: leads.customerName, town: leads.town, street: leads.street, leadId: leads.id })
+    .from(bookings)
+    .innerJoin(leads, eq(leads.id, bookings.leadId))
+    .where(and(eq(bookings.companyId, user.companyId), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.endsAt, new Date().toISOString())))
+    .orderBy(asc(bookings.startsAt));
+  const time = (iso: string) => new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+  const days = new Map<string, typeof items>();
+  const items = rows.map((r) => ({
+    id: r.booking.id,
+    leadId: r.leadId,
+    day: localDay(new Date(r.booking.startsAt), company.timeZone),
+    from: time(r.booking.startsAt),
+    to: time(r.booking.endsAt),
+    customerName: r.customerName,
+    place: `${r.street}, ${r.town}`,
+    isPaid: r.booking.isPaid,
+    status: r.booking.status,
+    fee: formatMoney(r.booking.amountCents),
+  }));
+  for (const item of items) days.set(item.day, [...(days.get(item.day) ?? []), item]);
+  return { timeZone: company.timeZone, days: [...days.entries()].map(([day, list]) => ({ day, items: list })), canEditHours: user.role === "owner" };
+}
+
+const cancelSchema = z.object({ bookingId: z.coerce.number().int().positive({ error: "Choose a consult to cancel." }) });
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: SCHEDULE_ROLES });
+  const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: false }, { status: 400 });
+  try {
+    await cancelBooking({ bookingId: parsed.data.bookingId, companyId: user.companyId, by: "staff", actorUserId: user.id });
+  } catch (error) {
+    if (error instanceof Response) return data({ error: error.status === 404 ? "That consult was not found." : await error.text(), done: false }, { status: error.status });
+    throw error;
+  }
+  return data({ error: null, done: true });
+}
+
+export default function ScheduleRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { days, timeZone, canEditHours } = loaderData;
+  const navigation = useNavigation();
+  const dayLabel = (day: string) => new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <h1 className="text-2xl font-extrabold">Consult schedule</h1>
+          <p className="text-char-600">Booked design consults, in {timeZone.replace(/_/g, " ")} time.</p>
+        </div>
+        {canEditHours ? <Link to="/app/consult-hours" className="btn-quiet">Consult hours</Link> : null}
+      </div>
+      {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
+      {actionData?.done ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Consult cancelled; the fee is being refunded and both sides are e-mailed.</p>
+      ) : null}
+      {days.length === 0 ? <p className="card p-6 text-char-600">No consults booked yet.</p> : null}
+      {days.map(({ day, items }) => (
+        <section key={day} className="card overflow-hidden" aria-labelledby={`day-${day}`}>
+          <h2 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">{dayLabel(day)}</h2>
+          <ul className="divide-y divide-ash-200">
+            {items.map((item) => (
+              <li key={item.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
+                <div>
+                  <p className="font-extrabold tabular-nums">
+                    {item.from} – {item.to}{" "}
+                    <Link to={`/app/leads/${item.leadId}`} className="text-ember-700 hover:underline">{item.customerName}</Link>
+                  </p>
+                  <p className="text-sm text-char-600">
+                    {item.place} · {item.status === "confirmed" ? `paid ${item.fee}` : "payment in progress"}
+                  </p>
+                </div>
+                {item.status === "confirmed" ? (
+                  <Form method="post">
+                    <input type="hidden" name="bookingId" value={item.id} />
+                    <button type="submit" className="btn-quiet" disabled={navigation.state === "submitting"} aria-label={`Cancel and refund the consult with ${item.customerName}`}>
+                      Cancel and refund
+                    </button>
+                  </Form>
+                ) : null}
+              </li>
+            ))}
+          </ul>
+        </section>
+      ))}
+    </div>
+  );
+}
