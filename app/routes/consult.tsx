@@ -124,6 +124,16 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
         ) : (
           <Form method="post" className="flex flex-col gap-5">
             <TimeZoneField />
+            {booking?.status === "held" ? (
+              <div className="card flex flex-wrap items-center justify-between gap-3 border-ember-300 bg-ember-50 p-4">
+                <p>
+                  <strong>Held for you:</strong> <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
+                </p>
+                <button type="submit" name="startsAt" value={booking.startsAt} className="btn-primary" disabled={isPaying}>
+                  Continue to payment
+                </button>
+              </div>
+            ) : null}
             <p className="text-sm text-char-600">Times are in {company.name}'s time zone ({company.timeZone.replace(/_/g, " ")}).</p>
             {days.map(({ day, slots }) => (
               <fieldset key={day} className="card p-4">

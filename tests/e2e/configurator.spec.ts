@@ -145,7 +145,7 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
 });
 
 test("a homeowner who signs in is not let into the staff workspace", async ({ page }) => {
-  await signIn(page, "nobody@example.test");
+  await signIn(page, "nobody@example.test", "no-such-account");
   await page.goto("/app/catalog");
   await expect(page).toHaveURL(/\/login/);
 });
