@@ -80,3 +80,43 @@ test("a homeowner cannot cancel online within 24 hours of the consult", async ()
   expect(error).toBeInstanceOf(Response);
   expect((error as Response).status).toBe(409);
 });
+
+test("the app down between payment and webhook: the service retries, and the retry confirms the booking once the app is back", async () => {
+  const { createServer } = await import("node:http");
+  const { action } = await import("~/routes/api/webhooks-stripe");
+  const { routeArgs } = await import("./support/demo");
+  // A stand-in for the app's webhook endpoint, on a fixed port we can take down and bring back.
+  const probe = createServer();
+  await new Promise<void>((resolve) => probe.listen(0, "127.0.0.1", resolve));
+  const port = (probe.address() as { port: number }).port;
+  await new Promise<void>((resolve) => probe.close(() => resolve()));
+
+  const stateFile = path.join(mkdtempSync(path.join(tmpdir(), "ew-pay-")), "state.json");
+  const retrying = await startPaymentsFake({ port: 0, webhookUrl: `http://127.0.0.1:${port}/api/webhooks/stripe`, stateFile, retryBaseMs: 100, retryMaxMs: 300, log: () => {} });
+  try {
+    const client = createStripe(retrying.url);
+    const { company, lead, booking } = await heldBooking();
+    await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+    const [withSession] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+    await fetch(`${retrying.url}/_fake/sessions/${withSession!.checkoutSessionId}/pay`, { method: "POST", body: JSON.stringify({ card: "4242424242424242" }), headers: { "Content-Type": "application/json" } });
+    // Nothing listens yet: deliveries fail and are retried with backoff.
+    await new Promise((r) => setTimeout(r, 400));
+    expect((await db.select().from(bookings).where(eq(bookings.id, booking.id)))[0]!.status).toBe("held");
+
+    const app = createServer(async (req, res) => {
+      const chunks: Buffer[] = [];
+      for await (const chunk of req) chunks.push(chunk as Buffer);
+      const request = new Request(`http://127.0.0.1:${port}${req.url}`, { method: "POST", body: Buffer.concat(chunks), headers: req.headers as Record<string, string> });
+      const response = (await action(routeArgs(request))) as Response;
+      res.writeHead(response.status, { "Content-Type": "application/json" }).end(await response.text());
+    });
+    await new Promise<void>((resolve) => app.listen(port, "127.0.0.1", resolve));
+    try {
+      await expect.poll(async () => (await db.select().from(bookings).where(eq(bookings.id, booking.id)))[0]!.status, { timeout: 10_000 }).toBe("confirmed");
+    } finally {
+      await new Promise<void>((resolve) => app.close(() => resolve()));
+    }
+  } finally {
+    await retrying.close();
+  }
+});
