@@ -1,8 +1,13 @@
 import { and, eq } from "drizzle-orm";
-import { catalogItems, companies, users } from "~/db/schema";
+import { catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
 import { db } from "~/lib/db.server";
+import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { parseDesign } from "~/lib/design";
+import { summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { STATUS_LABEL } from "~/lib/lead-status";
 import { hashPassword } from "~/lib/password.server";
-import { DEMO_COMPANIES, DEMO_PASSWORD } from "./seed-data";
+import { publicPlan } from "~/lib/plan.server";
+import { DEMO_COMPANIES, DEMO_LEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead } from "./seed-data";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -24,5 +29,136 @@ export async function seedDemo() {
         .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.name, item.name)));
       if (!existing) await db.insert(catalogItems).values({ ...item, companyId });
     }
+    await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
+  }
+}
+
+function designParams(design: SeedDesign, catalog: CatalogItem[]): URLSearchParams {
+  const idOf = (name: string) => {
+    const item = catalog.find((i) => i.name === name);
+    if (!item) throw new Error(`The demo catalog has no item named "${name}".`);
+    return String(item.id);
+  };
+  const params = new URLSearchParams({ stone: idOf(design.stone), courses: String(design.courses), liner: design.liner });
+  if (design.units !== undefined) params.set("units", String(design.units));
+  params.set("fit", design.fit ? "ring" : "");
+  params.set("cap", design.cap ? idOf(design.cap) : "none");
+  if (design.overhang !== undefined) params.set("overhang", String(design.overhang));
+  if (design.ring) params.set("ring", idOf(design.ring));
+  if (design.patioFt) {
+    params.set("patio", String(design.patioFt));
+    params.set("paver", idOf(design.paver!));
+    params.set("border", idOf(design.border!));
+  }
+  if (design.setbackFt !== undefined) params.set("setback", String(design.setbackFt));
+  return params;
+}
+
+const PIPELINE = ["new", "contacted", "consult-booked", "proposal-sent"] as const;
+const HOUR_MS = 3_600_000;
+
+/*
+ * Each request, once (keyed by a fixed ref), with its design run through the engine and a timeline
+ * that walks the pipeline to its status: received, assigned, each status change, staff notes, and
+ * the two e-mails a real request sends (marked as sent, so nothing goes out again).
+ */
+async function seedLeads(companyId: number, slug: string, companyEmail: string, list: SeedLead[]) {
+  if (list.length === 0) return;
+  const catalog = await db.select().from(catalogItems).where(eq(catalogItems.companyId, companyId));
+  const choices = catalog.filter((i) => i.isActive).map(toCatalogChoice);
+  const staff = await db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.companyId, companyId));
+  const staffId = (email: string | null | undefined) => (email ? (staff.find((s) => s.email === email)?.id ?? null) : null);
+  const now = Date.now();
+
+  for (const [index, seed] of list.entries()) {
+    const ref = `demo-${slug}-${String(index + 1).padStart(2, "0")}`;
+    const [existing] = await db.select({ id: leads.id }).from(leads).where(eq(leads.ref, ref)).limit(1);
+    if (existing) continue;
+    const design = parseDesign(designParams(seed.design, catalog), choices);
+    if (!design) throw new Error(`The demo design of ${seed.customerName} has no wall stone.`);
+    const { plan, errors } = await planForDesign(slug, design, choices);
+    if (!plan) throw new Error(`The demo design of ${seed.customerName} cannot be built: ${errors.map((e) => e.message).join(" ")}`);
+    const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, choices, "in");
+    const createdMs = now - seed.ageHours * HOUR_MS;
+    const at = (hoursAfter: number) => new Date(Math.min(now - 60_000, createdMs + hoursAfter * HOUR_MS)).toISOString();
+    const assigneeId = staffId(seed.assignee);
+    const crewId = staffId(seed.crew);
+    const [lead] = await db
+      .insert(leads)
+      .values({
+        companyId,
+        ref,
+        status: seed.status,
+        lostReason: seed.lostReason ?? null,
+        assignedUserId: assigneeId,
+        crewUserId: crewId,
+        customerName: seed.customerName,
+        email: seed.email,
+        phone: seed.phone,
+        street: seed.street,
+        town: seed.town,
+        buildWindow: seed.buildWindow,
+        notes: seed.notes,
+        designJson: JSON.stringify({ choices: design, summary }),
+        planJson: JSON.stringify(plan),
+        stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
+        bowlDiameterIn: plan.ring.bowlDiameterIn,
+        priceLowCents: plan.price?.lowCents ?? null,
+        priceHighCents: plan.price?.highCents ?? null,
+        createdAt: at(0),
+        updatedAt: at(0),
+      })
+      .returning({ id: leads.id });
+    const leadId = lead!.id;
+
+    const events: (typeof leadEvents.$inferInsert)[] = [
+      { companyId, leadId, kind: "received", detail: "Request sent from the configurator with 0 photos.", createdAt: at(0) },
+    ];
+    // Steps spread over the lead's age so the newest step is still in the past.
+    const steps = seed.status === "won" || seed.status === "lost" ? [...PIPELINE.slice(1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
+    const span = Math.max(1, seed.ageHours - 1);
+    const actorId = assigneeId ?? staffId(staff[0]?.email);
+    if (assigneeId !== null) {
+      events.push({ companyId, leadId, actorUserId: staffId(DEMO_COMPANIES.find((c) => c.slug === slug)?.staff[0]?.email), kind: "assigned", detail: `Assigned to ${staff.find((s) => s.id === assigneeId)?.name}`, createdAt: at(Math.min(2, span * 0.1)) });
+    }
+    let previous: SeedLead["status"] = "new";
+    steps.forEach((status, i) => {
+      const hours = span * ((i + 1) / (steps.length + 1)) + 2;
+      events.push({
+        companyId,
+        leadId,
+        actorUserId: actorId,
+        kind: "status",
+        detail: `${STATUS_LABEL[previous]} → ${STATUS_LABEL[status]}${status === "lost" ? `: ${seed.lostReason}` : ""}`,
+        createdAt: at(hours),
+      });
+      previous = status;
+    });
+    (seed.staffNotes ?? []).forEach((note, i) => {
+      events.push({ companyId, leadId, actorUserId: staffId(note.by), kind: "note", detail: note.text, createdAt: at(span * 0.9 - i) });
+    });
+    if (crewId !== null) {
+      events.push({ companyId, leadId, actorUserId: actorId, kind: "crew-assigned", detail: `Job given to ${staff.find((s) => s.id === crewId)?.name}`, createdAt: at(span * 0.95) });
+    }
+    await db.insert(leadEvents).values(events);
+    const mail = (key: string, to: string, subject: string) => ({
+      companyId,
+      idempotencyKey: `${key}/${leadId}`,
+      toAddress: to,
+      subject,
+      html: `<p>${subject}</p>`,
+      text: subject,
+      status: "sent" as const,
+      attempts: 1,
+      sentAt: at(0.01),
+      createdAt: at(0),
+    });
+    await db
+      .insert(emailOutbox)
+      .values([
+        mail("lead-received", seed.email, "We received your fire-pit request"),
+        mail("lead-new", companyEmail, `New fire-pit request: ${seed.customerName}, ${seed.town}`),
+      ])
+      .onConflictDoNothing();
   }
 }

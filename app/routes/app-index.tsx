@@ -3,7 +3,8 @@ import type { Route } from "./+types/app-index";
 import { STAFF_ROLES } from "~/db/schema";
 import { requireUser } from "~/lib/session.server";
 
+// Each role starts where its work is: the office at the inbox, the crew at their jobs.
 export async function loader({ request }: Route.LoaderArgs) {
-  await requireUser(request, { roles: STAFF_ROLES });
-  return redirect("/app/catalog");
+  const user = await requireUser(request, { roles: STAFF_ROLES });
+  return redirect(user.role === "crew" ? "/app/jobs" : "/app/inbox");
 }

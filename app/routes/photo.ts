@@ -12,7 +12,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const photoId = Number(params.photoId);
   if (!Number.isSafeInteger(photoId) || photoId <= 0) return new Response("Not found", { status: 404 });
   const [row] = await db
-    .select({ photo: leadPhotos, lead: { companyId: leads.companyId, homeownerId: leads.homeownerId, assignedUserId: leads.assignedUserId, status: leads.status } })
+    .select({ photo: leadPhotos, lead: { companyId: leads.companyId, homeownerId: leads.homeownerId, crewUserId: leads.crewUserId, status: leads.status } })
     .from(leadPhotos)
     .innerJoin(leads, eq(leads.id, leadPhotos.leadId))
     .where(and(eq(leadPhotos.id, photoId)))
@@ -22,7 +22,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     (user.role === "homeowner"
       ? row.lead.homeownerId === user.id
       : row.lead.companyId === user.companyId &&
-        (user.role !== "crew" || (row.lead.assignedUserId === user.id && row.lead.status === "won")));
+        (user.role !== "crew" || (row.lead.crewUserId === user.id && row.lead.status === "won")));
   if (!row || !isAllowed) return new Response("Not found", { status: 404 });
   const bytes = await readStoredPhoto(row.photo.storedName);
   return new Response(new Uint8Array(bytes), {

@@ -1,0 +1,61 @@
+import type { CapPlan } from "~/domain/caps";
+import type { Caution } from "~/domain/advice";
+import type { MaterialLine } from "~/domain/quantities";
+import { getCompany, listCatalog } from "~/lib/catalog.server";
+import { toCatalogChoice } from "~/lib/configurator.server";
+import { buildCutList, crewCautionsOf, type CutSection } from "~/lib/cut-list";
+import { planToSceneInput, type PublicPlan, type SummaryLine } from "~/lib/design-plan";
+import { listRevisions, originalVersion } from "~/lib/lead-workspace.server";
+import { publicPlan } from "~/lib/plan.server";
+import type { SessionUser } from "~/lib/session.server";
+import { requireLeadFor } from "~/lib/staff.server";
+import { formatZonedDate, formatZonedDateTime, zonedDay } from "~/lib/zoned-time";
+import type { PitSceneInput } from "~/scene/pit-model";
+
+/** Everything a cut sheet prints, for the HTML page and the PDF alike. No prices, no contact details. */
+export type CutSheet = {
+  leadId: number;
+  companyName: string;
+  customerName: string;
+  street: string;
+  town: string;
+  versionLabel: string;
+  printedOn: string;
+  /** YYYY-MM-DD in the company's zone, for file names. */
+  day: string;
+  summary: SummaryLine[];
+  cutList: CutSection[];
+  materials: MaterialLine[];
+  cautions: Caution[];
+  caps: CapPlan | null;
+  sceneInput: PitSceneInput;
+};
+
+/** The cut sheet of a lead the user may open (404 otherwise), built to its latest design version. */
+export async function loadCutSheet(user: SessionUser, leadId: number): Promise<CutSheet> {
+  const lead = await requireLeadFor(user, leadId);
+  const [company, revisions, catalogItems] = await Promise.all([getCompany(user.companyId), listRevisions(lead), listCatalog(user.companyId)]);
+  const version = revisions.at(-1) ?? originalVersion(lead);
+  const plan = version.plan;
+  const catalog = catalogItems.map(toCatalogChoice);
+  const now = new Date();
+  return {
+    leadId: lead.id,
+    companyName: company.name,
+    customerName: lead.customerName,
+    street: lead.street,
+    town: lead.town,
+    versionLabel:
+      version.revisionId === null
+        ? "Design as the homeowner sent it"
+        : `Revision ${revisions.length} by ${version.authorName ?? "staff"}, ${formatZonedDateTime(version.createdAt, company.timeZone)}`,
+    printedOn: formatZonedDate(now.toISOString(), company.timeZone),
+    day: zonedDay(now, company.timeZone),
+    summary: version.design.summary,
+    cutList: buildCutList(plan),
+    materials: plan.materials,
+    cautions: crewCautionsOf(plan.cautions),
+    caps: plan.caps,
+    sceneInput: planToSceneInput(publicPlan(plan) as PublicPlan, version.design.choices, catalog),
+  };
+}

@@ -1,0 +1,42 @@
+import { z } from "zod";
+import { LEAD_STATUSES } from "~/db/enums";
+
+const userIdOrNone = (label: string) =>
+  z
+    .string({ error: `Choose ${label}.` })
+    .trim()
+    .regex(/^(|\d{1,9})$/, { error: `Choose ${label} from the list.` })
+    .transform((v) => (v === "" ? null : Number(v)));
+
+/** The lead page's forms, told apart by `intent`; each field's message names the field. */
+export const leadActionSchema = z.discriminatedUnion(
+  "intent",
+  [
+    z
+      .object({
+        intent: z.literal("status"),
+        status: z.enum(LEAD_STATUSES, { error: `Status must be one of: ${LEAD_STATUSES.join(", ")}.` }),
+        lostReason: z.string().trim().max(200, "Reason must be at most 200 characters.").default(""),
+      })
+      .refine((v) => v.status !== "lost" || v.lostReason.length >= 3, {
+        path: ["lostReason"],
+        message: "Say why the job was lost (3 to 200 characters), e.g. \"went with another contractor\".",
+      }),
+    z.object({
+      intent: z.literal("note"),
+      note: z.string().trim().min(1, "Write the note first (up to 2,000 characters).").max(2000, "Notes must be at most 2,000 characters."),
+    }),
+    z.object({ intent: z.literal("assign"), assigneeId: userIdOrNone("an estimator") }),
+    z.object({ intent: z.literal("crew"), crewUserId: userIdOrNone("a crew member") }),
+  ],
+  { error: "Unknown action: the form must say what it does (status, note, assign or crew)." },
+);
+
+export type LeadAction = z.output<typeof leadActionSchema>;
+
+/** Field name → first message. */
+export function leadActionErrors(error: z.ZodError): Record<string, string> {
+  const errors: Record<string, string> = {};
+  for (const issue of error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
+  return errors;
+}

@@ -1,0 +1,238 @@
+import { and, asc, desc, eq, like } from "drizzle-orm";
+import { alias } from "drizzle-orm/sqlite-core";
+import { emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
+import type { Plan } from "~/domain/plan";
+import { formatInches } from "~/domain/units";
+import { db } from "~/lib/db.server";
+import type { Design } from "~/lib/design";
+import type { SummaryLine } from "~/lib/design-plan";
+import { STATUS_LABEL } from "~/lib/lead-status";
+import { formatMoneyWhole } from "~/lib/money";
+import type { SessionUser } from "~/lib/session.server";
+import { findActiveStaff } from "~/lib/team.server";
+
+/*
+ * Reading and changing one lead from the workspace. Every change writes the lead and its timeline
+ * event in one batch (both or neither), scoped by the company as well as the id.
+ */
+
+export type StoredDesign = { choices: Design; summary: SummaryLine[] };
+
+export type DesignVersion = {
+  /** null for the homeowner's original request. */
+  revisionId: number | null;
+  authorName: string | null;
+  createdAt: string;
+  design: StoredDesign;
+  plan: Plan;
+  priceLowCents: number | null;
+  priceHighCents: number | null;
+};
+
+export type TimelineEntry = { key: string; kind: string; detail: string; actorName: string | null; createdAt: string };
+
+/** The homeowner's design as it was sent: never changed after. */
+export function originalVersion(lead: Lead): DesignVersion {
+  return {
+    revisionId: null,
+    authorName: null,
+    createdAt: lead.createdAt,
+    design: JSON.parse(lead.designJson) as StoredDesign,
+    plan: JSON.parse(lead.planJson) as Plan,
+    priceLowCents: lead.priceLowCents,
+    priceHighCents: lead.priceHighCents,
+  };
+}
+
+const author = alias(users, "author");
+
+/** Every staff revision of a lead, oldest first. */
+export async function listRevisions(lead: Lead): Promise<DesignVersion[]> {
+  const rows = await db
+    .select({ revision: leadRevisions, authorName: author.name })
+    .from(leadRevisions)
+    .leftJoin(author, eq(author.id, leadRevisions.authorUserId))
+    .where(and(eq(leadRevisions.leadId, lead.id), eq(leadRevisions.companyId, lead.companyId)))
+    .orderBy(asc(leadRevisions.createdAt), asc(leadRevisions.id));
+  return rows.map(({ revision, authorName }) => ({
+    revisionId: revision.id,
+    authorName,
+    createdAt: revision.createdAt,
+    design: JSON.parse(revision.designJson) as StoredDesign,
+    plan: JSON.parse(revision.planJson) as Plan,
+    priceLowCents: revision.priceLowCents,
+    priceHighCents: revision.priceHighCents,
+  }));
+}
+
+/** The design the job is built to: the latest revision, or the original when there is none. */
+export async function currentVersion(lead: Lead): Promise<DesignVersion> {
+  return (await listRevisions(lead)).at(-1) ?? originalVersion(lead);
+}
+
+const actor = alias(users, "actor");
+
+/** The lead's timeline, newest first: its events plus the e-mails sent about it. */
+export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
+  const [events, mails] = await Promise.all([
+    db
+      .select({ id: leadEvents.id, kind: leadEvents.kind, detail: leadEvents.detail, createdAt: leadEvents.createdAt, actorName: actor.name })
+      .from(leadEvents)
+      .leftJoin(actor, eq(actor.id, leadEvents.actorUserId))
+      .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.companyId, lead.companyId)))
+      .orderBy(desc(leadEvents.createdAt), desc(leadEvents.id)),
+    // The lead's own e-mails carry keys like "lead-received/<id>" (see leads.server.ts).
+    db
+      .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, status: emailOutbox.status, createdAt: emailOutbox.createdAt, sentAt: emailOutbox.sentAt })
+      .from(emailOutbox)
+      .where(and(eq(emailOutbox.companyId, lead.companyId), like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`))),
+  ]);
+  const entries: TimelineEntry[] = [
+    ...events.map((e) => ({ key: `e${e.id}`, kind: e.kind, detail: e.detail, actorName: e.actorName, createdAt: e.createdAt })),
+    ...mails.map((m) => ({
+      key: `m${m.id}`,
+      kind: "email",
+      detail: `E-mail “${m.subject}” to ${m.to}: ${m.status === "sent" ? "sent" : m.status === "failed" ? "could not be sent" : "waiting to be sent"}`,
+      actorName: null,
+      createdAt: m.sentAt ?? m.createdAt,
+    })),
+  ];
+  return entries.sort((x, y) => (x.createdAt < y.createdAt ? 1 : x.createdAt > y.createdAt ? -1 : x.key < y.key ? 1 : -1));
+}
+
+export function listPhotos(lead: Lead) {
+  return db
+    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName })
+    .from(leadPhotos)
+    .where(and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId)))
+    .orderBy(asc(leadPhotos.id));
+}
+
+export type ActionResult = { ok: true } | { ok: false; status: number; errors: Record<string, string> };
+
+const now = () => new Date().toISOString();
+
+function scoped(lead: Lead) {
+  return and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId));
+}
+
+/** Moves a lead to any status (the usual path is new → contacted → consult booked → proposal sent → won or lost); recorded either way. */
+export async function changeStatus(user: SessionUser, lead: Lead, status: LeadStatus, lostReason: string): Promise<ActionResult> {
+  if (status === lead.status && (status !== "lost" || lostReason === lead.lostReason)) {
+    return { ok: false, status: 400, errors: { status: `The request is already “${STATUS_LABEL[status]}”.` } };
+  }
+  const at = now();
+  const detail =
+    status === lead.status
+      ? `Reason for losing it changed: ${lostReason}`
+      : `${STATUS_LABEL[lead.status]} → ${STATUS_LABEL[status]}${status === "lost" ? `: ${lostReason}` : ""}`;
+  await db.batch([
+    db
+      .update(leads)
+      .set({ status, lostReason: status === "lost" ? lostReason : null, updatedAt: at })
+      .where(scoped(lead)),
+    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "status", detail, createdAt: at }),
+  ]);
+  return { ok: true };
+}
+
+/** Adds a staff note to the timeline. */
+export async function addNote(user: SessionUser, lead: Lead, note: string): Promise<ActionResult> {
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "note", detail: note, createdAt: at }),
+  ]);
+  return { ok: true };
+}
+
+async function nameOf(userId: number | null): Promise<string | null> {
+  if (userId === null) return null;
+  const [row] = await db.select({ name: users.name }).from(users).where(eq(users.id, userId)).limit(1);
+  return row?.name ?? null;
+}
+
+/** Assigns the lead to an owner or estimator of the company (or to nobody). */
+export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId: number | null): Promise<ActionResult> {
+  if (assigneeId === lead.assignedUserId) {
+    return { ok: false, status: 400, errors: { assigneeId: "The request is already assigned that way." } };
+  }
+  const assignee = assigneeId === null ? null : await findActiveStaff(lead.companyId, assigneeId, ["owner", "estimator"]);
+  if (assigneeId !== null && !assignee) {
+    return { ok: false, status: 400, errors: { assigneeId: "Choose an active owner or estimator of your company." } };
+  }
+  const previous = await nameOf(lead.assignedUserId);
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ assignedUserId: assigneeId, updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "assigned",
+      detail: assignee ? `Assigned to ${assignee.name}${previous ? ` (was ${previous})` : ""}` : `Unassigned${previous ? ` (was ${previous})` : ""}`,
+      createdAt: at,
+    }),
+  ]);
+  return { ok: true };
+}
+
+/** Gives a won job to a crew member of the company (or takes it back). */
+export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null): Promise<ActionResult> {
+  if (lead.status !== "won") {
+    return { ok: false, status: 400, errors: { crewUserId: "Mark the request won before giving it to a crew." } };
+  }
+  if (crewUserId === lead.crewUserId) {
+    return { ok: false, status: 400, errors: { crewUserId: "The job is already with that crew." } };
+  }
+  const crew = crewUserId === null ? null : await findActiveStaff(lead.companyId, crewUserId, ["crew"]);
+  if (crewUserId !== null && !crew) {
+    return { ok: false, status: 400, errors: { crewUserId: "Choose an active crew member of your company." } };
+  }
+  const previous = await nameOf(lead.crewUserId);
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ crewUserId, updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "crew-assigned",
+      detail: crew ? `Job given to ${crew.name}${previous ? ` (was ${previous})` : ""}` : `Job taken back from ${previous ?? "the crew"}`,
+      createdAt: at,
+    }),
+  ]);
+  return { ok: true };
+}
+
+/** Saves a staff revision of the design with its freshly computed plan; the original stays as sent. */
+export async function saveRevision(user: SessionUser, lead: Lead, design: StoredDesign, plan: Plan): Promise<number> {
+  const at = now();
+  const low = plan.price?.lowCents ?? null;
+  const high = plan.price?.highCents ?? null;
+  const [inserted] = await db.batch([
+    db
+      .insert(leadRevisions)
+      .values({
+        companyId: lead.companyId,
+        leadId: lead.id,
+        authorUserId: user.id,
+        designJson: JSON.stringify(design),
+        planJson: JSON.stringify(plan),
+        priceLowCents: low,
+        priceHighCents: high,
+        createdAt: at,
+      })
+      .returning({ id: leadRevisions.id }),
+    db.update(leads).set({ updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "revision",
+      detail: `Design revised: ${formatInches(plan.ring.bowlDiameterIn)} bowl, ${plan.ring.unitsPerCourse} units a course, ${plan.ring.courses} courses${plan.caps ? `, ${plan.caps.count} caps` : ""}${low !== null && high !== null ? `; ${formatMoneyWhole(low)}–${formatMoneyWhole(high)}` : ""}`,
+      createdAt: at,
+    }),
+  ]);
+  return inserted[0]!.id;
+}

@@ -1,0 +1,63 @@
+/*
+ * Calendar days and clock times in a company's time zone, with nothing but Intl: the inbox's date
+ * filter means "received on these days where the contractor works", not UTC days.
+ */
+
+function zoneOffsetMs(instant: number, timeZone: string): number {
+  const parts = new Intl.DateTimeFormat("en-US", {
+    timeZone,
+    hourCycle: "h23",
+    year: "numeric",
+    month: "2-digit",
+    day: "2-digit",
+    hour: "2-digit",
+    minute: "2-digit",
+    second: "2-digit",
+  }).formatToParts(new Date(instant));
+  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
+  const asUtc = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"));
+  return asUtc - Math.floor(instant / 1000) * 1000;
+}
+
+/** The instant local midnight begins on `day` (YYYY-MM-DD) in the time zone, as an ISO string. */
+export function startOfZonedDay(day: string, timeZone: string): string {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  const guess = Date.UTC(y, m - 1, d);
+  let instant = guess - zoneOffsetMs(guess, timeZone);
+  // Once more at the answer, in case a daylight-saving change lies between the guess and it.
+  instant = guess - zoneOffsetMs(instant, timeZone);
+  return new Date(instant).toISOString();
+}
+
+/** The next calendar day after `day` (YYYY-MM-DD). */
+export function nextDay(day: string): string {
+  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
+  return new Date(Date.UTC(y, m - 1, d + 1)).toISOString().slice(0, 10);
+}
+
+/** The local calendar day (YYYY-MM-DD) of an instant in the time zone. */
+export function zonedDay(instant: Date, timeZone: string): string {
+  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(instant);
+}
+
+/** "Tue, Dec 8, 9:00 AM" in the time zone. */
+export function formatZonedDateTime(iso: string, timeZone: string): string {
+  return new Intl.DateTimeFormat("en-US", { timeZone, weekday: "short", month: "short", day: "numeric", hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+}
+
+/** "Dec 8, 2026" in the time zone. */
+export function formatZonedDate(iso: string, timeZone: string): string {
+  return new Intl.DateTimeFormat("en-US", { timeZone, month: "short", day: "numeric", year: "numeric" }).format(new Date(iso));
+}
+
+/** How long ago, in the largest whole unit: "just now", "12 min", "5 h", "3 d", "7 wk". */
+export function describeAge(iso: string, now: Date): string {
+  const minutes = Math.max(0, Math.floor((now.getTime() - new Date(iso).getTime()) / 60_000));
+  if (minutes < 1) return "just now";
+  if (minutes < 60) return `${minutes} min`;
+  const hours = Math.floor(minutes / 60);
+  if (hours < 24) return `${hours} h`;
+  const days = Math.floor(hours / 24);
+  if (days < 14) return `${days} d`;
+  return `${Math.floor(days / 7)} wk`;
+}

@@ -1,0 +1,373 @@
+import { eq } from "drizzle-orm";
+import { useEffect, useRef, useState } from "react";
+import { data, Form, Link, useFetcher } from "react-router";
+import type { Route } from "./+types/app-inbox";
+import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { LEAD_STATUSES, users } from "~/db/schema";
+import { formatInches } from "~/domain/units";
+import { getCompany } from "~/lib/catalog.server";
+import { db } from "~/lib/db.server";
+import {
+  DEFAULT_INBOX_FILTERS,
+  FIRST_DIRECTION,
+  inboxSearchParams,
+  type InboxFilters,
+  type InboxPage,
+  type InboxSort,
+} from "~/lib/inbox-options";
+import { parseInboxQuery } from "~/lib/inbox-schema";
+import { loadInboxPage } from "~/lib/inbox.server";
+import { STATUS_LABEL } from "~/lib/lead-status";
+import { formatMoneyWhole } from "~/lib/money";
+import { requireUser } from "~/lib/session.server";
+import { OFFICE_ROLES } from "~/lib/staff.server";
+import { listTeam } from "~/lib/team.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Inbox · Emberwright" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: OFFICE_ROLES });
+  const [company, team, [me]] = await Promise.all([
+    getCompany(user.companyId),
+    listTeam(user.companyId),
+    db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, user.id)).limit(1),
+  ]);
+  const estimators = team.filter((m) => m.role === "owner" || m.role === "estimator").map((m) => ({ id: m.id, name: m.name, isActive: m.isActive }));
+  const parsed = parseInboxQuery(new URL(request.url).searchParams);
+  if (!parsed.ok) {
+    return data({ inbox: null, errors: parsed.errors, estimators, myId: user.id }, { status: 400 });
+  }
+  const now = new Date();
+  const inbox = await loadInboxPage({
+    companyId: company.id,
+    timeZone: company.timeZone,
+    filters: parsed.filters,
+    unseenSince: me?.inboxSeenAt ?? null,
+    now,
+  });
+  // Viewing the inbox is what "seen" means; the marks on this page still compare with the old time.
+  await db.update(users).set({ inboxSeenAt: now.toISOString() }).where(eq(users.id, user.id));
+  return { inbox, errors: null as Record<string, string> | null, estimators, myId: user.id };
+}
+
+const POLL_MS = 30_000;
+
+function hrefFor(filters: InboxFilters, patch: Partial<InboxFilters>): string {
+  const query = inboxSearchParams({ ...filters, ...patch }).toString();
+  return query ? `/app/inbox?${query}` : "/app/inbox";
+}
+
+const COLUMNS: { sort: InboxSort; label: string; className?: string }[] = [
+  { sort: "status", label: "Status" },
+  { sort: "customer", label: "Customer" },
+  { sort: "town", label: "Town", className: "hidden md:table-cell" },
+  { sort: "bowl", label: "Bowl and stone", className: "hidden lg:table-cell" },
+  { sort: "price", label: "Price range", className: "hidden md:table-cell text-right" },
+  { sort: "consult", label: "Consult", className: "hidden xl:table-cell" },
+  { sort: "assignee", label: "Estimator", className: "hidden lg:table-cell" },
+  { sort: "received", label: "Received" },
+];
+
+/** Keeps the inbox fresh: polls the JSON API every 30 s and when the window regains focus. */
+function useLiveInbox(initial: InboxPage, since: string | null): InboxPage {
+  const fetcher = useFetcher<InboxPage>();
+  const load = useRef(fetcher.load);
+  load.current = fetcher.load;
+  const query = initial.query;
+  useEffect(() => {
+    const params = new URLSearchParams(query);
+    if (since) params.set("since", since);
+    const url = `/api/leads?${params.toString()}`;
+    const poll = () => {
+      if (document.visibilityState === "visible") void load.current(url);
+    };
+    const timer = window.setInterval(poll, POLL_MS);
+    window.addEventListener("focus", poll);
+    document.addEventListener("visibilitychange", poll);
+    return () => {
+      window.clearInterval(timer);
+      window.removeEventListener("focus", poll);
+      document.removeEventListener("visibilitychange", poll);
+    };
+  }, [query, since]);
+  const polled = fetcher.data;
+  // A poll answers the filters it was asked with; an answer for other filters, or an older one, is ignored.
+  return polled && polled.query === initial.query && polled.generatedAt > initial.generatedAt ? polled : initial;
+}
+
+export default function InboxRoute({ loaderData }: Route.ComponentProps) {
+  const { errors, estimators, myId } = loaderData;
+  if (!loaderData.inbox) {
+    return (
+      <div className="flex flex-col gap-6">
+        <h1 className="text-2xl font-extrabold">Inbox</h1>
+        <FilterForm filters={DEFAULT_INBOX_FILTERS} estimators={estimators} myId={myId} errors={errors ?? {}} />
+      </div>
+    );
+  }
+  return <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} />;
+}
+
+function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimators: { id: number; name: string; isActive: boolean }[]; myId: number }) {
+  // Marks stay put while the person moves between filters: compare with the time they arrived.
+  const [since] = useState(initial.unseenSince);
+  const inbox = useLiveInbox(initial, since);
+  const { filters, rows, counts } = inbox;
+  const isUnseen = (createdAt: string) => since === null || createdAt > since;
+  const csvQuery = inboxSearchParams({ ...filters, page: 1 });
+  csvQuery.delete("page");
+  const csvHref = `/app/inbox.csv${csvQuery.size ? `?${csvQuery}` : ""}`;
+
+  return (
+    <div className="flex flex-col gap-5">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h1 className="text-2xl font-extrabold">Inbox</h1>
+          <p className="text-char-600" role="status" aria-live="polite">
+            {inbox.unseenCount > 0
+              ? `${inbox.unseenCount} new ${inbox.unseenCount === 1 ? "request" : "requests"} since your last visit.`
+              : "Fire-pit requests from your configurator, newest first."}
+          </p>
+        </div>
+        <a href={csvHref} className="btn-quiet" download>
+          Export CSV
+        </a>
+      </div>
+
+      <nav aria-label="Filter by status" className="-mx-1 overflow-x-auto">
+        <ul className="flex gap-1 px-1 pb-1">
+          {([null, ...LEAD_STATUSES] as const).map((status) => {
+            const isCurrent = filters.status === status;
+            return (
+              <li key={status ?? "all"}>
+                <Link
+                  to={hrefFor(filters, { status, page: 1 })}
+                  aria-current={isCurrent ? "page" : undefined}
+                  className={`inline-flex items-center gap-1.5 rounded-full border px-3 py-1.5 text-sm font-bold whitespace-nowrap ${
+                    isCurrent ? "border-char-800 bg-char-800 text-ash-50" : "border-ash-300 bg-white text-char-700 hover:bg-ash-100"
+                  }`}
+                >
+                  {status ? STATUS_LABEL[status] : "All"}
+                  <span className={`tabular-nums ${isCurrent ? "text-ash-300" : "text-char-500"}`}>{counts[status ?? "all"]}</span>
+                </Link>
+              </li>
+            );
+          })}
+        </ul>
+      </nav>
+
+      <FilterForm filters={filters} estimators={estimators} myId={myId} errors={{}} />
+
+      <div className="card overflow-hidden">
+        <table className="w-full text-left text-sm">
+          <caption className="sr-only">
+            Requests, page {inbox.page} of {inbox.pageCount}, sorted by {filters.sort} {filters.dir === "asc" ? "ascending" : "descending"}
+          </caption>
+          <thead className="border-b border-ash-200 bg-ash-100 text-xs text-char-600 uppercase">
+            <tr>
+              {COLUMNS.map((col) => {
+                const isSorted = filters.sort === col.sort;
+                const nextDir = isSorted ? (filters.dir === "asc" ? "desc" : "asc") : FIRST_DIRECTION[col.sort];
+                return (
+                  <th
+                    key={col.sort}
+                    scope="col"
+                    aria-sort={isSorted ? (filters.dir === "asc" ? "ascending" : "descending") : "none"}
+                    className={`px-3 py-2 font-extrabold ${col.className ?? ""}`}
+                  >
+                    <Link to={hrefFor(filters, { sort: col.sort, dir: nextDir, page: 1 })} className="inline-flex items-center gap-1 hover:text-char-900">
+                      {col.label}
+                      <span aria-hidden="true" className={isSorted ? "text-ember-600" : "text-ash-400"}>
+                        {isSorted ? (filters.dir === "asc" ? "▲" : "▼") : "↕"}
+                      </span>
+                    </Link>
+                  </th>
+                );
+              })}
+            </tr>
+          </thead>
+          <tbody className="divide-y divide-ash-200">
+            {rows.map((row) => {
+              const unseen = isUnseen(row.createdAt);
+              return (
+                <tr key={row.id} className={unseen ? "bg-ember-50/60" : undefined}>
+                  <td className="px-3 py-2.5 align-top">
+                    <LeadStatusBadge status={row.status} />
+                  </td>
+                  <td className="px-3 py-2.5 align-top">
+                    <Link to={`/app/leads/${row.id}`} className={`text-char-900 underline-offset-2 hover:underline ${unseen ? "font-extrabold" : "font-bold"}`}>
+                      {row.customerName}
+                    </Link>
+                    {unseen ? (
+                      <span className="ml-2 rounded bg-ember-500 px-1.5 py-0.5 align-middle text-[0.65rem] font-extrabold tracking-wide text-white uppercase">
+                        New<span className="sr-only"> since your last visit</span>
+                      </span>
+                    ) : null}
+                    <span className="block text-xs text-char-500">{row.email}</span>
+                    <span className="block text-xs text-char-500 md:hidden">
+                      {row.town} · {formatInches(row.bowlDiameterIn)} bowl
+                    </span>
+                  </td>
+                  <td className="hidden px-3 py-2.5 align-top md:table-cell">{row.town}</td>
+                  <td className="hidden px-3 py-2.5 align-top lg:table-cell">
+                    <span className="tabular-nums">{formatInches(row.bowlDiameterIn)}</span>
+                    <span className="block text-xs text-char-500">{row.stoneName}</span>
+                  </td>
+                  <td className="hidden px-3 py-2.5 text-right align-top tabular-nums md:table-cell">
+                    {row.priceLowCents !== null && row.priceHighCents !== null
+                      ? `${formatMoneyWhole(row.priceLowCents)}–${formatMoneyWhole(row.priceHighCents)}`
+                      : "—"}
+                  </td>
+                  <td className="hidden px-3 py-2.5 align-top xl:table-cell">
+                    {row.consult ? (
+                      <span>
+                        <span className="block text-xs font-bold text-moss-700">Confirmed</span>
+                        {row.consult.label}
+                      </span>
+                    ) : (
+                      <span className="text-char-500">—</span>
+                    )}
+                  </td>
+                  <td className="hidden px-3 py-2.5 align-top lg:table-cell">{row.assignee?.name ?? <span className="text-char-500">Unassigned</span>}</td>
+                  <td className="px-3 py-2.5 align-top whitespace-nowrap" title={row.receivedLabel}>
+                    {row.ageLabel}
+                    <span className="block text-xs text-char-500">{row.ageLabel === "just now" ? "" : "ago"}</span>
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+        {rows.length === 0 ? (
+          <p className="px-4 py-8 text-center text-char-600">
+            {inbox.total === 0 ? "No requests match these filters." : "No requests on this page."}{" "}
+            <Link to="/app/inbox" className="font-bold text-ember-700 hover:underline">Show all requests</Link>
+          </p>
+        ) : null}
+      </div>
+
+      <nav aria-label="Pages" className="flex flex-wrap items-center justify-between gap-3 text-sm">
+        <p className="text-char-600">
+          {inbox.total} {inbox.total === 1 ? "request" : "requests"} · page {inbox.page} of {inbox.pageCount}
+        </p>
+        <div className="flex gap-2">
+          {inbox.page > 1 ? (
+            <Link to={hrefFor(filters, { page: inbox.page - 1 })} className="btn-quiet" rel="prev">
+              Previous page
+            </Link>
+          ) : null}
+          {inbox.page < inbox.pageCount ? (
+            <Link to={hrefFor(filters, { page: inbox.page + 1 })} className="btn-quiet" rel="next">
+              Next page
+            </Link>
+          ) : null}
+        </div>
+      </nav>
+    </div>
+  );
+}
+
+function FilterForm({
+  filters,
+  estimators,
+  myId,
+  errors,
+}: {
+  filters: InboxFilters;
+  estimators: { id: number; name: string; isActive: boolean }[];
+  myId: number;
+  errors: Record<string, string>;
+}) {
+  const errorOf = (field: string) => (errors[field] ? <p id={`filter-${field}-error`} className="field-error">{errors[field]}</p> : null);
+  const hasErrors = Object.keys(errors).length > 0;
+  return (
+    <Form method="get" action="/app/inbox" className="card grid gap-3 p-4 sm:grid-cols-2 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]" aria-label="Filter requests">
+      {hasErrors ? (
+        <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 sm:col-span-2 lg:col-span-5">
+          These filters could not be used. Fix the fields marked below.
+        </p>
+      ) : null}
+      {filters.status ? <input type="hidden" name="status" value={filters.status} /> : null}
+      {errors.status ? <div className="sm:col-span-2 lg:col-span-5">{errorOf("status")}</div> : null}
+      {filters.sort !== "received" || filters.dir !== "desc" ? (
+        <>
+          <input type="hidden" name="sort" value={filters.sort} />
+          <input type="hidden" name="dir" value={filters.dir} />
+        </>
+      ) : null}
+      <div>
+        <label htmlFor="filter-q" className="field-label">Search</label>
+        <input
+          id="filter-q"
+          type="search"
+          name="q"
+          defaultValue={filters.q}
+          placeholder="Name, e-mail, phone or town"
+          maxLength={100}
+          aria-invalid={errors.q ? true : undefined}
+          aria-describedby={errors.q ? "filter-q-error" : undefined}
+          className="field-input"
+        />
+        {errorOf("q")}
+      </div>
+      <div>
+        <label htmlFor="filter-assignee" className="field-label">Estimator</label>
+        <select
+          id="filter-assignee"
+          name="assignee"
+          defaultValue={filters.assignee === null ? "" : String(filters.assignee)}
+          aria-invalid={errors.assignee ? true : undefined}
+          aria-describedby={errors.assignee ? "filter-assignee-error" : undefined}
+          className="field-input"
+        >
+          <option value="">Anyone</option>
+          <option value="none">Unassigned</option>
+          {estimators.map((e) => (
+            <option key={e.id} value={e.id}>
+              {e.id === myId ? `${e.name} (me)` : e.name}
+              {e.isActive ? "" : " (inactive)"}
+            </option>
+          ))}
+        </select>
+        {errorOf("assignee")}
+      </div>
+      <div>
+        <label htmlFor="filter-from" className="field-label">Received from</label>
+        <input
+          id="filter-from"
+          type="date"
+          name="from"
+          defaultValue={filters.from ?? ""}
+          aria-invalid={errors.from ? true : undefined}
+          aria-describedby={errors.from ? "filter-from-error" : undefined}
+          className="field-input"
+        />
+        {errorOf("from")}
+      </div>
+      <div>
+        <label htmlFor="filter-to" className="field-label">to</label>
+        <input
+          id="filter-to"
+          type="date"
+          name="to"
+          defaultValue={filters.to ?? ""}
+          aria-invalid={errors.to ? true : undefined}
+          aria-describedby={errors.to ? "filter-to-error" : undefined}
+          className="field-input"
+        />
+        {errorOf("to")}
+      </div>
+      <div className="flex items-end gap-2">
+        <button type="submit" className="btn-primary">Apply</button>
+        <Link to="/app/inbox" className="btn-quiet">Clear</Link>
+      </div>
+      {errors.sort || errors.dir || errors.page ? (
+        <div className="sm:col-span-2 lg:col-span-5">
+          {errorOf("sort")}
+          {errorOf("dir")}
+          {errorOf("page")}
+        </div>
+      ) : null}
+    </Form>
+  );
+}

@@ -1,0 +1,22 @@
+import type { Route } from "./+types/app-lead-cut-sheet-pdf";
+import { STAFF_ROLES } from "~/db/schema";
+import { renderCutSheetPdf } from "~/lib/cut-sheet-pdf.server";
+import { loadCutSheet } from "~/lib/cut-sheet.server";
+import { requireUser } from "~/lib/session.server";
+import { parseLeadId } from "~/lib/staff.server";
+
+/** GET /app/leads/:leadId/cut-sheet.pdf: the cut sheet with the full-size cap template, for print. */
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: STAFF_ROLES });
+  const sheet = await loadCutSheet(user, parseLeadId(params.leadId));
+  const pdf = await renderCutSheetPdf(sheet);
+  const slug = sheet.customerName.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "job";
+  return new Response(new Uint8Array(pdf), {
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Length": String(pdf.byteLength),
+      "Content-Disposition": `inline; filename="cut-sheet-${sheet.leadId}-${slug}-${sheet.day}.pdf"`,
+      "Cache-Control": "private, no-store",
+    },
+  });
+}

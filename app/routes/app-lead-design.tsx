@@ -1,0 +1,139 @@
+import { useEffect, useRef, useState } from "react";
+import { data, Form, Link, redirect, useFetcher, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
+import type { Route } from "./+types/app-lead-design";
+import { DesignControls } from "~/components/configurator/design-controls";
+import { PlanResults } from "~/components/configurator/plan-results";
+import { PitPreview } from "~/components/pit-preview";
+import { FormAlert } from "~/components/ui/field";
+import { formatLength } from "~/domain/units";
+import { getCompany, listCatalog } from "~/lib/catalog.server";
+import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { designToSearchParams, parseDesign, type Design } from "~/lib/design";
+import { describePreview, designToPlanRequest, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { checkDesignParams } from "~/lib/design-schema";
+import { currentVersion, saveRevision } from "~/lib/lead-workspace.server";
+import type { PlanFieldError } from "~/lib/plan-schema";
+import { publicPlan } from "~/lib/plan.server";
+import { requireUser } from "~/lib/session.server";
+import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${data.lead.customerName}'s design · Emberwright` : "Revise a design · Emberwright" }];
+
+async function loadContext(request: Request, rawLeadId: string | undefined) {
+  const user = await requireUser(request, { roles: OFFICE_ROLES });
+  const lead = await requireLeadFor(user, parseLeadId(rawLeadId));
+  const company = await getCompany(user.companyId);
+  const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
+  return { user, lead, company, catalog };
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { lead, company, catalog } = await loadContext(request, params.leadId);
+  const current = await currentVersion(lead);
+  // Read back through the current catalog: an item taken off sale since falls back to one on offer.
+  const design = parseDesign(designToSearchParams(current.design.choices), catalog);
+  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] };
+  return {
+    lead: { id: lead.id, customerName: lead.customerName },
+    company: { slug: company.slug },
+    catalog,
+    design,
+    plan: result.plan ? (publicPlan(result.plan) as PublicPlan) : null,
+    planErrors: result.errors,
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user, lead, company, catalog } = await loadContext(request, params.leadId);
+  const form = await request.formData();
+  const query = String(form.get("design") ?? "");
+  const errors = checkDesignParams(query, catalog);
+  if (Object.keys(errors).length) return data({ errors }, { status: 400 });
+  const design = parseDesign(new URLSearchParams(query), catalog);
+  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] as PlanFieldError[] };
+  if (!design || !result.plan) {
+    return data({ errors: { design: `This design cannot be built: ${result.errors[0]?.message ?? "check the choices."}` } as Record<string, string> }, { status: 400 });
+  }
+  const summary = summarizeDesign(publicPlan(result.plan) as PublicPlan, design, catalog, "in");
+  await saveRevision(user, lead, { choices: design, summary }, result.plan);
+  return redirect(`/app/leads/${lead.id}`);
+}
+
+// Live updates come from the plan API; re-running this loader after each would be waste.
+export function shouldRevalidate({ formAction, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  return formAction === "/api/plan" ? false : defaultShouldRevalidate;
+}
+
+const UPDATE_DELAY_MS = 60;
+
+export default function LeadDesignRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { lead, company, catalog } = loaderData;
+  const [design, setDesign] = useState<Design | null>(loaderData.design);
+  const [plan, setPlan] = useState<PublicPlan | null>(loaderData.plan);
+  const [planErrors, setPlanErrors] = useState<PlanFieldError[]>(loaderData.planErrors);
+  const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
+  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const navigation = useNavigation();
+  const errors: Record<string, string> = actionData?.errors ?? {};
+
+  useEffect(() => {
+    if (!fetcher.data) return;
+    if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
+    else {
+      setPlan(fetcher.data);
+      setPlanErrors([]);
+    }
+  }, [fetcher.data]);
+
+  if (!design) {
+    return <p className="card p-6">Your catalog offers no wall stone, so there is nothing to design with.</p>;
+  }
+  const changeDesign = (patch: Partial<Design>) => {
+    const next = { ...design, ...patch };
+    setDesign(next);
+    if (timer.current) clearTimeout(timer.current);
+    timer.current = setTimeout(() => {
+      fetcher.submit(designToPlanRequest(next, company.slug, catalog) as never, { method: "post", action: "/api/plan", encType: "application/json" });
+    }, UPDATE_DELAY_MS);
+  };
+  const f = (inches: number) => formatLength(inches, design.unit);
+
+  return (
+    <div className="flex flex-col gap-6">
+      <div>
+        <Link to={`/app/leads/${lead.id}`} className="text-sm font-bold text-ember-700 hover:underline">
+          ← {lead.customerName}
+        </Link>
+        <h1 className="mt-1 text-2xl font-extrabold">Revise the design</h1>
+        <p className="text-char-600">
+          Saved as a new revision with today's catalog prices. The homeowner's original request stays as it was sent.
+        </p>
+      </div>
+      {Object.keys(errors).length ? (
+        <FormAlert>
+          Nothing was saved. {Object.entries(errors).map(([field, message]) => `${field}: ${message}`).join(" ")}
+        </FormAlert>
+      ) : null}
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
+        <div className="flex min-w-0 flex-col gap-6">
+          {plan ? <PitPreview input={planToSceneInput(plan, design, catalog)} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} /> : null}
+          {planErrors.length ? (
+            <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+              {planErrors.map((e) => e.message).join(" ")}
+            </p>
+          ) : null}
+          {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
+        </div>
+        <div className="card p-5 lg:sticky lg:top-4">
+          <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} onChange={changeDesign} />
+          <Form method="post" className="mt-5 border-t border-ash-200 pt-4">
+            <input type="hidden" name="design" value={designToSearchParams(design).toString()} />
+            <button type="submit" className="btn-primary w-full" disabled={navigation.state === "submitting" || planErrors.length > 0}>
+              Save this revision
+            </button>
+          </Form>
+        </div>
+      </div>
+    </div>
+  );
+}

@@ -1,0 +1,463 @@
+import { data, Form, Link, redirect, useNavigation } from "react-router";
+import type { Route } from "./+types/app-lead";
+import { CapDrawingSvg } from "~/components/cap-drawing-svg";
+import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
+import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { PitPlanSvg } from "~/components/pit-plan-svg";
+import { PitPreview } from "~/components/pit-preview";
+import { FormAlert, SelectField } from "~/components/ui/field";
+import { LEAD_STATUSES, STAFF_ROLES } from "~/db/schema";
+import { formatInches } from "~/domain/units";
+import { getCompany, listCatalog } from "~/lib/catalog.server";
+import { toCatalogChoice } from "~/lib/configurator.server";
+import { buildCutList, crewCautionsOf } from "~/lib/cut-list";
+import { describePreview, planToSceneInput } from "~/lib/design-plan";
+import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
+import { BUILD_WINDOW_LABEL, STATUS_LABEL } from "~/lib/lead-status";
+import {
+  addNote,
+  assignCrew,
+  assignEstimator,
+  changeStatus,
+  listPhotos,
+  listRevisions,
+  listTimeline,
+  originalVersion,
+  type ActionResult,
+  type DesignVersion,
+} from "~/lib/lead-workspace.server";
+import { formatMoney, formatMoneyWhole } from "~/lib/money";
+import { publicPlan } from "~/lib/plan.server";
+import { requireUser } from "~/lib/session.server";
+import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
+import { listTeam } from "~/lib/team.server";
+import { describeAge, formatZonedDateTime } from "~/lib/zoned-time";
+import type { PublicPlan } from "~/lib/design-plan";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.lead.customerName} · Emberwright` : "Request · Emberwright" }];
+
+function versionLabel(version: DesignVersion, index: number): string {
+  return version.revisionId === null ? "Homeowner's original" : `Revision ${index}`;
+}
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: STAFF_ROLES });
+  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const isOffice = isOfficeRole(user.role);
+  const [company, revisions, photos, catalogItems] = await Promise.all([
+    getCompany(user.companyId),
+    listRevisions(lead),
+    listPhotos(lead),
+    listCatalog(user.companyId),
+  ]);
+  const original = originalVersion(lead);
+  const versions = [original, ...revisions];
+  const wanted = new URL(request.url).searchParams.get("version");
+  let shownIndex = versions.length - 1;
+  if (wanted === "original") shownIndex = 0;
+  else if (wanted !== null) {
+    shownIndex = versions.findIndex((v) => v.revisionId !== null && String(v.revisionId) === wanted);
+    if (shownIndex < 0) throw new Response("Not found", { status: 404 });
+  }
+  const shown = versions[shownIndex]!;
+  const catalog = catalogItems.map(toCatalogChoice);
+  const plan = shown.plan;
+  const tz = company.timeZone;
+  const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
+
+  return {
+    isOffice,
+    lead: {
+      id: lead.id,
+      status: lead.status,
+      lostReason: lead.lostReason,
+      customerName: lead.customerName,
+      // The crew gets the site address and nothing else of the customer's contact details.
+      email: isOffice ? lead.email : null,
+      phone: isOffice ? lead.phone : null,
+      street: lead.street,
+      town: lead.town,
+      buildWindow: BUILD_WINDOW_LABEL[lead.buildWindow],
+      notes: lead.notes,
+      receivedLabel: formatZonedDateTime(lead.createdAt, tz),
+      ageLabel: describeAge(lead.createdAt, new Date()),
+      assignedUserId: lead.assignedUserId,
+      crewUserId: lead.crewUserId,
+    },
+    photos,
+    versions: versions.map((v, i) => ({
+      key: v.revisionId === null ? "original" : String(v.revisionId),
+      label: versionLabel(v, i),
+      detail: v.revisionId === null ? `sent ${formatZonedDateTime(v.createdAt, tz)}` : `by ${v.authorName ?? "staff"}, ${formatZonedDateTime(v.createdAt, tz)}`,
+      isShown: i === shownIndex,
+      isLatest: i === versions.length - 1,
+    })),
+    shown: {
+      summary: shown.design.summary,
+      sceneInput: planToSceneInput(publicPlan(plan) as PublicPlan, shown.design.choices, catalog),
+      caption: describePreview(publicPlan(plan) as PublicPlan, "in"),
+      cutList: buildCutList(plan),
+      caps: plan.caps,
+      materials: plan.materials,
+      warnings: plan.warnings,
+      cautions: crewCautionsOf(plan.cautions),
+      labour: isOffice ? plan.labour : null,
+      price: isOffice && plan.price ? plan.price.breakdown : null,
+    },
+    timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),
+    team: isOffice
+      ? {
+          estimators: team.filter((m) => (m.role === "owner" || m.role === "estimator") && (m.isActive || m.id === lead.assignedUserId)),
+          crew: team.filter((m) => m.role === "crew" && (m.isActive || m.id === lead.crewUserId)),
+        }
+      : null,
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: OFFICE_ROLES });
+  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const parsed = leadActionSchema.safeParse(fields);
+  if (!parsed.success) {
+    return data({ intent: fields.intent ?? null, errors: leadActionErrors(parsed.error) }, { status: 400 });
+  }
+  const input = parsed.data;
+  let result: ActionResult;
+  switch (input.intent) {
+    case "status":
+      result = await changeStatus(user, lead, input.status, input.lostReason);
+      break;
+    case "note":
+      result = await addNote(user, lead, input.note);
+      break;
+    case "assign":
+      result = await assignEstimator(user, lead, input.assigneeId);
+      break;
+    case "crew":
+      result = await assignCrew(user, lead, input.crewUserId);
+      break;
+  }
+  if (!result.ok) return data({ intent: input.intent as string | null, errors: result.errors }, { status: result.status });
+  return redirect(`/app/leads/${lead.id}`);
+}
+
+const kindLabel: Record<string, string> = {
+  received: "Request received",
+  status: "Status",
+  note: "Note",
+  assigned: "Assignment",
+  "crew-assigned": "Crew",
+  revision: "Design revised",
+  email: "E-mail",
+};
+
+export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { lead, isOffice, shown, versions, photos, timeline, team } = loaderData;
+  const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
+  const formErrors = actionData && !actionData.intent ? actionData.errors : {};
+  const navigation = useNavigation();
+  const isBusy = navigation.state === "submitting";
+  const f = (inches: number) => formatInches(inches);
+  const shownVersion = versions.find((v) => v.isShown)!;
+
+  return (
+    <div className="flex flex-col gap-6">
+      <div className="flex flex-wrap items-start justify-between gap-4">
+        <div className="min-w-0">
+          <Link to={isOffice ? "/app/inbox" : "/app/jobs"} className="text-sm font-bold text-ember-700 hover:underline">
+            ← {isOffice ? "Inbox" : "My jobs"}
+          </Link>
+          <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-extrabold">
+            {lead.customerName} <LeadStatusBadge status={lead.status} />
+          </h1>
+          <p className="text-sm text-char-600">
+            Request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
+            {lead.status === "lost" && lead.lostReason ? ` · Lost: ${lead.lostReason}` : ""}
+          </p>
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <Link to={`/app/leads/${lead.id}/cut-sheet`} className="btn-primary">
+            Cut sheet
+          </Link>
+          <a href={`/app/leads/${lead.id}/cut-sheet.pdf`} className="btn-quiet">
+            PDF with cap template
+          </a>
+          {isOffice ? (
+            <Link to={`/app/leads/${lead.id}/design`} className="btn-quiet">
+              Revise the design
+            </Link>
+          ) : null}
+        </div>
+      </div>
+
+      {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
+
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+        <div className="flex min-w-0 flex-col gap-6">
+          <section aria-labelledby="design-title" className="flex flex-col gap-4">
+            <div className="flex flex-wrap items-baseline justify-between gap-2">
+              <h2 id="design-title" className="text-xl font-extrabold">
+                Design <span className="text-base font-semibold text-char-600">· {shownVersion.label}</span>
+              </h2>
+              {versions.length > 1 ? (
+                <nav aria-label="Design versions" className="flex flex-wrap gap-1 text-sm">
+                  {versions.map((v) => (
+                    <Link
+                      key={v.key}
+                      to={v.isLatest ? `/app/leads/${lead.id}` : `/app/leads/${lead.id}?version=${v.key}`}
+                      aria-current={v.isShown ? "page" : undefined}
+                      title={v.detail}
+                      className={`rounded-full border px-3 py-1 font-bold ${v.isShown ? "border-char-800 bg-char-800 text-ash-50" : "border-ash-300 bg-white text-char-700 hover:bg-ash-100"}`}
+                    >
+                      {v.label}
+                      {v.isLatest && v.key !== "original" ? " (latest)" : ""}
+                    </Link>
+                  ))}
+                </nav>
+              ) : null}
+            </div>
+            <p className="-mt-2 text-sm text-char-600">
+              {shownVersion.label}, {shownVersion.detail}.
+              {versions.length > 1 && !shownVersion.isLatest ? " The job is built to the latest version." : ""}
+            </p>
+            <div className="grid gap-4 xl:grid-cols-2">
+              <PitPreview input={shown.sceneInput} caption={shown.caption} unit="in" formatLength={f} />
+              <figure className="card overflow-hidden">
+                <div className="aspect-square bg-white p-2 sm:aspect-[4/3]">
+                  <PitPlanSvg input={shown.sceneInput} unit="in" formatLength={f} className="h-full w-full" />
+                </div>
+                <figcaption className="border-t border-ash-200 px-4 py-3 text-sm text-char-700">Plan, first course and caps (dashed), to scale.</figcaption>
+              </figure>
+            </div>
+            <dl className="card grid gap-x-6 gap-y-1 p-4 text-sm sm:grid-cols-2">
+              {shown.summary.map((line) => (
+                <div key={line.label} className="flex gap-2">
+                  <dt className="font-bold text-char-700">{line.label}:</dt>
+                  <dd>{line.value}</dd>
+                </div>
+              ))}
+            </dl>
+            {shown.warnings.length ? (
+              <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4 text-sm">
+                <h3 className="font-extrabold text-ember-700">Worth a second look</h3>
+                <ul className="mt-1 list-disc pl-5">
+                  {shown.warnings.map((w) => (
+                    <li key={w.code}>{w.message}</li>
+                  ))}
+                </ul>
+              </div>
+            ) : null}
+          </section>
+
+          <section aria-labelledby="cut-title" className="card p-5">
+            <h2 id="cut-title" className="mb-3 text-xl font-extrabold">Cut list</h2>
+            <CutListTables sections={shown.cutList} />
+            {shown.caps ? (
+              <figure className="mt-4 rounded-lg border border-ash-200 p-3">
+                <CapDrawingSvg caps={shown.caps} className="mx-auto max-h-96" />
+                <figcaption className="mt-2 text-center text-xs text-char-600">One cap on its blank. The PDF has it full size to tape on.</figcaption>
+              </figure>
+            ) : null}
+          </section>
+
+          <section aria-labelledby="materials-title" className="card p-5">
+            <h2 id="materials-title" className="mb-2 text-xl font-extrabold">Material order</h2>
+            <MaterialsTable materials={shown.materials} />
+          </section>
+
+          {shown.labour || shown.price ? (
+            <section aria-labelledby="job-title" className="card grid gap-6 p-5 md:grid-cols-2">
+              <h2 id="job-title" className="text-xl font-extrabold md:col-span-2">Labour and price</h2>
+              {shown.labour ? (
+                <div>
+                  <h3 className="font-extrabold">Labour: {shown.labour.hours} h</h3>
+                  <table className="mt-1 w-full text-sm">
+                    <tbody className="divide-y divide-ash-200">
+                      {shown.labour.tasks.map((t) => (
+                        <tr key={t.task}>
+                          <td className="py-1 pr-2">{t.label}</td>
+                          <td className="py-1 text-right tabular-nums">{t.hours} h</td>
+                        </tr>
+                      ))}
+                    </tbody>
+                  </table>
+                </div>
+              ) : null}
+              {shown.price ? (
+                <div>
+                  <h3 className="font-extrabold">
+                    Price range: {formatMoneyWhole(shown.price.lowCents)}–{formatMoneyWhole(shown.price.highCents)}
+                  </h3>
+                  <table className="mt-1 w-full text-sm" aria-label="Price breakdown">
+                    <tbody className="divide-y divide-ash-200">
+                      <tr><td className="py-1">Materials (cost)</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.materialsCents)}</td></tr>
+                      <tr><td className="py-1">Labour ({shown.price.labourHours} h)</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.labourCents)}</td></tr>
+                      <tr><td className="py-1">Overhead</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.overheadCents)}</td></tr>
+                      <tr><td className="py-1">Margin</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.marginCents)}</td></tr>
+                      <tr className="font-extrabold"><td className="py-1">Estimate</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.totalCents)}</td></tr>
+                    </tbody>
+                  </table>
+                  <details className="mt-2 text-sm">
+                    <summary className="cursor-pointer font-bold text-char-700">Material cost by line</summary>
+                    <table className="mt-1 w-full">
+                      <tbody className="divide-y divide-ash-200">
+                        {shown.price.lines.map((line) => (
+                          <tr key={line.item}>
+                            <td className="py-1 pr-2">{line.item} <span className="text-char-500">× {line.quantity}</span></td>
+                            <td className="py-1 text-right tabular-nums">{formatMoney(line.totalCents)}</td>
+                          </tr>
+                        ))}
+                      </tbody>
+                    </table>
+                  </details>
+                </div>
+              ) : (
+                <p className="text-sm text-char-600">No price: some items of this design have no price in the catalog.</p>
+              )}
+            </section>
+          ) : null}
+
+          <section aria-labelledby="safety-title" className="card p-5">
+            <h2 id="safety-title" className="mb-2 text-xl font-extrabold">Safety on site</h2>
+            <CrewCautions cautions={shown.cautions} />
+          </section>
+        </div>
+
+        <aside className="flex flex-col gap-6">
+          <section aria-labelledby="customer-title" className="card p-5 text-sm">
+            <h2 id="customer-title" className="text-lg font-extrabold">{isOffice ? "Customer" : "Site"}</h2>
+            <p className="mt-2 font-bold">{lead.customerName}</p>
+            <p>
+              {lead.street}
+              <br />
+              {lead.town}
+            </p>
+            {lead.email ? (
+              <p className="mt-2">
+                <a href={`mailto:${lead.email}`} className="font-bold text-ember-700 hover:underline">{lead.email}</a>
+              </p>
+            ) : null}
+            {lead.phone ? (
+              <p>
+                <a href={`tel:${lead.phone.replace(/[^\d+]/g, "")}`} className="font-bold text-ember-700 hover:underline">{lead.phone}</a>
+              </p>
+            ) : null}
+            <p className="mt-2 text-char-600">Hopes to build: {lead.buildWindow}</p>
+            {lead.notes ? (
+              <blockquote className="mt-3 border-l-3 border-ash-300 pl-3 text-char-700">{lead.notes}</blockquote>
+            ) : null}
+          </section>
+
+          <section aria-labelledby="photos-title" className="card p-5">
+            <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
+            {photos.length ? (
+              <ul className="mt-2 grid grid-cols-2 gap-2">
+                {photos.map((p) => (
+                  <li key={p.id}>
+                    <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
+                      <img src={`/photos/${p.id}`} alt={`Yard photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
+                    </a>
+                  </li>
+                ))}
+              </ul>
+            ) : (
+              <p className="mt-1 text-sm text-char-600">No photos were sent.</p>
+            )}
+          </section>
+
+          {isOffice && team ? (
+            <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
+              <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
+              <Form method="post" className="flex flex-col gap-2" noValidate>
+                <input type="hidden" name="intent" value="status" />
+                <SelectField label="Status" name="status" defaultValue={lead.status} error={errorsFor("status").status}>
+                  {LEAD_STATUSES.map((s) => (
+                    <option key={s} value={s}>{STATUS_LABEL[s]}</option>
+                  ))}
+                </SelectField>
+                <label htmlFor="lost-reason" className="field-label">Reason, if lost</label>
+                <input
+                  id="lost-reason"
+                  name="lostReason"
+                  defaultValue={lead.lostReason ?? ""}
+                  maxLength={200}
+                  aria-invalid={errorsFor("status").lostReason ? true : undefined}
+                  aria-describedby={errorsFor("status").lostReason ? "lost-reason-error" : "lost-reason-hint"}
+                  className="field-input"
+                />
+                {errorsFor("status").lostReason ? (
+                  <p id="lost-reason-error" className="field-error">{errorsFor("status").lostReason}</p>
+                ) : (
+                  <p id="lost-reason-hint" className="field-hint">Needed only when the job is lost.</p>
+                )}
+                <button type="submit" className="btn-primary self-start" disabled={isBusy}>Change status</button>
+              </Form>
+
+              <Form method="post" className="flex flex-col gap-2" noValidate>
+                <input type="hidden" name="intent" value="assign" />
+                <SelectField label="Estimator" name="assigneeId" defaultValue={lead.assignedUserId === null ? "" : String(lead.assignedUserId)} error={errorsFor("assign").assigneeId}>
+                  <option value="">Unassigned</option>
+                  {team.estimators.map((m) => (
+                    <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
+                  ))}
+                </SelectField>
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Assign</button>
+              </Form>
+
+              {lead.status === "won" ? (
+                <Form method="post" className="flex flex-col gap-2" noValidate>
+                  <input type="hidden" name="intent" value="crew" />
+                  <SelectField label="Crew" name="crewUserId" defaultValue={lead.crewUserId === null ? "" : String(lead.crewUserId)} error={errorsFor("crew").crewUserId}>
+                    <option value="">No crew yet</option>
+                    {team.crew.map((m) => (
+                      <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
+                    ))}
+                  </SelectField>
+                  <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Give the job to the crew</button>
+                </Form>
+              ) : (
+                <p className="text-sm text-char-600">Once the job is won, give it to a crew here.</p>
+              )}
+
+              <Form method="post" className="flex flex-col gap-2" noValidate>
+                <input type="hidden" name="intent" value="note" />
+                <label htmlFor="note" className="field-label">Add a note</label>
+                <textarea
+                  id="note"
+                  name="note"
+                  rows={3}
+                  maxLength={2000}
+                  aria-invalid={errorsFor("note").note ? true : undefined}
+                  aria-describedby={errorsFor("note").note ? "note-error" : undefined}
+                  className="field-input"
+                />
+                {errorsFor("note").note ? <p id="note-error" className="field-error">{errorsFor("note").note}</p> : null}
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Add note</button>
+              </Form>
+            </section>
+          ) : null}
+
+          {isOffice ? (
+            <section aria-labelledby="timeline-title" className="card p-5">
+              <h2 id="timeline-title" className="text-lg font-extrabold">Timeline</h2>
+              <ol className="mt-2 flex flex-col gap-3 text-sm">
+                {timeline.map((t) => (
+                  <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
+                    <p className="font-bold text-char-800">{kindLabel[t.kind] ?? t.kind}</p>
+                    <p className="break-words whitespace-pre-line">{t.detail}</p>
+                    <p className="text-xs text-char-500">
+                      {t.when}
+                      {t.actorName ? ` · ${t.actorName}` : ""}
+                    </p>
+                  </li>
+                ))}
+              </ol>
+            </section>
+          ) : null}
+        </aside>
+      </div>
+    </div>
+  );
+}
+
