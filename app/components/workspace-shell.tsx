@@ -7,8 +7,11 @@ type NavItem = { to: string; label: string; roles: Role[] };
 
 /** The workspace's sections and who sees each; loaders enforce the same roles on the server. */
 export const WORKSPACE_NAV: NavItem[] = [
+  { to: "/app/inbox", label: "Inbox", roles: ["owner", "estimator"] },
+  { to: "/app/jobs", label: "Jobs", roles: ["crew"] },
   { to: "/app/schedule", label: "Schedule", roles: ["owner", "estimator"] },
   { to: "/app/catalog", label: "Catalog", roles: ["owner", "estimator", "crew"] },
+  { to: "/app/team", label: "Team", roles: ["owner"] },
   { to: "/app/settings", label: "Company settings", roles: ["owner"] },
 ];
 
