@@ -1,15 +1,22 @@
 import { processRefunds, releaseLapsedHolds } from "~/lib/booking.server";
 import { env } from "~/lib/env.server";
 import { deliverDueEmails } from "~/lib/outbox-worker.server";
+import { sweepUnrecordedPhotos } from "~/lib/leads.server";
 
 let timer: NodeJS.Timeout | null = null;
 let isRunning = false;
+let lastSweepAt = 0;
+const SWEEP_EVERY_MS = 10 * 60_000;
 
-/** One pass of the background work: due e-mails, owed refunds, lapsed consult holds. */
+/** One pass of the background work: due e-mails, owed refunds, lapsed consult holds, and now and then photos left by a crash. */
 export async function runBackgroundPass(): Promise<void> {
   await deliverDueEmails();
   await processRefunds();
   await releaseLapsedHolds();
+  if (Date.now() - lastSweepAt > SWEEP_EVERY_MS) {
+    lastSweepAt = Date.now();
+    await sweepUnrecordedPhotos();
+  }
 }
 
 /** Polls in this process, one pass at a time (a second process would take a lease first). */

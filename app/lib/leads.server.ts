@@ -7,7 +7,7 @@ import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import type { LeadFormInput } from "~/lib/lead-schema";
 import { createRef, createToken } from "~/lib/tokens.server";
-import { deleteStoredPhotos, storePhotos, type CheckedPhoto } from "~/lib/uploads.server";
+import { deleteStoredPhotos, storePhotos, sweepOrphanPhotos, type CheckedPhoto } from "~/lib/uploads.server";
 
 export type LeadSnapshot = {
   design: unknown;
@@ -153,4 +153,10 @@ export async function findLeadByRef(companyId: number, ref: string): Promise<Lea
 /** A homeowner's own requests, newest first. */
 export function listHomeownerLeads(homeownerId: number) {
   return db.select().from(leads).where(eq(leads.homeownerId, homeownerId)).orderBy(desc(leads.createdAt));
+}
+
+/** Deletes photo files that no lead names (a crash between writing them and saving the lead). */
+export async function sweepUnrecordedPhotos(olderThanMs?: number): Promise<number> {
+  const rows = await db.select({ storedName: leadPhotos.storedName }).from(leadPhotos);
+  return sweepOrphanPhotos(new Set(rows.map((r) => r.storedName)), olderThanMs);
 }

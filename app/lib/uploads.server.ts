@@ -19,6 +19,9 @@ const ALLOWED = new Map([
   ["image/webp", "webp"],
 ]);
 
+// Markup or code hidden behind an image header (a polyglot) has no business in a yard photo.
+const EMBEDDED_CODE = /<(script|html|svg|iframe|body|\?php)[\s>]/i;
+
 export type CheckedPhoto = { bytes: Uint8Array; mimeType: string; extension: string; originalName: string };
 export type PhotoCheck = { ok: true; photos: CheckedPhoto[] } | { ok: false; message: string };
 
@@ -47,6 +50,10 @@ export async function checkPhotos(files: File[]): Promise<PhotoCheck> {
     const extension = detected ? ALLOWED.get(detected.mime) : undefined;
     if (!detected || !extension) {
       return { ok: false, message: `"${label}" is not a JPEG, PNG or WebP photo.` };
+    }
+    // latin1 maps every byte to one character, so the pattern sees the raw bytes.
+    if (EMBEDDED_CODE.test(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength).toString("latin1"))) {
+      return { ok: false, message: `"${label}" contains web page code as well as a picture. Send a plain photo.` };
     }
     photos.push({ bytes, mimeType: detected.mime, extension, originalName: label });
   }

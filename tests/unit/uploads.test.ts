@@ -44,3 +44,37 @@ test("names with ../ are harmless: the label loses its folders and the file gets
   expect(await readdir(path.resolve(process.env.UPLOADS_DIR!))).toContain(stored);
   await deleteStoredPhotos([stored!]);
 });
+
+test("a polyglot (a real PNG header with a script inside) is refused (OWASP File Upload Cheat Sheet)", async () => {
+  const polyglot = new Uint8Array([...TINY_PNG, ...new TextEncoder().encode("<script>alert(1)</script>")]);
+  const result = await checkPhotos([file(polyglot, "trick.png", "image/png")]);
+  expect(result).toEqual({ ok: false, message: '"trick.png" contains web page code as well as a picture. Send a plain photo.' });
+});
+
+test("photo files that no lead names are swept; recorded ones stay", async () => {
+  const { sweepUnrecordedPhotos } = await import("~/lib/leads.server");
+  const checked = await checkPhotos([file(TINY_PNG, "a.png", "image/png"), file(TINY_PNG, "b.png", "image/png")]);
+  if (!checked.ok) throw new Error(checked.message);
+  const [orphan, other] = await storePhotos(checked.photos);
+  // Age 0: everything unrecorded counts as left behind.
+  expect(await sweepUnrecordedPhotos(-1)).toBeGreaterThanOrEqual(2);
+  const left = await readdir(path.resolve(process.env.UPLOADS_DIR!));
+  expect(left).not.toContain(orphan);
+  expect(left).not.toContain(other);
+
+  const { createLead } = await import("~/lib/leads.server");
+  const { demoCompany } = await import("./support/demo");
+  const { company } = await demoCompany();
+  const { leadPhotos } = await import("~/db/schema");
+  const { db } = await import("~/lib/db.server");
+  await createLead({
+    company,
+    form: { customerName: "Pia Lindqvist", email: "pia@example.test", phone: "555 010 3344", street: "9 Fern St", town: "Millbrook Falls", buildWindow: "next-year", notes: "", consent: "on" },
+    photos: checked.photos.slice(0, 1),
+    origin: "http://localhost",
+    snapshot: { design: {}, plan: {}, stoneName: "Test", bowlDiameterIn: 36, priceLowCents: null, priceHighCents: null, summary: [] },
+  });
+  const [recorded] = await db.select().from(leadPhotos);
+  expect(await sweepUnrecordedPhotos(-1)).toBe(0);
+  expect(await readdir(path.resolve(process.env.UPLOADS_DIR!))).toContain(recorded!.storedName);
+});
