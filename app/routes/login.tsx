@@ -7,6 +7,9 @@ import { getSessionUser, safeRedirectPath, startSession, sweepExpiredSessions } 
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Emberwright" }];
 
+// Document responses take their headers from here: pass the action's Retry-After through.
+export const headers: Route.HeadersFunction = ({ actionHeaders }) => actionHeaders;
+
 function homeFor(role: string): string {
   return role === "homeowner" ? "/my" : "/app";
 }

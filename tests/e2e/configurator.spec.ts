@@ -1,7 +1,5 @@
 import { expect, test, type Page } from "@playwright/test";
-import { screenshotBothWidths, signIn } from "./helpers";
-
-const MAIL = "http://127.0.0.1:4110";
+import { MAIL_FAKE as MAIL, screenshotBothWidths, signIn } from "./helpers";
 
 /** Counts distinct colours in a screenshot of an element, decoded by the browser itself. */
 async function countColours(page: Page, selector: string): Promise<number> {

@@ -37,8 +37,8 @@ export async function sendRequest(page: Page, person: { name: string; email: str
   await expect(page.getByRole("heading", { name: new RegExp(`Thank you, ${person.name.split(" ")[0]}`) })).toBeVisible();
 }
 
-export const MAIL_FAKE = "http://127.0.0.1:4110";
-export const PAYMENTS_FAKE = "http://127.0.0.1:4120";
+export const MAIL_FAKE = `http://127.0.0.1:${process.env.E2E_EMAIL_PORT ?? 4110}`;
+export const PAYMENTS_FAKE = `http://127.0.0.1:${process.env.E2E_PAYMENTS_PORT ?? 4120}`;
 
 export type FakeMessage = { id: string; to: string[]; subject: string; text: string; attachments?: { filename: string }[] };
 
