@@ -142,3 +142,13 @@ test("a payment that lands after its hold lapsed and the slot went to someone el
   const [mail] = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `consult-cancelled/${booking.id}`));
   expect(mail!.text).toMatch(/refunded/);
 });
+
+test("out of order: an expiry that arrives before the payment it raced still ends with a paid, confirmed booking when the slot is free", async () => {
+  const { booking } = await heldBooking();
+  const expired = { ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }), type: "checkout.session.expired" };
+  const completed = completedEvent(booking.id);
+  await deliver(JSON.stringify(expired));
+  await deliver(JSON.stringify(completed));
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(row).toMatchObject({ status: "confirmed", isPaid: true });
+});
