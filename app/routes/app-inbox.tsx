@@ -203,7 +203,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                         New<span className="sr-only"> since your last visit</span>
                       </span>
                     ) : null}
-                    <span className="block text-xs text-char-500">{row.email}</span>
+                    <span className="block text-xs break-all text-char-500">{row.email}</span>
                     <span className="block text-xs text-char-500 md:hidden">
                       {row.town} · {formatInches(row.bowlDiameterIn)} bowl
                     </span>
@@ -281,21 +281,21 @@ function FilterForm({
   const errorOf = (field: string) => (errors[field] ? <p id={`filter-${field}-error`} className="field-error">{errors[field]}</p> : null);
   const hasErrors = Object.keys(errors).length > 0;
   return (
-    <Form method="get" action="/app/inbox" className="card grid gap-3 p-4 sm:grid-cols-2 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]" aria-label="Filter requests">
+    <Form method="get" action="/app/inbox" className="card grid grid-cols-2 gap-3 p-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]" aria-label="Filter requests">
       {hasErrors ? (
-        <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 sm:col-span-2 lg:col-span-5">
+        <p role="alert" className="col-span-2 rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 lg:col-span-5">
           These filters could not be used. Fix the fields marked below.
         </p>
       ) : null}
       {filters.status ? <input type="hidden" name="status" value={filters.status} /> : null}
-      {errors.status ? <div className="sm:col-span-2 lg:col-span-5">{errorOf("status")}</div> : null}
+      {errors.status ? <div className="col-span-2 lg:col-span-5">{errorOf("status")}</div> : null}
       {filters.sort !== "received" || filters.dir !== "desc" ? (
         <>
           <input type="hidden" name="sort" value={filters.sort} />
           <input type="hidden" name="dir" value={filters.dir} />
         </>
       ) : null}
-      <div>
+      <div className="col-span-2 lg:col-span-1">
         <label htmlFor="filter-q" className="field-label">Search</label>
         <input
           id="filter-q"
@@ -310,7 +310,7 @@ function FilterForm({
         />
         {errorOf("q")}
       </div>
-      <div>
+      <div className="col-span-2 lg:col-span-1">
         <label htmlFor="filter-assignee" className="field-label">Estimator</label>
         <select
           id="filter-assignee"
@@ -331,7 +331,7 @@ function FilterForm({
         </select>
         {errorOf("assignee")}
       </div>
-      <div>
+      <div className="min-w-0">
         <label htmlFor="filter-from" className="field-label">Received from</label>
         <input
           id="filter-from"
@@ -344,7 +344,7 @@ function FilterForm({
         />
         {errorOf("from")}
       </div>
-      <div>
+      <div className="min-w-0">
         <label htmlFor="filter-to" className="field-label">to</label>
         <input
           id="filter-to"
@@ -357,12 +357,12 @@ function FilterForm({
         />
         {errorOf("to")}
       </div>
-      <div className="flex items-end gap-2">
+      <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
         <button type="submit" className="btn-primary">Apply</button>
         <Link to="/app/inbox" className="btn-quiet">Clear</Link>
       </div>
       {errors.sort || errors.dir || errors.page ? (
-        <div className="sm:col-span-2 lg:col-span-5">
+        <div className="col-span-2 lg:col-span-5">
           {errorOf("sort")}
           {errorOf("dir")}
           {errorOf("page")}

@@ -2,10 +2,9 @@ import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, redirect, useFetcher, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/app-lead-design";
 import { DesignControls } from "~/components/configurator/design-controls";
-import { PlanResults } from "~/components/configurator/plan-results";
 import { PitPreview } from "~/components/pit-preview";
 import { FormAlert } from "~/components/ui/field";
-import { formatLength } from "~/domain/units";
+import { formatLength, type LengthUnit } from "~/domain/units";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
 import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
 import { designToSearchParams, parseDesign, type Design } from "~/lib/design";
@@ -13,6 +12,7 @@ import { describePreview, designToPlanRequest, planToSceneInput, summarizeDesign
 import { checkDesignParams } from "~/lib/design-schema";
 import { currentVersion, saveRevision } from "~/lib/lead-workspace.server";
 import type { PlanFieldError } from "~/lib/plan-schema";
+import { formatMoneyWhole } from "~/lib/money";
 import { publicPlan } from "~/lib/plan.server";
 import { requireUser } from "~/lib/session.server";
 import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
@@ -122,7 +122,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
               {planErrors.map((e) => e.message).join(" ")}
             </p>
           ) : null}
-          {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
+          {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
         </div>
         <div className="card p-5 lg:sticky lg:top-4">
           <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} onChange={changeDesign} />
@@ -135,5 +135,42 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
         </div>
       </div>
     </div>
+  );
+}
+
+/** What the revision comes to, for staff: the price range at today's prices, the key sizes and anything worth a look. */
+function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {
+  const f = (inches: number) => formatLength(inches, unit);
+  const facts: [string, string][] = [
+    ["Bowl", f(plan.ring.bowlDiameterIn)],
+    ["Outside", f(plan.ring.outsideDiameterIn)],
+    ["Wall height", f(plan.ring.wallHeightIn)],
+    ["Units", `${plan.ring.unitsPerCourse} a course × ${plan.ring.courses}`],
+    ["Caps", plan.caps ? String(plan.caps.count) : "None"],
+    ["Labour", `${plan.labour.hours} h`],
+  ];
+  return (
+    <section aria-labelledby="revision-summary" aria-busy={isUpdating} className="card p-5">
+      <h2 id="revision-summary" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">This revision</h2>
+      <p className="mt-1 text-3xl font-extrabold text-char-900" data-testid="price-range">
+        {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "No price: an item has no catalog price"}
+      </p>
+      <p className="text-sm text-char-600">At today's catalog prices and company rates. The full breakdown shows on the request once saved.</p>
+      <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm sm:grid-cols-3">
+        {facts.map(([label, value]) => (
+          <div key={label}>
+            <dt className="text-char-500">{label}</dt>
+            <dd className="font-extrabold text-char-900 tabular-nums">{value}</dd>
+          </div>
+        ))}
+      </dl>
+      {plan.warnings.length ? (
+        <ul className="mt-4 list-disc rounded-lg bg-ember-50 py-3 pr-3 pl-8 text-sm text-char-800">
+          {plan.warnings.map((w) => (
+            <li key={w.code}>{w.message}</li>
+          ))}
+        </ul>
+      ) : null}
+    </section>
   );
 }

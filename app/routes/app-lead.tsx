@@ -193,8 +193,13 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
       {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
 
-      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
-        <div className="flex min-w-0 flex-col gap-6">
+      <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:grid-rows-[auto_1fr]">
+        <div className="flex min-w-0 flex-col gap-6 lg:col-start-2 lg:row-start-1">
+          <CustomerCard lead={lead} isOffice={isOffice} />
+          <PhotoList photos={photos} />
+        </div>
+
+        <div className="flex min-w-0 flex-col gap-6 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <section aria-labelledby="design-title" className="flex flex-col gap-4">
             <div className="flex flex-wrap items-baseline justify-between gap-2">
               <h2 id="design-title" className="text-xl font-extrabold">
@@ -324,48 +329,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           </section>
         </div>
 
-        <aside className="flex flex-col gap-6">
-          <section aria-labelledby="customer-title" className="card p-5 text-sm">
-            <h2 id="customer-title" className="text-lg font-extrabold">{isOffice ? "Customer" : "Site"}</h2>
-            <p className="mt-2 font-bold">{lead.customerName}</p>
-            <p>
-              {lead.street}
-              <br />
-              {lead.town}
-            </p>
-            {lead.email ? (
-              <p className="mt-2">
-                <a href={`mailto:${lead.email}`} className="font-bold text-ember-700 hover:underline">{lead.email}</a>
-              </p>
-            ) : null}
-            {lead.phone ? (
-              <p>
-                <a href={`tel:${lead.phone.replace(/[^\d+]/g, "")}`} className="font-bold text-ember-700 hover:underline">{lead.phone}</a>
-              </p>
-            ) : null}
-            <p className="mt-2 text-char-600">Hopes to build: {lead.buildWindow}</p>
-            {lead.notes ? (
-              <blockquote className="mt-3 border-l-3 border-ash-300 pl-3 text-char-700">{lead.notes}</blockquote>
-            ) : null}
-          </section>
-
-          <section aria-labelledby="photos-title" className="card p-5">
-            <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
-            {photos.length ? (
-              <ul className="mt-2 grid grid-cols-2 gap-2">
-                {photos.map((p) => (
-                  <li key={p.id}>
-                    <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
-                      <img src={`/photos/${p.id}`} alt={`Yard photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
-                    </a>
-                  </li>
-                ))}
-              </ul>
-            ) : (
-              <p className="mt-1 text-sm text-char-600">No photos were sent.</p>
-            )}
-          </section>
-
+        <aside className="flex flex-col gap-6 lg:col-start-2 lg:row-start-2">
           {isOffice && team ? (
             <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
               <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
@@ -461,3 +425,52 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
   );
 }
 
+
+type LeadView = Route.ComponentProps["loaderData"]["lead"];
+
+function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean }) {
+  return (
+    <section aria-labelledby="customer-title" className="card p-5 text-sm">
+      <h2 id="customer-title" className="text-lg font-extrabold">{isOffice ? "Customer" : "Site"}</h2>
+      <p className="mt-2 font-bold">{lead.customerName}</p>
+      <p>
+        {lead.street}
+        <br />
+        {lead.town}
+      </p>
+      {lead.email ? (
+        <p className="mt-2 break-all">
+          <a href={`mailto:${lead.email}`} className="font-bold text-ember-700 hover:underline">{lead.email}</a>
+        </p>
+      ) : null}
+      {lead.phone ? (
+        <p>
+          <a href={`tel:${lead.phone.replace(/[^\d+]/g, "")}`} className="font-bold text-ember-700 hover:underline">{lead.phone}</a>
+        </p>
+      ) : null}
+      <p className="mt-2 text-char-600">Hopes to build: {lead.buildWindow}</p>
+      {lead.notes ? <blockquote className="mt-3 border-l-3 border-ash-300 pl-3 text-char-700">{lead.notes}</blockquote> : null}
+    </section>
+  );
+}
+
+function PhotoList({ photos }: { photos: { id: number; originalName: string }[] }) {
+  return (
+    <section aria-labelledby="photos-title" className="card p-5">
+      <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
+      {photos.length ? (
+        <ul className="mt-2 grid grid-cols-2 gap-2">
+          {photos.map((p) => (
+            <li key={p.id}>
+              <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
+                <img src={`/photos/${p.id}`} alt={`Yard photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
+              </a>
+            </li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mt-1 text-sm text-char-600">No photos were sent.</p>
+      )}
+    </section>
+  );
+}
