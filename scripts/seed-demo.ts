@@ -1,5 +1,6 @@
 import { and, eq } from "drizzle-orm";
-import { catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
+import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
+import { findLiveBooking, listCompanySlots } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
 import { parseDesign } from "~/lib/design";
@@ -30,6 +31,35 @@ export async function seedDemo() {
       if (!existing) await db.insert(catalogItems).values({ ...item, companyId });
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
+    await seedConsults(companyId);
+  }
+}
+
+/**
+ * Books the next free consult slots for the demo requests that are at "consult booked", as paid.
+ * Demo bookings carry no payment of the payment service, so nothing is ever refunded for them.
+ */
+async function seedConsults(companyId: number) {
+  const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
+  const waiting = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "consult-booked")));
+  let slots = await listCompanySlots(company!);
+  for (const lead of waiting) {
+    if (await findLiveBooking(lead.id)) continue;
+    // Every third slot, so the schedule shows spread-out days rather than one packed morning.
+    const slot = slots[2];
+    if (!slot) break;
+    slots = slots.slice(3);
+    await db.insert(bookings).values({
+      companyId,
+      leadId: lead.id,
+      homeownerId: lead.homeownerId,
+      startsAt: slot.startsAt,
+      endsAt: slot.endsAt,
+      status: "confirmed",
+      holdExpiresAt: slot.startsAt,
+      amountCents: company!.consultFeeCents,
+      isPaid: true,
+    });
   }
 }
 

@@ -1,4 +1,4 @@
-import { and, eq, gt, inArray, isNull, lt, sql } from "drizzle-orm";
+import { and, eq, gt, inArray, isNotNull, isNull, lt, sql } from "drizzle-orm";
 import { createEvent } from "ics";
 import type Stripe from "stripe";
 import {
@@ -359,13 +359,12 @@ export async function processRefunds(client: Stripe = defaultStripe): Promise<nu
   const owed = await db
     .select()
     .from(bookings)
-    .where(and(eq(bookings.status, "cancelled"), eq(bookings.isPaid, true), isNull(bookings.refundId)))
+    .where(and(eq(bookings.status, "cancelled"), eq(bookings.isPaid, true), isNull(bookings.refundId), isNotNull(bookings.paymentIntentId)))
     .limit(20);
   let done = 0;
   for (const booking of owed) {
-    if (!booking.paymentIntentId) continue;
     try {
-      const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId }, { idempotencyKey: `refund:${booking.id}` });
+      const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId! }, { idempotencyKey: `refund:${booking.id}` });
       await db.update(bookings).set({ refundId: refund.id, refundedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
       done += 1;
     } catch (error) {
