@@ -70,7 +70,10 @@ test("sign-in gives no hint whether an account exists: same status, same words, 
   };
   const known: number[] = [];
   const unknown: number[] = [];
-  for (let i = 0; i < 4; i++) {
+  // Warm both paths (the stand-in hash for unknown accounts is made on first use).
+  await attempt("estimator@cinder-slate.test");
+  await attempt("warm-up@nowhere.test");
+  for (let i = 0; i < 7; i++) {
     const a = await attempt("estimator@cinder-slate.test");
     const b = await attempt(`nobody-${i}@nowhere.test`);
     expect(a.status).toBe(401);
@@ -82,9 +85,10 @@ test("sign-in gives no hint whether an account exists: same status, same words, 
   }
   const median = (xs: number[]) => [...xs].sort((x, y) => x - y)[Math.floor(xs.length / 2)]!;
   const ratio = median(unknown) / median(known);
-  // Both run one argon2id verification; a missing account does not answer faster.
-  expect(ratio).toBeGreaterThan(0.5);
-  expect(ratio).toBeLessThan(2);
+  // Both run one argon2id verification (about 15–20 ms here); skipping it for a missing account
+  // would answer about ten times faster. The wide band absorbs a busy two-core machine.
+  expect(ratio).toBeGreaterThan(0.33);
+  expect(ratio).toBeLessThan(3);
 });
 
 test("a request body over the upload limit is refused with 413 before it is read", async ({ request, baseURL }) => {
