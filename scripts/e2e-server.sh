@@ -8,6 +8,8 @@ export UPLOADS_DIR="./data/e2e/uploads"
 export PAYMENTS_FAKE_STATE="./data/e2e/payments-fake.json"
 export SESSION_SECRET="e2e-secret-0123456789abcdef0123456789abcdef"
 export PORT="${E2E_PORT:-3210}" HOST=127.0.0.1
+# Every journey comes from one address; the per-address limit has its own tests.
+export PUBLIC_FORM_LIMIT=1000
 export EMAIL_FAKE_PORT="${E2E_EMAIL_PORT:-4110}" PAYMENTS_FAKE_PORT="${E2E_PAYMENTS_PORT:-4120}"
 npm run --silent db:migrate
 npm run --silent db:seed

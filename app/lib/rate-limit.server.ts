@@ -32,10 +32,14 @@ export async function spendLimit(limiter: RateLimiterMemory, key: string): Promi
   }
 }
 
-/** The client address for per-IP limits: the socket's, unless a trusted proxy header is set. */
+/**
+ * The client address for per-address limits. Behind a proxy, the rightmost X-Forwarded-For entry is
+ * the one the proxy itself saw (earlier entries are the client's to invent). Without one, every
+ * request shares one bucket, so the limit still caps the total.
+ */
 export function clientAddress(request: Request): string {
   const forwarded = request.headers.get("x-forwarded-for");
-  return forwarded?.split(",")[0]?.trim() || "local";
+  return forwarded?.split(",").at(-1)?.trim() || "local";
 }
 
 export function tooManyRequests(retryAfterSeconds: number, message: string): Response {

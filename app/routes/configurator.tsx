@@ -32,6 +32,9 @@ async function loadCompanyCatalog(slug: string) {
   return { company, catalog };
 }
 
+// Document responses take their headers from here: pass an action's Retry-After through.
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { company, catalog } = await loadCompanyCatalog(params.companySlug);
   const design = parseDesign(new URL(request.url).searchParams, catalog);

@@ -23,6 +23,9 @@ async function loadLead(params: { companySlug: string; ref: string }) {
 }
 
 // Reached by the unguessable request reference (from the confirmation page, the e-mail or /my).
+// Document responses take their headers from here: pass an action's Retry-After through.
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { company, lead } = await loadLead(params);
   const url = new URL(request.url);

@@ -118,3 +118,24 @@ test("with the e-mail service failing the request still stands, and the e-mails 
   expect(toHomeowner[0]!.text).toContain("/welcome/");
   expect(messages.filter((m) => m.subject === "New fire-pit request: Rosalind Ferreira, Millbrook Falls" && m.to.includes("office@cinder-slate.test")).length).toBeGreaterThanOrEqual(1);
 });
+
+test("one address sending more than the limit of requests in 10 minutes gets 429 with Retry-After", async () => {
+  await demoCompany();
+  const { action: act } = await import("~/routes/configurator");
+  const statuses: number[] = [];
+  let retryAfter: string | null = null;
+  for (let i = 0; i < 11; i++) {
+    const form = new FormData();
+    form.set("customerName", "x");
+    const raw = new Request("http://localhost/c/cinder-slate", { method: "POST", body: form });
+    const body = await raw.arrayBuffer();
+    const request = new Request(raw.url, { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength), "X-Forwarded-For": "203.0.113.9" } });
+    const result = (await act(routeArgs(request, { companySlug: "cinder-slate" }))) as { init: ResponseInit };
+    statuses.push(result.init.status!);
+    retryAfter = new Headers(result.init.headers).get("Retry-After");
+  }
+  // Ten refused for bad fields (400), the eleventh for the limit (default 10 per address).
+  expect(statuses.slice(0, 10)).toEqual(Array(10).fill(400));
+  expect(statuses[10]).toBe(429);
+  expect(Number(retryAfter)).toBeGreaterThan(0);
+});
