@@ -58,7 +58,7 @@ function hrefFor(filters: InboxFilters, patch: Partial<InboxFilters>): string {
 }
 
 const COLUMNS: { sort: InboxSort; label: string; className?: string }[] = [
-  { sort: "status", label: "Status" },
+  { sort: "status", label: "Status", className: "hidden sm:table-cell" },
   { sort: "customer", label: "Customer" },
   { sort: "town", label: "Town", className: "hidden md:table-cell" },
   { sort: "bowl", label: "Bowl and stone", className: "hidden lg:table-cell" },
@@ -191,7 +191,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
               const unseen = isUnseen(row.createdAt);
               return (
                 <tr key={row.id} className={unseen ? "bg-ember-50/60" : undefined}>
-                  <td className="px-3 py-2.5 align-top">
+                  <td className="hidden px-3 py-2.5 align-top sm:table-cell">
                     <LeadStatusBadge status={row.status} />
                   </td>
                   <td className="px-3 py-2.5 align-top">
@@ -203,9 +203,12 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                         New<span className="sr-only"> since your last visit</span>
                       </span>
                     ) : null}
-                    <span className="block text-xs break-all text-char-500">{row.email}</span>
+                    <span className="hidden text-xs break-all text-char-500 sm:block">{row.email}</span>
                     <span className="block text-xs text-char-500 md:hidden">
                       {row.town} · {formatInches(row.bowlDiameterIn)} bowl
+                    </span>
+                    <span className="mt-1 block sm:hidden">
+                      <LeadStatusBadge status={row.status} />
                     </span>
                   </td>
                   <td className="hidden px-3 py-2.5 align-top md:table-cell">{row.town}</td>

@@ -1,4 +1,4 @@
-import { data, Form, Link, redirect, useNavigation } from "react-router";
+import { data, Form, Link, redirect, useLocation, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead";
 import { CapDrawingSvg } from "~/components/cap-drawing-svg";
 import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
@@ -157,6 +157,8 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   const navigation = useNavigation();
+  // Each successful post redirects to a new location: keyed on it, the forms start again from the saved values.
+  const { key: formKey } = useLocation();
   const isBusy = navigation.state === "submitting";
   const f = (inches: number) => formatInches(inches);
   const shownVersion = versions.find((v) => v.isShown)!;
@@ -333,7 +335,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           {isOffice && team ? (
             <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
               <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
-              <Form method="post" className="flex flex-col gap-2" noValidate>
+              <Form key={`${formKey}-status`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="status" />
                 <SelectField label="Status" name="status" defaultValue={lead.status} error={errorsFor("status").status}>
                   {LEAD_STATUSES.map((s) => (
@@ -358,7 +360,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <button type="submit" className="btn-primary self-start" disabled={isBusy}>Change status</button>
               </Form>
 
-              <Form method="post" className="flex flex-col gap-2" noValidate>
+              <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
                 <SelectField label="Estimator" name="assigneeId" defaultValue={lead.assignedUserId === null ? "" : String(lead.assignedUserId)} error={errorsFor("assign").assigneeId}>
                   <option value="">Unassigned</option>
@@ -370,7 +372,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               </Form>
 
               {lead.status === "won" ? (
-                <Form method="post" className="flex flex-col gap-2" noValidate>
+                <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
                   <SelectField label="Crew" name="crewUserId" defaultValue={lead.crewUserId === null ? "" : String(lead.crewUserId)} error={errorsFor("crew").crewUserId}>
                     <option value="">No crew yet</option>
@@ -384,7 +386,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <p className="text-sm text-char-600">Once the job is won, give it to a crew here.</p>
               )}
 
-              <Form method="post" className="flex flex-col gap-2" noValidate>
+              <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="note" />
                 <label htmlFor="note" className="field-label">Add a note</label>
                 <textarea

@@ -1,4 +1,4 @@
-import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
+import { data, Form, redirect, useLocation, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-team";
 import { ROLE_LABEL } from "~/components/workspace-shell";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
@@ -50,6 +50,7 @@ export async function action({ request }: Route.ActionArgs) {
 export default function TeamRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { team, myId } = loaderData;
   const [params] = useSearchParams();
+  const location = useLocation();
   const navigation = useNavigation();
   const isBusy = navigation.state === "submitting";
   const saved = !actionData ? SAVED[params.get("saved") ?? ""] : undefined;
@@ -129,7 +130,8 @@ export default function TeamRoute({ loaderData, actionData }: Route.ComponentPro
       <section aria-labelledby="invite-title" className="card p-5">
         <h2 id="invite-title" className="text-lg font-extrabold">Invite someone</h2>
         <p className="text-sm text-char-600">They get an e-mail with a link to set a password. Estimators work the inbox; crew see only the jobs you give them.</p>
-        <Form method="post" className="mt-4 grid gap-4 sm:grid-cols-[1fr_1fr_12rem_auto] sm:items-start" noValidate>
+        {/* A new location after a successful invitation remounts the form, emptying it for the next one. */}
+        <Form key={location.key} method="post" className="mt-4 grid gap-4 sm:grid-cols-[1fr_1fr_12rem_auto] sm:items-start" noValidate>
           <input type="hidden" name="intent" value="invite" />
           <TextField label="Name" name="name" defaultValue={actionData?.intent === "invite" ? actionData.values.name : ""} error={inviteErrors.name} maxLength={80} autoComplete="off" />
           <TextField label="E-mail" name="email" type="email" defaultValue={actionData?.intent === "invite" ? actionData.values.email : ""} error={inviteErrors.email} autoComplete="off" />

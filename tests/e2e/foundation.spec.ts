@@ -16,25 +16,26 @@ test("the sign-in page shows one generic message for a wrong password", async ({
   await screenshotBothWidths(page, "sign-in");
 });
 
+// Each role lands where its work is: the office in the inbox, the crew at their jobs.
 const NAV_BY_ROLE = [
-  { email: "owner@cinder-slate.test", role: "Owner", links: ["Catalog", "Company settings"] },
-  { email: "estimator@cinder-slate.test", role: "Estimator", links: ["Catalog"] },
-  { email: "crew@cinder-slate.test", role: "Crew", links: ["Catalog"] },
+  { email: "owner@cinder-slate.test", role: "Owner", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Catalog", "Team", "Company settings"] },
+  { email: "estimator@cinder-slate.test", role: "Estimator", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Catalog"] },
+  { email: "crew@cinder-slate.test", role: "Crew", home: /\/app\/jobs$/, links: ["Jobs", "Catalog"] },
 ];
 
 for (const person of NAV_BY_ROLE) {
   test(`the ${person.role.toLowerCase()} signs in and sees the ${person.role.toLowerCase()}'s navigation`, async ({ page }) => {
     await signIn(page, person.email);
-    await expect(page).toHaveURL(/\/app\/catalog$/);
+    await expect(page).toHaveURL(person.home);
     const nav = page.getByRole("navigation", { name: "Workspace" });
     await expect(nav.getByRole("link")).toHaveText(person.links);
-    await expect(page.getByText(person.role, { exact: true })).toBeVisible();
+    await expect(page.getByRole("banner").getByText(person.role, { exact: true })).toBeVisible();
   });
 }
 
 test("the estimator cannot open company settings", async ({ page }) => {
   await signIn(page, "estimator@cinder-slate.test");
-  await expect(page).toHaveURL(/\/app\/catalog$/);
+  await expect(page).toHaveURL(/\/app\/inbox$/);
   const response = await page.goto("/app/settings");
   expect(response?.status()).toBe(403);
 });
@@ -49,6 +50,8 @@ for (const url of ["/app", "/app/catalog", "/app/catalog/1", "/app/settings", "/
 
 test("the owner edits a catalog item; a bad value shows its message and nothing is saved", async ({ page }) => {
   await signIn(page, "owner@cinder-slate.test");
+  await expect(page).toHaveURL(/\/app\/inbox$/);
+  await page.getByRole("navigation", { name: "Workspace" }).getByRole("link", { name: "Catalog" }).click();
   await page.getByRole("link", { name: "Hearthline Taper" }).click();
   await expect(page.getByRole("heading", { name: "Edit Hearthline Taper" })).toBeVisible();
 
@@ -73,7 +76,7 @@ test("the north-ridge owner cannot open a cinder-slate catalog item by URL", asy
   const catalog = await (await request.get("/api/catalog/cinder-slate")).json();
   const foreignId = catalog.items[0].id as number;
   await signIn(page, "owner@north-ridge.test");
-  await expect(page).toHaveURL(/\/app\/catalog$/);
+  await expect(page).toHaveURL(/\/app\/inbox$/);
   const response = await page.goto(`/app/catalog/${foreignId}`);
   expect(response?.status()).toBe(404);
   await expect(page.getByRole("heading", { name: "We could not find that page" })).toBeVisible();
@@ -81,7 +84,7 @@ test("the north-ridge owner cannot open a cinder-slate catalog item by URL", asy
 
 test("signing out ends the session on the server, so the old cookie stops working", async ({ page, context }) => {
   await signIn(page, "estimator@cinder-slate.test");
-  await expect(page).toHaveURL(/\/app\/catalog$/);
+  await expect(page).toHaveURL(/\/app\/inbox$/);
   const [cookie] = (await context.cookies()).filter((c) => c.name === "ew_session");
   await page.getByRole("button", { name: "Sign out" }).click();
   await expect(page.getByText("You are signed out.")).toBeVisible();

@@ -1,0 +1,125 @@
+import { expect, test, type Page } from "@playwright/test";
+import { screenshotBothWidths, sendRequest, signIn } from "./helpers";
+
+const CUSTOMER = "Yusuf Abernethy";
+
+async function changeStatus(page: Page, status: string, reason = "") {
+  await page.getByLabel("Status").selectOption({ label: status });
+  await page.getByLabel("Reason, if lost").fill(reason);
+  await page.getByRole("button", { name: "Change status" }).click();
+}
+
+test("an estimator sees a new request arrive, takes it on, walks it to won, gives it to the crew and opens its cut sheet", async ({ page, browser }) => {
+  await signIn(page, "estimator@cinder-slate.test");
+  await expect(page).toHaveURL(/\/app\/inbox$/);
+  await expect(page.getByRole("heading", { name: "Inbox" })).toBeVisible();
+
+  // A homeowner sends a request while the inbox is open; the inbox picks it up when it regains focus.
+  const homeowner = await browser.newContext();
+  await sendRequest(await homeowner.newPage(), { name: CUSTOMER, email: `yusuf.${Date.now()}@example.test`, town: "Quillan Park" });
+  await homeowner.close();
+  await expect(async () => {
+    await page.evaluate(() => window.dispatchEvent(new Event("focus")));
+    await expect(page.getByRole("link", { name: CUSTOMER })).toBeVisible({ timeout: 1_000 });
+  }).toPass({ timeout: 15_000 });
+  const row = page.getByRole("row", { name: new RegExp(CUSTOMER) });
+  await expect(row).toContainText("New since your last visit");
+  await screenshotBothWidths(page, "inbox");
+
+  // Filters live in the URL: search, then the status tab.
+  await page.getByLabel("Search").fill("abernethy");
+  await page.getByRole("button", { name: "Apply" }).click();
+  await expect(page).toHaveURL(/q=abernethy/);
+  await page.getByRole("navigation", { name: "Filter by status" }).getByRole("link", { name: /^New/ }).click();
+  await expect(page).toHaveURL(/status=new/);
+  await expect(page).toHaveURL(/q=abernethy/);
+  await expect(page.getByRole("row")).toHaveCount(2);
+  await page.getByRole("link", { name: CUSTOMER }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText(CUSTOMER);
+
+  await page.getByLabel("Estimator").selectOption({ label: "Theo Brandvold" });
+  await page.getByRole("button", { name: "Assign" }).click();
+  const timeline = page.getByRole("region", { name: "Timeline" });
+  await expect(timeline).toContainText("Assigned to Theo Brandvold");
+
+  await changeStatus(page, "Contacted");
+  await expect(timeline).toContainText("New → Contacted");
+  await changeStatus(page, "Consult booked");
+  await expect(timeline).toContainText("Contacted → Consult booked");
+  await changeStatus(page, "Proposal sent");
+  await expect(timeline).toContainText("Consult booked → Proposal sent");
+
+  // Lost needs a reason: the message sits beside the field and nothing changes.
+  await changeStatus(page, "Lost");
+  await expect(page.getByText("Say why the job was lost")).toBeVisible();
+  await expect(page.getByLabel("Reason, if lost")).toHaveAttribute("aria-invalid", "true");
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Proposal sent");
+
+  await changeStatus(page, "Won");
+  await expect(timeline).toContainText("Proposal sent → Won");
+  await page.getByLabel("Crew").selectOption({ label: "Dario Quist" });
+  await page.getByRole("button", { name: "Give the job to the crew" }).click();
+  await expect(timeline).toContainText("Job given to Dario Quist");
+  await page.getByLabel("Add a note").fill("Customer asked for the charcoal caps.");
+  await page.getByRole("button", { name: "Add note" }).click();
+  await expect(timeline).toContainText("Customer asked for the charcoal caps.");
+  await expect(page.getByRole("region", { name: "Labour and price" })).toContainText("Margin");
+  await screenshotBothWidths(page, "lead-detail");
+
+  await page.getByRole("link", { name: "Cut sheet" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText(CUSTOMER);
+  await expect(page.getByRole("row", { name: /Inner mark/ })).toContainText("from each corner");
+  await expect(page.getByRole("region", { name: "Safety on site" })).toContainText("1926.1153");
+  await screenshotBothWidths(page, "cut-sheet");
+
+  const pdfHref = await page.getByRole("link", { name: "PDF with full-size cap template" }).getAttribute("href");
+  const pdf = await page.request.get(pdfHref!);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()["content-type"]).toBe("application/pdf");
+  expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
+});
+
+test("the crew member sees only the jobs given to them, with no prices or customer contact, and nothing else", async ({ page, browser }) => {
+  // The owner knows a won job that has no crew yet.
+  const office = await browser.newContext();
+  const ownerPage = await office.newPage();
+  await signIn(ownerPage, "owner@cinder-slate.test");
+  await ownerPage.goto("/app/inbox?status=won");
+  const otherJob = await ownerPage.getByRole("link", { name: "Mirela Castellanos" }).getAttribute("href");
+  await office.close();
+
+  await signIn(page, "crew@cinder-slate.test");
+  await expect(page).toHaveURL(/\/app\/jobs$/);
+  const jobs = page.getByRole("main");
+  await expect(jobs.getByRole("heading", { name: "Tobias Wren" })).toBeVisible();
+  await expect(jobs.getByText("11 Cinderbrook Lane, Millbrook Falls")).toBeVisible();
+  await expect(jobs.getByRole("heading", { name: "Mirela Castellanos" })).toHaveCount(0);
+  await expect(jobs).not.toContainText("$");
+  await screenshotBothWidths(page, "crew-jobs");
+
+  await jobs.getByRole("link", { name: "Tobias Wren" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Tobias Wren");
+  await expect(page.getByRole("region", { name: "Site", exact: true })).toContainText("11 Cinderbrook Lane");
+  await expect(page.getByRole("main")).not.toContainText("tobias.wren@example.test");
+  await expect(page.getByRole("main")).not.toContainText("$");
+  await expect(page.getByRole("region", { name: "Labour and price" })).toHaveCount(0);
+  await expect(page.getByRole("region", { name: "Material order" })).toContainText("Sill Cap 16");
+
+  expect((await page.goto(otherJob!))?.status()).toBe(404);
+  expect((await page.goto("/app/inbox"))?.status()).toBe(403);
+  expect((await page.request.get("/api/leads")).status()).toBe(403);
+});
+
+test("the owner invites a crew member and sees the invitation waiting", async ({ page }) => {
+  await signIn(page, "owner@cinder-slate.test");
+  await page.getByRole("navigation", { name: "Workspace" }).getByRole("link", { name: "Team" }).click();
+  await page.getByLabel("Name").fill("Ilka Brandt");
+  await page.getByLabel("E-mail").fill("ilka.brandt@cinder-slate.test");
+  await page.getByLabel("Role", { exact: true }).selectOption({ label: "Crew" });
+  await page.getByRole("button", { name: "Send invitation" }).click();
+  await expect(page.getByRole("status")).toHaveText("Invitation sent. It works once, for 7 days.");
+  await expect(page.getByRole("listitem").filter({ hasText: "Ilka Brandt" })).toContainText("Invited, has not set a password yet");
+  await page.getByRole("button", { name: "Send invitation" }).click();
+  await expect(page.getByText("Name must be 2 to 80 characters.")).toBeVisible();
+  await screenshotBothWidths(page, "team");
+});
