@@ -70,7 +70,7 @@ export default function JobsRoute({ loaderData }: Route.ComponentProps) {
               {isOffice ? <p className="text-sm text-char-600">Crew: {job.crewName ?? "not given yet"}</p> : null}
               <div className="mt-auto flex flex-wrap gap-2">
                 <Link to={`/app/leads/${job.id}/cut-sheet`} className="btn-primary">Cut sheet</Link>
-                <a href={`/app/leads/${job.id}/cut-sheet.pdf`} className="btn-quiet">PDF with cap template</a>
+                <a href={`/app/leads/${job.id}/cut-sheet.pdf`} className="btn-quiet" download>PDF with cap template</a>
                 <Link to={`/app/leads/${job.id}`} className="btn-quiet">Job details</Link>
               </div>
             </li>

@@ -15,7 +15,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     headers: {
       "Content-Type": "application/pdf",
       "Content-Length": String(pdf.byteLength),
-      "Content-Disposition": `inline; filename="cut-sheet-${sheet.leadId}-${slug}-${sheet.day}.pdf"`,
+      // A download, opened in the computer's own PDF viewer: it prints at actual size, and the site's
+      // strict Content-Security-Policy (object-src 'none') would keep a browser's built-in viewer out.
+      "Content-Disposition": `attachment; filename="cut-sheet-${sheet.leadId}-${slug}-${sheet.day}.pdf"`,
       "Cache-Control": "private, no-store",
     },
   });

@@ -37,7 +37,7 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
         </Link>
         <div className="flex flex-wrap gap-2">
           <PrintButton />
-          <a href={`/app/leads/${sheet.leadId}/cut-sheet.pdf`} className="btn-quiet">
+          <a href={`/app/leads/${sheet.leadId}/cut-sheet.pdf`} className="btn-quiet" download>
             PDF with full-size cap template
           </a>
         </div>

@@ -182,7 +182,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           <Link to={`/app/leads/${lead.id}/cut-sheet`} className="btn-primary">
             Cut sheet
           </Link>
-          <a href={`/app/leads/${lead.id}/cut-sheet.pdf`} className="btn-quiet">
+          <a href={`/app/leads/${lead.id}/cut-sheet.pdf`} className="btn-quiet" download>
             PDF with cap template
           </a>
           {isOffice ? (
