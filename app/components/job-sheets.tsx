@@ -20,7 +20,7 @@ export function CutListTables({ sections, headingLevel = 3 }: { sections: CutSec
             <tbody className="divide-y divide-ash-200">
               {section.rows.map((row) => (
                 <tr key={row.key} data-row={row.key}>
-                  <th scope="row" className="w-36 py-1.5 pr-3 align-top font-bold text-char-700 sm:w-48">
+                  <th scope="row" className="w-28 py-1.5 pr-3 align-top font-bold text-char-700 sm:w-48">
                     {row.label}
                   </th>
                   <td className="py-1.5 align-top tabular-nums">{row.value}</td>

@@ -284,7 +284,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                       {shown.labour.tasks.map((t) => (
                         <tr key={t.task}>
                           <td className="py-1 pr-2">{t.label}</td>
-                          <td className="py-1 text-right tabular-nums">{t.hours} h</td>
+                          <td className="py-1 text-right whitespace-nowrap tabular-nums">{t.hours} h</td>
                         </tr>
                       ))}
                     </tbody>
