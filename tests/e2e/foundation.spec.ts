@@ -9,8 +9,7 @@ test("the landing page explains the product and links to a contractor's page", a
 });
 
 test("the sign-in page shows one generic message for a wrong password", async ({ page }) => {
-  // A real account, but not the one the sign-in limit test counts failures on (limits last a minute).
-  await signIn(page, "owner@north-ridge.test", "not-the-password");
+  await signIn(page, "owner@cinder-slate.test", "not-the-password");
   await expect(page.getByRole("alert")).toHaveText("That e-mail and password do not match an account.");
   await signIn(page, "nobody@nowhere.test", "not-the-password");
   await expect(page.getByRole("alert")).toHaveText("That e-mail and password do not match an account.");
