@@ -1,3 +1,8 @@
+/*
+ * Working a request from its page. The pipeline and its rules are the product's own (common
+ * practice, no source); input is checked on the server with a message per field and nothing is
+ * half-written (OWASP ASVS 4.0.3 V5.1.3 and V11.1.4: validate every input, keep writes atomic).
+ */
 import { and, count, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { leadEvents, leadRevisions, leads, users, type Lead } from "~/db/schema";

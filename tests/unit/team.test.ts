@@ -1,3 +1,9 @@
+/*
+ * The owner's team page. Sources: OWASP ASVS 4.0.3 V3.3.1/V3.3.4 (ending a session must take effect
+ * on the server at once, so deactivation deletes every session row), V2.5 (one-time links stored
+ * only as hashes), V4.2.1 (another company's people are out of reach). The rule that an owner
+ * cannot demote or deactivate themself is the product's own (common practice, no source).
+ */
 import { count, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { emailOutbox, oneTimeTokens, sessions, users } from "~/db/schema";
