@@ -42,7 +42,8 @@ export async function loader({ request }: Route.LoaderArgs) {
     companyId: company.id,
     timeZone: company.timeZone,
     filters: parsed.filters,
-    unseenSince: me?.inboxSeenAt ?? null,
+    // Someone opening the inbox for the first time has no "last visit": nothing before now is marked.
+    unseenSince: me?.inboxSeenAt ?? now.toISOString(),
     now,
   });
   // Viewing the inbox is what "seen" means; the marks on this page still compare with the old time.

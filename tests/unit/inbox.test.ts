@@ -316,3 +316,13 @@ test("the consult column shows a confirmed booking in the company's time, and ig
   const cancelled = await page({ q: "Oyelaran" });
   expect(cancelled.rows[0]!.consult?.startsAt ?? null).not.toBe("2031-03-05T15:00:00.000Z");
 });
+
+test("someone opening the inbox for the first time sees nothing marked new, and the count agrees with the marks", async () => {
+  const [fresh] = await db.insert(users).values({ companyId, email: "first.visit@cinder-slate.test", name: "First Visit", role: "estimator" }).returning();
+  const { startSession } = await import("~/lib/session.server");
+  const cookie = (await startSession(fresh!.id)).split(";")[0]!;
+  const first = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox", cookie)))) as { inbox: InboxPage };
+  expect(first.inbox.unseenCount).toBe(0);
+  expect(first.inbox.rows.some((r) => r.isUnseen)).toBe(false);
+  expect(first.inbox.unseenSince).not.toBeNull();
+});

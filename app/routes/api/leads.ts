@@ -29,7 +29,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   let unseenSince = since?.success ? since.data : null;
   if (!since) {
     const [me] = await db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, user.id)).limit(1);
-    unseenSince = me?.inboxSeenAt ?? null;
+    // Never opened the inbox: nothing counts as unseen yet (as on the page itself).
+    unseenSince = me?.inboxSeenAt ?? new Date().toISOString();
   }
   const page = await loadInboxPage({ companyId: company.id, timeZone: company.timeZone, filters: parsed.filters, unseenSince });
   return Response.json(page, { headers: { "Cache-Control": "private, no-store" } });
