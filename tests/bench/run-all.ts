@@ -1,0 +1,426 @@
+/*
+ * Every speed measurement in one run, so the ratios compare like with like on whatever machine
+ * this is: the plan engine, HTTP load on loopback, server memory, the JS budget, the 3D preview
+ * in Chromium and Lighthouse. Prints one Markdown table and writes it to tests/bench/results/latest.md.
+ * Run: npm run bench   (builds first when build/ is missing; `--build` forces a fresh build)
+ * Every step has a time limit and every process it starts is ended, also on failure or Ctrl-C.
+ */
+import { existsSync } from "node:fs";
+import { mkdir, writeFile } from "node:fs/promises";
+import os from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+import { createClient } from "@libsql/client";
+import { checkBundles, NON_3D_ROUTE_BUDGET_KB } from "./bundle-budget";
+import { measureConfiguratorInBrowser, type StepTiming } from "./support/browser";
+import { CONNECTIONS, loadInterleaved, loadTest, type LoadResult, multipartBody } from "./support/http-load";
+import { runLighthouse } from "./support/lighthouse";
+import { killAllNow, residentMiB, runToEnd, stopAll, withTimeout } from "./support/processes";
+import { type BenchServer, signIn, startBenchServer } from "./support/server";
+
+const ROOT = path.resolve(fileURLToPath(new URL("../..", import.meta.url)));
+const RESULTS_FILE = path.join(ROOT, "tests/bench/results/latest.md");
+const TSX = path.join(ROOT, "node_modules/.bin/tsx");
+const TOTAL_LIMIT_MS = 280_000;
+const LOAD_SECONDS = 8;
+const LEAD_LOAD_SECONDS = 5;
+const COMPANY = "cinder-slate";
+const OWNER = { email: "owner@cinder-slate.test", password: "ember-demo-2026" };
+
+type Verdict = "pass" | "MISS" | "info" | "skipped" | "error";
+type Row = { measure: string; result: string; budget: string; verdict: Verdict };
+const rows: Row[] = [];
+const notes: string[] = [];
+const add = (measure: string, result: string, budget: string, verdict: Verdict) => rows.push({ measure, result, budget, verdict });
+const check = (isWithin: boolean): Verdict => (isWithin ? "pass" : "MISS");
+
+const fmt = (n: number, digits = 0) => n.toLocaleString("en-US", { minimumFractionDigits: digits, maximumFractionDigits: digits });
+const ms = (n: number) => (n >= 100 ? fmt(n) : fmt(n, 1));
+
+/** Runs one step with a time limit; a failure becomes an "error" row and the run goes on. */
+async function step(label: string, limitMs: number, work: () => Promise<void>): Promise<boolean> {
+  const started = Date.now();
+  process.stderr.write(`bench: ${label}…\n`);
+  try {
+    await withTimeout(label, limitMs, work);
+    process.stderr.write(`bench: ${label} done in ${((Date.now() - started) / 1000).toFixed(1)} s\n`);
+    return true;
+  } catch (error) {
+    const message = (error as Error).message.split("\n")[0]!.slice(0, 200);
+    process.stderr.write(`bench: ${label} FAILED: ${(error as Error).stack ?? message}\n`);
+    add(label, `failed: ${message}`, "", "error");
+    return false;
+  }
+}
+
+/** The last JSON object a child printed (the bench scripts print one). */
+function lastJson(stdout: string): Record<string, unknown> | null {
+  const starts = [...stdout.matchAll(/^\{/gm)].map((m) => m.index!).reverse();
+  for (const start of starts) {
+    const end = stdout.lastIndexOf("}");
+    try {
+      return JSON.parse(stdout.slice(start, end + 1)) as Record<string, unknown>;
+    } catch {
+      // Try an earlier opening brace.
+    }
+  }
+  return null;
+}
+
+async function benchEngine() {
+  const run = await runToEnd(TSX, ["tests/bench/plan-engine.bench.ts"], { cwd: ROOT, timeoutMs: 60_000 });
+  const out = lastJson(run.stdout);
+  if (run.code !== 0 || !out) throw new Error(`plan-engine.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${run.stderr.slice(0, 300)}`);
+  add("Plan engine, whole plans per second (one core)", `${fmt(Number(out.plansPerSecond))} plans/s`, "", "info");
+  add("Plan engine, p99 per whole plan", `${fmt(Number(out.p99Us), 1)} µs (p50 ${fmt(Number(out.p50Us), 1)} µs)`, "< 1 ms", check(Number(out.p99Us) < 1000));
+}
+
+async function benchInbox() {
+  const file = path.join(ROOT, "tests/bench/inbox.bench.ts");
+  const measure = "Inbox first page from the server, 10,000 leads (p95)";
+  if (!existsSync(file)) {
+    // Trees older than the inbox bench have nothing to run here.
+    add(measure, "not measured: tests/bench/inbox.bench.ts does not exist yet", "< 50 ms", "skipped");
+    return;
+  }
+  if (!existsSync(path.join(ROOT, "app/routes/app-inbox.tsx"))) {
+    add(measure, "not measured: the inbox route (app/routes/app-inbox.tsx) is not in this tree yet", "< 50 ms", "skipped");
+    return;
+  }
+  const run = await runToEnd(TSX, ["tests/bench/inbox.bench.ts"], { cwd: ROOT, timeoutMs: 120_000 });
+  const out = lastJson(run.stdout);
+  if (run.code !== 0 || !out) throw new Error(`inbox.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${(run.stderr || run.stdout).slice(-300)}`);
+  const num = (key: string) => (typeof out[key] === "number" ? (out[key] as number) : null);
+  const p95Key = "firstPageP95Ms" in out ? "firstPageP95Ms" : Object.keys(out).find((k) => /p95/i.test(k));
+  if (!p95Key || num(p95Key) === null) throw new Error(`inbox.bench.ts printed no p95 figure: ${JSON.stringify(out).slice(0, 200)}`);
+  const p95 = num(p95Key)!;
+  const p50 = num("firstPageP50Ms");
+  add(
+    measure,
+    `${ms(p95)} ms${p50 !== null ? ` (p50 ${ms(p50)} ms)` : ""}; the inbox loader called in-process over ${fmt(num("leads") ?? 10_000)} leads`,
+    "< 50 ms",
+    check(p95 < 50),
+  );
+  const cases: [string, string][] = [
+    ["filteredPageP95Ms", "status + assignee"],
+    ["dateRangeByPriceP95Ms", "date range by price"],
+    ["searchP95Ms", "name search"],
+    ["page300P95Ms", "page 300"],
+    ["sortedByNameP95Ms", "sorted by name"],
+  ];
+  const others = cases.flatMap(([key, label]) => (num(key) === null ? [] : [`${label} ${ms(num(key)!)} ms`]));
+  if (others.length) add("Inbox with 10,000 leads, other views (p95)", others.join(", "), "", "info");
+}
+
+function loadRow(measure: string, r: LoadResult, budget = "", verdict: Verdict = "info") {
+  const errors = r.failed ? `, **${fmt(r.failed)} errors** (${JSON.stringify(r.statusCounts)})` : ", 0 errors";
+  add(measure, `${fmt(r.rps)} req/s, p50 ${ms(r.p50Ms)} ms, p99 ${ms(r.p99Ms)} ms${errors}`, budget, r.failed ? "MISS" : verdict);
+}
+
+async function countLeads(databaseFile: string): Promise<number> {
+  const client = createClient({ url: `file:${databaseFile}` });
+  try {
+    const result = await client.execute({
+      sql: "select count(*) as n from leads where company_id = (select id from companies where slug = ?)",
+      args: [COMPANY],
+    });
+    return Number(result.rows[0]!.n);
+  } finally {
+    client.close();
+  }
+}
+
+type Session = { cookie: string | null; inboxBuilt: boolean };
+
+async function benchHttp(server: BenchServer, session: Session) {
+  const { origin } = server;
+  const catalogRes = await fetch(`${origin}/api/catalog/${COMPANY}`);
+  if (!catalogRes.ok) throw new Error(`GET /api/catalog/${COMPANY} answered ${catalogRes.status}`);
+  const { items } = (await catalogRes.json()) as { items: { id: number; kind: string; faceIn?: number; backIn?: number }[] };
+  const first = (kind: string, ok: (i: (typeof items)[number]) => boolean = () => true) => {
+    const item = items.find((i) => i.kind === kind && ok(i));
+    if (!item) throw new Error(`The ${COMPANY} catalog has no ${kind}.`);
+    return { id: item.id };
+  };
+  // A whole job as the configurator sends it: catalog parts, firebrick liner and an 8 ft patio.
+  const planBody = JSON.stringify({
+    company: COMPANY,
+    ring: { unitCount: 14 },
+    wallUnit: first("wall-unit", (i) => (i.faceIn ?? 0) > (i.backIn ?? 0)),
+    courses: 3,
+    cap: { ...first("cap"), innerOverhangIn: 1 },
+    liner: first("firebrick"),
+    patio: { outsideRadiusIn: 96, border: first("border-unit"), paver: first("paver") },
+  });
+
+  // The same job with every part given inline: no catalog reads, so the gap between the two plan
+  // rows is what the database lookups cost.
+  const inlineBody = JSON.stringify({
+    ring: { unitCount: 14 },
+    wallUnit: { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, priceCents: 485 },
+    courses: 3,
+    cap: { lengthIn: 16, depthIn: 12, thicknessIn: 2.5, innerOverhangIn: 1, priceCents: 950 },
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310 },
+    patio: { outsideRadiusIn: 96, border: { widthIn: 4, lengthIn: 8, priceCents: 80 }, paver: { lengthIn: 9, widthIn: 6, priceCents: 95 } },
+  });
+  const postJson = (body: string) => ({ url: `${origin}/api/plan`, method: "POST", headers: { "Content-Type": "application/json", Origin: origin }, body });
+  for (const body of [planBody, inlineBody]) {
+    const probe = await fetch(`${origin}/api/plan`, { method: "POST", headers: postJson(body).headers, body });
+    if (!probe.ok) throw new Error(`POST /api/plan answered ${probe.status}: ${(await probe.text()).slice(0, 200)}`);
+  }
+  const [health, plan, inline] = await loadInterleaved([{ url: `${origin}/api/health` }, postJson(planBody), postJson(inlineBody)], LOAD_SECONDS);
+  loadRow("GET /api/health (bare JSON route, the baseline)", health);
+  loadRow("POST /api/plan, parts as catalog ids (liner, patio)", plan);
+  const ratio = plan.rps / health.rps;
+  add("Plan API ÷ bare JSON route, requests/s (alternating 2 s slices)", fmt(ratio, 2), "≥ 0.5", check(ratio >= 0.5));
+  loadRow("POST /api/plan, the same job with inline sizes (no catalog reads)", inline);
+  add("Plan API with inline sizes ÷ bare JSON route", fmt(inline.rps / health.rps, 2), "", "info");
+
+  const page = await loadTest({ url: `${origin}/c/${COMPANY}` }, LOAD_SECONDS);
+  loadRow(`GET /c/${COMPANY} (configurator, server-rendered)`, page);
+
+  if (session.cookie && session.inboxBuilt) {
+    const inbox = await loadTest({ url: `${origin}/app/inbox`, headers: { Cookie: session.cookie } }, LOAD_SECONDS);
+    loadRow("GET /app/inbox (owner signed in, demo data)", inbox);
+  } else {
+    add("GET /app/inbox (owner signed in)", session.cookie ? "skipped: /app/inbox answers 404 in this build" : "skipped: sign-in failed", "", "skipped");
+  }
+
+  const before = await countLeads(server.databaseFile);
+  let sequence = 0;
+  const leadForm = () =>
+    multipartBody({
+      customerName: "Bench Homeowner",
+      // A fresh address per request, so each request also creates its homeowner account.
+      email: `bench-${process.pid}-${++sequence}@example.test`,
+      phone: "555-010-2030",
+      street: "12 Quarry Lane",
+      town: "Millbrook",
+      buildWindow: "this-season",
+      consent: "on",
+      design: "units=14",
+    });
+  const { contentType } = leadForm();
+  const leads = await loadTest(
+    {
+      url: `${origin}/c/${COMPANY}`,
+      requests: [{ method: "POST", headers: { "Content-Type": contentType, Origin: origin }, setupRequest: (request) => ({ ...request, body: leadForm().body }) }],
+    },
+    LEAD_LOAD_SECONDS,
+    0,
+  );
+  loadRow(`POST /c/${COMPANY} lead requests (multipart, ${LEAD_LOAD_SECONDS} s)`, leads, "0 errors", "pass");
+  // Requests cut off by the end of the run may still be committed: give them a moment.
+  await new Promise((r) => setTimeout(r, 1500));
+  const stored = (await countLeads(server.databaseFile)) - before;
+  const inFlight = stored - leads.ok;
+  add(
+    "Lead requests stored vs acknowledged (302)",
+    `${fmt(stored)} new leads in the database for ${fmt(leads.ok)} acknowledged${inFlight > 0 ? ` (+${inFlight} cut off in flight at the stop)` : ""}`,
+    "every acknowledged lead stored",
+    check(stored >= leads.ok && inFlight <= CONNECTIONS),
+  );
+}
+
+async function benchBundles() {
+  const report = await checkBundles(path.join(ROOT, "build"));
+  const flat = report.routes.filter((r) => !r.shows3d);
+  const largest = flat[0];
+  if (largest) {
+    add(
+      "Largest initial JS of a route without 3D (gzipped)",
+      `${fmt(largest.initialKb, 1)} kB (${largest.url}); smallest ${fmt(flat[flat.length - 1]!.initialKb, 1)} kB; ${flat.length} routes`,
+      `≤ ${NON_3D_ROUTE_BUDGET_KB} kB`,
+      check(flat.every((r) => r.initialKb <= NON_3D_ROUTE_BUDGET_KB)),
+    );
+  }
+  const withThree = report.routes.filter((r) => r.threeFiles.length);
+  add(
+    "Routes whose initial JS carries three.js",
+    withThree.length ? withThree.map((r) => `${r.url}: ${r.threeFiles.join(", ")}`).join("; ") : `none of ${report.routes.length}`,
+    "none",
+    check(withThree.length === 0),
+  );
+  const with3d = report.routes.filter((x) => x.shows3d);
+  const configurator = with3d.find((r) => r.id === "routes/configurator");
+  if (configurator) {
+    add("Initial JS of the configurator /c/:companySlug (gzipped)", `${fmt(configurator.initialKb, 1)} kB`, "no three.js before hydration", check(configurator.threeFiles.length === 0));
+    add("Lazy 3D preview chunk (gzipped, after hydration)", `${fmt(configurator.lazy3dKb, 1)} kB (${configurator.lazy3dFiles.join(", ")})`, "not in initial JS", check(configurator.threeFiles.length === 0));
+  }
+  const others = with3d.filter((r) => r !== configurator);
+  if (others.length) {
+    add(
+      "Other routes with the lazy 3D preview, initial JS (gzipped)",
+      others.map((r) => `${r.url} ${fmt(r.initialKb, 1)} kB`).join(", "),
+      "no three.js before hydration",
+      check(others.every((r) => r.threeFiles.length === 0)),
+    );
+  }
+  if (report.breaches.length) notes.push(`Bundle budget breaches: ${report.breaches.join("; ")}`);
+}
+
+async function benchBrowser(origin: string) {
+  const figures = await measureConfiguratorInBrowser(origin);
+  add(
+    "3D preview draw calls, whole pit with patio and firebrick",
+    `${figures.drawCalls} calls, ${fmt(figures.triangles)} triangles`,
+    "< 30",
+    check(figures.drawCalls < 30),
+  );
+  const bySpeed = [...figures.steps].sort((a, b) => a.totalMs - b.totalMs);
+  const median = bySpeed[Math.floor(bySpeed.length / 2)]!;
+  const worst = bySpeed[bySpeed.length - 1]!;
+  const split = (t: StepTiming) =>
+    Number.isFinite(t.requestMs)
+      ? `${ms(t.waitMs)} ms before the request, ${ms(t.requestMs)} ms request, ${ms(t.renderMs)} ms to the painted frame`
+      : "no timing entry for its plan request";
+  add(
+    "Plan on screen after a slider step (keydown to painted frame)",
+    `median ${ms(median.totalMs)} ms (${split(median)}), worst ${ms(worst.totalMs)} ms; ${figures.steps.length} steps: ${figures.steps.map((t) => Math.round(t.totalMs)).join(", ")} ms`,
+    "< 100 ms",
+    check(worst.totalMs < 100),
+  );
+}
+
+async function benchLighthouse(origin: string, session: Session) {
+  const pages: { name: string; label: string; url: string; headers?: Record<string, string>; lcpBudgetMs?: number }[] = [
+    { name: "landing", label: "Lighthouse mobile, landing page /", url: `${origin}/` },
+    { name: "configurator", label: `Lighthouse mobile, configurator /c/${COMPANY}`, url: `${origin}/c/${COMPANY}`, lcpBudgetMs: 1500 },
+  ];
+  if (session.cookie && session.inboxBuilt) {
+    pages.push({ name: "inbox", label: "Lighthouse mobile, inbox /app/inbox (signed in)", url: `${origin}/app/inbox`, headers: { Cookie: session.cookie } });
+  }
+  await mkdir(path.dirname(RESULTS_FILE), { recursive: true });
+  const figures = await runLighthouse(pages, path.dirname(RESULTS_FILE));
+  figures.forEach((f, i) => {
+    const p = pages[i]!;
+    if (f instanceof Error) {
+      add(p.label, `failed: ${f.message.slice(0, 200)}`, p.lcpBudgetMs ? `LCP < ${fmt(p.lcpBudgetMs / 1000, 1)} s` : "", "error");
+      return;
+    }
+    add(
+      p.label,
+      `score ${f.score}, LCP ${fmt(f.lcpMs / 1000, 2)} s, CLS ${fmt(f.cls, 3)} (FCP ${fmt(f.fcpMs / 1000, 2)} s, TBT ${fmt(f.tbtMs)} ms)`,
+      p.lcpBudgetMs ? `LCP < ${fmt(p.lcpBudgetMs / 1000, 1)} s` : "",
+      p.lcpBudgetMs ? check(f.lcpMs < p.lcpBudgetMs) : "info",
+    );
+  });
+  const auditErrors = [...new Set(figures.flatMap((f) => (f instanceof Error ? [] : f.auditErrors)))];
+  if (auditErrors.length) {
+    notes.push(
+      `Lighthouse could not compute ${auditErrors.length} diagnostic audits (the scores and metrics above are computed); first: ${auditErrors[0]!.slice(0, 160)}`,
+    );
+  }
+  if (!session.inboxBuilt) add("Lighthouse mobile, inbox /app/inbox", "skipped: /app/inbox answers 404 in this build", "", "skipped");
+}
+
+/** Load average over the last minute, as a hint of what else the machine was doing. */
+const loadAverage = () => os.loadavg()[0]!.toFixed(1);
+
+async function describeMachine() {
+  const git = await runToEnd("git", ["rev-parse", "--short", "HEAD"], { cwd: ROOT, timeoutMs: 10_000 });
+  const cpu = os.cpus()[0]?.model.trim() ?? "unknown CPU";
+  return {
+    date: new Date().toISOString().slice(0, 16).replace("T", " ") + " UTC",
+    machine: `${os.availableParallelism()} cores (nproc), ${cpu}, Node ${process.version}, ${os.platform()} ${os.release()}`,
+    commit: git.code === 0 ? git.stdout.trim() : "unknown",
+    loadAtStart: loadAverage(),
+  };
+}
+
+function renderTable(info: Awaited<ReturnType<typeof describeMachine>>): string {
+  const cell = (s: string) => s.replace(/\|/g, "\\|");
+  const lines = [
+    `Measured ${info.date} on ${info.machine}; commit ${info.commit}. ${CONNECTIONS} autocannon connections, ${LOAD_SECONDS} s per GET/plan load, ${LEAD_LOAD_SECONDS} s of lead requests, all on 127.0.0.1. One-minute load average ${info.loadAtStart} at the start, ${loadAverage()} at the end.`,
+    "",
+    "| measure | result | budget | verdict |",
+    "| --- | --- | --- | --- |",
+    ...rows.map((r) => `| ${cell(r.measure)} | ${cell(r.result)} | ${cell(r.budget || "—")} | ${r.verdict} |`),
+  ];
+  if (notes.length) lines.push("", ...notes.map((n) => `- ${n}`));
+  return `${lines.join("\n")}\n`;
+}
+
+async function main() {
+
+  if (process.argv.includes("--build") || !existsSync(path.join(ROOT, "build/server/index.js"))) {
+    await step("Production build (npm run build)", 180_000, async () => {
+      const build = await runToEnd("npm", ["run", "--silent", "build"], { cwd: ROOT, timeoutMs: 170_000 });
+      if (build.code !== 0) throw new Error(`npm run build failed: ${(build.stderr || build.stdout).slice(-400)}`);
+    });
+  }
+
+  await step("Plan engine", 60_000, benchEngine);
+  await step("Inbox bench", 130_000, benchInbox);
+  await step("Bundle budget", 30_000, benchBundles);
+
+  let server: BenchServer | null = null;
+  try {
+    await step("Start the production server", 120_000, async () => {
+      server = await startBenchServer(ROOT);
+    });
+    if (!server) return;
+    const s: BenchServer = server;
+    const idleMiB = await residentMiB(s.pid);
+
+    const session: Session = { cookie: null, inboxBuilt: false };
+    await step("Owner sign-in", 20_000, async () => {
+      session.cookie = await signIn(s.origin, OWNER.email, OWNER.password);
+      const inbox = await fetch(`${s.origin}/app/inbox`, { headers: { Cookie: session.cookie }, redirect: "manual" });
+      session.inboxBuilt = inbox.status !== 404;
+      if (session.inboxBuilt && inbox.status !== 200) throw new Error(`GET /app/inbox as the owner answered ${inbox.status}`);
+    });
+
+    await step("HTTP load", 120_000, () => benchHttp(s, session));
+    const loadedMiB = await residentMiB(s.pid);
+    add("Server resident memory (VmRSS), idle after start", idleMiB === null ? "unreadable" : `${fmt(idleMiB, 1)} MiB`, "", "info");
+    add("Server resident memory (VmRSS), after the HTTP load", loadedMiB === null ? "unreadable" : `${fmt(loadedMiB, 1)} MiB`, "", "info");
+
+    await step("3D preview in Chromium", 90_000, () => benchBrowser(s.origin));
+    await step("Lighthouse", 180_000, () => benchLighthouse(s.origin, session));
+    const endMiB = await residentMiB(s.pid);
+    add("Server resident memory (VmRSS), at the end of the run", endMiB === null ? "unreadable" : `${fmt(endMiB, 1)} MiB`, "", "info");
+  } finally {
+    if (server) await (server as BenchServer).stop();
+  }
+}
+
+process.on("exit", killAllNow);
+for (const signal of ["SIGINT", "SIGTERM"] as const) {
+  process.on(signal, () => {
+    process.stderr.write(`bench: ${signal}, stopping every process it started\n`);
+    void stopAll().finally(() => process.exit(130));
+  });
+}
+const info = await describeMachine();
+
+async function report() {
+  const table = renderTable(info);
+  await mkdir(path.dirname(RESULTS_FILE), { recursive: true });
+  await writeFile(RESULTS_FILE, table);
+  console.log(table);
+  console.log(`Written to ${path.relative(ROOT, RESULTS_FILE)}`);
+}
+
+const watchdog = setTimeout(() => {
+  process.stderr.write(`bench: over ${TOTAL_LIMIT_MS / 1000} s in all, stopping\n`);
+  notes.push(`The run was stopped after ${TOTAL_LIMIT_MS / 1000} s; the rows above are what it had measured by then.`);
+  void report()
+    .catch(() => undefined)
+    .then(() => stopAll())
+    .finally(() => process.exit(2));
+}, TOTAL_LIMIT_MS);
+
+let exitCode = 0;
+try {
+  await main();
+  await report();
+  if (rows.some((r) => r.verdict === "error")) exitCode = 1;
+} catch (error) {
+  console.error(error);
+  exitCode = 1;
+} finally {
+  clearTimeout(watchdog);
+  await stopAll();
+}
+process.exit(exitCode);

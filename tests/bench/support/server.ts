@@ -1,0 +1,106 @@
+/*
+ * The production server as the end-to-end tests run it (scripts/e2e-server.sh): a fresh database
+ * under data/bench with the demo seed, the local fakes, NODE_ENV=production and react-router-serve
+ * on 127.0.0.1 at a free port. Only the per-address form limit is raised, so the lead-request load
+ * measures the server rather than the limiter.
+ */
+import type { ChildProcess } from "node:child_process";
+import { mkdir, rm } from "node:fs/promises";
+import path from "node:path";
+import { freePort, runToEnd, startProcess, stopProcess } from "./processes";
+
+export type BenchServer = {
+  origin: string;
+  pid: number;
+  databaseFile: string;
+  stop: () => Promise<void>;
+  recentOutput: () => string;
+};
+
+const READY_TIMEOUT_MS = 30_000;
+const SETUP_TIMEOUT_MS = 90_000;
+
+/** Migrates and seeds a fresh bench database, then starts the fakes and the server and waits for /api/health. */
+export async function startBenchServer(root: string): Promise<BenchServer> {
+  const dataDir = path.join(root, "data", "bench");
+  await rm(dataDir, { recursive: true, force: true });
+  await mkdir(dataDir, { recursive: true });
+  const [port, emailPort, paymentsPort] = [await freePort(), await freePort(), await freePort()];
+  const databaseFile = path.join(dataDir, "emberwright.db");
+  const env: NodeJS.ProcessEnv = {
+    ...process.env,
+    DATABASE_URL: `file:${databaseFile}`,
+    UPLOADS_DIR: path.join(dataDir, "uploads"),
+    PAYMENTS_FAKE_STATE: path.join(dataDir, "payments-fake.json"),
+    SESSION_SECRET: "bench-secret-0123456789abcdef0123456789abcdef",
+    PORT: String(port),
+    HOST: "127.0.0.1",
+    EMAIL_FAKE_PORT: String(emailPort),
+    PAYMENTS_FAKE_PORT: String(paymentsPort),
+    PUBLIC_FORM_LIMIT: "100000",
+  };
+  delete env.NODE_ENV;
+  for (const script of ["scripts/migrate.ts", "scripts/seed.ts"]) {
+    const result = await runToEnd(path.join(root, "node_modules/.bin/tsx"), [script], { cwd: root, env, timeoutMs: SETUP_TIMEOUT_MS });
+    if (result.code !== 0) throw new Error(`${script} failed (${result.timedOut ? "timed out" : `exit ${result.code}`}):\n${result.stderr || result.stdout}`);
+  }
+
+  // The same steps as the e2e server script; `exec` makes the shell's pid the server's own pid,
+  // so /proc/<pid> reads the server, while the fakes stay in the same process group.
+  const shell = [
+    "set -euo pipefail",
+    "pids=()",
+    "source scripts/start-fakes.sh",
+    "exec node_modules/.bin/react-router-serve ./build/server/index.js",
+  ].join("\n");
+  const child = startProcess("bash", ["-c", shell], { cwd: root, env: { ...env, NODE_ENV: "production" } });
+  let output = "";
+  const keep = (chunk: Buffer) => {
+    output = (output + chunk.toString()).slice(-20_000);
+  };
+  child.stdout?.on("data", keep);
+  child.stderr?.on("data", keep);
+
+  const origin = `http://127.0.0.1:${port}`;
+  try {
+    await waitForHealth(origin, child);
+  } catch (error) {
+    await stopProcess(child);
+    throw new Error(`${(error as Error).message}\nServer output:\n${output}`);
+  }
+  return {
+    origin,
+    pid: child.pid!,
+    databaseFile,
+    stop: () => stopProcess(child),
+    recentOutput: () => output,
+  };
+}
+
+async function waitForHealth(origin: string, child: ChildProcess): Promise<void> {
+  const deadline = Date.now() + READY_TIMEOUT_MS;
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`The server exited with code ${child.exitCode} before it was ready.`);
+    try {
+      const res = await fetch(`${origin}/api/health`);
+      if (res.ok) return;
+    } catch {
+      // Not listening yet.
+    }
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  throw new Error(`The server did not answer ${origin}/api/health within ${READY_TIMEOUT_MS / 1000} s.`);
+}
+
+/** Signs in through the login form like a browser would and returns the session cookie ("name=value"). */
+export async function signIn(origin: string, email: string, password: string): Promise<string> {
+  const res = await fetch(`${origin}/login`, {
+    method: "POST",
+    headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: origin },
+    body: new URLSearchParams({ email, password }).toString(),
+    redirect: "manual",
+  });
+  const setCookie = res.headers.getSetCookie().find((c) => c.includes("="));
+  if (!setCookie || res.status >= 400) throw new Error(`Sign-in as ${email} answered ${res.status} without a session cookie.`);
+  return setCookie.split(";")[0]!;
+}
