@@ -33,8 +33,32 @@ export async function findCatalogItem(companyId: number, itemId: number): Promis
   return row ?? null;
 }
 
+// The plan API reads a company and its offered stock on every request; both change rarely. Each
+// process keeps them a few seconds, and writes through this module (or settings) drop them at once.
+const CATALOG_CACHE_MS = 5_000;
+const offeredCache = new Map<string, { at: number; value: Promise<{ company: Company; catalog: CatalogItem[] } | null> }>();
+
+/** A company by slug with its active catalog, cached briefly in this process; null for no such company. */
+export function loadOfferedCatalog(slug: string): Promise<{ company: Company; catalog: CatalogItem[] } | null> {
+  const hit = offeredCache.get(slug);
+  if (hit && Date.now() - hit.at < CATALOG_CACHE_MS) return hit.value;
+  const value = (async () => {
+    const company = await findCompanyBySlug(slug);
+    return company ? { company, catalog: await listCatalog(company.id, { activeOnly: true }) } : null;
+  })();
+  offeredCache.set(slug, { at: Date.now(), value });
+  value.catch(() => offeredCache.delete(slug));
+  return value;
+}
+
+/** Forgets cached catalogs (after a catalog or company settings change). */
+export function forgetOfferedCatalogs(): void {
+  offeredCache.clear();
+}
+
 export async function createCatalogItem(companyId: number, input: CatalogItemInput): Promise<number> {
   const [row] = await db.insert(catalogItems).values({ ...input, companyId }).returning({ id: catalogItems.id });
+  forgetOfferedCatalogs();
   return row!.id;
 }
 
@@ -45,5 +69,6 @@ export async function updateCatalogItem(companyId: number, itemId: number, input
     .set({ ...input, updatedAt: new Date().toISOString() })
     .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.id, itemId)))
     .returning({ id: catalogItems.id });
+  forgetOfferedCatalogs();
   return rows.length === 1;
 }

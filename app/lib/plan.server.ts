@@ -1,7 +1,7 @@
 import type { CatalogItem, CatalogKind, Company } from "~/db/schema";
 import type { CompanyFactors, SupplyPrices } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type CapInput, type LinerInput, type Plan, type PlanInput, type PatioInput, type WallUnitInput } from "~/domain/plan";
-import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
+import { loadOfferedCatalog } from "~/lib/catalog.server";
 import { isCatalogRef, type PlanFieldError, type PlanRequest } from "~/lib/plan-schema";
 
 /** The engine's factors for a company: its settings over the defaults, plus its own overrides. */
@@ -49,11 +49,12 @@ type Resolved = { input: PlanInput; factors?: Partial<CompanyFactors>; supplyPri
  * sizes and prices (active items only, of the right kind). Unknown ids answer 422 naming the field.
  */
 export async function resolvePlanRequest(request: PlanRequest): Promise<Resolved> {
-  const company = request.company ? await findCompanyBySlug(request.company) : null;
-  if (request.company && !company) {
+  const offered = request.company ? await loadOfferedCatalog(request.company) : null;
+  if (request.company && !offered) {
     throw new PlanRequestError(404, [{ path: "company", message: "No contractor has that address." }]);
   }
-  const catalog = company ? await listCatalog(company.id, { activeOnly: true }) : [];
+  const company = offered?.company ?? null;
+  const catalog = offered?.catalog ?? [];
   const pick = (path: string, id: number, kinds: CatalogKind[]): CatalogItem => {
     const item = catalog.find((i) => i.id === id && kinds.includes(i.kind));
     if (!item) {

@@ -1,14 +1,14 @@
-import { useEffect, useRef, useState } from "react";
-import { data, Form, Link, redirect, useFetcher, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
+import { data, Form, Link, redirect, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/app-lead-design";
 import { DesignControls } from "~/components/configurator/design-controls";
+import { useLivePlan } from "~/components/configurator/use-live-plan";
 import { PitPreview } from "~/components/pit-preview";
 import { FormAlert } from "~/components/ui/field";
 import { formatLength, type LengthUnit } from "~/domain/units";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
 import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
-import { designToSearchParams, parseDesign, type Design } from "~/lib/design";
-import { describePreview, designToPlanRequest, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { designToSearchParams, parseDesign } from "~/lib/design";
+import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { checkDesignParams } from "~/lib/design-schema";
 import { currentVersion, saveRevision } from "~/lib/lead-workspace.server";
 import type { PlanFieldError } from "~/lib/plan-schema";
@@ -64,38 +64,15 @@ export function shouldRevalidate({ formAction, defaultShouldRevalidate }: Should
   return formAction === "/api/plan" ? false : defaultShouldRevalidate;
 }
 
-const UPDATE_DELAY_MS = 60;
-
 export default function LeadDesignRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { lead, company, catalog } = loaderData;
-  const [design, setDesign] = useState<Design | null>(loaderData.design);
-  const [plan, setPlan] = useState<PublicPlan | null>(loaderData.plan);
-  const [planErrors, setPlanErrors] = useState<PlanFieldError[]>(loaderData.planErrors);
-  const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
-  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({ initial: loaderData, companySlug: company.slug, catalog });
   const navigation = useNavigation();
   const errors: Record<string, string> = actionData?.errors ?? {};
-
-  useEffect(() => {
-    if (!fetcher.data) return;
-    if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
-    else {
-      setPlan(fetcher.data);
-      setPlanErrors([]);
-    }
-  }, [fetcher.data]);
 
   if (!design) {
     return <p className="card p-6">Your catalog offers no wall stone, so there is nothing to design with.</p>;
   }
-  const changeDesign = (patch: Partial<Design>) => {
-    const next = { ...design, ...patch };
-    setDesign(next);
-    if (timer.current) clearTimeout(timer.current);
-    timer.current = setTimeout(() => {
-      fetcher.submit(designToPlanRequest(next, company.slug, catalog) as never, { method: "post", action: "/api/plan", encType: "application/json" });
-    }, UPDATE_DELAY_MS);
-  };
   const f = (inches: number) => formatLength(inches, design.unit);
 
   return (
@@ -122,7 +99,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
               {planErrors.map((e) => e.message).join(" ")}
             </p>
           ) : null}
-          {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
+          {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
         </div>
         <div className="card p-5 lg:sticky lg:top-4">
           <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} onChange={changeDesign} />

@@ -3,7 +3,7 @@ import { data, Form, redirect, useNavigation, useSearchParams } from "react-rout
 import type { Route } from "./+types/app-settings";
 import { SelectField, TextField } from "~/components/ui/field";
 import { companies } from "~/db/schema";
-import { getCompany } from "~/lib/catalog.server";
+import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog.server";
 import { companySettingsSchema, timeZoneList } from "~/lib/company-schema";
 import { db } from "~/lib/db.server";
 import { requireUser } from "~/lib/session.server";
@@ -29,6 +29,7 @@ export async function action({ request }: Route.ActionArgs) {
     .update(companies)
     .set({ ...rest, consultFeeCents: consultFee, labourRateCents: labourRate })
     .where(eq(companies.id, user.companyId));
+  forgetOfferedCatalogs();
   return redirect("/app/settings?saved=1");
 }
 

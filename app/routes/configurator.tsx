@@ -1,16 +1,17 @@
-import { useEffect, useRef, useState } from "react";
-import { data, Form, redirect, useFetcher, type ShouldRevalidateFunctionArgs } from "react-router";
+import { useEffect, useState } from "react";
+import { data, Form, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/configurator";
 import { DesignControls } from "~/components/configurator/design-controls";
 import { PlanResults } from "~/components/configurator/plan-results";
+import { useLivePlan } from "~/components/configurator/use-live-plan";
 import { RequestForm } from "~/components/configurator/request-form";
 import { PitPreview } from "~/components/pit-preview";
 import { PublicShell } from "~/components/public-shell";
 import { formatLength } from "~/domain/units";
 import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
 import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
-import { designToSearchParams, parseDesign, type Design } from "~/lib/design";
-import { describePreview, designToPlanRequest, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { designToSearchParams, parseDesign } from "~/lib/design";
+import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
 import { fieldErrors, leadFormSchema } from "~/lib/lead-schema";
@@ -103,37 +104,24 @@ export async function action({ request, params }: Route.ActionArgs) {
   return redirect(`/c/${company.slug}/sent/${lead.ref}`);
 }
 
-// The plan API answers the live updates itself; re-running this loader after each would be waste.
-export function shouldRevalidate({ formAction, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
-  return formAction === "/api/plan" ? false : defaultShouldRevalidate;
+// The plan API answers the live updates itself, and a refused request form changes nothing the
+// loader reads: re-running it would only reset the design to the address React Router last saw.
+export function shouldRevalidate({ formAction, formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  return formAction === "/api/plan" || formMethod === "POST" ? false : defaultShouldRevalidate;
 }
-
-const UPDATE_DELAY_MS = 60;
 
 export default function ConfiguratorRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { company, catalog } = loaderData;
-  const [design, setDesign] = useState<Design | null>(loaderData.design);
-  const [plan, setPlan] = useState<PublicPlan | null>(loaderData.plan);
-  const [planErrors, setPlanErrors] = useState<PlanFieldError[]>(loaderData.planErrors);
   const [isHydrated, setIsHydrated] = useState(false);
-  const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
-  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
-
   useEffect(() => setIsHydrated(true), []);
-  useEffect(() => {
-    setDesign(loaderData.design);
-    setPlan(loaderData.plan);
-    setPlanErrors(loaderData.planErrors);
-  }, [loaderData]);
-  useEffect(() => {
-    // A newer submission cancels an older one, so only the latest design's answer lands here.
-    if (!fetcher.data) return;
-    if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
-    else {
-      setPlan(fetcher.data);
-      setPlanErrors([]);
-    }
-  }, [fetcher.data]);
+  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({
+    initial: loaderData,
+    companySlug: company.slug,
+    catalog,
+    // Keep the design in the address bar (bookmark, share, reload) without a navigation.
+    onDesignChange: (next) =>
+      window.history.replaceState(window.history.state, "", `${window.location.pathname}?${designToSearchParams(next).toString()}`),
+  });
 
   if (!design) {
     return (
@@ -147,21 +135,6 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
   }
 
   const designQuery = designToSearchParams(design).toString();
-  const changeDesign = (patch: Partial<Design>) => {
-    const next = { ...design, ...patch };
-    setDesign(next);
-    const query = designToSearchParams(next).toString();
-    // Keep the design in the address bar (bookmark, share, reload) without a navigation.
-    window.history.replaceState(window.history.state, "", `${window.location.pathname}?${query}`);
-    if (timer.current) clearTimeout(timer.current);
-    timer.current = setTimeout(() => {
-      fetcher.submit(designToPlanRequest(next, company.slug, catalog) as never, {
-        method: "post",
-        action: "/api/plan",
-        encType: "application/json",
-      });
-    }, UPDATE_DELAY_MS);
-  };
   const f = (inches: number) => formatLength(inches, design.unit);
 
   return (
@@ -197,7 +170,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
                 {planErrors.map((e) => e.message).join(" ")}
               </p>
             ) : null}
-            {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={fetcher.state !== "idle"} /> : null}
+            {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
           </div>
           <Form method="get" className="card p-5 lg:sticky lg:top-4" aria-label="Design choices" onSubmit={(e) => isHydrated && e.preventDefault()}>
             <input type="hidden" name="unit" value={design.unit} />
