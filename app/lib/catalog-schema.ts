@@ -1,29 +1,9 @@
 import { z } from "zod";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
 import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog-kinds";
+import { fieldErrors, formNumber } from "~/lib/form-fields";
 
 const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
-
-function formNumber(label: string, min: number, max: number, unit: string) {
-  return z
-    .string({ error: `Enter the ${label.toLowerCase()}.` })
-    .trim()
-    .min(1, `Enter the ${label.toLowerCase()}.`)
-    .transform((s, ctx) => {
-      const n = Number(s);
-      if (!Number.isFinite(n)) {
-        ctx.addIssue({ code: "custom", message: `${label} must be a number${unit ? ` in ${unit}` : ""}.` });
-        return z.NEVER;
-      }
-      return n;
-    })
-    .pipe(
-      z
-        .number()
-        .min(min, `${label} must be between ${min} and ${max}${unit ? ` ${unit}` : ""}.`)
-        .max(max, `${label} must be between ${min} and ${max}${unit ? ` ${unit}` : ""}.`),
-    );
-}
 
 const baseSchema = z.object({
   kind: z.enum(CATALOG_KINDS, { error: "Choose what kind of item this is." }),
@@ -53,7 +33,7 @@ export function parseCatalogForm(form: FormData):
   const base = baseSchema.safeParse({ ...raw, isActive: raw.isActive === "on" || raw.isActive === "true" });
   const errors: Record<string, string> = {};
   if (!base.success) {
-    for (const issue of base.error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
+    Object.assign(errors, fieldErrors(base.error));
   }
   const kind = (CATALOG_KINDS as readonly string[]).includes(raw.kind ?? "") ? (raw.kind as CatalogKind) : null;
   const dims: Partial<Record<DimensionKey, number | null>> = Object.fromEntries(ALL_DIMENSIONS.map((k) => [k, null]));

@@ -1,21 +1,5 @@
 import { z } from "zod";
-
-function formNumber(label: string, min: number, max: number, unit: string) {
-  const range = `${label} must be between ${min} and ${max}${unit}.`;
-  return z
-    .string({ error: `Enter the ${label.toLowerCase()}.` })
-    .trim()
-    .min(1, `Enter the ${label.toLowerCase()}.`)
-    .transform((s, ctx) => {
-      const n = Number(s);
-      if (!Number.isFinite(n)) {
-        ctx.addIssue({ code: "custom", message: `${label} must be a number.` });
-        return z.NEVER;
-      }
-      return n;
-    })
-    .pipe(z.number().min(min, range).max(max, range));
-}
+import { formNumber } from "~/lib/form-fields";
 
 const TIME_ZONES = new Set(Intl.supportedValuesOf("timeZone"));
 
@@ -26,12 +10,12 @@ export const companySettingsSchema = z.object({
   phone: z.string().trim().max(30, "Phone must be at most 30 characters."),
   town: z.string().trim().max(80, "Town must be at most 80 characters."),
   timeZone: z.string().refine((tz) => TIME_ZONES.has(tz), "Choose a time zone from the list."),
-  consultFee: formNumber("Consult fee", 0, 2000, " dollars").transform((v) => Math.round(v * 100)),
-  setbackFt: formNumber("Setback", 5, 100, " ft"),
-  labourRate: formNumber("Labour rate", 0, 500, " dollars an hour").transform((v) => Math.round(v * 100)),
-  overheadPct: formNumber("Overhead", 0, 100, " %"),
-  marginPct: formNumber("Margin", 0, 100, " %"),
-  priceSpreadPct: formNumber("Price range spread", 0, 50, " %"),
+  consultFee: formNumber("Consult fee", 0, 2000, "dollars").transform((v) => Math.round(v * 100)),
+  setbackFt: formNumber("Setback", 5, 100, "ft"),
+  labourRate: formNumber("Labour rate", 0, 500, "dollars an hour").transform((v) => Math.round(v * 100)),
+  overheadPct: formNumber("Overhead", 0, 100, "%"),
+  marginPct: formNumber("Margin", 0, 100, "%"),
+  priceSpreadPct: formNumber("Price range spread", 0, 50, "%"),
 });
 
 export type CompanySettingsInput = z.output<typeof companySettingsSchema>;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { fieldErrors } from "~/lib/form-fields";
 import { MAX_COURSES } from "~/domain/ring";
 import { MAX_INNER_OVERHANG_IN, PATIO_RADIUS_FT, type CatalogChoice } from "~/lib/design";
 
@@ -43,11 +44,8 @@ export function checkDesignParams(query: string, catalog: CatalogChoice[]): Reco
   const params = new URLSearchParams(query);
   const raw = Object.fromEntries(KEYS.map((k) => [k, params.get(k) ?? undefined]));
   const parsed = designParamsSchema.safeParse(raw);
+  if (!parsed.success) return fieldErrors(parsed.error, "design");
   const errors: Record<string, string> = {};
-  if (!parsed.success) {
-    for (const issue of parsed.error.issues) errors[String(issue.path[0] ?? "design")] ??= issue.message;
-    return errors;
-  }
   const v = parsed.data;
   const offered = (itemId: number | undefined, kinds: string[]) => itemId !== undefined && catalog.some((i) => i.id === itemId && kinds.includes(i.kind));
   if (!offered(v.stone, ["wall-unit"])) errors.stone = "Choose a wall stone you offer.";

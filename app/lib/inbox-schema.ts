@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { fieldErrors } from "~/lib/form-fields";
 import { LEAD_STATUSES } from "~/db/enums";
 import { FIRST_DIRECTION, INBOX_SORTS, type InboxFilters } from "~/lib/inbox-options";
 
@@ -43,9 +44,7 @@ export function parseInboxQuery(params: URLSearchParams): InboxQueryResult {
   const raw = Object.fromEntries(KEYS.map((k) => [k, params.get(k) ?? undefined]));
   const parsed = inboxQuerySchema.safeParse(raw);
   if (!parsed.success) {
-    const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
-    return { ok: false, errors };
+    return { ok: false, errors: fieldErrors(parsed.error) };
   }
   const v = parsed.data as {
     status?: InboxFilters["status"];

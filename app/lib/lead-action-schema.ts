@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { fieldErrors } from "~/lib/form-fields";
 import { LEAD_STATUSES } from "~/db/enums";
 
 const userIdOrNone = (label: string) =>
@@ -35,8 +36,4 @@ export const leadActionSchema = z.discriminatedUnion(
 export type LeadAction = z.output<typeof leadActionSchema>;
 
 /** Field name → first message. */
-export function leadActionErrors(error: z.ZodError): Record<string, string> {
-  const errors: Record<string, string> = {};
-  for (const issue of error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
-  return errors;
-}
+export const leadActionErrors = (error: z.ZodError): Record<string, string> => fieldErrors(error);

@@ -19,10 +19,3 @@ export const leadFormSchema = z.object({
 });
 
 export type LeadFormInput = z.output<typeof leadFormSchema>;
-
-/** Field name → first message, for showing beside each field. */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-  const errors: Record<string, string> = {};
-  for (const issue of error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
-  return errors;
-}

@@ -2,6 +2,7 @@ import { and, asc, eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
+import { fieldErrors } from "~/lib/form-fields";
 import { SelectField, TextField } from "~/components/ui/field";
 import { companies, consultBlockedDays } from "~/db/schema";
 import { getCompany } from "~/lib/catalog.server";
@@ -73,9 +74,8 @@ export async function action({ request }: Route.ActionArgs) {
     await db.delete(consultBlockedDays).where(and(eq(consultBlockedDays.companyId, user.companyId), eq(consultBlockedDays.id, Number(form.get("id")))));
     return redirect("/app/consult-hours?saved=1");
   }
-  const errors: Record<string, string> = {};
   const parsed = hoursSchema.safeParse({ slotMinutes: form.get("slotMinutes"), horizonDays: form.get("horizonDays") });
-  if (!parsed.success) for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
+  const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
   const hours: WeeklyHours = {};
   for (const [key, label] of WEEKDAYS) {
     if (form.get(`open-${key}`) !== "on") continue;

@@ -1,6 +1,7 @@
 import { eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
+import { fieldErrors } from "~/lib/form-fields";
 import { SelectField, TextField } from "~/components/ui/field";
 import { companies } from "~/db/schema";
 import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog.server";
@@ -20,9 +21,7 @@ export async function action({ request }: Route.ActionArgs) {
   const form = Object.fromEntries(await request.formData());
   const parsed = companySettingsSchema.safeParse(form);
   if (!parsed.success) {
-    const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
-    return data({ errors }, { status: 400 });
+    return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   }
   const { consultFee, labourRate, ...rest } = parsed.data;
   await db

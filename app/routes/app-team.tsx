@@ -1,5 +1,6 @@
 import { data, Form, redirect, useLocation, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-team";
+import { fieldErrors } from "~/lib/form-fields";
 import { ROLE_LABEL } from "~/components/workspace-shell";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { STAFF_ROLES } from "~/db/schema";
@@ -29,9 +30,7 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = teamActionSchema.safeParse(fields);
   const userId = fields.userId ?? null;
   if (!parsed.success) {
-    const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) errors[String(issue.path[0] ?? "form")] ??= issue.message;
-    return data({ intent: fields.intent ?? null, userId, errors, values: fields }, { status: 400 });
+    return data({ intent: fields.intent ?? null, userId, errors: fieldErrors(parsed.error), values: fields }, { status: 400 });
   }
   const input = parsed.data;
   let result: TeamResult;

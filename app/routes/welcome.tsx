@@ -2,6 +2,7 @@ import { and, eq, gt, isNull } from "drizzle-orm";
 import { data, Form, redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/welcome";
+import { fieldErrors } from "~/lib/form-fields";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { oneTimeTokens, users } from "~/db/schema";
@@ -46,9 +47,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!found) return data({ errors: { form: "This link has been used or has expired." } as Record<string, string> }, { status: 410 });
   const parsed = passwordFormSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) {
-    const errors: Record<string, string> = {};
-    for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
-    return data({ errors }, { status: 400 });
+    return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   }
   const passwordHash = await hashPassword(parsed.data.password);
   // Marking the token used and setting the password land together, or neither does.

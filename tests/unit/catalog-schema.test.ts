@@ -17,7 +17,7 @@ test("a valid wall unit parses, with the price in integer cents", () => {
 test.each([
   ["faceIn", "-3", "Face length must be between 2 and 36 in."],
   ["depthIn", "0", "Depth must be between 2 and 24 in."],
-  ["heightIn", "abc", "Height must be a number in in."],
+  ["heightIn", "abc", "Height must be a number."],
   ["heightIn", "", "Enter the height."],
   ["price", "-1", "Price must be between 0 and 100000 dollars."],
   ["name", "x", "Name must be 2 to 80 characters."],
