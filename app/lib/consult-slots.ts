@@ -3,63 +3,15 @@
  * Pure (the clock is passed in); time zones through the platform's Intl data, so daylight-saving
  * changes fall where the IANA database says.
  */
+import { zonedDay, zonedTimeToUtc } from "~/lib/zoned-time";
 
 /** ISO weekday (1 = Monday … 7 = Sunday) → list of [start, end) minutes after local midnight. */
 export type WeeklyHours = Partial<Record<"1" | "2" | "3" | "4" | "5" | "6" | "7", [number, number][]>>;
 
 export type Slot = { startsAt: string; endsAt: string };
 
-const partsFormatters = new Map<string, Intl.DateTimeFormat>();
-
-function zonedParts(date: Date, timeZone: string) {
-  let fmt = partsFormatters.get(timeZone);
-  if (!fmt) {
-    fmt = new Intl.DateTimeFormat("en-US", {
-      timeZone,
-      hourCycle: "h23",
-      year: "numeric",
-      month: "2-digit",
-      day: "2-digit",
-      hour: "2-digit",
-      minute: "2-digit",
-      second: "2-digit",
-      weekday: "short",
-    });
-    partsFormatters.set(timeZone, fmt);
-  }
-  const parts = Object.fromEntries(fmt.formatToParts(date).map((p) => [p.type, p.value]));
-  return {
-    year: Number(parts.year),
-    month: Number(parts.month),
-    day: Number(parts.day),
-    hour: Number(parts.hour),
-    minute: Number(parts.minute),
-    second: Number(parts.second),
-    weekday: ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"].indexOf(parts.weekday!) + 1,
-  };
-}
-
-/** Offset of a zone from UTC at an instant, in minutes (e.g. −300 for Chicago in summer). */
-export function zoneOffsetMinutes(date: Date, timeZone: string): number {
-  const p = zonedParts(date, timeZone);
-  const asUtc = Date.UTC(p.year, p.month - 1, p.day, p.hour, p.minute, p.second);
-  return Math.round((asUtc - Math.floor(date.getTime() / 1000) * 1000) / 60_000);
-}
-
-/** The UTC instant of a local wall-clock time in a zone (the later offset wins in a fall-back hour). */
-export function zonedTimeToUtc(year: number, month: number, day: number, minutes: number, timeZone: string): Date {
-  const guess = Date.UTC(year, month - 1, day, 0, minutes);
-  let result = guess - zoneOffsetMinutes(new Date(guess), timeZone) * 60_000;
-  // Once more at the result: the offset may differ across a daylight-saving change.
-  result = guess - zoneOffsetMinutes(new Date(result), timeZone) * 60_000;
-  return new Date(result);
-}
-
-/** The local calendar day (YYYY-MM-DD) of an instant in a zone. */
-export function localDay(date: Date, timeZone: string): string {
-  const p = zonedParts(date, timeZone);
-  return `${p.year}-${String(p.month).padStart(2, "0")}-${String(p.day).padStart(2, "0")}`;
-}
+/** ISO weekday (1 = Monday … 7 = Sunday) of a calendar date given in UTC fields. */
+const isoWeekday = (date: Date) => ((date.getUTCDay() + 6) % 7) + 1;
 
 /**
  * Bookable slots from `now` (exclusive of the next `leadMinutes`) up to `horizonDays` local days
@@ -77,17 +29,17 @@ export function listFreeSlots(args: {
 }): Slot[] {
   const { hours, slotMinutes, horizonDays, timeZone, blockedDays, takenStarts, now } = args;
   const earliest = now.getTime() + (args.leadMinutes ?? 12 * 60) * 60_000;
-  const today = zonedParts(now, timeZone);
+  const [ty, tm, td] = zonedDay(now, timeZone).split("-").map(Number) as [number, number, number];
   const slots: Slot[] = [];
   for (let offset = 0; offset <= horizonDays; offset++) {
     // Walk calendar days in the zone: noon UTC of the local date avoids edge-of-day surprises.
-    const noon = new Date(Date.UTC(today.year, today.month - 1, today.day + offset, 12));
+    const noon = new Date(Date.UTC(ty, tm - 1, td + offset, 12));
     const y = noon.getUTCFullYear();
     const m = noon.getUTCMonth() + 1;
     const d = noon.getUTCDate();
     const day = `${y}-${String(m).padStart(2, "0")}-${String(d).padStart(2, "0")}`;
     if (blockedDays.has(day)) continue;
-    const weekday = ((noon.getUTCDay() + 6) % 7) + 1;
+    const weekday = isoWeekday(noon);
     for (const [from, to] of hours[String(weekday) as keyof WeeklyHours] ?? []) {
       for (let start = from; start + slotMinutes <= to; start += slotMinutes) {
         const startsAt = zonedTimeToUtc(y, m, d, start, timeZone);

@@ -3,30 +3,10 @@
  * filter means "received on these days where the contractor works", not UTC days.
  */
 
-function zoneOffsetMs(instant: number, timeZone: string): number {
-  const parts = new Intl.DateTimeFormat("en-US", {
-    timeZone,
-    hourCycle: "h23",
-    year: "numeric",
-    month: "2-digit",
-    day: "2-digit",
-    hour: "2-digit",
-    minute: "2-digit",
-    second: "2-digit",
-  }).formatToParts(new Date(instant));
-  const get = (type: string) => Number(parts.find((p) => p.type === type)?.value ?? 0);
-  const asUtc = Date.UTC(get("year"), get("month") - 1, get("day"), get("hour"), get("minute"), get("second"));
-  return asUtc - Math.floor(instant / 1000) * 1000;
-}
-
 /** The instant local midnight begins on `day` (YYYY-MM-DD) in the time zone, as an ISO string. */
 export function startOfZonedDay(day: string, timeZone: string): string {
   const [y, m, d] = day.split("-").map(Number) as [number, number, number];
-  const guess = Date.UTC(y, m - 1, d);
-  let instant = guess - zoneOffsetMs(guess, timeZone);
-  // Once more at the answer, in case a daylight-saving change lies between the guess and it.
-  instant = guess - zoneOffsetMs(instant, timeZone);
-  return new Date(instant).toISOString();
+  return zonedTimeToUtc(y, m, d, 0, timeZone).toISOString();
 }
 
 /** The next calendar day after `day` (YYYY-MM-DD). */
@@ -38,6 +18,26 @@ export function nextDay(day: string): string {
 /** The local calendar day (YYYY-MM-DD) of an instant in the time zone. */
 export function zonedDay(instant: Date, timeZone: string): string {
   return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(instant);
+}
+
+/** Offset of a zone from UTC at an instant, in minutes (e.g. −300 for Chicago in summer). */
+export function zoneOffsetMinutes(date: Date, timeZone: string): number {
+  const parts = Object.fromEntries(
+    new Intl.DateTimeFormat("en-US", { timeZone, hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit" })
+      .formatToParts(date)
+      .map((p) => [p.type, Number(p.value)]),
+  );
+  const asUtc = Date.UTC(parts.year!, parts.month! - 1, parts.day!, parts.hour!, parts.minute!, parts.second!);
+  return Math.round((asUtc - Math.floor(date.getTime() / 1000) * 1000) / 60_000);
+}
+
+/** The UTC instant of a local wall-clock time (minutes after midnight) in a zone; across a fall-back hour the later offset wins. */
+export function zonedTimeToUtc(year: number, month: number, day: number, minutes: number, timeZone: string): Date {
+  const guess = Date.UTC(year, month - 1, day, 0, minutes);
+  let result = guess - zoneOffsetMinutes(new Date(guess), timeZone) * 60_000;
+  // Once more at the result: the offset may differ across a daylight-saving change.
+  result = guess - zoneOffsetMinutes(new Date(result), timeZone) * 60_000;
+  return new Date(result);
 }
 
 /** "Tue, Dec 8, 9:00 AM" in the time zone. */

@@ -6,7 +6,7 @@ import { FormAlert } from "~/components/ui/field";
 import { bookings, leads } from "~/db/schema";
 import { cancelBooking } from "~/lib/booking.server";
 import { getCompany } from "~/lib/catalog.server";
-import { localDay } from "~/lib/consult-slots";
+import { zonedDay } from "~/lib/zoned-time";
 import { db } from "~/lib/db.server";
 import { formatMoney } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
@@ -29,7 +29,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   const items = rows.map((r) => ({
     id: r.booking.id,
     leadId: r.leadId,
-    day: localDay(new Date(r.booking.startsAt), company.timeZone),
+    day: zonedDay(new Date(r.booking.startsAt), company.timeZone),
     from: time(r.booking.startsAt),
     to: time(r.booking.endsAt),
     customerName: r.customerName,

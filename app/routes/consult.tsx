@@ -6,7 +6,7 @@ import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
 import { abandonCheckout, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/booking.server";
 import { findCompanyBySlug } from "~/lib/catalog.server";
-import { localDay } from "~/lib/consult-slots";
+import { zonedDay } from "~/lib/zoned-time";
 import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
 import { findLeadByRef } from "~/lib/leads.server";
@@ -36,7 +36,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const slots = booking?.status === "confirmed" ? [] : await listCompanySlots(company);
   const days = new Map<string, { startsAt: string }[]>();
   for (const slot of slots) {
-    const day = localDay(new Date(slot.startsAt), company.timeZone);
+    const day = zonedDay(new Date(slot.startsAt), company.timeZone);
     days.set(day, [...(days.get(day) ?? []), { startsAt: slot.startsAt }]);
   }
   return {

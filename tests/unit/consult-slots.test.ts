@@ -1,5 +1,6 @@
 import { expect, test } from "vitest";
-import { formatSlot, listFreeSlots, localDay, zonedTimeToUtc, zoneOffsetMinutes } from "~/lib/consult-slots";
+import { formatSlot, listFreeSlots } from "~/lib/consult-slots";
+import { zonedDay, zonedTimeToUtc, zoneOffsetMinutes } from "~/lib/zoned-time";
 
 test("Chicago is UTC−6 in winter and UTC−5 in summer (IANA tz database, US daylight saving rules)", () => {
   expect(zoneOffsetMinutes(new Date("2026-01-15T12:00:00Z"), "America/Chicago")).toBe(-360);
@@ -40,5 +41,5 @@ test("slots sooner than the lead time are not offered", () => {
     leadMinutes: 120,
   });
   expect(slots[0]!.startsAt).toBe("2026-12-02T10:00:00.000Z");
-  expect(localDay(new Date("2026-12-02T05:00:00Z"), "America/Chicago")).toBe("2026-12-01");
+  expect(zonedDay(new Date("2026-12-02T05:00:00Z"), "America/Chicago")).toBe("2026-12-01");
 });
