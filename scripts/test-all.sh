@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
-# Every test: typecheck, unit and API tests, production build, end-to-end in Chromium.
+# Every test: typecheck, module boundaries, unit and API tests, production build, bundle budget,
+# end-to-end in Chromium.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-chromium.sh
@@ -7,4 +8,6 @@ npm run --silent typecheck
 node scripts/check-boundaries.mjs
 npx vitest run
 npm run --silent build
+# Pages without the 3D preview ship no three.js and stay under 150 kB of gzipped JS.
+npx tsx tests/bench/bundle-budget.ts
 npx playwright test
