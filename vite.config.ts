@@ -7,6 +7,8 @@ export default defineConfig({
   // The React Router plugin cannot run inside Vitest (it expects its HMR preamble).
   plugins: [tailwindcss(), !process.env.VITEST && reactRouter()],
   resolve: { tsconfigPaths: true },
+  // The 3D preview's chunk (three.js) is large by nature; it loads lazily, after hydration.
+  build: { chunkSizeWarningLimit: 1100 },
   optimizeDeps: { include: ["three", "@react-three/fiber", "@react-three/drei"] },
   test: {
     include: ["tests/unit/**/*.test.{ts,tsx}"],
