@@ -1,5 +1,5 @@
 import { DEFAULT_FACTORS } from "~/domain/factors";
-import type { Plan } from "~/domain/plan";
+import { computePlan, PlanGeometryError, type Plan, type PlanInput } from "~/domain/plan";
 import { formatLength, inToMm, type LengthUnit } from "~/domain/units";
 import type { CatalogChoice, Design } from "~/lib/design";
 import type { PitSceneInput } from "~/scene/pit-model";
@@ -38,6 +38,49 @@ export function designToPlanRequest(design: Design, companySlug: string, catalog
         : null,
     ...(design.setbackFt !== null ? { site: { setbackFt: design.setbackFt } } : {}),
   };
+}
+
+/**
+ * The same design as the engine's inline input, from the public catalog (sizes, no prices), so the
+ * browser can redraw the geometry at once while the priced answer comes from the server.
+ */
+export function designToPlanInput(design: Design, catalog: CatalogChoice[]): PlanInput | null {
+  const stone = byId(catalog, design.stoneId);
+  if (!stone?.faceIn || !stone.backIn || !stone.depthIn || !stone.heightIn) return null;
+  const cap = byId(catalog, design.capId);
+  const ring = byId(catalog, design.ringId);
+  const brick = catalog.find((i) => i.kind === "firebrick");
+  const paver = byId(catalog, design.paverId);
+  const border = byId(catalog, design.borderId);
+  const useRing = design.linerKind === "steel-ring" && ring?.diameterIn && ring.heightIn;
+  return {
+    ring: design.fitToRing && useRing ? { bowlDiameterIn: ring.diameterIn! + 2 * DEFAULT_FACTORS.linerMinGapIn, fit: "at-least" } : { unitCount: design.unitCount },
+    wallUnit: { faceIn: stone.faceIn, backIn: stone.backIn, depthIn: stone.depthIn, heightIn: stone.heightIn, name: stone.name },
+    courses: design.courses,
+    cap: cap?.lengthIn && cap.depthIn && cap.thicknessIn ? { lengthIn: cap.lengthIn, depthIn: cap.depthIn, thicknessIn: cap.thicknessIn, innerOverhangIn: design.innerOverhangIn, name: cap.name } : null,
+    liner: useRing
+      ? { kind: "steel-ring", outsideDiameterIn: ring.diameterIn!, heightIn: ring.heightIn!, name: ring.name }
+      : design.linerKind === "firebrick" && brick?.lengthIn && brick.widthIn && brick.heightIn
+        ? { kind: "firebrick", lengthIn: brick.lengthIn, widthIn: brick.widthIn, heightIn: brick.heightIn, name: brick.name }
+        : { kind: "none" },
+    patio:
+      design.patioRadiusFt > 0 && paver?.lengthIn && paver.widthIn && border?.lengthIn && border.widthIn
+        ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { widthIn: border.widthIn, lengthIn: border.lengthIn, name: border.name }, paver: { lengthIn: paver.lengthIn, widthIn: paver.widthIn, name: paver.name } }
+        : null,
+    ...(design.setbackFt !== null ? { site: { setbackFt: design.setbackFt } } : {}),
+  };
+}
+
+/** The geometry of a design computed in the browser (no prices); null when it cannot be built. */
+export function planLocally(design: Design, catalog: CatalogChoice[]): PublicPlan | null {
+  const input = designToPlanInput(design, catalog);
+  if (!input) return null;
+  try {
+    return computePlan(input) as PublicPlan;
+  } catch (error) {
+    if (error instanceof PlanGeometryError) return null;
+    throw error;
+  }
 }
 
 /** The preview's input: real unit sizes from the catalog, placements from the plan. */

@@ -66,3 +66,18 @@ test("the bowl slider offers one whole-unit ring per unit count, each bowl large
   // 14 units of 12/8/8 make a 36.575 in bowl (worked example, derived from the polygon formulas).
   expect(sizes.find((s) => s.unitCount === 14)?.bowlDiameterIn).toBeCloseTo(36.575, 3);
 });
+
+test("the browser's instant redraw computes the same ring and caps as the server's priced answer", async () => {
+  const { planLocally } = await import("~/lib/design-plan");
+  const { planForDesign } = await import("~/lib/configurator.server");
+  const catalog = await demoCatalog();
+  for (const query of ["", "units=18&courses=3&liner=none", "liner=firebrick&patio=9&units=16", "cap=none&units=12"]) {
+    const design = parseDesign(new URLSearchParams(query), catalog)!;
+    const local = planLocally(design, catalog)!;
+    const { plan: server } = await planForDesign("cinder-slate", design, catalog);
+    expect(local.ring).toEqual(server!.ring);
+    expect(local.caps).toEqual(server!.caps);
+    expect(local.patio).toEqual(server!.patio);
+    expect(local.price).toBeNull();
+  }
+});

@@ -1,7 +1,8 @@
 import { useEffect, useRef, useState } from "react";
 import { useFetcher } from "react-router";
 import type { CatalogChoice, Design } from "~/lib/design";
-import { designToPlanRequest, type PublicPlan } from "~/lib/design-plan";
+import { designToSearchParams } from "~/lib/design";
+import { designToPlanRequest, planLocally, type PublicPlan } from "~/lib/design-plan";
 import type { PlanFieldError } from "~/lib/plan-schema";
 
 // A change is sent at once; further changes within this window (a slider drag) are folded into
@@ -9,8 +10,9 @@ import type { PlanFieldError } from "~/lib/plan-schema";
 const UPDATE_WINDOW_MS = 60;
 
 /**
- * A design being edited with its plan kept current: each change asks POST /api/plan through a
- * fetcher (throttled; a newer submission cancels an older one, so stale answers never land).
+ * A design being edited with its plan kept current. Each change redraws at once from the engine run
+ * in the browser (geometry only, the last price kept), then asks POST /api/plan through a fetcher
+ * for the priced answer (throttled; an answer for an older design than the latest is dropped).
  * Pages that use it should skip revalidating their loader for "/api/plan" submissions.
  */
 export function useLivePlan(args: {
@@ -26,6 +28,8 @@ export function useLivePlan(args: {
   const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const pending = useRef<Design | null>(null);
+  const latestKey = useRef<string | null>(null);
+  const sentKey = useRef<string | null>(null);
 
   useEffect(() => {
     setDesign(initial.design);
@@ -33,7 +37,7 @@ export function useLivePlan(args: {
     setPlanErrors(initial.planErrors);
   }, [initial.design, initial.plan, initial.planErrors]);
   useEffect(() => {
-    if (!fetcher.data) return;
+    if (!fetcher.data || sentKey.current !== latestKey.current) return;
     if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
     else {
       setPlan(fetcher.data);
@@ -41,8 +45,10 @@ export function useLivePlan(args: {
     }
   }, [fetcher.data]);
 
-  const send = (next: Design) =>
+  const send = (next: Design) => {
+    sentKey.current = designToSearchParams(next).toString();
     fetcher.submit(designToPlanRequest(next, companySlug, catalog) as never, { method: "post", action: "/api/plan", encType: "application/json" });
+  };
   const flush = () => {
     timer.current = null;
     const next = pending.current;
@@ -55,6 +61,9 @@ export function useLivePlan(args: {
     if (!design) return;
     const next = { ...design, ...patch };
     setDesign(next);
+    latestKey.current = designToSearchParams(next).toString();
+    const local = planLocally(next, catalog);
+    if (local) setPlan((previous) => ({ ...local, price: previous?.price ?? null }));
     onDesignChange?.(next);
     if (timer.current) {
       pending.current = next;
