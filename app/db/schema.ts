@@ -5,17 +5,22 @@ import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ROLES } from "~/db/enums";
 export * from "~/db/enums";
 
 /*
- * Every company-owned row carries company_id; every query in app/lib scopes by it.
+ * Every company-owned row carries company_id (companyId() below); every query in app/lib scopes by it.
  * Lengths are inches (real), money integer cents, times ISO-8601 UTC text.
  */
 
-const createdAt = () =>
-  text("created_at")
+const NOW_ISO = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
+const createdAt = () => text("created_at").notNull().default(NOW_ISO);
+const updatedAt = () => text("updated_at").notNull().default(NOW_ISO);
+const serialId = () => integer("id").primaryKey({ autoIncrement: true });
+// Every company-owned row carries this; queries in app/lib scope by it.
+const companyId = () =>
+  integer("company_id")
     .notNull()
-    .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`);
+    .references(() => companies.id);
 
 export const companies = sqliteTable("companies", {
-  id: integer("id").primaryKey({ autoIncrement: true }),
+  id: serialId(),
   slug: text("slug").notNull().unique(),
   name: text("name").notNull(),
   email: text("email").notNull(),
@@ -43,10 +48,8 @@ export const companies = sqliteTable("companies", {
 export const users = sqliteTable(
   "users",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     email: text("email").notNull(),
     name: text("name").notNull(),
     role: text("role", { enum: ROLES }).notNull(),
@@ -84,10 +87,8 @@ export const sessions = sqliteTable(
 export const catalogItems = sqliteTable(
   "catalog_items",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     kind: text("kind", { enum: CATALOG_KINDS }).notNull(),
     name: text("name").notNull(),
     colourName: text("colour_name").notNull().default(""),
@@ -103,9 +104,7 @@ export const catalogItems = sqliteTable(
     priceCents: integer("price_cents").notNull(),
     isActive: integer("is_active", { mode: "boolean" }).notNull().default(true),
     createdAt: createdAt(),
-    updatedAt: text("updated_at")
-      .notNull()
-      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+    updatedAt: updatedAt(),
   },
   (t) => [index("catalog_company_kind_idx").on(t.companyId, t.kind, t.isActive, t.name)],
 );
@@ -120,10 +119,8 @@ export type CatalogItem = typeof catalogItems.$inferSelect;
 export const leads = sqliteTable(
   "leads",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     homeownerId: integer("homeowner_id").references(() => users.id),
     // Unguessable handle for the homeowner's confirmation page (ids are sequential).
     ref: text("ref").notNull().unique(),
@@ -146,9 +143,7 @@ export const leads = sqliteTable(
     priceLowCents: integer("price_low_cents"),
     priceHighCents: integer("price_high_cents"),
     createdAt: createdAt(),
-    updatedAt: text("updated_at")
-      .notNull()
-      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+    updatedAt: updatedAt(),
   },
   (t) => [
     index("leads_company_created_idx").on(t.companyId, t.createdAt),
@@ -167,10 +162,8 @@ export const leads = sqliteTable(
 export const leadRevisions = sqliteTable(
   "lead_revisions",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     leadId: integer("lead_id")
       .notNull()
       .references(() => leads.id),
@@ -189,10 +182,8 @@ export const leadRevisions = sqliteTable(
 export const leadPhotos = sqliteTable(
   "lead_photos",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     leadId: integer("lead_id")
       .notNull()
       .references(() => leads.id),
@@ -209,10 +200,8 @@ export const leadPhotos = sqliteTable(
 export const leadEvents = sqliteTable(
   "lead_events",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     leadId: integer("lead_id")
       .notNull()
       .references(() => leads.id),
@@ -232,7 +221,7 @@ export const OUTBOX_STATUSES = ["pending", "sent", "failed", "cancelled"] as con
 export const emailOutbox = sqliteTable(
   "email_outbox",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
+    id: serialId(),
     companyId: integer("company_id").references(() => companies.id),
     idempotencyKey: text("idempotency_key").notNull().unique(),
     toAddress: text("to_address").notNull(),
@@ -275,10 +264,8 @@ export type LeadPhoto = typeof leadPhotos.$inferSelect;
 export const consultBlockedDays = sqliteTable(
   "consult_blocked_days",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     /** A local calendar day in the company's time zone, YYYY-MM-DD. */
     day: text("day").notNull(),
   },
@@ -293,10 +280,8 @@ export type BookingStatus = (typeof BOOKING_STATUSES)[number];
 export const bookings = sqliteTable(
   "bookings",
   {
-    id: integer("id").primaryKey({ autoIncrement: true }),
-    companyId: integer("company_id")
-      .notNull()
-      .references(() => companies.id),
+    id: serialId(),
+    companyId: companyId(),
     leadId: integer("lead_id")
       .notNull()
       .references(() => leads.id),
@@ -316,9 +301,7 @@ export const bookings = sqliteTable(
     cancelledBy: text("cancelled_by"),
     cancelReason: text("cancel_reason"),
     createdAt: createdAt(),
-    updatedAt: text("updated_at")
-      .notNull()
-      .default(sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`),
+    updatedAt: updatedAt(),
   },
   (t) => [
     uniqueIndex("bookings_slot_taken_unique")
