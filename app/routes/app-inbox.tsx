@@ -3,6 +3,7 @@ import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
 import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { SelectField, TextField } from "~/components/ui/field";
 import { LEAD_STATUSES, users } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog.server";
@@ -299,68 +300,34 @@ function FilterForm({
           <input type="hidden" name="dir" value={filters.dir} />
         </>
       ) : null}
-      <div className="col-span-2 lg:col-span-1">
-        <label htmlFor="filter-q" className="field-label">Search</label>
-        <input
-          id="filter-q"
-          type="search"
-          name="q"
-          defaultValue={filters.q}
-          placeholder="Name, e-mail, phone or town"
-          maxLength={100}
-          aria-invalid={errors.q ? true : undefined}
-          aria-describedby={errors.q ? "filter-q-error" : undefined}
-          className="field-input"
-        />
-        {errorOf("q")}
-      </div>
-      <div className="col-span-2 lg:col-span-1">
-        <label htmlFor="filter-assignee" className="field-label">Estimator</label>
-        <select
-          id="filter-assignee"
-          name="assignee"
-          defaultValue={filters.assignee === null ? "" : String(filters.assignee)}
-          aria-invalid={errors.assignee ? true : undefined}
-          aria-describedby={errors.assignee ? "filter-assignee-error" : undefined}
-          className="field-input"
-        >
-          <option value="">Anyone</option>
-          <option value="none">Unassigned</option>
-          {estimators.map((e) => (
-            <option key={e.id} value={e.id}>
-              {e.id === myId ? `${e.name} (me)` : e.name}
-              {e.isActive ? "" : " (inactive)"}
-            </option>
-          ))}
-        </select>
-        {errorOf("assignee")}
-      </div>
-      <div className="min-w-0">
-        <label htmlFor="filter-from" className="field-label">Received from</label>
-        <input
-          id="filter-from"
-          type="date"
-          name="from"
-          defaultValue={filters.from ?? ""}
-          aria-invalid={errors.from ? true : undefined}
-          aria-describedby={errors.from ? "filter-from-error" : undefined}
-          className="field-input"
-        />
-        {errorOf("from")}
-      </div>
-      <div className="min-w-0">
-        <label htmlFor="filter-to" className="field-label">to</label>
-        <input
-          id="filter-to"
-          type="date"
-          name="to"
-          defaultValue={filters.to ?? ""}
-          aria-invalid={errors.to ? true : undefined}
-          aria-describedby={errors.to ? "filter-to-error" : undefined}
-          className="field-input"
-        />
-        {errorOf("to")}
-      </div>
+      <TextField
+        label="Search"
+        name="q"
+        type="search"
+        defaultValue={filters.q}
+        placeholder="Name, e-mail, phone or town"
+        maxLength={100}
+        error={errors.q}
+        className="col-span-2 lg:col-span-1"
+      />
+      <SelectField
+        label="Estimator"
+        name="assignee"
+        defaultValue={filters.assignee === null ? "" : String(filters.assignee)}
+        error={errors.assignee}
+        className="col-span-2 lg:col-span-1"
+      >
+        <option value="">Anyone</option>
+        <option value="none">Unassigned</option>
+        {estimators.map((e) => (
+          <option key={e.id} value={e.id}>
+            {e.id === myId ? `${e.name} (me)` : e.name}
+            {e.isActive ? "" : " (inactive)"}
+          </option>
+        ))}
+      </SelectField>
+      <TextField label="Received from" name="from" type="date" defaultValue={filters.from ?? ""} error={errors.from} className="min-w-0" />
+      <TextField label="to" name="to" type="date" defaultValue={filters.to ?? ""} error={errors.to} className="min-w-0" />
       <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
         <button type="submit" className="btn-primary">Apply</button>
         <Link to="/app/inbox" className="btn-quiet">Clear</Link>
