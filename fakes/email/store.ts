@@ -1,6 +1,6 @@
 import { mkdirSync, readFileSync, renameSync, writeFileSync } from "node:fs";
 import { dirname } from "node:path";
-import { bareAddress } from "./validate";
+import { bareAddress, type ParsedEmail } from "./validate";
 
 export interface EmailTag {
   name: string;
@@ -18,22 +18,11 @@ export interface StoredAttachment {
   contentBase64: string;
 }
 
-export interface StoredMessage {
+/** A message as kept: what the request carried, plus what the service adds on acceptance. */
+export interface StoredMessage extends ParsedEmail {
   id: string;
   /** ISO 8601, UTC. */
   created_at: string;
-  from: string;
-  to: string[];
-  cc: string[];
-  bcc: string[];
-  reply_to: string[];
-  subject: string;
-  html: string | null;
-  text: string | null;
-  headers: Record<string, string>;
-  tags: EmailTag[];
-  attachments: StoredAttachment[];
-  scheduled_at: string | null;
   idempotency_key: string | null;
   /** "emails" or "emails/batch": which endpoint accepted it. */
   endpoint: string;
