@@ -237,9 +237,15 @@ export const emailOutbox = sqliteTable(
     lastError: text("last_error"),
     providerId: text("provider_id"),
     sentAt: text("sent_at"),
+    // The worker process that claimed the row, until when (app/lib/jobs.server.ts).
+    leaseOwner: text("lease_owner"),
+    leaseExpiresAt: text("lease_expires_at"),
     createdAt: createdAt(),
   },
-  (t) => [index("email_outbox_due_idx").on(t.status, t.sendAfter)],
+  (t) => [
+    index("email_outbox_due_idx").on(t.status, t.sendAfter),
+    index("email_outbox_company_status_idx").on(t.companyId, t.status),
+  ],
 );
 
 // One-time links (set a password, accept an invitation). Only the SHA-256 of the token is kept.
@@ -291,6 +297,8 @@ export const bookings = sqliteTable(
     status: text("status", { enum: BOOKING_STATUSES }).notNull().default("held"),
     holdExpiresAt: text("hold_expires_at").notNull(),
     amountCents: integer("amount_cents").notNull(),
+    // ISO 4217, lower case as the payment service writes it; a paid event must name the same.
+    currency: text("currency").notNull().default("usd"),
     // The homeowner's own time zone (from their browser), for e-mails in their local time.
     customerTimeZone: text("customer_time_zone"),
     checkoutSessionId: text("checkout_session_id").unique(),
@@ -298,6 +306,14 @@ export const bookings = sqliteTable(
     isPaid: integer("is_paid", { mode: "boolean" }).notNull().default(false),
     refundId: text("refund_id"),
     refundedAt: text("refunded_at"),
+    // The refund job (app/lib/jobs.server.ts): tries so far, when the next may run, why the last
+    // one failed, when it gave up (shown to the owner), and the lease of the process sending it.
+    refundAttempts: integer("refund_attempts").notNull().default(0),
+    refundNextAt: text("refund_next_at"),
+    refundLastError: text("refund_last_error"),
+    refundFailedAt: text("refund_failed_at"),
+    refundLeaseOwner: text("refund_lease_owner"),
+    refundLeaseExpiresAt: text("refund_lease_expires_at"),
     cancelledBy: text("cancelled_by"),
     cancelReason: text("cancel_reason"),
     createdAt: createdAt(),
@@ -310,6 +326,9 @@ export const bookings = sqliteTable(
     index("bookings_company_starts_idx").on(t.companyId, t.startsAt),
     index("bookings_lead_idx").on(t.leadId),
     index("bookings_status_hold_idx").on(t.status, t.holdExpiresAt),
+    index("bookings_refund_due_idx")
+      .on(t.refundNextAt)
+      .where(sql`status = 'cancelled' and is_paid = 1 and refund_id is null and refund_failed_at is null`),
   ],
 );
 
@@ -322,4 +341,16 @@ export const paymentEvents = sqliteTable("payment_events", {
 });
 
 export type Booking = typeof bookings.$inferSelect;
+
+// Work that is not about one row (the sweep of stray uploads): one lease row per job name, so
+// one process at a time runs it, with the same attempts and backoff as the row jobs.
+export const jobLeases = sqliteTable("job_leases", {
+  name: text("name").primaryKey(),
+  leaseOwner: text("lease_owner"),
+  leaseExpiresAt: text("lease_expires_at"),
+  nextRunAt: text("next_run_at").notNull(),
+  attempts: integer("attempts").notNull().default(0),
+  lastError: text("last_error"),
+  lastRunAt: text("last_run_at"),
+});
 export type LeadRevision = typeof leadRevisions.$inferSelect;

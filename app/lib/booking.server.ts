@@ -1,4 +1,4 @@
-import { and, eq, gt, inArray, isNotNull, isNull, lt, sql } from "drizzle-orm";
+import { and, asc, eq, gt, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
 import { createEvent } from "ics";
 import type Stripe from "stripe";
 import {
@@ -14,8 +14,9 @@ import {
   type Lead,
 } from "~/db/schema";
 import { ConsultCancelledEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
-import { db, writeTransaction } from "~/lib/db.server";
+import { db, writeTransaction, type Db } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
+import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs.server";
 import { formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
@@ -27,21 +28,32 @@ import { stripe as defaultStripe } from "~/lib/payments.server";
  * a webhook or a transaction.
  */
 
-// A Checkout Session stays open 30 minutes by default; the hold outlives it a little so the
-// session's own expiry event is what releases the slot.
-const HOLD_MINUTES = 35;
+// How long a slot is held for a homeowner who is paying. The Checkout Session is opened with an
+// `expires_at` five minutes before the hold ends (the service's own default is 24 hours, far
+// longer than any hold), so a payment can only complete while the slot is still held; its expiry
+// event then releases the slot, and releaseLapsedHolds does if that event never comes.
+const HOLD_MINUTES = 40;
+const CHECKOUT_CLOSES_BEFORE_HOLD_MS = 5 * 60_000;
+// The service accepts expires_at from 30 minutes to 24 hours ahead ("Manage limited inventory",
+// Stripe Checkout docs); one minute more covers the difference between its clock and ours.
+const MIN_CHECKOUT_OPEN_MS = 31 * 60_000;
 export const HOMEOWNER_CANCEL_CUTOFF_HOURS = 24;
 
 export class SlotUnavailableError extends Error {}
 
 const isUniqueViolation = (error: unknown) => /UNIQUE constraint failed/i.test(String((error as { message?: string })?.message ?? error)) || /UNIQUE constraint failed/i.test(String((error as { cause?: { message?: string } })?.cause?.message ?? ""));
 
-/** Marks holds whose time ran out as expired, freeing their slots. */
-export async function releaseLapsedHolds(now = new Date()): Promise<void> {
-  await db
+/**
+ * Marks holds whose time ran out as expired, freeing their slots; returns the ids it released.
+ * One conditional UPDATE: however many processes run it at once, each hold is released once.
+ */
+export async function releaseLapsedHolds(now = new Date(), database: Db = db): Promise<number[]> {
+  const released = await database
     .update(bookings)
     .set({ status: "expired", updatedAt: now.toISOString() })
-    .where(and(eq(bookings.status, "held"), lt(bookings.holdExpiresAt, now.toISOString())));
+    .where(and(eq(bookings.status, "held"), lt(bookings.holdExpiresAt, now.toISOString())))
+    .returning({ id: bookings.id });
+  return released.map((r) => r.id);
 }
 
 /** Free consult slots of a company from now to its horizon. */
@@ -105,17 +117,34 @@ export async function holdSlot(args: { company: Company; lead: Lead; startsAt: s
   }
 }
 
-/** Opens (or, on a retry, reopens) the hosted checkout for a held booking; returns its URL. */
-export async function startCheckout(args: { booking: Booking; company: Company; lead: Lead; origin: string; basePath: string; client?: Stripe }): Promise<string> {
+/**
+ * Opens (or, on a retry, reopens) the hosted checkout for a held booking; returns its URL. The
+ * checkout closes five minutes before the hold does. When the first try failed long enough ago
+ * that too little hold is left to open one, the hold is renewed first.
+ */
+export async function startCheckout(args: { booking: Booking; company: Company; lead: Lead; origin: string; basePath: string; client?: Stripe; now?: Date }): Promise<string> {
   const client = args.client ?? defaultStripe;
-  const { booking, company, lead, origin, basePath } = args;
+  const now = (args.now ?? new Date()).getTime();
+  const { company, lead, origin, basePath } = args;
+  let booking = args.booking;
+  if (!booking.checkoutSessionId && new Date(booking.holdExpiresAt).getTime() - CHECKOUT_CLOSES_BEFORE_HOLD_MS - now < MIN_CHECKOUT_OPEN_MS) {
+    const [renewed] = await db
+      .update(bookings)
+      .set({ holdExpiresAt: new Date(now + HOLD_MINUTES * 60_000).toISOString(), updatedAt: new Date(now).toISOString() })
+      .where(and(eq(bookings.id, booking.id), eq(bookings.status, "held"), isNull(bookings.checkoutSessionId)))
+      .returning();
+    if (!renewed) throw new SlotUnavailableError("Your hold on that time ran out. Pick a time again.");
+    booking = renewed;
+  }
+  const expiresAt = Math.floor((new Date(booking.holdExpiresAt).getTime() - CHECKOUT_CLOSES_BEFORE_HOLD_MS) / 1000);
   const session = await client.checkout.sessions.create(
     {
       mode: "payment",
+      expires_at: expiresAt,
       line_items: [
         {
           price_data: {
-            currency: "usd",
+            currency: booking.currency,
             unit_amount: booking.amountCents,
             product_data: { name: `Fire pit design consult with ${company.name}` },
           },
@@ -130,8 +159,9 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
       success_url: `${origin}${basePath}/done?session_id={CHECKOUT_SESSION_ID}`,
       cancel_url: `${origin}${basePath}?left=${booking.id}`,
     },
-    // The same booking always sends the same body and key: a retry cannot open a second payment.
-    { idempotencyKey: `checkout:${booking.id}` },
+    // The same hold always sends the same body and key: a retry cannot open a second payment.
+    // (The expiry is part of the key because a renewed hold sends a new expires_at.)
+    { idempotencyKey: `checkout:${booking.id}:${expiresAt}` },
   );
   await db.update(bookings).set({ checkoutSessionId: session.id, updatedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
   if (!session.url) throw new Error("The payment service returned no checkout page.");
@@ -237,7 +267,36 @@ async function loadBookingContext(bookingId: number) {
   return row ?? null;
 }
 
-export type WebhookOutcome = "applied" | "duplicate" | "ignored";
+export type WebhookOutcome = "applied" | "duplicate" | "ignored" | "rejected";
+
+/**
+ * What in a signed event does not match the booking it names: its checkout session, amount and
+ * currency for checkout events, its payment for a refund. A valid signature proves only that the
+ * sender has the webhook secret; these prove the event is about the payment we asked for.
+ */
+function eventMismatch(event: Stripe.Event, booking: Booking): string | null {
+  const problems: string[] = [];
+  // Values from the event are quoted with JSON.stringify so they cannot forge log lines.
+  if (event.type === "checkout.session.completed" || event.type === "checkout.session.expired") {
+    const session = event.data.object as Stripe.Checkout.Session;
+    if (!booking.checkoutSessionId || session.id !== booking.checkoutSessionId) {
+      problems.push(`checkout session ${JSON.stringify(session.id)} is not the booking's (${booking.checkoutSessionId ?? "none opened"})`);
+    }
+    if (event.type === "checkout.session.completed") {
+      if (session.amount_total !== booking.amountCents) problems.push(`amount ${JSON.stringify(session.amount_total)} is not ${booking.amountCents}`);
+      if (typeof session.currency !== "string" || session.currency.toLowerCase() !== booking.currency) {
+        problems.push(`currency ${JSON.stringify(session.currency)} is not ${booking.currency}`);
+      }
+    }
+  } else if (event.type === "charge.refunded") {
+    const charge = event.data.object as Stripe.Charge;
+    const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
+    if (!booking.paymentIntentId || paymentIntent !== booking.paymentIntentId) {
+      problems.push(`payment ${JSON.stringify(paymentIntent)} is not the booking's (${booking.paymentIntentId ?? "none"})`);
+    }
+  }
+  return problems.length ? problems.join("; ") : null;
+}
 
 /**
  * Applies one verified payment event. The event id is recorded under its primary key in the same
@@ -247,6 +306,12 @@ export type WebhookOutcome = "applied" | "duplicate" | "ignored";
 export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOutcome> {
   const bookingId = bookingIdOf(event);
   const context = bookingId ? await loadBookingContext(bookingId) : null;
+  const mismatch = context ? eventMismatch(event, context.booking) : null;
+  if (context && mismatch) {
+    // Not recorded either: the event id stays free, and the booking is exactly as it was.
+    console.warn(`payments: refused event ${JSON.stringify(event.id)} (${JSON.stringify(event.type)}) for booking ${context.booking.id}: ${mismatch}`);
+    return "rejected";
+  }
   // E-mails are rendered up front (local work), so the transaction holds only writes.
   const confirmRows = context && event.type === "checkout.session.completed" ? await confirmationEmails(context.booking, context.company, context.lead) : [];
   const slotTakenRows =
@@ -342,34 +407,119 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
   }
   const reason = args.by === "homeowner" ? "You cancelled it." : `${company.name} cancelled it and will be in touch to find another time.`;
   const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, reason) : [];
-  await db.batch([
-    db
+  await writeTransaction(async (tx) => {
+    // The state is checked again by the write itself: of two cancels at once (or a cancel racing the
+    // payment), only the one that still finds the booking as it read it changes anything.
+    const changed = await tx
       .update(bookings)
       .set({ status: "cancelled", cancelledBy: args.by, cancelReason: args.by === "homeowner" ? "homeowner" : "staff", updatedAt: now.toISOString() })
-      .where(eq(bookings.id, booking.id)),
-    db.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending"))),
-    db.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` }),
-    ...(rows.length ? [db.insert(emailOutbox).values(rows).onConflictDoNothing()] : []),
-  ]);
+      .where(and(eq(bookings.id, booking.id), eq(bookings.status, booking.status), eq(bookings.isPaid, booking.isPaid)))
+      .returning({ id: bookings.id });
+    if (changed.length === 0) throw new Response("This consult changed a moment ago (cancelled or paid). Reload to see it.", { status: 409 });
+    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending")));
+    await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` });
+    if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
+  });
   return { ...booking, status: "cancelled" };
 }
 
-/** Sends the refunds owed (cancelled after payment), each once, keyed `refund:<bookingId>`. */
-export async function processRefunds(client: Stripe = defaultStripe): Promise<number> {
-  const owed = await db
-    .select()
+// 30 s, 1 min, 2 min … 1 h: eight tries span about two hours before the owner is told.
+export const REFUND_BACKOFF: Backoff = { baseMs: 30_000, maxMs: 60 * 60_000, maxAttempts: 8 };
+const REFUND_BATCH_SIZE = 10;
+
+/** Claims up to REFUND_BATCH_SIZE owed refunds that are due, for this process (app/lib/jobs.server.ts). */
+async function claimOwedRefunds(database: Db, owner: string, now: Date) {
+  const nowIso = now.toISOString();
+  const due = database
+    .select({ id: bookings.id })
     .from(bookings)
-    .where(and(eq(bookings.status, "cancelled"), eq(bookings.isPaid, true), isNull(bookings.refundId), isNotNull(bookings.paymentIntentId)))
-    .limit(20);
+    .where(
+      and(
+        eq(bookings.status, "cancelled"),
+        eq(bookings.isPaid, true),
+        isNull(bookings.refundId),
+        isNotNull(bookings.paymentIntentId),
+        isNull(bookings.refundFailedAt),
+        or(isNull(bookings.refundNextAt), lte(bookings.refundNextAt, nowIso)),
+        or(isNull(bookings.refundLeaseExpiresAt), lt(bookings.refundLeaseExpiresAt, nowIso)),
+      ),
+    )
+    // Never tried first, then by when each may try again: a failing refund waits behind the rest.
+    .orderBy(asc(sql`coalesce(${bookings.refundNextAt}, '')`), asc(bookings.id))
+    .limit(REFUND_BATCH_SIZE);
+  return database
+    .update(bookings)
+    .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${bookings.refundAttempts} + 1` })
+    .where(and(inArray(bookings.id, due), isNull(bookings.refundId)))
+    .returning();
+}
+
+/**
+ * Sends the refunds owed (cancelled after payment), each once, keyed `refund:<bookingId>`, under a
+ * lease so two processes never send the same one. A failed refund is retried with backoff and,
+ * past its cap or on an answer a retry cannot change, marked failed for the owner to see.
+ */
+export async function processRefunds(client: Pick<Stripe, "refunds"> = defaultStripe, options: { now?: Date; db?: Db; owner?: string } = {}): Promise<number> {
+  const database = options.db ?? db;
+  const owner = options.owner ?? WORKER_ID;
+  const now = options.now ?? new Date();
+  const claimed = await claimOwedRefunds(database, owner, now);
+  const mine = (id: number) => and(eq(bookings.id, id), eq(bookings.refundLeaseOwner, owner));
   let done = 0;
-  for (const booking of owed) {
+  for (const booking of claimed) {
+    const attempts = booking.refundAttempts;
+    let failure: { status: number | null; message: string };
     try {
-      const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId! }, { idempotencyKey: `refund:${booking.id}` });
-      await db.update(bookings).set({ refundId: refund.id, refundedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
-      done += 1;
+      if (attempts > REFUND_BACKOFF.maxAttempts) {
+        failure = { status: null, message: "no tries left after the worker stopped mid-refund" };
+      } else {
+        const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId! }, { idempotencyKey: `refund:${booking.id}` });
+        await database
+          .update(bookings)
+          .set({ refundId: refund.id, refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null })
+          .where(mine(booking.id));
+        done += 1;
+        continue;
+      }
     } catch (error) {
-      console.error(`refund for booking ${booking.id} failed; will retry`, (error as Error).message);
+      const stripeError = error as { statusCode?: number; code?: string; type?: string; message?: string };
+      if (stripeError.code === "charge_already_refunded") {
+        // Refunded already (by hand, or by a try whose answer was lost): nothing is owed.
+        await database
+          .update(bookings)
+          .set({ refundId: "already-refunded", refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null })
+          .where(mine(booking.id));
+        continue;
+      }
+      failure = { status: stripeError.statusCode ?? null, message: `${stripeError.statusCode ?? "network"} ${stripeError.code ?? stripeError.type ?? "error"}: ${stripeError.message ?? String(error)}` };
     }
+    const isGivingUp = isPermanentStatus(failure.status) || attempts >= REFUND_BACKOFF.maxAttempts;
+    const delay = retryDelayMs(attempts, REFUND_BACKOFF);
+    await database
+      .update(bookings)
+      .set({
+        refundLastError: failure.message.slice(0, 500),
+        refundNextAt: iso(now.getTime() + delay),
+        refundFailedAt: isGivingUp ? now.toISOString() : null,
+        refundLeaseOwner: null,
+        refundLeaseExpiresAt: null,
+      })
+      .where(mine(booking.id));
+    console.error(
+      isGivingUp
+        ? `refunds: booking ${booking.id} failed for good after ${attempts} tries, the owner is shown it: ${failure.message}`
+        : `refunds: booking ${booking.id} try ${attempts} failed, next in ${delay / 1000} s: ${failure.message}`,
+    );
   }
   return done;
+}
+
+/** Puts a failed refund back in the queue (the owner pressed "Try again"). */
+export async function retryFailedRefund(bookingId: number, companyId: number): Promise<boolean> {
+  const rows = await db
+    .update(bookings)
+    .set({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null, refundLastError: null })
+    .where(and(eq(bookings.id, bookingId), eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId)))
+    .returning({ id: bookings.id });
+  return rows.length > 0;
 }

@@ -81,6 +81,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const url = await startCheckout({ booking, company, lead, origin: appOrigin(request), basePath: `/c/${params.companySlug}/consult/${params.ref}` });
     return redirect(url, 303);
   } catch (error) {
+    if (error instanceof SlotUnavailableError) return data({ error: error.message }, { status: 409 });
     // Nothing was charged; the hold stands, and a retry reuses the same checkout key.
     console.error("checkout could not start", (error as Error).message);
     return data(

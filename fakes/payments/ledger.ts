@@ -99,7 +99,8 @@ const MIN_EXPIRY_SECONDS = 30 * 60;
 const MAX_EXPIRY_SECONDS = 24 * 60 * 60;
 // Grace for the caller's clock and request time when it asks for exactly 30 minutes.
 const EXPIRY_GRACE_SECONDS = 60;
-const DEFAULT_EXPIRY_SECONDS = 30 * 60;
+// Without expires_at a session stays open 24 hours, as the service documents ("Manage limited inventory").
+const DEFAULT_EXPIRY_SECONDS = 24 * 60 * 60;
 // The service's largest amount (eight digits of minor units) and its smallest charge (50 cents in USD).
 const MAX_AMOUNT = 99_999_999;
 const MIN_CHARGE_AMOUNT = 50;

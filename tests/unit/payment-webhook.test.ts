@@ -12,6 +12,7 @@ import { createTestLead } from "./support/leads";
 const stripe = new Stripe("sk_test_local");
 let eventSeq = 0;
 
+// What the payment service sends for a checkout we opened: the booking's own session, amount and currency.
 function completedEvent(bookingId: number, overrides: Record<string, unknown> = {}) {
   eventSeq += 1;
   return {
@@ -26,6 +27,8 @@ function completedEvent(bookingId: number, overrides: Record<string, unknown> = 
         payment_status: "paid",
         status: "complete",
         payment_intent: `pi_test_${bookingId}`,
+        amount_total: 15000,
+        currency: "usd",
         client_reference_id: String(bookingId),
         metadata: { booking_id: String(bookingId) },
         ...overrides,
@@ -49,8 +52,11 @@ async function heldBooking() {
   const slots = await listCompanySlots(company);
   // Each test takes its own slot, so tests never race each other for one.
   const slot = slots[Math.floor(Math.random() * slots.length)]!;
-  const booking = await holdSlot({ company, lead: leadRow!, startsAt: slot.startsAt, customerTimeZone: "America/New_York" });
-  return { company, lead: leadRow!, booking };
+  const held = await holdSlot({ company, lead: leadRow!, startsAt: slot.startsAt, customerTimeZone: "America/New_York" });
+  // As startCheckout records it once the payment service has opened the session.
+  const [booking] = await db.update(bookings).set({ checkoutSessionId: `cs_test_${held.id}` }).where(eq(bookings.id, held.id)).returning();
+  expect(booking!.amountCents).toBe(15000);
+  return { company, lead: leadRow!, booking: booking! };
 }
 
 const outboxFor = async (bookingId: number) =>

@@ -172,14 +172,28 @@ test("a checkout session made through the SDK is open, unpaid and points at the 
   expect(created.client_reference_id).toBe("bk_100");
   expect(created.payment_intent).toBeNull();
   expect(created.url).toBe(`${fake.url}/pay/${created.id}`);
+  // Without expires_at a session stays open 24 hours (Stripe docs, "Manage limited inventory").
   const now = Math.floor(Date.now() / 1000);
-  expect(created.expires_at).toBeGreaterThanOrEqual(now + 29 * 60);
-  expect(created.expires_at).toBeLessThanOrEqual(now + 31 * 60);
+  expect(created.expires_at).toBeGreaterThanOrEqual(now + 24 * 3600 - 60);
+  expect(created.expires_at).toBeLessThanOrEqual(now + 24 * 3600 + 1);
   expect(created.lastResponse.requestId).toMatch(/^req_/);
 
   const retrieved = await stripe.checkout.sessions.retrieve(created.id, { expand: ["line_items"] });
   expect(retrieved.id).toBe(created.id);
   expect(retrieved.line_items?.data[0].description).toBe("Fire pit design consult");
+});
+
+test("expires_at is honoured from 30 minutes to 24 hours ahead; outside that range it is a 400 naming expires_at, as the service answers", async () => {
+  // Stripe docs, "Manage limited inventory": "The value must be between 30 minutes and 24 hours after the current time."
+  const now = Math.floor(Date.now() / 1000);
+  const inRange = await stripe.checkout.sessions.create({ ...consultCheckout("bk_120"), expires_at: now + 35 * 60 });
+  expect(inRange.expires_at).toBe(now + 35 * 60);
+  for (const expiresAt of [now + 10 * 60, now + 25 * 3600]) {
+    const error = (await stripe.checkout.sessions.create({ ...consultCheckout("bk_121"), expires_at: expiresAt }).catch((e: unknown) => e)) as Stripe.errors.StripeError;
+    expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
+    expect(error.statusCode).toBe(400);
+    expect(error.param).toBe("expires_at");
+  }
 });
 
 test("the same idempotency key and body replays the first session instead of making a second", async () => {
