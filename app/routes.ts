@@ -26,6 +26,7 @@ export default [
       route("team", "routes/app-team.tsx"),
       route("schedule", "routes/app-schedule.tsx"),
       route("consult-hours", "routes/app-consult-hours.tsx"),
+      route("attention", "routes/app-attention.tsx"),
     ]),
     route("inbox.csv", "routes/app-inbox-csv.ts"),
     route("leads/:leadId/cut-sheet", "routes/app-lead-cut-sheet.tsx"),

@@ -24,6 +24,7 @@ import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
 import { loader as cutSheetPdfLoader } from "~/routes/app-lead-cut-sheet-pdf";
 import { loader as jobsLoader } from "~/routes/app-jobs";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
+import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
 import { loginAs } from "./support/login";
@@ -184,6 +185,16 @@ const CASES: Case[] = [
     name: "GET /app/jobs",
     call: (c) => jobsLoader(routeArgs(get("/app/jobs", c))),
     expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "GET /app/attention",
+    call: (c) => attentionLoader(routeArgs(get("/app/attention", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "POST /app/attention (an e-mail that has not failed)",
+    call: (c) => attentionAction(routeArgs(post("/app/attention", c, { intent: "retry-email", id: "1" }))),
+    expected: { owner: "404", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
   },
   {
     name: "GET /app/team",

@@ -1,0 +1,100 @@
+import { data, Form, Link, useNavigation } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/app-attention";
+import { FormAlert } from "~/components/ui/field";
+import { listFailedWork, retryFailedEmail, retryFailedRefund } from "~/lib/attention.server";
+import { getCompany } from "~/lib/catalog.server";
+import { formatSlot } from "~/lib/consult-slots";
+import { formatMoney } from "~/lib/money";
+import { requireUser } from "~/lib/session.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Needs attention · Emberwright" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  const company = await getCompany(user.companyId);
+  const { mail, refunds } = await listFailedWork(user.companyId);
+  return {
+    mail,
+    refunds: refunds.map((r) => ({ ...r, when: formatSlot(r.startsAt, company.timeZone), fee: formatMoney(r.amountCents) })),
+  };
+}
+
+const retrySchema = z.object({
+  intent: z.enum(["retry-email", "retry-refund"], { error: "Choose what to try again." }),
+  id: z.coerce.number().int().positive({ error: "Choose what to try again." }),
+});
+
+export async function action({ request }: Route.ActionArgs) {
+  const user = await requireUser(request, { roles: ["owner"] });
+  const parsed = retrySchema.safeParse(Object.fromEntries(await request.formData()));
+  if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: null }, { status: 400 });
+  const { intent, id } = parsed.data;
+  const isQueued = intent === "retry-email" ? await retryFailedEmail(id, user.companyId) : await retryFailedRefund(id, user.companyId);
+  // Another company's row, or one already back in the queue, is simply not found here.
+  if (!isQueued) return data({ error: "That item was not found, or it is already being tried again.", done: null }, { status: 404 });
+  return data({ error: null, done: intent === "retry-email" ? "The e-mail is queued again." : "The refund is queued again." });
+}
+
+export default function AttentionRoute({ loaderData, actionData }: Route.ComponentProps) {
+  const { mail, refunds } = loaderData;
+  const navigation = useNavigation();
+  const isBusy = navigation.state === "submitting";
+  return (
+    <div className="flex flex-col gap-6">
+      <div>
+        <h1 className="text-2xl font-extrabold">Needs attention</h1>
+        <p className="text-char-600">E-mails and refunds that failed after several tries. Check the reason, then try again or deal with it by hand.</p>
+      </div>
+      {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
+      {actionData?.done ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">{actionData.done}</p>
+      ) : null}
+      {mail.length === 0 && refunds.length === 0 ? <p className="card p-6 text-char-600">Nothing needs attention: every e-mail and refund went through.</p> : null}
+      {refunds.length ? (
+        <section className="card overflow-hidden" aria-labelledby="failed-refunds">
+          <h2 id="failed-refunds" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">Refunds not made</h2>
+          <ul className="divide-y divide-ash-200">
+            {refunds.map((r) => (
+              <li key={r.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
+                <div className="min-w-0">
+                  <p className="font-extrabold">
+                    {r.fee} to <Link to={`/app/leads/${r.leadId}`} className="text-ember-700 hover:underline">{r.customerName}</Link>
+                  </p>
+                  <p className="text-sm text-char-600">Consult of {r.when} · {r.attempts} tries</p>
+                  {r.lastError ? <p className="text-sm break-words text-char-600">Last answer: {r.lastError}</p> : null}
+                </div>
+                <Form method="post">
+                  <input type="hidden" name="intent" value="retry-refund" />
+                  <input type="hidden" name="id" value={r.id} />
+                  <button type="submit" className="btn-quiet" disabled={isBusy} aria-label={`Try the refund to ${r.customerName} again`}>Try again</button>
+                </Form>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+      {mail.length ? (
+        <section className="card overflow-hidden" aria-labelledby="failed-mail">
+          <h2 id="failed-mail" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">E-mails not sent</h2>
+          <ul className="divide-y divide-ash-200">
+            {mail.map((m) => (
+              <li key={m.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
+                <div className="min-w-0">
+                  <p className="font-extrabold break-words">{m.subject}</p>
+                  <p className="text-sm break-words text-char-600">To {m.to} · {m.attempts} tries</p>
+                  {m.lastError ? <p className="text-sm break-words text-char-600">Last answer: {m.lastError}</p> : null}
+                </div>
+                <Form method="post">
+                  <input type="hidden" name="intent" value="retry-email" />
+                  <input type="hidden" name="id" value={m.id} />
+                  <button type="submit" className="btn-quiet" disabled={isBusy} aria-label={`Send the e-mail to ${m.to} again`}>Try again</button>
+                </Form>
+              </li>
+            ))}
+          </ul>
+        </section>
+      ) : null}
+    </div>
+  );
+}
