@@ -1,9 +1,9 @@
 import { mkdtempSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
-import { eq } from "drizzle-orm";
+import { and, eq, like } from "drizzle-orm";
 import { afterAll, beforeAll, expect, test } from "vitest";
-import { bookings, leads } from "~/db/schema";
+import { bookings, emailOutbox, leadEvents, leads } from "~/db/schema";
 import { cancelBooking, holdSlot, listCompanySlots, processRefunds, startCheckout } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { createStripe } from "~/lib/payments.server";
@@ -119,4 +119,58 @@ test("the app down between payment and webhook: the service retries, and the ret
   } finally {
     await retrying.close();
   }
+});
+
+test("a checkout opened for a held slot closes five minutes before the hold does, not after the payment service's 24-hour default", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  const session = await client.checkout.sessions.retrieve(row!.checkoutSessionId!);
+  const holdEndsSec = Math.floor(new Date(row!.holdExpiresAt).getTime() / 1000);
+  expect(session.expires_at).toBe(holdEndsSec - 5 * 60);
+  // The service accepts 30 minutes to 24 hours ahead (Stripe Checkout docs, "Manage limited inventory").
+  const nowSec = Math.floor(Date.now() / 1000);
+  expect(session.expires_at).toBeGreaterThanOrEqual(nowSec + 30 * 60);
+  expect(session.expires_at).toBeLessThanOrEqual(nowSec + 40 * 60);
+});
+
+test("a checkout retried long after the first try failed renews the hold, so the service accepts its expiry", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  // Held twenty minutes ago; the service was down then, so no checkout was opened.
+  const [older] = await db.update(bookings).set({ holdExpiresAt: new Date(Date.now() + 20 * 60_000).toISOString() }).where(eq(bookings.id, booking.id)).returning();
+  const url = await startCheckout({ booking: older!, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  expect(url).toContain("/pay/");
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(new Date(row!.holdExpiresAt).getTime()).toBeGreaterThan(Date.now() + 39 * 60_000);
+  const session = await client.checkout.sessions.retrieve(row!.checkoutSessionId!);
+  expect(session.expires_at).toBe(Math.floor(new Date(row!.holdExpiresAt).getTime() / 1000) - 5 * 60);
+});
+
+test("two cancels of one paid consult at the same moment: one cancels, the other is told it changed; one refund, one set of e-mails, one timeline entry", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  const [withSession] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  await control(`sessions/${withSession!.checkoutSessionId}/pay`, { card: "4242424242424242" });
+  const session = await client.checkout.sessions.retrieve(withSession!.checkoutSessionId!);
+  await db.update(bookings).set({ status: "confirmed", isPaid: true, paymentIntentId: String(session.payment_intent) }).where(eq(bookings.id, booking.id));
+
+  const results = await Promise.allSettled([
+    cancelBooking({ bookingId: booking.id, companyId: company.id, by: "staff", actorUserId: null }),
+    cancelBooking({ bookingId: booking.id, companyId: company.id, by: "staff", actorUserId: null }),
+  ]);
+  expect(results.filter((r) => r.status === "fulfilled")).toHaveLength(1);
+  const refused = results.find((r) => r.status === "rejected") as PromiseRejectedResult;
+  expect(refused.reason).toBeInstanceOf(Response);
+  expect((refused.reason as Response).status).toBe(409);
+
+  await processRefunds(client);
+  await processRefunds(client);
+  const refunds = (await control("refunds")) as { data: { payment_intent: string }[] };
+  expect(refunds.data.filter((r) => r.payment_intent === String(session.payment_intent))).toHaveLength(1);
+  const events = await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "consult-cancelled")));
+  expect(events).toHaveLength(1);
+  expect(await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `consult-cancelled%/${booking.id}`))).toHaveLength(2);
 });

@@ -1,6 +1,6 @@
 import { and, count, eq, like } from "drizzle-orm";
 import Stripe from "stripe";
-import { expect, test } from "vitest";
+import { expect, test, vi } from "vitest";
 import { bookings, emailOutbox, leads, paymentEvents } from "~/db/schema";
 import { holdSlot, listCompanySlots, SlotUnavailableError } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
@@ -157,4 +157,51 @@ test("out of order: an expiry that arrives before the payment it raced still end
   await deliver(JSON.stringify(completed));
   const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(row).toMatchObject({ status: "confirmed", isPaid: true });
+});
+
+test.each([
+  ["another checkout session", { id: "cs_test_forged" }],
+  ["a smaller amount", { amount_total: 100 }],
+  ["another currency", { currency: "jpy" }],
+])("a signed paid-checkout event naming %s changes nothing and is logged", async (_label, overrides) => {
+  const { booking } = await heldBooking();
+  const event = completedEvent(booking.id, overrides);
+  const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
+  try {
+    const { status, json } = await deliver(JSON.stringify(event));
+    expect(status).toBe(200);
+    expect(json.outcome).toBe("rejected");
+    expect(warn).toHaveBeenCalledTimes(1);
+    expect(String(warn.mock.calls[0]![0])).toContain(`booking ${booking.id}`);
+  } finally {
+    warn.mockRestore();
+  }
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(row).toMatchObject({ status: "held", isPaid: false, paymentIntentId: null });
+  expect(await db.select().from(paymentEvents).where(eq(paymentEvents.id, event.id))).toHaveLength(0);
+  expect(await outboxFor(booking.id)).toBe(0);
+  // The genuine event still books it afterwards.
+  expect((await deliver(JSON.stringify(completedEvent(booking.id)))).json.outcome).toBe("applied");
+});
+
+test("a signed refund event naming another payment does not mark a paid consult refunded", async () => {
+  const { booking } = await heldBooking();
+  await deliver(JSON.stringify(completedEvent(booking.id)));
+  eventSeq += 1;
+  const forged = {
+    id: `evt_test_${Date.now()}_${eventSeq}`,
+    object: "event",
+    type: "charge.refunded",
+    created: Math.floor(Date.now() / 1000),
+    data: { object: { id: "ch_forged", object: "charge", payment_intent: "pi_someone_else", refunded: true, metadata: { booking_id: String(booking.id) }, refunds: { data: [{ id: "re_forged" }] } } },
+  };
+  const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
+  try {
+    expect((await deliver(JSON.stringify(forged))).json.outcome).toBe("rejected");
+    expect(warn).toHaveBeenCalledTimes(1);
+  } finally {
+    warn.mockRestore();
+  }
+  const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  expect(row).toMatchObject({ status: "confirmed", isPaid: true, refundId: null, refundedAt: null });
 });
