@@ -17,7 +17,7 @@ import { ConsultCancelledEmail, ConsultConfirmedEmail, ConsultReminderEmail } fr
 import { db, writeTransaction, type Db } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs.server";
-import { formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
+import { CONSULT_HOLD_MINUTES, formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
 
@@ -32,7 +32,7 @@ import { stripe as defaultStripe } from "~/lib/payments.server";
 // `expires_at` five minutes before the hold ends (the service's own default is 24 hours, far
 // longer than any hold), so a payment can only complete while the slot is still held; its expiry
 // event then releases the slot, and releaseLapsedHolds does if that event never comes.
-const HOLD_MINUTES = 40;
+const HOLD_MINUTES = CONSULT_HOLD_MINUTES;
 const CHECKOUT_CLOSES_BEFORE_HOLD_MS = 5 * 60_000;
 // The service accepts expires_at from 30 minutes to 24 hours ahead ("Manage limited inventory",
 // Stripe Checkout docs); one minute more covers the difference between its clock and ours.

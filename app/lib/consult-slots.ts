@@ -10,6 +10,9 @@ export type WeeklyHours = Partial<Record<"1" | "2" | "3" | "4" | "5" | "6" | "7"
 
 export type Slot = { startsAt: string; endsAt: string };
 
+/** How long choosing a time holds it while the homeowner pays (minutes). */
+export const CONSULT_HOLD_MINUTES = 40;
+
 /** ISO weekday (1 = Monday … 7 = Sunday) of a calendar date given in UTC fields. */
 const isoWeekday = (date: Date) => ((date.getUTCDay() + 6) % 7) + 1;
 

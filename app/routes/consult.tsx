@@ -6,6 +6,7 @@ import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
 import { abandonCheckout, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/booking.server";
 import { findCompanyBySlug } from "~/lib/catalog.server";
+import { CONSULT_HOLD_MINUTES } from "~/lib/consult-slots";
 import { zonedDay } from "~/lib/zoned-time";
 import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
@@ -85,7 +86,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     // Nothing was charged; the hold stands, and a retry reuses the same checkout key.
     console.error("checkout could not start", (error as Error).message);
     return data(
-      { error: "The payment service is not answering right now. Nothing was charged and your time is held for 30 minutes: try again in a moment." },
+      { error: `The payment service is not answering right now. Nothing was charged and your time is held for ${CONSULT_HOLD_MINUTES} minutes: try again in a moment.` },
       { status: 503 },
     );
   }
@@ -159,7 +160,7 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
                 </div>
               </fieldset>
             ))}
-            <p className="text-xs text-char-500">Choosing a time holds it for 30 minutes while you pay on the secure payment page.</p>
+            <p className="text-xs text-char-500">Choosing a time holds it for {CONSULT_HOLD_MINUTES} minutes while you pay on the secure payment page.</p>
           </Form>
         )}
       </main>
