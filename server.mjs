@@ -51,12 +51,36 @@ function sendPlain(res, status, headers, body) {
   res.end(body);
 }
 
-async function send413(res, limit) {
+// After an early 413 the client may still be sending. Closing at once would make the kernel reset
+// the connection and the client could lose the answer; so the rest is read and thrown away (never
+// kept), for at most LINGER_BYTES or LINGER_MS, then the connection is cut.
+const LINGER_BYTES = 1024 * 1024;
+const LINGER_MS = 5_000;
+
+function lingerThenClose(req) {
+  if (req.complete) return;
+  let discarded = 0;
+  const cut = () => req.socket.destroy();
+  const timer = setTimeout(cut, LINGER_MS);
+  timer.unref();
+  req.on("data", (chunk) => {
+    discarded += chunk.length;
+    if (discarded > LINGER_BYTES) {
+      clearTimeout(timer);
+      cut();
+    }
+  });
+  req.on("end", () => clearTimeout(timer));
+  req.resume();
+}
+
+async function send413(req, res, limit, { bodyInFlight = true } = {}) {
   const response = hooks.bodyTooLarge(limit);
   hooks.applyBaselineHeaders(response.headers);
   const body = await response.text();
-  // The client may still be sending: close the connection after the answer instead of reading on.
-  res.shouldKeepAlive = false;
+  // Refused before "100 Continue": the client holds its body back, so the connection can just close.
+  if (bodyInFlight) res.on("finish", () => lingerThenClose(req));
+  else res.shouldKeepAlive = false;
   sendPlain(res, 413, response.headers, body);
 }
 
@@ -67,9 +91,8 @@ function cappedBody(req, limit, onOverflow) {
     transform(chunk, _encoding, callback) {
       seen += chunk.length;
       if (seen > limit.bytes) {
-        onOverflow();
         req.unpipe(counter);
-        req.pause();
+        onOverflow();
         callback(new Error("Request body over the limit."));
         return;
       }
@@ -98,7 +121,7 @@ async function handleApp(req, res) {
   const limit = hooks.bodyLimitFor(pathnameOf(req.url));
   const declared = req.headers["content-length"];
   if (MUTATIONS.has(req.method) && declared !== undefined && Number(declared) > limit.bytes) {
-    await send413(res, limit);
+    await send413(req, res, limit);
     return;
   }
   let url;
@@ -119,7 +142,7 @@ async function handleApp(req, res) {
       overflowed = true;
       // Aborted first, so the app sees a cancelled request rather than an error worth logging.
       controller.abort();
-      if (!res.headersSent) void send413(res, limit);
+      if (!res.headersSent) void send413(req, res, limit);
     });
     init.duplex = "half";
   }
@@ -182,7 +205,7 @@ server.on("checkContinue", (req, res) => {
   const declared = req.headers["content-length"];
   if (declared !== undefined && Number(declared) > limit.bytes) {
     if (process.env.ACCESS_LOG !== "off") console.log(`${req.method} ${loggedPath(req.url)} 413 (refused before 100 Continue)`);
-    void send413(res, limit);
+    void send413(req, res, limit, { bodyInFlight: false });
     return;
   }
   res.writeContinue();

@@ -14,6 +14,14 @@ import "~/lib/background.server";
 
 export const streamTimeout = 5_000;
 
+// The framework answers a malformed Origin header with a bare 400 (the server adds the security
+// headers); that is the client's fault and not worth a stack trace in the log per request.
+export function handleError(error: unknown, { request }: { request: Request }) {
+  if (request.signal.aborted) return;
+  if (error instanceof Error && error.message.startsWith("`origin` header is not a valid URL")) return;
+  console.error(error);
+}
+
 /**
  * What server.mjs needs from the app, read from the build (`build.entry.module.serverHooks`), so the
  * server and the app share one parsed configuration and one body-limit table.

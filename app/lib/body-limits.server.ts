@@ -32,6 +32,6 @@ export function bodyTooLarge(limit: BodyLimit): Response {
   const size = limit.bytes >= 1024 * 1024 ? `${Math.round(limit.bytes / (1024 * 1024))} MB` : `${Math.round(limit.bytes / 1024)} kB`;
   return Response.json(
     { errors: [{ path: "", message: `The request is too large: this form or API accepts at most ${size}.` }] },
-    { status: 413, headers: { Connection: "close" } },
+    { status: 413 },
   );
 }
