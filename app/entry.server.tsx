@@ -3,14 +3,41 @@ import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
-import { ServerRouter, type EntryContext, type RouterContextProvider } from "react-router";
+import { RouterContextProvider, ServerRouter, type EntryContext } from "react-router";
 import { NonceProvider } from "~/components/nonce";
-import { nonceContext } from "~/lib/security.server";
-import "~/lib/env.server";
+import { bodyLimitFor, bodyTooLarge } from "~/lib/body-limits.server";
+import { env } from "~/lib/env.server";
+import { socketAddressContext } from "~/lib/rate-limit.server";
+import { applyBaselineHeaders, nonceContext } from "~/lib/security.server";
 import "~/lib/db.server";
 import "~/lib/background.server";
 
 export const streamTimeout = 5_000;
+
+// The framework answers a malformed Origin header with a bare 400 (the server adds the security
+// headers); that is the client's fault and not worth a stack trace in the log per request.
+export function handleError(error: unknown, { request }: { request: Request }) {
+  if (request.signal.aborted) return;
+  if (error instanceof Error && error.message.startsWith("`origin` header is not a valid URL")) return;
+  console.error(error);
+}
+
+/**
+ * What server.mjs needs from the app, read from the build (`build.entry.module.serverHooks`), so the
+ * server and the app share one parsed configuration and one body-limit table.
+ */
+export const serverHooks = {
+  appOrigin: env.appOrigin,
+  bodyLimitFor,
+  bodyTooLarge,
+  applyBaselineHeaders,
+  /** The request context for one request: the socket's peer address, for per-address limits. */
+  createLoadContext(socketAddress: string | undefined): RouterContextProvider {
+    const context = new RouterContextProvider();
+    context.set(socketAddressContext, socketAddress ?? null);
+    return context;
+  },
+};
 
 export default function handleRequest(
   request: Request,

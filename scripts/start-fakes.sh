@@ -4,6 +4,8 @@ FAKES_INFO=""
 if [ -f fakes/email/server.ts ]; then
   export EMAIL_FAKE_PORT="${EMAIL_FAKE_PORT:-4010}"
   export RESEND_BASE_URL="http://127.0.0.1:${EMAIL_FAKE_PORT}"
+  # The stand-in accepts only the app's own key, as the service would.
+  if [ -n "${RESEND_API_KEY:-}" ]; then export EMAIL_FAKE_API_KEY="${RESEND_API_KEY}"; fi
   node_modules/.bin/tsx fakes/email/server.ts &
   pids+=($!)
   FAKES_INFO+="  Local mail catcher:          ${RESEND_BASE_URL}"$'\n'

@@ -81,6 +81,19 @@ export const sessions = sqliteTable(
   (t) => [index("sessions_user_idx").on(t.userId)],
 );
 
+// Rate-limit counters shared by every app process: one row per limiter and key (an address, a
+// company and address, an account and address), a fixed window in epoch milliseconds. Spending
+// is one INSERT … ON CONFLICT DO UPDATE … RETURNING, so two processes never lose a count.
+export const rateLimits = sqliteTable(
+  "rate_limits",
+  {
+    key: text("key").primaryKey(),
+    points: integer("points").notNull(),
+    windowEndsAt: integer("window_ends_at").notNull(),
+  },
+  (t) => [index("rate_limits_window_idx").on(t.windowEndsAt)],
+);
+
 
 // One table for the whole stock: each kind uses the dimension columns that describe it
 // (validated per kind in app/lib/catalog-schema.ts), the others stay null.

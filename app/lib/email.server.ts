@@ -37,7 +37,11 @@ export async function prepareOutboxRow(message: OutboxMessage): Promise<typeof e
   };
 }
 
-/** The public origin for links in e-mails. */
+/**
+ * The public origin for links in e-mails and payment return addresses: APP_ORIGIN, which
+ * production requires. Only development and tests, which may leave it unset, fall back to the
+ * request's own origin.
+ */
 export function appOrigin(request: Request): string {
-  return env.APP_ORIGIN ? new URL(env.APP_ORIGIN).origin : new URL(request.url).origin;
+  return env.appOrigin ?? new URL(request.url).origin;
 }

@@ -1,5 +1,6 @@
 import { randomBytes } from "node:crypto";
 import { createContext, type MiddlewareFunction } from "react-router";
+import { bodyLimitFor, bodyTooLarge } from "~/lib/body-limits.server";
 import { env } from "~/lib/env.server";
 
 /** Per-request CSP nonce, read by entry.server to stamp React Router's scripts. */
@@ -19,7 +20,7 @@ export function isCrossOriginWrite(request: Request): boolean {
   const url = new URL(request.url);
   if (ORIGIN_EXEMPT_PATHS.has(url.pathname)) return false;
   const allowed = new Set([url.origin]);
-  if (env.APP_ORIGIN) allowed.add(new URL(env.APP_ORIGIN).origin);
+  if (env.appOrigin) allowed.add(env.appOrigin);
   const origin = request.headers.get("origin");
   if (origin && origin !== "null") return !allowed.has(origin);
   if (origin === "null") return true;
@@ -49,17 +50,58 @@ export function contentSecurityPolicy(nonce: string): string {
   ].join("; ");
 }
 
+/** Strict-Transport-Security for the configured origin: only when it is https and HSTS_MAX_AGE > 0. */
+export function strictTransportSecurity(): string | null {
+  if (!env.appOrigin?.startsWith("https:") || env.HSTS_MAX_AGE === 0) return null;
+  return `max-age=${env.HSTS_MAX_AGE}`;
+}
+
 /** Sets the security headers on any response; keeps ones a route set on purpose. */
 export function applySecurityHeaders(headers: Headers, nonce: string): void {
   headers.set("Content-Security-Policy", contentSecurityPolicy(nonce));
+  setCommonHeaders(headers);
+}
+
+function setCommonHeaders(headers: Headers): void {
   headers.set("X-Content-Type-Options", "nosniff");
   headers.set("Referrer-Policy", "strict-origin-when-cross-origin");
   headers.set("X-Frame-Options", "DENY");
   headers.set("Cross-Origin-Opener-Policy", "same-origin");
   headers.set("Permissions-Policy", "camera=(), microphone=(), geolocation=()");
+  const hsts = strictTransportSecurity();
+  if (hsts) headers.set("Strict-Transport-Security", hsts);
 }
 
-/** Root middleware: origin check for writes, a nonce, and the security headers on every answer. */
+/**
+ * For answers the app's middleware never saw (the framework's own 400 for a malformed Origin, a
+ * 413 or 500 from the server itself): the same headers, and a policy that allows nothing, since
+ * such an answer is never a page with scripts.
+ */
+export function applyBaselineHeaders(headers: Headers): void {
+  if (!headers.has("Content-Security-Policy")) {
+    headers.set("Content-Security-Policy", "default-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'");
+  }
+  setCommonHeaders(headers);
+  if (!headers.has("Cache-Control")) headers.set("Cache-Control", "no-store");
+}
+
+// Answers that carry customer details (names, addresses, photos, prices, tokens): never stored by
+// the browser or any cache in between, whatever the route set.
+const PRIVATE_PATHS = [/^\/app(?:[/.]|$)/, /^\/my(?:[/.]|$)/, /^\/welcome\//, /^\/photos\//, /^\/api\/leads(?:[/.]|$)/, /^\/c\/[^/]+\/(?:sent|consult)\//, /^\/login(?:[/.]|$)/];
+
+/** `Cache-Control: private, no-store` on private paths and signed-in requests, and wherever a route set none. */
+export function applyCachePolicy(request: Request, headers: Headers): void {
+  const path = new URL(request.url).pathname;
+  const signedIn = /(?:^|;\s*)ew_session=/.test(request.headers.get("cookie") ?? "");
+  if (signedIn || PRIVATE_PATHS.some((re) => re.test(path)) || !headers.has("Cache-Control")) {
+    headers.set("Cache-Control", "private, no-store");
+  }
+}
+
+/**
+ * Root middleware: origin check for writes, the body cap for the route's kind, a nonce, the
+ * security headers and the cache policy on every answer.
+ */
 export const securityMiddleware: MiddlewareFunction<Response> = async ({ request, context }, next) => {
   if (isCrossOriginWrite(request)) {
     const response = Response.json(
@@ -69,9 +111,17 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
     applySecurityHeaders(response.headers, "");
     return response;
   }
+  const limit = bodyLimitFor(new URL(request.url).pathname);
+  const declared = Number(request.headers.get("content-length") ?? "0");
+  if (!SAFE_METHODS.has(request.method) && declared > limit.bytes) {
+    const response = bodyTooLarge(limit);
+    applyBaselineHeaders(response.headers);
+    return response;
+  }
   const nonce = randomBytes(16).toString("base64");
   context.set(nonceContext, nonce);
   const response = await next();
   applySecurityHeaders(response.headers, nonce);
+  applyCachePolicy(request, response.headers);
   return response;
 };

@@ -101,10 +101,25 @@ export function redirectToSignIn(request: Request) {
   return redirect(`/login?redirectTo=${encodeURIComponent(back)}`);
 }
 
-/** Only same-site paths may be redirect targets after sign-in (no open redirects). */
+// C0 controls, DEL and C1 controls: browsers drop tabs and newlines from URLs ("/\t/evil.example"
+// becomes "//evil.example"), and a newline in a Location header fails the whole response.
+const CONTROL_CHARACTERS = /[\u0000-\u001f\u007f-\u009f]/;
+
+/**
+ * The only redirect targets after sign-in: paths on the app's own origin. The target is parsed as
+ * the browser will parse it (WHATWG URL, against the app origin) and must keep that origin; the
+ * answer is the normalised path, query and fragment, which are always safe in a header. Anything
+ * else (another host, a scheme, "//", "/\\", control characters) gives the fallback.
+ */
 export function safeRedirectPath(target: string | null | undefined, fallback: string): string {
-  if (!target || !target.startsWith("/") || target.startsWith("//") || target.startsWith("/\\")) {
+  if (!target || !target.startsWith("/") || CONTROL_CHARACTERS.test(target)) return fallback;
+  const base = env.appOrigin ?? "http://localhost";
+  let url: URL;
+  try {
+    url = new URL(target, base);
+  } catch {
     return fallback;
   }
-  return target;
+  if (url.origin !== new URL(base).origin) return fallback;
+  return `${url.pathname}${url.search}${url.hash}`;
 }

@@ -50,11 +50,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-// Requests from one address in 10 minutes; honest households send one or two.
-const requestLimiter = createLimiter(env.PUBLIC_FORM_LIMIT, 10 * 60);
+// Requests from one address to one company in 10 minutes; honest households send one or two. Keyed
+// by company too, so a bot on one contractor's page cannot close every contractor's form.
+const requestLimiter = createLimiter("lead-request:company+address", env.PUBLIC_FORM_LIMIT, 10 * 60);
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const limit = await spendLimit(requestLimiter, clientAddress(request));
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
+  const limit = await spendLimit(requestLimiter, `${company.id}|${clientAddress(request, context)}`);
   if (!limit.ok) {
     return data(
       { errors: { form: "Too many requests from this address. Please wait a few minutes and try again." }, values: {} },
@@ -65,7 +67,6 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
     return data({ errors: { photos: "The request is too large: attach at most 6 photos of 10 MB each." }, values: {} }, { status: 413 });
   }
-  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
   let form: FormData;
   try {
     form = await request.formData();

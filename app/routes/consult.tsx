@@ -54,14 +54,15 @@ const bookSchema = z.object({
   timeZone: z.string().max(64).optional(),
 });
 
-const bookingLimiter = createLimiter(env.PUBLIC_FORM_LIMIT, 10 * 60);
+// Per company and address, like the request form.
+const bookingLimiter = createLimiter("consult-booking:company+address", env.PUBLIC_FORM_LIMIT, 10 * 60);
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const limit = await spendLimit(bookingLimiter, clientAddress(request));
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { company, lead } = await loadLead(params);
+  const limit = await spendLimit(bookingLimiter, `${company.id}|${clientAddress(request, context)}`);
   if (!limit.ok) {
     return data({ error: "Too many tries from this address. Please wait a few minutes." }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
   }
-  const { company, lead } = await loadLead(params);
   const parsed = bookSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
   const timeZone = parsed.data.timeZone && Intl.supportedValuesOf("timeZone").includes(parsed.data.timeZone) ? parsed.data.timeZone : null;

@@ -2,7 +2,8 @@ import { data, Form, redirect, useNavigation, useSearchParams } from "react-rout
 import type { Route } from "./+types/login";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { authenticator, SIGN_IN_FAILED, SignInError } from "~/lib/auth.server";
+import { SIGN_IN_FAILED, SignInError, verifySignIn } from "~/lib/auth.server";
+import { clientAddress } from "~/lib/rate-limit.server";
 import { getSessionUser, safeRedirectPath, startSession, sweepExpiredSessions } from "~/lib/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Emberwright" }];
@@ -24,14 +25,20 @@ export async function loader({ request }: Route.LoaderArgs) {
   return null;
 }
 
-export async function action({ request }: Route.ActionArgs) {
-  const form = await request.clone().formData();
+export async function action({ request, context }: Route.ActionArgs) {
+  let form: FormData;
   try {
-    const user = await authenticator.authenticate("password", request);
-    await sweepExpiredSessions();
-    const cookie = await startSession(user.id);
+    form = await request.formData();
+  } catch {
+    return data({ message: SIGN_IN_FAILED, email: "" }, { status: 400 });
+  }
+  try {
+    const user = await verifySignIn(form, clientAddress(request, context));
+    // The target is settled before a session row exists, so nothing is left half-written.
     const target = safeRedirectPath(String(form.get("redirectTo") ?? ""), homeFor(user.role));
     const allowed = user.role === "homeowner" && target.startsWith("/app") ? "/my" : target;
+    await sweepExpiredSessions();
+    const cookie = await startSession(user.id);
     return redirect(allowed, { headers: { "Set-Cookie": cookie } });
   } catch (error) {
     if (error instanceof SignInError) {

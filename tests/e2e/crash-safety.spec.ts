@@ -15,6 +15,10 @@ const env = {
   DATABASE_URL: DB_URL,
   UPLOADS_DIR: UPLOADS,
   SESSION_SECRET: "crash-test-secret-0123456789abcdef0123456789",
+  APP_ORIGIN: `http://127.0.0.1:${PORT}`,
+  STRIPE_WEBHOOK_SECRET: "whsec_crash_0123456789",
+  STRIPE_SECRET_KEY: "sk_test_crash_0123456789",
+  RESEND_API_KEY: "re_crash_0123456789",
   PORT: String(PORT),
   HOST: "127.0.0.1",
   PUBLIC_FORM_LIMIT: "100000",
@@ -23,7 +27,7 @@ const env = {
 };
 
 function startServer(): ChildProcess {
-  return spawn("node_modules/.bin/react-router-serve", ["./build/server/index.js"], { env, stdio: "ignore" });
+  return spawn("node", ["server.mjs"], { env, stdio: "ignore" });
 }
 
 async function waitForHealth() {

@@ -19,7 +19,8 @@ test("production refuses a short SESSION_SECRET", () => {
 test("SESSION_SECRET takes a comma-separated list so secrets can rotate", () => {
   const a = "a".repeat(32);
   const b = "b".repeat(40);
-  expect(parseEnv({ NODE_ENV: "production", SESSION_SECRET: `${a}, ${b}` }).sessionSecrets).toEqual([a, b]);
+  const own = { APP_ORIGIN: "https://pits.example.test", STRIPE_WEBHOOK_SECRET: "whsec_own", STRIPE_SECRET_KEY: "sk_live_own", RESEND_API_KEY: "re_own" };
+  expect(parseEnv({ NODE_ENV: "production", SESSION_SECRET: `${a}, ${b}`, ...own }).sessionSecrets).toEqual([a, b]);
 });
 
 test("a malformed URL setting is named in the error", () => {

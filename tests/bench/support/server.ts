@@ -1,6 +1,6 @@
 /*
  * The production server as the end-to-end tests run it (scripts/e2e-server.sh): a fresh database
- * under data/bench with the demo seed, the local fakes, NODE_ENV=production and react-router-serve
+ * under data/bench with the demo seed, the local fakes, NODE_ENV=production and server.mjs
  * on 127.0.0.1 at a free port. Only the per-address form limit is raised, so the lead-request load
  * measures the server rather than the limiter.
  */
@@ -38,6 +38,11 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
     EMAIL_FAKE_PORT: String(emailPort),
     PAYMENTS_FAKE_PORT: String(paymentsPort),
     PUBLIC_FORM_LIMIT: "100000",
+    APP_ORIGIN: `http://127.0.0.1:${port}`,
+    STRIPE_WEBHOOK_SECRET: "whsec_bench_0123456789",
+    STRIPE_SECRET_KEY: "sk_test_bench_0123456789",
+    RESEND_API_KEY: "re_bench_0123456789",
+    ACCESS_LOG: "off",
   };
   delete env.NODE_ENV;
   for (const script of ["scripts/migrate.ts", "scripts/seed.ts"]) {
@@ -51,7 +56,7 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
     "set -euo pipefail",
     "pids=()",
     "source scripts/start-fakes.sh",
-    "exec node_modules/.bin/react-router-serve ./build/server/index.js",
+    "exec node server.mjs",
   ].join("\n");
   const child = startProcess("bash", ["-c", shell], { cwd: root, env: { ...env, NODE_ENV: "production" } });
   let output = "";

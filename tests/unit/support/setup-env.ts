@@ -6,3 +6,5 @@ import path from "node:path";
 process.env.DATABASE_URL ??= `file:${path.join(tmpdir(), "emberwright-tests", `${randomUUID()}.db`)}`;
 process.env.UPLOADS_DIR ??= path.join(tmpdir(), "emberwright-tests", `uploads-${randomUUID()}`);
 process.env.OUTBOX_WORKER = "off";
+// Route tests stand behind a local proxy (see routeArgs): its X-Forwarded-For names the client.
+process.env.TRUST_PROXY ??= "loopback";
