@@ -1,4 +1,6 @@
 import { eq } from "drizzle-orm";
+import { Authenticator } from "remix-auth";
+import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
 import { users } from "~/db/schema";
 import { db } from "~/lib/db.server";
@@ -82,4 +84,16 @@ export async function verifySignIn(form: FormData, address: string): Promise<Sig
     throw new SignInError(SIGN_IN_FAILED, 401);
   }
   return { id: user.id, role: user.role, companyId: user.companyId };
+}
+
+/*
+ * The password strategy. The client's address comes from the socket (or a trusted proxy), which a
+ * Request does not carry (remix-auth hands its strategy a fresh copy of the request), so each sign-in
+ * gets an authenticator whose strategy closes over the address; both are small plain objects.
+ */
+/** Signs in with the posted e-mail and password through remix-auth's form strategy; throws SignInError. */
+export function authenticateWithPassword(request: Request, address: string): Promise<SignedIn> {
+  const authenticator = new Authenticator<SignedIn>();
+  authenticator.use(new FormStrategy(({ form }) => verifySignIn(form, address)), "password");
+  return authenticator.authenticate("password", request);
 }

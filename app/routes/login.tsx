@@ -2,7 +2,7 @@ import { data, Form, redirect, useNavigation, useSearchParams } from "react-rout
 import type { Route } from "./+types/login";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { SIGN_IN_FAILED, SignInError, verifySignIn } from "~/lib/auth.server";
+import { authenticateWithPassword, SIGN_IN_FAILED, SignInError } from "~/lib/auth.server";
 import { clientAddress } from "~/lib/rate-limit.server";
 import { getSessionUser, safeRedirectPath, startSession, sweepExpiredSessions } from "~/lib/session.server";
 
@@ -28,12 +28,13 @@ export async function loader({ request }: Route.LoaderArgs) {
 export async function action({ request, context }: Route.ActionArgs) {
   let form: FormData;
   try {
-    form = await request.formData();
+    // The strategy reads the body itself; the form is read from a copy for redirectTo and the e-mail.
+    form = await request.clone().formData();
   } catch {
     return data({ message: SIGN_IN_FAILED, email: "" }, { status: 400 });
   }
   try {
-    const user = await verifySignIn(form, clientAddress(request, context));
+    const user = await authenticateWithPassword(request, clientAddress(request, context));
     // The target is settled before a session row exists, so nothing is left half-written.
     const target = safeRedirectPath(String(form.get("redirectTo") ?? ""), homeFor(user.role));
     const allowed = user.role === "homeowner" && target.startsWith("/app") ? "/my" : target;
