@@ -79,6 +79,10 @@ export const DEMO_COMPANIES: SeedCompany[] = [
       { kind: "adhesive", name: "Masonry adhesive 10.1 oz", priceCents: 850 },
       { kind: "bedding-sand", name: "Concrete sand", priceCents: 4200 },
       { kind: "joint-sand", name: "Polymeric joint sand 50 lb", priceCents: 2900 },
+      { kind: "refractory-mortar", name: "Refractory mortar, 1 gal", priceCents: 3400 },
+      { kind: "fill", name: "Pea gravel 0.5 ft³", priceCents: 650 },
+      { kind: "edge-restraint", name: "Paver edging 8 ft", priceCents: 1150 },
+      { kind: "edge-spike", name: "Edging spike 10 in", priceCents: 45 },
     ],
   },
   {
@@ -101,6 +105,7 @@ export const DEMO_COMPANIES: SeedCompany[] = [
       { kind: "steel-ring", name: "Camp Ring 38", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 38, heightIn: 10, priceCents: 19900 },
       { kind: "aggregate", name: "Road base", priceCents: 4500 },
       { kind: "adhesive", name: "Block glue", priceCents: 790 },
+      { kind: "fill", name: "Pea gravel bag", priceCents: 600 },
     ],
   },
 ];

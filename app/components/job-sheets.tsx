@@ -39,6 +39,8 @@ const UNIT_LABEL: Record<MaterialLine["unit"], [string, string]> = {
   ton: ["ton", "tons"],
   cartridge: ["cartridge", "cartridges"],
   bag: ["bag", "bags"],
+  pail: ["pail", "pails"],
+  piece: ["piece", "pieces"],
 };
 
 /** "45 each", "5.1 tons", "4 cartridges". */

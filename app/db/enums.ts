@@ -16,6 +16,10 @@ export const CATALOG_KINDS = [
   "adhesive",
   "bedding-sand",
   "joint-sand",
+  "refractory-mortar",
+  "fill",
+  "edge-restraint",
+  "edge-spike",
 ] as const;
 export type CatalogKind = (typeof CATALOG_KINDS)[number];
 

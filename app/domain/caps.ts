@@ -7,8 +7,17 @@
  *   inner edge a1 = a − o_i, outer edge a2 = a1 + W, outer overhang o_o = W − T − o_i.
  * Each side cut sits j/2 off the radial joint line, which shortens every chord by j / cos(π/N)
  * (derived here from the regular-polygon chord c = 2a·tan(π/N), Machinery's Handbook,
- * "Segments of a Circle"). The cap count is the smallest N ≥ 3 whose outer width fits the blank,
- * since fewer caps means fewer cuts and less waste (common practice, no source).
+ * "Segments of a Circle"). The cap count is the smallest N ≥ 3 whose outer width fits the blank
+ * with every mark at least the company's minimum from a corner (factory corners chip and are rarely
+ * square), since fewer caps means fewer cuts and less waste; a count that matches the wall's units
+ * (or divides them) is preferred when it fits and wastes at most a few points more, so cap joints
+ * can sit centred over the units (common practice, no source).
+ *
+ * Arcs: every edge of a cap ends on its two side cuts. A side cut runs parallel to the radial joint
+ * line at π/N, j/2 inside it, so a circle of radius r meets it at β = π/N − asin(j/(2r)) from the
+ * cap's centre line (derived here); the arc between the cuts subtends 2β, its chord is 2r·sin β,
+ * its rise h = r(1 − cos β) and its length l = π·r·(2β in degrees)/180 (Machinery's Handbook,
+ * "Segments of a Circle").
  */
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
 import { formatInches } from "~/domain/units";
@@ -62,9 +71,11 @@ export type CapPlan = {
   outerRadiusIn: number;
   /** How far the inner arc bows into the cap past the straight inner edge, at its middle, in. */
   innerSagittaIn: number;
-  /** How far the outer arc falls short of the straight outer edge at each corner, in. */
+  /** Rise of the outer arc above its chord between the side cuts, r(1 − cos β), in. */
   outerSagittaIn: number;
-  /** Angle each arc subtends at the pit centre, degrees. */
+  /** Along each side cut, from the outer corner to where the arced outer edge meets it, in. */
+  outerCornerTrimIn: number;
+  /** Angle each arc subtends at the pit centre between the two side cuts, degrees. */
   innerArcDeg: number;
   outerArcDeg: number;
   /** Arc lengths along the curved edges, in. */
@@ -79,12 +90,34 @@ export type CapPlan = {
   jointIn: number;
   /** Centre to the caps' outer corners, in: the cap ring's footprint reaches this far. */
   outerCornerRadiusIn: number;
+  /** c1/2 and c2/2: marks each side of the blank's centre line (for blanks that are not exactly nominal), in. */
+  innerHalfWidthIn: number;
+  outerHalfWidthIn: number;
+  /** The fewest caps that fit, and the offcut share of that count (0–1), shown beside the chosen count. */
+  fewestCount: number;
+  fewestOffcutShare: number;
+  /** Why this count: the fewest that fit, or a count matching the wall's units (or dividing them). */
+  countReason: "fewest" | "matches-wall";
+  /**
+   * Overhangs along a straight cap against the wall's faces, whatever the caps' turn over the units,
+   * in (negative: the wall shows). Outer: least where the cap's mid-edge passes a wall corner, most
+   * at a cap corner over a mid-face. Inner (toward the fire): least at a cap corner over the middle
+   * of a unit's back, most at the cap's mid-edge over a back corner.
+   */
+  overhangRange: { outerMinIn: number; outerMaxIn: number; innerMinIn: number; innerMaxIn: number };
+  /** The same with arced edges: inner struck at innerRadiusIn, outer at a2. */
+  arcedOverhangRange: { outerMinIn: number; outerMaxIn: number; innerMinIn: number; innerMaxIn: number };
 };
 
 /** Width (in) of a cap edge at edge distance r for n caps with joint j: 2r·tan(π/n) − j/cos(π/n). */
 export function capEdgeWidth(edgeDistanceIn: number, capCount: number, jointIn: number): number {
   const half = Math.PI / capCount;
   return 2 * edgeDistanceIn * Math.tan(half) - jointIn / Math.cos(half);
+}
+
+/** Share of a blank L × W lost when a cap of widths c1, c2 and depth d is cut from it (0–1). */
+function offcutOf(c1: number, c2: number, depthIn: number, l: number, w: number): number {
+  return 1 - (((c1 + c2) / 2) * depthIn) / (l * w);
 }
 
 /** Plans the cap ring on a wall with back edge distance a and depth T (all in, degrees; unrounded). */
@@ -94,8 +127,18 @@ export function planCaps(args: {
   cap: CapBlank;
   jointIn: number;
   spares: number;
+  /** No mark closer than this to a blank's corner, in (0: the factory corner may be used). */
+  minMarkIn?: number;
+  /** Pieces in the wall's top course; with it a matching cap count is preferred and overhangs are ranged. */
+  wallSides?: number;
+  /** Centre to the wall's outside and back corners, in (for the overhang range). */
+  wallOutsideCornerRadiusIn?: number;
+  wallBackCornerRadiusIn?: number;
+  /** A matching count may waste at most this many more points of each blank than the fewest, %. */
+  matchMaxExtraOffcutPct?: number;
 }): CapPlan {
   const { edgeDistanceIn: a, wallDepthIn: t, cap, jointIn: j, spares } = args;
+  const minMarkIn = args.minMarkIn ?? 0;
   const { lengthIn: l, depthIn: w, innerOverhangIn: oi } = cap;
   const positive: [keyof CapBlank, string][] = [
     ["lengthIn", "length"],
@@ -148,10 +191,29 @@ export function planCaps(args: {
   }
   const a2 = a1 + capDepthIn;
 
-  let count = MIN_CAPS;
-  while (count <= MAX_CAPS && capEdgeWidth(a2, count, j) > l + EPS_IN) count++;
-  if (count > MAX_CAPS) {
+  const usableIn = l - 2 * minMarkIn;
+  let fewestCount = MIN_CAPS;
+  while (fewestCount <= MAX_CAPS && capEdgeWidth(a2, fewestCount, j) > usableIn + EPS_IN) fewestCount++;
+  if (fewestCount > MAX_CAPS) {
     throw new PlanGeometryError("cap.lengthIn", "The cap blanks are too short for this ring.");
+  }
+  const offcutFor = (n: number) => offcutOf(capEdgeWidth(a1, n, j), capEdgeWidth(a2, n, j), capDepthIn, l, w);
+  const fewestOffcutShare = offcutFor(fewestCount);
+  let count = fewestCount;
+  let countReason: CapPlan["countReason"] = "fewest";
+  const sides = args.wallSides;
+  if (sides !== undefined && sides >= MIN_CAPS && sides % fewestCount !== 0) {
+    const extra = (args.matchMaxExtraOffcutPct ?? 0) / 100;
+    for (let n = fewestCount + 1; n <= sides; n++) {
+      if (sides % n !== 0) continue;
+      if (offcutFor(n) <= fewestOffcutShare + extra + EPS_IN) {
+        count = n;
+        countReason = "matches-wall";
+      }
+      break;
+    }
+  } else if (sides !== undefined && sides % fewestCount === 0) {
+    countReason = "matches-wall";
   }
   const c1 = capEdgeWidth(a1, count, j);
   const c2 = capEdgeWidth(a2, count, j);
@@ -164,14 +226,31 @@ export function planCaps(args: {
 
   const half = Math.PI / count;
   // Inner arc: struck through both inner corners from the pit centre, so it only removes stone
-  // (the arc bows outward, into the cap). Outer arc: struck at a2 through the middle of the outer
-  // edge, cutting the corners back. Sagitta h = r − √(r² − (c/2)²) (Machinery's Handbook,
-  // "Segments of a Circle"), with the arc's half-angle from sin(α/2) = (c/2)/r.
+  // (the arc bows outward, into the cap); its ends are the corners, on the side cuts. Outer arc:
+  // struck at a2 through the middle of the outer edge, cutting the corners back to the side cuts.
   const innerRadiusIn = Math.hypot(a1, c1 / 2);
-  const innerHalfArc = Math.atan2(c1 / 2, a1);
+  const halfArcBetweenCuts = (r: number) => half - Math.asin(Math.min(1, j / (2 * r)));
+  const innerHalfArc = halfArcBetweenCuts(innerRadiusIn);
   const outerRadiusIn = a2;
-  const outerHalfArc = Math.asin(Math.min(1, c2 / 2 / a2));
-  const capAreaIn2 = ((c1 + c2) / 2) * capDepthIn;
+  const outerHalfArc = halfArcBetweenCuts(a2);
+  const outerArcEnd: [number, number] = [a2 * Math.sin(outerHalfArc), a2 * Math.cos(outerHalfArc)];
+  const outerCornerTrimIn = Math.hypot(c2 / 2 - outerArcEnd[0], a2 - outerArcEnd[1]);
+  const outerCornerRadiusIn = Math.hypot(a2, c2 / 2);
+  const wallOutside = t + a;
+  const wallOutsideCorner = args.wallOutsideCornerRadiusIn ?? wallOutside;
+  const wallBackCorner = args.wallBackCornerRadiusIn ?? a;
+  const overhangRange = {
+    outerMinIn: a2 - wallOutsideCorner,
+    outerMaxIn: outerCornerRadiusIn - wallOutside,
+    innerMinIn: a - innerRadiusIn,
+    innerMaxIn: wallBackCorner - a1,
+  };
+  const arcedOverhangRange = {
+    outerMinIn: a2 - wallOutsideCorner,
+    outerMaxIn: a2 - wallOutside,
+    innerMinIn: a - innerRadiusIn,
+    innerMaxIn: wallBackCorner - innerRadiusIn,
+  };
   return {
     count,
     blankLengthIn: l,
@@ -190,16 +269,24 @@ export function planCaps(args: {
     outerEdgeDistanceIn: a2,
     innerRadiusIn,
     outerRadiusIn,
-    innerSagittaIn: innerRadiusIn - a1,
-    outerSagittaIn: a2 - Math.sqrt(a2 * a2 - (c2 / 2) ** 2),
+    innerSagittaIn: innerRadiusIn * (1 - Math.cos(innerHalfArc)),
+    outerSagittaIn: a2 * (1 - Math.cos(outerHalfArc)),
+    outerCornerTrimIn,
     innerArcDeg: (2 * innerHalfArc * 180) / Math.PI,
     outerArcDeg: (2 * outerHalfArc * 180) / Math.PI,
     innerArcLengthIn: innerRadiusIn * 2 * innerHalfArc,
     outerArcLengthIn: outerRadiusIn * 2 * outerHalfArc,
     ripToDepthIn,
-    offcutShare: 1 - capAreaIn2 / (l * w),
+    offcutShare: offcutOf(c1, c2, capDepthIn, l, w),
     spares,
     jointIn: j,
-    outerCornerRadiusIn: Math.hypot(a2, c2 / 2),
+    outerCornerRadiusIn,
+    innerHalfWidthIn: c1 / 2,
+    outerHalfWidthIn: c2 / 2,
+    fewestCount,
+    fewestOffcutShare,
+    countReason,
+    overhangRange,
+    arcedOverhangRange,
   };
 }

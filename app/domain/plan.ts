@@ -2,14 +2,16 @@
  * computePlan: the whole estimate for one round fire pit, from the wall ring to the price. Pure
  * and synchronous; all lengths in inches, money in integer cents, the result JSON-serialisable.
  */
-import { listCautions, listWarnings, type Caution, type Warning } from "~/domain/advice";
+import { fireOpeningOf, listCautions, listWarnings, type Caution, type Warning } from "~/domain/advice";
 import { planCaps, type CapBlank, type CapPlan } from "~/domain/caps";
 import { resolveFactors, type CompanyFactors, type SupplyPrices } from "~/domain/factors";
 import { planFirebrick, planSteelRing, type LinerPlan } from "~/domain/liner";
 import { planPatio, type PatioPlan } from "~/domain/patio";
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
-import { estimateLabour, priceJob, type LabourTask, type PriceEstimate, type UnitPrices } from "~/domain/pricing";
+import { estimateLabour, type LabourEstimate } from "~/domain/labour";
+import { priceJob, type PriceEstimate, type UnitPrices } from "~/domain/pricing";
 import {
+  SUNDRY_KEYS,
   estimateAdhesive,
   estimateBase,
   listMaterials,
@@ -55,7 +57,8 @@ export type PlanInput = {
   jointIn?: number;
   liner?: LinerInput;
   patio?: PatioInput | null;
-  site?: { setbackFt?: number };
+  /** Distances from the fire, ft: nearest structure (setbackFt), property line, overhanging branches. */
+  site?: { setbackFt?: number; propertyLineFt?: number; branchesFt?: number };
 };
 
 export type PlanOptions = { factors?: Partial<CompanyFactors>; supplyPrices?: SupplyPrices };
@@ -68,8 +71,12 @@ export type Plan = {
   base: BaseEstimate;
   adhesive: AdhesiveEstimate;
   materials: MaterialLine[];
-  labour: { hours: number; tasks: LabourTask[]; sawCuts: number };
+  labour: LabourEstimate;
   price: PriceEstimate | null;
+  /** Supplies on the order that the company has not priced: left out of the price (see SUNDRY_KEYS). */
+  unpricedItems: string[];
+  /** The fire's clear opening: inside the firebrick or ring, or the bowl, in. */
+  fireOpeningIn: number;
   warnings: Warning[];
   cautions: Caution[];
 };
@@ -103,10 +110,18 @@ export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
         cap,
         jointIn,
         spares: factors.capSpares,
+        minMarkIn: factors.minMarkFromCornerIn,
+        wallSides: ring.unitsPerCourse,
+        wallOutsideCornerRadiusIn: ring.outsideCornerRadiusIn,
+        // Back corners: where backs touch they sit on a/cos(π/N); a V-gap or trim leaves them nearer the middle line.
+        wallBackCornerRadiusIn: ring.edgeDistanceIn / Math.cos(Math.PI / ring.unitsPerCourse),
+        matchMaxExtraOffcutPct: factors.capMatchMaxExtraOffcutPct,
       })
     : null;
 
-  const linedHeightIn = ring.courses * wallUnit.heightIn;
+  // The liner stops at the top of the block, less a clearance under the caps so they bear on the block.
+  const blockTopIn = ring.courses * wallUnit.heightIn;
+  const linedHeightIn = Math.max(0, blockTopIn - (cap ? factors.linerTopClearanceIn : 0));
   let linerPlan: LinerPlan | null = null;
   if (liner.kind === "steel-ring") {
     for (const key of ["outsideDiameterIn", "heightIn"] as const) {
@@ -114,14 +129,28 @@ export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
         throw new PlanGeometryError(`liner.${key}`, "This size must be a length above 0 in.");
       }
     }
-    linerPlan = planSteelRing({ bowlDiameterIn: ring.bowlDiameterIn, insert: liner, minGapIn: factors.linerMinGapIn });
+    linerPlan = planSteelRing({
+      bowlDiameterIn: ring.bowlDiameterIn,
+      insert: liner,
+      minGapIn: factors.linerMinGapIn,
+      linedHeightIn,
+      wallSides: ring.unitsPerCourse,
+      raiseOverIn: factors.steelRingRaiseOverIn,
+    });
   } else if (liner.kind === "firebrick") {
     for (const key of ["lengthIn", "widthIn", "heightIn"] as const) {
       if (!Number.isFinite(liner[key]) || liner[key] <= 0) {
         throw new PlanGeometryError(`liner.${key}`, "This size must be a length above 0 in.");
       }
     }
-    linerPlan = planFirebrick({ bowlDiameterIn: ring.bowlDiameterIn, linedHeightIn, brick: liner });
+    linerPlan = planFirebrick({
+      bowlDiameterIn: ring.bowlDiameterIn,
+      linedHeightIn,
+      brick: liner,
+      jointIn: factors.refractoryJointIn,
+      minRipIn: factors.firebrickMinRipIn,
+      wallSides: ring.unitsPerCourse,
+    });
   }
 
   const patio = patioInput
@@ -151,7 +180,7 @@ export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
     adhesive,
     factors,
   });
-  const labour = estimateLabour({ ring, caps, liner: linerPlan, patio, base, factors });
+  const labour = estimateLabour({ ring, wallUnit, caps, liner: linerPlan, patio, base, materials, factors });
 
   const supply = options.supplyPrices ?? {};
   const unitPrices: UnitPrices = {
@@ -165,12 +194,28 @@ export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
     adhesive: supply.adhesivePerCartridgeCents,
     "bedding-sand": supply.beddingSandPerTonCents,
     "joint-sand": supply.jointSandPerBagCents,
+    "refractory-mortar": supply.refractoryMortarPerPailCents,
+    fill: supply.fillPerBagCents,
+    "edge-restraint": supply.edgeRestraintPerPieceCents,
+    "edge-spike": supply.edgeSpikeCents,
   };
-  const price = priceJob({ materials, unitPrices, labourHours: labour.hours, factors });
+  // Sundries a company has not priced yet are left out of the price and named, rather than
+  // leaving the whole job unpriced; every other line must be priced.
+  const isPriced = (m: MaterialLine) => typeof unitPrices[m.key] === "number" && Number.isFinite(unitPrices[m.key]);
+  const unpricedItems = materials.filter((m) => SUNDRY_KEYS.includes(m.key) && !isPriced(m)).map((m) => m.item);
+  const priceable = materials.filter((m) => !SUNDRY_KEYS.includes(m.key) || isPriced(m));
+  const price = priceJob({ materials: priceable, unitPrices, labourHours: labour.hours, factors });
 
-  const setbackFt = input.site?.setbackFt;
-  if (setbackFt !== undefined && (!Number.isFinite(setbackFt) || setbackFt < 0)) {
-    throw new PlanGeometryError("site.setbackFt", "The setback must be a distance of 0 ft or more.");
+  const site = input.site ?? {};
+  for (const [key, label] of [
+    ["setbackFt", "setback"],
+    ["propertyLineFt", "distance to the property line"],
+    ["branchesFt", "distance to overhanging branches"],
+  ] as const) {
+    const value = site[key];
+    if (value !== undefined && (!Number.isFinite(value) || value < 0)) {
+      throw new PlanGeometryError(`site.${key}`, `The ${label} must be a distance of 0 ft or more.`);
+    }
   }
   const warnings = listWarnings({
     ring,
@@ -180,12 +225,36 @@ export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
       linerPlan?.kind === "steel-ring" && !linerPlan.fits
         ? findRingForBowl(wallUnit, linerPlan.requiredBowlDiameterIn)
         : null,
+    limits: { capMaxOuterOverhangIn: factors.capMaxOuterOverhangIn, minBondOffsetIn: factors.minBondOffsetIn },
   });
+  const fireOpeningIn = fireOpeningOf(ring, linerPlan);
   const cautions = listCautions({
     linerKind: liner.kind,
     requiredSetbackFt: factors.requiredSetbackFt,
-    siteSetbackFt: setbackFt,
+    site: { structureFt: site.setbackFt, propertyLineFt: site.propertyLineFt, branchesFt: site.branchesFt },
+    limits: {
+      requiredPropertyLineFt: factors.requiredPropertyLineFt,
+      requiredBranchClearanceFt: factors.requiredBranchClearanceFt,
+    },
+    fireOpeningIn,
+    weights: { wallUnitLb: labour.wallUnitLb, capBlankLb: labour.capBlankLb, lbPerFt3: factors.concreteLbPerFt3 },
+    handheldCuts: caps !== null,
+    patio,
   });
 
-  return { ring, caps, liner: linerPlan, patio, base, adhesive, materials, labour, price, warnings, cautions };
+  return {
+    ring,
+    caps,
+    liner: linerPlan,
+    patio,
+    base,
+    adhesive,
+    materials,
+    labour,
+    price,
+    unpricedItems,
+    fireOpeningIn,
+    warnings,
+    cautions,
+  };
 }

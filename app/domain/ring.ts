@@ -69,8 +69,18 @@ export type RingPlan = {
   backTrimPerSideIn: number;
   /** Courses × unit height, plus the cap thickness when there are caps, in. */
   wallHeightIn: number;
-  /** Every other course turns by half a unit so joints never line up, degrees. */
+  /**
+   * Every other course turns by this much so its joints fall between those below, degrees: half a
+   * unit for a whole-unit ring; with closure units, the turn that keeps every joint farthest from
+   * the joints below (the closures of alternate courses then sit apart).
+   */
   runningBondDeg: number;
+  /** Smallest distance along the outside face between a joint and the nearest joint of the course above or below, in; null for one course. */
+  bondOffsetIn: number | null;
+  /** Angle each whole unit spans round the centre, degrees (360/N without closure units). */
+  unitAngleDeg: number;
+  /** With closure units: how far round the even courses' closure starts from the odd courses', in whole units plus a part of one (null without closures). */
+  bondClosureShift: { wholeUnits: number; partFaceIn: number } | null;
   /** ID* = 2BT/(F − B): the tightest bowl with both joints closed; null for rectangular units. */
   tightestBowlDiameterIn: number | null;
   /** a: centre to the middle of a unit's back face, in. */
@@ -173,10 +183,107 @@ type CourseLayout = Pick<
   | "closure"
   | "backTrimPerSideIn"
   | "runningBondDeg"
+  | "bondOffsetIn"
+  | "bondClosureShift"
+  | "unitAngleDeg"
   | "outsideCornerRadiusIn"
 >;
 
-function layWholeRing(wallUnit: WallUnitSize, unitCount: number): CourseLayout {
+type BareLayout = Omit<CourseLayout, "runningBondDeg" | "bondOffsetIn" | "bondClosureShift">;
+
+/*
+ * Running bond (derived here). One course is a sequence of pieces round the circle: the whole
+ * units, each spanning the same angle, then the closure units. Its joints sit at the piece
+ * boundaries J. The next course repeats the sequence turned by ρ; every joint of one course is then
+ * |j + ρ − j'| from a joint j' of the other, for all pairs. The ρ that keeps the nearest pair
+ * farthest apart is the middle of the widest gap between the sorted differences j' − j (mod 2π).
+ * For a whole-unit ring the differences are the multiples of 2π/N and ρ is half a unit, as usual.
+ */
+function pieceAngles(unitCount: number, closure: RingClosure | null): number[] {
+  const closureRad = closure ? (closure.angleDeg * Math.PI) / 180 : 0;
+  const closures = closure ? closure.countPerCourse : 0;
+  const step = (2 * Math.PI - closureRad * closures) / unitCount;
+  return [...Array<number>(unitCount).fill(step), ...Array<number>(closures).fill(closureRad)];
+}
+
+function jointAngles(pieces: number[]): number[] {
+  const joints: number[] = [];
+  let at = 0;
+  for (const piece of pieces) {
+    joints.push(at);
+    at += piece;
+  }
+  return joints;
+}
+
+const wrap = (angle: number) => ((angle % (2 * Math.PI)) + 2 * Math.PI) % (2 * Math.PI);
+
+/** The turn ρ (rad) of alternate courses that keeps their joints farthest from each other. */
+export function findBondTurn(pieces: number[]): number {
+  const joints = jointAngles(pieces);
+  const differences = joints.flatMap((j) => joints.map((k) => wrap(k - j))).sort((x, y) => x - y);
+  differences.push(differences[0]! + 2 * Math.PI);
+  let best = 0;
+  let turn = 0;
+  for (let i = 0; i + 1 < differences.length; i++) {
+    const gap = differences[i + 1]! - differences[i]!;
+    if (gap > best + 1e-9) {
+      best = gap;
+      turn = differences[i]! + gap / 2;
+    }
+  }
+  return turn;
+}
+
+/**
+ * Smallest distance along the outside face (in) between a joint of the course turned by `turn` and
+ * the joints of the course below it, and the other way round: each joint is projected onto the face
+ * of the piece it lands on, d·tan(φ − centre), d = a + T, and measured to that piece's two ends.
+ */
+export function measureBondOffset(pieces: number[], turn: number, faceDistanceIn: number): number {
+  const joints = jointAngles(pieces);
+  const oneWay = (shift: number) => {
+    let nearest = Infinity;
+    for (const joint of joints) {
+      const at = wrap(joint + shift);
+      let start = 0;
+      for (const piece of pieces) {
+        if (at >= start - 1e-12 && at <= start + piece + 1e-12) {
+          const centre = start + piece / 2;
+          const x = faceDistanceIn * Math.tan(at - centre);
+          const end = faceDistanceIn * Math.tan(piece / 2);
+          nearest = Math.min(nearest, end - Math.abs(x));
+          break;
+        }
+        start += piece;
+      }
+    }
+    return nearest;
+  };
+  return Math.max(0, Math.min(oneWay(turn), oneWay(-turn)));
+}
+
+function layBond(layout: Omit<CourseLayout, "runningBondDeg" | "bondOffsetIn" | "bondClosureShift">, depthIn: number, courses: number) {
+  const pieces = pieceAngles(layout.unitCount, layout.closure);
+  const turn = layout.closure ? findBondTurn(pieces) : Math.PI / layout.unitCount;
+  const faceDistanceIn = layout.edgeDistanceIn + depthIn;
+  const step = pieces[0]!;
+  const wholeUnits = Math.floor(turn / step + 1e-9);
+  const partAngle = turn - wholeUnits * step;
+  return {
+    runningBondDeg: (turn * 180) / Math.PI,
+    bondOffsetIn: courses > 1 ? measureBondOffset(pieces, turn, faceDistanceIn) : null,
+    bondClosureShift: layout.closure
+      ? {
+          wholeUnits,
+          // Along the face of the unit where the shift ends, from its first joint.
+          partFaceIn: faceDistanceIn * (Math.tan(partAngle - step / 2) + Math.tan(step / 2)),
+        }
+      : null,
+  };
+}
+
+function layWholeRing(wallUnit: WallUnitSize, unitCount: number): BareLayout {
   const { edgeDistanceIn: a, limitedBy } = measureWholeRing(wallUnit, unitCount);
   const tanHalf = Math.tan(Math.PI / unitCount);
   const t = wallUnit.depthIn;
@@ -189,7 +296,7 @@ function layWholeRing(wallUnit: WallUnitSize, unitCount: number): CourseLayout {
     backGapIn: limitedBy === "face" ? Math.max(0, 2 * a * tanHalf - wallUnit.backIn) : 0,
     closure: null,
     backTrimPerSideIn: 0,
-    runningBondDeg: 180 / unitCount,
+    unitAngleDeg: 360 / unitCount,
     outsideCornerRadiusIn: Math.hypot(a + t, wallUnit.faceIn / 2),
   };
 }
@@ -208,7 +315,7 @@ function layWholeRing(wallUnit: WallUnitSize, unitCount: number): CourseLayout {
  * Beside a closure the two face corners lie on the same radial cut but at slightly different
  * radii (chords of different angles end at different distances), leaving a hairline at the face.
  */
-function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): CourseLayout {
+function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): BareLayout {
   const { faceIn: f, backIn: b, depthIn: t } = wallUnit;
   const a = bowlDiameterIn / 2;
   if (!Number.isFinite(a) || a <= 0) {
@@ -267,7 +374,7 @@ function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): CourseLay
     backGapIn,
     closure,
     backTrimPerSideIn,
-    runningBondDeg: (halfAngle * 180) / Math.PI,
+    unitAngleDeg: closure ? (unitAngle * 180) / Math.PI : 360 / unitCount,
     outsideCornerRadiusIn: Math.hypot(a + t, f / 2),
   };
 }
@@ -285,7 +392,7 @@ export function planRing(args: {
   if (!Number.isInteger(courses) || courses < 1 || courses > MAX_COURSES) {
     throw new PlanGeometryError("courses", `Courses must be a whole number from 1 to ${MAX_COURSES}.`);
   }
-  let layout: CourseLayout;
+  let layout: BareLayout;
   if ("unitCount" in target) {
     const n = target.unitCount;
     if (!Number.isInteger(n) || n < MIN_UNITS_PER_COURSE || n > MAX_UNITS_PER_COURSE) {
@@ -307,6 +414,7 @@ export function planRing(args: {
   const bowlDiameterIn = 2 * layout.edgeDistanceIn;
   return {
     ...layout,
+    ...layBond(layout, wallUnit.depthIn, courses),
     courses,
     totalUnits: layout.unitsPerCourse * courses,
     bowlDiameterIn,

@@ -14,6 +14,10 @@ export const KIND_INFO: Record<CatalogKind, { label: string; plural: string; pri
   adhesive: { label: "Adhesive", plural: "Adhesive", priceUnit: "cartridge" },
   "bedding-sand": { label: "Bedding sand", plural: "Bedding sand", priceUnit: "ton" },
   "joint-sand": { label: "Joint sand", plural: "Joint sand", priceUnit: "bag" },
+  "refractory-mortar": { label: "Refractory mortar", plural: "Refractory mortar", priceUnit: "1 gal pail" },
+  fill: { label: "Fill sand or pea gravel", plural: "Fill sand and pea gravel", priceUnit: "bag" },
+  "edge-restraint": { label: "Edge restraint", plural: "Edge restraint", priceUnit: "piece" },
+  "edge-spike": { label: "Edge spike", plural: "Edge spikes", priceUnit: "each" },
 };
 
 export type DimensionKey = "faceIn" | "backIn" | "depthIn" | "heightIn" | "lengthIn" | "widthIn" | "thicknessIn" | "diameterIn";
@@ -58,4 +62,8 @@ export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
   adhesive: [],
   "bedding-sand": [],
   "joint-sand": [],
+  "refractory-mortar": [],
+  fill: [],
+  "edge-restraint": [],
+  "edge-spike": [],
 };

@@ -109,7 +109,7 @@ function table(doc: Doc, rows: { label: string; value: string }[], labelW = 140)
   }
 }
 
-const UNIT_WORDS = { each: ["each", "each"], ton: ["ton", "tons"], cartridge: ["cartridge", "cartridges"], bag: ["bag", "bags"] } as const;
+const UNIT_WORDS = { each: ["each", "each"], ton: ["ton", "tons"], cartridge: ["cartridge", "cartridges"], bag: ["bag", "bags"], pail: ["pail", "pails"], piece: ["piece", "pieces"] } as const;
 
 /** Renders the whole cut sheet; resolves to the PDF's bytes. */
 export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {

@@ -200,7 +200,11 @@ export const planRequestSchema = object("The request body", {
   jointIn: measure("Joint", 0, 0.75).optional(),
   liner: specOrCatalogRef(linerSpec, catalogRef("Liner")).optional(),
   patio: patioSchema.nullable().optional(),
-  site: object("Site", { setbackFt: measure("Setback", 0, 500, "ft").optional() }).optional(),
+  site: object("Site", {
+    setbackFt: measure("Distance to the nearest structure", 0, 500, "ft").optional(),
+    propertyLineFt: measure("Distance to the property line", 0, 500, "ft").optional(),
+    branchesFt: measure("Distance to overhanging branches", 0, 500, "ft").optional(),
+  }).optional(),
 }).superRefine((request, ctx) => {
   if (request.company !== undefined) return;
   const refs: string[] = [];

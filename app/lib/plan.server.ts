@@ -30,6 +30,10 @@ export function supplyPricesFrom(catalog: CatalogItem[]): SupplyPrices {
     adhesivePerCartridgeCents: first("adhesive"),
     beddingSandPerTonCents: first("bedding-sand"),
     jointSandPerBagCents: first("joint-sand"),
+    refractoryMortarPerPailCents: first("refractory-mortar"),
+    fillPerBagCents: first("fill"),
+    edgeRestraintPerPieceCents: first("edge-restraint"),
+    edgeSpikeCents: first("edge-spike"),
   };
 }
 

@@ -45,17 +45,44 @@ test("the worked-example blanks lose about 28 % to offcut (trapezoid against the
   expect(caps.offcutShare).toBeLessThan(0.3);
 });
 
-test("arced edges obey the circle-segment formulas c = 2r·sin(α/2), h = r(1 − cos(α/2)), l = π·r·α/180 (Machinery's Handbook, Segments of a Circle)", () => {
+test("arced edges end on the side cuts: each arc's ends, found as line-circle intersections with the cut line through the corners, give its angle, chord c = 2r·sin(α/2), rise h = r(1 − cos(α/2)) and length l = π·r·α/180 (Machinery's Handbook, Segments of a Circle)", () => {
   const caps = example();
-  const inner = { r: caps.innerRadiusIn, alpha: caps.innerArcDeg };
-  expect(2 * inner.r * Math.sin((inner.alpha * Math.PI) / 360)).toBeCloseTo(caps.innerWidthIn, 9);
-  expect(inner.r * (1 - Math.cos((inner.alpha * Math.PI) / 360))).toBeCloseTo(caps.innerSagittaIn, 9);
-  expect((Math.PI * inner.r * inner.alpha) / 180).toBeCloseTo(caps.innerArcLengthIn, 9);
-  const outer = { r: caps.outerRadiusIn, alpha: caps.outerArcDeg };
-  expect(outer.r).toBe(28);
-  expect(2 * outer.r * Math.sin((outer.alpha * Math.PI) / 360)).toBeCloseTo(caps.outerWidthIn, 9);
-  expect(outer.r * (1 - Math.cos((outer.alpha * Math.PI) / 360))).toBeCloseTo(caps.outerSagittaIn, 9);
-  expect((Math.PI * outer.r * outer.alpha) / 180).toBeCloseTo(caps.outerArcLengthIn, 9);
+  // The right-hand side cut runs through the inner corner (c1/2, a1) and the outer corner (c2/2, a2),
+  // pit centre at the origin; intersect it with the circle of radius r (quadratic, solved here).
+  const cutMeets = (r: number): [number, number] => {
+    const [x1, y1, x2, y2] = [caps.innerWidthIn / 2, caps.innerEdgeDistanceIn, caps.outerWidthIn / 2, caps.outerEdgeDistanceIn];
+    const [dx, dy] = [x2 - x1, y2 - y1];
+    const qa = dx * dx + dy * dy;
+    const qb = 2 * (x1 * dx + y1 * dy);
+    const qc = x1 * x1 + y1 * y1 - r * r;
+    const s = (-qb + Math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa);
+    return [x1 + s * dx, y1 + s * dy];
+  };
+  for (const [r, alphaDeg, rise, length] of [
+    [caps.innerRadiusIn, caps.innerArcDeg, caps.innerSagittaIn, caps.innerArcLengthIn],
+    [caps.outerRadiusIn, caps.outerArcDeg, caps.outerSagittaIn, caps.outerArcLengthIn],
+  ] as const) {
+    const [x, y] = cutMeets(r);
+    const alpha = 2 * Math.atan2(x, y);
+    expect((alpha * 180) / Math.PI).toBeCloseTo(alphaDeg, 9);
+    expect(2 * r * Math.sin(alpha / 2)).toBeCloseTo(2 * x, 9);
+    expect(r * (1 - Math.cos(alpha / 2))).toBeCloseTo(rise, 9);
+    expect((Math.PI * r * ((alpha * 180) / Math.PI)) / 180).toBeCloseTo(length, 9);
+  }
+  expect(caps.outerRadiusIn).toBe(28);
+  // The inner arc runs through the inner corners themselves: its chord is c1.
+  expect(2 * caps.innerRadiusIn * Math.sin((caps.innerArcDeg * Math.PI) / 360)).toBeCloseTo(caps.innerWidthIn, 9);
+});
+
+test("on the 14-unit ring (a2 = 28.2875 in) the outer arc between the cut lines spans 29.62° and 14.62 in, not the 30.68° and 15.15 in of an arc run to the corners' radial lines (Machinery's Handbook, Segments of a Circle: β = π/N − asin(j/2r), l = π·r·α/180)", () => {
+  const a2 = 36.575 / 2 - 2 + 12; // bowl 36.575 in (ring worked example), 2 in inner overhang, 12 in blank
+  const caps = planCaps({ edgeDistanceIn: 18.2875, wallDepthIn: 8, cap: BLANK, jointIn: 3 / 16, spares: 1 });
+  expect(caps.count).toBe(12);
+  expect(caps.outerEdgeDistanceIn).toBeCloseTo(a2, 9);
+  expect(caps.outerArcDeg).toBeCloseTo(29.62, 2);
+  expect(caps.outerArcLengthIn).toBeCloseTo(14.62, 2);
+  // Hand working: asin(0.09375 / 28.2875) = 0.1899°, β = 15° − 0.1899° = 14.810°, α = 29.620°,
+  // l = π × 28.2875 × 29.620 / 180 = 14.624 in.
 });
 
 test("the inner arc passes through both inner corners (distance from the centre, Pythagoras)", () => {

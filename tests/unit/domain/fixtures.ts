@@ -1,13 +1,13 @@
 import type { PlanInput, PlanOptions } from "~/domain/plan";
 
 // Illustrative job used across the domain tests: a 12/8/8 tapered unit (4 in high), three courses
-// of 14, 16 × 12 in cap blanks with a 2 in inner overhang, a 36 in steel ring. Prices are made up.
+// of 14, 16 × 12 in cap blanks with a 2 in inner overhang, a 35 in steel ring. Prices are made up.
 export const TYPICAL_PIT: PlanInput = {
   ring: { unitCount: 14 },
   wallUnit: { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, priceCents: 650 },
   courses: 3,
   cap: { lengthIn: 16, depthIn: 12, thicknessIn: 2.5, innerOverhangIn: 2, priceCents: 2200 },
-  liner: { kind: "steel-ring", outsideDiameterIn: 36, heightIn: 10, priceCents: 22000 },
+  liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: 10, priceCents: 22000 },
 };
 
 export const SUPPLY_PRICES: NonNullable<PlanOptions["supplyPrices"]> = {

@@ -1,4 +1,5 @@
 import { expect, test } from "vitest";
+import { DEFAULT_FACTORS } from "~/domain/factors";
 import { firebrickInnerEdgeDistance, planFirebrick, planSteelRing } from "~/domain/liner";
 import { bowlDiameterForCount } from "~/domain/ring";
 import { gapBetween, overlapArea, rectanglePolygon } from "./flatten-shapes";
@@ -8,11 +9,13 @@ const STRAIGHT = { lengthIn: 9, widthIn: 4.5, heightIn: 2.5 };
 // 14 units of 12/8/8: a 36.575 in bowl (derived here from the regular-polygon formulas).
 const BOWL_14 = bowlDiameterForCount({ faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 }, 14);
 
-test("a 36 in steel ring clears a 36.575 in bowl with 0.288 in of gravel each side (minimum 1/4 in, common practice)", () => {
-  const plan = planSteelRing({ bowlDiameterIn: BOWL_14, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.25 });
-  expect(plan.fits).toBe(true);
+test("a 36 in steel ring leaves 0.288 in each side in a 36.575 in bowl: under the 1/2 in needed for ±1/8 in unit tolerance (ASTM C1372, from memory) plus steel growth of 36 × 6.5e-6 × 800 ≈ 0.19 in (carbon steel's published coefficient), so it does not fit by default", () => {
+  expect(36 * 6.5e-6 * 800).toBeCloseTo(0.187, 3);
+  const plan = planSteelRing({ bowlDiameterIn: BOWL_14, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: DEFAULT_FACTORS.linerMinGapIn });
+  expect(DEFAULT_FACTORS.linerMinGapIn).toBe(0.5);
   expect(plan.gapIn).toBeCloseTo(0.288, 3);
-  expect(plan.requiredBowlDiameterIn).toBe(36.5);
+  expect(plan.fits).toBe(false);
+  expect(plan.requiredBowlDiameterIn).toBe(37);
 });
 
 test("a 36.2 in steel ring does not clear a 36.575 in bowl with a 1/4 in gap each side", () => {
@@ -64,8 +67,34 @@ test("a bowl too small for three bricks reports that firebrick does not fit", ()
   expect(plan.totalBricks).toBe(0);
 });
 
-test("rows round up: a 12.5 in wall needs 3 rows of 4½ in, a 13.6 in wall 4 (whole rows, common practice)", () => {
-  expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 12.5, brick: STRAIGHT }).rows).toBe(3);
-  expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 13.6, brick: STRAIGHT }).rows).toBe(4);
-  expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 13.5, brick: STRAIGHT }).rows).toBe(3);
+test("the lining never stands above the block: 4 courses of 4 in under caps leave 16 − 1/8 = 15 7/8 in; rows of 4½ + 1/16 in give 3 whole rows (13 11/16 in) and a top row ripped to 15 7/8 − 13 11/16 − 1/16 = 2 1/8 in, one rip per brick (common practice, no source)", () => {
+  const plan = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 16 - 0.125, brick: STRAIGHT, jointIn: 1 / 16, minRipIn: 1 });
+  expect(plan.fullRows).toBe(3);
+  expect(plan.rippedRows).toBe(1);
+  expect(plan.ripHeightIn).toBeCloseTo(2.125, 12);
+  expect(plan.builtHeightIn).toBeCloseTo(15.875, 12);
+  expect(plan.ripCuts).toBe(plan.bricksPerRow);
+  expect(plan.totalBricks).toBe(4 * plan.bricksPerRow);
+  // Rounding rows up (the old rule) would have stood 4 × 4 9/16 = 18 1/4 in, 2 1/4 in proud of the block.
+  expect(plan.builtHeightIn).toBeLessThanOrEqual(16 - 0.125);
+});
+
+test("a strip under the smallest rip is left out and the lining stops a little lower: 12 in lined, 2 whole rows of 4 9/16 in leave 2 7/8 − 1/16 in, above 1 in, so a row is ripped; 9.3 in lined leaves 3/16 in, so none (common practice, no source)", () => {
+  expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 12, brick: STRAIGHT, jointIn: 1 / 16, minRipIn: 1 }).ripHeightIn).toBeCloseTo(12 - 2 * 4.5625 - 0.0625, 12);
+  const low = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 9.3, brick: STRAIGHT, jointIn: 1 / 16, minRipIn: 1 });
+  expect(low.rippedRows).toBe(0);
+  expect(low.rows).toBe(2);
+  expect(low.builtHeightIn).toBeCloseTo(9.125, 12);
+});
+
+test("a steel ring whose top sits more than 1 in under the caps is raised on a gravel bed to the lined height, and the bed and gap are ordered as fill (common practice, no source; 1 ft³ = 1728 in³, NIST SP 811)", () => {
+  // 14-unit ring: a = 18.2875 in; inside polygon 14 × a² × tan(π/14) (regular-polygon area).
+  const a = BOWL_14 / 2;
+  const insideIn2 = 14 * a * a * Math.tan(Math.PI / 14);
+  const plan = planSteelRing({ bowlDiameterIn: BOWL_14, insert: { outsideDiameterIn: 35, heightIn: 10 }, minGapIn: 0.5, linedHeightIn: 11.875, wallSides: 14, raiseOverIn: 1 });
+  expect(plan.bedDepthIn).toBeCloseTo(1.875, 12);
+  const fillIn3 = (insideIn2 - Math.PI * 17.5 ** 2) * 10 + insideIn2 * 1.875;
+  expect(plan.fillFt3).toBeCloseTo(fillIn3 / 1728, 9);
+  const close = planSteelRing({ bowlDiameterIn: BOWL_14, insert: { outsideDiameterIn: 35, heightIn: 11 }, minGapIn: 0.5, linedHeightIn: 11.875, wallSides: 14, raiseOverIn: 1 });
+  expect(close.bedDepthIn).toBe(0);
 });

@@ -1,47 +1,104 @@
 import { expect, test } from "vitest";
-import { IN3_PER_YD3, planPatio, type PatioFactors } from "~/domain/patio";
+import { Polygon, point } from "@flatten-js/core";
+import { IN3_PER_YD3, countGridPavers, planPatio, type PatioFactors } from "~/domain/patio";
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
 import { gapBetween, overlapArea, rectanglePolygon } from "./flatten-shapes";
 
-const FACTORS: PatioFactors = { paverWastePct: 10, beddingSandDepthIn: 1, sandTonsPerYd3: 1.35, jointSandLbPerFt2: 1, jointSandBagLb: 50 };
+const FACTORS: PatioFactors = { paverWasteFloorPct: 5, borderMaxJointIn: 0.1875, minCutPiecePct: 33, edgeSpikeSpacingIn: 12, edgeRestraintPieceFt: 8, beddingSandDepthIn: 1, sandTonsPerYd3: 1.35, jointSandLbPerFt2: 1, jointSandBagLb: 50 };
 // A 16 ft patio: 96 in outside radius, 6 × 12 in border units, 4 × 8 in pavers, around a pit with
 // its faces 26.288 in from the centre (14 units of 12/8/8, derived here).
 const PATIO = { outsideRadiusIn: 96, border: { widthIn: 6, lengthIn: 12 }, paver: { lengthIn: 8, widthIn: 4 } };
 const PIT = { pitOutsideEdgeDistanceIn: 26.288, pitOutsideCornerRadiusIn: 26.97 };
 const plan = () => planPatio({ patio: PATIO, ...PIT, factors: FACTORS });
 
-test("a 16 ft patio takes 48 border units of 12 in laid on a 90 in circle: ceil(π / atan(L/2r)) (derived here from the regular-polygon formulas)", () => {
-  const patio = plan();
-  expect(patio.borderInnerEdgeDistanceIn).toBe(90);
-  expect(patio.borderUnitCount).toBe(Math.ceil(Math.PI / Math.atan(12 / 180)));
-  expect(patio.borderUnitCount).toBe(48);
-  expect(patio.borderOuterJointIn).toBeCloseTo((12 * 6) / 90, 12);
+// A 30 ft patio with 4 × 8 in border units: on r = 176 in the square-ended V-joints open
+// 8 × 4 / 176 = 0.182 in, inside the 3/16 in limit (ICPI, from memory: joints 1/16–3/16 in).
+const WIDE = { outsideRadiusIn: 180, border: { widthIn: 4, lengthIn: 8 }, paver: { lengthIn: 8, widthIn: 4 } };
+
+test("square-ended border units stay square while their V-joint is within 3/16 in: 4 × 8 units on a 176 in circle open 0.182 in; 138 whole units leave 2.03 in, under a third of a unit, so 137 whole and two equal pieces of 5.01 in close the course (ICPI joints, from memory; closure rule common practice, no source)", () => {
+  const patio = planPatio({ patio: WIDE, ...PIT, factors: FACTORS });
+  expect(patio.borderLayout).toBe("square");
+  expect(patio.borderOuterJointIn).toBeCloseTo(32 / 176, 12);
+  const theta = 2 * Math.atan(8 / 352); // inner corners touch: chord 8 at edge distance 176
+  expect(Math.floor((2 * Math.PI) / theta)).toBe(138);
+  expect(patio.borderWholeCount).toBe(137);
+  expect(patio.borderClosureCount).toBe(2);
+  expect(patio.borderUnitCount).toBe(139);
+  expect(patio.lastBorderUnitLengthIn).toBeCloseTo(5.015, 3);
+  expect(patio.lastBorderUnitLengthIn).toBeGreaterThanOrEqual(8 / 3);
+  expect(patio.borderCuts).toBe(2);
 });
 
-test("the border laid out with flatten-js: inner corners touch, nothing overlaps, 47 whole units leave less than one unit to cut (@flatten-js/core as reference)", () => {
-  const patio = plan();
+test("the square-ended border laid out with flatten-js: inner corners touch and nothing overlaps (@flatten-js/core as reference)", () => {
+  const patio = planPatio({ patio: WIDE, ...PIT, factors: FACTORS });
   const step = (patio.borderUnitAngleDeg * Math.PI) / 180;
-  const units = Array.from({ length: patio.borderUnitCount - 1 }, (_, k) => rectanglePolygon(90, 6, 12, k * step));
+  const units = Array.from({ length: patio.borderWholeCount }, (_, k) => rectanglePolygon(176, 4, 8, k * step));
   for (let k = 0; k + 1 < units.length; k++) {
     expect(overlapArea(units[k], units[k + 1])).toBeLessThan(1e-9);
     expect(gapBetween(units[k], units[k + 1])).toBeLessThan(1e-9);
   }
-  const wrapGap = gapBetween(units[units.length - 1], units[0]);
-  expect(wrapGap).toBeGreaterThan(0);
-  expect(wrapGap).toBeLessThan(12);
-  // The cut unit's inner face (a chord at r) matches the corner-to-corner gap within 1/32 in.
-  expect(Math.abs(patio.lastBorderUnitLengthIn - wrapGap)).toBeLessThan(1 / 32);
-  // A 48th whole unit would overlap the first: hence one is cut.
-  const whole48 = rectanglePolygon(90, 6, 12, (patio.borderUnitCount - 1) * step);
-  expect(overlapArea(whole48, units[0])).toBeGreaterThan(0);
 });
 
-test("the field is the 90 in circle less the pit's footprint; pavers include 10 % waste (1 ft² = 144 in², NIST SP 811)", () => {
+test("12 × 6 in border units on a 16 ft patio would open 12 × 6 / 90 = 0.8 in V-joints, past 3/16 in, so every unit is cut one end 7.15° off square with its outer corners touching: 2·atan(12/192) (ICPI joints, from memory; derived here from the regular-polygon chord)", () => {
+  const patio = plan();
+  expect((12 * 6) / 90).toBeGreaterThan(0.1875);
+  expect(patio.borderLayout).toBe("tapered");
+  expect(patio.borderOuterJointIn).toBe(0);
+  expect(patio.borderTaperDeg).toBeCloseTo((2 * Math.atan(12 / 192) * 180) / Math.PI, 12);
+  // 360 / 7.1527° = 50.33: 50 tapered units and one piece of 2 × 96 × tan(0.33 × 7.1527°/2) = 3.97 in,
+  // just over a third of 12 in, so it stays a single closure piece.
+  expect(patio.borderWholeCount).toBe(50);
+  expect(patio.borderClosureCount).toBe(1);
+  expect(patio.lastBorderUnitLengthIn).toBeCloseTo(3.966, 3);
+  expect(patio.borderCuts).toBe(50 + 2);
+});
+
+test("a tapered border unit's cut end meets the next unit's square end flush: flatten-js finds no gap and no overlap (@flatten-js/core as reference)", () => {
+  const patio = plan();
+  const theta = ((patio.borderTaperDeg ?? 0) * Math.PI) / 180;
+  const [r, R, L] = [90, 96, 12];
+  // Unit 0 in its own frame: square end at y = −L/2, outer corners (R, ±L/2); its cut end runs from
+  // (R, L/2) along the next unit's square end, which is unit 0's square end turned by θ.
+  const rot = (x: number, y: number, a: number): [number, number] => [x * Math.cos(a) - y * Math.sin(a), x * Math.sin(a) + y * Math.cos(a)];
+  const [p1, p2] = [rot(r, -L / 2, theta), rot(R, -L / 2, theta)];
+  expect(p2[0]).toBeCloseTo(R, 9);
+  expect(p2[1]).toBeCloseTo(L / 2, 9);
+  const t = (r - p2[0]) / (p1[0] - p2[0]);
+  const cutInner: [number, number] = [r, p2[1] + t * (p1[1] - p2[1])];
+  const unit = (a: number) =>
+    new Polygon([rot(r, -L / 2, a), rot(R, -L / 2, a), rot(R, L / 2, a), rot(cutInner[0], cutInner[1], a)].map(([x, y]) => point(x, y)));
+  expect(overlapArea(unit(0), unit(theta))).toBeLessThan(1e-9);
+  expect(gapBetween(unit(0), unit(theta))).toBeLessThan(1e-9);
+  // The cut runs θ off square.
+  const cutAngle = Math.atan2(L / 2 - cutInner[1], R - r);
+  expect(cutAngle).toBeCloseTo(theta, 9);
+});
+
+test("field pavers come from a grid count: whole cells lie inside the field and whole + cut cells cover it, so whole × 32 ≤ field area ≤ (whole + cut) × 32 in²; 5 % breakage goes on top (geometry; floor common practice, no source)", () => {
   const patio = plan();
   const fieldIn2 = Math.PI * 90 ** 2 - Math.PI * 26.288 ** 2;
   expect(patio.fieldCutRadiusIn).toBe(90);
   expect(patio.fieldAreaFt2).toBeCloseTo(fieldIn2 / 144, 9);
-  expect(patio.paverCount).toBe(Math.ceil((fieldIn2 / 32) * 1.1));
+  expect(patio.wholePaverCount * 32).toBeLessThanOrEqual(fieldIn2);
+  expect((patio.wholePaverCount + patio.cutPaverCount) * 32).toBeGreaterThanOrEqual(fieldIn2);
+  expect(patio.paverCount).toBe(Math.ceil((patio.wholePaverCount + patio.cutPaverCount) * 1.05));
+  // The waste this implies is well over the flat 10 % the estimate used to assume.
+  expect(patio.paverWastePct).toBeGreaterThan(15);
+  expect(patio.paverWastePct).toBeCloseTo((patio.paverCount / (fieldIn2 / 32) - 1) * 100, 9);
+});
+
+test("grid counts: a 4 × 8 in paver grid over a 16 in circle has, in each quadrant, 3 whole cells and 5 cut ones, counted cell by cell here", () => {
+  // Quadrant cells (i, k) span [8i, 8i+8] × [4k, 4k+4]; whole when the far corner is within 16 in.
+  // far corners: (8,4)=8.9 (8,8)=11.3 (8,12)=14.4 (16,4)=16.5 … so whole: (0,0),(0,1),(0,2); cut:
+  // (0,3) far (8,16)=17.9; (1,0) near 8; (1,1) near (8,4)=8.9; (1,2) near 11.3; (1,3) near 14.4.
+  expect(countGridPavers({ lengthIn: 8, widthIn: 4 }, 0, 16)).toEqual({ whole: 4 * 3, cut: 4 * 5 });
+});
+
+test("edge restraint runs round the outside, 2π × 96 = 603.2 in: 7 pieces of 8 ft and a spike every 12 in, 51 spikes (ICPI construction guidance; 8 ft pieces from memory)", () => {
+  const patio = plan();
+  expect(patio.edgeRestraintIn).toBeCloseTo(603.186, 3);
+  expect(patio.edgeRestraintPieces).toBe(7);
+  expect(patio.edgeSpikes).toBe(51);
 });
 
 test("bedding sand is the paved area times 1 in deep, in cubic yards of 46,656 in³ (NIST SP 811)", () => {

@@ -24,7 +24,7 @@ function thrown(fn: () => unknown): PlanGeometryError {
 // apart, then the closure units, each clipped to the wedge between its two radial lines.
 function layCourse(plan: RingPlan, wallUnit: WallUnitSize): { pieces: FlatPolygon[]; angles: number[] } {
   const a = plan.edgeDistanceIn;
-  const unitAngle = (2 * plan.runningBondDeg * Math.PI) / 180;
+  const unitAngle = (plan.unitAngleDeg * Math.PI) / 180;
   const reach = 4 * (a + wallUnit.depthIn);
   const pieces: FlatPolygon[] = [];
   const angles: number[] = [];
@@ -247,7 +247,7 @@ test("an exact bowl's whole units and closures always add up to 360° with closu
   fc.assert(
     fc.property(realisticUnit, fc.double({ min: 20, max: 120, noNaN: true }), (wallUnit, bowlDiameterIn) => {
       const plan = planRing({ target: { bowlDiameterIn, fit: "exact" }, wallUnit, courses: 1 });
-      const unitDeg = 2 * plan.runningBondDeg;
+      const unitDeg = plan.unitAngleDeg;
       const closureDeg = (plan.closure?.angleDeg ?? 0) * (plan.closure?.countPerCourse ?? 0);
       const spreadDeg = plan.closure ? 0 : 360 - plan.unitCount * unitDeg;
       expect(plan.unitCount * unitDeg + closureDeg + spreadDeg).toBeCloseTo(360, 9);
@@ -255,7 +255,7 @@ test("an exact bowl's whole units and closures always add up to 360° with closu
       if (plan.closure) {
         // A single closure is at least half a unit at the face; split closures at least half a unit's angle.
         if (plan.closure.countPerCourse === 1) expect(plan.closure.faceWidthIn).toBeGreaterThanOrEqual(wallUnit.faceIn / 2 - 1e-9);
-        expect(plan.closure.angleDeg).toBeGreaterThanOrEqual(plan.runningBondDeg - 1e-9);
+        expect(plan.closure.angleDeg).toBeGreaterThanOrEqual(plan.unitAngleDeg / 2 - 1e-9);
         expect(plan.closure.faceWidthIn).toBeLessThanOrEqual(wallUnit.faceIn + 1e-9);
         expect(plan.closure.backWidthIn).toBeLessThanOrEqual(wallUnit.backIn + 1e-9);
       } else {

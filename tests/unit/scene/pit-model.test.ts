@@ -137,7 +137,7 @@ test("whole units of an uncut ring stand on 2πi/N, and courses sit one unit hei
   expect(new Set(whole.map((p) => p.y))).toEqual(new Set([0, 4, 8]));
 });
 
-test("odd courses are turned by the running bond (half a unit, common practice); even courses are not", () => {
+test("odd courses are turned by the running bond the plan chose (half a unit for whole rings, common practice); even courses are not", () => {
   for (const input of [wholeRing(14, 4), exactRing(40, 4)]) {
     const { whole, closures } = placeWallUnits(input);
     const bond = (input.ring.runningBondDeg * Math.PI) / 180;
@@ -151,10 +151,11 @@ test("odd courses are turned by the running bond (half a unit, common practice);
 });
 
 test("with a closure, whole units step by the planned unit angle and the closures fill exactly the rest of the circle", () => {
-  const input = exactRing(40, 1);
+  const planned = planRing({ target: { bowlDiameterIn: 40, fit: "exact" }, wallUnit: UNIT, courses: 1 });
+  const input = inputFor(planned);
   const { whole, closures } = placeWallUnits(input);
   const step = whole[1].rotationY - whole[0].rotationY;
-  expect(step).toBeCloseTo((2 * input.ring.runningBondDeg * Math.PI) / 180, 12);
+  expect(step).toBeCloseTo((planned.unitAngleDeg * Math.PI) / 180, 12);
   const closureRad = (input.ring.closure!.angleDeg * Math.PI) / 180;
   const last = whole[whole.length - 1].rotationY;
   const end = closures[closures.length - 1].rotationY + closureRad / 2;
