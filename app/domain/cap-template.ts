@@ -28,6 +28,8 @@ export type CapTemplateInput = Pick<
   | "outerRadiusIn"
   | "ripToDepthIn"
   | "jointIn"
+  | "innerArcDeg"
+  | "outerArcDeg"
 >;
 
 export type CapTemplate = {
@@ -43,7 +45,7 @@ export type CapTemplate = {
   centre: TemplatePoint;
   /** Optional arced inner edge through both inner corners, radius innerRadiusIn, sampled left to right. */
   innerArc: TemplatePoint[];
-  /** Optional arced outer edge at radius a2 through the middle of the outer edge, sampled left to right. */
+  /** Optional arced outer edge at radius a2, from side cut to side cut, sampled left to right. */
   outerArc: TemplatePoint[];
 };
 
@@ -66,8 +68,9 @@ export function layoutCapTemplate(caps: CapTemplateInput): CapTemplate {
   const m1 = caps.innerMarkIn;
   const m2 = caps.outerMarkIn;
   const centre: TemplatePoint = [l / 2, -caps.innerEdgeDistanceIn];
-  const innerHalf = Math.atan2(caps.innerWidthIn / 2, caps.innerEdgeDistanceIn);
-  const outerHalf = Math.asin(Math.min(1, caps.outerWidthIn / 2 / caps.outerRadiusIn));
+  // Each arc runs between the side cuts (the angles the cap plan gives, see caps.ts), never past them.
+  const innerHalf = (caps.innerArcDeg * Math.PI) / 360;
+  const outerHalf = (caps.outerArcDeg * Math.PI) / 360;
   return {
     blankLengthIn: l,
     blankDepthIn: caps.blankDepthIn,

@@ -3,9 +3,10 @@ import type { Caution } from "~/domain/advice";
 import type { MaterialLine } from "~/domain/quantities";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
 import { toCatalogChoice } from "~/lib/configurator.server";
-import { buildCutList, crewCautionsOf, type CutSection } from "~/lib/cut-list";
+import { buildCutList, crewCautionsOf, legacyCutList, type CutSection } from "~/lib/cut-list";
 import { planToSceneInput, type PublicPlan, type SummaryLine } from "~/lib/design-plan";
 import { listRevisions, originalVersion } from "~/lib/lead-workspace.server";
+import { refreshStoredPlan } from "~/lib/plan-refresh.server";
 import { publicPlan } from "~/lib/plan.server";
 import type { SessionUser } from "~/lib/session.server";
 import { requireLeadFor } from "~/lib/staff.server";
@@ -36,8 +37,8 @@ export async function loadCutSheet(user: SessionUser, leadId: number): Promise<C
   const lead = await requireLeadFor(user, leadId);
   const [company, revisions, catalogItems] = await Promise.all([getCompany(user.companyId), listRevisions(lead), listCatalog(user.companyId)]);
   const version = revisions.at(-1) ?? originalVersion(lead);
-  const plan = version.plan;
   const catalog = catalogItems.map(toCatalogChoice);
+  const { plan, isLegacy } = await refreshStoredPlan(version.plan, version.design.choices, company.slug, catalog);
   const now = new Date();
   return {
     leadId: lead.id,
@@ -52,7 +53,7 @@ export async function loadCutSheet(user: SessionUser, leadId: number): Promise<C
     printedOn: formatZonedDate(now.toISOString(), company.timeZone),
     day: zonedDay(now, company.timeZone),
     summary: version.design.summary,
-    cutList: buildCutList(plan),
+    cutList: isLegacy ? legacyCutList() : buildCutList(plan),
     materials: plan.materials,
     cautions: crewCautionsOf(plan.cautions),
     caps: plan.caps,

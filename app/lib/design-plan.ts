@@ -15,6 +15,16 @@ export type PlanRequestBody = Record<string, unknown>;
 
 const byId = (catalog: CatalogChoice[], id: number | null) => (id === null ? undefined : catalog.find((i) => i.id === id));
 
+/** The site distances the homeowner gave (ft), as the engine's `site`; absent when none were. */
+function siteOf(design: Design): { site?: { setbackFt?: number; propertyLineFt?: number; branchesFt?: number } } {
+  const site = {
+    ...(design.setbackFt != null ? { setbackFt: design.setbackFt } : {}),
+    ...(design.propertyLineFt != null ? { propertyLineFt: design.propertyLineFt } : {}),
+    ...(design.branchesFt != null ? { branchesFt: design.branchesFt } : {}),
+  };
+  return Object.keys(site).length ? { site } : {};
+}
+
 /** The JSON body for POST /api/plan: catalog references plus the company, so prices apply. */
 export function designToPlanRequest(design: Design, companySlug: string, catalog: CatalogChoice[]): PlanRequestBody {
   const ring = byId(catalog, design.ringId);
@@ -36,7 +46,7 @@ export function designToPlanRequest(design: Design, companySlug: string, catalog
       design.patioRadiusFt > 0 && design.paverId !== null && design.borderId !== null
         ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { id: design.borderId }, paver: { id: design.paverId } }
         : null,
-    ...(design.setbackFt !== null ? { site: { setbackFt: design.setbackFt } } : {}),
+    ...siteOf(design),
   };
 }
 
@@ -67,7 +77,7 @@ export function designToPlanInput(design: Design, catalog: CatalogChoice[]): Pla
       design.patioRadiusFt > 0 && paver?.lengthIn && paver.widthIn && border?.lengthIn && border.widthIn
         ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { widthIn: border.widthIn, lengthIn: border.lengthIn, name: border.name }, paver: { lengthIn: paver.lengthIn, widthIn: paver.widthIn, name: paver.name } }
         : null,
-    ...(design.setbackFt !== null ? { site: { setbackFt: design.setbackFt } } : {}),
+    ...siteOf(design),
   };
 }
 
@@ -171,9 +181,11 @@ export function summarizeDesign(plan: PublicPlan, design: Design, catalog: Catal
       label: "Liner",
       value:
         plan.liner?.kind === "steel-ring"
-          ? `${ring?.name ?? "Steel ring"} (${f(plan.liner.outsideDiameterIn)} steel ring)`
+          ? `${ring?.name ?? "Steel ring"} (${f(plan.liner.outsideDiameterIn)} steel ring${plan.liner.bedDepthIn ? `, raised on a ${f(plan.liner.bedDepthIn)} gravel bed` : ""})`
           : plan.liner?.kind === "firebrick"
-            ? `Firebrick, ${plan.liner.totalBricks} bricks on edge`
+            ? plan.liner.fits
+              ? `Firebrick, ${plan.liner.totalBricks} bricks on edge${plan.liner.ripHeightIn != null ? ", the top row cut to height" : ""}, ${f(plan.liner.fireboxDiameterIn)} across inside`
+              : "Firebrick (does not fit this bowl)"
             : "None",
     },
   ];
@@ -185,6 +197,12 @@ export function summarizeDesign(plan: PublicPlan, design: Design, catalog: Catal
       value: `${design.patioRadiusFt} ft radius, ${paver?.name ?? "pavers"} with a ${border?.name ?? "border"} edge`,
     });
   }
+  const distances = [
+    design.setbackFt != null ? `${design.setbackFt} ft to the nearest building` : null,
+    design.propertyLineFt != null ? `${design.propertyLineFt} ft to the property line` : null,
+    design.branchesFt != null ? `${design.branchesFt} ft to overhanging branches` : null,
+  ].filter((d): d is string => d !== null);
+  if (distances.length) lines.push({ label: "Site", value: distances.join(", ") });
   return lines;
 }
 

@@ -33,7 +33,9 @@ export const designParamsSchema = z.object({
   }),
   paver: optionalParam(id("Pavers")),
   border: optionalParam(id("Border")),
-  setback: optionalParam(numberIn("Setback", 0, 500, " ft")),
+  setback: optionalParam(numberIn("Distance to the nearest building", 0, 500, " ft")),
+  propertyLine: optionalParam(numberIn("Distance to the property line", 0, 500, " ft")),
+  branches: optionalParam(numberIn("Distance to overhanging branches", 0, 500, " ft")),
   unit: optionalParam(z.enum(["in", "mm"], { error: "Unit must be in or mm." })),
 });
 

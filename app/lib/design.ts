@@ -24,8 +24,12 @@ export type Design = {
   patioRadiusFt: number;
   paverId: number | null;
   borderId: number | null;
-  /** Distance from the pit to the nearest building or tree, ft; null when not given. */
+  /** Distance from the pit to the nearest building, deck or fence, ft; null when not given. */
   setbackFt: number | null;
+  /** Distance to the property line, ft; null when not given. */
+  propertyLineFt: number | null;
+  /** Distance to overhanging branches or wires, ft; null when not given. */
+  branchesFt: number | null;
   unit: DisplayUnit;
 };
 
@@ -146,7 +150,10 @@ export function parseDesign(params: URLSearchParams, catalog: CatalogChoice[]): 
       ? 0
       : clamp(Math.round(patio * 2) / 2, PATIO_RADIUS_FT.min, PATIO_RADIUS_FT.max);
 
-  const setback = numberParam(params, "setback");
+  const distance = (key: string) => {
+    const value = numberParam(params, key);
+    return value === null ? null : clamp(Math.round(value), 0, 500);
+  };
   return {
     stoneId: stone.id,
     unitCount,
@@ -159,7 +166,9 @@ export function parseDesign(params: URLSearchParams, catalog: CatalogChoice[]): 
     patioRadiusFt,
     paverId: pickId(pavers, intParam(params, "paver")),
     borderId: pickId(borders, intParam(params, "border")),
-    setbackFt: setback === null ? null : clamp(Math.round(setback), 0, 500),
+    setbackFt: distance("setback"),
+    propertyLineFt: distance("propertyLine"),
+    branchesFt: distance("branches"),
     unit: params.get("unit") === "mm" ? "mm" : "in",
   };
 }
@@ -179,6 +188,8 @@ export function designToSearchParams(design: Design): URLSearchParams {
   if (design.paverId !== null) params.set("paver", String(design.paverId));
   if (design.borderId !== null) params.set("border", String(design.borderId));
   if (design.setbackFt !== null) params.set("setback", String(design.setbackFt));
+  if (design.propertyLineFt !== null) params.set("propertyLine", String(design.propertyLineFt));
+  if (design.branchesFt !== null) params.set("branches", String(design.branchesFt));
   params.set("unit", design.unit);
   return params;
 }

@@ -10,7 +10,8 @@ import { LEAD_STATUSES, STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
 import { toCatalogChoice } from "~/lib/configurator.server";
-import { buildCutList, crewCautionsOf } from "~/lib/cut-list";
+import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-list";
+import { refreshStoredPlan } from "~/lib/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
 import { BUILD_WINDOW_LABEL, STATUS_LABEL } from "~/lib/lead-status";
@@ -61,7 +62,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   }
   const shown = versions[shownIndex]!;
   const catalog = catalogItems.map(toCatalogChoice);
-  const plan = shown.plan;
+  const { plan, isLegacy } = await refreshStoredPlan(shown.plan, shown.design.choices, company.slug, catalog);
   const tz = company.timeZone;
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
@@ -96,12 +97,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       summary: shown.design.summary,
       sceneInput: planToSceneInput(publicPlan(plan) as PublicPlan, shown.design.choices, catalog),
       caption: describePreview(publicPlan(plan) as PublicPlan, "in"),
-      cutList: buildCutList(plan),
+      cutList: isLegacy ? legacyCutList() : buildCutList(plan),
       caps: plan.caps,
       materials: plan.materials,
       warnings: plan.warnings,
       cautions: crewCautionsOf(plan.cautions),
       labour: isOffice ? plan.labour : null,
+      unpricedItems: isOffice ? (plan.unpricedItems ?? []) : [],
       price: isOffice && plan.price ? plan.price.breakdown : null,
     },
     timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),
@@ -289,6 +291,11 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                       ))}
                     </tbody>
                   </table>
+                  {shown.unpricedItems.length ? (
+                    <p className="mt-2 text-sm text-ember-700" data-testid="unpriced-items">
+                      Not in the price: {shown.unpricedItems.join(", ")}. Add {shown.unpricedItems.length === 1 ? "it" : "them"} to your catalog to price {shown.unpricedItems.length === 1 ? "it" : "them"}.
+                    </p>
+                  ) : null}
                 </div>
               ) : null}
               {shown.price ? (

@@ -282,23 +282,33 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
         </Section>
       ) : null}
 
-      <Section title="Where it goes" hint="Fires need room: we compare this with the setback your contractor works to.">
-        <label className="field-label" htmlFor={`${ids}-setback`}>Distance to the nearest building, fence or tree</label>
-        <div className="relative mt-1 max-w-48">
-          <input
-            id={`${ids}-setback`}
-            type="number"
-            name="setback"
-            min={0}
-            max={500}
-            inputMode="numeric"
-            value={design.setbackFt ?? ""}
-            placeholder="e.g. 30"
-            onChange={(e) => onChange({ setbackFt: e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))) })}
-            className="field-input mt-0 pr-10"
-          />
-          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">ft</span>
-        </div>
+      <Section title="Where it goes" hint="Fires need room: we compare each distance with what your contractor works to. Measure from where the fire will be.">
+        {(
+          [
+            ["setback", "setbackFt", "Distance to the nearest building, deck or fence", "e.g. 30"],
+            ["propertyLine", "propertyLineFt", "Distance to the property line", "e.g. 15"],
+            ["branches", "branchesFt", "Distance to overhanging branches or wires", "e.g. 20"],
+          ] as const
+        ).map(([name, key, label, example]) => (
+          <div key={name} className="mt-3 first:mt-0">
+            <label className="field-label" htmlFor={`${ids}-${name}`}>{label}</label>
+            <div className="relative mt-1 max-w-48">
+              <input
+                id={`${ids}-${name}`}
+                type="number"
+                name={name}
+                min={0}
+                max={500}
+                inputMode="numeric"
+                value={design[key] ?? ""}
+                placeholder={example}
+                onChange={(e) => onChange({ [key]: e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))) })}
+                className="field-input mt-0 pr-10"
+              />
+              <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">ft</span>
+            </div>
+          </div>
+        ))}
       </Section>
     </div>
   );

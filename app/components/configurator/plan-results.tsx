@@ -27,6 +27,12 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
             <dt className="text-char-500">Outside footprint</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.outsideDiameterIn)}</dd>
           </div>
+          {plan.liner && typeof plan.fireOpeningIn === "number" && plan.fireOpeningIn < plan.ring.bowlDiameterIn - 1e-9 ? (
+            <div>
+              <dt className="text-char-500">Fire opening (inside the {plan.liner.kind === "firebrick" ? "firebrick" : "ring"})</dt>
+              <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.fireOpeningIn)}</dd>
+            </div>
+          ) : null}
           <div>
             <dt className="text-char-500">Wall height</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.wallHeightIn)}</dd>
