@@ -7,7 +7,8 @@ export default defineConfig({
   fullyParallel: false,
   workers: 1,
   retries: process.env.CI ? 1 : 0,
-  timeout: 30_000,
+  // The long staff journeys take 20–30 s on a quiet 2-core machine; leave room for a busy one.
+  timeout: 60_000,
   reporter: [["list"]],
   outputDir: "test-results",
   use: {
