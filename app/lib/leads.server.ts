@@ -1,12 +1,12 @@
 import { and, desc, eq } from "drizzle-orm";
-import { emailOutbox, leadEvents, leadPhotos, leads, oneTimeTokens, users, type Company, type Lead } from "~/db/schema";
+import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead } from "~/db/schema";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { LeadReceivedEmail } from "~/emails/lead-received";
 import { NewLeadEmail } from "~/emails/new-lead";
 import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import type { LeadFormInput } from "~/lib/lead-schema";
-import { createRef, createToken } from "~/lib/tokens.server";
+import { createRef, issueOneTimeToken, oneTimeLinkPath } from "~/lib/tokens.server";
 import { deleteStoredPhotos, storePhotos, sweepOrphanPhotos, type CheckedPhoto } from "~/lib/uploads.server";
 
 export type LeadSnapshot = {
@@ -20,11 +20,13 @@ export type LeadSnapshot = {
 };
 
 const SET_PASSWORD_DAYS = 7;
+const CONFIRM_REQUEST_DAYS = 30;
 
 /**
  * Saves a homeowner's request: photos on disk first (generated names), then in one transaction the
- * lead with its design snapshot, its photos, a timeline event, the homeowner's account (new ones get
- * a one-time set-password link) and two outbox e-mails. If the transaction fails the photos are
+ * lead with its design snapshot, its photos, a timeline event, the homeowner's account, a one-time
+ * link that puts the request in that account's list (and sets a password if it has none) and two
+ * outbox e-mails. If the transaction fails the photos are
  * deleted again, so nothing is half-saved; the outbox worker sends the e-mails later.
  */
 export async function createLead(args: {
@@ -40,26 +42,18 @@ export async function createLead(args: {
   try {
     return await writeTransaction(async (tx) => {
       const [existing] = await tx.select().from(users).where(eq(users.email, email)).limit(1);
-      let homeownerId: number | null = null;
-      let accountLink: string | null = null;
+      // The account the address belongs to (a new one for a new address). The request joins that
+      // account's list only when someone uses the link mailed to the address: whoever typed the
+      // address into the form may not be its owner.
+      let accountId: number | null = null;
       if (!existing) {
         const [created] = await tx
           .insert(users)
           .values({ companyId: company.id, email, name: form.customerName, role: "homeowner" })
           .returning({ id: users.id });
-        homeownerId = created!.id;
+        accountId = created!.id;
       } else if (existing.role === "homeowner") {
-        homeownerId = existing.id;
-      }
-      if (homeownerId !== null && (!existing || !existing.passwordHash)) {
-        const { token, tokenHash } = createToken();
-        await tx.insert(oneTimeTokens).values({
-          tokenHash,
-          userId: homeownerId,
-          purpose: "set-password",
-          expiresAt: new Date(Date.now() + SET_PASSWORD_DAYS * 86_400_000).toISOString(),
-        });
-        accountLink = `${origin}/welcome/${token}`;
+        accountId = existing.id;
       }
 
       const ref = createRef();
@@ -67,7 +61,7 @@ export async function createLead(args: {
         .insert(leads)
         .values({
           companyId: company.id,
-          homeownerId,
+          homeownerId: null,
           ref,
           customerName: form.customerName,
           email,
@@ -85,6 +79,20 @@ export async function createLead(args: {
         })
         .returning({ id: leads.id, ref: leads.ref });
       const leadId = lead!.id;
+
+      let accountLink: string | null = null;
+      let confirmLink: string | null = null;
+      if (accountId !== null) {
+        const hasPassword = Boolean(existing?.passwordHash);
+        const token = await issueOneTimeToken(tx, {
+          userId: accountId,
+          purpose: hasPassword ? "confirm-request" : "set-password",
+          days: hasPassword ? CONFIRM_REQUEST_DAYS : SET_PASSWORD_DAYS,
+          leadId,
+        });
+        if (hasPassword) confirmLink = `${origin}${oneTimeLinkPath(token)}`;
+        else accountLink = `${origin}${oneTimeLinkPath(token)}`;
+      }
 
       if (storedNames.length) {
         await tx.insert(leadPhotos).values(
@@ -117,6 +125,7 @@ export async function createLead(args: {
             customerName: form.customerName,
             summary: snapshot.summary,
             accountLink,
+            confirmLink,
             requestLink: `${origin}/my`,
           }),
         }),
