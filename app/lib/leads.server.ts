@@ -1,4 +1,4 @@
-import { and, desc, eq } from "drizzle-orm";
+import { and, desc, eq, gt, sum } from "drizzle-orm";
 import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead } from "~/db/schema";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { LeadReceivedEmail } from "~/emails/lead-received";
@@ -7,7 +7,7 @@ import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import type { LeadFormInput } from "~/lib/lead-schema";
 import { createRef, issueOneTimeToken, oneTimeLinkPath } from "~/lib/tokens.server";
-import { deleteStoredPhotos, storePhotos, sweepOrphanPhotos, type CheckedPhoto } from "~/lib/uploads.server";
+import { deleteStoredPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, sweepOrphanPhotos, type StoredPhoto } from "~/lib/uploads.server";
 
 export type LeadSnapshot = {
   design: unknown;
@@ -33,14 +33,20 @@ export async function createLead(args: {
   company: Company;
   form: LeadFormInput;
   snapshot: LeadSnapshot;
-  photos: CheckedPhoto[];
+  /** Already checked and stored; deleted again if the request cannot be saved. */
+  photos: StoredPhoto[];
   origin: string;
 }): Promise<Pick<Lead, "id" | "ref">> {
   const { company, form, snapshot, photos, origin } = args;
   const email = form.email.toLowerCase();
-  const storedNames = await storePhotos(photos);
+  const storedNames = photos.map((p) => p.storedName);
   try {
     return await writeTransaction(async (tx) => {
+      // Checked inside the write transaction, so two requests at once cannot both slip under the cap.
+      if (photos.length) {
+        const incoming = photos.reduce((total, p) => total + p.sizeBytes, 0);
+        if ((await photoBytesToday(tx, company.id)) + incoming > MAX_COMPANY_PHOTO_BYTES_PER_DAY) throw new PhotoQuotaExceeded();
+      }
       const [existing] = await tx.select().from(users).where(eq(users.email, email)).limit(1);
       // The account the address belongs to (a new one for a new address). The request joins that
       // account's list only when someone uses the link mailed to the address: whoever typed the
@@ -102,7 +108,7 @@ export async function createLead(args: {
             storedName,
             originalName: photos[i]!.originalName,
             mimeType: photos[i]!.mimeType,
-            sizeBytes: photos[i]!.bytes.byteLength,
+            sizeBytes: photos[i]!.sizeBytes,
           })),
         );
       }
@@ -151,6 +157,21 @@ export async function createLead(args: {
     await deleteStoredPhotos(storedNames);
     throw error;
   }
+}
+
+/** Thrown when a company has taken in its day's photo storage; nothing of the request is saved. */
+export class PhotoQuotaExceeded extends Error {
+  readonly message = "This contractor has received all the photos it can take today. Send your request without photos, or try again tomorrow.";
+}
+
+/** Photo bytes a company stored in the last 24 hours. */
+export async function photoBytesToday(executor: Pick<typeof db, "select"> = db, companyId: number): Promise<number> {
+  const since = new Date(Date.now() - 86_400_000).toISOString();
+  const [row] = await executor
+    .select({ total: sum(leadPhotos.sizeBytes) })
+    .from(leadPhotos)
+    .where(and(eq(leadPhotos.companyId, companyId), gt(leadPhotos.createdAt, since)));
+  return Number(row?.total ?? 0);
 }
 
 /** A lead by its public reference, scoped to the company whose page it came from. */

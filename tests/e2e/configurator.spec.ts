@@ -84,8 +84,8 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
   await page.getByLabel("Street address").fill("7 Birchwood Court");
   await page.getByLabel("Town").fill("Millbrook Falls");
   await page.getByLabel(/Photos of the spot/).setInputFiles([
-    { name: "yard.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d49444154789c6360000002000001e221bc330000000049454e44ae426082", "hex") },
-    { name: "corner.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d49484452000000010000000108060000001f15c4890000000d49444154789c6360000002000001e221bc330000000049454e44ae426082", "hex") },
+    { name: "yard.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082", "hex") },
+    { name: "corner.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082", "hex") },
   ]);
   await page.getByLabel(/may contact me/).check();
   await page.getByRole("button", { name: "Send my request" }).click();

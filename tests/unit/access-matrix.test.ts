@@ -10,7 +10,7 @@ import { beforeAll, describe, expect, test } from "vitest";
 import { leadPhotos, leads, users, type Role } from "~/db/schema";
 import { db } from "~/lib/db.server";
 import { startSession } from "~/lib/session.server";
-import { storePhotos } from "~/lib/uploads.server";
+import { storePhotoBytes } from "~/lib/uploads.server";
 import { loader as photoLoader } from "~/routes/photo";
 import { loader as indexLoader } from "~/routes/app-index";
 import { loader as catalogLoader } from "~/routes/app-catalog";
@@ -41,10 +41,10 @@ const cookies = {} as Record<Who, string | undefined>;
 const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0 };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
-  const [storedName] = await storePhotos([{ bytes: TINY_PNG, mimeType: "image/png", extension: "png", originalName: "yard.png" }]);
+  const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
   const [row] = await db
     .insert(leadPhotos)
-    .values({ companyId, leadId, storedName: storedName!, originalName: "yard.png", mimeType: "image/png", sizeBytes: TINY_PNG.byteLength })
+    .values({ companyId, leadId, storedName, originalName: "yard.png", mimeType: "image/png", sizeBytes: TINY_PNG.byteLength })
     .returning({ id: leadPhotos.id });
   return row!.id;
 }
