@@ -8,7 +8,7 @@ export default [
   route("c/:companySlug/sent/:ref", "routes/request-sent.tsx"),
   route("c/:companySlug/consult/:ref", "routes/consult.tsx"),
   route("c/:companySlug/consult/:ref/done", "routes/consult-done.tsx"),
-  route("welcome/:token", "routes/welcome.tsx"),
+  route("welcome/:token?", "routes/welcome.tsx"),
   route("my", "routes/my.tsx"),
   route("photos/:photoId", "routes/photo.ts"),
 

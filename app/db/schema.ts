@@ -269,7 +269,11 @@ export const oneTimeTokens = sqliteTable(
     userId: integer("user_id")
       .notNull()
       .references(() => users.id, { onDelete: "cascade" }),
-    purpose: text("purpose", { enum: ["set-password", "invite"] }).notNull(),
+    // "confirm-request": adds one request sent with this address to the account's own list.
+    purpose: text("purpose", { enum: ["set-password", "invite", "confirm-request"] }).notNull(),
+    // The request this link confirms: a request joins the account that owns its e-mail address
+    // only when someone uses a link sent to that address.
+    leadId: integer("lead_id").references(() => leads.id),
     expiresAt: text("expires_at").notNull(),
     usedAt: text("used_at"),
     createdAt: createdAt(),

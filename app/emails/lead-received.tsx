@@ -7,7 +7,10 @@ export function LeadReceivedEmail(props: {
   companyName: string;
   customerName: string;
   summary: DesignSummaryLine[];
+  /** Sets a password and adds this request to the new account. */
   accountLink: string | null;
+  /** For an address that already has an account: adds this request to it. */
+  confirmLink?: string | null;
   requestLink: string;
 }) {
   return (
@@ -25,6 +28,19 @@ export function LeadReceivedEmail(props: {
             Set my password
           </Button>
           <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d", marginTop: "12px" }}>This link works once, for 7 days.</Text>
+        </>
+      ) : props.confirmLink ? (
+        <>
+          <Text style={emailText}>
+            This address already has an account. If you sent this request, add it to your requests, then sign in to
+            follow it and book a design consult:
+          </Text>
+          <Button href={props.confirmLink} style={emailButton}>
+            Add it to my requests
+          </Button>
+          <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d", marginTop: "12px" }}>
+            If you did not send it, ignore this e-mail: the request stays out of your account.
+          </Text>
         </>
       ) : (
         <Button href={props.requestLink} style={emailButton}>

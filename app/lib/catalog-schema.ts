@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { toSingleLine } from "~/lib/clean-text";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
 import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog-kinds";
 import { fieldErrors, formNumber } from "~/lib/form-fields";
@@ -7,8 +8,8 @@ const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn
 
 const baseSchema = z.object({
   kind: z.enum(CATALOG_KINDS, { error: "Choose what kind of item this is." }),
-  name: z.string().trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
-  colourName: z.string().trim().max(40, "Colour name must be at most 40 characters.").default(""),
+  name: z.string().overwrite(toSingleLine).trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
+  colourName: z.string().overwrite(toSingleLine).trim().max(40, "Colour name must be at most 40 characters.").default(""),
   colourHex: z
     .string()
     .trim()

@@ -1,14 +1,15 @@
 import { z } from "zod";
+import { toSingleLine } from "~/lib/clean-text";
 import { formNumber } from "~/lib/form-fields";
 
 const TIME_ZONES = new Set(Intl.supportedValuesOf("timeZone"));
 
 /** The owner's company settings form; money entered in dollars, stored in cents. */
 export const companySettingsSchema = z.object({
-  name: z.string().trim().min(2, "Company name must be 2 to 80 characters.").max(80, "Company name must be 2 to 80 characters."),
+  name: z.string().overwrite(toSingleLine).trim().min(2, "Company name must be 2 to 80 characters.").max(80, "Company name must be 2 to 80 characters."),
   email: z.email("Enter an e-mail address like office@example.com."),
-  phone: z.string().trim().max(30, "Phone must be at most 30 characters."),
-  town: z.string().trim().max(80, "Town must be at most 80 characters."),
+  phone: z.string().overwrite(toSingleLine).trim().max(30, "Phone must be at most 30 characters."),
+  town: z.string().overwrite(toSingleLine).trim().max(80, "Town must be at most 80 characters."),
   timeZone: z.string().refine((tz) => TIME_ZONES.has(tz), "Choose a time zone from the list."),
   consultFee: formNumber("Consult fee", 0, 2000, "dollars").transform((v) => Math.round(v * 100)),
   setbackFt: formNumber("Setback", 5, 100, "ft"),

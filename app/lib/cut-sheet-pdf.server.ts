@@ -3,9 +3,10 @@ import { layoutCapTemplate } from "~/domain/cap-template";
 import { layoutTemplateSheets, LETTER_PT, PAGE_MARGIN_PT, type DrawCommand } from "~/lib/cap-template-layout";
 import type { CutSheet } from "~/lib/cut-sheet.server";
 import { drawCapFigure, drawRingFigure } from "~/lib/cut-sheet-figures";
+import { withWideText } from "~/lib/pdf-fonts.server";
 
 /*
- * The printable cut sheet as a PDF, made with pdfkit's built-in Helvetica (no font files to ship):
+ * The printable cut sheet as a PDF, made with pdfkit's built-in Helvetica (Noto where a name needs it):
  * the cut tables, the material order and the crew's cautions, a page of drawings, then the
  * full-size cap template tiled over Letter sheets. Geometry comes as drawing commands from pure
  * modules (cap-template-layout, cut-sheet-figures); this file only plays them back and sets text.
@@ -113,7 +114,8 @@ const UNIT_WORDS = { each: ["each", "each"], ton: ["ton", "tons"], cartridge: ["
 
 /** Renders the whole cut sheet; resolves to the PDF's bytes. */
 export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
-  const doc = new PDFDocument({
+  // Names and addresses may be in any script: text the built-in font cannot set uses embedded Noto.
+  const doc = withWideText(new PDFDocument({
     size: "LETTER",
     margin: PAGE_MARGIN_PT,
     bufferPages: true,
@@ -123,7 +125,7 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
       Creator: "Emberwright",
       Subject: "Cut list, material order and full-size cap template",
     },
-  });
+  }));
   const chunks: Buffer[] = [];
   doc.on("data", (chunk: Buffer) => chunks.push(chunk));
   const done = new Promise<Buffer>((resolve, reject) => {

@@ -1,4 +1,5 @@
 import { render } from "@react-email/components";
+import { toSingleLine } from "~/lib/clean-text";
 import type { ReactElement } from "react";
 import { Resend } from "resend";
 import { emailOutbox } from "~/db/schema";
@@ -29,7 +30,8 @@ export async function prepareOutboxRow(message: OutboxMessage): Promise<typeof e
     companyId: message.companyId,
     idempotencyKey: message.idempotencyKey,
     toAddress: message.to,
-    subject: message.subject,
+    // Subjects are built from cleaned form values already; a header never gets a line break anyway.
+    subject: toSingleLine(message.subject).trim(),
     html,
     text,
     attachmentsJson: JSON.stringify(message.attachments ?? []),

@@ -28,3 +28,16 @@ export function formNumber(label: string, min: number, max: number, unit = "") {
     })
     .pipe(z.number().min(min, range).max(max, range));
 }
+
+/**
+ * A record id posted by a form (a hidden field): a positive whole number of at most 9 digits.
+ * "abc", "", "0", "-1", "1e3" and "0x10" are all refused with the message, so no handler ever
+ * queries with NaN or a coerced surprise.
+ */
+export function formId(message: string) {
+  return z
+    .string({ error: message })
+    .trim()
+    .regex(/^[1-9]\d{0,8}$/, { error: message })
+    .transform(Number);
+}

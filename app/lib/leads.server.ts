@@ -1,13 +1,13 @@
-import { and, desc, eq } from "drizzle-orm";
-import { emailOutbox, leadEvents, leadPhotos, leads, oneTimeTokens, users, type Company, type Lead } from "~/db/schema";
+import { and, desc, eq, gt, sum } from "drizzle-orm";
+import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead } from "~/db/schema";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { LeadReceivedEmail } from "~/emails/lead-received";
 import { NewLeadEmail } from "~/emails/new-lead";
 import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import type { LeadFormInput } from "~/lib/lead-schema";
-import { createRef, createToken } from "~/lib/tokens.server";
-import { deleteStoredPhotos, storePhotos, sweepOrphanPhotos, type CheckedPhoto } from "~/lib/uploads.server";
+import { createRef, issueOneTimeToken, oneTimeLinkPath } from "~/lib/tokens.server";
+import { deleteStoredPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, sweepOrphanPhotos, type StoredPhoto } from "~/lib/uploads.server";
 
 export type LeadSnapshot = {
   design: unknown;
@@ -20,46 +20,46 @@ export type LeadSnapshot = {
 };
 
 const SET_PASSWORD_DAYS = 7;
+const CONFIRM_REQUEST_DAYS = 30;
 
 /**
  * Saves a homeowner's request: photos on disk first (generated names), then in one transaction the
- * lead with its design snapshot, its photos, a timeline event, the homeowner's account (new ones get
- * a one-time set-password link) and two outbox e-mails. If the transaction fails the photos are
+ * lead with its design snapshot, its photos, a timeline event, the homeowner's account, a one-time
+ * link that puts the request in that account's list (and sets a password if it has none) and two
+ * outbox e-mails. If the transaction fails the photos are
  * deleted again, so nothing is half-saved; the outbox worker sends the e-mails later.
  */
 export async function createLead(args: {
   company: Company;
   form: LeadFormInput;
   snapshot: LeadSnapshot;
-  photos: CheckedPhoto[];
+  /** Already checked and stored; deleted again if the request cannot be saved. */
+  photos: StoredPhoto[];
   origin: string;
 }): Promise<Pick<Lead, "id" | "ref">> {
   const { company, form, snapshot, photos, origin } = args;
   const email = form.email.toLowerCase();
-  const storedNames = await storePhotos(photos);
+  const storedNames = photos.map((p) => p.storedName);
   try {
     return await writeTransaction(async (tx) => {
+      // Checked inside the write transaction, so two requests at once cannot both slip under the cap.
+      if (photos.length) {
+        const incoming = photos.reduce((total, p) => total + p.sizeBytes, 0);
+        if ((await photoBytesToday(tx, company.id)) + incoming > MAX_COMPANY_PHOTO_BYTES_PER_DAY) throw new PhotoQuotaExceeded();
+      }
       const [existing] = await tx.select().from(users).where(eq(users.email, email)).limit(1);
-      let homeownerId: number | null = null;
-      let accountLink: string | null = null;
+      // The account the address belongs to (a new one for a new address). The request joins that
+      // account's list only when someone uses the link mailed to the address: whoever typed the
+      // address into the form may not be its owner.
+      let accountId: number | null = null;
       if (!existing) {
         const [created] = await tx
           .insert(users)
           .values({ companyId: company.id, email, name: form.customerName, role: "homeowner" })
           .returning({ id: users.id });
-        homeownerId = created!.id;
+        accountId = created!.id;
       } else if (existing.role === "homeowner") {
-        homeownerId = existing.id;
-      }
-      if (homeownerId !== null && (!existing || !existing.passwordHash)) {
-        const { token, tokenHash } = createToken();
-        await tx.insert(oneTimeTokens).values({
-          tokenHash,
-          userId: homeownerId,
-          purpose: "set-password",
-          expiresAt: new Date(Date.now() + SET_PASSWORD_DAYS * 86_400_000).toISOString(),
-        });
-        accountLink = `${origin}/welcome/${token}`;
+        accountId = existing.id;
       }
 
       const ref = createRef();
@@ -67,7 +67,7 @@ export async function createLead(args: {
         .insert(leads)
         .values({
           companyId: company.id,
-          homeownerId,
+          homeownerId: null,
           ref,
           customerName: form.customerName,
           email,
@@ -86,6 +86,20 @@ export async function createLead(args: {
         .returning({ id: leads.id, ref: leads.ref });
       const leadId = lead!.id;
 
+      let accountLink: string | null = null;
+      let confirmLink: string | null = null;
+      if (accountId !== null) {
+        const hasPassword = Boolean(existing?.passwordHash);
+        const token = await issueOneTimeToken(tx, {
+          userId: accountId,
+          purpose: hasPassword ? "confirm-request" : "set-password",
+          days: hasPassword ? CONFIRM_REQUEST_DAYS : SET_PASSWORD_DAYS,
+          leadId,
+        });
+        if (hasPassword) confirmLink = `${origin}${oneTimeLinkPath(token)}`;
+        else accountLink = `${origin}${oneTimeLinkPath(token)}`;
+      }
+
       if (storedNames.length) {
         await tx.insert(leadPhotos).values(
           storedNames.map((storedName, i) => ({
@@ -94,7 +108,7 @@ export async function createLead(args: {
             storedName,
             originalName: photos[i]!.originalName,
             mimeType: photos[i]!.mimeType,
-            sizeBytes: photos[i]!.bytes.byteLength,
+            sizeBytes: photos[i]!.sizeBytes,
           })),
         );
       }
@@ -117,6 +131,7 @@ export async function createLead(args: {
             customerName: form.customerName,
             summary: snapshot.summary,
             accountLink,
+            confirmLink,
             requestLink: `${origin}/my`,
           }),
         }),
@@ -142,6 +157,21 @@ export async function createLead(args: {
     await deleteStoredPhotos(storedNames);
     throw error;
   }
+}
+
+/** Thrown when a company has taken in its day's photo storage; nothing of the request is saved. */
+export class PhotoQuotaExceeded extends Error {
+  readonly message = "This contractor has received all the photos it can take today. Send your request without photos, or try again tomorrow.";
+}
+
+/** Photo bytes a company stored in the last 24 hours. */
+export async function photoBytesToday(executor: Pick<typeof db, "select"> = db, companyId: number): Promise<number> {
+  const since = new Date(Date.now() - 86_400_000).toISOString();
+  const [row] = await executor
+    .select({ total: sum(leadPhotos.sizeBytes) })
+    .from(leadPhotos)
+    .where(and(eq(leadPhotos.companyId, companyId), gt(leadPhotos.createdAt, since)));
+  return Number(row?.total ?? 0);
 }
 
 /** A lead by its public reference, scoped to the company whose page it came from. */

@@ -1,8 +1,10 @@
 import { z } from "zod";
+import { toSingleLine } from "~/lib/clean-text";
+import { formId } from "~/lib/form-fields";
 import { STAFF_ROLES } from "~/db/enums";
 
 const role = z.enum(STAFF_ROLES, { error: "Role must be owner, estimator or crew." });
-const userId = z.string({ error: "Choose a team member." }).regex(/^\d{1,9}$/, { error: "Choose a team member." }).transform(Number);
+const userId = formId("Choose a team member.");
 
 /** The team page's forms, told apart by `intent`. */
 export const teamActionSchema = z.discriminatedUnion(
@@ -10,7 +12,7 @@ export const teamActionSchema = z.discriminatedUnion(
   [
     z.object({
       intent: z.literal("invite"),
-      name: z.string().trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
+      name: z.string().overwrite(toSingleLine).trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
       email: z
         .string()
         .trim()

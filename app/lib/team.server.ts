@@ -4,7 +4,7 @@ import { StaffInviteEmail } from "~/emails/staff-invite";
 import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import { endAllSessions, type SessionUser } from "~/lib/session.server";
-import { createToken } from "~/lib/tokens.server";
+import { createToken, oneTimeLinkPath } from "~/lib/tokens.server";
 
 type StaffRole = (typeof STAFF_ROLES)[number];
 
@@ -56,7 +56,7 @@ export async function inviteStaff(args: {
     companyId: company.id,
     to: email,
     subject: `${owner.name} invited you to ${company.name} on Emberwright`,
-    template: StaffInviteEmail({ companyName: company.name, name, invitedBy: owner.name, role, link: `${origin}/welcome/${token}`, days: INVITE_DAYS }),
+    template: StaffInviteEmail({ companyName: company.name, name, invitedBy: owner.name, role, link: `${origin}${oneTimeLinkPath(token)}`, days: INVITE_DAYS }),
   });
   try {
     await writeTransaction(async (tx) => {

@@ -13,10 +13,20 @@ export const meta: Route.MetaFunction = () => [{ title: "Catalog · Emberwright"
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const items = await listCatalog(user.companyId);
-  return { items, canEdit: user.role === "owner" };
+  // Crew build from the catalog's sizes; what the company pays and charges is not theirs to see,
+  // so the price leaves the server only for the office (in the page and in its .data alike).
+  const canSeeMoney = user.role !== "crew";
+  return {
+    items: items.map(({ priceCents, ...item }) => ({
+      ...item,
+      price: canSeeMoney ? `${formatMoney(priceCents)} / ${KIND_INFO[item.kind].priceUnit}` : null,
+    })),
+    canEdit: user.role === "owner",
+    canSeeMoney,
+  };
 }
 
-function sizeOf(item: CatalogItem): string {
+function sizeOf(item: Omit<CatalogItem, "priceCents">): string {
   const parts = KIND_DIMENSIONS[item.kind]
     .map((rule) => item[rule.key])
     .filter((v): v is number => typeof v === "number")
@@ -25,7 +35,7 @@ function sizeOf(item: CatalogItem): string {
 }
 
 export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
-  const { items, canEdit } = loaderData;
+  const { items, canEdit, canSeeMoney } = loaderData;
   const groups = CATALOG_KINDS.map((kind) => ({ kind, items: items.filter((i) => i.kind === kind) })).filter((g) => g.items.length);
   return (
     <div className="flex flex-col gap-6">
@@ -55,7 +65,7 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
                   <th scope="col" className="px-4 py-2 font-bold">Name</th>
                   <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">Colour</th>
                   <th scope="col" className="px-4 py-2 font-bold">Size</th>
-                  <th scope="col" className="px-4 py-2 text-right font-bold">Price</th>
+                  {canSeeMoney ? <th scope="col" className="px-4 py-2 text-right font-bold">Price</th> : null}
                   <th scope="col" className="px-4 py-2 font-bold">Status</th>
                 </tr>
               </thead>
@@ -78,9 +88,7 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
                       </span>
                     </td>
                     <td className="px-4 py-2.5 whitespace-nowrap tabular-nums">{sizeOf(item)}</td>
-                    <td className="px-4 py-2.5 text-right tabular-nums">
-                      {formatMoney(item.priceCents)} <span className="text-char-500">/ {KIND_INFO[item.kind].priceUnit}</span>
-                    </td>
+                    {item.price !== null ? <td className="px-4 py-2.5 text-right tabular-nums">{item.price}</td> : null}
                     <td className="px-4 py-2.5">
                       {item.isActive ? (
                         <span className="rounded-full bg-moss-100 px-2 py-0.5 text-xs font-bold text-moss-700">Offered</span>

@@ -2,7 +2,7 @@ import { and, asc, eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
-import { fieldErrors } from "~/lib/form-fields";
+import { fieldErrors, formId } from "~/lib/form-fields";
 import { SelectField, TextField } from "~/components/ui/field";
 import { companies, consultBlockedDays } from "~/db/schema";
 import { getCompany } from "~/lib/catalog.server";
@@ -49,6 +49,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
+const unblockIdSchema = formId("Choose a blocked day to open again.");
+
 const hoursSchema = z.object({
   slotMinutes: z.enum(["30", "45", "60", "90", "120"], { error: "Choose a slot length from the list." }).transform(Number),
   horizonDays: z.coerce
@@ -71,7 +73,9 @@ export async function action({ request }: Route.ActionArgs) {
     return redirect("/app/consult-hours?saved=1");
   }
   if (intent === "unblock") {
-    await db.delete(consultBlockedDays).where(and(eq(consultBlockedDays.companyId, user.companyId), eq(consultBlockedDays.id, Number(form.get("id")))));
+    const id = unblockIdSchema.safeParse(form.get("id"));
+    if (!id.success) return data({ errors: { day: id.error.issues[0]!.message } as Record<string, string> }, { status: 400 });
+    await db.delete(consultBlockedDays).where(and(eq(consultBlockedDays.companyId, user.companyId), eq(consultBlockedDays.id, id.data)));
     return redirect("/app/consult-hours?saved=1");
   }
   const parsed = hoursSchema.safeParse({ slotMinutes: form.get("slotMinutes"), horizonDays: form.get("horizonDays") });

@@ -3,6 +3,7 @@ import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-schedule";
 import { FormAlert } from "~/components/ui/field";
+import { formId } from "~/lib/form-fields";
 import { bookings, leads } from "~/db/schema";
 import { cancelBooking } from "~/lib/booking.server";
 import { getCompany } from "~/lib/catalog.server";
@@ -42,7 +43,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return { timeZone: company.timeZone, days: [...days.entries()].map(([day, list]) => ({ day, items: list })), canEditHours: user.role === "owner" };
 }
 
-const cancelSchema = z.object({ bookingId: z.coerce.number().int().positive({ error: "Choose a consult to cancel." }) });
+const cancelSchema = z.object({ bookingId: formId("Choose a consult to cancel.") });
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });

@@ -16,11 +16,11 @@ import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
 import { fieldErrors } from "~/lib/form-fields";
 import { leadFormSchema } from "~/lib/lead-schema";
-import { createLead } from "~/lib/leads.server";
+import { createLead, PhotoQuotaExceeded, photoBytesToday } from "~/lib/leads.server";
 import type { PlanFieldError } from "~/lib/plan-schema";
 import { publicPlan } from "~/lib/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
-import { checkPhotos, MAX_FORM_BYTES } from "~/lib/uploads.server";
+import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
@@ -67,42 +67,54 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
     return data({ errors: { photos: "The request is too large: attach at most 6 photos of 10 MB each." }, values: {} }, { status: 413 });
   }
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    return data({ errors: { form: "We could not read that form. Please try again." }, values: {} }, { status: 400 });
-  }
-  const fields = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  // Photos stream to temporary files as they arrive; the limits stop the reading itself.
+  const reading = await readLeadForm(request);
+  if (!reading.ok) return data({ errors: reading.errors, values: {} }, { status: reading.status });
+  const { fields, photos: received } = reading;
   const parsed = leadFormSchema.safeParse(fields);
   const { website: _honeypot, ...values } = fields;
   const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
-  const photoCheck = await checkPhotos(form.getAll("photos").filter((f): f is File => f instanceof File));
-  if (!photoCheck.ok) errors.photos = photoCheck.message;
-  if (!parsed.success || !photoCheck.ok) return data({ errors, values }, { status: 400 });
-
-  const design = parseDesign(new URLSearchParams(String(form.get("design") ?? "")), catalog);
+  const design = parsed.success ? parseDesign(new URLSearchParams(fields.design ?? ""), catalog) : null;
   const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] as PlanFieldError[] };
-  if (!design || !result.plan) {
+  if (!parsed.success || !design || !result.plan) {
+    // Only the quick checks here: nothing is decoded for a request that is refused anyway.
+    const quick = await checkReceivedPhotos(received);
+    await discardReceivedPhotos(received);
+    if (!quick.ok) errors.photos = quick.message;
+    if (!parsed.success || !quick.ok) return data({ errors, values }, { status: 400 });
     const message = result.errors[0]?.message ?? "This design cannot be built as it stands.";
     return data({ errors: { form: `Change the design first: ${message}` }, values }, { status: 422 });
   }
+  const quotaRefusal = () => data({ errors: { photos: new PhotoQuotaExceeded().message }, values }, { status: 429, headers: { "Retry-After": "3600" } });
+  if (received.length && (await photoBytesToday(undefined, company.id)) >= MAX_COMPANY_PHOTO_BYTES_PER_DAY) {
+    await discardReceivedPhotos(received);
+    return quotaRefusal();
+  }
+  const stored = await storeReceivedPhotos(received);
+  if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
   const { plan } = result;
-  const lead = await createLead({
-    company,
-    form: parsed.data,
-    photos: photoCheck.photos,
-    origin: appOrigin(request),
-    snapshot: {
-      design: { choices: design, summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in") },
-      plan,
-      stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
-      bowlDiameterIn: plan.ring.bowlDiameterIn,
-      priceLowCents: plan.price?.lowCents ?? null,
-      priceHighCents: plan.price?.highCents ?? null,
-      summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in"),
-    },
-  });
+  let lead: Awaited<ReturnType<typeof createLead>>;
+  try {
+    lead = await createLead({
+      company,
+      form: parsed.data,
+      photos: stored.photos,
+      origin: appOrigin(request),
+      snapshot: {
+        design: { choices: design, summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in") },
+        plan,
+        stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
+        bowlDiameterIn: plan.ring.bowlDiameterIn,
+        priceLowCents: plan.price?.lowCents ?? null,
+        priceHighCents: plan.price?.highCents ?? null,
+        summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in"),
+      },
+    });
+  } catch (error) {
+    // createLead deletes the stored photos itself when it fails; nothing of the request is kept.
+    if (error instanceof PhotoQuotaExceeded) return quotaRefusal();
+    throw error;
+  }
   return redirect(`/c/${company.slug}/sent/${lead.ref}`);
 }
 

@@ -11,6 +11,7 @@ import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/booking.serv
 import { db } from "~/lib/db.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
 import { listHomeownerLeads } from "~/lib/leads.server";
+import { formId } from "~/lib/form-fields";
 import { formatMoneyWhole } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
 
@@ -60,7 +61,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-const cancelSchema = z.object({ bookingId: z.coerce.number().int().positive({ error: "Choose a consult to cancel." }) });
+const cancelSchema = z.object({ bookingId: formId("Choose a consult to cancel.") });
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });

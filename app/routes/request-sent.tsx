@@ -1,11 +1,8 @@
-import { eq } from "drizzle-orm";
 import { Link } from "react-router";
 import type { Route } from "./+types/request-sent";
 import { PublicShell } from "~/components/public-shell";
 import type { DesignSummaryLine } from "~/emails/design-summary";
-import { users } from "~/db/schema";
 import { findCompanyBySlug } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
 import { findLeadByRef } from "~/lib/leads.server";
 import { formatMoney, formatMoneyWhole } from "~/lib/money";
 
@@ -17,11 +14,9 @@ export async function loader({ params }: Route.LoaderArgs) {
   const lead = company ? await findLeadByRef(company.id, params.ref) : null;
   if (!company || !lead) throw new Response("Not found", { status: 404 });
   const design = JSON.parse(lead.designJson) as { summary?: DesignSummaryLine[] };
-  const [homeowner] = lead.homeownerId
-    ? await db.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, lead.homeownerId)).limit(1)
-    : [];
+  // Nothing here depends on whether the address has an account: the page would tell anyone who
+  // typed an address whether it is registered. The e-mail carries the right next step.
   return {
-    hasAccount: Boolean(homeowner?.passwordHash),
     companyName: company.name,
     companySlug: company.slug,
     ref: lead.ref,
@@ -36,7 +31,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export default function RequestSentRoute({ loaderData }: Route.ComponentProps) {
-  const { companyName, firstName, summary, price, companySlug, ref, consultFee, hasAccount } = loaderData;
+  const { companyName, firstName, summary, price, companySlug, ref, consultFee } = loaderData;
   return (
     <PublicShell>
       <main className="mx-auto flex max-w-3xl flex-col gap-6 px-4 py-10 sm:px-6">
@@ -67,9 +62,8 @@ export default function RequestSentRoute({ loaderData }: Route.ComponentProps) {
           <h2 id="next-steps" className="text-lg font-extrabold">What happens next</h2>
           <ol className="mt-2 flex list-decimal flex-col gap-2 pl-5 text-char-700">
             <li>
-              {hasAccount
-                ? "We sent you an e-mail with your design. Sign in with your e-mail address to follow all your requests."
-                : "We sent you an e-mail with your design. It has a link to set a password, so you can follow your request at any time."}
+              We sent you an e-mail with your design. Its link adds this request to your account (and lets you set a password if
+              you have none yet), so you can follow it at any time.
             </li>
             <li>{companyName} looks at your design and your yard photos, usually within two working days.</li>
             <li>They get in touch to visit, or to confirm a firm price.</li>

@@ -1,101 +1,180 @@
-import { and, eq, gt, isNull } from "drizzle-orm";
-import { data, Form, redirect, useNavigation } from "react-router";
+import { useEffect, useState } from "react";
+import { data, Form, redirect, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/welcome";
 import { fieldErrors } from "~/lib/form-fields";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { oneTimeTokens, users } from "~/db/schema";
-import { db } from "~/lib/db.server";
 import { hashPassword } from "~/lib/password.server";
 import { endAllSessions, startSession } from "~/lib/session.server";
-import { hashToken } from "~/lib/tokens.server";
+import { confirmRequestWithToken, findLiveToken, setPasswordWithToken } from "~/lib/tokens.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Set your password · Emberwright" }];
 
-const passwordFormSchema = z
-  .object({
-    password: z.string().min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters."),
-    confirm: z.string(),
-  })
-  .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords do not match." });
+/*
+ * One-time links arrive as /welcome#<token>. Browsers never send a fragment to a server, so the
+ * token is in no request line, access log or Referer; the page reads it and posts it in the body.
+ */
 
-async function findLiveToken(token: string) {
-  const [row] = await db
-    .select({ tokenHash: oneTimeTokens.tokenHash, userId: users.id, name: users.name, email: users.email, role: users.role })
-    .from(oneTimeTokens)
-    .innerJoin(users, eq(users.id, oneTimeTokens.userId))
-    .where(
-      and(
-        eq(oneTimeTokens.tokenHash, hashToken(token)),
-        isNull(oneTimeTokens.usedAt),
-        gt(oneTimeTokens.expiresAt, new Date().toISOString()),
-        eq(users.isActive, true),
-      ),
-    )
-    .limit(1);
-  return row ?? null;
-}
+const DEAD_LINK = "This link has been used or has expired.";
 
+const tokenField = z.string({ error: DEAD_LINK }).min(1, DEAD_LINK).max(200, DEAD_LINK);
+
+const welcomeSchema = z.discriminatedUnion(
+  "intent",
+  [
+    z.object({ intent: z.literal("check"), token: tokenField }),
+    z.object({ intent: z.literal("confirm"), token: tokenField }),
+    z
+      .object({
+        intent: z.literal("set"),
+        token: tokenField,
+        password: z.string({ error: "Use at least 10 characters." }).min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters."),
+        confirm: z.string({ error: "Type the password again." }),
+      })
+      .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords do not match." }),
+  ],
+  { error: "Open the link from your e-mail again." },
+);
+
+type Person = { name: string; email: string; purpose: "set-password" | "invite" | "confirm-request"; hasPassword: boolean };
+type WelcomeAnswer = { errors?: Record<string, string>; person?: Person; confirmed?: { hasPassword: boolean } };
+
+// Links sent before tokens moved into the fragment: pass the token on as a fragment.
 export async function loader({ params }: Route.LoaderArgs) {
-  const found = await findLiveToken(params.token);
-  return { person: found ? { name: found.name, email: found.email } : null };
+  if (params.token) throw redirect(`/welcome#${encodeURIComponent(params.token)}`);
+  return null;
 }
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const found = await findLiveToken(params.token);
-  if (!found) return data({ errors: { form: "This link has been used or has expired." } as Record<string, string> }, { status: 410 });
-  const parsed = passwordFormSchema.safeParse(Object.fromEntries(await request.formData()));
+export async function action({ request }: Route.ActionArgs) {
+  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const parsed = welcomeSchema.safeParse(fields);
   if (!parsed.success) {
-    return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
+    const errors = fieldErrors(parsed.error);
+    // Without a usable token there is nothing to fix on the page: say so once.
+    if (errors.token || errors.intent) return data<WelcomeAnswer>({ errors: { form: errors.token ?? errors.intent! } }, { status: 410 });
+    return data<WelcomeAnswer>({ errors }, { status: 400 });
   }
-  const passwordHash = await hashPassword(parsed.data.password);
-  // Marking the token used and setting the password land together, or neither does.
-  const [marked] = await db.batch([
-    db
-      .update(oneTimeTokens)
-      .set({ usedAt: new Date().toISOString() })
-      .where(and(eq(oneTimeTokens.tokenHash, found.tokenHash), isNull(oneTimeTokens.usedAt)))
-      .returning({ tokenHash: oneTimeTokens.tokenHash }),
-    db.update(users).set({ passwordHash }).where(eq(users.id, found.userId)),
-  ]);
-  if (marked.length === 0) return data({ errors: { form: "This link has been used or has expired." } as Record<string, string> }, { status: 410 });
-  await endAllSessions(found.userId);
-  const cookie = await startSession(found.userId);
-  return redirect(found.role === "homeowner" ? "/my" : "/app", { headers: { "Set-Cookie": cookie } });
+  const input = parsed.data;
+  const dead = () => data<WelcomeAnswer>({ errors: { form: DEAD_LINK } }, { status: 410 });
+
+  if (input.intent === "check") {
+    const found = await findLiveToken(input.token);
+    if (!found) return dead();
+    return data<WelcomeAnswer>({ person: { name: found.name, email: found.email, purpose: found.purpose, hasPassword: found.hasPassword } });
+  }
+  if (input.intent === "confirm") {
+    const confirmed = await confirmRequestWithToken(input.token);
+    if (!confirmed) return dead();
+    return data<WelcomeAnswer>({ confirmed: { hasPassword: confirmed.hasPassword } });
+  }
+  if (!(await findLiveToken(input.token))) return dead();
+  const passwordHash = await hashPassword(input.password);
+  // Using the link and setting the password are one transaction; a second use changes nothing.
+  const user = await setPasswordWithToken(input.token, passwordHash);
+  if (!user) return dead();
+  await endAllSessions(user.id);
+  const cookie = await startSession(user.id);
+  return redirect(user.role === "homeowner" ? "/my" : "/app", { headers: { "Set-Cookie": cookie } });
 }
 
-export default function WelcomeRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const errors: Record<string, string> = actionData?.errors ?? {};
-  const navigation = useNavigation();
+function DeadLink() {
   return (
-    <PublicShell>
-      <main className="mx-auto flex max-w-md flex-col gap-6 px-4 py-12">
-        {loaderData.person ? (
+    <div className="card p-6">
+      <h1 className="text-2xl font-extrabold">This link no longer works</h1>
+      <p className="mt-2 text-char-600">
+        It has been used already, a newer e-mail replaced it, or it is more than 7 days old. If you already set a password, sign in.
+      </p>
+      <a href="/login" className="btn-primary mt-4">Sign in</a>
+    </div>
+  );
+}
+
+export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
+  const [token, setToken] = useState<string | null>(null);
+  const check = useFetcher<WelcomeAnswer>();
+  const confirm = useFetcher<WelcomeAnswer>();
+  const navigation = useNavigation();
+  useEffect(() => {
+    const fromFragment = decodeURIComponent(window.location.hash.slice(1));
+    setToken(fromFragment);
+    if (fromFragment) void check.submit({ intent: "check", token: fromFragment }, { method: "post" });
+    // Run once, on arrival: the fragment is the link.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+  const errors: Record<string, string> = (actionData as WelcomeAnswer | undefined)?.errors ?? {};
+  const person = check.data?.person;
+  const isChecking = token === null || (token !== "" && !check.data);
+
+  let body: React.ReactNode;
+  if (isChecking) {
+    body = (
+      <div className="card p-6" role="status">
+        <h1 className="text-2xl font-extrabold">Checking your link…</h1>
+        <noscript>
+          <p className="mt-2 text-char-600">This page needs JavaScript to read the link from your e-mail.</p>
+        </noscript>
+      </div>
+    );
+  } else if (!person || errors.form === DEAD_LINK) {
+    body = <DeadLink />;
+  } else if (person.purpose === "confirm-request") {
+    const done = confirm.data?.confirmed;
+    body = (
+      <div className="card flex flex-col gap-4 p-6">
+        <h1 className="text-2xl font-extrabold">{done ? "Added to your requests" : "Add this request to your account"}</h1>
+        {confirm.data?.errors?.form ? <FormAlert>{confirm.data.errors.form}</FormAlert> : null}
+        {done ? (
           <>
-            <div>
-              <h1 className="text-3xl font-extrabold">Set your password</h1>
-              <p className="mt-2 text-char-600">
-                For {loaderData.person.name} ({loaderData.person.email}). You will sign in with this e-mail address.
-              </p>
-            </div>
-            <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
-              {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
-              <TextField label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} />
-              <TextField label="Type it again" name="confirm" type="password" autoComplete="new-password" error={errors.confirm} />
-              <button type="submit" className="btn-primary py-2.5" disabled={navigation.state === "submitting"}>
-                Save password and continue
-              </button>
-            </Form>
+            <p className="text-char-600">
+              {done.hasPassword
+                ? "Sign in with your e-mail address to follow it and book a design consult."
+                : "To follow it, set your password with the link in the newest e-mail we sent you."}
+            </p>
+            {done.hasPassword ? <a href="/login?redirectTo=/my" className="btn-primary self-start">Sign in</a> : null}
           </>
         ) : (
-          <div className="card p-6">
-            <h1 className="text-2xl font-extrabold">This link no longer works</h1>
-            <p className="mt-2 text-char-600">It has been used already or is more than 7 days old. If you already set a password, sign in.</p>
-            <a href="/login" className="btn-primary mt-4">Sign in</a>
-          </div>
+          <>
+            <p className="text-char-600">
+              A fire-pit request was sent with {person.email}. If it was you, add it to the requests you follow; if not, close this page and nothing changes.
+            </p>
+            <confirm.Form method="post">
+              <input type="hidden" name="intent" value="confirm" />
+              <input type="hidden" name="token" value={token ?? ""} />
+              <button type="submit" className="btn-primary" disabled={confirm.state !== "idle"}>
+                Yes, it was me: add it
+              </button>
+            </confirm.Form>
+          </>
         )}
-      </main>
+      </div>
+    );
+  } else {
+    body = (
+      <>
+        <div>
+          <h1 className="text-3xl font-extrabold">Set your password</h1>
+          <p className="mt-2 text-char-600">
+            For {person.name} ({person.email}). You will sign in with this e-mail address.
+          </p>
+        </div>
+        <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
+          {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
+          <input type="hidden" name="intent" value="set" />
+          <input type="hidden" name="token" value={token ?? ""} />
+          <TextField label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} />
+          <TextField label="Type it again" name="confirm" type="password" autoComplete="new-password" error={errors.confirm} />
+          <button type="submit" className="btn-primary py-2.5" disabled={navigation.state === "submitting"}>
+            Save password and continue
+          </button>
+        </Form>
+      </>
+    );
+  }
+
+  return (
+    <PublicShell>
+      <main className="mx-auto flex max-w-md flex-col gap-6 px-4 py-12">{body}</main>
     </PublicShell>
   );
 }

@@ -5,11 +5,12 @@
  * would call it, with a real session cookie.
  */
 import { eq } from "drizzle-orm";
+import { PDFParse } from "pdf-parse";
 import { beforeAll, describe, expect, test } from "vitest";
 import { leadPhotos, leads, users, type Role } from "~/db/schema";
 import { db } from "~/lib/db.server";
 import { startSession } from "~/lib/session.server";
-import { storePhotos } from "~/lib/uploads.server";
+import { storePhotoBytes } from "~/lib/uploads.server";
 import { loader as photoLoader } from "~/routes/photo";
 import { loader as indexLoader } from "~/routes/app-index";
 import { loader as catalogLoader } from "~/routes/app-catalog";
@@ -23,6 +24,9 @@ import { action as designAction, loader as designLoader } from "~/routes/app-lea
 import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
 import { loader as cutSheetPdfLoader } from "~/routes/app-lead-cut-sheet-pdf";
 import { loader as jobsLoader } from "~/routes/app-jobs";
+import { loader as layoutLoader } from "~/routes/app-layout";
+import { loader as scheduleLoader } from "~/routes/app-schedule";
+import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -37,10 +41,10 @@ const cookies = {} as Record<Who, string | undefined>;
 const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0 };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
-  const [storedName] = await storePhotos([{ bytes: TINY_PNG, mimeType: "image/png", extension: "png", originalName: "yard.png" }]);
+  const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
   const [row] = await db
     .insert(leadPhotos)
-    .values({ companyId, leadId, storedName: storedName!, originalName: "yard.png", mimeType: "image/png", sizeBytes: TINY_PNG.byteLength })
+    .values({ companyId, leadId, storedName, originalName: "yard.png", mimeType: "image/png", sizeBytes: TINY_PNG.byteLength })
     .returning({ id: leadPhotos.id });
   return row!.id;
 }
@@ -115,6 +119,21 @@ const CASES: Case[] = [
     name: "GET /app",
     call: (c) => indexLoader(routeArgs(get("/app", c))),
     expected: { owner: "redirect /app/inbox", estimator: "redirect /app/inbox", crew: "redirect /app/jobs", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "redirect /app/inbox" },
+  },
+  {
+    name: "GET /app (the workspace shell)",
+    call: (c) => layoutLoader(routeArgs(get("/app", c))),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "GET /app/schedule",
+    call: (c) => scheduleLoader(routeArgs(get("/app/schedule", c))),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "GET /app/consult-hours",
+    call: (c) => consultHoursLoader(routeArgs(get("/app/consult-hours", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
   },
   {
     name: "GET /app/catalog",
@@ -238,7 +257,57 @@ describe.each(CASES)("$name", (route) => {
       expect(await answer(() => route.call(cookies[who]))).toBe(expected);
     });
   }
+  // A loader's return value is exactly what its `.data` request serialises, so checking it covers
+  // the page's HTML and its data request alike; PDF and CSV answers are read back as text.
+  if (route.name.startsWith("GET")) {
+    test("no money for crew: no price, cost or rate in what crew receive", async () => {
+      let value: unknown;
+      try {
+        value = await route.call(cookies.crew);
+      } catch (thrown) {
+        value = thrown;
+      }
+      expect(await moneyIn(value)).toEqual([]);
+    });
+  }
 });
+
+// Keys that carry money, and amounts as the product prints them ($1,234 or $12.50).
+const MONEY_KEY = /price|cost|cents|fee|margin|markup|overhead|labou?r ?rate|amount|total/i;
+const MONEY_TEXT = /\$\s?\d/;
+
+/** Every place a crew member's answer shows money: "key: value" or a printed amount. */
+async function moneyIn(value: unknown): Promise<string[]> {
+  if (value instanceof Response) {
+    if (value.status !== 200) return [];
+    const type = value.headers.get("Content-Type") ?? "";
+    const bytes = new Uint8Array(await value.arrayBuffer());
+    let text = new TextDecoder().decode(bytes);
+    if (type.includes("pdf")) {
+      const parser = new PDFParse({ data: bytes });
+      text = (await parser.getText()).text;
+      await parser.destroy();
+    }
+    return MONEY_TEXT.test(text) ? [`body: ${text.match(/.{0,40}\$\s?\d.{0,20}/)?.[0]}`] : [];
+  }
+  const found: string[] = [];
+  const walk = (node: unknown, path: string) => {
+    if (node === null || node === undefined) return;
+    if (typeof node === "string") {
+      if (MONEY_TEXT.test(node)) found.push(`${path}: ${node}`);
+      return;
+    }
+    if (typeof node !== "object") return;
+    for (const [key, child] of Object.entries(node)) {
+      const where = path ? `${path}.${key}` : key;
+      if (MONEY_KEY.test(key) && child !== null && child !== undefined && child !== false) found.push(`${where}: ${JSON.stringify(child)}`);
+      walk(child, where);
+    }
+  };
+  const isDataWrapper = value !== null && typeof value === "object" && "init" in value && "data" in value;
+  walk(isDataWrapper ? (value as { data: unknown }).data : value, "");
+  return found;
+}
 
 test("another company's owner reading the inbox, the API and the CSV sees only their own requests", async () => {
   const cookie = cookies["other company's owner"];

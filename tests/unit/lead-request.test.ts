@@ -115,7 +115,7 @@ test("with the e-mail service failing the request still stands, and the e-mails 
   const toHomeowner = messages.filter((m) => m.to.includes("while.down@example.test"));
   expect(toHomeowner).toHaveLength(1);
   expect(toHomeowner[0]!.subject).toBe("Cinder & Slate Outdoor Works received your fire-pit request");
-  expect(toHomeowner[0]!.text).toContain("/welcome/");
+  expect(toHomeowner[0]!.text).toContain("/welcome#");
   expect(messages.filter((m) => m.subject === "New fire-pit request: Rosalind Ferreira, Millbrook Falls" && m.to.includes("office@cinder-slate.test")).length).toBeGreaterThanOrEqual(1);
 });
 

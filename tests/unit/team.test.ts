@@ -49,13 +49,13 @@ test("an invitation creates the account without a password, a one-time invite li
   expect(token!.purpose).toBe("invite");
   const [mail] = await db.select().from(emailOutbox).where(eq(emailOutbox.toAddress, "noor.aldana@cinder-slate.test"));
   expect(mail!.subject).toBe("Maren Okafor invited you to Cinder & Slate Outdoor Works on Emberwright");
-  const link = /http:\/\/localhost\/welcome\/([\w-]{43})/.exec(mail!.text)!;
+  const link = /http:\/\/localhost\/welcome#([\w-]{43})/.exec(mail!.text)!;
   expect(link).not.toBeNull();
   // Only the token's SHA-256 is kept.
   expect(hashToken(link[1]!)).toBe(token!.tokenHash);
 
   const welcome = (await welcomeAction(
-    routeArgs(new Request(`http://localhost/welcome/${link[1]}`, { method: "POST", body: new URLSearchParams({ password: "a-long-new-password", confirm: "a-long-new-password" }) }), { token: link[1]! }),
+    routeArgs(new Request("http://localhost/welcome", { method: "POST", body: new URLSearchParams({ intent: "set", token: link[1]!, password: "a-long-new-password", confirm: "a-long-new-password" }) })),
   )) as Response;
   expect(welcome.status).toBe(302);
   expect(welcome.headers.get("Location")).toBe("/app");

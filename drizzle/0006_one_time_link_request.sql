@@ -1,0 +1,1 @@
+ALTER TABLE `one_time_tokens` ADD `lead_id` integer REFERENCES leads(id);
