@@ -103,7 +103,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       warnings: plan.warnings,
       cautions: crewCautionsOf(plan.cautions),
       labour: isOffice ? plan.labour : null,
-      unpricedItems: isOffice ? (plan.unpricedItems ?? []) : [],
+      unpricedItems: isOffice ? (plan.unpricedItems ?? []) : null,
       price: isOffice && plan.price ? plan.price.breakdown : null,
     },
     timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),
@@ -291,7 +291,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                       ))}
                     </tbody>
                   </table>
-                  {shown.unpricedItems.length ? (
+                  {shown.unpricedItems?.length ? (
                     <p className="mt-2 text-sm text-ember-700" data-testid="unpriced-items">
                       Not in the price: {shown.unpricedItems.join(", ")}. Add {shown.unpricedItems.length === 1 ? "it" : "them"} to your catalog to price {shown.unpricedItems.length === 1 ? "it" : "them"}.
                     </p>
