@@ -38,7 +38,8 @@ export async function action({ request }: Route.ActionArgs) {
 function formatDefault(row: FactorRow): string {
   if (row.kind === "choice") return row.options.find((o) => o.value === row.default)?.label ?? String(row.default);
   if (row.kind === "money") return `$${toFormValue(row, row.default)}${row.unit.slice(1)}`;
-  return `${row.default} ${row.unit}`;
+  // "1 blanks" reads wrong: counts of one take the singular.
+  return `${row.default} ${row.default === 1 && row.whole ? row.unit.replace(/s$/, "") : row.unit}`;
 }
 
 export default function FactorsRoute({ loaderData, actionData }: Route.ComponentProps) {
