@@ -2,8 +2,12 @@ import fc from "fast-check";
 import { expect, test } from "vitest";
 import { DEFAULT_FACTORS, type CompanyFactors, type ProfitBasis } from "~/domain/factors";
 import { computePlan } from "~/domain/plan";
-import { countSawCuts, priceFactor, priceJob, roundToStep } from "~/domain/pricing";
-import type { MaterialLine } from "~/domain/quantities";
+import type { CapPlan } from "~/domain/caps";
+import type { LinerPlan } from "~/domain/liner";
+import type { PatioPlan } from "~/domain/patio";
+import { countSawCuts, estimateLabour, priceFactor, priceJob, roundToStep } from "~/domain/pricing";
+import type { BaseEstimate, MaterialLine } from "~/domain/quantities";
+import type { RingPlan } from "~/domain/ring";
 import { PATIO, SUPPLY_PRICES, TYPICAL_PIT } from "./fixtures";
 
 test("a typical 3-course, 14-unit pit with 12 cut caps and a steel ring takes 8–14 labour-hours (two-person crew, from memory)", () => {
@@ -338,4 +342,102 @@ test("prices are whole cents and low ≤ total ≤ high for any rates and job (p
       },
     ),
   );
+});
+
+/*
+ * Labour worked by hand from the company's production rates (the defaults in factors.ts, from
+ * memory: a two-person crew builds a 3-course, 14-unit pit with 12 cut caps and a steel ring in
+ * roughly 8–14 labour-hours). Each task is rounded to 0.01 h, then the total is their sum.
+ */
+const ringOf = (r: { unitCount: number; unitsPerCourse: number; courses: number; closurePerCourse?: number; backTrimPerSideIn?: number }) =>
+  ({
+    unitCount: r.unitCount,
+    unitsPerCourse: r.unitsPerCourse,
+    courses: r.courses,
+    totalUnits: r.unitsPerCourse * r.courses,
+    closure: r.closurePerCourse ? { countPerCourse: r.closurePerCourse } : null,
+    backTrimPerSideIn: r.backTrimPerSideIn ?? 0,
+  }) as unknown as RingPlan;
+const capsOf = (count: number, ripped = false) => ({ count, ripToDepthIn: ripped ? 11 : null }) as unknown as CapPlan;
+const baseOf = (pitAreaFt2: number) => ({ pitAreaFt2 }) as BaseEstimate;
+
+test("labour by hand: 14 units × 3 courses, 12 caps, a steel ring, 20 ft² of base", () => {
+  // Set-up 2 h; base 20 × 0.15 = 3 h; first course 14 × 5 min = 1.1667 → 1.17 h; upper courses 28 × 3 min = 1.4 h;
+  // saw cuts 12 caps × 2 = 24 × 3 min = 1.2 h; caps 12 × 5 min = 1 h; steel ring 0.5 h. Total 10.27 h.
+  const labour = estimateLabour({ ring: ringOf({ unitCount: 14, unitsPerCourse: 14, courses: 3 }), caps: capsOf(12), liner: { kind: "steel-ring" } as LinerPlan, patio: null, base: baseOf(20), factors: DEFAULT_FACTORS });
+  expect(labour).toEqual({
+    hours: 10.27,
+    sawCuts: 24,
+    tasks: [
+      { task: "setup", label: "Layout, set-up and clean-up", hours: 2 },
+      { task: "base", label: "Excavate and compact the base (20.0 ft²)", hours: 3 },
+      { task: "first-course", label: "Set and level the first course (14 units)", hours: 1.17 },
+      { task: "courses", label: "Stack and glue the upper courses (28 units)", hours: 1.4 },
+      { task: "saw-cuts", label: "Wet-saw cuts (24)", hours: 1.2 },
+      { task: "caps", label: "Glue and set the caps (12)", hours: 1 },
+      { task: "liner", label: "Set the steel ring and backfill", hours: 0.5 },
+    ],
+  });
+});
+
+test("labour by hand: an exact bowl (closures and back trims), ripped caps, firebrick and a patio, at the company's own rates", () => {
+  // Rates: set-up 3 h, base 0.2 h/ft², first course 6 min, upper 4 min, saw cut 2 min, cap 6 min, firebrick 1.5 min, patio 0.1 h/ft².
+  // Saw cuts: 10 ripped caps × 3 = 30; 1 closure a course × 2 cuts × 4 courses = 8; back trims 2 × 13 units × 4 courses = 104; 142 cuts.
+  // Set-up 3; base 18 × 0.2 = 3.6; first course 14 × 6 = 84 min = 1.4; upper 42 × 4 = 168 min = 2.8;
+  // saw 142 × 2 = 284 min = 4.7333 → 4.73; caps 10 × 6 = 60 min = 1; firebrick 120 × 1.5 = 180 min = 3;
+  // patio 150.4 ft² (labelled to the whole ft²) × 0.1 = 15.04; the steel-ring time (9 h) does not apply to firebrick.
+  // Total 3 + 3.6 + 1.4 + 2.8 + 4.73 + 1 + 3 + 15.04 = 34.57 h.
+  const factors: CompanyFactors = {
+    ...DEFAULT_FACTORS,
+    setupHours: 3,
+    basePrepHoursPerFt2: 0.2,
+    minutesPerFirstCourseUnit: 6,
+    minutesPerUnitSet: 4,
+    minutesPerSawCut: 2,
+    minutesPerCapSet: 6,
+    minutesPerFirebrick: 1.5,
+    patioHoursPerFt2: 0.1,
+    steelRingHours: 9,
+  };
+  const labour = estimateLabour({
+    ring: ringOf({ unitCount: 13, unitsPerCourse: 14, courses: 4, closurePerCourse: 1, backTrimPerSideIn: 0.1 }),
+    caps: capsOf(10, true),
+    liner: { kind: "firebrick", fits: true, totalBricks: 120 } as LinerPlan,
+    patio: { pavedAreaFt2: 150.4 } as PatioPlan,
+    base: baseOf(18),
+    factors,
+  });
+  expect(labour.sawCuts).toBe(142);
+  expect(labour.tasks.map((t) => [t.task, t.label, t.hours])).toEqual([
+    ["setup", "Layout, set-up and clean-up", 3],
+    ["base", "Excavate and compact the base (18.0 ft²)", 3.6],
+    ["first-course", "Set and level the first course (14 units)", 1.4],
+    ["courses", "Stack and glue the upper courses (42 units)", 2.8],
+    ["saw-cuts", "Wet-saw cuts (142)", 4.73],
+    ["caps", "Glue and set the caps (10)", 1],
+    ["liner", "Line the bowl with firebrick (120)", 3],
+    ["patio", "Patio: base, bedding, border and field (150 ft²)", 15.04],
+  ]);
+  expect(labour.hours).toBe(34.57);
+});
+
+test("labour by hand: one course, no caps, firebrick that does not fit: only set-up, base and the first course", () => {
+  // 2 h + 10 × 0.15 = 1.5 h + 12 × 5 min = 1 h; nothing to stack, cut, cap or line. Total 4.5 h.
+  const labour = estimateLabour({
+    ring: ringOf({ unitCount: 12, unitsPerCourse: 12, courses: 1 }),
+    caps: null,
+    liner: { kind: "firebrick", fits: false, totalBricks: 0 } as LinerPlan,
+    patio: null,
+    base: baseOf(10),
+    factors: DEFAULT_FACTORS,
+  });
+  expect(labour).toEqual({
+    hours: 4.5,
+    sawCuts: 0,
+    tasks: [
+      { task: "setup", label: "Layout, set-up and clean-up", hours: 2 },
+      { task: "base", label: "Excavate and compact the base (10.0 ft²)", hours: 1.5 },
+      { task: "first-course", label: "Set and level the first course (12 units)", hours: 1 },
+    ],
+  });
 });
