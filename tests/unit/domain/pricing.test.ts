@@ -441,3 +441,16 @@ test("labour by hand: one course, no caps, firebrick that does not fit: only set
     ],
   });
 });
+
+test("a line without a usable unit price leaves the job unpriced: missing, null, not a number or endless", () => {
+  const materials = [line("wall-unit", "Wall units", 10)];
+  for (const price of [undefined, null, Number.NaN, Number.POSITIVE_INFINITY]) {
+    expect(priceJob({ materials, unitPrices: { "wall-unit": price }, labourHours: 1, factors: DEFAULT_FACTORS }), String(price)).toBeNull();
+  }
+  expect(priceJob({ materials, unitPrices: { "wall-unit": 0 }, labourHours: 1, factors: DEFAULT_FACTORS })?.breakdown.materialsCents).toBe(0);
+});
+
+test("a job that costs nothing shows 0 % markup and margin, not a division by zero", () => {
+  const { breakdown } = priceJob({ materials: [], unitPrices: {}, labourHours: 0, factors: DEFAULT_FACTORS })!;
+  expect([breakdown.totalCents, breakdown.markupPct, breakdown.marginPct]).toEqual([0, 0, 0]);
+});
