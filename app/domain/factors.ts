@@ -115,8 +115,6 @@ export type CompanyFactors = {
   minutesPerUnitSet: number;
   /** Setting and levelling one first-course unit, labour-minutes. */
   minutesPerFirstCourseUnit: number;
-  /** Superseded by the per-pass and per-area saw factors below; kept so stored settings still read. */
-  minutesPerSawCut: number;
   /** Gluing and setting one cap, labour-minutes. */
   minutesPerCapSet: number;
   /** Setting a steel ring insert and backfilling its gap, labour-hours. */
@@ -128,12 +126,47 @@ export type CompanyFactors = {
 
   labourRateCentsPerHour: number;
   overheadPct: number;
-  marginPct: number;
+  /** The company's profit, %: a markup on cost or a margin of price, as `profitBasis` says. */
+  profitPct: number;
   /** The quoted range runs this % either side of the total. */
   priceSpreadPct: number;
   /** The range's ends are rounded out to a multiple of this, cents (low down, high up). */
   priceRoundCents: number;
+
+  /** What `labourRateCentsPerHour` is: the crew's cost per hour, or what the customer pays per hour. */
+  labourRateBasis: LabourRateBasis;
+  /** What `profitPct` is: a markup on cost (profit ÷ cost) or a margin of price (profit ÷ price). */
+  profitBasis: ProfitBasis;
+  /** Delivery of materials to the site, cents per job (a job cost: overhead and profit apply). */
+  deliveryCents: number;
+  /** Equipment hire (plate compactor, wet saw…), cents per job (a job cost). */
+  equipmentCents: number;
+  /** Spoil and debris disposal (tip fees, a skip), cents per job (a job cost). */
+  disposalCents: number;
+  /** Permit fees, cents per job, passed through at cost: no overhead, profit or sales tax. */
+  permitCents: number;
+  /** Sales tax, %; 0 where the work is not taxed. */
+  salesTaxPct: number;
+  /** What the tax is charged on: the materials the company buys (a job cost) or the price of the work. */
+  salesTaxBasis: SalesTaxBasis;
 };
+
+/** "cost": overhead and profit go on top of the rate; "billed": the rate is what labour comes to in the price. */
+export type LabourRateBasis = "cost" | "billed";
+/** "markup": profit = cost × p; "margin": profit = price × p, so price = cost ÷ (1 − p). */
+export type ProfitBasis = "markup" | "margin";
+/** "materials": tax on the materials' cost, a job cost; "price": tax on the price of the work, added last. */
+export type SalesTaxBasis = "materials" | "price";
+
+/** The factors that are a choice between words rather than a number, with their allowed values. */
+export const FACTOR_CHOICES = {
+  labourRateBasis: ["cost", "billed"],
+  profitBasis: ["markup", "margin"],
+  salesTaxBasis: ["materials", "price"],
+} as const satisfies Partial<Record<keyof CompanyFactors, readonly string[]>>;
+
+export type ChoiceFactorKey = keyof typeof FACTOR_CHOICES;
+export type NumericFactorKey = Exclude<keyof CompanyFactors, ChoiceFactorKey>;
 
 export const DEFAULT_FACTORS: CompanyFactors = {
   wallUnitSparePct: 5, // common practice, no source: wall units +5 % or 1–2 spares
@@ -207,7 +240,6 @@ export const DEFAULT_FACTORS: CompanyFactors = {
   basePrepHoursPerFt2: 0.15,
   minutesPerUnitSet: 3,
   minutesPerFirstCourseUnit: 5,
-  minutesPerSawCut: 3, // no longer used: saw time comes from the passes and the cut face
   minutesPerCapSet: 5,
   steelRingHours: 0.5,
   minutesPerFirebrick: 2,
@@ -215,9 +247,18 @@ export const DEFAULT_FACTORS: CompanyFactors = {
 
   labourRateCentsPerHour: 7500, // placeholder, set by each company
   overheadPct: 15, // placeholder, set by each company
-  marginPct: 20, // placeholder, set by each company
+  profitPct: 20, // placeholder, set by each company
   priceSpreadPct: 12, // placeholder, set by each company
   priceRoundCents: 5000, // round the range to $50
+
+  labourRateBasis: "cost", // the arithmetic the engine has always used: overhead and profit on top
+  profitBasis: "markup", // likewise: profit as a percentage of cost
+  deliveryCents: 0, // set by each company; 0 leaves the line out
+  equipmentCents: 0,
+  disposalCents: 0,
+  permitCents: 0,
+  salesTaxPct: 0, // set by each company from its state's rules; 0 means untaxed
+  salesTaxBasis: "materials",
 };
 
 /** Prices of the bulk supplies the plan itself quantifies, integer cents. */
@@ -233,12 +274,19 @@ export type SupplyPrices = {
   edgeSpikeCents?: number | null;
 };
 
-/** Merges company overrides over the defaults (no rounding); unknown or non-finite overrides are ignored. */
+const isChoiceKey = (key: keyof CompanyFactors): key is ChoiceFactorKey => Object.hasOwn(FACTOR_CHOICES, key);
+
+/** Merges company overrides over the defaults (no rounding); unknown, non-finite or unlisted-choice overrides are ignored. */
 export function resolveFactors(overrides?: Partial<CompanyFactors>): CompanyFactors {
   const factors: CompanyFactors = { ...DEFAULT_FACTORS };
+  const chosen: Record<string, unknown> = factors;
   for (const key of Object.keys(DEFAULT_FACTORS) as (keyof CompanyFactors)[]) {
-    const value = overrides?.[key];
-    if (typeof value === "number" && Number.isFinite(value)) factors[key] = value;
+    const value: unknown = overrides?.[key];
+    if (isChoiceKey(key)) {
+      if ((FACTOR_CHOICES[key] as readonly unknown[]).includes(value)) chosen[key] = value;
+    } else if (typeof value === "number" && Number.isFinite(value)) {
+      chosen[key] = value;
+    }
   }
   return factors;
 }

@@ -1,10 +1,12 @@
 /**
  * Labour and price. Labour-hours come from the work itself (base area, units set, saw cuts, caps,
- * liner, patio area) times the company's rates; the price is materials plus labour, then overhead,
- * then margin, quoted as a range. Money is integer cents, rounded with Math.round at each step.
+ * liner, patio area) times the company's rates; the price is the job's cost (materials, labour,
+ * delivery, equipment, disposal), plus overhead, plus profit (a markup on cost or a margin of
+ * price), plus permits at cost and sales tax, quoted as a range. Money is integer cents, rounded
+ * to the nearest cent (Math.round: halves up) at each step shown in the breakdown.
  */
 import type { CapPlan } from "~/domain/caps";
-import type { CompanyFactors } from "~/domain/factors";
+import type { CompanyFactors, LabourRateBasis, ProfitBasis, SalesTaxBasis } from "~/domain/factors";
 import type { LinerPlan } from "~/domain/liner";
 import type { PatioPlan } from "~/domain/patio";
 import type { BaseEstimate, MaterialKey, MaterialLine, MaterialUnit } from "~/domain/quantities";
@@ -18,12 +20,45 @@ export type LabourEstimate = { hours: number; tasks: LabourTask[]; sawCuts: numb
 
 export type PriceLine = { item: string; quantity: number; unit: MaterialUnit; unitPriceCents: number; totalCents: number };
 
+export type SiteCostKey = "delivery" | "equipment" | "disposal";
+
+export type SiteCostLine = { key: SiteCostKey; label: string; cents: number };
+
+/**
+ * How the price was reached, every amount integer cents:
+ * materials + materials tax + labour cost + site costs = job cost (directCents);
+ * + overhead = cost; + profit = price of the work; + permits + sales tax on the price = total.
+ */
 export type PriceBreakdown = {
   materialsCents: number;
+  /** Sales tax paid on the materials (salesTaxBasis "materials"), a job cost; 0 otherwise. */
+  materialsTaxCents: number;
   labourHours: number;
+  labourRateBasis: LabourRateBasis;
+  /** What an hour of labour costs the company (entered, or worked back from a billed rate). */
+  labourCostRateCents: number;
+  /** What an hour of labour comes to in the price of the work, after overhead and profit. */
+  labourBilledRateCents: number;
+  /** Labour at cost: hours × cost rate. */
   labourCents: number;
+  siteCosts: SiteCostLine[];
+  directCents: number;
+  overheadPct: number;
   overheadCents: number;
-  marginCents: number;
+  costCents: number;
+  profitBasis: ProfitBasis;
+  /** The profit percentage as the company set it, on `profitBasis`. */
+  profitPct: number;
+  profitCents: number;
+  /** The same profit both ways, to 0.01 %: profit ÷ cost and profit ÷ price of the work. */
+  markupPct: number;
+  marginPct: number;
+  workPriceCents: number;
+  permitCents: number;
+  salesTaxBasis: SalesTaxBasis;
+  salesTaxPct: number;
+  /** Sales tax on the price of the work (salesTaxBasis "price"); 0 otherwise. */
+  salesTaxCents: number;
   totalCents: number;
   lowCents: number;
   highCents: number;
@@ -37,71 +72,6 @@ export type UnitPrices = Partial<Record<MaterialKey, number | null | undefined>>
 
 const roundHours = (hours: number) => Math.round(hours * 100) / 100;
 
-/** Saw cuts the job needs: 2 per cap, 1 rip per ripped cap, 2 per closure unit, 2 per back-trimmed unit (whole cuts). */
-export function countSawCuts(ring: RingPlan, caps: CapPlan | null): number {
-  const capCuts = caps ? caps.count * (2 + (caps.ripToDepthIn !== null ? 1 : 0)) : 0;
-  const closureCuts = ring.closure ? 2 * ring.closure.countPerCourse * ring.courses : 0;
-  const trimCuts = ring.backTrimPerSideIn > 0 ? 2 * ring.unitCount * ring.courses : 0;
-  return capCuts + closureCuts + trimCuts;
-}
-
-/** Labour-hours for a crew, by task (each task and the total rounded to 0.01 h). */
-export function estimateLabour(args: {
-  ring: RingPlan;
-  caps: CapPlan | null;
-  liner: LinerPlan | null;
-  patio: PatioPlan | null;
-  base: BaseEstimate;
-  factors: CompanyFactors;
-}): LabourEstimate {
-  const { ring, caps, liner, patio, base, factors } = args;
-  const sawCuts = countSawCuts(ring, caps);
-  const tasks: LabourTask[] = [
-    { task: "setup", label: "Layout, set-up and clean-up", hours: factors.setupHours },
-    {
-      task: "base",
-      label: `Excavate and compact the base (${base.pitAreaFt2.toFixed(1)} ft²)`,
-      hours: base.pitAreaFt2 * factors.basePrepHoursPerFt2,
-    },
-    {
-      task: "first-course",
-      label: `Set and level the first course (${ring.unitsPerCourse} units)`,
-      hours: (ring.unitsPerCourse * factors.minutesPerFirstCourseUnit) / 60,
-    },
-  ];
-  const upperUnits = ring.totalUnits - ring.unitsPerCourse;
-  if (upperUnits > 0) {
-    tasks.push({
-      task: "courses",
-      label: `Stack and glue the upper courses (${upperUnits} units)`,
-      hours: (upperUnits * factors.minutesPerUnitSet) / 60,
-    });
-  }
-  if (sawCuts > 0) {
-    tasks.push({ task: "saw-cuts", label: `Wet-saw cuts (${sawCuts})`, hours: (sawCuts * factors.minutesPerSawCut) / 60 });
-  }
-  if (caps) {
-    tasks.push({ task: "caps", label: `Glue and set the caps (${caps.count})`, hours: (caps.count * factors.minutesPerCapSet) / 60 });
-  }
-  if (liner?.kind === "steel-ring") {
-    tasks.push({ task: "liner", label: "Set the steel ring and backfill", hours: factors.steelRingHours });
-  } else if (liner?.kind === "firebrick" && liner.fits) {
-    tasks.push({
-      task: "liner",
-      label: `Line the bowl with firebrick (${liner.totalBricks})`,
-      hours: (liner.totalBricks * factors.minutesPerFirebrick) / 60,
-    });
-  }
-  if (patio) {
-    tasks.push({
-      task: "patio",
-      label: `Patio: base, bedding, border and field (${patio.pavedAreaFt2.toFixed(0)} ft²)`,
-      hours: patio.pavedAreaFt2 * factors.patioHoursPerFt2,
-    });
-  }
-  const rounded = tasks.map((t) => ({ ...t, hours: roundHours(t.hours) }));
-  return { hours: roundHours(rounded.reduce((sum, t) => sum + t.hours, 0)), tasks: rounded, sawCuts };
-}
 
 /** Rounds a cents amount down (or up) to a multiple of `stepCents`; steps below 1 cent leave it whole. */
 export function roundToStep(cents: number, stepCents: number, direction: "down" | "up"): number {
@@ -109,7 +79,32 @@ export function roundToStep(cents: number, stepCents: number, direction: "down" 
   return (direction === "down" ? Math.floor(cents / step) : Math.ceil(cents / step)) * step;
 }
 
-/** Prices the job in integer cents (Math.round per line and per step; range rounded out to the step); null when a price is missing. */
+const SITE_COSTS: { key: SiteCostKey; label: string; factor: "deliveryCents" | "equipmentCents" | "disposalCents" }[] = [
+  { key: "delivery", label: "Delivery", factor: "deliveryCents" },
+  { key: "equipment", label: "Equipment hire", factor: "equipmentCents" },
+  { key: "disposal", label: "Disposal", factor: "disposalCents" },
+];
+
+const toHundredths = (value: number) => Math.round(value * 100) / 100;
+
+/**
+ * How many times its cost one cent of job cost comes to in the price of the work: overhead, then
+ * profit — (1 + o)(1 + p) for a markup on cost, (1 + o) / (1 − p) for a margin of price. Null when a
+ * margin of 100 % or more leaves no price.
+ */
+export function priceFactor(factors: Pick<CompanyFactors, "overheadPct" | "profitPct" | "profitBasis">): number | null {
+  const overhead = 1 + factors.overheadPct / 100;
+  if (factors.profitBasis === "markup") return overhead * (1 + factors.profitPct / 100);
+  if (factors.profitPct >= 100) return null;
+  return overhead / (1 - factors.profitPct / 100);
+}
+
+/**
+ * Prices the job in integer cents; null when a price is missing or a margin of 100 % or more is set.
+ * Each amount is rounded to the cent (Math.round) where the breakdown shows it: every material line,
+ * the materials' tax, labour, overhead, profit and the tax on the price; the range is rounded out to
+ * the company's step (low down, high up).
+ */
 export function priceJob(args: {
   materials: MaterialLine[];
   unitPrices: UnitPrices;
@@ -129,12 +124,35 @@ export function priceJob(args: {
       totalCents: Math.round(material.quantity * unitPriceCents),
     });
   }
+  const factor = priceFactor(factors);
+  if (factor === null) return null;
+  const taxOnMaterials = factors.salesTaxBasis === "materials";
   const materialsCents = lines.reduce((sum, line) => sum + line.totalCents, 0);
-  const labourCents = Math.round(labourHours * factors.labourRateCentsPerHour);
-  const directCents = materialsCents + labourCents;
+  const materialsTaxCents = taxOnMaterials ? Math.round((materialsCents * factors.salesTaxPct) / 100) : 0;
+
+  // A billed rate is worked back to its cost so that labour comes to exactly the billed rate in the price.
+  const enteredRate = factors.labourRateCentsPerHour;
+  const billed = factors.labourRateBasis === "billed";
+  const labourCostRate = billed ? enteredRate / factor : enteredRate;
+  const labourCents = Math.round(labourHours * labourCostRate);
+
+  const siteCosts: SiteCostLine[] = SITE_COSTS.filter((c) => factors[c.factor] > 0).map((c) => ({
+    key: c.key,
+    label: c.label,
+    cents: Math.round(factors[c.factor]),
+  }));
+  const directCents = materialsCents + materialsTaxCents + labourCents + siteCosts.reduce((sum, c) => sum + c.cents, 0);
   const overheadCents = Math.round((directCents * factors.overheadPct) / 100);
-  const marginCents = Math.round(((directCents + overheadCents) * factors.marginPct) / 100);
-  const totalCents = directCents + overheadCents + marginCents;
+  const costCents = directCents + overheadCents;
+  const profitCents =
+    factors.profitBasis === "markup"
+      ? Math.round((costCents * factors.profitPct) / 100)
+      : Math.round((costCents * factors.profitPct) / (100 - factors.profitPct));
+  const workPriceCents = costCents + profitCents;
+  const permitCents = Math.round(factors.permitCents);
+  const salesTaxCents = taxOnMaterials ? 0 : Math.round((workPriceCents * factors.salesTaxPct) / 100);
+  const totalCents = workPriceCents + permitCents + salesTaxCents;
+
   const lowCents = Math.max(
     0,
     roundToStep(Math.round(totalCents * (1 - factors.priceSpreadPct / 100)), factors.priceRoundCents, "down"),
@@ -143,6 +161,33 @@ export function priceJob(args: {
   return {
     lowCents,
     highCents,
-    breakdown: { materialsCents, labourHours, labourCents, overheadCents, marginCents, totalCents, lowCents, highCents, lines },
+    breakdown: {
+      materialsCents,
+      materialsTaxCents,
+      labourHours,
+      labourRateBasis: factors.labourRateBasis,
+      labourCostRateCents: Math.round(labourCostRate),
+      labourBilledRateCents: Math.round(billed ? enteredRate : enteredRate * factor),
+      labourCents,
+      siteCosts,
+      directCents,
+      overheadPct: factors.overheadPct,
+      overheadCents,
+      costCents,
+      profitBasis: factors.profitBasis,
+      profitPct: factors.profitPct,
+      profitCents,
+      markupPct: costCents > 0 ? toHundredths((profitCents / costCents) * 100) : 0,
+      marginPct: workPriceCents > 0 ? toHundredths((profitCents / workPriceCents) * 100) : 0,
+      workPriceCents,
+      permitCents,
+      salesTaxBasis: factors.salesTaxBasis,
+      salesTaxPct: factors.salesTaxPct,
+      salesTaxCents,
+      totalCents,
+      lowCents,
+      highCents,
+      lines,
+    },
   };
 }

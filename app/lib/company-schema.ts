@@ -12,12 +12,8 @@ export const companySettingsSchema = z.object({
   town: z.string().overwrite(toSingleLine).trim().max(80, "Town must be at most 80 characters."),
   timeZone: z.string().refine((tz) => TIME_ZONES.has(tz), "Choose a time zone from the list."),
   consultFee: formNumber("Consult fee", 0, 2000, "dollars").transform((v) => Math.round(v * 100)),
-  setbackFt: formNumber("Setback", 5, 100, "ft"),
-  labourRate: formNumber("Labour rate", 0, 500, "dollars an hour").transform((v) => Math.round(v * 100)),
-  overheadPct: formNumber("Overhead", 0, 100, "%"),
-  marginPct: formNumber("Margin", 0, 100, "%"),
-  priceSpreadPct: formNumber("Price range spread", 0, 50, "%"),
 });
+// Labour rate, overhead, profit, range spread and setback are estimating factors: see factor-settings.ts.
 
 export type CompanySettingsInput = z.output<typeof companySettingsSchema>;
 

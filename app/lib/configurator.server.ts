@@ -1,4 +1,5 @@
 import type { CatalogItem } from "~/db/schema";
+import type { CompanyFactors } from "~/domain/factors";
 import type { Plan } from "~/domain/plan";
 import type { CatalogChoice, Design } from "~/lib/design";
 import { designToPlanRequest } from "~/lib/design-plan";
@@ -16,8 +17,9 @@ export async function planForDesign(
   companySlug: string,
   design: Design,
   catalog: CatalogChoice[],
+  factors?: Partial<CompanyFactors>,
 ): Promise<{ plan: Plan | null; errors: PlanFieldError[] }> {
-  const parsed = planRequestSchema.safeParse(designToPlanRequest(design, companySlug, catalog));
+  const parsed = planRequestSchema.safeParse(designToPlanRequest(design, companySlug, catalog, factors));
   if (!parsed.success) return { plan: null, errors: formatPlanErrors(parsed.error) };
   try {
     return { plan: runPlan(await resolvePlanRequest(parsed.data)), errors: [] };

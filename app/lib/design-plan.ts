@@ -1,4 +1,4 @@
-import { DEFAULT_FACTORS } from "~/domain/factors";
+import { DEFAULT_FACTORS, type CompanyFactors } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type Plan, type PlanInput } from "~/domain/plan";
 import { formatLength, inToMm, type LengthUnit } from "~/domain/units";
 import type { CatalogChoice, Design } from "~/lib/design";
@@ -26,7 +26,8 @@ function siteOf(design: Design): { site?: { setbackFt?: number; propertyLineFt?:
 }
 
 /** The JSON body for POST /api/plan: catalog references plus the company, so prices apply. */
-export function designToPlanRequest(design: Design, companySlug: string, catalog: CatalogChoice[]): PlanRequestBody {
+export function designToPlanRequest(design: Design, companySlug: string, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PlanRequestBody {
+  const gapIn = factors?.linerMinGapIn ?? DEFAULT_FACTORS.linerMinGapIn;
   const ring = byId(catalog, design.ringId);
   const firebrick = catalog.find((i) => i.kind === "firebrick");
   const useRing = design.linerKind === "steel-ring" && ring?.diameterIn;
@@ -35,7 +36,7 @@ export function designToPlanRequest(design: Design, companySlug: string, catalog
     // Sized to the insert: the smallest whole-unit ring that clears it with the usual gravel gap.
     ring:
       design.fitToRing && useRing
-        ? { bowlDiameterIn: ring.diameterIn! + 2 * DEFAULT_FACTORS.linerMinGapIn, fit: "at-least" }
+        ? { bowlDiameterIn: ring.diameterIn! + 2 * gapIn, fit: "at-least" }
         : { unitCount: design.unitCount },
     wallUnit: { id: design.stoneId },
     courses: design.courses,
@@ -54,7 +55,8 @@ export function designToPlanRequest(design: Design, companySlug: string, catalog
  * The same design as the engine's inline input, from the public catalog (sizes, no prices), so the
  * browser can redraw the geometry at once while the priced answer comes from the server.
  */
-export function designToPlanInput(design: Design, catalog: CatalogChoice[]): PlanInput | null {
+export function designToPlanInput(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PlanInput | null {
+  const gapIn = factors?.linerMinGapIn ?? DEFAULT_FACTORS.linerMinGapIn;
   const stone = byId(catalog, design.stoneId);
   if (!stone?.faceIn || !stone.backIn || !stone.depthIn || !stone.heightIn) return null;
   const cap = byId(catalog, design.capId);
@@ -64,7 +66,7 @@ export function designToPlanInput(design: Design, catalog: CatalogChoice[]): Pla
   const border = byId(catalog, design.borderId);
   const useRing = design.linerKind === "steel-ring" && ring?.diameterIn && ring.heightIn;
   return {
-    ring: design.fitToRing && useRing ? { bowlDiameterIn: ring.diameterIn! + 2 * DEFAULT_FACTORS.linerMinGapIn, fit: "at-least" } : { unitCount: design.unitCount },
+    ring: design.fitToRing && useRing ? { bowlDiameterIn: ring.diameterIn! + 2 * gapIn, fit: "at-least" } : { unitCount: design.unitCount },
     wallUnit: { faceIn: stone.faceIn, backIn: stone.backIn, depthIn: stone.depthIn, heightIn: stone.heightIn, name: stone.name },
     courses: design.courses,
     cap: cap?.lengthIn && cap.depthIn && cap.thicknessIn ? { lengthIn: cap.lengthIn, depthIn: cap.depthIn, thicknessIn: cap.thicknessIn, innerOverhangIn: design.innerOverhangIn, name: cap.name } : null,
@@ -81,12 +83,12 @@ export function designToPlanInput(design: Design, catalog: CatalogChoice[]): Pla
   };
 }
 
-/** The geometry of a design computed in the browser (no prices); null when it cannot be built. */
-export function planLocally(design: Design, catalog: CatalogChoice[]): PublicPlan | null {
-  const input = designToPlanInput(design, catalog);
+/** The geometry of a design computed in the browser with the company's public factors (no prices); null when it cannot be built. */
+export function planLocally(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PublicPlan | null {
+  const input = designToPlanInput(design, catalog, factors);
   if (!input) return null;
   try {
-    return computePlan(input) as PublicPlan;
+    return computePlan(input, { factors }) as PublicPlan;
   } catch (error) {
     if (error instanceof PlanGeometryError) return null;
     throw error;

@@ -2,24 +2,12 @@ import type { CatalogItem, CatalogKind, Company } from "~/db/schema";
 import type { CompanyFactors, SupplyPrices } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type CapInput, type LinerInput, type Plan, type PlanInput, type PatioInput, type WallUnitInput } from "~/domain/plan";
 import { loadOfferedCatalog } from "~/lib/catalog.server";
+import { readCompanyFactors } from "~/lib/factor-settings";
 import { isCatalogRef, type PlanFieldError, type PlanRequest } from "~/lib/plan-schema";
 
-/** The engine's factors for a company: its settings over the defaults, plus its own overrides. */
+/** The engine's factors for a company: its settings (columns and checked overrides) over the defaults. */
 export function companyFactors(company: Company): Partial<CompanyFactors> {
-  let overrides: Partial<CompanyFactors> = {};
-  try {
-    overrides = JSON.parse(company.factorsJson) as Partial<CompanyFactors>;
-  } catch {
-    overrides = {};
-  }
-  return {
-    ...overrides,
-    labourRateCentsPerHour: company.labourRateCents,
-    overheadPct: company.overheadPct,
-    marginPct: company.marginPct,
-    priceSpreadPct: company.priceSpreadPct,
-    requiredSetbackFt: company.setbackFt,
-  };
+  return readCompanyFactors(company);
 }
 
 /** Prices of the bulk supplies: the first offered item of each kind. */

@@ -10,6 +10,7 @@ import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
 import { designToSearchParams, parseDesign } from "~/lib/design";
 import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { checkDesignParams } from "~/lib/design-schema";
+import { publicFactors, readCompanyFactors } from "~/lib/factor-settings";
 import { currentVersion, saveRevision } from "~/lib/lead-workspace.server";
 import type { PlanFieldError } from "~/lib/plan-schema";
 import { formatMoneyWhole } from "~/lib/money";
@@ -24,19 +25,20 @@ async function loadContext(request: Request, rawLeadId: string | undefined) {
   const lead = await requireLeadFor(user, parseLeadId(rawLeadId));
   const company = await getCompany(user.companyId);
   const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
-  return { user, lead, company, catalog };
+  return { user, lead, company, catalog, factors: publicFactors(readCompanyFactors(company)) };
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { lead, company, catalog } = await loadContext(request, params.leadId);
+  const { lead, company, catalog, factors } = await loadContext(request, params.leadId);
   const current = await currentVersion(lead);
   // Read back through the current catalog: an item taken off sale since falls back to one on offer.
   const design = parseDesign(designToSearchParams(current.design.choices), catalog);
-  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] };
+  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] };
   return {
     lead: { id: lead.id, customerName: lead.customerName },
     company: { slug: company.slug },
     catalog,
+    factors,
     design,
     plan: result.plan ? (publicPlan(result.plan) as PublicPlan) : null,
     planErrors: result.errors,
@@ -44,13 +46,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
-  const { user, lead, company, catalog } = await loadContext(request, params.leadId);
+  const { user, lead, company, catalog, factors } = await loadContext(request, params.leadId);
   const form = await request.formData();
   const query = String(form.get("design") ?? "");
   const errors = checkDesignParams(query, catalog);
   if (Object.keys(errors).length) return data({ errors }, { status: 400 });
   const design = parseDesign(new URLSearchParams(query), catalog);
-  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] as PlanFieldError[] };
+  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] as PlanFieldError[] };
   if (!design || !result.plan) {
     return data({ errors: { design: `This design cannot be built: ${result.errors[0]?.message ?? "check the choices."}` } as Record<string, string> }, { status: 400 });
   }
@@ -65,8 +67,8 @@ export function shouldRevalidate({ formAction, defaultShouldRevalidate }: Should
 }
 
 export default function LeadDesignRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, company, catalog } = loaderData;
-  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({ initial: loaderData, companySlug: company.slug, catalog });
+  const { lead, company, catalog, factors } = loaderData;
+  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({ initial: loaderData, companySlug: company.slug, catalog, factors });
   const navigation = useNavigation();
   const errors: Record<string, string> = actionData?.errors ?? {};
 

@@ -29,6 +29,7 @@ import {
 } from "~/lib/lead-workspace.server";
 import { formatMoney, formatMoneyWhole } from "~/lib/money";
 import { publicPlan } from "~/lib/plan.server";
+import { describeBreakdown, readBreakdown } from "~/lib/price-breakdown";
 import { requireUser } from "~/lib/session.server";
 import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
 import { listTeam } from "~/lib/team.server";
@@ -104,7 +105,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       cautions: crewCautionsOf(plan.cautions),
       labour: isOffice ? plan.labour : null,
       unpricedItems: isOffice ? (plan.unpricedItems ?? []) : null,
-      price: isOffice && plan.price ? plan.price.breakdown : null,
+      price: isOffice && plan.price ? readBreakdown(plan.price.breakdown) : null,
     },
     timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),
     team: isOffice
@@ -305,11 +306,15 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   </h3>
                   <table className="mt-1 w-full text-sm" aria-label="Price breakdown">
                     <tbody className="divide-y divide-ash-200">
-                      <tr><td className="py-1">Materials (cost)</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.materialsCents)}</td></tr>
-                      <tr><td className="py-1">Labour ({shown.price.labourHours} h)</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.labourCents)}</td></tr>
-                      <tr><td className="py-1">Overhead</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.overheadCents)}</td></tr>
-                      <tr><td className="py-1">Margin</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.marginCents)}</td></tr>
-                      <tr className="font-extrabold"><td className="py-1">Estimate</td><td className="py-1 text-right tabular-nums">{formatMoney(shown.price.totalCents)}</td></tr>
+                      {describeBreakdown(shown.price).map((row) => (
+                        <tr key={row.label} className={row.kind === "line" ? undefined : "font-extrabold"}>
+                          <td className="py-1 pr-2">
+                            {row.label}
+                            {row.detail ? <span className="block text-xs font-normal text-char-600">{row.detail}</span> : null}
+                          </td>
+                          <td className="py-1 text-right align-top whitespace-nowrap tabular-nums">{formatMoney(row.cents)}</td>
+                        </tr>
+                      ))}
                     </tbody>
                   </table>
                   <details className="mt-2 text-sm">

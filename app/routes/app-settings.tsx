@@ -1,5 +1,5 @@
 import { eq } from "drizzle-orm";
-import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
+import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
 import { fieldErrors } from "~/lib/form-fields";
 import { SelectField, TextField } from "~/components/ui/field";
@@ -23,10 +23,10 @@ export async function action({ request }: Route.ActionArgs) {
   if (!parsed.success) {
     return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   }
-  const { consultFee, labourRate, ...rest } = parsed.data;
+  const { consultFee, ...rest } = parsed.data;
   await db
     .update(companies)
-    .set({ ...rest, consultFeeCents: consultFee, labourRateCents: labourRate })
+    .set({ ...rest, consultFeeCents: consultFee })
     .where(eq(companies.id, user.companyId));
   forgetOfferedCatalogs();
   return redirect("/app/settings?saved=1");
@@ -67,16 +67,16 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
           </SelectField>
         </section>
         <section className="card grid gap-4 p-6 sm:grid-cols-2">
-          <h2 className="text-lg font-extrabold sm:col-span-2">Pricing</h2>
-          <TextField label="Labour rate" name="labourRate" suffix="$/h" inputMode="decimal" defaultValue={(company.labourRateCents / 100).toFixed(2)} error={errors.labourRate} hint="Per labour-hour, billed to the customer." />
+          <h2 className="text-lg font-extrabold sm:col-span-2">Consults</h2>
           <TextField label="Design consult fee" name="consultFee" suffix="$" inputMode="decimal" defaultValue={(company.consultFeeCents / 100).toFixed(2)} error={errors.consultFee} hint="Credited toward the build." />
-          <TextField label="Overhead" name="overheadPct" suffix="%" inputMode="decimal" defaultValue={company.overheadPct} error={errors.overheadPct} />
-          <TextField label="Margin" name="marginPct" suffix="%" inputMode="decimal" defaultValue={company.marginPct} error={errors.marginPct} />
-          <TextField label="Price range spread" name="priceSpreadPct" suffix="%" inputMode="decimal" defaultValue={company.priceSpreadPct} error={errors.priceSpreadPct} hint="Homeowners see the price as a range this far either side of your estimate." />
         </section>
-        <section className="card grid gap-4 p-6 sm:grid-cols-2">
-          <h2 className="text-lg font-extrabold sm:col-span-2">Safety</h2>
-          <TextField label="Required setback from buildings" name="setbackFt" suffix="ft" inputMode="decimal" defaultValue={company.setbackFt} error={errors.setbackFt} hint="Use your fire authority's figure. The International Fire Code's is 25 ft for recreational fires; towns range from 10 to 50 ft." className="sm:col-span-2" />
+        <section className="card flex flex-col gap-2 p-6">
+          <h2 className="text-lg font-extrabold">Pricing, production rates and safety</h2>
+          <p className="text-sm text-char-600">
+            Labour rate, overhead and profit (markup on cost or margin of price), delivery, permits and sales tax, production
+            rates, spares, base, adhesive and the fire setback are estimating factors, each with its default beside it.
+          </p>
+          <Link to="/app/settings/factors" className="btn-quiet self-start">Estimating factors</Link>
         </section>
         <div>
           <button type="submit" className="btn-primary" disabled={navigation.state === "submitting"}>Save settings</button>

@@ -14,6 +14,7 @@ import { designToSearchParams, parseDesign } from "~/lib/design";
 import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
+import { publicFactors, readCompanyFactors } from "~/lib/factor-settings";
 import { fieldErrors } from "~/lib/form-fields";
 import { leadFormSchema } from "~/lib/lead-schema";
 import { createLead, PhotoQuotaExceeded, photoBytesToday } from "~/lib/leads.server";
@@ -31,19 +32,20 @@ async function loadCompanyCatalog(slug: string) {
   const company = await findCompanyBySlug(slug);
   if (!company) throw new Response("Not found", { status: 404 });
   const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
-  return { company, catalog };
+  return { company, catalog, factors: publicFactors(readCompanyFactors(company)) };
 }
 
 // Document responses take their headers from here: pass an action's Retry-After through.
 export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
+  const { company, catalog, factors } = await loadCompanyCatalog(params.companySlug);
   const design = parseDesign(new URL(request.url).searchParams, catalog);
-  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] };
+  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] };
   return {
     company: { slug: company.slug, name: company.name, town: company.town, phone: company.phone },
     catalog,
+    factors,
     design,
     plan: result.plan ? (publicPlan(result.plan) as PublicPlan) : null,
     planErrors: result.errors,
@@ -55,7 +57,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 const requestLimiter = createLimiter("lead-request:company+address", env.PUBLIC_FORM_LIMIT, 10 * 60);
 
 export async function action({ request, params, context }: Route.ActionArgs) {
-  const { company, catalog } = await loadCompanyCatalog(params.companySlug);
+  const { company, catalog, factors } = await loadCompanyCatalog(params.companySlug);
   const limit = await spendLimit(requestLimiter, `${company.id}|${clientAddress(request, context)}`);
   if (!limit.ok) {
     return data(
@@ -75,7 +77,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const { website: _honeypot, ...values } = fields;
   const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
   const design = parsed.success ? parseDesign(new URLSearchParams(fields.design ?? ""), catalog) : null;
-  const result = design ? await planForDesign(company.slug, design, catalog) : { plan: null, errors: [] as PlanFieldError[] };
+  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] as PlanFieldError[] };
   if (!parsed.success || !design || !result.plan) {
     // Only the quick checks here: nothing is decoded for a request that is refused anyway.
     const quick = await checkReceivedPhotos(received);
@@ -125,13 +127,14 @@ export function shouldRevalidate({ formAction, formMethod, defaultShouldRevalida
 }
 
 export default function ConfiguratorRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { company, catalog } = loaderData;
+  const { company, catalog, factors } = loaderData;
   const [isHydrated, setIsHydrated] = useState(false);
   useEffect(() => setIsHydrated(true), []);
   const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({
     initial: loaderData,
     companySlug: company.slug,
     catalog,
+    factors,
     // Keep the design in the address bar (bookmark, share, reload) without a navigation.
     onDesignChange: (next) =>
       window.history.replaceState(window.history.state, "", `${window.location.pathname}?${designToSearchParams(next).toString()}`),

@@ -63,7 +63,7 @@ test("an estimator sees a new request arrive, takes it on, walks it to won, give
   await page.getByLabel("Add a note").fill("Customer asked for the charcoal caps.");
   await page.getByRole("button", { name: "Add note" }).click();
   await expect(timeline).toContainText("Customer asked for the charcoal caps.");
-  await expect(page.getByRole("region", { name: "Labour and price" })).toContainText("Margin");
+  await expect(page.getByRole("region", { name: "Labour and price" })).toContainText("Markup (22 % on cost)");
   await screenshotBothWidths(page, "lead-detail");
 
   await page.getByRole("link", { name: "Cut sheet" }).click();

@@ -16,6 +16,7 @@ import { loader as indexLoader } from "~/routes/app-index";
 import { loader as catalogLoader } from "~/routes/app-catalog";
 import { loader as catalogItemLoader } from "~/routes/app-catalog-item";
 import { loader as settingsLoader } from "~/routes/app-settings";
+import { action as factorsAction, loader as factorsLoader } from "~/routes/app-factors";
 import { loader as inboxLoader } from "~/routes/app-inbox";
 import { loader as inboxCsvLoader } from "~/routes/app-inbox-csv";
 import { loader as apiLeadsLoader } from "~/routes/api/leads";
@@ -149,6 +150,17 @@ const CASES: Case[] = [
     name: "GET /app/settings",
     call: (c) => settingsLoader(routeArgs(get("/app/settings", c))),
     expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "GET /app/settings/factors",
+    call: (c) => factorsLoader(routeArgs(get("/app/settings/factors", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    // A reset of every factor: an owner's own company only (the other owner's reset touches their own).
+    name: "POST /app/settings/factors (reset every factor)",
+    call: (c) => factorsAction(routeArgs(post("/app/settings/factors", c, { intent: "reset-all" }))),
+    expected: { owner: "redirect /app/settings/factors", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "redirect /app/settings/factors" },
   },
   {
     name: "GET /app/inbox",

@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState } from "react";
 import { useFetcher } from "react-router";
+import type { CompanyFactors } from "~/domain/factors";
 import type { CatalogChoice, Design } from "~/lib/design";
 import { designToSearchParams } from "~/lib/design";
 import { designToPlanRequest, planLocally, type PublicPlan } from "~/lib/design-plan";
@@ -19,9 +20,11 @@ export function useLivePlan(args: {
   initial: { design: Design | null; plan: PublicPlan | null; planErrors: PlanFieldError[] };
   companySlug: string;
   catalog: CatalogChoice[];
+  /** The company's factors the browser may see (publicFactors), so the instant redraw matches the server's plan. */
+  factors?: Partial<CompanyFactors>;
   onDesignChange?: (design: Design) => void;
 }) {
-  const { initial, companySlug, catalog, onDesignChange } = args;
+  const { initial, companySlug, catalog, factors, onDesignChange } = args;
   const [design, setDesign] = useState(initial.design);
   const [plan, setPlan] = useState(initial.plan);
   const [planErrors, setPlanErrors] = useState(initial.planErrors);
@@ -47,7 +50,7 @@ export function useLivePlan(args: {
 
   const send = (next: Design) => {
     sentKey.current = designToSearchParams(next).toString();
-    fetcher.submit(designToPlanRequest(next, companySlug, catalog) as never, { method: "post", action: "/api/plan", encType: "application/json" });
+    fetcher.submit(designToPlanRequest(next, companySlug, catalog, factors) as never, { method: "post", action: "/api/plan", encType: "application/json" });
   };
   const flush = () => {
     timer.current = null;
@@ -62,7 +65,7 @@ export function useLivePlan(args: {
     const next = { ...design, ...patch };
     setDesign(next);
     latestKey.current = designToSearchParams(next).toString();
-    const local = planLocally(next, catalog);
+    const local = planLocally(next, catalog, factors);
     if (local) setPlan((previous) => ({ ...local, price: previous?.price ?? null }));
     onDesignChange?.(next);
     if (timer.current) {

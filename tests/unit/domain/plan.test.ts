@@ -28,7 +28,12 @@ test("the plan carries every field of its public contract", () => {
   );
   expect(Object.keys(plan.price!)).toEqual(expect.arrayContaining(["lowCents", "highCents", "breakdown"]));
   expect(Object.keys(plan.price!.breakdown)).toEqual(
-    expect.arrayContaining(["materialsCents", "labourHours", "labourCents", "overheadCents", "marginCents", "totalCents", "lowCents", "highCents", "lines"]),
+    expect.arrayContaining([
+      "materialsCents", "materialsTaxCents", "labourHours", "labourRateBasis", "labourCostRateCents", "labourBilledRateCents",
+      "labourCents", "siteCosts", "directCents", "overheadPct", "overheadCents", "costCents", "profitBasis", "profitPct",
+      "profitCents", "markupPct", "marginPct", "workPriceCents", "permitCents", "salesTaxBasis", "salesTaxPct",
+      "salesTaxCents", "totalCents", "lowCents", "highCents", "lines",
+    ]),
   );
   for (const line of plan.materials) expect(Object.keys(line)).toEqual(expect.arrayContaining(["item", "quantity", "unit"]));
   expect(Object.keys(plan.labour)).toEqual(expect.arrayContaining(["hours", "tasks"]));

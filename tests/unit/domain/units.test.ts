@@ -87,3 +87,23 @@ test("millimetre round trip stays within half a millimetre (property)", () => {
     }),
   );
 });
+
+test("tape readings written with odd spacing still parse; a whole fraction (16/16) is not a proper fraction (common practice, no source)", () => {
+  // As people type them: a stray space at either end, two spaces, spaces around the hyphen or the slash.
+  expect(parseLength(" 36 in ")).toBe(36);
+  expect(parseLength("36  9/16")).toBe(36.5625);
+  expect(parseLength("36 - 9/16")).toBe(36.5625);
+  expect(parseLength("36- 9/16")).toBe(36.5625);
+  expect(parseLength("36 9 / 16")).toBe(36.5625);
+  expect(parseLength("36 11/16")).toBe(36.6875);
+  expect(parseLength("15/16")).toBe(0.9375);
+  expect(parseLength(".75")).toBe(0.75);
+  expect(parseLength(".625 in")).toBe(0.625);
+  expect(parseLength("-2 ft")).toBe(-24);
+  expect(parseLength("36 16/16")).toBeNull();
+});
+
+test("negative millimetres keep their sign (NIST SP 811 factor)", () => {
+  expect(formatMm(-36.575)).toBe("-929 mm");
+  expect(formatLength(-1, "mm")).toBe("-25 mm");
+});
