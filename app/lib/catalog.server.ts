@@ -33,32 +33,38 @@ export async function findCatalogItem(companyId: number, itemId: number): Promis
   return row ?? null;
 }
 
-// The plan API reads a company and its offered stock on every request; both change rarely. Each
-// process keeps them a few seconds, and writes through this module (or settings) drop them at once.
-const CATALOG_CACHE_MS = 5_000;
-const offeredCache = new Map<string, { at: number; value: Promise<{ company: Company; catalog: CatalogItem[] } | null> }>();
+// The plan API reads a company and its offered stock on every request. The company row (settings,
+// factors, catalog_version) is read fresh each time: one row by its unique slug. The catalog is kept
+// in memory per company and used while the stored catalog_version still matches it; triggers raise
+// that version on every change to catalog_items, so an edit made through any process (or a script)
+// shows in every process's next plan, with no time window.
+const MAX_CACHED_COMPANIES = 1_000;
+const catalogCache = new Map<number, { version: number; catalog: Promise<CatalogItem[]> }>();
 
-/** A company by slug with its active catalog, cached briefly in this process; null for no such company. */
-export function loadOfferedCatalog(slug: string): Promise<{ company: Company; catalog: CatalogItem[] } | null> {
-  const hit = offeredCache.get(slug);
-  if (hit && Date.now() - hit.at < CATALOG_CACHE_MS) return hit.value;
-  const value = (async () => {
-    const company = await findCompanyBySlug(slug);
-    return company ? { company, catalog: await listCatalog(company.id, { activeOnly: true }) } : null;
-  })();
-  offeredCache.set(slug, { at: Date.now(), value });
-  value.catch(() => offeredCache.delete(slug));
-  return value;
+/** A company by slug (always fresh) with its active catalog (kept while unchanged); null for no such company. */
+export async function loadOfferedCatalog(slug: string): Promise<{ company: Company; catalog: CatalogItem[] } | null> {
+  const company = await findCompanyBySlug(slug);
+  if (!company) return null;
+  const hit = catalogCache.get(company.id);
+  if (hit && hit.version === company.catalogVersion) return { company, catalog: await hit.catalog };
+  // Read after the version, so what is cached under it is never older than it. (A query builder runs
+  // again on every `then`: wrap it in a real promise so the cache holds one result.)
+  const catalog = (async () => listCatalog(company.id, { activeOnly: true }))();
+  if (catalogCache.size >= MAX_CACHED_COMPANIES) catalogCache.clear();
+  catalogCache.set(company.id, { version: company.catalogVersion, catalog });
+  catalog.catch(() => {
+    if (catalogCache.get(company.id)?.catalog === catalog) catalogCache.delete(company.id);
+  });
+  return { company, catalog: await catalog };
 }
 
-/** Forgets cached catalogs (after a catalog or company settings change). */
+/** Forgets cached catalogs. Not needed for correctness (the version check sees every change); frees memory. */
 export function forgetOfferedCatalogs(): void {
-  offeredCache.clear();
+  catalogCache.clear();
 }
 
 export async function createCatalogItem(companyId: number, input: CatalogItemInput): Promise<number> {
   const [row] = await db.insert(catalogItems).values({ ...input, companyId }).returning({ id: catalogItems.id });
-  forgetOfferedCatalogs();
   return row!.id;
 }
 
@@ -69,6 +75,5 @@ export async function updateCatalogItem(companyId: number, itemId: number, input
     .set({ ...input, updatedAt: new Date().toISOString() })
     .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.id, itemId)))
     .returning({ id: catalogItems.id });
-  forgetOfferedCatalogs();
   return rows.length === 1;
 }
