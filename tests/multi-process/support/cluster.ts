@@ -63,8 +63,10 @@ export type Cluster = {
   env: NodeJS.ProcessEnv;
   /** A database client of the test's own on the cluster's file. */
   db: Client;
-  /** Runs a project script (tsx) with the cluster's environment; throws on a non-zero exit. */
-  runScript: (script: string, args?: string[]) => Promise<string>;
+  /** Runs a project script (tsx) with the cluster's environment (plus `env`); throws on a non-zero exit. */
+  runScript: (script: string, args?: string[], env?: NodeJS.ProcessEnv) => Promise<string>;
+  /** Starts process `index` again on its port (after kill9 or stop) and waits until it is healthy. */
+  restart: (index: number) => Promise<AppProcess>;
   stop: () => Promise<void>;
 };
 
@@ -203,8 +205,8 @@ export async function startCluster(options: Options): Promise<Cluster> {
     throw new Error(`${(error as Error).message}\n${apps.map((a) => `--- process ${a.index}:\n${a.output()}`).join("\n")}`);
   }
 
-  const runScript = async (script: string, args: string[] = []) => {
-    const scriptEnv = { ...env };
+  const runScript = async (script: string, args: string[] = [], extra: NodeJS.ProcessEnv = {}) => {
+    const scriptEnv = { ...env, ...extra };
     delete scriptEnv.NODE_ENV;
     const result = await runToEnd(TSX, [script, ...args], { cwd: ROOT, env: scriptEnv, timeoutMs: 120_000 });
     if (result.code !== 0) throw new Error(`${script} ${args.join(" ")} failed (exit ${result.code}):\n${result.stderr || result.stdout}`);
@@ -213,5 +215,14 @@ export async function startCluster(options: Options): Promise<Cluster> {
   if (options.seed ?? true) await runScript("scripts/seed.ts");
   balancer = await startBalancer({ targets: apps.map((a) => a.origin), port: port.balancer });
 
-  return { name: options.name, dataDir, databaseFile, uploadsDir, origin, balancer, apps, mail, payments, env, db, runScript, stop };
+  const restart = async (index: number) => {
+    const old = apps[index]!;
+    await old.stop();
+    const fresh = launch(index, port.apps[index]!);
+    apps[index] = fresh;
+    await waitForHealth(fresh.origin, fresh.child);
+    return fresh;
+  };
+
+  return { name: options.name, dataDir, databaseFile, uploadsDir, origin, balancer, apps, mail, payments, env, db, runScript, restart, stop };
 }

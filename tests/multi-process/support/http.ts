@@ -33,7 +33,7 @@ export async function yardPhoto(seed = 0): Promise<Buffer> {
   return sharp(pixels, { raw: { width, height, channels: 3 } }).jpeg({ quality: 80 }).toBuffer();
 }
 
-export type LeadAnswer = { status: number; ref: string | null; location: string | null };
+export type LeadAnswer = { status: number; ref: string | null; location: string | null; backend: string | null };
 
 /** Sends one homeowner request through the configurator form (multipart, optional photo). */
 export async function sendLead(target: string, publicOrigin: string, args: { email: string; name?: string; photo?: Buffer }): Promise<LeadAnswer> {
@@ -51,7 +51,7 @@ export async function sendLead(target: string, publicOrigin: string, args: { ema
   await res.arrayBuffer().catch(() => undefined);
   const location = res.headers.get("location");
   const ref = res.status === 302 && location ? (/\/sent\/([^/?#]+)/.exec(location)?.[1] ?? null) : null;
-  return { status: res.status, ref, location };
+  return { status: res.status, ref, location, backend: res.headers.get("x-emberwright-backend") };
 }
 
 const decode = (s: string) =>
