@@ -34,11 +34,13 @@ async function planBody() {
   };
 }
 
-test("an unchanged catalog is served from memory: two reads give the very same list", async () => {
+test("an unchanged company and catalog are served from memory: two reads give the very same objects", async () => {
   await demoCompany();
   const first = await loadOfferedCatalog("cinder-slate");
   const second = await loadOfferedCatalog("cinder-slate");
   expect(second!.catalog).toBe(first!.catalog);
+  expect(second!.company).toBe(first!.company);
+  expect(await loadOfferedCatalog("no-such-company")).toBeNull();
 });
 
 test("a price changed by another process is used by this process's next plan", async () => {
@@ -87,11 +89,11 @@ test("company settings changed by another process (labour rate, margin) price th
   expect(offered!.company.marginPct).toBe(45);
 });
 
-test("every insert, update and delete of a catalog item raises the company's catalog version, and only that company's", async () => {
+test("every insert, update and delete of a catalog item, and every change to the company row, raises that company's cache version once, and only that company's", async () => {
   const { company } = await demoCompany();
   const [north] = await other.db.select().from(companies).where(eq(companies.slug, "north-ridge"));
   const versions = async () =>
-    Object.fromEntries((await other.db.select({ id: companies.id, v: companies.catalogVersion }).from(companies)).map((r) => [r.id, r.v]));
+    Object.fromEntries((await other.db.select({ id: companies.id, v: companies.cacheVersion }).from(companies)).map((r) => [r.id, r.v]));
   const v0 = await versions();
   const [row] = await other.db
     .insert(catalogItems)
@@ -105,5 +107,8 @@ test("every insert, update and delete of a catalog item raises the company's cat
   await other.db.delete(catalogItems).where(eq(catalogItems.id, row!.id));
   const v3 = await versions();
   expect(v3[company.id]).toBe(v2[company.id]! + 1);
-  expect(v3[north!.id]).toBe(v0[north!.id]);
+  await other.db.update(companies).set({ town: "Millbrook" }).where(eq(companies.id, company.id));
+  const v4 = await versions();
+  expect(v4[company.id]).toBe(v3[company.id]! + 1);
+  expect(v4[north!.id]).toBe(v0[north!.id]);
 });
