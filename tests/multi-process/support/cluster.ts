@@ -23,7 +23,10 @@ import { createClient, type Client } from "@libsql/client";
 import { startEmailFake, type EmailFake } from "../../../fakes/email/server";
 import { startPaymentsFake, type PaymentsFake } from "../../../fakes/payments/server";
 import { startBalancer, type Balancer } from "../../../scripts/balancer";
-import { freePort, runToEnd, startProcess, stopProcess } from "../../bench/support/processes";
+import { freePort, killAllNow, runToEnd, startProcess, stopProcess } from "../../bench/support/processes";
+
+// The app processes run in process groups of their own: if this test process dies, take them along.
+process.once("exit", killAllNow);
 
 export const ROOT = path.resolve(import.meta.dirname, "../../..");
 const TSX = path.join(ROOT, "node_modules/.bin/tsx");
