@@ -142,7 +142,13 @@ describe("two processes under a stream of requests", () => {
     expect((await cluster.db.execute("PRAGMA integrity_check")).rows.map((r) => r[0])).toEqual(["ok"]);
 
     // The survivor's background worker sends the confirmation e-mails of every acknowledged
-    // request, including those the killed process had stored but not yet sent.
+    // request, including those the killed process had stored but not yet sent. Rows the killed
+    // process had claimed keep its lease until it lapses (5 minutes); move those leases to the past,
+    // as if that time had gone by, so the survivor retakes them.
+    await cluster.db.execute({
+      sql: "UPDATE email_outbox SET lease_expires_at = '2000-01-01T00:00:00.000Z' WHERE status = 'pending' AND lease_owner LIKE ?",
+      args: [`%:${victim!.child.pid}:%`],
+    });
     const keys = acked.map((s) => s.ref!);
     await expect
       .poll(

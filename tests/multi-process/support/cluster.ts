@@ -16,12 +16,14 @@
  * ports otherwise.
  */
 import type { ChildProcess } from "node:child_process";
+import { createServer, type Server } from "node:http";
 import { existsSync, readFileSync } from "node:fs";
 import { mkdir, rm } from "node:fs/promises";
 import path from "node:path";
 import { createClient, type Client } from "@libsql/client";
 import { startEmailFake, type EmailFake } from "../../../fakes/email/server";
 import { startPaymentsFake, type PaymentsFake } from "../../../fakes/payments/server";
+import { createProxyServer } from "http-proxy-3";
 import { startBalancer, type Balancer } from "../../../scripts/balancer";
 import { freePort, killAllNow, runToEnd, startProcess, stopProcess } from "../../bench/support/processes";
 
@@ -61,6 +63,12 @@ export type Cluster = {
   balancer: Balancer;
   apps: AppProcess[];
   mail: EmailFake;
+  /**
+   * Every send the app processes made, counted by Idempotency-Key before the e-mail fake sees it
+   * (the fake, like the service, answers a repeated key with the first message, so it cannot count
+   * repeats itself).
+   */
+  mailSends: Map<string, number>;
   payments: PaymentsFake;
   /** The environment every app process got (for scripts run against the same data). */
   env: NodeJS.ProcessEnv;
@@ -138,6 +146,7 @@ export async function startCluster(options: Options): Promise<Cluster> {
   const origin = `http://127.0.0.1:${port.balancer}`;
 
   const mail = await startEmailFake({ port: port.email, host: "127.0.0.1", apiKey: SECRETS.RESEND_API_KEY });
+  const mailCounter = await countMailSends(mail.url);
   const payments = await startPaymentsFake({
     port: port.payments,
     host: "127.0.0.1",
@@ -158,7 +167,7 @@ export async function startCluster(options: Options): Promise<Cluster> {
     UPLOADS_DIR: uploadsDir,
     APP_ORIGIN: origin,
     TRUST_PROXY: "loopback",
-    RESEND_BASE_URL: mail.url,
+    RESEND_BASE_URL: mailCounter.url,
     STRIPE_API_BASE: payments.url,
     PUBLIC_FORM_LIMIT: "100000",
     OUTBOX_WORKER: "on",
@@ -198,6 +207,7 @@ export async function startCluster(options: Options): Promise<Cluster> {
     await balancer?.close();
     await Promise.all(apps.map((a) => a.stop()));
     db.close();
+    await mailCounter.close();
     await mail.close();
     await payments.close();
   };
@@ -227,5 +237,31 @@ export async function startCluster(options: Options): Promise<Cluster> {
     return fresh;
   };
 
-  return { name: options.name, dataDir, databaseFile, uploadsDir, origin, balancer, apps, mail, payments, env, db, runScript, restart, stop };
+  return { name: options.name, dataDir, databaseFile, uploadsDir, origin, balancer, apps, mail, mailSends: mailCounter.sends, payments, env, db, runScript, restart, stop };
+}
+
+/** A pass-through in front of the e-mail fake that counts each POST by its Idempotency-Key. */
+async function countMailSends(target: string): Promise<{ url: string; sends: Map<string, number>; close: () => Promise<void> }> {
+  const sends = new Map<string, number>();
+  const proxy = createProxyServer({ target });
+  const server: Server = createServer((req, res) => {
+    const key = req.headers["idempotency-key"];
+    if (req.method === "POST" && typeof key === "string") sends.set(key, (sends.get(key) ?? 0) + 1);
+    proxy.web(req, res, {}, () => {
+      if (!res.headersSent) res.writeHead(502);
+      res.end();
+    });
+  });
+  await new Promise<void>((resolve) => server.listen(0, "127.0.0.1", () => resolve()));
+  const address = server.address();
+  const url = `http://127.0.0.1:${typeof address === "object" && address ? address.port : 0}`;
+  return {
+    url,
+    sends,
+    close: async () => {
+      server.closeAllConnections();
+      await new Promise<void>((resolve) => server.close(() => resolve()));
+      proxy.close();
+    },
+  };
 }
