@@ -41,6 +41,9 @@ export const companies = sqliteTable("companies", {
   consultHorizonDays: integer("consult_horizon_days").notNull().default(21),
   // Overrides of the estimating engine's factors (waste, base depth, labour minutes…), JSON.
   factorsJson: text("factors_json").notNull().default("{}"),
+  // Raised by triggers whenever this row or any of the company's catalog items changes, so every
+  // process can tell whether the company and catalog it keeps in memory are still the stored ones.
+  cacheVersion: integer("cache_version").notNull().default(0),
   createdAt: createdAt(),
 });
 

@@ -1,4 +1,4 @@
-import { and, asc, eq } from "drizzle-orm";
+import { and, asc, eq, sql } from "drizzle-orm";
 import { catalogItems, companies, type CatalogItem, type Company } from "~/db/schema";
 import type { CatalogItemInput } from "~/lib/catalog-schema";
 import { db } from "~/lib/db.server";
@@ -33,32 +33,44 @@ export async function findCatalogItem(companyId: number, itemId: number): Promis
   return row ?? null;
 }
 
-// The plan API reads a company and its offered stock on every request; both change rarely. Each
-// process keeps them a few seconds, and writes through this module (or settings) drop them at once.
-const CATALOG_CACHE_MS = 5_000;
-const offeredCache = new Map<string, { at: number; value: Promise<{ company: Company; catalog: CatalogItem[] } | null> }>();
+// The plan API needs a company (settings, factors) and its offered stock on every request. Each
+// process keeps both in memory and, per request, reads only the company's cache_version (one
+// indexed column: a tenth of the cost of the whole row). Triggers raise that version on every
+// change to the company row or its catalog items, whoever makes it, so an edit made through any
+// process (or a script) is used by every process's next plan: no time window.
+const MAX_CACHED_COMPANIES = 1_000;
+type Offered = { company: Company; catalog: CatalogItem[] };
+const offeredCache = new Map<number, { version: number; value: Promise<Offered> }>();
+const versionBySlug = db
+  .select({ id: companies.id, version: companies.cacheVersion })
+  .from(companies)
+  .where(eq(companies.slug, sql.placeholder("slug")))
+  .limit(1)
+  .prepare();
 
-/** A company by slug with its active catalog, cached briefly in this process; null for no such company. */
-export function loadOfferedCatalog(slug: string): Promise<{ company: Company; catalog: CatalogItem[] } | null> {
-  const hit = offeredCache.get(slug);
-  if (hit && Date.now() - hit.at < CATALOG_CACHE_MS) return hit.value;
-  const value = (async () => {
-    const company = await findCompanyBySlug(slug);
-    return company ? { company, catalog: await listCatalog(company.id, { activeOnly: true }) } : null;
-  })();
-  offeredCache.set(slug, { at: Date.now(), value });
-  value.catch(() => offeredCache.delete(slug));
+/** A company by slug with its active catalog, as stored now (kept in memory while unchanged); null for no such company. */
+export async function loadOfferedCatalog(slug: string): Promise<Offered | null> {
+  const head = await versionBySlug.get({ slug });
+  if (!head) return null;
+  const hit = offeredCache.get(head.id);
+  if (hit && hit.version === head.version) return hit.value;
+  // Read after the version, so what is kept under it is never older than it.
+  const value = (async () => ({ company: await getCompany(head.id), catalog: await listCatalog(head.id, { activeOnly: true }) }))();
+  if (offeredCache.size >= MAX_CACHED_COMPANIES) offeredCache.clear();
+  offeredCache.set(head.id, { version: head.version, value });
+  value.catch(() => {
+    if (offeredCache.get(head.id)?.value === value) offeredCache.delete(head.id);
+  });
   return value;
 }
 
-/** Forgets cached catalogs (after a catalog or company settings change). */
+/** Forgets cached companies and catalogs. Not needed for correctness (the version check sees every change); frees memory. */
 export function forgetOfferedCatalogs(): void {
   offeredCache.clear();
 }
 
 export async function createCatalogItem(companyId: number, input: CatalogItemInput): Promise<number> {
   const [row] = await db.insert(catalogItems).values({ ...input, companyId }).returning({ id: catalogItems.id });
-  forgetOfferedCatalogs();
   return row!.id;
 }
 
@@ -69,6 +81,5 @@ export async function updateCatalogItem(companyId: number, itemId: number, input
     .set({ ...input, updatedAt: new Date().toISOString() })
     .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.id, itemId)))
     .returning({ id: catalogItems.id });
-  forgetOfferedCatalogs();
   return rows.length === 1;
 }

@@ -1,0 +1,1 @@
+ALTER TABLE `companies` ADD `cache_version` integer DEFAULT 0 NOT NULL;
