@@ -97,7 +97,7 @@ describe("three processes on one database", () => {
     expect(afterB.json.price!.lowCents).toBeGreaterThan(before[0]!.json.price!.lowCents);
     expect(afterB.json.price).toEqual(afterA.json.price);
 
-    const settings = await editForm(c!.origin, cluster.origin, owner, "/app/settings", { labourRate: "300" });
+    const settings = await editForm(c!.origin, cluster.origin, owner, "/app/settings/factors", { labourRateCentsPerHour: "300" });
     expect(settings.status).toBe(302);
     const afterSettingsB = await postJson(b!.origin, "/api/plan", body);
     const afterSettingsC = await postJson(c!.origin, "/api/plan", body);
