@@ -11,7 +11,7 @@ import { publicPlan } from "~/lib/plan.server";
 import type { SessionUser } from "~/lib/session.server";
 import { requireLeadFor } from "~/lib/staff.server";
 import { formatZonedDate, formatZonedDateTime, zonedDay } from "~/lib/zoned-time";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 /** Everything a cut sheet prints, for the HTML page and the PDF alike. No prices, no contact details. */
 export type CutSheet = {

@@ -2,7 +2,7 @@ import { DEFAULT_FACTORS, type CompanyFactors } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type Plan, type PlanInput } from "~/domain/plan";
 import { formatLength, inToMm, type LengthUnit } from "~/domain/units";
 import type { CatalogChoice, Design } from "~/lib/design";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 /*
  * Bridges a homeowner's design (catalog choices) and the engine: the /api/plan request it makes,

@@ -1,7 +1,7 @@
 /**
  * The 3D pit preview (client only, loaded lazily by components/pit-preview.tsx).
  *
- * One scene unit is one inch (see pit-model.ts). Every repeated part is one instanced mesh, so a pit
+ * One scene unit is one inch (see app/domain/pit-layout.ts). Every repeated part is one instanced mesh, so a pit
  * with closures, caps, a liner and a patio costs at most 8 draw calls: ground, gravel, patio field
  * (or the base pad without a patio), border units, whole wall units, closure units, caps, and
  * firebrick or the steel ring.
@@ -50,7 +50,7 @@ import {
   type PartPlacement,
   type PitSceneInput,
   type PlanPolygon,
-} from "~/scene/pit-model";
+} from "~/domain/pit-layout";
 
 export type PitSceneStats = { drawCalls: number; triangles: number };
 

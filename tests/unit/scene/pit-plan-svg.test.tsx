@@ -4,7 +4,7 @@ import { afterEach, expect, test } from "vitest";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { formatLength } from "~/domain/units";
 import { planRing } from "~/domain/ring";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 afterEach(cleanup);
 

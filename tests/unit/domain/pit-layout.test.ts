@@ -29,7 +29,7 @@ import {
   type PartPlacement,
   type PitSceneInput,
   type PlanPolygon,
-} from "~/scene/pit-model";
+} from "~/domain/pit-layout";
 
 // Illustrative tapered unit: 12 in face, 8 in back, 8 in deep, 4 in high.
 const UNIT: WallUnitSize = { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 };
