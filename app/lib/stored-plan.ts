@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { CautionCode, WarningCode } from "~/domain/advice";
 import type { Plan, PlanInput } from "~/domain/plan";
-import type { LabourTaskKey } from "~/domain/pricing";
+import type { LabourTaskKey } from "~/domain/labour";
 import type { MaterialKey, MaterialUnit } from "~/domain/quantities";
 import type { Design } from "~/lib/design";
 
@@ -65,7 +65,7 @@ export const storedPlanInputSchema = z.looseObject({
   jointIn: length.optional(),
   liner: linerInputSchema.optional(),
   patio: patioInputSchema.nullable().optional(),
-  site: z.looseObject({ setbackFt: length.optional() }).optional(),
+  site: z.looseObject({ setbackFt: length.optional(), propertyLineFt: length.optional(), branchesFt: length.optional() }).optional(),
 });
 
 export type StoredPlanInput = z.output<typeof storedPlanInputSchema>;
@@ -87,6 +87,9 @@ export const designSchema = z.object({
   paverId: idOrNull,
   borderId: idOrNull,
   setbackFt: z.number().finite().nullable(),
+  // Asked for since version 2 was first written; older records have none.
+  propertyLineFt: z.number().finite().nullable().default(null),
+  branchesFt: z.number().finite().nullable().default(null),
   unit: z.enum(["in", "mm"]),
 }) satisfies z.ZodType<Design>;
 
@@ -192,6 +195,10 @@ const patioPlanSchema = z.looseObject({
   outsideRadiusIn: length,
   borderWidthIn: length,
   borderUnitCount: count,
+  // How the course closes; plans from before the engine cut tapered ends lack these.
+  borderWholeCount: count.optional(),
+  borderClosureCount: z.union([z.literal(0), z.literal(1), z.literal(2)]).optional(),
+  borderLayout: z.enum(["square", "tapered"]).optional(),
   borderInnerEdgeDistanceIn: length,
   borderUnitAngleDeg: length,
   borderOuterJointIn: length,
@@ -218,12 +225,13 @@ const priceLineSchema = z.looseObject({ item: z.string(), quantity: z.number().f
 const priceSchema = z.looseObject({
   lowCents: cents,
   highCents: cents,
+  // Breakdowns from before profit was named markup or margin carry marginCents (read by price-breakdown.ts).
   breakdown: z.looseObject({
     materialsCents: cents,
     labourHours: z.number().finite(),
     labourCents: cents,
     overheadCents: cents,
-    marginCents: cents,
+    marginCents: cents.optional(),
     totalCents: cents,
     lowCents: cents,
     highCents: cents,
@@ -296,7 +304,10 @@ export function readStoredDesign(designJson: string): StoredDesign {
   return parseColumn(storedDesignSchema, "design_json", designJson);
 }
 
-/** The two column values for a plan just made; the same record reads back through readStoredPlan. */
+/** The two column values for a plan just made, checked against the schema so they always read back. */
 export function writeStoredPlan(record: StoredPlanRecord): { designJson: string; planJson: string } {
-  return { designJson: JSON.stringify(record.design), planJson: JSON.stringify(record.plan) };
+  return {
+    designJson: JSON.stringify(storedDesignSchema.parse(record.design)),
+    planJson: JSON.stringify(storedPlanSchema.parse(record.plan)),
+  };
 }

@@ -18,6 +18,7 @@ const INPUT: PitSceneInput = {
   caps: null,
   liner: { kind: "none" },
   patio: null,
+  basePadRadiusIn: 38.7,
 };
 
 const preview = () => (
