@@ -17,7 +17,7 @@ import type { Design } from "~/lib/design";
  * other field as it was, so a newer engine's extra fields survive a round trip.
  *
  * Version history: 1 had no inputs (drawn from the catalog of the day); 2 keeps them. Rows of
- * version 1 were upgraded by drizzle/0005_stored_plan_inputs.sql.
+ * version 1 were upgraded by drizzle/0009_stored_plan_inputs.sql.
  */
 
 export const STORED_PLAN_VERSION = 2;
