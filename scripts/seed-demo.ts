@@ -2,9 +2,10 @@ import { and, eq } from "drizzle-orm";
 import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
 import { findLiveBooking, listCompanySlots } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
-import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/configurator.server";
 import { parseDesign } from "~/lib/design";
 import { summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { writeStoredPlan } from "~/lib/stored-plan";
 import { STATUS_LABEL } from "~/lib/lead-status";
 import { hashPassword } from "~/lib/password.server";
 import { publicPlan } from "~/lib/plan.server";
@@ -106,8 +107,8 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
     if (existing) continue;
     const design = parseDesign(designParams(seed.design, catalog), choices);
     if (!design) throw new Error(`The demo design of ${seed.customerName} has no wall stone.`);
-    const { plan, errors } = await planForDesign(slug, design, choices);
-    if (!plan) throw new Error(`The demo design of ${seed.customerName} cannot be built: ${errors.map((e) => e.message).join(" ")}`);
+    const { plan, resolved, errors } = await planForDesign(slug, design, choices);
+    if (!plan || !resolved) throw new Error(`The demo design of ${seed.customerName} cannot be built: ${errors.map((e) => e.message).join(" ")}`);
     const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, choices, "in");
     const createdMs = now - seed.ageHours * HOUR_MS;
     const at = (hoursAfter: number) => new Date(Math.min(now - 60_000, createdMs + hoursAfter * HOUR_MS)).toISOString();
@@ -129,8 +130,7 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         town: seed.town,
         buildWindow: seed.buildWindow,
         notes: seed.notes,
-        designJson: JSON.stringify({ choices: design, summary }),
-        planJson: JSON.stringify(plan),
+        ...writeStoredPlan(recordPlan({ design, summary, resolved, plan })),
         stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
         bowlDiameterIn: plan.ring.bowlDiameterIn,
         priceLowCents: plan.price?.lowCents ?? null,

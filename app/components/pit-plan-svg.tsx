@@ -8,7 +8,7 @@ import {
   type PitSceneInput,
   type PlanPoint,
   type PlanPolygon,
-} from "~/scene/pit-model";
+} from "~/domain/pit-layout";
 
 export type PitPlanSvgProps = {
   input: PitSceneInput;

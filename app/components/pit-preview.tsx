@@ -1,7 +1,7 @@
 import { Component, Suspense, lazy, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import type { LengthUnit } from "~/domain/units";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 export type PitPreviewProps = {
   input: PitSceneInput;

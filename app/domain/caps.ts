@@ -20,12 +20,12 @@
  * "Segments of a Circle").
  */
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
+import { EPS as EPS_IN } from "~/domain/tolerance";
 import { formatInches } from "~/domain/units";
 
 const MIN_CAPS = 3;
 // Far beyond any real pit (a 600 in ring of 4 in blanks needs under 1000), it only stops the search.
 const MAX_CAPS = 2000;
-const EPS_IN = 1e-9;
 
 export type CapBlank = {
   /** Blank length L, laid along the ring, in. */

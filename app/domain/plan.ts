@@ -19,16 +19,7 @@ import {
   type BaseEstimate,
   type MaterialLine,
 } from "~/domain/quantities";
-import {
-  MAX_UNITS_PER_COURSE,
-  MIN_UNITS_PER_COURSE,
-  bowlDiameterForCount,
-  planRing,
-  type RingNeighbour,
-  type RingPlan,
-  type RingTarget,
-  type WallUnitSize,
-} from "~/domain/ring";
+import { findRingForBowl, planRing, type RingPlan, type RingTarget, type WallUnitSize } from "~/domain/ring";
 
 export { PlanGeometryError };
 
@@ -80,14 +71,6 @@ export type Plan = {
   warnings: Warning[];
   cautions: Caution[];
 };
-
-function findRingForBowl(wallUnit: WallUnitSize, bowlDiameterIn: number): RingNeighbour | null {
-  for (let n = MIN_UNITS_PER_COURSE; n <= MAX_UNITS_PER_COURSE; n++) {
-    const id = bowlDiameterForCount(wallUnit, n);
-    if (id >= bowlDiameterIn - 1e-9) return { unitCount: n, bowlDiameterIn: id };
-  }
-  return null;
-}
 
 /** Computes the full plan (in, ft², yd³, integer cents; see each part for its rounding); throws PlanGeometryError when it cannot be built. */
 export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {

@@ -15,6 +15,7 @@
  * Both a_back and a_face grow with N, so the bowl grows strictly with the unit count.
  */
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
+import { EPS as EPS_IN } from "~/domain/tolerance";
 import { formatInches } from "~/domain/units";
 
 export const MIN_UNITS_PER_COURSE = 3;
@@ -26,9 +27,6 @@ export const MAX_COURSES = 12;
  * among the face joints instead. Common practice, no source: about two sanded joints' width.
  */
 export const MIN_CLOSURE_FACE_IN = 0.125;
-
-// Lengths closer than this are equal: far below anything a tape or a saw can see.
-const EPS_IN = 1e-9;
 
 export type WallUnitSize = { faceIn: number; backIn: number; depthIn: number; heightIn: number };
 
@@ -129,6 +127,15 @@ export function findNeighbourRings(
   return { below, above: null };
 }
 
+/** The smallest whole-unit ring whose bowl is at least `bowlDiameterIn` (in); null when none reaches it. */
+export function findRingForBowl(wallUnit: WallUnitSize, bowlDiameterIn: number): RingNeighbour | null {
+  for (let n = MIN_UNITS_PER_COURSE; n <= MAX_UNITS_PER_COURSE; n++) {
+    const id = bowlDiameterForCount(wallUnit, n);
+    if (id >= bowlDiameterIn - EPS_IN) return { unitCount: n, bowlDiameterIn: id };
+  }
+  return null;
+}
+
 function checkWallUnit(wallUnit: WallUnitSize): void {
   const sizes: [keyof WallUnitSize, string][] = [
     ["faceIn", "face length"],
@@ -158,18 +165,14 @@ function chooseWholeCount(wallUnit: WallUnitSize, bowlDiameterIn: number, fit: "
       `No ring of these units reaches a ${formatInches(bowlDiameterIn)} bowl: even ${MAX_UNITS_PER_COURSE} units a course make only ${formatInches(largestIn)}.`,
     );
   }
-  let previousIn = -Infinity;
-  for (let n = MIN_UNITS_PER_COURSE; n <= MAX_UNITS_PER_COURSE; n++) {
-    const id = bowlDiameterForCount(wallUnit, n);
-    if (id >= bowlDiameterIn - EPS_IN) {
-      if (fit === "at-least" || n === MIN_UNITS_PER_COURSE) return n;
-      // Nearest: the ring just under the target wins only when strictly closer; a tie goes to the
-      // larger bowl, which still clears a liner sized to the target.
-      return bowlDiameterIn - previousIn < id - bowlDiameterIn ? n - 1 : n;
-    }
-    previousIn = id;
-  }
-  return MAX_UNITS_PER_COURSE;
+  const atLeast = findRingForBowl(wallUnit, bowlDiameterIn);
+  if (!atLeast) return MAX_UNITS_PER_COURSE;
+  const n = atLeast.unitCount;
+  if (fit === "at-least" || n === MIN_UNITS_PER_COURSE) return n;
+  // Nearest: the ring just under the target wins only when strictly closer; a tie goes to the
+  // larger bowl, which still clears a liner sized to the target.
+  const previousIn = bowlDiameterForCount(wallUnit, n - 1);
+  return bowlDiameterIn - previousIn < atLeast.bowlDiameterIn - bowlDiameterIn ? n - 1 : n;
 }
 
 type CourseLayout = Pick<

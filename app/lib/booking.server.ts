@@ -20,6 +20,7 @@ import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff
 import { CONSULT_HOLD_MINUTES, formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
+import { readStoredDesign } from "~/lib/stored-plan";
 
 /*
  * Paid design consults. A booking holds its slot from the moment checkout starts (the partial
@@ -197,8 +198,7 @@ function calendarFile(booking: Booking, company: Company, lead: Lead): string {
 }
 
 function designLine(lead: Lead): string {
-  const design = JSON.parse(lead.designJson) as { summary?: { label: string; value: string }[] };
-  const bowl = design.summary?.find((l) => l.label === "Bowl")?.value;
+  const bowl = readStoredDesign(lead.designJson).summary.find((l) => l.label === "Bowl")?.value;
   return [lead.stoneName, bowl].filter(Boolean).join(", ");
 }
 

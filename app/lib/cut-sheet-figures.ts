@@ -2,7 +2,7 @@ import type { CapTemplate } from "~/domain/cap-template";
 import { formatInches } from "~/domain/units";
 import type { DrawCommand, Point } from "~/lib/cap-template-layout";
 import { formatDegrees } from "~/lib/cut-list";
-import { drawPitPlan, measureUnitStepRad, type PitSceneInput } from "~/scene/pit-model";
+import { drawPitPlan, measureUnitStepRad, type PitSceneInput } from "~/domain/pit-layout";
 
 /*
  * The cut sheet's two scaled drawings as drawing commands in PDF points: one cap on its blank with

@@ -1,17 +1,15 @@
 import type { CapPlan } from "~/domain/caps";
 import type { Caution } from "~/domain/advice";
 import type { MaterialLine } from "~/domain/quantities";
-import { getCompany, listCatalog } from "~/lib/catalog.server";
-import { toCatalogChoice } from "~/lib/configurator.server";
+import { getCompany } from "~/lib/catalog.server";
 import { buildCutList, crewCautionsOf, legacyCutList, type CutSection } from "~/lib/cut-list";
-import { planToSceneInput, type PublicPlan, type SummaryLine } from "~/lib/design-plan";
+import { planToSceneInput, type SummaryLine } from "~/lib/design-plan";
 import { listRevisions, originalVersion } from "~/lib/lead-workspace.server";
 import { refreshStoredPlan } from "~/lib/plan-refresh.server";
-import { publicPlan } from "~/lib/plan.server";
 import type { SessionUser } from "~/lib/session.server";
 import { requireLeadFor } from "~/lib/staff.server";
 import { formatZonedDate, formatZonedDateTime, zonedDay } from "~/lib/zoned-time";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 /** Everything a cut sheet prints, for the HTML page and the PDF alike. No prices, no contact details. */
 export type CutSheet = {
@@ -35,10 +33,10 @@ export type CutSheet = {
 /** The cut sheet of a lead the user may open (404 otherwise), built to its latest design version. */
 export async function loadCutSheet(user: SessionUser, leadId: number): Promise<CutSheet> {
   const lead = await requireLeadFor(user, leadId);
-  const [company, revisions, catalogItems] = await Promise.all([getCompany(user.companyId), listRevisions(lead), listCatalog(user.companyId)]);
+  const [company, revisions] = await Promise.all([getCompany(user.companyId), listRevisions(lead)]);
   const version = revisions.at(-1) ?? originalVersion(lead);
-  const catalog = catalogItems.map(toCatalogChoice);
-  const { plan, isLegacy } = await refreshStoredPlan(version.plan, version.design.choices, company.slug, catalog);
+  const shown = refreshStoredPlan(version);
+  const { plan } = shown;
   const now = new Date();
   return {
     leadId: lead.id,
@@ -53,10 +51,10 @@ export async function loadCutSheet(user: SessionUser, leadId: number): Promise<C
     printedOn: formatZonedDate(now.toISOString(), company.timeZone),
     day: zonedDay(now, company.timeZone),
     summary: version.design.summary,
-    cutList: isLegacy ? legacyCutList() : buildCutList(plan),
+    cutList: shown.isLegacy ? legacyCutList() : buildCutList(shown.plan),
     materials: plan.materials,
     cautions: crewCautionsOf(plan.cautions),
-    caps: plan.caps,
-    sceneInput: planToSceneInput(publicPlan(plan) as PublicPlan, version.design.choices, catalog),
+    caps: shown.isLegacy ? null : shown.plan.caps,
+    sceneInput: planToSceneInput(plan, version.design.inputs.engine),
   };
 }

@@ -2,11 +2,14 @@ import { DEFAULT_FACTORS, type CompanyFactors } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type Plan, type PlanInput } from "~/domain/plan";
 import { formatLength, inToMm, type LengthUnit } from "~/domain/units";
 import type { CatalogChoice, Design } from "~/lib/design";
-import type { PitSceneInput } from "~/scene/pit-model";
+import { FALLBACK_COLOURS, pickColour, type PitSceneInput } from "~/domain/pit-layout";
+import { toEnginePart } from "~/lib/catalog-parts";
+import type { StoredPlan, StoredPlanInput } from "~/lib/stored-plan";
 
 /*
  * Bridges a homeowner's design (catalog choices) and the engine: the /api/plan request it makes,
- * the 3D/plan preview input built from the plan, and the summary shown in e-mails and pages.
+ * the same design as the engine's inline input (for the browser's instant redraw), the drawing's
+ * input built from a plan and the parts it was made from, and the summary shown in e-mails and pages.
  */
 
 export type PublicPlan = Omit<Plan, "price"> & { price: { lowCents: number; highCents: number } | null };
@@ -25,27 +28,49 @@ function siteOf(design: Design): { site?: { setbackFt?: number; propertyLineFt?:
   return Object.keys(site).length ? { site } : {};
 }
 
-/** The JSON body for POST /api/plan: catalog references plus the company, so prices apply. */
-export function designToPlanRequest(design: Design, companySlug: string, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PlanRequestBody {
+/**
+ * The catalog items a design uses and the ring it asks for: the one reading of a design that both
+ * the plan request and the inline input are built from.
+ */
+function chooseDesignItems(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>) {
   const gapIn = factors?.linerMinGapIn ?? DEFAULT_FACTORS.linerMinGapIn;
-  const ring = byId(catalog, design.ringId);
-  const firebrick = catalog.find((i) => i.kind === "firebrick");
-  const useRing = design.linerKind === "steel-ring" && ring?.diameterIn;
+  const ring = design.linerKind === "steel-ring" ? byId(catalog, design.ringId) : undefined;
+  const steelRing = toEnginePart(ring, "steel-ring");
+  // A design does not name its firebrick: the first one the company offers (in catalog order).
+  const firebrick = design.linerKind === "firebrick" ? catalog.find((i) => i.kind === "firebrick") : undefined;
+  const hasPatio = design.patioRadiusFt > 0;
+  return {
+    // Sized to the insert: the smallest whole-unit ring that clears it with the company's gravel gap.
+    ringTarget:
+      design.fitToRing && steelRing
+        ? { bowlDiameterIn: steelRing.outsideDiameterIn + 2 * gapIn, fit: "at-least" as const }
+        : { unitCount: design.unitCount },
+    stone: byId(catalog, design.stoneId),
+    cap: byId(catalog, design.capId),
+    liner: steelRing ? ring : firebrick,
+    border: hasPatio ? byId(catalog, design.borderId) : undefined,
+    paver: hasPatio ? byId(catalog, design.paverId) : undefined,
+  };
+}
+
+/** The JSON body for POST /api/plan: catalog references plus the company, so prices apply. */
+export function designToPlanRequest(
+  design: Design,
+  companySlug: string,
+  catalog: CatalogChoice[],
+  factors?: Partial<CompanyFactors>,
+): PlanRequestBody {
+  const items = chooseDesignItems(design, catalog, factors);
   return {
     company: companySlug,
-    // Sized to the insert: the smallest whole-unit ring that clears it with the usual gravel gap.
-    ring:
-      design.fitToRing && useRing
-        ? { bowlDiameterIn: ring.diameterIn! + 2 * gapIn, fit: "at-least" }
-        : { unitCount: design.unitCount },
+    ring: items.ringTarget,
     wallUnit: { id: design.stoneId },
     courses: design.courses,
     cap: design.capId === null ? null : { id: design.capId, innerOverhangIn: design.innerOverhangIn },
-    liner:
-      useRing ? { id: ring.id } : design.linerKind === "firebrick" && firebrick ? { id: firebrick.id } : { kind: "none" },
+    liner: items.liner ? { id: items.liner.id } : { kind: "none" },
     patio:
-      design.patioRadiusFt > 0 && design.paverId !== null && design.borderId !== null
-        ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { id: design.borderId }, paver: { id: design.paverId } }
+      items.border && items.paver
+        ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { id: items.border.id }, paver: { id: items.paver.id } }
         : null,
     ...siteOf(design),
   };
@@ -56,29 +81,20 @@ export function designToPlanRequest(design: Design, companySlug: string, catalog
  * browser can redraw the geometry at once while the priced answer comes from the server.
  */
 export function designToPlanInput(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PlanInput | null {
-  const gapIn = factors?.linerMinGapIn ?? DEFAULT_FACTORS.linerMinGapIn;
-  const stone = byId(catalog, design.stoneId);
-  if (!stone?.faceIn || !stone.backIn || !stone.depthIn || !stone.heightIn) return null;
-  const cap = byId(catalog, design.capId);
-  const ring = byId(catalog, design.ringId);
-  const brick = catalog.find((i) => i.kind === "firebrick");
-  const paver = byId(catalog, design.paverId);
-  const border = byId(catalog, design.borderId);
-  const useRing = design.linerKind === "steel-ring" && ring?.diameterIn && ring.heightIn;
+  const items = chooseDesignItems(design, catalog, factors);
+  const wallUnit = toEnginePart(items.stone, "wall-unit");
+  if (!wallUnit) return null;
+  const cap = toEnginePart(items.cap, "cap");
+  const liner = toEnginePart(items.liner, "steel-ring") ?? toEnginePart(items.liner, "firebrick");
+  const border = toEnginePart(items.border, "border-unit");
+  const paver = toEnginePart(items.paver, "paver");
   return {
-    ring: design.fitToRing && useRing ? { bowlDiameterIn: ring.diameterIn! + 2 * gapIn, fit: "at-least" } : { unitCount: design.unitCount },
-    wallUnit: { faceIn: stone.faceIn, backIn: stone.backIn, depthIn: stone.depthIn, heightIn: stone.heightIn, name: stone.name },
+    ring: items.ringTarget,
+    wallUnit,
     courses: design.courses,
-    cap: cap?.lengthIn && cap.depthIn && cap.thicknessIn ? { lengthIn: cap.lengthIn, depthIn: cap.depthIn, thicknessIn: cap.thicknessIn, innerOverhangIn: design.innerOverhangIn, name: cap.name } : null,
-    liner: useRing
-      ? { kind: "steel-ring", outsideDiameterIn: ring.diameterIn!, heightIn: ring.heightIn!, name: ring.name }
-      : design.linerKind === "firebrick" && brick?.lengthIn && brick.widthIn && brick.heightIn
-        ? { kind: "firebrick", lengthIn: brick.lengthIn, widthIn: brick.widthIn, heightIn: brick.heightIn, name: brick.name }
-        : { kind: "none" },
-    patio:
-      design.patioRadiusFt > 0 && paver?.lengthIn && paver.widthIn && border?.lengthIn && border.widthIn
-        ? { outsideRadiusIn: design.patioRadiusFt * 12, border: { widthIn: border.widthIn, lengthIn: border.lengthIn, name: border.name }, paver: { lengthIn: paver.lengthIn, widthIn: paver.widthIn, name: paver.name } }
-        : null,
+    cap: cap ? { ...cap, innerOverhangIn: design.innerOverhangIn } : null,
+    liner: liner ?? { kind: "none" },
+    patio: border && paver ? { outsideRadiusIn: design.patioRadiusFt * 12, border, paver } : null,
     ...siteOf(design),
   };
 }
@@ -95,21 +111,26 @@ export function planLocally(design: Design, catalog: CatalogChoice[], factors?: 
   }
 }
 
-/** The preview's input: real unit sizes from the catalog, placements from the plan. */
-export function planToSceneInput(plan: PublicPlan, design: Design, catalog: CatalogChoice[]): PitSceneInput {
-  const stone = byId(catalog, design.stoneId);
-  const cap = byId(catalog, design.capId);
-  const brick = catalog.find((i) => i.kind === "firebrick");
-  const paver = byId(catalog, design.paverId);
-  const border = byId(catalog, design.borderId);
+/** What the drawing reads of a plan: the engine's own numbers. */
+export type DrawnPlan = Pick<StoredPlan, "ring" | "caps" | "liner" | "patio" | "base">;
+
+/**
+ * The preview's input: the parts' sizes and colours from the input the plan was made from (stored
+ * with a saved plan), every placement from the plan itself. Never reads the catalog.
+ */
+export function planToSceneInput(plan: DrawnPlan, input: StoredPlanInput): PitSceneInput {
+  const { wallUnit, cap } = input;
   const liner = plan.liner;
+  const linerInput = input.liner;
+  const patioInput = input.patio;
+  const colour = (part: { colourHex?: string } | null | undefined, fallback: string) => pickColour(part?.colourHex, fallback);
   return {
     wallUnit: {
-      faceIn: stone?.faceIn ?? 12,
-      backIn: stone?.backIn ?? 8,
-      depthIn: stone?.depthIn ?? 8,
-      heightIn: stone?.heightIn ?? 4,
-      colourHex: stone?.colourHex ?? "#8a8178",
+      faceIn: wallUnit.faceIn,
+      backIn: wallUnit.backIn,
+      depthIn: wallUnit.depthIn,
+      heightIn: wallUnit.heightIn,
+      colourHex: colour(wallUnit, FALLBACK_COLOURS.wall),
     },
     ring: {
       unitCount: plan.ring.unitCount,
@@ -126,32 +147,46 @@ export function planToSceneInput(plan: PublicPlan, design: Design, catalog: Cata
           innerEdgeDistanceIn: plan.caps.innerEdgeDistanceIn,
           outerEdgeDistanceIn: plan.caps.outerEdgeDistanceIn,
           thicknessIn: plan.caps.thicknessIn,
-          colourHex: cap?.colourHex ?? "#6f655d",
+          colourHex: colour(cap, FALLBACK_COLOURS.cap),
         }
       : null,
     liner:
       liner?.kind === "steel-ring"
         ? { kind: "steel-ring", outsideDiameterIn: liner.outsideDiameterIn, heightIn: liner.heightIn }
-        : liner?.kind === "firebrick" && liner.fits
+        : liner?.kind === "firebrick" && liner.fits && linerInput?.kind === "firebrick"
           ? {
               kind: "firebrick",
               perRow: liner.bricksPerRow,
               rows: liner.rows,
-              lengthIn: brick?.lengthIn ?? 9,
+              lengthIn: linerInput.lengthIn,
               widthIn: liner.rowHeightIn,
               heightIn: liner.thicknessIn,
             }
           : { kind: "none" },
-    patio: plan.patio
-      ? {
-          outsideRadiusIn: plan.patio.outsideRadiusIn,
-          borderWidthIn: plan.patio.borderWidthIn,
-          borderCount: plan.patio.borderUnitCount,
-          borderColourHex: border?.colourHex ?? "#4f4a46",
-          fieldColourHex: paver?.colourHex ?? "#a07d63",
-        }
-      : null,
+    patio:
+      plan.patio && patioInput
+        ? {
+            outsideRadiusIn: plan.patio.outsideRadiusIn,
+            borderWidthIn: plan.patio.borderWidthIn,
+            borderInnerEdgeDistanceIn: plan.patio.borderInnerEdgeDistanceIn,
+            // Plans from before the engine closed the course with one or two pieces: one cut piece.
+            borderWholeCount: plan.patio.borderWholeCount ?? plan.patio.borderUnitCount - 1,
+            borderClosureCount: plan.patio.borderClosureCount ?? 1,
+            borderUnitAngleDeg: plan.patio.borderUnitAngleDeg,
+            borderUnitLengthIn: patioInput.border.lengthIn,
+            lastBorderUnitLengthIn: plan.patio.lastBorderUnitLengthIn,
+            borderColourHex: colour(patioInput.border, FALLBACK_COLOURS.border),
+            fieldColourHex: colour(patioInput.paver, FALLBACK_COLOURS.field),
+          }
+        : null,
+    basePadRadiusIn: plan.base.radiusIn,
   };
+}
+
+/** The preview of a design being edited: its parts from today's catalog, its placements from the plan. */
+export function designToSceneInput(plan: DrawnPlan, design: Design, catalog: CatalogChoice[]): PitSceneInput | null {
+  const input = designToPlanInput(design, catalog);
+  return input ? planToSceneInput(plan, input) : null;
 }
 
 export type SummaryLine = { label: string; value: string };
@@ -209,7 +244,7 @@ export function summarizeDesign(plan: PublicPlan, design: Design, catalog: Catal
 }
 
 /** The caption under the preview. */
-export function describePreview(plan: PublicPlan, unit: LengthUnit): string {
+export function describePreview(plan: Pick<StoredPlan, "ring" | "caps" | "patio">, unit: LengthUnit): string {
   const f = (inches: number) => formatLength(inches, unit);
   const parts = [
     `Bowl ${f(plan.ring.bowlDiameterIn)} across inside`,

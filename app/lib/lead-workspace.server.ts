@@ -1,14 +1,12 @@
 import { and, asc, desc, eq, like } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
-import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/db.server";
-import type { Design } from "~/lib/design";
-import type { SummaryLine } from "~/lib/design-plan";
 import { STATUS_LABEL } from "~/lib/lead-status";
 import { formatMoneyWhole } from "~/lib/money";
 import type { SessionUser } from "~/lib/session.server";
+import { readStoredPlan, writeStoredPlan, type StoredDesign, type StoredPlan, type StoredPlanRecord } from "~/lib/stored-plan";
 import { findActiveStaff } from "~/lib/team.server";
 
 /*
@@ -16,15 +14,13 @@ import { findActiveStaff } from "~/lib/team.server";
  * event in one batch (both or neither), scoped by the company as well as the id.
  */
 
-export type StoredDesign = { choices: Design; summary: SummaryLine[] };
-
 export type DesignVersion = {
   /** null for the homeowner's original request. */
   revisionId: number | null;
   authorName: string | null;
   createdAt: string;
   design: StoredDesign;
-  plan: Plan;
+  plan: StoredPlan;
   priceLowCents: number | null;
   priceHighCents: number | null;
 };
@@ -37,8 +33,7 @@ export function originalVersion(lead: Lead): DesignVersion {
     revisionId: null,
     authorName: null,
     createdAt: lead.createdAt,
-    design: JSON.parse(lead.designJson) as StoredDesign,
-    plan: JSON.parse(lead.planJson) as Plan,
+    ...readStoredPlan(lead),
     priceLowCents: lead.priceLowCents,
     priceHighCents: lead.priceHighCents,
   };
@@ -58,8 +53,7 @@ export async function listRevisions(lead: Lead): Promise<DesignVersion[]> {
     revisionId: revision.id,
     authorName,
     createdAt: revision.createdAt,
-    design: JSON.parse(revision.designJson) as StoredDesign,
-    plan: JSON.parse(revision.planJson) as Plan,
+    ...readStoredPlan(revision),
     priceLowCents: revision.priceLowCents,
     priceHighCents: revision.priceHighCents,
   }));
@@ -206,7 +200,8 @@ export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: numb
 }
 
 /** Saves a staff revision of the design with its freshly computed plan; the original stays as sent. */
-export async function saveRevision(user: SessionUser, lead: Lead, design: StoredDesign, plan: Plan): Promise<number> {
+export async function saveRevision(user: SessionUser, lead: Lead, record: StoredPlanRecord): Promise<number> {
+  const { plan } = record;
   const at = now();
   const low = plan.price?.lowCents ?? null;
   const high = plan.price?.highCents ?? null;
@@ -217,8 +212,7 @@ export async function saveRevision(user: SessionUser, lead: Lead, design: Stored
         companyId: lead.companyId,
         leadId: lead.id,
         authorUserId: user.id,
-        designJson: JSON.stringify(design),
-        planJson: JSON.stringify(plan),
+        ...writeStoredPlan(record),
         priceLowCents: low,
         priceHighCents: high,
         createdAt: at,

@@ -6,12 +6,13 @@ import { NewLeadEmail } from "~/emails/new-lead";
 import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import type { LeadFormInput } from "~/lib/lead-schema";
+import { writeStoredPlan, type StoredPlanRecord } from "~/lib/stored-plan";
 import { createRef, issueOneTimeToken, oneTimeLinkPath } from "~/lib/tokens.server";
 import { deleteStoredPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, sweepOrphanPhotos, type StoredPhoto } from "~/lib/uploads.server";
 
 export type LeadSnapshot = {
-  design: unknown;
-  plan: unknown;
+  /** The design, the parts and prices it was planned with, and the plan: kept as sent, forever. */
+  record: StoredPlanRecord;
   stoneName: string;
   bowlDiameterIn: number;
   priceLowCents: number | null;
@@ -76,8 +77,7 @@ export async function createLead(args: {
           town: form.town,
           buildWindow: form.buildWindow,
           notes: form.notes,
-          designJson: JSON.stringify(snapshot.design),
-          planJson: JSON.stringify(snapshot.plan),
+          ...writeStoredPlan(snapshot.record),
           stoneName: snapshot.stoneName,
           bowlDiameterIn: snapshot.bowlDiameterIn,
           priceLowCents: snapshot.priceLowCents,

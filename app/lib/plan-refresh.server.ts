@@ -1,28 +1,24 @@
-import type { Plan } from "~/domain/plan";
-import { planForDesign } from "~/lib/configurator.server";
-import type { CatalogChoice, Design } from "~/lib/design";
+import { computePlan, PlanGeometryError, type Plan } from "~/domain/plan";
+import { toPlanInput, type StoredPlan, type StoredPlanRecord } from "~/lib/stored-plan";
 
 /*
- * Plans are stored with each lead and revision as the engine made them then. A plan from an older
- * engine lacks the figures the crew builds from today (lining height, bond layout, arcs between the
- * cut lines…), so the cut list and the lead page recompute it from the stored design choices with
- * the company's current catalog and factors. The quoted price stays on the lead as sent. When that
- * is no longer possible (a catalog item is gone) the stored plan is kept and said to be old.
+ * A saved plan is shown and built from the engine run on the inputs saved with it: the parts,
+ * factors and prices it was made with, never today's catalog. For a plan made by this engine that
+ * is the stored plan again (tests/unit/stored-plans.test.ts checks it); a plan from an older engine
+ * gains the figures the crew builds from today (lining height, bond layout, arcs between the cut
+ * lines…) while its parts and prices stay as saved. When today's engine refuses the saved inputs,
+ * the stored plan is shown as it is and said to be old.
  */
 
-/** True when the plan carries every figure of the current engine. */
-export function isCurrentPlan(plan: Plan): boolean {
-  return typeof (plan as Partial<Plan>).fireOpeningIn === "number";
-}
+export type ShownPlan = { plan: Plan; isLegacy: false } | { plan: StoredPlan; isLegacy: true };
 
-/** The stored plan, or the same design recomputed by today's engine when the stored one is older. */
-export async function refreshStoredPlan(
-  plan: Plan,
-  design: Design,
-  companySlug: string,
-  catalog: CatalogChoice[],
-): Promise<{ plan: Plan; isLegacy: boolean }> {
-  if (isCurrentPlan(plan)) return { plan, isLegacy: false };
-  const fresh = await planForDesign(companySlug, design, catalog);
-  return fresh.plan ? { plan: fresh.plan, isLegacy: false } : { plan, isLegacy: true };
+/** The plan of a saved record as today's engine makes it from the record's own inputs. */
+export function refreshStoredPlan(record: StoredPlanRecord): ShownPlan {
+  const { engine, factors, supplyPrices } = record.design.inputs;
+  try {
+    return { plan: computePlan(toPlanInput(engine), { factors, supplyPrices }), isLegacy: false };
+  } catch (error) {
+    if (error instanceof PlanGeometryError) return { plan: record.plan, isLegacy: true };
+    throw error;
+  }
 }

@@ -3,6 +3,7 @@ import type { CompanyFactors, SupplyPrices } from "~/domain/factors";
 import { computePlan, PlanGeometryError, type CapInput, type LinerInput, type Plan, type PlanInput, type PatioInput, type WallUnitInput } from "~/domain/plan";
 import { loadOfferedCatalog } from "~/lib/catalog.server";
 import { readCompanyFactors } from "~/lib/factor-settings";
+import { toEnginePart, type PartByKind, type PartKind } from "~/lib/catalog-parts";
 import { isCatalogRef, type PlanFieldError, type PlanRequest } from "~/lib/plan-schema";
 
 /** The engine's factors for a company: its settings (columns and checked overrides) over the defaults. */
@@ -34,11 +35,12 @@ export class PlanRequestError extends Error {
   }
 }
 
-type Resolved = { input: PlanInput; factors?: Partial<CompanyFactors>; supplyPrices?: SupplyPrices; company: Company | null };
+export type Resolved = { input: PlanInput; factors?: Partial<CompanyFactors>; supplyPrices?: SupplyPrices; company: Company | null };
 
 /**
  * Turns a validated request into the engine's input: catalog references become the company's own
- * sizes and prices (active items only, of the right kind). Unknown ids answer 422 naming the field.
+ * parts (sizes, names, prices and colours; active items only, of the right kind), through the one
+ * mapping in catalog-parts.ts. Unknown ids answer 422 naming the field.
  */
 export async function resolvePlanRequest(request: PlanRequest): Promise<Resolved> {
   const offered = request.company ? await loadOfferedCatalog(request.company) : null;
@@ -47,65 +49,42 @@ export async function resolvePlanRequest(request: PlanRequest): Promise<Resolved
   }
   const company = offered?.company ?? null;
   const catalog = offered?.catalog ?? [];
-  const pick = (path: string, id: number, kinds: CatalogKind[]): CatalogItem => {
-    const item = catalog.find((i) => i.id === id && kinds.includes(i.kind));
-    if (!item) {
+  function pick<K extends PartKind>(path: string, id: number, kinds: K[]): PartByKind[K] {
+    const item = catalog.find((i) => i.id === id && kinds.some((kind) => kind === i.kind));
+    const kind = kinds.find((k) => k === item?.kind);
+    const part = kind ? toEnginePart(item, kind) : null;
+    if (!part) {
       throw new PlanRequestError(422, [
         { path: `${path}.id`, message: `This contractor offers no ${kinds.join(" or ").replace(/-/g, " ")} with id ${id}.` },
       ]);
     }
-    return item;
-  };
-  const named = (item: CatalogItem) => ({ name: item.name, priceCents: item.priceCents });
+    return part;
+  }
 
-  const wallUnit: WallUnitInput = isCatalogRef(request.wallUnit)
-    ? (() => {
-        const item = pick("wallUnit", request.wallUnit.id, ["wall-unit"]);
-        return { faceIn: item.faceIn!, backIn: item.backIn!, depthIn: item.depthIn!, heightIn: item.heightIn!, ...named(item) };
-      })()
-    : request.wallUnit;
+  const wallUnit: WallUnitInput = isCatalogRef(request.wallUnit) ? pick("wallUnit", request.wallUnit.id, ["wall-unit"]) : request.wallUnit;
 
   let cap: CapInput | null = null;
   if (request.cap && isCatalogRef(request.cap)) {
-    const item = pick("cap", request.cap.id, ["cap"]);
     cap = {
-      lengthIn: item.lengthIn!,
-      depthIn: item.depthIn!,
-      thicknessIn: item.thicknessIn!,
+      ...pick("cap", request.cap.id, ["cap"]),
       innerOverhangIn: request.cap.innerOverhangIn ?? 1,
       ...(request.cap.outerOverhangIn !== undefined ? { outerOverhangIn: request.cap.outerOverhangIn } : {}),
-      ...named(item),
     };
   } else if (request.cap) {
     cap = request.cap;
   }
 
-  let liner: LinerInput | undefined;
-  if (request.liner && isCatalogRef(request.liner)) {
-    const item = pick("liner", request.liner.id, ["steel-ring", "firebrick"]);
-    liner =
-      item.kind === "steel-ring"
-        ? { kind: "steel-ring", outsideDiameterIn: item.diameterIn!, heightIn: item.heightIn!, ...named(item) }
-        : { kind: "firebrick", lengthIn: item.lengthIn!, widthIn: item.widthIn!, heightIn: item.heightIn!, ...named(item) };
-  } else {
-    liner = request.liner;
-  }
+  const liner: LinerInput | undefined =
+    request.liner && isCatalogRef(request.liner) ? pick("liner", request.liner.id, ["steel-ring", "firebrick"]) : request.liner;
 
   let patio: PatioInput | null = null;
   if (request.patio) {
-    const border = isCatalogRef(request.patio.border)
-      ? (() => {
-          const item = pick("patio.border", request.patio.border.id, ["border-unit"]);
-          return { widthIn: item.widthIn!, lengthIn: item.lengthIn!, ...named(item) };
-        })()
-      : request.patio.border;
-    const paver = isCatalogRef(request.patio.paver)
-      ? (() => {
-          const item = pick("patio.paver", request.patio.paver.id, ["paver"]);
-          return { lengthIn: item.lengthIn!, widthIn: item.widthIn!, ...named(item) };
-        })()
-      : request.patio.paver;
-    patio = { outsideRadiusIn: request.patio.outsideRadiusIn, border, paver };
+    const { border, paver } = request.patio;
+    patio = {
+      outsideRadiusIn: request.patio.outsideRadiusIn,
+      border: isCatalogRef(border) ? pick("patio.border", border.id, ["border-unit"]) : border,
+      paver: isCatalogRef(paver) ? pick("patio.paver", paver.id, ["paver"]) : paver,
+    };
   }
 
   const input: PlanInput = {

@@ -3,7 +3,6 @@ import { alias } from "drizzle-orm/sqlite-core";
 import { Link } from "react-router";
 import type { Route } from "./+types/app-jobs";
 import { leads, STAFF_ROLES, users } from "~/db/schema";
-import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/db.server";
 import { currentVersion } from "~/lib/lead-workspace.server";
@@ -30,7 +29,7 @@ export async function loader({ request }: Route.LoaderArgs) {
     .limit(200);
   const jobs = await Promise.all(
     rows.map(async ({ lead, crewName }) => {
-      const plan: Plan = (await currentVersion(lead)).plan;
+      const { plan } = await currentVersion(lead);
       return {
         id: lead.id,
         customerName: lead.customerName,

@@ -6,9 +6,9 @@ import { PitPreview } from "~/components/pit-preview";
 import { FormAlert } from "~/components/ui/field";
 import { formatLength, type LengthUnit } from "~/domain/units";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
-import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/configurator.server";
 import { designToSearchParams, parseDesign } from "~/lib/design";
-import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { checkDesignParams } from "~/lib/design-schema";
 import { publicFactors, readCompanyFactors } from "~/lib/factor-settings";
 import { currentVersion, saveRevision } from "~/lib/lead-workspace.server";
@@ -52,12 +52,12 @@ export async function action({ request, params }: Route.ActionArgs) {
   const errors = checkDesignParams(query, catalog);
   if (Object.keys(errors).length) return data({ errors }, { status: 400 });
   const design = parseDesign(new URLSearchParams(query), catalog);
-  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] as PlanFieldError[] };
+  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, resolved: null, errors: [] as PlanFieldError[] };
   if (!design || !result.plan) {
     return data({ errors: { design: `This design cannot be built: ${result.errors[0]?.message ?? "check the choices."}` } as Record<string, string> }, { status: 400 });
   }
   const summary = summarizeDesign(publicPlan(result.plan) as PublicPlan, design, catalog, "in");
-  await saveRevision(user, lead, { choices: design, summary }, result.plan);
+  await saveRevision(user, lead, recordPlan({ design, summary, resolved: result.resolved, plan: result.plan }));
   return redirect(`/app/leads/${lead.id}`);
 }
 
@@ -76,6 +76,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
     return <p className="card p-6">Your catalog offers no wall stone, so there is nothing to design with.</p>;
   }
   const f = (inches: number) => formatLength(inches, design.unit);
+  const sceneInput = plan ? designToSceneInput(plan, design, catalog) : null;
 
   return (
     <div className="flex flex-col gap-6">
@@ -95,7 +96,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
       ) : null}
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="flex min-w-0 flex-col gap-6">
-          {plan ? <PitPreview input={planToSceneInput(plan, design, catalog)} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} /> : null}
+          {sceneInput && plan ? <PitPreview input={sceneInput} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} /> : null}
           {planErrors.length ? (
             <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
               {planErrors.map((e) => e.message).join(" ")}

@@ -8,8 +8,7 @@ import { PitPreview } from "~/components/pit-preview";
 import { FormAlert, SelectField } from "~/components/ui/field";
 import { LEAD_STATUSES, STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
-import { getCompany, listCatalog } from "~/lib/catalog.server";
-import { toCatalogChoice } from "~/lib/configurator.server";
+import { getCompany } from "~/lib/catalog.server";
 import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-list";
 import { refreshStoredPlan } from "~/lib/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design-plan";
@@ -28,13 +27,11 @@ import {
   type DesignVersion,
 } from "~/lib/lead-workspace.server";
 import { formatMoney, formatMoneyWhole } from "~/lib/money";
-import { publicPlan } from "~/lib/plan.server";
 import { describeBreakdown, readBreakdown } from "~/lib/price-breakdown";
 import { requireUser } from "~/lib/session.server";
 import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
 import { listTeam } from "~/lib/team.server";
 import { describeAge, formatZonedDateTime } from "~/lib/zoned-time";
-import type { PublicPlan } from "~/lib/design-plan";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.lead.customerName} · Emberwright` : "Request · Emberwright" }];
 
@@ -46,12 +43,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const lead = await requireLeadFor(user, parseLeadId(params.leadId));
   const isOffice = isOfficeRole(user.role);
-  const [company, revisions, photos, catalogItems] = await Promise.all([
-    getCompany(user.companyId),
-    listRevisions(lead),
-    listPhotos(lead),
-    listCatalog(user.companyId),
-  ]);
+  const [company, revisions, photos] = await Promise.all([getCompany(user.companyId), listRevisions(lead), listPhotos(lead)]);
   const original = originalVersion(lead);
   const versions = [original, ...revisions];
   const wanted = new URL(request.url).searchParams.get("version");
@@ -62,8 +54,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     if (shownIndex < 0) throw new Response("Not found", { status: 404 });
   }
   const shown = versions[shownIndex]!;
-  const catalog = catalogItems.map(toCatalogChoice);
-  const { plan, isLegacy } = await refreshStoredPlan(shown.plan, shown.design.choices, company.slug, catalog);
+  const refreshed = refreshStoredPlan(shown);
+  const { plan } = refreshed;
   const tz = company.timeZone;
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
@@ -96,15 +88,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     })),
     shown: {
       summary: shown.design.summary,
-      sceneInput: planToSceneInput(publicPlan(plan) as PublicPlan, shown.design.choices, catalog),
-      caption: describePreview(publicPlan(plan) as PublicPlan, "in"),
-      cutList: isLegacy ? legacyCutList() : buildCutList(plan),
-      caps: plan.caps,
+      sceneInput: planToSceneInput(plan, shown.design.inputs.engine),
+      caption: describePreview(plan, "in"),
+      cutList: refreshed.isLegacy ? legacyCutList() : buildCutList(refreshed.plan),
+      caps: refreshed.isLegacy ? null : refreshed.plan.caps,
       materials: plan.materials,
       warnings: plan.warnings,
       cautions: crewCautionsOf(plan.cautions),
-      labour: isOffice ? plan.labour : null,
-      unpricedItems: isOffice ? (plan.unpricedItems ?? []) : null,
+      labour: isOffice && !refreshed.isLegacy ? refreshed.plan.labour : null,
+      unpricedItems: isOffice && !refreshed.isLegacy ? refreshed.plan.unpricedItems : null,
       price: isOffice && plan.price ? readBreakdown(plan.price.breakdown) : null,
     },
     timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),

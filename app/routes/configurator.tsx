@@ -9,9 +9,9 @@ import { PitPreview } from "~/components/pit-preview";
 import { PublicShell } from "~/components/public-shell";
 import { formatLength } from "~/domain/units";
 import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
-import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
+import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/configurator.server";
 import { designToSearchParams, parseDesign } from "~/lib/design";
-import { describePreview, planToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
+import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
 import { appOrigin } from "~/lib/email.server";
 import { env } from "~/lib/env.server";
 import { publicFactors, readCompanyFactors } from "~/lib/factor-settings";
@@ -95,6 +95,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const stored = await storeReceivedPhotos(received);
   if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
   const { plan } = result;
+  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
   let lead: Awaited<ReturnType<typeof createLead>>;
   try {
     lead = await createLead({
@@ -103,13 +104,12 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       photos: stored.photos,
       origin: appOrigin(request),
       snapshot: {
-        design: { choices: design, summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in") },
-        plan,
+        record: recordPlan({ design, summary, resolved: result.resolved, plan }),
         stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
         bowlDiameterIn: plan.ring.bowlDiameterIn,
         priceLowCents: plan.price?.lowCents ?? null,
         priceHighCents: plan.price?.highCents ?? null,
-        summary: summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in"),
+        summary,
       },
     });
   } catch (error) {
@@ -153,6 +153,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
 
   const designQuery = designToSearchParams(design).toString();
   const f = (inches: number) => formatLength(inches, design.unit);
+  const sceneInput = plan ? designToSceneInput(plan, design, catalog) : null;
 
   return (
     <PublicShell>
@@ -179,8 +180,8 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
 
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
           <div className="flex min-w-0 flex-col gap-6">
-            {plan ? (
-              <PitPreview input={planToSceneInput(plan, design, catalog)} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} />
+            {sceneInput && plan ? (
+              <PitPreview input={sceneInput} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} />
             ) : null}
             {planErrors.length ? (
               <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">

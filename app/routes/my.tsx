@@ -6,7 +6,6 @@ import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
 import { bookings, companies, leadPhotos, leads } from "~/db/schema";
-import type { DesignSummaryLine } from "~/emails/design-summary";
 import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
@@ -14,6 +13,7 @@ import { listHomeownerLeads } from "~/lib/leads.server";
 import { formId } from "~/lib/form-fields";
 import { formatMoneyWhole } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
+import { readStoredDesign } from "~/lib/stored-plan";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
@@ -32,7 +32,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   return {
     name: user.name,
     requests: rows.map((lead) => {
-      const design = JSON.parse(lead.designJson) as { summary?: DesignSummaryLine[] };
+      const design = readStoredDesign(lead.designJson);
       const company = companyRows.find((c) => c.id === lead.companyId)!;
       const booking = liveBookings.find((b) => b.leadId === lead.id && b.status === "confirmed");
       return {
@@ -42,7 +42,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
-        summary: design.summary ?? [],
+        summary: design.summary,
         price:
           lead.priceLowCents !== null && lead.priceHighCents !== null
             ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`

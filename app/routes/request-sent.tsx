@@ -1,10 +1,10 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/request-sent";
 import { PublicShell } from "~/components/public-shell";
-import type { DesignSummaryLine } from "~/emails/design-summary";
 import { findCompanyBySlug } from "~/lib/catalog.server";
 import { findLeadByRef } from "~/lib/leads.server";
 import { formatMoney, formatMoneyWhole } from "~/lib/money";
+import { readStoredDesign } from "~/lib/stored-plan";
 
 export const meta: Route.MetaFunction = () => [{ title: "Request sent · Emberwright" }];
 
@@ -13,7 +13,7 @@ export async function loader({ params }: Route.LoaderArgs) {
   const company = await findCompanyBySlug(params.companySlug);
   const lead = company ? await findLeadByRef(company.id, params.ref) : null;
   if (!company || !lead) throw new Response("Not found", { status: 404 });
-  const design = JSON.parse(lead.designJson) as { summary?: DesignSummaryLine[] };
+  const design = readStoredDesign(lead.designJson);
   // Nothing here depends on whether the address has an account: the page would tell anyone who
   // typed an address whether it is registered. The e-mail carries the right next step.
   return {
@@ -22,7 +22,7 @@ export async function loader({ params }: Route.LoaderArgs) {
     ref: lead.ref,
     consultFee: formatMoney(company.consultFeeCents),
     firstName: lead.customerName.split(" ")[0],
-    summary: design.summary ?? [],
+    summary: design.summary,
     price:
       lead.priceLowCents !== null && lead.priceHighCents !== null
         ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`

@@ -1,9 +1,9 @@
 /**
  * The 3D pit preview (client only, loaded lazily by components/pit-preview.tsx).
  *
- * One scene unit is one inch (see pit-model.ts). Every repeated part is one instanced mesh, so a pit
- * with closures, caps, a liner and a patio costs at most 8 draw calls: ground, gravel, patio field
- * (or the base pad without a patio), border units, whole wall units, closure units, caps, and
+ * One scene unit is one inch (see app/domain/pit-layout.ts). Every repeated part is one instanced mesh, so a pit
+ * with closures, caps, a liner and a patio costs at most 9 draw calls: ground, gravel, patio field
+ * (or the base pad without a patio), border units and the border's cut piece, whole wall units, closure units, caps, and
  * firebrick or the steel ring.
  * Frames are drawn on demand only: after a change of input, of camera, or of canvas size.
  */
@@ -36,6 +36,7 @@ import {
   STEEL_RING_COLOUR,
   frameCamera,
   measurePit,
+  outlineBorderClosure,
   outlineBorderUnit,
   outlineCap,
   outlineClosureUnit,
@@ -50,7 +51,7 @@ import {
   type PartPlacement,
   type PitSceneInput,
   type PlanPolygon,
-} from "~/scene/pit-model";
+} from "~/domain/pit-layout";
 
 export type PitSceneStats = { drawCalls: number; triangles: number };
 
@@ -218,6 +219,7 @@ function PitParts({ input }: { input: PitSceneInput }) {
   const capOutline = outlineCap(input);
   const brickOutline = outlineFirebrick(input);
   const borderOutline = outlineBorderUnit(input);
+  const borderClosureOutline = outlineBorderClosure(input);
   const wallColour = pickColour(input.wallUnit.colourHex, FALLBACK_COLOURS.wall);
   const patio = input.patio;
   const fieldHex = pickColour(patio?.fieldColourHex, FALLBACK_COLOURS.field);
@@ -278,10 +280,19 @@ function PitParts({ input }: { input: PitSceneInput }) {
           <InstancedPart
             outline={borderOutline}
             heightIn={BORDER_THICKNESS_IN}
-            placements={border}
+            placements={border.whole}
             colourHex={pickColour(patio.borderColourHex, FALLBACK_COLOURS.border)}
             salt={4}
           />
+          {borderClosureOutline && (
+            <InstancedPart
+              outline={borderClosureOutline}
+              heightIn={BORDER_THICKNESS_IN}
+              placements={border.closure}
+              colourHex={pickColour(patio.borderColourHex, FALLBACK_COLOURS.border)}
+              salt={6}
+            />
+          )}
         </group>
       )}
       <InstancedPart outline={wallOutline} heightIn={input.wallUnit.heightIn} placements={walls.whole} colourHex={wallColour} salt={1} />

@@ -107,6 +107,7 @@ test("photo files that no lead names are swept; recorded ones stay", async () =>
   expect(left).not.toContain(other.storedName);
 
   const { createLead } = await import("~/lib/leads.server");
+  const { createTestPlanRecord } = await import("./support/leads");
   const { demoCompany } = await import("./support/demo");
   const { company } = await demoCompany();
   const { leadPhotos } = await import("~/db/schema");
@@ -117,7 +118,7 @@ test("photo files that no lead names are swept; recorded ones stay", async () =>
     form: { customerName: "Pia Lindqvist", email: "pia@example.test", phone: "555 010 3344", street: "9 Fern St", town: "Millbrook Falls", buildWindow: "next-year", notes: "", consent: "on" },
     photos: [kept],
     origin: "http://localhost",
-    snapshot: { design: {}, plan: {}, stoneName: "Test", bowlDiameterIn: 36, priceLowCents: null, priceHighCents: null, summary: [] },
+    snapshot: { record: createTestPlanRecord(), stoneName: "Test", bowlDiameterIn: 36, priceLowCents: null, priceHighCents: null, summary: [] },
   });
   const [recorded] = await db.select().from(leadPhotos);
   expect(await sweepUnrecordedPhotos(-1)).toBe(0);

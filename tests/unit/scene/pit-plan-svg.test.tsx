@@ -4,7 +4,7 @@ import { afterEach, expect, test } from "vitest";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { formatLength } from "~/domain/units";
 import { planRing } from "~/domain/ring";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 afterEach(cleanup);
 
@@ -17,8 +17,21 @@ const INPUT: PitSceneInput = {
   caps: { count: 12, innerWidthIn: 8.38, outerWidthIn: 14.811, innerEdgeDistanceIn: ring.edgeDistanceIn - 2, outerEdgeDistanceIn: ring.edgeDistanceIn + 10, thicknessIn: 2.5, colourHex: "#d6c9b7" },
   liner: { kind: "steel-ring", outsideDiameterIn: 36, heightIn: 10 },
   patio: null,
+  basePadRadiusIn: ring.outsideCornerRadiusIn + 6,
 };
-const PATIO = { outsideRadiusIn: 84, borderWidthIn: 6, borderCount: 42, borderColourHex: "#8c7f70", fieldColourHex: "#c9bca9" };
+// A 7 ft patio of 6 × 12 in border units; the counts are the engine's for this ring (app/domain/patio.ts).
+const PATIO = {
+  outsideRadiusIn: 84,
+  borderWidthIn: 6,
+  borderInnerEdgeDistanceIn: 78,
+  borderWholeCount: 40,
+  borderClosureCount: 1,
+  borderUnitAngleDeg: (2 * Math.atan(12 / (2 * 78)) * 180) / Math.PI,
+  borderUnitLengthIn: 12,
+  lastBorderUnitLengthIn: 2 * 78 * Math.tan((2 * Math.PI - 40 * 2 * Math.atan(12 / 156)) / 2),
+  borderColourHex: "#8c7f70",
+  fieldColourHex: "#c9bca9",
+};
 
 const inches = (n: number) => formatLength(n, "in");
 

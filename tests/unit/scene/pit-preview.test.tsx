@@ -4,7 +4,7 @@ import { renderToString } from "react-dom/server";
 import { afterEach, expect, test } from "vitest";
 import { PitPreview } from "~/components/pit-preview";
 import { formatLength } from "~/domain/units";
-import type { PitSceneInput } from "~/scene/pit-model";
+import type { PitSceneInput } from "~/domain/pit-layout";
 
 afterEach(() => {
   cleanup();
@@ -18,6 +18,7 @@ const INPUT: PitSceneInput = {
   caps: null,
   liner: { kind: "none" },
   patio: null,
+  basePadRadiusIn: 38.7,
 };
 
 const preview = () => (

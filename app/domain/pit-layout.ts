@@ -18,6 +18,7 @@
  * line, whether the ring is face-limited (V-gap at the back) or back-limited (V-joint at the face).
  */
 import { firebrickInnerEdgeDistance } from "~/domain/liner";
+import { EPS } from "~/domain/tolerance";
 
 export type PitSceneInput = {
   wallUnit: { faceIn: number; backIn: number; depthIn: number; heightIn: number; colourHex: string };
@@ -42,13 +43,26 @@ export type PitSceneInput = {
     | { kind: "steel-ring"; outsideDiameterIn: number; heightIn: number }
     /** Bricks on edge: lengthIn along the ring, widthIn upright (one row), heightIn radial. */
     | { kind: "firebrick"; perRow: number; rows: number; lengthIn: number; widthIn: number; heightIn: number };
+  /**
+   * The border course as the engine laid it (app/domain/patio.ts): `borderWholeCount` units each
+   * spanning `borderUnitAngleDeg` (square ends touching at the inner face, or ends cut so they touch
+   * at the outer face), then `borderClosureCount` cut pieces sharing the rest of the circle, each
+   * `lastBorderUnitLengthIn` long at the face that touches; `borderUnitLengthIn` is the unit's own length.
+   */
   patio: null | {
     outsideRadiusIn: number;
     borderWidthIn: number;
-    borderCount: number;
+    borderInnerEdgeDistanceIn: number;
+    borderWholeCount: number;
+    borderClosureCount: number;
+    borderUnitAngleDeg: number;
+    borderUnitLengthIn: number;
+    lastBorderUnitLengthIn: number;
     borderColourHex: string;
     fieldColourHex: string;
   };
+  /** Radius of the compacted base under the pit, from the plan (drawn when there is no patio), in. */
+  basePadRadiusIn: number;
 };
 
 /** A point in plan, in (x east, y north). */
@@ -68,14 +82,7 @@ export type PartPlacement = {
 
 export type WallPlacements = { whole: PartPlacement[]; closures: PartPlacement[] };
 
-/**
- * Joint between border units, in: about 3/16 in where pavers are sanded (common practice, no
- * source). The patio input gives only the unit count, so each unit is drawn as long as the inner
- * circle's chord allows, less this joint.
- */
-export const BORDER_JOINT_IN = 3 / 16;
-
-/** Colours used when an input colour is not a plain #rrggbb string. */
+/** Colours used when an input colour is missing or not a plain #rrggbb string: the one definition. */
 export const FALLBACK_COLOURS = {
   wall: "#978873",
   cap: "#d6c9b7",
@@ -84,18 +91,10 @@ export const FALLBACK_COLOURS = {
 } as const;
 
 /** Firebrick and gravel are not chosen by the contractor; these read as buff brick and grey stone. */
-/**
- * Without a patio the pit stands on its base pad: compacted stone reaching about 6 in past the
- * outside face (common practice, no source). The preview draws it, so it counts in the extent.
- */
-export const BASE_PAD_REACH_IN = 6;
-
 export const FIREBRICK_COLOUR = "#d8b98a";
 export const GRAVEL_COLOUR = "#7d776f";
 export const STEEL_RING_COLOUR = "#4f4843";
 
-// Below this, lengths and angles count as zero: far under anything a saw or a screen can show.
-const EPS = 1e-9;
 
 const DEG = Math.PI / 180;
 
@@ -252,31 +251,48 @@ export function outlineFirebrick(input: PitSceneInput): PlanPolygon | null {
   ];
 }
 
-/** Centre to the middle of the border units' inner faces, R − w (in). */
-export function measureBorderInnerRadius(patio: NonNullable<PitSceneInput["patio"]>): number {
-  return patio.outsideRadiusIn - patio.borderWidthIn;
+type PatioInput = NonNullable<PitSceneInput["patio"]>;
+
+/** Centre to the middle of the border units' inner faces, r = R − w (in), as the engine placed them. */
+export function measureBorderInnerRadius(patio: PatioInput): number {
+  return patio.borderInnerEdgeDistanceIn;
 }
 
-/** Length (in) of each drawn border unit: the inner circle's chord for its share, less one joint. */
-export function measureBorderUnitLength(patio: NonNullable<PitSceneInput["patio"]>): number {
-  const n = wholeCount(patio.borderCount);
-  if (n < 3) return 0;
-  const chord = 2 * measureBorderInnerRadius(patio) * Math.tan(Math.PI / n);
-  return Math.max(0, chord - BORDER_JOINT_IN);
+/** Angle (rad) each closure piece of the border spans: what the whole units leave of the circle, shared. */
+function measureBorderClosureRad(patio: PatioInput): number {
+  const closures = wholeCount(patio.borderClosureCount);
+  if (closures === 0) return 0;
+  return Math.max(0, 2 * Math.PI - wholeCount(patio.borderWholeCount) * patio.borderUnitAngleDeg * DEG) / closures;
 }
 
-/** Local outline of a border unit (in): a rectangle w deep with its inner face at u = 0. Null without a patio. */
-export function outlineBorderUnit(input: PitSceneInput): PlanPolygon | null {
-  const patio = input.patio;
-  if (!patio) return null;
-  const half = measureBorderUnitLength(patio) / 2;
+/**
+ * A border piece (in): a unit `lengthIn` long and w deep, inner face at u = 0, cut along the radial
+ * lines of its share of the circle. Square-ended pieces touch at the inner corners and lose nothing;
+ * pieces laid to touch at the outer face lose their inner corners, as their cut ends do on site.
+ */
+function outlineBorderPiece(patio: PatioInput, lengthIn: number, spanRad: number): PlanPolygon {
+  const half = lengthIn / 2;
   const w = patio.borderWidthIn;
-  return [
+  const piece: PlanPolygon = [
     [0, -half],
     [w, -half],
     [w, half],
     [0, half],
   ];
+  return spanRad > 0 ? clipToWedge(piece, measureBorderInnerRadius(patio), spanRad / 2) : piece;
+}
+
+/** Local outline of a whole border unit (in). Null without a patio. */
+export function outlineBorderUnit(input: PitSceneInput): PlanPolygon | null {
+  const patio = input.patio;
+  return patio ? outlineBorderPiece(patio, patio.borderUnitLengthIn, patio.borderUnitAngleDeg * DEG) : null;
+}
+
+/** Local outline of a cut piece that closes the border course (in). Null without a patio or closures. */
+export function outlineBorderClosure(input: PitSceneInput): PlanPolygon | null {
+  const patio = input.patio;
+  if (!patio || wholeCount(patio.borderClosureCount) === 0) return null;
+  return outlineBorderPiece(patio, patio.lastBorderUnitLengthIn, measureBorderClosureRad(patio));
 }
 
 /** Turn (rad) of a course: every other course turns by the running bond so joints never line up. */
@@ -355,14 +371,25 @@ export function placeFirebrick(input: PitSceneInput): PartPlacement[] {
   return placements;
 }
 
-/** The border course, equally spaced with inner faces at R − w, on the base (scene in, rad). */
-export function placeBorderUnits(input: PitSceneInput): PartPlacement[] {
+export type BorderPlacements = { whole: PartPlacement[]; closure: PartPlacement[] };
+
+/**
+ * The border course on the base (scene in, rad), as the engine laid it: whole unit i centred on
+ * i·θ, then the cut pieces side by side in what is left of the circle (inner faces at r).
+ */
+export function placeBorderUnits(input: PitSceneInput): BorderPlacements {
   const patio = input.patio;
-  if (!patio) return [];
-  const n = wholeCount(patio.borderCount);
-  if (n < 3) return [];
+  if (!patio) return { whole: [], closure: [] };
   const r = measureBorderInnerRadius(patio);
-  return Array.from({ length: n }, (_, i) => placeOnRadius(r, (2 * Math.PI * i) / n, 0, 0));
+  const step = patio.borderUnitAngleDeg * DEG;
+  const wholeUnits = wholeCount(patio.borderWholeCount);
+  const whole = Array.from({ length: wholeUnits }, (_, i) => placeOnRadius(r, i * step, 0, 0));
+  const closureRad = measureBorderClosureRad(patio);
+  const start = (wholeUnits - 0.5) * step;
+  const closure = Array.from({ length: wholeCount(patio.borderClosureCount) }, (_, j) =>
+    placeOnRadius(r, start + (j + 0.5) * closureRad, 0, 0),
+  );
+  return { whole, closure };
 }
 
 /** Farthest a local outline reaches from the centre (in) when its origin sits at `originDistanceIn`. */
@@ -382,7 +409,7 @@ export type PitMeasurements = {
   wallTopIn: number;
   /** Top of the caps (or of the wall without caps), in. */
   topIn: number;
-  /** Radius of the base pad drawn when there is no patio: wall corners + BASE_PAD_REACH_IN, in. */
+  /** Radius of the base pad drawn when there is no patio: the plan's own base radius, in. */
   basePadRadiusIn: number;
   /** Farthest anything reaches from the centre in plan: wall, caps, base pad or patio, in. */
   extentRadiusIn: number;
@@ -401,11 +428,16 @@ export function measurePit(input: PitSceneInput): PitMeasurements {
     measureReach(outlineClosureUnit(input), a),
   );
   const capReach = input.caps ? measureReach(outlineCap(input), input.caps.innerEdgeDistanceIn) : 0;
-  const borderReach = input.patio ? measureReach(outlineBorderUnit(input), measureBorderInnerRadius(input.patio)) : 0;
+  const borderReach = input.patio
+    ? Math.max(
+        measureReach(outlineBorderUnit(input), measureBorderInnerRadius(input.patio)),
+        measureReach(outlineBorderClosure(input), measureBorderInnerRadius(input.patio)),
+      )
+    : 0;
   const wallTopIn = measureWallTopIn(input);
   const n = wholeCount(input.ring.unitCount) + countClosuresPerCourse(input.ring);
   const backCorner = n >= 3 ? a / Math.cos(Math.PI / n) : a;
-  const basePadRadiusIn = wallCornerRadiusIn + BASE_PAD_REACH_IN;
+  const basePadRadiusIn = input.basePadRadiusIn;
   return {
     bowlDiameterIn: 2 * a,
     outsideDiameterIn: 2 * (a + t),
@@ -448,12 +480,17 @@ export function drawPitPlan(input: PitSceneInput): PitPlanDrawing {
   const cap = outlineCap(input);
   const brick = outlineFirebrick(input);
   const border = outlineBorderUnit(input);
+  const borderClosure = outlineBorderClosure(input);
+  const borderPlacements = placeBorderUnits(input);
   return {
     wallUnits: walls.whole.filter(firstCourse).map((p) => toPlanPolygon(unit, p)),
     closureUnits: closure ? walls.closures.filter(firstCourse).map((p) => toPlanPolygon(closure, p)) : [],
     caps: cap ? placeCaps(input).map((p) => toPlanPolygon(cap, p)) : [],
     firebrick: brick ? placeFirebrick(input).filter(firstCourse).map((p) => toPlanPolygon(brick, p)) : [],
-    borderUnits: border ? placeBorderUnits(input).map((p) => toPlanPolygon(border, p)) : [],
+    borderUnits: [
+      ...(border ? borderPlacements.whole.map((p) => toPlanPolygon(border, p)) : []),
+      ...(borderClosure ? borderPlacements.closure.map((p) => toPlanPolygon(borderClosure, p)) : []),
+    ],
     steelRingRadiusIn: input.liner.kind === "steel-ring" ? input.liner.outsideDiameterIn / 2 : null,
     measurements: measurePit(input),
   };

@@ -7,13 +7,15 @@ import { BooleanOperations, Polygon, point } from "@flatten-js/core";
 import fc from "fast-check";
 import { expect, test } from "vitest";
 import { planCaps } from "~/domain/caps";
+import { DEFAULT_FACTORS, resolveFactors } from "~/domain/factors";
+import { planPatio } from "~/domain/patio";
 import { planRing, type WallUnitSize } from "~/domain/ring";
 import {
   FRAME_FILL,
   drawPitPlan,
   frameCamera,
-  measureBorderInnerRadius,
   measurePit,
+  outlineBorderClosure,
   outlineBorderUnit,
   outlineCap,
   outlineClosureUnit,
@@ -29,7 +31,7 @@ import {
   type PartPlacement,
   type PitSceneInput,
   type PlanPolygon,
-} from "~/scene/pit-model";
+} from "~/domain/pit-layout";
 
 // Illustrative tapered unit: 12 in face, 8 in back, 8 in deep, 4 in high.
 const UNIT: WallUnitSize = { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 };
@@ -47,6 +49,8 @@ function inputFor(ring: ReturnType<typeof planRing>, extra: Partial<PitSceneInpu
     caps: null,
     liner: { kind: "none" },
     patio: null,
+    // The engine's base: the wall's outside corners plus the company's reach past them.
+    basePadRadiusIn: ring.outsideCornerRadiusIn + DEFAULT_FACTORS.baseBeyondFaceIn,
     ...extra,
   };
 }
@@ -79,7 +83,35 @@ function withCaps(input: PitSceneInput): PitSceneInput {
 }
 
 const FIREBRICK = { kind: "firebrick", perRow: 11, rows: 3, lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } as const;
-const PATIO = { outsideRadiusIn: 84, borderWidthIn: 6, borderCount: 42, borderColourHex: "#8c7f70", fieldColourHex: "#c9bca9" };
+// A 7 ft patio edged with 6 × 12 in border units round the 14-unit ring, as the engine lays it:
+// with the company's default joint limit the V-joints would open too wide, so every unit's end is
+// cut to touch at the outer face; with a generous limit the units stay square-ended.
+const RING_14 = planRing({ target: { unitCount: 14 }, wallUnit: UNIT, courses: 3 });
+const BORDER_UNIT = { widthIn: 6, lengthIn: 12 };
+const planBorder = (borderMaxJointIn: number) =>
+  planPatio({
+    patio: { outsideRadiusIn: 84, border: BORDER_UNIT, paver: { lengthIn: 8, widthIn: 4 } },
+    pitOutsideEdgeDistanceIn: RING_14.edgeDistanceIn + UNIT.depthIn,
+    pitOutsideCornerRadiusIn: RING_14.outsideCornerRadiusIn,
+    factors: { ...resolveFactors(), borderMaxJointIn },
+  });
+function patioFor(plan: ReturnType<typeof planBorder>) {
+  return {
+    outsideRadiusIn: plan.outsideRadiusIn,
+    borderWidthIn: plan.borderWidthIn,
+    borderInnerEdgeDistanceIn: plan.borderInnerEdgeDistanceIn,
+    borderWholeCount: plan.borderWholeCount,
+    borderClosureCount: plan.borderClosureCount,
+    borderUnitAngleDeg: plan.borderUnitAngleDeg,
+    borderUnitLengthIn: BORDER_UNIT.lengthIn,
+    lastBorderUnitLengthIn: plan.lastBorderUnitLengthIn,
+    borderColourHex: "#8c7f70",
+    fieldColourHex: "#c9bca9",
+  };
+}
+const TAPERED_PLAN = planBorder(DEFAULT_FACTORS.borderMaxJointIn);
+const SQUARE_PLAN = planBorder(2);
+const PATIO = patioFor(TAPERED_PLAN);
 
 const flat = (polygon: PlanPolygon) => new Polygon(polygon.map(([x, y]) => point(x, y)));
 const overlapArea = (p: PlanPolygon, q: PlanPolygon) => BooleanOperations.intersect(flat(p), flat(q)).area();
@@ -240,20 +272,59 @@ test("firebrick count is perRow × rows; rows stack one brick width apart, every
   for (const p of bricks) expect(distance(p)).toBeCloseTo(9 / (2 * Math.tan(Math.PI / 11)), 9);
 });
 
-test("the border course has borderCount units with inner faces at R − w, and no two overlap (flatten-js)", () => {
-  const input = { ...wholeRing(14), patio: PATIO };
-  const border = placeBorderUnits(input);
-  expect(border).toHaveLength(42);
-  for (const p of border) expect(distance(p)).toBeCloseTo(measureBorderInnerRadius(PATIO), 12);
+test("the border is drawn as the engine laid it: its piece count, inner faces at r, no two overlapping (flatten-js)", () => {
+  expect(TAPERED_PLAN.borderLayout).toBe("tapered");
+  expect(SQUARE_PLAN.borderLayout).toBe("square");
+  for (const plan of [TAPERED_PLAN, SQUARE_PLAN]) {
+    const input = { ...wholeRing(14), patio: patioFor(plan) };
+    const { whole, closure } = placeBorderUnits(input);
+    expect(whole.length + closure.length).toBe(plan.borderUnitCount);
+    for (const p of [...whole, ...closure]) expect(distance(p)).toBeCloseTo(plan.borderInnerEdgeDistanceIn, 12);
+    const pieces = drawPitPlan(input).borderUnits;
+    expect(pieces).toHaveLength(plan.borderUnitCount);
+    for (const area of neighbourOverlaps(pieces)) expect(area).toBeLessThan(1e-6);
+  }
+});
+
+const gap = (p: [number, number], q: [number, number]) => Math.hypot(p[0] - q[0], p[1] - q[1]);
+const farthest = (polygon: PlanPolygon) => Math.max(...polygon.map(([x, y]) => Math.hypot(x, y)));
+
+test("square-ended units touch at their inner corners and open the engine's outer V-joint (chord 2w·sin(θ/2), regular polygon)", () => {
+  const input = { ...wholeRing(14), patio: patioFor(SQUARE_PLAN) };
   const outline = outlineBorderUnit(input)!;
-  for (const area of neighbourOverlaps(border.map((p) => toPlanPolygon(outline, p)))) expect(area).toBeLessThan(1e-6);
+  expect(outline).toHaveLength(4);
+  const [first, second] = placeBorderUnits(input).whole.map((p) => toPlanPolygon(outline, p));
+  // Outline corners: [0] inner −v, [1] outer −v, [2] outer +v, [3] inner +v (counter-clockwise).
+  expect(gap(first![3]!, second![0]!)).toBeLessThan(1e-9);
+  const outerGap = gap(first![2]!, second![1]!);
+  expect(outerGap).toBeCloseTo(2 * BORDER_UNIT.widthIn * Math.sin((SQUARE_PLAN.borderUnitAngleDeg * Math.PI) / 360), 9);
+  // The engine states the small-angle form L·w/r; within 1 % here.
+  expect(Math.abs(outerGap / SQUARE_PLAN.borderOuterJointIn - 1)).toBeLessThan(0.01);
+});
+
+test("units cut to touch at the outer face close every joint there, and the course reaches the patio's edge R", () => {
+  const input = { ...wholeRing(14), patio: patioFor(TAPERED_PLAN) };
+  const pieces = drawPitPlan(input).borderUnits.sort((p, q) => byAngle(p) - byAngle(q));
+  for (const piece of pieces) expect(farthest(piece)).toBeLessThanOrEqual(Math.hypot(84, BORDER_UNIT.lengthIn / 2) + 1e-9);
+  const outline = outlineBorderUnit(input)!;
+  const [first, second] = placeBorderUnits(input).whole.map((p) => toPlanPolygon(outline, p));
+  // The outer corners of neighbours meet: the shared radial cut leaves no V.
+  const outerCorners = (polygon: PlanPolygon) => polygon.filter(([x, y]) => Math.abs(Math.hypot(x, y) - Math.hypot(84, 6)) < 1e-6);
+  const [a, b] = [outerCorners(first!), outerCorners(second!)];
+  expect(Math.min(...a.flatMap((p) => b.map((q) => gap(p, q))))).toBeLessThan(1e-9);
+});
+
+test("without a patio the base pad is the plan's own base radius, so a company's reach past the wall shows", () => {
+  const input = { ...wholeRing(14), basePadRadiusIn: RING_14.outsideCornerRadiusIn + 10 };
+  expect(measurePit(input).basePadRadiusIn).toBeCloseTo(RING_14.outsideCornerRadiusIn + 10, 12);
+  expect(measurePit(input).extentRadiusIn).toBeCloseTo(RING_14.outsideCornerRadiusIn + 10, 12);
 });
 
 test("no patio, no caps, no liner: nothing but the wall is placed", () => {
   const input = wholeRing(14);
   expect(placeCaps(input)).toEqual([]);
   expect(placeFirebrick(input)).toEqual([]);
-  expect(placeBorderUnits(input)).toEqual([]);
+  expect(placeBorderUnits(input)).toEqual({ whole: [], closure: [] });
   const plan = drawPitPlan(input);
   expect(plan.wallUnits).toHaveLength(14);
   expect(plan.caps).toEqual([]);
