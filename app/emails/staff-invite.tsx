@@ -21,3 +21,24 @@ export function StaffInviteEmail(props: { companyName: string; name: string; inv
     </EmailShell>
   );
 }
+
+/**
+ * To an address that already has an account elsewhere: the inviting owner is told the invitation
+ * went out (so the team page reveals nothing about other accounts); the person learns why no link
+ * came and what to do.
+ */
+export function StaffInviteAddressInUseEmail(props: { companyName: string; name: string; invitedBy: string }) {
+  return (
+    <EmailShell companyName={props.companyName} preview={`${props.invitedBy} tried to add you to ${props.companyName}'s workspace`}>
+      <Text style={emailText}>Hello {props.name},</Text>
+      <Text style={emailText}>
+        {props.invitedBy} tried to add this address to {props.companyName}'s Emberwright workspace, but it already belongs to
+        another Emberwright account, and one address can hold only one account. Ask {props.invitedBy} to invite you at another
+        address.
+      </Text>
+      <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d", marginTop: "16px" }}>
+        Not expecting this? Ignore it: nothing has changed on your account.
+      </Text>
+    </EmailShell>
+  );
+}

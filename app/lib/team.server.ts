@@ -1,6 +1,6 @@
 import { and, asc, eq, inArray } from "drizzle-orm";
 import { emailOutbox, oneTimeTokens, STAFF_ROLES, users, type Company, type Role } from "~/db/schema";
-import { StaffInviteEmail } from "~/emails/staff-invite";
+import { StaffInviteAddressInUseEmail, StaffInviteEmail } from "~/emails/staff-invite";
 import { db, writeTransaction } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import { endAllSessions, type SessionUser } from "~/lib/session.server";
@@ -48,8 +48,26 @@ export async function inviteStaff(args: {
   origin: string;
 }): Promise<TeamResult> {
   const { owner, company, name, email, role, origin } = args;
-  const [taken] = await db.select({ id: users.id }).from(users).where(eq(users.email, email)).limit(1);
-  if (taken) return { ok: false, status: 400, errors: { email: "That e-mail already belongs to an Emberwright account." } };
+  const sent: TeamResult = { ok: true, message: `Invitation sent to ${email}.` };
+  const [taken] = await db.select({ id: users.id, companyId: users.companyId, role: users.role }).from(users).where(eq(users.email, email)).limit(1);
+  if (taken && taken.companyId === company.id && taken.role !== "homeowner") {
+    // Already on this owner's own team, which the team page lists anyway.
+    return { ok: false, status: 400, errors: { email: "That person is already on your team." } };
+  }
+  if (taken) {
+    // An account elsewhere (another company, or a homeowner): answer as if invited, so the team page
+    // tells no one which addresses have accounts; the address's owner is told by e-mail instead.
+    await db.insert(emailOutbox).values(
+      await prepareOutboxRow({
+        idempotencyKey: `staff-invite-in-use/${company.id}/${taken.id}/${Date.now()}`,
+        companyId: company.id,
+        to: email,
+        subject: `${owner.name} tried to add you to ${company.name} on Emberwright`,
+        template: StaffInviteAddressInUseEmail({ companyName: company.name, name, invitedBy: owner.name }),
+      }),
+    );
+    return sent;
+  }
   const { token, tokenHash } = createToken();
   const mail = await prepareOutboxRow({
     idempotencyKey: `staff-invite/${tokenHash.slice(0, 16)}`,
@@ -71,12 +89,10 @@ export async function inviteStaff(args: {
     });
   } catch (error) {
     // Two invitations for one address at once: the unique index lets only one through.
-    if (String((error as { message?: string })?.message ?? error).includes("UNIQUE")) {
-      return { ok: false, status: 400, errors: { email: "That e-mail already belongs to an Emberwright account." } };
-    }
+    if (String((error as { message?: string })?.message ?? error).includes("UNIQUE")) return sent;
     throw error;
   }
-  return { ok: true, message: `Invitation sent to ${email}.` };
+  return sent;
 }
 
 async function findMember(companyId: number, userId: number) {

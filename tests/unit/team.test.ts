@@ -72,8 +72,26 @@ test("a bad invitation is refused with 400 naming each field, and nothing is cre
     role: "Role must be owner, estimator or crew.",
   });
   const taken = await post({ intent: "invite", name: "Someone Else", email: "crew@cinder-slate.test", role: "crew" });
-  expect(taken).toMatchObject({ status: 400, errors: { email: "That e-mail already belongs to an Emberwright account." } });
+  expect(taken).toMatchObject({ status: 400, errors: { email: "That person is already on your team." } });
   expect(await Promise.all([tableSize(users), tableSize(oneTimeTokens), tableSize(emailOutbox)])).toEqual(before);
+});
+
+test("account probing through invitations: an address with an account at another company or as a homeowner gets the same answer as a new one, and only its owner hears why", async () => {
+  const fresh = await post({ intent: "invite", name: "Fresh Person", email: "fresh.person@example.test", role: "crew" });
+  const otherCompany = await post({ intent: "invite", name: "Probe One", email: "owner@north-ridge.test", role: "crew" });
+  const homeowner = await createStaff("probe.homeowner@example.test", "estimator");
+  await db.update(users).set({ role: "homeowner" }).where(eq(users.id, homeowner.id));
+  const asHomeowner = await post({ intent: "invite", name: "Probe Two", email: "probe.homeowner@example.test", role: "crew" });
+  expect(otherCompany).toEqual(fresh);
+  expect(asHomeowner).toEqual(fresh);
+  // Nothing changed on the existing accounts: no second account, no link for them.
+  const northOwner = await userByEmail("owner@north-ridge.test");
+  expect(northOwner!.role).toBe("owner");
+  expect(await db.select().from(oneTimeTokens).where(eq(oneTimeTokens.userId, northOwner!.id))).toEqual([]);
+  const [notice] = await db.select().from(emailOutbox).where(eq(emailOutbox.toAddress, "owner@north-ridge.test"));
+  expect(notice!.subject).toBe("Maren Okafor tried to add you to Cinder & Slate Outdoor Works on Emberwright");
+  expect(notice!.text).toContain("already belongs to another Emberwright account");
+  expect(notice!.text).not.toContain("/welcome");
 });
 
 test("the owner changes a role, and it applies to that person's next request", async () => {
