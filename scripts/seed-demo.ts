@@ -1,5 +1,5 @@
 import { and, eq } from "drizzle-orm";
-import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
+import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { findLiveBooking, listCompanySlots } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { planForDesign, toCatalogChoice } from "~/lib/configurator.server";
@@ -84,7 +84,8 @@ function designParams(design: SeedDesign, catalog: CatalogItem[]): URLSearchPara
   return params;
 }
 
-const PIPELINE = ["new", "contacted", "consult-booked", "proposal-sent"] as const;
+// The steps a demo job walked to reach its stage (a stopped job stopped after the last one listed).
+const PIPELINE: LeadStatus[] = ["request", "called-back", "consult-booked", "measured", "proposal-out", "signed", "stone-ordered", "build-booked", "built", "paid-in-full"];
 const HOUR_MS = 3_600_000;
 
 /*
@@ -119,7 +120,9 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         companyId,
         ref,
         status: seed.status,
-        lostReason: seed.lostReason ?? null,
+        stopReason: seed.stopReason ?? null,
+        pausedStage: seed.pausedStage ?? null,
+        calledBackAt: seed.status === "request" ? null : at(1),
         assignedUserId: assigneeId,
         crewUserId: crewId,
         customerName: seed.customerName,
@@ -145,13 +148,14 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
       { companyId, leadId, kind: "received", detail: "Request sent from the configurator with 0 photos.", createdAt: at(0) },
     ];
     // Steps spread over the lead's age so the newest step is still in the past.
-    const steps = seed.status === "won" || seed.status === "lost" ? [...PIPELINE.slice(1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
+    const stoppedAt = seed.status === "on-hold" || seed.status === "not-going-ahead" ? (seed.pausedStage ?? "called-back") : null;
+    const steps = stoppedAt ? [...PIPELINE.slice(1, PIPELINE.indexOf(stoppedAt) + 1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
     const span = Math.max(1, seed.ageHours - 1);
     const actorId = assigneeId ?? staffId(staff[0]?.email);
     if (assigneeId !== null) {
       events.push({ companyId, leadId, actorUserId: staffId(DEMO_COMPANIES.find((c) => c.slug === slug)?.staff[0]?.email), kind: "assigned", detail: `Assigned to ${staff.find((s) => s.id === assigneeId)?.name}`, createdAt: at(Math.min(2, span * 0.1)) });
     }
-    let previous: SeedLead["status"] = "new";
+    let previous: LeadStatus = "request";
     steps.forEach((status, i) => {
       const hours = span * ((i + 1) / (steps.length + 1)) + 2;
       events.push({
@@ -159,7 +163,7 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         leadId,
         actorUserId: actorId,
         kind: "status",
-        detail: `${STATUS_LABEL[previous]} → ${STATUS_LABEL[status]}${status === "lost" ? `: ${seed.lostReason}` : ""}`,
+        detail: `${STATUS_LABEL[previous]} → ${STATUS_LABEL[status]}${status === seed.status && seed.stopReason ? `: ${seed.stopReason}` : ""}`,
         createdAt: at(hours),
       });
       previous = status;

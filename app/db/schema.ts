@@ -140,10 +140,16 @@ export const leads = sqliteTable(
     homeownerId: integer("homeowner_id").references(() => users.id),
     // Unguessable handle for the homeowner's confirmation page (ids are sequential).
     ref: text("ref").notNull().unique(),
-    status: text("status", { enum: LEAD_STATUSES }).notNull().default("new"),
-    lostReason: text("lost_reason"),
+    // The job's stage (app/lib/lead-status.ts names them).
+    status: text("status", { enum: LEAD_STATUSES }).notNull().default("request"),
+    // Why a job is on hold or not going ahead (the column kept its first name).
+    stopReason: text("lost_reason"),
+    // The step an on-hold or not-going-ahead job stopped at, so it can pick up there again.
+    pausedStage: text("paused_stage", { enum: LEAD_STATUSES }),
+    // When the office first reached the homeowner; the stage falls back to it when a consult is cancelled.
+    calledBackAt: text("called_back_at"),
     assignedUserId: integer("assigned_user_id").references(() => users.id),
-    // The crew member who builds a won job.
+    // The crew member who builds a signed job.
     crewUserId: integer("crew_user_id").references(() => users.id),
     customerName: text("customer_name").notNull(),
     email: text("email").notNull(),

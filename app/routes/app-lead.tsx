@@ -2,11 +2,11 @@ import { data, Form, Link, redirect, useLocation, useNavigation } from "react-ro
 import type { Route } from "./+types/app-lead";
 import { CapDrawingSvg } from "~/components/cap-drawing-svg";
 import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
-import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { JobProgress } from "~/components/job-progress";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { PitPreview } from "~/components/pit-preview";
 import { FormAlert, SelectField } from "~/components/ui/field";
-import { LEAD_STATUSES, STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { getCompany, listCatalog } from "~/lib/catalog.server";
 import { toCatalogChoice } from "~/lib/configurator.server";
@@ -14,12 +14,13 @@ import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-list";
 import { refreshStoredPlan } from "~/lib/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
-import { BUILD_WINDOW_LABEL, STATUS_LABEL } from "~/lib/lead-status";
+import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
+import { findLiveBooking } from "~/lib/booking.server";
 import {
   addNote,
   assignCrew,
   assignEstimator,
-  changeStatus,
+  changeStage,
   listPhotos,
   listRevisions,
   listTimeline,
@@ -46,11 +47,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const lead = await requireLeadFor(user, parseLeadId(params.leadId));
   const isOffice = isOfficeRole(user.role);
-  const [company, revisions, photos, catalogItems] = await Promise.all([
+  const [company, revisions, photos, catalogItems, booking] = await Promise.all([
     getCompany(user.companyId),
     listRevisions(lead),
     listPhotos(lead),
     listCatalog(user.companyId),
+    findLiveBooking(lead.id),
   ]);
   const original = originalVersion(lead);
   const versions = [original, ...revisions];
@@ -67,12 +69,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const tz = company.timeZone;
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
+  const nextStep = describeNextStep(lead.status, lead.pausedStage, isOffice, {
+    firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
+    consultLabel: booking?.status === "confirmed" ? formatZonedDateTime(booking.startsAt, tz) : null,
+    proposal: null,
+    openChangeOrder: false,
+    stopReason: lead.stopReason,
+  });
+
   return {
     isOffice,
+    nextStep,
+    moves: isOffice ? allowedMoves(lead.status, lead.pausedStage) : [],
     lead: {
       id: lead.id,
       status: lead.status,
-      lostReason: lead.lostReason,
+      stageLabel: STATUS_LABEL[lead.status],
+      pausedStage: lead.pausedStage,
+      isSigned: isSignedStage(lead.status),
+      stopReason: lead.stopReason,
       customerName: lead.customerName,
       // The crew gets the site address and nothing else of the customer's contact details.
       email: isOffice ? lead.email : null,
@@ -123,13 +138,13 @@ export async function action({ request, params }: Route.ActionArgs) {
   const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
   const parsed = leadActionSchema.safeParse(fields);
   if (!parsed.success) {
-    return data({ intent: fields.intent ?? null, errors: leadActionErrors(parsed.error) }, { status: 400 });
+    return data({ intent: fields.intent ?? null, fields, errors: leadActionErrors(parsed.error) }, { status: 400 });
   }
   const input = parsed.data;
   let result: ActionResult;
   switch (input.intent) {
     case "status":
-      result = await changeStatus(user, lead, input.status, input.lostReason);
+      result = await changeStage(user, lead, input.status, input.reason);
       break;
     case "note":
       result = await addNote(user, lead, input.note);
@@ -141,7 +156,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       result = await assignCrew(user, lead, input.crewUserId);
       break;
   }
-  if (!result.ok) return data({ intent: input.intent as string | null, errors: result.errors }, { status: result.status });
+  if (!result.ok) return data({ intent: input.intent as string | null, fields, errors: result.errors }, { status: result.status });
   return redirect(`/app/leads/${lead.id}`);
 }
 
@@ -156,7 +171,7 @@ const kindLabel: Record<string, string> = {
 };
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, isOffice, shown, versions, photos, timeline, team } = loaderData;
+  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves } = loaderData;
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   const navigation = useNavigation();
@@ -173,12 +188,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           <Link to={isOffice ? "/app/inbox" : "/app/jobs"} className="text-sm font-bold text-ember-700 hover:underline">
             ← {isOffice ? "Inbox" : "My jobs"}
           </Link>
-          <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-extrabold">
-            {lead.customerName} <LeadStatusBadge status={lead.status} />
-          </h1>
+          <h1 className="mt-1 text-2xl font-extrabold">{lead.customerName}</h1>
           <p className="text-sm text-char-600">
-            Request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
-            {lead.status === "lost" && lead.lostReason ? ` · Lost: ${lead.lostReason}` : ""}
+            {lead.town} · request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
@@ -195,6 +207,17 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           ) : null}
         </div>
       </div>
+
+      <section aria-labelledby="next-step-title" className="card flex flex-col gap-4 border-l-4 border-l-ember-500 p-5">
+        <div>
+          <p className="text-xs font-extrabold tracking-widest text-char-600 uppercase">
+            Next step <span className="sr-only">· stage: {lead.stageLabel}</span>
+          </p>
+          <h2 id="next-step-title" className="text-xl font-extrabold">{nextStep.title}</h2>
+          {nextStep.detail ? <p className="mt-1 text-sm text-char-700">{nextStep.detail}</p> : null}
+        </div>
+        <JobProgress stage={lead.status} pausedStage={lead.pausedStage} />
+      </section>
 
       {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
 
@@ -347,30 +370,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           {isOffice && team ? (
             <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
               <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
-              <Form key={`${formKey}-status`} method="post" className="flex flex-col gap-2" noValidate>
-                <input type="hidden" name="intent" value="status" />
-                <SelectField label="Status" name="status" defaultValue={lead.status} error={errorsFor("status").status}>
-                  {LEAD_STATUSES.map((s) => (
-                    <option key={s} value={s}>{STATUS_LABEL[s]}</option>
-                  ))}
-                </SelectField>
-                <label htmlFor="lost-reason" className="field-label">Reason, if lost</label>
-                <input
-                  id="lost-reason"
-                  name="lostReason"
-                  defaultValue={lead.lostReason ?? ""}
-                  maxLength={200}
-                  aria-invalid={errorsFor("status").lostReason ? true : undefined}
-                  aria-describedby={errorsFor("status").lostReason ? "lost-reason-error" : "lost-reason-hint"}
-                  className="field-input"
-                />
-                {errorsFor("status").lostReason ? (
-                  <p id="lost-reason-error" className="field-error">{errorsFor("status").lostReason}</p>
-                ) : (
-                  <p id="lost-reason-hint" className="field-hint">Needed only when the job is lost.</p>
-                )}
-                <button type="submit" className="btn-primary self-start" disabled={isBusy}>Change status</button>
-              </Form>
+              <StageForm key={`${formKey}-status`} stageLabel={lead.stageLabel} moves={moves} errors={errorsFor("status")} submitted={actionData?.intent === "status" ? actionData.fields : null} isBusy={isBusy} />
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
@@ -383,7 +383,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Assign</button>
               </Form>
 
-              {lead.status === "won" ? (
+              {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
                   <SelectField label="Crew" name="crewUserId" defaultValue={lead.crewUserId === null ? "" : String(lead.crewUserId)} error={errorsFor("crew").crewUserId}>
@@ -395,7 +395,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Give the job to the crew</button>
                 </Form>
               ) : (
-                <p className="text-sm text-char-600">Once the job is won, give it to a crew here.</p>
+                <p className="text-sm text-char-600">Once the job is signed and the deposit paid, give it to a crew here.</p>
               )}
 
               <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
@@ -441,6 +441,49 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
 
 type LeadView = Route.ComponentProps["loaderData"]["lead"];
+
+/** Moves the job by hand; a refused move keeps what was chosen and typed. */
+function StageForm({
+  stageLabel,
+  moves,
+  errors,
+  submitted,
+  isBusy,
+}: {
+  stageLabel: string;
+  moves: { to: string; label: string; needsReason: boolean }[];
+  errors: Record<string, string>;
+  submitted: Record<string, string> | null;
+  isBusy: boolean;
+}) {
+  if (moves.length === 0) return <p className="text-sm text-char-600">Stage: {stageLabel}. It moves on with the next step above.</p>;
+  return (
+    <Form method="post" className="flex flex-col gap-2" noValidate>
+      <input type="hidden" name="intent" value="status" />
+      <SelectField label={`Move the job (now: ${stageLabel})`} name="status" defaultValue={submitted?.status ?? moves[0]!.to} error={errors.status}>
+        {moves.map((m) => (
+          <option key={m.to} value={m.to}>{m.label}</option>
+        ))}
+      </SelectField>
+      <label htmlFor="stage-reason" className="field-label">Why (for on hold or not going ahead)</label>
+      <input
+        id="stage-reason"
+        name="reason"
+        defaultValue={submitted?.reason ?? ""}
+        maxLength={200}
+        aria-invalid={errors.reason ? true : undefined}
+        aria-describedby={errors.reason ? "stage-reason-error" : "stage-reason-hint"}
+        className="field-input"
+      />
+      {errors.reason ? (
+        <p id="stage-reason-error" className="field-error">{errors.reason}</p>
+      ) : (
+        <p id="stage-reason-hint" className="field-hint">Consult, visit, proposal and deposit move the job by themselves.</p>
+      )}
+      <button type="submit" className="btn-primary self-start" disabled={isBusy}>Move the job</button>
+    </Form>
+  );
+}
 
 function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean }) {
   return (

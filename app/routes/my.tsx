@@ -55,7 +55,8 @@ export async function loader({ request }: Route.LoaderArgs) {
               canCancel: new Date(booking.startsAt).getTime() - now >= HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000,
             }
           : null,
-        isOpen: lead.status !== "won" && lead.status !== "lost",
+        // A consult is booked before the visit; later stages have had theirs.
+        isOpen: lead.status === "request" || lead.status === "called-back",
       };
     }),
   };

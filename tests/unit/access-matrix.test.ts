@@ -62,7 +62,7 @@ beforeAll(async () => {
   cookies.homeowner = (await startSession(homeowner!.id)).split(";")[0];
   cookies.anonymous = undefined;
   const byRef = async (ref: string) => (await db.select().from(leads).where(eq(leads.ref, ref)))[0]!;
-  // The seed gives the demo crew member one won job (Tobias Wren); Wendell Ashgrove's request is new.
+  // The seed gives the demo crew member one signed job (Tobias Wren); Wendell Ashgrove's request is new.
   const won = await byRef("demo-cinder-slate-10");
   const fresh = await byRef("demo-cinder-slate-02");
   const [crewUser] = await db.select().from(users).where(eq(users.email, "crew@cinder-slate.test"));
@@ -178,7 +178,7 @@ const CASES: Case[] = [
     expected: { owner: "200", estimator: "200", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "200" },
   },
   {
-    name: "GET /app/leads/:id (the crew's won job)",
+    name: "GET /app/leads/:id (the crew's signed job)",
     call: (c) => leadLoader(routeArgs(get(`/app/leads/${lead()}`, c), { leadId: lead() })),
     expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
   },
