@@ -23,6 +23,7 @@ export default [
       route("inbox", "routes/app-inbox.tsx"),
       route("leads/:leadId", "routes/app-lead.tsx"),
       route("leads/:leadId/design", "routes/app-lead-design.tsx"),
+      route("leads/:leadId/visit", "routes/app-lead-visit.tsx"),
       route("jobs", "routes/app-jobs.tsx"),
       route("team", "routes/app-team.tsx"),
       route("schedule", "routes/app-schedule.tsx"),

@@ -49,3 +49,9 @@ export const SIGNED_STAGES = ["signed", "stone-ordered", "build-booked", "built"
 
 export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
 export type BuildWindow = (typeof BUILD_WINDOWS)[number];
+
+// The site visit's choices (labels in app/lib/site-visit-schema.ts).
+export const SLOPES = ["level", "gentle", "steep"] as const;
+export const SOILS = ["sand", "loam", "clay", "rock", "fill"] as const;
+export const UTILITY_MARKS = ["marked-clear", "marked-near", "not-marked-yet"] as const;
+export const SPOIL_PLANS = ["haul-away", "spread-on-site", "pile-for-homeowner"] as const;

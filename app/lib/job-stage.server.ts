@@ -1,5 +1,5 @@
 import { and, eq, inArray, sql, type SQL } from "drizzle-orm";
-import { bookings, leads, type LeadStatus } from "~/db/schema";
+import { bookings, leads, siteVisits, type LeadStatus } from "~/db/schema";
 import { db } from "~/lib/db.server";
 
 /*
@@ -15,6 +15,7 @@ const UNDOABLE: LeadStatus[] = ["consult-booked", "measured", "proposal-out"];
 function fallbackStage(leadId: number, ignoreBookingId: number | null): SQL {
   const otherConsult = ignoreBookingId === null ? sql`` : sql` AND ${bookings.id} <> ${ignoreBookingId}`;
   return sql`(CASE
+    WHEN EXISTS (SELECT 1 FROM ${siteVisits} WHERE ${siteVisits.leadId} = ${leadId}) THEN 'measured'
     WHEN EXISTS (SELECT 1 FROM ${bookings} WHERE ${bookings.leadId} = ${leadId} AND ${bookings.status} = 'confirmed'${otherConsult}) THEN 'consult-booked'
     WHEN ${leads.calledBackAt} IS NOT NULL THEN 'called-back'
     ELSE 'request' END)`;

@@ -102,7 +102,7 @@ export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
 
 export function listPhotos(lead: Lead) {
   return db
-    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName })
+    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName, source: leadPhotos.source })
     .from(leadPhotos)
     .where(and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId)))
     .orderBy(asc(leadPhotos.id));

@@ -16,6 +16,10 @@ import { describePreview, planToSceneInput } from "~/lib/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
 import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
 import { findLiveBooking } from "~/lib/booking.server";
+import { checkSite } from "~/domain/site-checks";
+import { getProposalTerms } from "~/lib/proposal-terms.server";
+import { findSiteVisit } from "~/lib/site-visit.server";
+import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL } from "~/lib/site-visit-schema";
 import {
   addNote,
   assignCrew,
@@ -47,12 +51,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const lead = await requireLeadFor(user, parseLeadId(params.leadId));
   const isOffice = isOfficeRole(user.role);
-  const [company, revisions, photos, catalogItems, booking] = await Promise.all([
+  const [company, revisions, photos, catalogItems, booking, visit, terms] = await Promise.all([
     getCompany(user.companyId),
     listRevisions(lead),
     listPhotos(lead),
     listCatalog(user.companyId),
     findLiveBooking(lead.id),
+    findSiteVisit(lead),
+    getProposalTerms(user.companyId),
   ]);
   const original = originalVersion(lead);
   const versions = [original, ...revisions];
@@ -102,6 +108,23 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       crewUserId: lead.crewUserId,
     },
     photos,
+    visit: visit
+      ? {
+          lines: [
+            ["Nearest structure", `${visit.structureFt} ft`],
+            ["Property line", `${visit.propertyLineFt} ft`],
+            ["Overhanging branches", visit.branchesFt === null ? "None over the spot" : `${visit.branchesFt} ft`],
+            ["Slope", SLOPE_LABEL[visit.slope]],
+            ["Soil", SOIL_LABEL[visit.soil]],
+            ["Access width", `${visit.accessWidthIn} in`],
+            ["Utility marks", UTILITY_LABEL[visit.utilityMarks]],
+            ["Dug soil", SPOIL_LABEL[visit.spoil]],
+          ] as [string, string][],
+          notes: visit.notes,
+          checks: checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map((c) => c.message),
+          when: formatZonedDateTime(visit.updatedAt, tz),
+        }
+      : null,
     versions: versions.map((v, i) => ({
       key: v.revisionId === null ? "original" : String(v.revisionId),
       label: versionLabel(v, i),
@@ -171,7 +194,7 @@ const kindLabel: Record<string, string> = {
 };
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves } = loaderData;
+  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit } = loaderData;
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   const navigation = useNavigation();
@@ -217,6 +240,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           {nextStep.detail ? <p className="mt-1 text-sm text-char-700">{nextStep.detail}</p> : null}
         </div>
         <JobProgress stage={lead.status} pausedStage={lead.pausedStage} />
+        {isOffice && !visit && !lead.isSigned ? (
+          <Link to={`/app/leads/${lead.id}/visit`} className="btn-quiet self-start">Record the site visit</Link>
+        ) : null}
       </section>
 
       {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
@@ -224,6 +250,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:grid-rows-[auto_1fr]">
         <div className="flex min-w-0 flex-col gap-6 lg:col-start-2 lg:row-start-1">
           <CustomerCard lead={lead} isOffice={isOffice} />
+          {visit ? <SiteVisitCard visit={visit} leadId={lead.id} isOffice={isOffice} /> : null}
           <PhotoList photos={photos} />
         </div>
 
@@ -511,7 +538,37 @@ function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean })
   );
 }
 
-function PhotoList({ photos }: { photos: { id: number; originalName: string }[] }) {
+function SiteVisitCard({ visit, leadId, isOffice }: { visit: NonNullable<Route.ComponentProps["loaderData"]["visit"]>; leadId: number; isOffice: boolean }) {
+  return (
+    <section aria-labelledby="visit-title" className="card p-5 text-sm">
+      <div className="flex items-baseline justify-between gap-2">
+        <h2 id="visit-title" className="text-lg font-extrabold">Site visit</h2>
+        {isOffice ? <Link to={`/app/leads/${leadId}/visit`} className="font-bold text-ember-700 underline">Edit</Link> : null}
+      </div>
+      <p className="text-xs text-char-600">Measured {visit.when}; these replace the homeowner's guesses.</p>
+      <dl className="mt-2 grid gap-1">
+        {visit.lines.map(([label, value]) => (
+          <div key={label} className="flex flex-wrap gap-x-2">
+            <dt className="font-bold text-char-700">{label}:</dt>
+            <dd>{value}</dd>
+          </div>
+        ))}
+      </dl>
+      {visit.notes ? <p className="mt-2 border-l-3 border-ash-300 pl-3 whitespace-pre-line text-char-700">{visit.notes}</p> : null}
+      {visit.checks.length ? (
+        <ul className="mt-3 list-disc rounded-lg border border-ember-300 bg-ember-50 py-2 pr-3 pl-7">
+          {visit.checks.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mt-3 font-semibold text-moss-700">Setback, access and ground check out.</p>
+      )}
+    </section>
+  );
+}
+
+function PhotoList({ photos }: { photos: { id: number; originalName: string; source: "homeowner" | "site-visit" }[] }) {
   return (
     <section aria-labelledby="photos-title" className="card p-5">
       <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
@@ -520,8 +577,9 @@ function PhotoList({ photos }: { photos: { id: number; originalName: string }[] 
           {photos.map((p) => (
             <li key={p.id}>
               <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
-                <img src={`/photos/${p.id}`} alt={`Yard photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
+                <img src={`/photos/${p.id}`} alt={`${p.source === "site-visit" ? "Site visit" : "Homeowner's"} photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
               </a>
+              <p className="mt-0.5 text-xs text-char-600">{p.source === "site-visit" ? "At the visit" : "From the homeowner"}</p>
             </li>
           ))}
         </ul>

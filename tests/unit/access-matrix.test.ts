@@ -28,6 +28,7 @@ import { loader as jobsLoader } from "~/routes/app-jobs";
 import { loader as layoutLoader } from "~/routes/app-layout";
 import { loader as scheduleLoader } from "~/routes/app-schedule";
 import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
+import { action as visitAction, loader as visitLoader } from "~/routes/app-lead-visit";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -108,7 +109,7 @@ type Case = {
 const get = (url: string, cookie: string | undefined) => requestWithCookie(url, cookie);
 const post = (url: string, cookie: string | undefined, fields: Record<string, string>) => {
   const body = new URLSearchParams(fields);
-  return requestWithCookie(url, cookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } });
+  return requestWithCookie(url, cookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded", "Content-Length": String(body.toString().length) } });
 };
 const lead = () => String(ids.wonLead);
 
@@ -211,6 +212,16 @@ const CASES: Case[] = [
     name: "GET /app/leads/:id/design",
     call: (c) => designLoader(routeArgs(get(`/app/leads/${lead()}/design`, c), { leadId: lead() })),
     expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/visit",
+    call: (c) => visitLoader(routeArgs(get(`/app/leads/${lead()}/visit`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/visit (an empty form)",
+    call: (c) => visitAction(routeArgs(post(`/app/leads/${lead()}/visit`, c, {}), { leadId: lead() })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
   },
   {
     name: "GET /app/jobs",
