@@ -16,6 +16,10 @@ import { describePreview, planToSceneInput } from "~/lib/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
 import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
 import { findLiveBooking } from "~/lib/booking.server";
+import { jobTotalsFor } from "~/lib/change-orders.server";
+import { parseProposalDocument, PROPOSAL_STATE_LABEL } from "~/lib/proposal-document";
+import { requestDepositRefund } from "~/lib/proposal-payments.server";
+import { listProposals } from "~/lib/proposals.server";
 import { checkSite } from "~/domain/site-checks";
 import { getProposalTerms } from "~/lib/proposal-terms.server";
 import { findSiteVisit } from "~/lib/site-visit.server";
@@ -75,11 +79,15 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const tz = company.timeZone;
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
+  const allProposals = isOffice ? await listProposals(lead) : [];
+  const mainProposal = allProposals.find((p) => p.kind === "proposal" && (p.status === "sent" || p.status === "accepted" || p.status === "signed")) ?? null;
+  const signedProposal = allProposals.find((p) => p.kind === "proposal" && p.status === "signed") ?? null;
+  const totals = signedProposal ? await jobTotalsFor(signedProposal) : null;
   const nextStep = describeNextStep(lead.status, lead.pausedStage, isOffice, {
     firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
     consultLabel: booking?.status === "confirmed" ? formatZonedDateTime(booking.startsAt, tz) : null,
-    proposal: null,
-    openChangeOrder: false,
+    proposal: mainProposal ? { state: mainProposal.status as "sent" | "accepted" | "signed", opened: mainProposal.firstOpenedAt !== null } : null,
+    openChangeOrder: allProposals.some((p) => p.kind === "change-order" && p.status === "sent"),
     stopReason: lead.stopReason,
   });
 
@@ -87,6 +95,30 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     isOffice,
     nextStep,
     moves: isOffice ? allowedMoves(lead.status, lead.pausedStage) : [],
+    isOwner: user.role === "owner",
+    proposals: allProposals.map((p) => {
+      const document = parseProposalDocument(p.documentJson);
+      return {
+        id: p.id,
+        kind: p.kind,
+        number: document.number,
+        status: p.status,
+        stateLabel: PROPOSAL_STATE_LABEL[p.status],
+        href: `/p/${p.token}`,
+        amount: formatMoney(p.kind === "change-order" ? p.priceCents : (p.totalCents ?? p.priceCents)),
+        sent: formatZonedDateTime(p.sentAt, tz),
+        opened: p.firstOpenedAt ? `opened ${p.openCount} time${p.openCount === 1 ? "" : "s"}, last ${formatZonedDateTime(p.lastOpenedAt!, tz)}` : "not opened yet",
+        signed: p.signedAt ? `signed by ${p.signerName}, ${formatZonedDateTime(p.signedAt, tz)}` : null,
+        deposit: p.depositPaidAt && p.depositCents ? `deposit ${formatMoney(p.depositCents)} paid` : null,
+        refund: p.refundOwedAt ? `deposit refunded${p.refundedAt ? "" : " (on its way)"}: ${p.refundReason}` : null,
+        canWithdraw: p.status === "sent" || p.status === "accepted",
+        canRefund: p.kind === "proposal" && p.status === "signed" && p.paymentIntentId !== null && p.refundOwedAt === null,
+        expires: p.status === "sent" || p.status === "accepted" ? formatZonedDateTime(p.expiresAt, tz) : null,
+      };
+    }),
+    totals: totals
+      ? { contract: formatMoney(totals.contractCents), deposit: formatMoney(totals.depositCents), balance: totals.balanceCents >= 0 ? formatMoney(totals.balanceCents) : `${formatMoney(-totals.balanceCents)} credit` }
+      : null,
     lead: {
       id: lead.id,
       status: lead.status,
@@ -178,6 +210,15 @@ export async function action({ request, params }: Route.ActionArgs) {
     case "crew":
       result = await assignCrew(user, lead, input.crewUserId);
       break;
+    case "refund": {
+      if (user.role !== "owner") {
+        result = { ok: false, status: 403, errors: { reason: "Only an owner can refund a deposit." } };
+        break;
+      }
+      const refused = await requestDepositRefund({ actorUserId: user.id, lead, proposalId: input.proposalId, reason: input.reason });
+      result = refused ? { ok: false, status: 409, errors: { reason: refused } } : { ok: true };
+      break;
+    }
   }
   if (!result.ok) return data({ intent: input.intent as string | null, fields, errors: result.errors }, { status: result.status });
   return redirect(`/app/leads/${lead.id}`);
@@ -194,7 +235,7 @@ const kindLabel: Record<string, string> = {
 };
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit } = loaderData;
+  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit, proposals, totals, isOwner } = loaderData;
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   const navigation = useNavigation();
@@ -240,8 +281,17 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           {nextStep.detail ? <p className="mt-1 text-sm text-char-700">{nextStep.detail}</p> : null}
         </div>
         <JobProgress stage={lead.status} pausedStage={lead.pausedStage} />
-        {isOffice && !visit && !lead.isSigned ? (
-          <Link to={`/app/leads/${lead.id}/visit`} className="btn-quiet self-start">Record the site visit</Link>
+        {isOffice ? (
+          <div className="flex flex-wrap gap-2">
+            {!visit && !lead.isSigned ? <Link to={`/app/leads/${lead.id}/visit`} className={lead.status === "consult-booked" ? "btn-primary" : "btn-quiet"}>Record the site visit</Link> : null}
+            {!lead.isSigned ? (
+              <Link to={`/app/leads/${lead.id}/proposal`} className={lead.status === "measured" ? "btn-primary" : "btn-quiet"}>
+                {proposals.some((p) => p.kind === "proposal" && p.canWithdraw) ? "Send a new proposal" : "Write the proposal"}
+              </Link>
+            ) : (
+              <Link to={`/app/leads/${lead.id}/change-order`} className="btn-quiet">Send a change order</Link>
+            )}
+          </div>
         ) : null}
       </section>
 
@@ -443,6 +493,10 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
             </section>
           ) : null}
 
+          {isOffice && (proposals.length || totals) ? (
+            <ProposalsCard leadId={lead.id} proposals={proposals} totals={totals} isOwner={isOwner} errors={errorsFor("refund")} isBusy={isBusy} />
+          ) : null}
+
           {isOffice ? (
             <section aria-labelledby="timeline-title" className="card p-5">
               <h2 id="timeline-title" className="text-lg font-extrabold">Timeline</h2>
@@ -468,6 +522,68 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
 
 type LeadView = Route.ComponentProps["loaderData"]["lead"];
+type ProposalView = Route.ComponentProps["loaderData"]["proposals"][number];
+
+/** The job's proposals and change orders: where each stands, and what the office can do with it. */
+function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: { leadId: number; proposals: ProposalView[]; totals: { contract: string; deposit: string; balance: string } | null; isOwner: boolean; errors: Record<string, string>; isBusy: boolean }) {
+  return (
+    <section aria-labelledby="proposals-title" className="card flex flex-col gap-3 p-5 text-sm">
+      <h2 id="proposals-title" className="text-lg font-extrabold">Proposal and changes</h2>
+      {totals ? (
+        <dl className="grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-ash-100 p-3">
+          <dt className="font-bold">Job total</dt>
+          <dd className="text-right tabular-nums">{totals.contract}</dd>
+          <dt className="font-bold">Deposit paid</dt>
+          <dd className="text-right tabular-nums">{totals.deposit}</dd>
+          <dt className="font-bold">Balance on completion</dt>
+          <dd className="text-right tabular-nums">{totals.balance}</dd>
+        </dl>
+      ) : null}
+      <ul className="flex flex-col gap-3">
+        {proposals.map((p) => (
+          <li key={p.id} className="border-l-3 border-ash-300 pl-3">
+            <p className="font-bold">
+              <a href={p.href} className="text-ember-700 underline">{p.number}</a>: {p.stateLabel}
+            </p>
+            <p>
+              {p.amount} · sent {p.sent} · {p.opened}
+            </p>
+            {p.signed ? <p>{p.signed}</p> : null}
+            {p.deposit ? <p>{p.deposit}</p> : null}
+            {p.refund ? <p>{p.refund}</p> : null}
+            {p.expires ? <p className="text-char-600">Open to sign until {p.expires}</p> : null}
+            <p>
+              <a href={`${p.href}.pdf`} download className="font-bold text-ember-700 underline">PDF</a>
+            </p>
+            {p.canWithdraw ? (
+              <Form method="post" action={`/app/leads/${leadId}/proposal`} className="mt-1 flex flex-wrap items-end gap-2">
+                <input type="hidden" name="intent" value="withdraw" />
+                <input type="hidden" name="proposalId" value={p.id} />
+                <label className="flex flex-col text-xs font-bold">
+                  Why withdraw {p.number}
+                  <input name="reason" required minLength={3} maxLength={200} className="field-input text-sm" />
+                </label>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>Withdraw</button>
+              </Form>
+            ) : null}
+            {p.canRefund && isOwner ? (
+              <Form method="post" className="mt-1 flex flex-wrap items-end gap-2">
+                <input type="hidden" name="intent" value="refund" />
+                <input type="hidden" name="proposalId" value={p.id} />
+                <label className="flex flex-col text-xs font-bold">
+                  Reason for refunding the deposit
+                  <input name="reason" maxLength={200} aria-invalid={errors.reason ? true : undefined} className="field-input text-sm" />
+                </label>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>Refund the deposit</button>
+                {errors.reason ? <p className="field-error w-full">{errors.reason}</p> : null}
+              </Form>
+            ) : null}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
 
 /** Moves the job by hand; a refused move keeps what was chosen and typed. */
 function StageForm({
