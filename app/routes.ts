@@ -22,6 +22,7 @@ export default [
       route("catalog/:itemId", "routes/app-catalog-item.tsx", { id: "catalog-edit" }),
       route("settings", "routes/app-settings.tsx"),
       route("settings/factors", "routes/app-factors.tsx"),
+      route("settings/proposals", "routes/app-settings-proposals.tsx"),
       route("inbox", "routes/app-inbox.tsx"),
       route("leads/:leadId", "routes/app-lead.tsx"),
       route("leads/:leadId/design", "routes/app-lead-design.tsx"),

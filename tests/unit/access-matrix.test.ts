@@ -29,6 +29,14 @@ import { loader as layoutLoader } from "~/routes/app-layout";
 import { loader as scheduleLoader } from "~/routes/app-schedule";
 import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
 import { action as visitAction, loader as visitLoader } from "~/routes/app-lead-visit";
+import { action as composeAction, loader as composeLoader } from "~/routes/app-lead-proposal";
+import { action as changeOrderAction, loader as changeOrderLoader } from "~/routes/app-lead-change-order";
+import { loader as termsLoader } from "~/routes/app-settings-proposals";
+import { loader as proposalPageLoader } from "~/routes/proposal";
+import { loader as proposalPdfLoader } from "~/routes/proposal-pdf";
+import { loader as myLoader } from "~/routes/my";
+import { getCompany } from "~/lib/catalog.server";
+import { sendProposal } from "~/lib/proposals.server";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -40,7 +48,7 @@ type Who = "owner" | "estimator" | "crew" | "homeowner" | "anonymous" | "other c
 const WHO: Who[] = ["owner", "estimator", "crew", "homeowner", "anonymous", "other company's owner"];
 
 const cookies = {} as Record<Who, string | undefined>;
-const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0 };
+const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "" };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
   const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
@@ -74,6 +82,16 @@ beforeAll(async () => {
   ids.wonPhoto = await addPhoto(company.id, won.id);
   ids.otherPhoto = await addPhoto(company.id, fresh.id);
   ids.estimator = (await db.select().from(users).where(eq(users.email, "estimator@cinder-slate.test")))[0]!.id;
+  // A proposal sent on the new request: its link is the homeowner's credential.
+  const [estimator] = await db.select().from(users).where(eq(users.id, ids.estimator));
+  const proposal = await sendProposal({
+    user: { ...estimator!, sessionId: "matrix" },
+    lead: fresh,
+    company: await getCompany(company.id),
+    input: { fixedPriceCents: 480_000, addOns: [], validUntil: "2099-12-31", included: "Base", excluded: "Permits" },
+    origin: "http://localhost",
+  });
+  ids.token = proposal.token;
 });
 
 /** What a person would see: "200", "403", "404", "sign-in", or "redirect <path>". */
@@ -222,6 +240,52 @@ const CASES: Case[] = [
     name: "POST /app/leads/:id/visit (an empty form)",
     call: (c) => visitAction(routeArgs(post(`/app/leads/${lead()}/visit`, c, {}), { leadId: lead() })),
     expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/proposal",
+    call: (c) => composeLoader(routeArgs(get(`/app/leads/${ids.otherLead}/proposal`, c), { leadId: String(ids.otherLead) })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/proposal (an empty form)",
+    call: (c) => composeAction(routeArgs(post(`/app/leads/${ids.otherLead}/proposal`, c, {}), { leadId: String(ids.otherLead) })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/change-order",
+    call: (c) => changeOrderLoader(routeArgs(get(`/app/leads/${lead()}/change-order`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/change-order (an empty form)",
+    call: (c) => changeOrderAction(routeArgs(post(`/app/leads/${lead()}/change-order`, c, {}), { leadId: lead() })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/settings/proposals",
+    call: (c) => termsLoader(routeArgs(get("/app/settings/proposals", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    // The unguessable link is the credential, as with a shared document: whoever holds it may read it.
+    name: "GET /p/:token",
+    call: (c) => proposalPageLoader(routeArgs(get(`/p/${ids.token}`, c), { token: ids.token })),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+  },
+  {
+    name: "GET /p/:token.pdf",
+    call: (c) => proposalPdfLoader(routeArgs(get(`/p/${ids.token}.pdf`, c), { token: ids.token })),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+  },
+  {
+    name: "GET /p/:token (a guessed token)",
+    call: (c) => proposalPageLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
+    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
+  },
+  {
+    name: "GET /p/:token.pdf (a guessed token)",
+    call: (c) => proposalPdfLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.pdf", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
+    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
   },
   {
     name: "GET /app/jobs",
@@ -380,3 +444,19 @@ async function answerResponse(run: () => Promise<unknown>): Promise<Response> {
     return thrown as Response;
   }
 }
+
+test("a homeowner's “My requests” lists only proposals on their own requests", async () => {
+  const { company } = await demoCompany();
+  const [owner] = await db.insert(users).values({ companyId: company.id, email: "proposal.owner@example.test", name: "Proposal Owner", role: "homeowner" }).returning();
+  await db.update(leads).set({ homeownerId: owner!.id }).where(eq(leads.id, ids.otherLead));
+  const theirs = (await myLoader(routeArgs(get("/my", (await startSession(owner!.id)).split(";")[0])))) as { requests: { proposals: { href: string }[] }[] };
+  expect(theirs.requests.flatMap((r) => r.proposals.map((p) => p.href))).toEqual([`/p/${ids.token}`]);
+  const someoneElse = (await myLoader(routeArgs(get("/my", cookies.homeowner)))) as { requests: { proposals: unknown[] }[] };
+  expect(JSON.stringify(someoneElse)).not.toContain(ids.token);
+});
+
+test("the crew's view of their job lists no proposals and no totals", async () => {
+  const view = (await leadLoader(routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }))) as { proposals: unknown[]; totals: unknown };
+  expect(view.proposals).toEqual([]);
+  expect(view.totals).toBeNull();
+});
