@@ -20,6 +20,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     customerName: lead.customerName,
     site: `${lead.street}, ${lead.town}`,
     homeownerNotes: lead.notes,
+    maxPhotos: MAX_PHOTOS,
     visit: visit
       ? {
           structureFt: String(visit.structureFt),
@@ -61,7 +62,7 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function SiteVisitRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { leadId, customerName, site, homeownerNotes, visit } = loaderData;
+  const { leadId, customerName, site, homeownerNotes, visit, maxPhotos } = loaderData;
   const errors: Record<string, string> = actionData?.errors ?? {};
   const values: Record<string, string> = { ...(visit ?? {}), ...(actionData?.values ?? {}) };
   const navigation = useNavigation();
@@ -146,7 +147,7 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
           {errors.photos ? (
             <p id="visit-photos-error" className="field-error">{errors.photos}</p>
           ) : (
-            <p id="visit-photos-hint" className="field-hint">Up to {MAX_PHOTOS} JPEG, PNG or WebP photos, 10 MB each.</p>
+            <p id="visit-photos-hint" className="field-hint">Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.</p>
           )}
         </div>
         <div>

@@ -19,7 +19,7 @@ import { formatMoney } from "~/lib/money";
 import { jobTotalsFor } from "~/lib/change-orders.server";
 import { describeDeposit } from "~/lib/proposal-document";
 import { DepositCheckoutError, startDepositCheckout } from "~/lib/proposal-payments.server";
-import { acceptProposal, isOpenForSignature } from "~/lib/proposal-signing.server";
+import { acceptProposal } from "~/lib/proposal-signing.server";
 import { findProposalByToken, recordOpened } from "~/lib/proposals.server";
 import { publicPlan } from "~/lib/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
@@ -152,7 +152,7 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
     <PublicShell right={<span className="text-sm font-bold text-char-700">{document.letterhead.name}</span>}>
       <main className="mx-auto flex max-w-4xl flex-col gap-6 px-4 py-8 sm:px-6">
         <header className="flex flex-col gap-1">
-          <p className="text-sm font-extrabold tracking-widest text-ember-700 uppercase">{isChange ? "Change order" : "Proposal"} · {document.number}</p>
+          <p className="text-sm font-extrabold tracking-widest text-ember-700 uppercase">{document.number}</p>
           <h1 className="text-3xl font-extrabold">{document.title}</h1>
           <p className="text-char-700">
             For {document.customer.name}, {document.customer.street}, {document.customer.town}. From {document.letterhead.name}

@@ -46,8 +46,8 @@ test("visit, proposal, signature and deposit: the estimator measures the yard an
   await page.getByRole("link", { name: "Record the site visit" }).click();
   await page.getByLabel("Nearest structure (house, shed, fence, deck)").fill("31");
   await page.getByLabel("Property line").fill("40");
-  await page.getByLabel("Slope").selectOption({ label: "Gentle slope (about 1–4 in in 4 ft)" });
-  await page.getByLabel("Soil").selectOption({ label: "Loam, firm" });
+  await page.getByLabel("Slope", { exact: true }).selectOption({ label: "Gentle slope (about 1–4 in in 4 ft)" });
+  await page.getByLabel("Soil", { exact: true }).selectOption({ label: "Loam, firm" });
   await page.getByLabel("Access width").fill("48");
   await page.getByLabel("Utility marks").selectOption({ label: "Marked, none near the pit" });
   await page.getByLabel("Where the dug soil goes").selectOption({ label: "Haul it away" });
