@@ -4,7 +4,7 @@ import { db, writeTransaction } from "~/lib/db.server";
 import { STATUS_LABEL } from "~/lib/lead-status";
 import type { SessionUser } from "~/lib/session.server";
 import type { SiteVisitInput } from "~/lib/site-visit-schema";
-import { deleteStoredPhotos, storePhotos, type CheckedPhoto } from "~/lib/uploads.server";
+import { deleteStoredPhotos, type StoredPhoto } from "~/lib/uploads.server";
 
 /** The request's site visit record, if the estimator has made one. */
 export async function findSiteVisit(lead: Pick<Lead, "id" | "companyId">): Promise<SiteVisit | null> {
@@ -20,12 +20,12 @@ export async function findSiteVisit(lead: Pick<Lead, "id" | "companyId">): Promi
 const BEFORE_MEASURED = ["request", "called-back", "consult-booked"] as const;
 
 /**
- * Saves (or updates) the visit with its photos: photos on disk first under generated names, then the
- * record, the photos' rows, the stage and a timeline event in one transaction; if that fails the
+ * Saves (or updates) the visit with its photos (already checked and stored under generated names):
+ * the record, the photos' rows, the stage and a timeline event in one transaction; if that fails the
  * photos are deleted again, so nothing is half-saved.
  */
-export async function saveSiteVisit(user: SessionUser, lead: Lead, input: SiteVisitInput, photos: CheckedPhoto[]): Promise<void> {
-  const storedNames = await storePhotos(photos);
+export async function saveSiteVisit(user: SessionUser, lead: Lead, input: SiteVisitInput, photos: StoredPhoto[]): Promise<void> {
+  const storedNames = photos.map((p) => p.storedName);
   const at = new Date().toISOString();
   try {
     await writeTransaction(async (tx) => {
@@ -36,13 +36,13 @@ export async function saveSiteVisit(user: SessionUser, lead: Lead, input: SiteVi
         .onConflictDoUpdate({ target: siteVisits.leadId, set: values });
       if (storedNames.length) {
         await tx.insert(leadPhotos).values(
-          storedNames.map((storedName, i) => ({
+          photos.map((photo) => ({
             companyId: lead.companyId,
             leadId: lead.id,
-            storedName,
-            originalName: photos[i]!.originalName,
-            mimeType: photos[i]!.mimeType,
-            sizeBytes: photos[i]!.bytes.byteLength,
+            storedName: photo.storedName,
+            originalName: photo.originalName,
+            mimeType: photo.mimeType,
+            sizeBytes: photo.sizeBytes,
             source: "site-visit" as const,
           })),
         );

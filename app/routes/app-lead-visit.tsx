@@ -7,7 +7,7 @@ import { requireUser } from "~/lib/session.server";
 import { findSiteVisit, saveSiteVisit } from "~/lib/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/site-visit-schema";
 import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
-import { checkPhotos, MAX_FORM_BYTES, MAX_PHOTOS } from "~/lib/uploads.server";
+import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Site visit: ${data.customerName} · Emberwright` : "Site visit · Emberwright" }];
 
@@ -40,24 +40,22 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await requireLeadFor(user, parseLeadId(params.leadId));
-  const length = Number(request.headers.get("Content-Length") ?? "NaN");
-  if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
-    return data({ errors: { photos: `The visit is too large to send: attach at most ${MAX_PHOTOS} photos of 10 MB each.` }, values: {} as Record<string, string> }, { status: 413 });
-  }
-  let form: FormData;
-  try {
-    form = await request.formData();
-  } catch {
-    return data({ errors: { form: "We could not read that form. Please try again." }, values: {} as Record<string, string> }, { status: 400 });
-  }
-  const values = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  // The same rules as the homeowner's photos: streamed to disk under the same limits, checked by
+  // their bytes, decoded and encoded again.
+  const reading = await readLeadForm(request);
+  if (!reading.ok) return data({ errors: reading.errors, values: {} as Record<string, string> }, { status: reading.status });
+  const { fields: values, photos: received } = reading;
   const parsed = siteVisitSchema.safeParse(values);
-  const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
-  // The same rules as the homeowner's photos: checked by their bytes, counted and sized.
-  const photos = await checkPhotos(form.getAll("photos").filter((f): f is File => f instanceof File));
-  if (!photos.ok) errors.photos = photos.message;
-  if (!parsed.success || !photos.ok) return data({ errors, values }, { status: 400 });
-  await saveSiteVisit(user, lead, parsed.data, photos.photos);
+  if (!parsed.success) {
+    const errors: Record<string, string> = fieldErrors(parsed.error);
+    const quick = await checkReceivedPhotos(received);
+    await discardReceivedPhotos(received);
+    if (!quick.ok) errors.photos = quick.message;
+    return data({ errors, values }, { status: 400 });
+  }
+  const stored = await storeReceivedPhotos(received);
+  if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
+  await saveSiteVisit(user, lead, parsed.data, stored.photos);
   return redirect(`/app/leads/${lead.id}`);
 }
 

@@ -22,7 +22,8 @@ import { DepositCheckoutError, startDepositCheckout } from "~/lib/proposal-payme
 import { acceptProposal } from "~/lib/proposal-signing.server";
 import { findProposalByToken, recordOpened } from "~/lib/proposals.server";
 import { publicPlan } from "~/lib/plan.server";
-import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
+import { resolveClientAddress } from "~/lib/client-address";
+import { clientAddress, createLimiter, socketAddressContext, spendLimit } from "~/lib/rate-limit.server";
 import { getSessionUser } from "~/lib/session.server";
 import { isOfficeRole } from "~/lib/staff.server";
 import { formatZonedDateTime } from "~/lib/zoned-time";
@@ -89,10 +90,16 @@ const signSchema = z.object({
   consent: z.literal("on", { error: "Tick the box to agree to sign electronically." }),
 });
 
-const signLimiter = createLimiter(env.PUBLIC_FORM_LIMIT, 10 * 60);
+/** The signer's own address for the signature record (the limits use a coarser bucket). */
+function signerAddress(request: Request, context: Route.ActionArgs["context"]): string {
+  const socket = typeof context?.get === "function" ? context.get(socketAddressContext) : null;
+  return resolveClientAddress(socket, request.headers.get("x-forwarded-for"), env.trustProxy) ?? "unknown";
+}
 
-export async function action({ request, params }: Route.ActionArgs) {
-  const limit = await spendLimit(signLimiter, clientAddress(request));
+const signLimiter = createLimiter("proposal-sign:address", env.PUBLIC_FORM_LIMIT, 10 * 60);
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const limit = await spendLimit(signLimiter, clientAddress(request, context));
   if (!limit.ok) return data({ errors: { form: "Too many tries from this address. Please wait a few minutes." }, fields: {} as Record<string, string>, chosen: [] as string[] }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
   const found = await load(params.token);
   const form = await request.formData();
@@ -114,7 +121,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     proposal: found.proposal,
     lead: found.lead,
     document: found.document,
-    input: { name: parsed.data.signerName, chosenKeys: chosen, ip: clientAddress(request), userAgent: (request.headers.get("User-Agent") ?? "unknown").slice(0, 300) },
+    input: { name: parsed.data.signerName, chosenKeys: chosen, ip: signerAddress(request, context), userAgent: (request.headers.get("User-Agent") ?? "unknown").slice(0, 300) },
   });
   if (!accepted.ok) return data({ errors: { form: accepted.message }, fields, chosen }, { status: accepted.status });
   if (accepted.proposal.status === "signed") return redirect(`/p/${params.token}`);
