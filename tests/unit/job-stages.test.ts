@@ -22,14 +22,16 @@ async function paidConsult(stage: "request" | "called-back" = "request") {
   const [lead] = await db.select().from(leads).where(eq(leads.id, created.id));
   const slots = await listCompanySlots(company);
   const slot = slots[Math.floor(Math.random() * slots.length)]!;
-  const booking = await holdSlot({ company, lead: lead!, startsAt: slot.startsAt, customerTimeZone: null });
+  const held = await holdSlot({ company, lead: lead!, startsAt: slot.startsAt, customerTimeZone: null });
+  // As startCheckout records it once the payment service has opened the session.
+  const [booking] = (await db.update(bookings).set({ checkoutSessionId: `cs_stage_${held.id}` }).where(eq(bookings.id, held.id)).returning()) as [typeof held];
   seq += 1;
   const event = {
     id: `evt_stage_${Date.now()}_${seq}`,
     object: "event",
     type: "checkout.session.completed",
     created: Math.floor(Date.now() / 1000),
-    data: { object: { id: `cs_stage_${booking.id}`, object: "checkout.session", payment_status: "paid", payment_intent: `pi_stage_${booking.id}`, metadata: { booking_id: String(booking.id) } } },
+    data: { object: { id: `cs_stage_${booking.id}`, object: "checkout.session", payment_status: "paid", status: "complete", amount_total: booking.amountCents, currency: "usd", payment_intent: `pi_stage_${booking.id}`, metadata: { booking_id: String(booking.id) } } },
   } as unknown as Stripe.Event;
   expect(await applyPaymentEvent(event)).toBe("applied");
   return { company, booking, leadId: lead!.id };
