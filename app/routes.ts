@@ -10,6 +10,8 @@ export default [
   route("c/:companySlug/consult/:ref/done", "routes/consult-done.tsx"),
   route("welcome/:token?", "routes/welcome.tsx"),
   route("my", "routes/my.tsx"),
+  route("p/:token", "routes/proposal.tsx"),
+  route("p/:token.pdf", "routes/proposal-pdf.ts"),
   route("photos/:photoId", "routes/photo.ts"),
 
   ...prefix("app", [
@@ -20,9 +22,13 @@ export default [
       route("catalog/:itemId", "routes/app-catalog-item.tsx", { id: "catalog-edit" }),
       route("settings", "routes/app-settings.tsx"),
       route("settings/factors", "routes/app-factors.tsx"),
+      route("settings/proposals", "routes/app-settings-proposals.tsx"),
       route("inbox", "routes/app-inbox.tsx"),
       route("leads/:leadId", "routes/app-lead.tsx"),
       route("leads/:leadId/design", "routes/app-lead-design.tsx"),
+      route("leads/:leadId/visit", "routes/app-lead-visit.tsx"),
+      route("leads/:leadId/proposal", "routes/app-lead-proposal.tsx"),
+      route("leads/:leadId/change-order", "routes/app-lead-change-order.tsx"),
       route("jobs", "routes/app-jobs.tsx"),
       route("team", "routes/app-team.tsx"),
       route("schedule", "routes/app-schedule.tsx"),

@@ -1,4 +1,4 @@
-import type { CatalogKind } from "~/db/schema";
+import type { CatalogKind, LeadStatus } from "~/db/schema";
 
 /*
  * The demo scenario. Every company, person, product name and price here is invented.
@@ -140,18 +140,49 @@ export type SeedLead = {
   town: string;
   buildWindow: "within-a-month" | "one-to-three-months" | "this-season" | "next-year" | "not-sure";
   notes: string;
-  status: "new" | "contacted" | "consult-booked" | "proposal-sent" | "won" | "lost";
-  lostReason?: string;
+  status: LeadStatus;
+  /** Why a job is on hold or not going ahead, and the step it stopped at. */
+  stopReason?: string;
+  pausedStage?: LeadStatus;
   /** How long ago the request came in, hours. */
   ageHours: number;
   /** Who works it: a staff e-mail of the company. */
   assignee: string | null;
-  /** The crew member building a won job. */
+  /** The crew member building a signed job. */
   crew?: string;
   /** Staff notes on the timeline, by staff e-mail. */
   staffNotes?: { by: string; text: string }[];
   design: SeedDesign;
+  /** The job's papers: the site visit, the proposal and how far it got, a change order. */
+  papers?: SeedPapers;
 };
+
+export type SeedVisit = {
+  structureFt: number;
+  propertyLineFt: number;
+  branchesFt: number | null;
+  slope: "level" | "gentle" | "steep";
+  soil: "sand" | "loam" | "clay" | "rock" | "fill";
+  accessWidthIn: number;
+  utilityMarks: "marked-clear" | "marked-near" | "not-marked-yet";
+  spoil: "haul-away" | "spread-on-site" | "pile-for-homeowner";
+  notes: string;
+};
+
+export type SeedPapers = {
+  visit: SeedVisit;
+  proposal?: {
+    fixedPrice: number;
+    addOns: { label: string; price: number }[];
+    /** How far it got: sent (and opened or not), signed awaiting the deposit, or signed with the deposit in. */
+    state: "sent" | "opened" | "accepted" | "signed" | "expired";
+    chosen?: number[];
+    /** A signed change order for the difference, in dollars (the design is revised to match). */
+    changeOrder?: { delta: number; courses: number };
+  };
+};
+
+const VISIT_OK: SeedVisit = { structureFt: 31, propertyLineFt: 34, branchesFt: null, slope: "gentle", soil: "loam", accessWidthIn: 46, utilityMarks: "marked-clear", spoil: "haul-away", notes: "" };
 
 const CS_EST = "estimator@cinder-slate.test";
 const CS_OWNER = "owner@cinder-slate.test";
@@ -161,28 +192,28 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
   "cinder-slate": [
     {
       customerName: "Priya Vandermolen", email: "priya.vandermolen@example.test", phone: "(555) 010-3318", street: "41 Thistledown Court", town: "Harrow Bend",
-      buildWindow: "one-to-three-months", notes: "Flat lawn behind the garage, about 30 ft from the house.", status: "new", ageHours: 3, assignee: null,
+      buildWindow: "one-to-three-months", notes: "Flat lawn behind the garage, about 30 ft from the house.", status: "request", ageHours: 3, assignee: null,
       design: { stone: "Hearthline Taper", courses: 4, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", fit: true, setbackFt: 30 },
     },
     {
       customerName: "Wendell Ashgrove", email: "wendell.ashgrove@example.test", phone: "(555) 010-7724", street: "9 Larkin Hollow Road", town: "Millbrook Falls",
-      buildWindow: "this-season", notes: "We want it big enough for six chairs. Gate is 40 in wide.", status: "new", ageHours: 27, assignee: null,
+      buildWindow: "this-season", notes: "We want it big enough for six chairs. Gate is 40 in wide.", status: "request", ageHours: 27, assignee: null,
       design: { stone: "Kilnstone Grand Taper", units: 16, courses: 3, cap: "Broad Cap 20", liner: "firebrick", setbackFt: 35 },
     },
     {
       customerName: "Consuela Brightwater", email: "consuela.b@example.test", phone: "(555) 014-0092", street: "1208 Orchard Spur", town: "Quillan Park",
-      buildWindow: "within-a-month", notes: "", status: "new", ageHours: 52, assignee: CS_EST,
+      buildWindow: "within-a-month", notes: "", status: "request", ageHours: 52, assignee: CS_EST,
       design: { stone: "Ridgeback Taper", units: 15, courses: 4, cap: "Bluestone-look Cap 18", overhang: 1.5, liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 28 },
     },
     {
       customerName: "Marcus Oyelaran", email: "m.oyelaran@example.test", phone: "(555) 016-4410", street: "77 Wicklow Lane", town: "Stoneleigh",
-      buildWindow: "one-to-three-months", notes: "Slight slope toward the fence.", status: "contacted", ageHours: 4 * 24 + 5, assignee: CS_EST,
+      buildWindow: "one-to-three-months", notes: "Slight slope toward the fence.", status: "called-back", ageHours: 4 * 24 + 5, assignee: CS_EST,
       staffNotes: [{ by: CS_EST, text: "Left a voicemail; he prefers texts after 5 pm." }],
       design: { stone: "Hearthline Taper", units: 13, courses: 3, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 22 },
     },
     {
       customerName: "Hattie Lindqvist", email: "hattie.lindqvist@example.test", phone: "(555) 012-8836", street: "3 Copper Kettle Way", town: "Copperfield Mills",
-      buildWindow: "next-year", notes: "Planning ahead for spring.", status: "contacted", ageHours: 6 * 24 + 2, assignee: CS_OWNER,
+      buildWindow: "next-year", notes: "Planning ahead for spring.", status: "called-back", ageHours: 6 * 24 + 2, assignee: CS_OWNER,
       design: { stone: "Fieldcut Taper", units: 16, courses: 5, cap: "Sill Cap 16", liner: "none", setbackFt: 40 },
     },
     {
@@ -198,45 +229,92 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     },
     {
       customerName: "Rafael Okonkwo-Reyes", email: "rafael.or@example.test", phone: "(555) 017-9043", street: "2204 Foundry Street", town: "Quillan Park",
-      buildWindow: "one-to-three-months", notes: "Round patio around it, please; the kids ride bikes there now.", status: "proposal-sent", ageHours: 16 * 24, assignee: CS_EST,
+      buildWindow: "one-to-three-months", notes: "Round patio around it, please; the kids ride bikes there now.", status: "proposal-out", ageHours: 16 * 24, assignee: CS_EST,
+      papers: { visit: { ...VISIT_OK, structureFt: 34, accessWidthIn: 34, notes: "Side gate is 34 in: pavers go in by hand cart." }, proposal: { fixedPrice: 6150, addOns: [{ label: "Firebrick lining inside the steel ring", price: 540 }, { label: "Sealing the patio", price: 380 }], state: "opened" } },
       design: { stone: "Hearthline Taper", units: 14, courses: 4, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", patioFt: 8, paver: "Courtyard Paver 6×9", border: "Rim Border 4×8", setbackFt: 32 },
     },
     {
       customerName: "Delphine Achterberg", email: "delphine.a@example.test", phone: "(555) 011-5528", street: "64 Millrace Road", town: "Stoneleigh",
-      buildWindow: "this-season", notes: "", status: "proposal-sent", ageHours: 20 * 24 + 3, assignee: CS_EST,
+      buildWindow: "this-season", notes: "", status: "proposal-out", ageHours: 20 * 24 + 3, assignee: CS_EST,
+      papers: { visit: { ...VISIT_OK, structureFt: 27, soil: "clay", notes: "Clay: dig the base to 8 in." }, proposal: { fixedPrice: 2750, addOns: [{ label: "A second course of caps", price: 420 }], state: "accepted", chosen: [0] } },
       staffNotes: [{ by: CS_EST, text: "Proposal sent at the upper end of the range: she wants the wider caps." }],
       design: { stone: "Kilnstone Grand Taper", units: 15, courses: 3, cap: "Broad Cap 20", liner: "steel-ring", ring: "Heavy Ring 42", setbackFt: 27 },
     },
     {
       customerName: "Tobias Wren", email: "tobias.wren@example.test", phone: "(555) 018-3307", street: "11 Cinderbrook Lane", town: "Millbrook Falls",
-      buildWindow: "within-a-month", notes: "Back corner by the old maple; the stump is gone.", status: "won", ageHours: 27 * 24, assignee: CS_EST, crew: "crew@cinder-slate.test",
+      buildWindow: "within-a-month", notes: "Back corner by the old maple; the stump is gone.", status: "signed", ageHours: 27 * 24, assignee: CS_EST, crew: "crew@cinder-slate.test",
+      papers: { visit: { ...VISIT_OK, branchesFt: 28, notes: "Maple limbs well above; keep the pit where the stump was." }, proposal: { fixedPrice: 2450, addOns: [{ label: "Firebrick lining", price: 520 }], state: "signed", changeOrder: { delta: 460, courses: 5 } } },
       staffNotes: [{ by: CS_OWNER, text: "Deposit received. Materials ordered for Thursday delivery." }],
       design: { stone: "Hearthline Taper", units: 14, courses: 4, cap: "Sill Cap 16", overhang: 2, liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 30 },
     },
     {
       customerName: "Mirela Castellanos", email: "mirela.c@example.test", phone: "(555) 015-4471", street: "305 Kestrel Avenue", town: "Copperfield Mills",
-      buildWindow: "one-to-three-months", notes: "", status: "won", ageHours: 33 * 24, assignee: CS_OWNER,
+      buildWindow: "one-to-three-months", notes: "", status: "signed", ageHours: 33 * 24, assignee: CS_OWNER,
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 5600, addOns: [{ label: "Sealing the patio", price: 360 }], state: "signed", chosen: [0] } },
       design: { stone: "Ridgeback Taper", units: 16, courses: 4, cap: "Bluestone-look Cap 18", liner: "firebrick", patioFt: 7, paver: "Courtyard Paver 12×12", border: "Rim Border 6×12", setbackFt: 29 },
     },
     {
       customerName: "Gunnar Halvorsen", email: "gunnar.h@example.test", phone: "(555) 012-0186", street: "47 Ironwood Bend", town: "Harrow Bend",
-      buildWindow: "not-sure", notes: "Just pricing it out for now.", status: "lost", lostReason: "Chose a portable steel fire bowl instead.", ageHours: 40 * 24, assignee: CS_EST,
+      buildWindow: "not-sure", notes: "Just pricing it out for now.", status: "not-going-ahead", stopReason: "Chose a portable steel fire bowl instead.", pausedStage: "called-back", ageHours: 40 * 24, assignee: CS_EST,
       design: { stone: "Plainface Block", units: 12, courses: 3, cap: null, liner: "none", setbackFt: 18 },
+    },
+    {
+      customerName: "Odile Branscombe", email: "odile.b@example.test", phone: "(555) 016-2209", street: "8 Saltmarsh Lane", town: "Stoneleigh",
+      buildWindow: "this-season", notes: "Behind the greenhouse.", status: "measured", ageHours: 14 * 24, assignee: CS_EST,
+      papers: { visit: { ...VISIT_OK, structureFt: 22, slope: "steep", notes: "Greenhouse 22 in from where she wants it: suggested moving it 4 ft east." } },
+      design: { stone: "Hearthline Taper", units: 14, courses: 4, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 28 },
+    },
+    {
+      customerName: "Lachlan Ferreira-Moss", email: "lachlan.fm@example.test", phone: "(555) 018-6614", street: "19 Tanners Row", town: "Quillan Park",
+      buildWindow: "within-a-month", notes: "", status: "stone-ordered", ageHours: 36 * 24, assignee: CS_EST, crew: "crew@cinder-slate.test",
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2300, addOns: [], state: "signed" } },
+      design: { stone: "Hearthline Taper", units: 13, courses: 3, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 30 },
+    },
+    {
+      customerName: "Sunniva Okoro", email: "sunniva.okoro@example.test", phone: "(555) 013-4480", street: "2 Bellfounder Close", town: "Harrow Bend",
+      buildWindow: "within-a-month", notes: "", status: "build-booked", ageHours: 42 * 24, assignee: CS_OWNER,
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2900, addOns: [], state: "signed" } },
+      design: { stone: "Kilnstone Grand Taper", units: 15, courses: 3, cap: "Broad Cap 20", liner: "steel-ring", ring: "Heavy Ring 42", setbackFt: 33 },
+    },
+    {
+      customerName: "Perpetua Vance", email: "perpetua.vance@example.test", phone: "(555) 015-9031", street: "77 Cooper's Field", town: "Millbrook Falls",
+      buildWindow: "within-a-month", notes: "", status: "built", ageHours: 50 * 24, assignee: CS_EST,
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2200, addOns: [], state: "signed" } },
+      design: { stone: "Ridgeback Taper", units: 15, courses: 3, cap: "Sill Cap 16", liner: "none", setbackFt: 26 },
+    },
+    {
+      customerName: "Hollis Drummond", email: "hollis.drummond@example.test", phone: "(555) 011-7752", street: "140 Weir Road", town: "Copperfield Mills",
+      buildWindow: "within-a-month", notes: "", status: "paid-in-full", ageHours: 70 * 24, assignee: CS_OWNER,
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2600, addOns: [], state: "signed" } },
+      design: { stone: "Fieldcut Taper", units: 16, courses: 4, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 40 },
+    },
+    {
+      customerName: "Anouk Steenberg", email: "anouk.s@example.test", phone: "(555) 019-0418", street: "5 Lantern Hill", town: "Stoneleigh",
+      buildWindow: "next-year", notes: "", status: "on-hold", stopReason: "Waiting for the town's burn permit.", pausedStage: "measured", ageHours: 24 * 24, assignee: CS_EST,
+      papers: { visit: { ...VISIT_OK, utilityMarks: "not-marked-yet" } },
+      design: { stone: "Quarry Square", units: 12, courses: 3, cap: "Broad Cap 20", liner: "firebrick", setbackFt: 25 },
+    },
+    {
+      customerName: "Ferdinand Lisle", email: "ferdinand.lisle@example.test", phone: "(555) 014-3356", street: "63 Orchard Spur", town: "Quillan Park",
+      buildWindow: "this-season", notes: "", status: "measured", ageHours: 45 * 24, assignee: CS_EST,
+      staffNotes: [{ by: CS_EST, text: "Proposal ran out while he was travelling; call him about a new one." }],
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2350, addOns: [], state: "expired" } },
+      design: { stone: "Hearthline Taper", units: 14, courses: 3, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 31 },
     },
   ],
   "north-ridge": [
-    ["Amara Winterbourne", "Pinegate", "new", 5],
-    ["Lucius Fenwright", "Cedar Hollow", "new", 30],
-    ["Oriana Blackthorn", "Larchmont Flats", "new", 60],
-    ["Silas Marrowby", "Cedar Hollow", "contacted", 80],
-    ["Juniper Okafor-Hale", "Pinegate", "contacted", 120],
+    ["Amara Winterbourne", "Pinegate", "request", 5],
+    ["Lucius Fenwright", "Cedar Hollow", "request", 30],
+    ["Oriana Blackthorn", "Larchmont Flats", "request", 60],
+    ["Silas Marrowby", "Cedar Hollow", "called-back", 80],
+    ["Juniper Okafor-Hale", "Pinegate", "called-back", 120],
     ["Teodor Vasquez-Lin", "Larchmont Flats", "consult-booked", 200],
     ["Beatrix Ellingsworth", "Cedar Hollow", "consult-booked", 260],
-    ["Casimir Dunmore", "Pinegate", "proposal-sent", 330],
-    ["Rosalind Quayle", "Larchmont Flats", "proposal-sent", 400],
-    ["Evander Hollis", "Cedar Hollow", "won", 520],
-    ["Marguerite Solberg", "Pinegate", "won", 610],
-    ["Ansel Greywood", "Cedar Hollow", "lost", 700],
+    ["Casimir Dunmore", "Pinegate", "proposal-out", 330],
+    ["Rosalind Quayle", "Larchmont Flats", "proposal-out", 400],
+    ["Evander Hollis", "Cedar Hollow", "signed", 520],
+    ["Marguerite Solberg", "Pinegate", "signed", 610],
+    ["Ansel Greywood", "Cedar Hollow", "not-going-ahead", 700],
   ].map(([name, town, status, ageHours], i): SeedLead => {
     const [first, last] = String(name).toLowerCase().split(" ");
     return {
@@ -248,9 +326,9 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       buildWindow: (["within-a-month", "one-to-three-months", "this-season", "next-year"] as const)[i % 4]!,
       notes: i % 3 === 0 ? "Near the back deck steps, on packed gravel." : "",
       status: status as SeedLead["status"],
-      ...(status === "lost" ? { lostReason: "Budget: postponed to next year." } : {}),
+      ...(status === "not-going-ahead" ? { stopReason: "Budget: postponed to next year." } : {}),
       ageHours: Number(ageHours),
-      assignee: status === "new" && i < 2 ? null : NR_OWNER,
+      assignee: status === "request" && i < 2 ? null : NR_OWNER,
       design: {
         stone: "Timberline Taper",
         ...(i % 2 === 0 ? { units: 13 + (i % 4) } : {}),
@@ -263,4 +341,10 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       },
     };
   }),
+};
+
+/** Each demo company's letterhead for proposals (invented addresses and licence numbers). */
+export const DEMO_LETTERHEADS: Record<string, { streetAddress: string; licenceNumber: string }> = {
+  "cinder-slate": { streetAddress: "412 Kiln Yard Road, Millbrook Falls", licenceNumber: "HIC-0042-DEMO" },
+  "north-ridge": { streetAddress: "88 Timber Mill Lane, Pinegate", licenceNumber: "NR-1187-DEMO" },
 };

@@ -1,15 +1,23 @@
-import { and, eq } from "drizzle-orm";
-import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, users, type CatalogItem } from "~/db/schema";
+import { and, eq, inArray } from "drizzle-orm";
+import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import { sendChangeOrder } from "~/lib/change-orders.server";
+import type { CatalogChoice, Design } from "~/lib/design";
+import { saveRevision } from "~/lib/lead-workspace.server";
+import { formatMoney } from "~/lib/money";
+import { parseProposalDocument } from "~/lib/proposal-document";
+import { acceptProposal } from "~/lib/proposal-signing.server";
+import { DEFAULT_EXCLUDED, DEFAULT_INCLUDED } from "~/lib/proposal-terms.server";
+import { recordOpened, sendProposal } from "~/lib/proposals.server";
 import { findLiveBooking, listCompanySlots } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/configurator.server";
 import { parseDesign } from "~/lib/design";
 import { summarizeDesign, type PublicPlan } from "~/lib/design-plan";
-import { writeStoredPlan } from "~/lib/stored-plan";
+import { readStoredDesign, writeStoredPlan } from "~/lib/stored-plan";
 import { STATUS_LABEL } from "~/lib/lead-status";
 import { hashPassword } from "~/lib/password.server";
 import { publicPlan } from "~/lib/plan.server";
-import { DEMO_COMPANIES, DEMO_LEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead } from "./seed-data";
+import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead, type SeedPapers } from "./seed-data";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -30,6 +38,14 @@ export async function seedDemo() {
         .from(catalogItems)
         .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.name, item.name)));
       if (!existing) await db.insert(catalogItems).values({ ...item, companyId });
+    }
+    // Letterhead and allowances (invented address and licence numbers).
+    const letterhead = DEMO_LETTERHEADS[company.slug];
+    if (letterhead) {
+      await db
+        .insert(proposalTerms)
+        .values({ companyId, includedText: DEFAULT_INCLUDED, excludedText: DEFAULT_EXCLUDED, ...letterhead, narrowAccessAllowanceCents: 35_000, steepSlopeAllowanceCents: 60_000 })
+        .onConflictDoNothing();
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
     await seedConsults(companyId);
@@ -85,7 +101,8 @@ function designParams(design: SeedDesign, catalog: CatalogItem[]): URLSearchPara
   return params;
 }
 
-const PIPELINE = ["new", "contacted", "consult-booked", "proposal-sent"] as const;
+// The steps a demo job walked to reach its stage (a stopped job stopped after the last one listed).
+const PIPELINE: LeadStatus[] = ["request", "called-back", "consult-booked", "measured", "proposal-out", "signed", "stone-ordered", "build-booked", "built", "paid-in-full"];
 const HOUR_MS = 3_600_000;
 
 /*
@@ -120,7 +137,9 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         companyId,
         ref,
         status: seed.status,
-        lostReason: seed.lostReason ?? null,
+        stopReason: seed.stopReason ?? null,
+        pausedStage: seed.pausedStage ?? null,
+        calledBackAt: seed.status === "request" ? null : at(1),
         assignedUserId: assigneeId,
         crewUserId: crewId,
         customerName: seed.customerName,
@@ -145,13 +164,14 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
       { companyId, leadId, kind: "received", detail: "Request sent from the configurator with 0 photos.", createdAt: at(0) },
     ];
     // Steps spread over the lead's age so the newest step is still in the past.
-    const steps = seed.status === "won" || seed.status === "lost" ? [...PIPELINE.slice(1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
+    const stoppedAt = seed.status === "on-hold" || seed.status === "not-going-ahead" ? (seed.pausedStage ?? "called-back") : null;
+    const steps = stoppedAt ? [...PIPELINE.slice(1, PIPELINE.indexOf(stoppedAt) + 1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
     const span = Math.max(1, seed.ageHours - 1);
     const actorId = assigneeId ?? staffId(staff[0]?.email);
     if (assigneeId !== null) {
       events.push({ companyId, leadId, actorUserId: staffId(DEMO_COMPANIES.find((c) => c.slug === slug)?.staff[0]?.email), kind: "assigned", detail: `Assigned to ${staff.find((s) => s.id === assigneeId)?.name}`, createdAt: at(Math.min(2, span * 0.1)) });
     }
-    let previous: SeedLead["status"] = "new";
+    let previous: LeadStatus = "request";
     steps.forEach((status, i) => {
       const hours = span * ((i + 1) / (steps.length + 1)) + 2;
       events.push({
@@ -159,7 +179,7 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         leadId,
         actorUserId: actorId,
         kind: "status",
-        detail: `${STATUS_LABEL[previous]} → ${STATUS_LABEL[status]}${status === "lost" ? `: ${seed.lostReason}` : ""}`,
+        detail: `${STATUS_LABEL[previous]} → ${STATUS_LABEL[status]}${status === seed.status && seed.stopReason ? `: ${seed.stopReason}` : ""}`,
         createdAt: at(hours),
       });
       previous = status;
@@ -190,5 +210,80 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         mail("lead-new", companyEmail, `New fire-pit request: ${seed.customerName}, ${seed.town}`),
       ])
       .onConflictDoNothing();
+    if (seed.papers) await seedPapers({ leadId, seed, papers: seed.papers, companyId, staffId: actorId!, createdMs, choices, slug });
   }
+}
+
+/*
+ * A demo job's papers, made by the same code the office and the homeowner use: the site visit, the
+ * proposal sent (and opened), accepted, paid (a demo deposit carries no payment of the payment
+ * service, so it is never refunded through it), and a signed change order after a staff revision.
+ * E-mails these write are marked sent, and the job is put back at its seeded stage afterwards.
+ */
+async function seedPapers(args: { leadId: number; seed: SeedLead; papers: SeedPapers; companyId: number; staffId: number; createdMs: number; choices: CatalogChoice[]; slug: string }) {
+  const { leadId, seed, papers, companyId } = args;
+  const company = (await db.select().from(companies).where(eq(companies.id, companyId)))[0]!;
+  const [staffRow] = await db.select().from(users).where(eq(users.id, args.staffId));
+  const user = { id: staffRow!.id, companyId, email: staffRow!.email, name: staffRow!.name, role: staffRow!.role, sessionId: "seed" };
+  const when = (fraction: number) => new Date(Math.min(Date.now() - 60_000, args.createdMs + (Date.now() - args.createdMs) * fraction));
+  const lead = async () => (await db.select().from(leads).where(eq(leads.id, leadId)))[0]!;
+
+  await db.insert(siteVisits).values({ ...papers.visit, companyId, leadId, visitedByUserId: user.id, createdAt: when(0.4).toISOString(), updatedAt: when(0.4).toISOString() });
+  // The papers are made along the way the job went; the seeded stage is put back at the end.
+  await db.update(leads).set({ status: "measured" }).where(eq(leads.id, leadId));
+  await db.insert(leadEvents).values({ companyId, leadId, actorUserId: user.id, kind: "site-visit", detail: `Site visit recorded: ${papers.visit.structureFt} ft to the nearest structure, ${papers.visit.accessWidthIn} in access.`, createdAt: when(0.4).toISOString() });
+  const p = papers.proposal;
+  if (p) {
+    // An "expired" demo proposal ran out yesterday; the background sweep marks it when the server runs.
+    const validUntil = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date(Date.now() + (p.state === "expired" ? -2 : 21) * 86_400_000));
+    const proposal = await sendProposal({
+      user,
+      lead: await lead(),
+      company,
+      input: {
+        fixedPriceCents: p.fixedPrice * 100,
+        addOns: p.addOns.map((a, i) => ({ key: `a${i + 1}`, label: a.label, cents: a.price * 100 })),
+        validUntil,
+        included: DEFAULT_INCLUDED,
+        excluded: DEFAULT_EXCLUDED,
+      },
+      origin: "http://localhost:3000",
+      now: when(0.5),
+    });
+    if (p.state !== "sent" && p.state !== "expired") await recordOpened(proposal.id, when(0.55));
+    if (p.state === "accepted" || p.state === "signed") {
+      const document = parseProposalDocument(proposal.documentJson);
+      const accepted = await acceptProposal({
+        proposal,
+        lead: await lead(),
+        document,
+        input: { name: seed.customerName, chosenKeys: (p.chosen ?? []).map((i) => `a${i + 1}`), ip: "192.0.2.10", userAgent: "Demo seed", now: when(0.6) },
+      });
+      if (!accepted.ok) throw new Error(`The demo proposal of ${seed.customerName} could not be signed: ${accepted.message}`);
+      if (p.state === "signed") {
+        await db.update(proposals).set({ status: "signed", depositPaidAt: when(0.62).toISOString() }).where(eq(proposals.id, proposal.id));
+        await db.insert(leadEvents).values({ companyId, leadId, kind: "deposit-paid", detail: `Deposit of ${formatMoney(accepted.proposal.depositCents ?? 0)} paid on ${document.number}.`, createdAt: when(0.62).toISOString() });
+        await db.update(leads).set({ status: "signed" }).where(eq(leads.id, leadId));
+      }
+      if (p.changeOrder) {
+        // A staff revision (one more course), then the change order for it, signed.
+        const current = await lead();
+        const design = { ...readStoredDesign(current.designJson).choices, courses: p.changeOrder.courses };
+        const { plan, resolved } = await planForDesign(args.slug, design, args.choices);
+        if (!plan || !resolved) throw new Error(`The demo revision of ${seed.customerName} cannot be built.`);
+        const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, args.choices, "in");
+        await saveRevision(user, current, recordPlan({ design, summary, resolved, plan }));
+        const change = await sendChangeOrder({ user, lead: await lead(), company, deltaCents: p.changeOrder.delta * 100, validUntil, origin: "http://localhost:3000", now: when(0.8) });
+        if (typeof change === "string") throw new Error(change);
+        const signed = await acceptProposal({ proposal: change, lead: await lead(), document: parseProposalDocument(change.documentJson), input: { name: seed.customerName, chosenKeys: [], ip: "192.0.2.10", userAgent: "Demo seed", now: when(0.85) } });
+        if (!signed.ok) throw new Error(signed.message);
+      }
+    }
+  }
+  // Back to the seeded stage; nothing these papers queued goes out again.
+  await db.update(leads).set({ status: seed.status, stopReason: seed.stopReason ?? null, pausedStage: seed.pausedStage ?? null }).where(eq(leads.id, leadId));
+  await db
+    .update(emailOutbox)
+    .set({ status: "sent", sentAt: when(0.9).toISOString(), attempts: 1 })
+    .where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "pending"), inArray(emailOutbox.toAddress, [seed.email, company.email])));
 }

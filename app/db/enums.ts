@@ -23,8 +23,35 @@ export const CATALOG_KINDS = [
 ] as const;
 export type CatalogKind = (typeof CATALOG_KINDS)[number];
 
-export const LEAD_STATUSES = ["new", "contacted", "consult-booked", "proposal-sent", "won", "lost"] as const;
+/*
+ * The stages of a pit job, in the order a job moves through them, named the way a hardscaper and a
+ * homeowner talk about them; the last two are where a job stops rather than a step along it.
+ * (Stored in leads.status; labels in app/lib/lead-status.ts.)
+ */
+export const JOB_STEPS = [
+  "request",
+  "called-back",
+  "consult-booked",
+  "measured",
+  "proposal-out",
+  "signed",
+  "stone-ordered",
+  "build-booked",
+  "built",
+  "paid-in-full",
+] as const;
+export type JobStep = (typeof JOB_STEPS)[number];
+export const STOPPED_STAGES = ["on-hold", "not-going-ahead"] as const;
+export const LEAD_STATUSES = [...JOB_STEPS, ...STOPPED_STAGES] as const;
 export type LeadStatus = (typeof LEAD_STATUSES)[number];
+/** From the signed deposit on: the job is the crew's to build. */
+export const SIGNED_STAGES = ["signed", "stone-ordered", "build-booked", "built", "paid-in-full"] as const satisfies readonly JobStep[];
 
 export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
 export type BuildWindow = (typeof BUILD_WINDOWS)[number];
+
+// The site visit's choices (labels in app/lib/site-visit-schema.ts).
+export const SLOPES = ["level", "gentle", "steep"] as const;
+export const SOILS = ["sand", "loam", "clay", "rock", "fill"] as const;
+export const UTILITY_MARKS = ["marked-clear", "marked-near", "not-marked-yet"] as const;
+export const SPOIL_PLANS = ["haul-away", "spread-on-site", "pile-for-homeowner"] as const;

@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
-import { index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ROLES } from "~/db/enums";
+import { blob, index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ROLES, SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
 
 export * from "~/db/enums";
 
@@ -140,10 +140,16 @@ export const leads = sqliteTable(
     homeownerId: integer("homeowner_id").references(() => users.id),
     // Unguessable handle for the homeowner's confirmation page (ids are sequential).
     ref: text("ref").notNull().unique(),
-    status: text("status", { enum: LEAD_STATUSES }).notNull().default("new"),
-    lostReason: text("lost_reason"),
+    // The job's stage (app/lib/lead-status.ts names them).
+    status: text("status", { enum: LEAD_STATUSES }).notNull().default("request"),
+    // Why a job is on hold or not going ahead (the column kept its first name).
+    stopReason: text("lost_reason"),
+    // The step an on-hold or not-going-ahead job stopped at, so it can pick up there again.
+    pausedStage: text("paused_stage", { enum: LEAD_STATUSES }),
+    // When the office first reached the homeowner; the stage falls back to it when a consult is cancelled.
+    calledBackAt: text("called_back_at"),
     assignedUserId: integer("assigned_user_id").references(() => users.id),
-    // The crew member who builds a won job.
+    // The crew member who builds a signed job.
     crewUserId: integer("crew_user_id").references(() => users.id),
     customerName: text("customer_name").notNull(),
     email: text("email").notNull(),
@@ -208,6 +214,8 @@ export const leadPhotos = sqliteTable(
     originalName: text("original_name").notNull(),
     mimeType: text("mime_type").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
+    // Sent by the homeowner with the request, or taken by the estimator at the site visit.
+    source: text("source", { enum: ["homeowner", "site-visit"] }).notNull().default("homeowner"),
     createdAt: createdAt(),
   },
   (t) => [index("lead_photos_lead_idx").on(t.leadId)],
@@ -374,3 +382,126 @@ export const jobLeases = sqliteTable("job_leases", {
   lastRunAt: text("last_run_at"),
 });
 export type LeadRevision = typeof leadRevisions.$inferSelect;
+
+// What the estimator measured in the yard at the consult; one record per request, updated in place.
+
+export const siteVisits = sqliteTable(
+  "site_visits",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    visitedByUserId: integer("visited_by_user_id").references(() => users.id),
+    // Distances from the centre of the pit, feet; null when there is none (no branches over the spot).
+    structureFt: real("structure_ft").notNull(),
+    propertyLineFt: real("property_line_ft").notNull(),
+    branchesFt: real("branches_ft"),
+    slope: text("slope", { enum: SLOPES }).notNull(),
+    soil: text("soil", { enum: SOILS }).notNull(),
+    // Narrowest point on the way in from where the truck parks, inches.
+    accessWidthIn: real("access_width_in").notNull(),
+    utilityMarks: text("utility_marks", { enum: UTILITY_MARKS }).notNull(),
+    spoil: text("spoil", { enum: SPOIL_PLANS }).notNull(),
+    notes: text("notes").notNull().default(""),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("site_visits_lead_unique").on(t.leadId)],
+);
+
+export const PROPOSAL_KINDS = ["proposal", "change-order"] as const;
+// sent → accepted (signed, deposit not yet paid) → signed (deposit paid; change orders: signed at once);
+// sent or accepted → withdrawn or expired. Never backwards.
+export const PROPOSAL_STATES = ["sent", "accepted", "signed", "withdrawn", "expired"] as const;
+export type ProposalState = (typeof PROPOSAL_STATES)[number];
+
+// A proposal (or a change order to a signed one) as sent: its document is frozen at sending, the
+// homeowner's acceptance is frozen with the exact PDF they accepted and its SHA-256, and the deposit
+// follows the consult booking's payment rules (own idempotency keys, webhook applied once).
+export const proposals = sqliteTable(
+  "proposals",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    kind: text("kind", { enum: PROPOSAL_KINDS }).notNull(),
+    // A change order's signed proposal.
+    parentId: integer("parent_id"),
+    // The unguessable handle of /p/:token (256 bits).
+    token: text("token").notNull().unique(),
+    revisionId: integer("revision_id").references(() => leadRevisions.id),
+    // The whole document as sent (app/lib/proposal-document.ts), and the design it was written from.
+    documentJson: text("document_json").notNull(),
+    designJson: text("design_json").notNull(),
+    planJson: text("plan_json").notNull(),
+    // Fixed price with allowances, before add-ons; for a change order the difference it makes.
+    priceCents: integer("price_cents").notNull(),
+    status: text("status", { enum: PROPOSAL_STATES }).notNull().default("sent"),
+    expiresAt: text("expires_at").notNull(),
+    sentByUserId: integer("sent_by_user_id").references(() => users.id),
+    sentAt: text("sent_at").notNull(),
+    firstOpenedAt: text("first_opened_at"),
+    lastOpenedAt: text("last_opened_at"),
+    openCount: integer("open_count").notNull().default(0),
+    withdrawnAt: text("withdrawn_at"),
+    withdrawReason: text("withdraw_reason"),
+    // The acceptance: who, when, from where, what they chose, and the hash of the PDF they accepted.
+    signerName: text("signer_name"),
+    signedAt: text("signed_at"),
+    signerIp: text("signer_ip"),
+    signerUserAgent: text("signer_user_agent"),
+    chosenAddOnsJson: text("chosen_add_ons_json"),
+    totalCents: integer("total_cents"),
+    depositCents: integer("deposit_cents"),
+    acceptedPdfSha256: text("accepted_pdf_sha256"),
+    acceptedPdf: blob("accepted_pdf", { mode: "buffer" }),
+    signedPdf: blob("signed_pdf", { mode: "buffer" }),
+    // The deposit through the payment service.
+    checkoutSessionId: text("checkout_session_id").unique(),
+    checkoutAttempt: integer("checkout_attempt").notNull().default(0),
+    paymentIntentId: text("payment_intent_id"),
+    depositPaidAt: text("deposit_paid_at"),
+    // A refund owed (asked for by the owner with a reason, or a payment that arrived too late).
+    refundReason: text("refund_reason"),
+    refundOwedAt: text("refund_owed_at"),
+    refundId: text("refund_id"),
+    refundedAt: text("refunded_at"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    index("proposals_lead_idx").on(t.leadId, t.createdAt),
+    index("proposals_status_expires_idx").on(t.status, t.expiresAt),
+    index("proposals_refund_owed_idx").on(t.refundOwedAt, t.refundId),
+  ],
+);
+
+// Each company's proposal terms and letterhead; a row appears the first time an owner saves them.
+export const DEPOSIT_KINDS = ["percent", "fixed"] as const;
+export const proposalTerms = sqliteTable("proposal_terms", {
+  companyId: integer("company_id")
+    .primaryKey()
+    .references(() => companies.id),
+  depositKind: text("deposit_kind", { enum: DEPOSIT_KINDS }).notNull().default("percent"),
+  // Basis points of the total (3000 = 30 %), or a fixed amount in cents.
+  depositBasisPoints: integer("deposit_basis_points").notNull().default(3000),
+  depositFixedCents: integer("deposit_fixed_cents").notNull().default(0),
+  validDays: integer("valid_days").notNull().default(30),
+  includedText: text("included_text").notNull(),
+  excludedText: text("excluded_text").notNull(),
+  streetAddress: text("street_address").notNull().default(""),
+  licenceNumber: text("licence_number").notNull().default(""),
+  // Access narrower than this (inches) adds the narrow-access allowance; a steep yard the slope allowance.
+  narrowAccessIn: real("narrow_access_in").notNull().default(36),
+  narrowAccessAllowanceCents: integer("narrow_access_allowance_cents").notNull().default(0),
+  steepSlopeAllowanceCents: integer("steep_slope_allowance_cents").notNull().default(0),
+  updatedAt: updatedAt(),
+});
+
+export type SiteVisit = typeof siteVisits.$inferSelect;
+export type Proposal = typeof proposals.$inferSelect;
+export type ProposalTerms = typeof proposalTerms.$inferSelect;

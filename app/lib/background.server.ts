@@ -4,6 +4,7 @@ import { env } from "~/lib/env.server";
 import { claimJob, releaseJob, WORKER_ID } from "~/lib/jobs.server";
 import { deliverDueEmails } from "~/lib/outbox-worker.server";
 import { sweepUnrecordedPhotos } from "~/lib/leads.server";
+import { expireProposals, processDepositRefunds } from "~/lib/proposal-payments.server";
 
 let timer: NodeJS.Timeout | null = null;
 let isRunning = false;
@@ -29,11 +30,15 @@ export async function sweepStrayUploads(options: { now?: Date; db?: Db; owner?: 
   return true;
 }
 
-/** One pass of the background work: due e-mails, owed refunds, lapsed consult holds, and now and then photos left by a crash. */
+/** One pass of the background work: due e-mails, owed refunds, lapsed consult holds, proposals past their date, deposit refunds, and now and then photos left by a crash. */
 export async function runBackgroundPass(): Promise<void> {
   await deliverDueEmails();
   await processRefunds();
   await releaseLapsedHolds();
+  // Each proposal expires once (a conditional update per row), and each deposit refund carries its
+  // own idempotency key, so several processes running these at once cannot double either.
+  await expireProposals();
+  await processDepositRefunds();
   await sweepStrayUploads();
 }
 

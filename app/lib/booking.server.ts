@@ -18,6 +18,7 @@ import { db, writeTransaction, type Db } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs.server";
 import { CONSULT_HOLD_MINUTES, formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consult-slots";
+import { settleStageStatements } from "~/lib/job-stage.server";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
 import { readStoredDesign } from "~/lib/stored-plan";
@@ -348,7 +349,7 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
           await tx
             .update(leads)
             .set({ status: "consult-booked", updatedAt: now })
-            .where(and(eq(leads.id, booking.leadId), inArray(leads.status, ["new", "contacted"])));
+            .where(and(eq(leads.id, booking.leadId), inArray(leads.status, ["request", "called-back"])));
           return "applied";
         }
       }
@@ -419,6 +420,8 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
     await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending")));
     await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` });
     if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
+    // The request's stage follows the booking: no confirmed consult left, no "consult booked".
+    for (const statement of settleStageStatements({ leadId: lead.id, from: ["consult-booked"], cancelledBookingId: booking.id, at: now.toISOString(), tx })) await statement;
   });
   return { ...booking, status: "cancelled" };
 }

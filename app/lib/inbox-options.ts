@@ -66,6 +66,7 @@ export function inboxSearchParams(filters: InboxFilters): URLSearchParams {
 export type InboxRow = {
   id: number;
   status: LeadStatus;
+  pausedStage: LeadStatus | null;
   customerName: string;
   email: string;
   phone: string;

@@ -11,7 +11,7 @@ const day = (label: string) =>
 /** The inbox's filters from search params; every field is checked and named in its message. */
 export const inboxQuerySchema = z
   .object({
-    status: optional(z.enum(LEAD_STATUSES, { error: `Status must be one of: ${LEAD_STATUSES.join(", ")}.` })),
+    status: optional(z.enum(LEAD_STATUSES, { error: `Stage must be one of: ${LEAD_STATUSES.join(", ")}.` })),
     assignee: optional(
       z.union([z.literal("none"), z.string().regex(/^\d{1,9}$/).transform(Number)], {
         error: "Assignee must be a team member's id or \"none\".",

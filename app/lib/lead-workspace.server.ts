@@ -3,7 +3,9 @@ import { alias } from "drizzle-orm/sqlite-core";
 import { emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/db.server";
-import { STATUS_LABEL } from "~/lib/lead-status";
+import type { Design } from "~/lib/design";
+import type { SummaryLine } from "~/lib/design-plan";
+import { allowedMoves, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
 import { formatMoneyWhole } from "~/lib/money";
 import type { SessionUser } from "~/lib/session.server";
 import { readStoredPlan, writeStoredPlan, type StoredDesign, type StoredPlan, type StoredPlanRecord } from "~/lib/stored-plan";
@@ -96,7 +98,7 @@ export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
 
 export function listPhotos(lead: Lead) {
   return db
-    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName })
+    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName, source: leadPhotos.source })
     .from(leadPhotos)
     .where(and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId)))
     .orderBy(asc(leadPhotos.id));
@@ -110,21 +112,35 @@ function scoped(lead: Lead) {
   return and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId));
 }
 
-/** Moves a lead to any status (the usual path is new → contacted → consult booked → proposal sent → won or lost); recorded either way. */
-export async function changeStatus(user: SessionUser, lead: Lead, status: LeadStatus, lostReason: string): Promise<ActionResult> {
-  if (status === lead.status && (status !== "lost" || lostReason === lead.lostReason)) {
-    return { ok: false, status: 400, errors: { status: `The request is already “${STATUS_LABEL[status]}”.` } };
+/**
+ * Moves a job by hand: called back, on hold or not going ahead (with a reason), picked up again where
+ * it stopped, or along the build's steps. Stages that follow an event (consult, visit, proposal,
+ * deposit) are refused here: the event sets them.
+ */
+export async function changeStage(user: SessionUser, lead: Lead, to: LeadStatus, reason: string): Promise<ActionResult> {
+  const move = allowedMoves(lead.status, lead.pausedStage).find((m) => m.to === to);
+  if (!move) {
+    const choices = allowedMoves(lead.status, lead.pausedStage).map((m) => `“${m.label}”`).join(", ");
+    return { ok: false, status: 400, errors: { status: `From “${STATUS_LABEL[lead.status]}” the job can move to ${choices || "no other stage by hand"}.` } };
   }
+  if (move.needsReason && reason.length < 3) {
+    return { ok: false, status: 400, errors: { reason: `Say why (3 to 200 characters), e.g. “waiting for the town's permit” or “went with another contractor”.` } };
+  }
+  const isStopping = to === "on-hold" || to === "not-going-ahead";
   const at = now();
-  const detail =
-    status === lead.status
-      ? `Reason for losing it changed: ${lostReason}`
-      : `${STATUS_LABEL[lead.status]} → ${STATUS_LABEL[status]}${status === "lost" ? `: ${lostReason}` : ""}`;
+  const detail = `${STATUS_LABEL[lead.status]} → ${STATUS_LABEL[to]}${move.needsReason ? `: ${reason}` : ""}`;
   await db.batch([
     db
       .update(leads)
-      .set({ status, lostReason: status === "lost" ? lostReason : null, updatedAt: at })
-      .where(scoped(lead)),
+      .set({
+        status: to,
+        stopReason: isStopping ? reason : null,
+        // Stopping remembers the step (a job on hold that is then dropped keeps the step it held at).
+        pausedStage: isStopping ? (lead.status === "on-hold" ? lead.pausedStage : lead.status) : null,
+        ...(to === "called-back" && !lead.calledBackAt ? { calledBackAt: at } : {}),
+        updatedAt: at,
+      })
+      .where(and(scoped(lead), eq(leads.status, lead.status))),
     db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "status", detail, createdAt: at }),
   ]);
   return { ok: true };
@@ -171,10 +187,10 @@ export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId:
   return { ok: true };
 }
 
-/** Gives a won job to a crew member of the company (or takes it back). */
+/** Gives a signed job to a crew member of the company (or takes it back). */
 export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null): Promise<ActionResult> {
-  if (lead.status !== "won") {
-    return { ok: false, status: 400, errors: { crewUserId: "Mark the request won before giving it to a crew." } };
+  if (!isSignedStage(lead.status)) {
+    return { ok: false, status: 400, errors: { crewUserId: "A job goes to a crew once it is signed and the deposit is paid." } };
   }
   if (crewUserId === lead.crewUserId) {
     return { ok: false, status: 400, errors: { crewUserId: "The job is already with that crew." } };

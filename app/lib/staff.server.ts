@@ -1,6 +1,7 @@
 import { and, eq } from "drizzle-orm";
 import { leads, type Lead, type Role } from "~/db/schema";
 import { db } from "~/lib/db.server";
+import { isSignedStage } from "~/lib/lead-status";
 import { getSessionUser, type SessionUser } from "~/lib/session.server";
 
 /** Staff who work the inbox and see prices. */
@@ -36,7 +37,7 @@ export function parseLeadId(raw: string | undefined): number {
 
 /**
  * A lead the user may open, or a 404 (never a 403, so ids of other companies' leads reveal nothing).
- * Owners and estimators: any lead of their company. Crew: only won jobs assigned to them.
+ * Owners and estimators: any lead of their company. Crew: only signed jobs assigned to them.
  */
 export async function requireLeadFor(user: SessionUser, leadId: number): Promise<Lead> {
   const [lead] = await db
@@ -46,7 +47,7 @@ export async function requireLeadFor(user: SessionUser, leadId: number): Promise
     .limit(1);
   const isAllowed =
     lead !== undefined &&
-    (isOfficeRole(user.role) || (user.role === "crew" && lead.crewUserId === user.id && lead.status === "won"));
+    (isOfficeRole(user.role) || (user.role === "crew" && lead.crewUserId === user.id && isSignedStage(lead.status)));
   if (!lead || !isAllowed) throw new Response("Not found", { status: 404 });
   return lead;
 }

@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
-import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { JobProgressCompact } from "~/components/job-progress";
 import { SelectField, TextField } from "~/components/ui/field";
 import { LEAD_STATUSES, users } from "~/db/schema";
 import { formatInches } from "~/domain/units";
@@ -60,7 +60,7 @@ function hrefFor(filters: InboxFilters, patch: Partial<InboxFilters>): string {
 }
 
 const COLUMNS: { sort: InboxSort; label: string; className?: string }[] = [
-  { sort: "status", label: "Status", className: "hidden sm:table-cell" },
+  { sort: "status", label: "Stage", className: "hidden sm:table-cell" },
   { sort: "customer", label: "Customer" },
   { sort: "town", label: "Town", className: "hidden md:table-cell" },
   { sort: "bowl", label: "Bowl and stone", className: "hidden lg:table-cell" },
@@ -136,7 +136,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
         </a>
       </div>
 
-      <nav aria-label="Filter by status" className="-mx-1 overflow-x-auto">
+      <nav aria-label="Filter by stage" className="-mx-1 overflow-x-auto">
         <ul className="flex gap-1 px-1 pb-1">
           {([null, ...LEAD_STATUSES] as const).map((status) => {
             const isCurrent = filters.status === status;
@@ -145,12 +145,12 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                 <Link
                   to={hrefFor(filters, { status, page: 1 })}
                   aria-current={isCurrent ? "page" : undefined}
-                  className={`inline-flex items-center gap-1.5 rounded-full border px-3 py-1.5 text-sm font-bold whitespace-nowrap ${
-                    isCurrent ? "border-char-800 bg-char-800 text-ash-50" : "border-ash-300 bg-white text-char-700 hover:bg-ash-100"
+                  className={`inline-flex items-center gap-1.5 border-b-3 px-2 py-1.5 text-sm font-bold whitespace-nowrap ${
+                    isCurrent ? "border-ember-500 text-char-900" : "border-transparent text-char-700 hover:border-ash-300"
                   }`}
                 >
                   {status ? STATUS_LABEL[status] : "All"}
-                  <span className={`tabular-nums ${isCurrent ? "text-ash-300" : "text-char-500"}`}>{counts[status ?? "all"]}</span>
+                  <span className="text-char-600 tabular-nums">{counts[status ?? "all"]}</span>
                 </Link>
               </li>
             );
@@ -194,7 +194,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
               return (
                 <tr key={row.id} className={unseen ? "bg-ember-50/60" : undefined}>
                   <td className="hidden px-3 py-2.5 align-top sm:table-cell">
-                    <LeadStatusBadge status={row.status} />
+                    <JobProgressCompact stage={row.status} pausedStage={row.pausedStage} />
                   </td>
                   <td className="px-3 py-2.5 align-top">
                     <Link to={`/app/leads/${row.id}`} className={`text-char-900 underline-offset-2 hover:underline ${unseen ? "font-extrabold" : "font-bold"}`}>
@@ -210,7 +210,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                       {row.town} · {formatInches(row.bowlDiameterIn)} bowl
                     </span>
                     <span className="mt-1 block sm:hidden">
-                      <LeadStatusBadge status={row.status} />
+                      <JobProgressCompact stage={row.status} pausedStage={row.pausedStage} />
                     </span>
                   </td>
                   <td className="hidden px-3 py-2.5 align-top md:table-cell">{row.town}</td>

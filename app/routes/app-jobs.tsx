@@ -1,8 +1,9 @@
-import { and, desc, eq } from "drizzle-orm";
+import { and, desc, eq, inArray } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { Link } from "react-router";
 import type { Route } from "./+types/app-jobs";
-import { leads, STAFF_ROLES, users } from "~/db/schema";
+import { leads, SIGNED_STAGES, STAFF_ROLES, users } from "~/db/schema";
+import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/db.server";
 import { currentVersion } from "~/lib/lead-workspace.server";
@@ -16,10 +17,10 @@ const crew = alias(users, "crew");
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const isOffice = isOfficeRole(user.role);
-  // Crew see only the won jobs given to them; the office sees every won job of the company.
+  // Crew see only the signed jobs given to them; the office sees every signed job of the company.
   const where = isOffice
-    ? and(eq(leads.companyId, user.companyId), eq(leads.status, "won"))
-    : and(eq(leads.companyId, user.companyId), eq(leads.status, "won"), eq(leads.crewUserId, user.id));
+    ? and(eq(leads.companyId, user.companyId), inArray(leads.status, SIGNED_STAGES))
+    : and(eq(leads.companyId, user.companyId), inArray(leads.status, SIGNED_STAGES), eq(leads.crewUserId, user.id));
   const rows = await db
     .select({ lead: leads, crewName: crew.name })
     .from(leads)
@@ -50,11 +51,11 @@ export default function JobsRoute({ loaderData }: Route.ComponentProps) {
       <div>
         <h1 className="text-2xl font-extrabold">{isOffice ? "Won jobs" : "My jobs"}</h1>
         <p className="text-char-600">
-          {isOffice ? "Every won job and the crew building it." : "The jobs you are building: the cut sheet, the cap template and the material order."}
+          {isOffice ? "Every signed job and the crew building it." : "The jobs you are building: the cut sheet, the cap template and the material order."}
         </p>
       </div>
       {jobs.length === 0 ? (
-        <p className="card p-6 text-char-600">{isOffice ? "No won jobs yet." : "No jobs are assigned to you yet."}</p>
+        <p className="card p-6 text-char-600">{isOffice ? "No signed jobs yet." : "No jobs are assigned to you yet."}</p>
       ) : (
         <ul className="grid gap-4 md:grid-cols-2">
           {jobs.map((job) => (

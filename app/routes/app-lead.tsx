@@ -2,23 +2,32 @@ import { data, Form, Link, redirect, useLocation, useNavigation } from "react-ro
 import type { Route } from "./+types/app-lead";
 import { CapDrawingSvg } from "~/components/cap-drawing-svg";
 import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
-import { LeadStatusBadge } from "~/components/lead-status-badge";
+import { JobProgress } from "~/components/job-progress";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { PitPreview } from "~/components/pit-preview";
 import { FormAlert, SelectField } from "~/components/ui/field";
-import { LEAD_STATUSES, STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog.server";
 import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-list";
 import { refreshStoredPlan } from "~/lib/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
-import { BUILD_WINDOW_LABEL, STATUS_LABEL } from "~/lib/lead-status";
+import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
+import { findLiveBooking } from "~/lib/booking.server";
+import { jobTotalsFor } from "~/lib/change-orders.server";
+import { parseProposalDocument, PROPOSAL_STATE_LABEL } from "~/lib/proposal-document";
+import { requestDepositRefund } from "~/lib/proposal-payments.server";
+import { listProposals } from "~/lib/proposals.server";
+import { checkSite } from "~/domain/site-checks";
+import { getProposalTerms } from "~/lib/proposal-terms.server";
+import { findSiteVisit } from "~/lib/site-visit.server";
+import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL } from "~/lib/site-visit-schema";
 import {
   addNote,
   assignCrew,
   assignEstimator,
-  changeStatus,
+  changeStage,
   listPhotos,
   listRevisions,
   listTimeline,
@@ -43,7 +52,14 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const lead = await requireLeadFor(user, parseLeadId(params.leadId));
   const isOffice = isOfficeRole(user.role);
-  const [company, revisions, photos] = await Promise.all([getCompany(user.companyId), listRevisions(lead), listPhotos(lead)]);
+  const [company, revisions, photos, booking, visit, terms] = await Promise.all([
+    getCompany(user.companyId),
+    listRevisions(lead),
+    listPhotos(lead),
+    findLiveBooking(lead.id),
+    findSiteVisit(lead),
+    getProposalTerms(user.companyId),
+  ]);
   const original = originalVersion(lead);
   const versions = [original, ...revisions];
   const wanted = new URL(request.url).searchParams.get("version");
@@ -59,12 +75,53 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const tz = company.timeZone;
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
+  const allProposals = isOffice ? await listProposals(lead) : [];
+  const mainProposal = allProposals.find((p) => p.kind === "proposal" && (p.status === "sent" || p.status === "accepted" || p.status === "signed")) ?? null;
+  const signedProposal = allProposals.find((p) => p.kind === "proposal" && p.status === "signed") ?? null;
+  const totals = signedProposal ? await jobTotalsFor(signedProposal) : null;
+  const nextStep = describeNextStep(lead.status, lead.pausedStage, isOffice, {
+    firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
+    consultLabel: booking?.status === "confirmed" ? formatZonedDateTime(booking.startsAt, tz) : null,
+    proposal: mainProposal ? { state: mainProposal.status as "sent" | "accepted" | "signed", opened: mainProposal.firstOpenedAt !== null } : null,
+    openChangeOrder: allProposals.some((p) => p.kind === "change-order" && p.status === "sent"),
+    stopReason: lead.stopReason,
+  });
+
   return {
     isOffice,
+    nextStep,
+    moves: isOffice ? allowedMoves(lead.status, lead.pausedStage) : [],
+    isOwner: user.role === "owner",
+    proposals: allProposals.map((p) => {
+      const document = parseProposalDocument(p.documentJson);
+      return {
+        id: p.id,
+        kind: p.kind,
+        number: document.number,
+        status: p.status,
+        stateLabel: PROPOSAL_STATE_LABEL[p.status],
+        href: `/p/${p.token}`,
+        amount: formatMoney(p.kind === "change-order" ? p.priceCents : (p.totalCents ?? p.priceCents)),
+        sent: formatZonedDateTime(p.sentAt, tz),
+        opened: p.firstOpenedAt ? `opened ${p.openCount} time${p.openCount === 1 ? "" : "s"}, last ${formatZonedDateTime(p.lastOpenedAt!, tz)}` : "not opened yet",
+        signed: p.signedAt ? `signed by ${p.signerName}, ${formatZonedDateTime(p.signedAt, tz)}` : null,
+        deposit: p.depositPaidAt && p.depositCents ? `deposit ${formatMoney(p.depositCents)} paid` : null,
+        refund: p.refundOwedAt ? `deposit refunded${p.refundedAt ? "" : " (on its way)"}: ${p.refundReason}` : null,
+        canWithdraw: p.status === "sent" || p.status === "accepted",
+        canRefund: p.kind === "proposal" && p.status === "signed" && p.paymentIntentId !== null && p.refundOwedAt === null,
+        expires: p.status === "sent" || p.status === "accepted" ? formatZonedDateTime(p.expiresAt, tz) : null,
+      };
+    }),
+    totals: totals
+      ? { contract: formatMoney(totals.contractCents), deposit: formatMoney(totals.depositCents), balance: totals.balanceCents >= 0 ? formatMoney(totals.balanceCents) : `${formatMoney(-totals.balanceCents)} credit` }
+      : null,
     lead: {
       id: lead.id,
       status: lead.status,
-      lostReason: lead.lostReason,
+      stageLabel: STATUS_LABEL[lead.status],
+      pausedStage: lead.pausedStage,
+      isSigned: isSignedStage(lead.status),
+      stopReason: lead.stopReason,
       customerName: lead.customerName,
       // The crew gets the site address and nothing else of the customer's contact details.
       email: isOffice ? lead.email : null,
@@ -79,6 +136,23 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       crewUserId: lead.crewUserId,
     },
     photos,
+    visit: visit
+      ? {
+          lines: [
+            ["Nearest structure", `${visit.structureFt} ft`],
+            ["Property line", `${visit.propertyLineFt} ft`],
+            ["Overhanging branches", visit.branchesFt === null ? "None over the spot" : `${visit.branchesFt} ft`],
+            ["Slope", SLOPE_LABEL[visit.slope]],
+            ["Soil", SOIL_LABEL[visit.soil]],
+            ["Access width", `${visit.accessWidthIn} in`],
+            ["Utility marks", UTILITY_LABEL[visit.utilityMarks]],
+            ["Dug soil", SPOIL_LABEL[visit.spoil]],
+          ] as [string, string][],
+          notes: visit.notes,
+          checks: checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map((c) => c.message),
+          when: formatZonedDateTime(visit.updatedAt, tz),
+        }
+      : null,
     versions: versions.map((v, i) => ({
       key: v.revisionId === null ? "original" : String(v.revisionId),
       label: versionLabel(v, i),
@@ -115,13 +189,13 @@ export async function action({ request, params }: Route.ActionArgs) {
   const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
   const parsed = leadActionSchema.safeParse(fields);
   if (!parsed.success) {
-    return data({ intent: fields.intent ?? null, errors: leadActionErrors(parsed.error) }, { status: 400 });
+    return data({ intent: fields.intent ?? null, fields, errors: leadActionErrors(parsed.error) }, { status: 400 });
   }
   const input = parsed.data;
   let result: ActionResult;
   switch (input.intent) {
     case "status":
-      result = await changeStatus(user, lead, input.status, input.lostReason);
+      result = await changeStage(user, lead, input.status, input.reason);
       break;
     case "note":
       result = await addNote(user, lead, input.note);
@@ -132,8 +206,17 @@ export async function action({ request, params }: Route.ActionArgs) {
     case "crew":
       result = await assignCrew(user, lead, input.crewUserId);
       break;
+    case "refund": {
+      if (user.role !== "owner") {
+        result = { ok: false, status: 403, errors: { reason: "Only an owner can refund a deposit." } };
+        break;
+      }
+      const refused = await requestDepositRefund({ actorUserId: user.id, lead, proposalId: input.proposalId, reason: input.reason });
+      result = refused ? { ok: false, status: 409, errors: { reason: refused } } : { ok: true };
+      break;
+    }
   }
-  if (!result.ok) return data({ intent: input.intent as string | null, errors: result.errors }, { status: result.status });
+  if (!result.ok) return data({ intent: input.intent as string | null, fields, errors: result.errors }, { status: result.status });
   return redirect(`/app/leads/${lead.id}`);
 }
 
@@ -148,7 +231,7 @@ const kindLabel: Record<string, string> = {
 };
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, isOffice, shown, versions, photos, timeline, team } = loaderData;
+  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit, proposals, totals, isOwner } = loaderData;
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   const navigation = useNavigation();
@@ -165,12 +248,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           <Link to={isOffice ? "/app/inbox" : "/app/jobs"} className="text-sm font-bold text-ember-700 hover:underline">
             ← {isOffice ? "Inbox" : "My jobs"}
           </Link>
-          <h1 className="mt-1 flex flex-wrap items-center gap-3 text-2xl font-extrabold">
-            {lead.customerName} <LeadStatusBadge status={lead.status} />
-          </h1>
+          <h1 className="mt-1 text-2xl font-extrabold">{lead.customerName}</h1>
           <p className="text-sm text-char-600">
-            Request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
-            {lead.status === "lost" && lead.lostReason ? ` · Lost: ${lead.lostReason}` : ""}
+            {lead.town} · request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
@@ -188,11 +268,35 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
         </div>
       </div>
 
+      <section aria-labelledby="next-step-title" className="card flex flex-col gap-4 border-l-4 border-l-ember-500 p-5">
+        <div>
+          <p className="text-xs font-extrabold tracking-widest text-char-600 uppercase">
+            Next step <span className="sr-only">· stage: {lead.stageLabel}</span>
+          </p>
+          <h2 id="next-step-title" className="text-xl font-extrabold">{nextStep.title}</h2>
+          {nextStep.detail ? <p className="mt-1 text-sm text-char-700">{nextStep.detail}</p> : null}
+        </div>
+        <JobProgress stage={lead.status} pausedStage={lead.pausedStage} />
+        {isOffice ? (
+          <div className="flex flex-wrap gap-2">
+            {!visit && !lead.isSigned ? <Link to={`/app/leads/${lead.id}/visit`} className={lead.status === "consult-booked" ? "btn-primary" : "btn-quiet"}>Record the site visit</Link> : null}
+            {!lead.isSigned ? (
+              <Link to={`/app/leads/${lead.id}/proposal`} className={lead.status === "measured" ? "btn-primary" : "btn-quiet"}>
+                {proposals.some((p) => p.kind === "proposal" && p.canWithdraw) ? "Send a new proposal" : "Write the proposal"}
+              </Link>
+            ) : (
+              <Link to={`/app/leads/${lead.id}/change-order`} className="btn-quiet">Send a change order</Link>
+            )}
+          </div>
+        ) : null}
+      </section>
+
       {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
 
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:grid-rows-[auto_1fr]">
         <div className="flex min-w-0 flex-col gap-6 lg:col-start-2 lg:row-start-1">
           <CustomerCard lead={lead} isOffice={isOffice} />
+          {visit ? <SiteVisitCard visit={visit} leadId={lead.id} isOffice={isOffice} /> : null}
           <PhotoList photos={photos} />
         </div>
 
@@ -339,30 +443,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           {isOffice && team ? (
             <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
               <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
-              <Form key={`${formKey}-status`} method="post" className="flex flex-col gap-2" noValidate>
-                <input type="hidden" name="intent" value="status" />
-                <SelectField label="Status" name="status" defaultValue={lead.status} error={errorsFor("status").status}>
-                  {LEAD_STATUSES.map((s) => (
-                    <option key={s} value={s}>{STATUS_LABEL[s]}</option>
-                  ))}
-                </SelectField>
-                <label htmlFor="lost-reason" className="field-label">Reason, if lost</label>
-                <input
-                  id="lost-reason"
-                  name="lostReason"
-                  defaultValue={lead.lostReason ?? ""}
-                  maxLength={200}
-                  aria-invalid={errorsFor("status").lostReason ? true : undefined}
-                  aria-describedby={errorsFor("status").lostReason ? "lost-reason-error" : "lost-reason-hint"}
-                  className="field-input"
-                />
-                {errorsFor("status").lostReason ? (
-                  <p id="lost-reason-error" className="field-error">{errorsFor("status").lostReason}</p>
-                ) : (
-                  <p id="lost-reason-hint" className="field-hint">Needed only when the job is lost.</p>
-                )}
-                <button type="submit" className="btn-primary self-start" disabled={isBusy}>Change status</button>
-              </Form>
+              <StageForm key={`${formKey}-status`} stageLabel={lead.stageLabel} moves={moves} errors={errorsFor("status")} submitted={actionData?.intent === "status" ? actionData.fields : null} isBusy={isBusy} />
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
@@ -375,7 +456,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Assign</button>
               </Form>
 
-              {lead.status === "won" ? (
+              {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
                   <SelectField label="Crew" name="crewUserId" defaultValue={lead.crewUserId === null ? "" : String(lead.crewUserId)} error={errorsFor("crew").crewUserId}>
@@ -387,7 +468,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Give the job to the crew</button>
                 </Form>
               ) : (
-                <p className="text-sm text-char-600">Once the job is won, give it to a crew here.</p>
+                <p className="text-sm text-char-600">Once the job is signed and the deposit paid, give it to a crew here.</p>
               )}
 
               <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
@@ -406,6 +487,10 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Add note</button>
               </Form>
             </section>
+          ) : null}
+
+          {isOffice && (proposals.length || totals) ? (
+            <ProposalsCard leadId={lead.id} proposals={proposals} totals={totals} isOwner={isOwner} errors={errorsFor("refund")} isBusy={isBusy} />
           ) : null}
 
           {isOffice ? (
@@ -433,6 +518,111 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
 
 type LeadView = Route.ComponentProps["loaderData"]["lead"];
+type ProposalView = Route.ComponentProps["loaderData"]["proposals"][number];
+
+/** The job's proposals and change orders: where each stands, and what the office can do with it. */
+function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: { leadId: number; proposals: ProposalView[]; totals: { contract: string; deposit: string; balance: string } | null; isOwner: boolean; errors: Record<string, string>; isBusy: boolean }) {
+  return (
+    <section aria-labelledby="proposals-title" className="card flex flex-col gap-3 p-5 text-sm">
+      <h2 id="proposals-title" className="text-lg font-extrabold">Proposal and changes</h2>
+      {totals ? (
+        <dl className="grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-ash-100 p-3">
+          <dt className="font-bold">Job total</dt>
+          <dd className="text-right tabular-nums">{totals.contract}</dd>
+          <dt className="font-bold">Deposit paid</dt>
+          <dd className="text-right tabular-nums">{totals.deposit}</dd>
+          <dt className="font-bold">Balance on completion</dt>
+          <dd className="text-right tabular-nums">{totals.balance}</dd>
+        </dl>
+      ) : null}
+      <ul className="flex flex-col gap-3">
+        {proposals.map((p) => (
+          <li key={p.id} className="border-l-3 border-ash-300 pl-3">
+            <p className="font-bold">
+              <a href={p.href} className="text-ember-700 underline">{p.number}</a>: {p.stateLabel}
+            </p>
+            <p>
+              {p.amount} · sent {p.sent} · {p.opened}
+            </p>
+            {p.signed ? <p>{p.signed}</p> : null}
+            {p.deposit ? <p>{p.deposit}</p> : null}
+            {p.refund ? <p>{p.refund}</p> : null}
+            {p.expires ? <p className="text-char-600">Open to sign until {p.expires}</p> : null}
+            <p>
+              <a href={`${p.href}.pdf`} download className="font-bold text-ember-700 underline">PDF</a>
+            </p>
+            {p.canWithdraw ? (
+              <Form method="post" action={`/app/leads/${leadId}/proposal`} className="mt-1 flex flex-wrap items-end gap-2">
+                <input type="hidden" name="intent" value="withdraw" />
+                <input type="hidden" name="proposalId" value={p.id} />
+                <label className="flex flex-col text-xs font-bold">
+                  Why withdraw {p.number}
+                  <input name="reason" required minLength={3} maxLength={200} className="field-input text-sm" />
+                </label>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>Withdraw</button>
+              </Form>
+            ) : null}
+            {p.canRefund && isOwner ? (
+              <Form method="post" className="mt-1 flex flex-wrap items-end gap-2">
+                <input type="hidden" name="intent" value="refund" />
+                <input type="hidden" name="proposalId" value={p.id} />
+                <label className="flex flex-col text-xs font-bold">
+                  Reason for refunding the deposit
+                  <input name="reason" maxLength={200} aria-invalid={errors.reason ? true : undefined} className="field-input text-sm" />
+                </label>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>Refund the deposit</button>
+                {errors.reason ? <p className="field-error w-full">{errors.reason}</p> : null}
+              </Form>
+            ) : null}
+          </li>
+        ))}
+      </ul>
+    </section>
+  );
+}
+
+/** Moves the job by hand; a refused move keeps what was chosen and typed. */
+function StageForm({
+  stageLabel,
+  moves,
+  errors,
+  submitted,
+  isBusy,
+}: {
+  stageLabel: string;
+  moves: { to: string; label: string; needsReason: boolean }[];
+  errors: Record<string, string>;
+  submitted: Record<string, string> | null;
+  isBusy: boolean;
+}) {
+  if (moves.length === 0) return <p className="text-sm text-char-600">Stage: {stageLabel}. It moves on with the next step above.</p>;
+  return (
+    <Form method="post" className="flex flex-col gap-2" noValidate>
+      <input type="hidden" name="intent" value="status" />
+      <SelectField label={`Move the job (now: ${stageLabel})`} name="status" defaultValue={submitted?.status ?? moves[0]!.to} error={errors.status}>
+        {moves.map((m) => (
+          <option key={m.to} value={m.to}>{m.label}</option>
+        ))}
+      </SelectField>
+      <label htmlFor="stage-reason" className="field-label">Why (for on hold or not going ahead)</label>
+      <input
+        id="stage-reason"
+        name="reason"
+        defaultValue={submitted?.reason ?? ""}
+        maxLength={200}
+        aria-invalid={errors.reason ? true : undefined}
+        aria-describedby={errors.reason ? "stage-reason-error" : "stage-reason-hint"}
+        className="field-input"
+      />
+      {errors.reason ? (
+        <p id="stage-reason-error" className="field-error">{errors.reason}</p>
+      ) : (
+        <p id="stage-reason-hint" className="field-hint">Consult, visit, proposal and deposit move the job by themselves.</p>
+      )}
+      <button type="submit" className="btn-primary self-start" disabled={isBusy}>Move the job</button>
+    </Form>
+  );
+}
 
 function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean }) {
   return (
@@ -460,7 +650,37 @@ function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean })
   );
 }
 
-function PhotoList({ photos }: { photos: { id: number; originalName: string }[] }) {
+function SiteVisitCard({ visit, leadId, isOffice }: { visit: NonNullable<Route.ComponentProps["loaderData"]["visit"]>; leadId: number; isOffice: boolean }) {
+  return (
+    <section aria-labelledby="visit-title" className="card p-5 text-sm">
+      <div className="flex items-baseline justify-between gap-2">
+        <h2 id="visit-title" className="text-lg font-extrabold">Site visit</h2>
+        {isOffice ? <Link to={`/app/leads/${leadId}/visit`} className="font-bold text-ember-700 underline">Edit</Link> : null}
+      </div>
+      <p className="text-xs text-char-600">Measured {visit.when}; these replace the homeowner's guesses.</p>
+      <dl className="mt-2 grid gap-1">
+        {visit.lines.map(([label, value]) => (
+          <div key={label} className="flex flex-wrap gap-x-2">
+            <dt className="font-bold text-char-700">{label}:</dt>
+            <dd>{value}</dd>
+          </div>
+        ))}
+      </dl>
+      {visit.notes ? <p className="mt-2 border-l-3 border-ash-300 pl-3 whitespace-pre-line text-char-700">{visit.notes}</p> : null}
+      {visit.checks.length ? (
+        <ul className="mt-3 list-disc rounded-lg border border-ember-300 bg-ember-50 py-2 pr-3 pl-7">
+          {visit.checks.map((c) => (
+            <li key={c}>{c}</li>
+          ))}
+        </ul>
+      ) : (
+        <p className="mt-3 font-semibold text-moss-700">Setback, access and ground check out.</p>
+      )}
+    </section>
+  );
+}
+
+function PhotoList({ photos }: { photos: { id: number; originalName: string; source: "homeowner" | "site-visit" }[] }) {
   return (
     <section aria-labelledby="photos-title" className="card p-5">
       <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
@@ -469,8 +689,9 @@ function PhotoList({ photos }: { photos: { id: number; originalName: string }[] 
           {photos.map((p) => (
             <li key={p.id}>
               <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
-                <img src={`/photos/${p.id}`} alt={`Yard photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
+                <img src={`/photos/${p.id}`} alt={`${p.source === "site-visit" ? "Site visit" : "Homeowner's"} photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
               </a>
+              <p className="mt-0.5 text-xs text-char-600">{p.source === "site-visit" ? "At the visit" : "From the homeowner"}</p>
             </li>
           ))}
         </ul>

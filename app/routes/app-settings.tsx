@@ -44,6 +44,9 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
         <p className="text-char-600">
           Your public page lives at <code className="rounded bg-ash-200 px-1.5 py-0.5">/c/{company.slug}</code>.
         </p>
+        <p className="text-char-600">
+          Deposit, letterhead and what proposals include: <Link to="/app/settings/proposals" className="font-bold text-ember-700 underline">proposal terms</Link>.
+        </p>
       </div>
       {params.get("saved") && !actionData ? (
         <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Settings saved.</p>

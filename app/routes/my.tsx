@@ -1,11 +1,13 @@
-import { and, eq, inArray } from "drizzle-orm";
+import { and, desc, eq, inArray } from "drizzle-orm";
 import { data, Form, Link } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/my";
 import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
-import { bookings, companies, leadPhotos, leads } from "~/db/schema";
+import { bookings, companies, leadPhotos, leads, proposals } from "~/db/schema";
+import { parseProposalDocument } from "~/lib/proposal-document";
+import type { DesignSummaryLine } from "~/emails/design-summary";
 import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/booking.server";
 import { db } from "~/lib/db.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
@@ -17,17 +19,25 @@ import { readStoredDesign } from "~/lib/stored-plan";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
+const HOMEOWNER_PROPOSAL_STATE = { sent: "ready to read and sign", accepted: "signed, deposit to pay", signed: "signed", withdrawn: "withdrawn", expired: "expired" } as const;
+
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
   const rows = await listHomeownerLeads(user.id);
   const ids = rows.map((r) => r.id);
-  const [photos, liveBookings, companyRows] = ids.length
+  const [photos, liveBookings, companyRows, proposalRows] = ids.length
     ? await Promise.all([
         db.select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName }).from(leadPhotos).where(inArray(leadPhotos.leadId, ids)),
         db.select().from(bookings).where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
         db.select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone }).from(companies).where(inArray(companies.id, rows.map((r) => r.companyId))),
+        // Only proposals on this homeowner's own requests (ids come from their leads).
+        db
+          .select({ leadId: proposals.leadId, kind: proposals.kind, token: proposals.token, status: proposals.status, documentJson: proposals.documentJson, sentAt: proposals.sentAt })
+          .from(proposals)
+          .where(inArray(proposals.leadId, ids))
+          .orderBy(desc(proposals.sentAt)),
       ])
-    : [[], [], []];
+    : [[], [], [], []];
   const now = Date.now();
   return {
     name: user.name,
@@ -48,6 +58,9 @@ export async function loader({ request }: Route.LoaderArgs) {
             ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`
             : null,
         photos: photos.filter((p) => p.leadId === lead.id),
+        proposals: proposalRows
+          .filter((p) => p.leadId === lead.id && p.status !== "withdrawn")
+          .map((p) => ({ href: `/p/${p.token}`, number: parseProposalDocument(p.documentJson).number, state: HOMEOWNER_PROPOSAL_STATE[p.status], isChange: p.kind === "change-order" })),
         consult: booking
           ? {
               bookingId: booking.id,
@@ -55,7 +68,8 @@ export async function loader({ request }: Route.LoaderArgs) {
               canCancel: new Date(booking.startsAt).getTime() - now >= HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000,
             }
           : null,
-        isOpen: lead.status !== "won" && lead.status !== "lost",
+        // A consult is booked before the visit; later stages have had theirs.
+        isOpen: lead.status === "request" || lead.status === "called-back",
       };
     }),
   };
@@ -138,6 +152,15 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
               </div>
             ) : req.isOpen ? (
               <Link to={req.consultPath} className="btn-quiet self-start">Book a design consult</Link>
+            ) : null}
+            {req.proposals.length ? (
+              <ul className="flex flex-col gap-1 text-sm" aria-label="Proposals">
+                {req.proposals.map((p) => (
+                  <li key={p.href}>
+                    <Link to={p.href} className="font-bold text-ember-700 underline">{p.number}</Link>: {p.state}
+                  </li>
+                ))}
+              </ul>
             ) : null}
             {req.photos.length ? (
               <ul className="flex flex-wrap gap-3" aria-label="Your yard photos">

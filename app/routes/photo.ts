@@ -2,10 +2,11 @@ import { and, eq } from "drizzle-orm";
 import type { Route } from "./+types/photo";
 import { leadPhotos, leads } from "~/db/schema";
 import { db } from "~/lib/db.server";
+import { isSignedStage } from "~/lib/lead-status";
 import { requireUser } from "~/lib/session.server";
 import { readStoredPhoto } from "~/lib/uploads.server";
 
-// Yard photos are never public: the lead's company staff (crew only for their own won jobs) or the
+// Yard photos are never public: the lead's company staff (crew only for their own signed jobs) or the
 // homeowner who sent them. Anyone else gets the same 404 as a photo that does not exist.
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -22,7 +23,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     (user.role === "homeowner"
       ? row.lead.homeownerId === user.id
       : row.lead.companyId === user.companyId &&
-        (user.role !== "crew" || (row.lead.crewUserId === user.id && row.lead.status === "won")));
+        (user.role !== "crew" || (row.lead.crewUserId === user.id && isSignedStage(row.lead.status))));
   if (!row || !isAllowed) return new Response("Not found", { status: 404 });
   const bytes = await readStoredPhoto(row.photo.storedName);
   return new Response(new Uint8Array(bytes), {

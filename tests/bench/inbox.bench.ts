@@ -42,7 +42,7 @@ const pick = <T,>(items: readonly T[]) => items[Math.floor(random() * items.leng
 const FIRST = ["Ada", "Bram", "Cleo", "Dov", "Esme", "Fitz", "Greta", "Hugo", "Iris", "Jonah", "Kaia", "Lev", "Mira", "Nils", "Opal", "Pavel", "Quinn", "Rhea", "Soren", "Tova"];
 const LAST = ["Ashdown", "Brisco", "Calloway", "Drummond", "Everly", "Fairweather", "Galloway", "Hartwell", "Ingram", "Jessop", "Kettering", "Lockridge", "Marlow", "Northcott", "Oakhurst", "Penrose"];
 const TOWNS = ["Millbrook Falls", "Harrow Bend", "Quillan Park", "Stoneleigh", "Copperfield Mills", "Fernwick", "Ashby Cross", "Tallow Creek"];
-const STATUSES = ["new", "contacted", "consult-booked", "proposal-sent", "won", "lost"] as const;
+const STATUSES = ["request", "called-back", "consult-booked", "measured", "proposal-out", "signed", "on-hold", "not-going-ahead"] as const;
 const started = Date.now();
 const now = Date.now();
 for (let offset = 0; offset < LEADS; offset += 500) {
@@ -56,7 +56,8 @@ for (let offset = 0; offset < LEADS; offset += 500) {
       companyId: company!.id,
       ref: `bench-${i}`,
       status,
-      lostReason: status === "lost" ? "Budget." : null,
+      stopReason: status === "not-going-ahead" || status === "on-hold" ? "Budget." : null,
+      pausedStage: status === "not-going-ahead" || status === "on-hold" ? ("called-back" as const) : null,
       assignedUserId: random() < 0.4 ? estimator.id : random() < 0.5 ? owner.id : null,
       customerName: `${first} ${last}`,
       email: `${first}.${last}.${i}@example.test`.toLowerCase(),

@@ -49,6 +49,10 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
   await expect(staffPage.getByText(/Consult cancelled/)).toBeVisible();
   await expect.poll(async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length, { timeout: 15_000 }).toBe(refundsBefore + 1);
   await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email) && /cancelled and refunded/.test(m.subject)).length, { timeout: 15_000 }).toBe(1);
+  // The request's stage follows the cancelled booking: no longer "consult booked" in the inbox.
+  await staffPage.goto(`/app/inbox?q=${encodeURIComponent(email)}`);
+  await expect(staffPage.getByRole("row", { name: /Juno Marsh/ })).toContainText("Request in");
+  await expect(staffPage.getByRole("row", { name: /Juno Marsh/ })).not.toContainText("Consult booked");
   await staff.close();
 });
 

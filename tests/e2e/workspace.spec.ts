@@ -3,13 +3,14 @@ import { screenshotBothWidths, sendRequest, signIn } from "./helpers";
 
 const CUSTOMER = "Yusuf Abernethy";
 
-async function changeStatus(page: Page, status: string, reason = "") {
-  await page.getByLabel("Status").selectOption({ label: status });
-  await page.getByLabel("Reason, if lost").fill(reason);
-  await page.getByRole("button", { name: "Change status" }).click();
+async function moveJob(page: Page, to: string, reason = "") {
+  await page.getByLabel(/^Move the job/).selectOption({ label: to });
+  await page.getByLabel("Why (for on hold or not going ahead)").fill(reason);
+  await page.getByRole("button", { name: "Move the job" }).click();
 }
 
-test("an estimator sees a new request arrive, takes it on, walks it to won, gives it to the crew and opens its cut sheet", async ({ page, browser }) => {
+test("an estimator sees a new request arrive, takes it on, calls back, holds it and picks it up again; then gives a signed job to the crew and opens its cut sheet", async ({ page, browser }) => {
+  test.setTimeout(90_000);
   await signIn(page, "estimator@cinder-slate.test");
   await expect(page).toHaveURL(/\/app\/inbox$/);
   await expect(page.getByRole("heading", { name: "Inbox" })).toBeVisible();
@@ -26,12 +27,12 @@ test("an estimator sees a new request arrive, takes it on, walks it to won, give
   await expect(row).toContainText("New since your last visit");
   await screenshotBothWidths(page, "inbox");
 
-  // Filters live in the URL: search, then the status tab.
+  // Filters live in the URL: search, then the stage tab.
   await page.getByLabel("Search").fill("abernethy");
   await page.getByRole("button", { name: "Apply" }).click();
   await expect(page).toHaveURL(/q=abernethy/);
-  await page.getByRole("navigation", { name: "Filter by status" }).getByRole("link", { name: /^New/ }).click();
-  await expect(page).toHaveURL(/status=new/);
+  await page.getByRole("navigation", { name: "Filter by stage" }).getByRole("link", { name: /^Request in/ }).click();
+  await expect(page).toHaveURL(/status=request/);
   await expect(page).toHaveURL(/q=abernethy/);
   await expect(page.getByRole("row")).toHaveCount(2);
   await page.getByRole("link", { name: CUSTOMER }).click();
@@ -42,21 +43,28 @@ test("an estimator sees a new request arrive, takes it on, walks it to won, give
   const timeline = page.getByRole("region", { name: "Timeline" });
   await expect(timeline).toContainText("Assigned to Theo Brandvold");
 
-  await changeStatus(page, "Contacted");
-  await expect(timeline).toContainText("New → Contacted");
-  await changeStatus(page, "Consult booked");
-  await expect(timeline).toContainText("Contacted → Consult booked");
-  await changeStatus(page, "Proposal sent");
-  await expect(timeline).toContainText("Consult booked → Proposal sent");
+  // The page leads with the next step, and the job's steps as one line.
+  await expect(page.getByRole("heading", { name: "Call Yusuf back" })).toBeVisible();
+  await expect(page.getByRole("list", { name: "Job progress" }).locator("[aria-current=step]")).toContainText("Request");
+  await moveJob(page, "Called back");
+  await expect(timeline).toContainText("Request in → Called back");
+  await expect(page.getByRole("heading", { name: "Get the design consult booked" })).toBeVisible();
 
-  // Lost needs a reason: the message sits beside the field and nothing changes.
-  await changeStatus(page, "Lost");
-  await expect(page.getByText("Say why the job was lost")).toBeVisible();
-  await expect(page.getByLabel("Reason, if lost")).toHaveAttribute("aria-invalid", "true");
-  await expect(page.getByRole("heading", { level: 1 })).toContainText("Proposal sent");
+  // On hold needs a reason: the message sits beside the field, the choice stays, nothing changes.
+  await moveJob(page, "On hold");
+  await expect(page.getByText(/^Say why/)).toBeVisible();
+  await expect(page.getByLabel("Why (for on hold or not going ahead)")).toHaveAttribute("aria-invalid", "true");
+  await expect(page.getByLabel(/^Move the job/)).toHaveValue("on-hold");
+  await moveJob(page, "On hold", "Waiting for the town's burn permit.");
+  await expect(timeline).toContainText("Called back → On hold: Waiting for the town's burn permit.");
+  await expect(page.getByRole("heading", { name: "On hold" })).toBeVisible();
+  await moveJob(page, "Pick it up again (Called back)");
+  await expect(timeline).toContainText("On hold → Called back");
 
-  await changeStatus(page, "Won");
-  await expect(timeline).toContainText("Proposal sent → Won");
+  // A signed job (deposit in) goes to the crew.
+  await page.goto("/app/inbox?status=signed");
+  await page.getByRole("link", { name: "Mirela Castellanos" }).click();
+  await expect(page.getByRole("heading", { name: "Order the stone" })).toBeVisible();
   await page.getByLabel("Crew").selectOption({ label: "Dario Quist" });
   await page.getByRole("button", { name: "Give the job to the crew" }).click();
   await expect(timeline).toContainText("Job given to Dario Quist");
@@ -67,7 +75,7 @@ test("an estimator sees a new request arrive, takes it on, walks it to won, give
   await screenshotBothWidths(page, "lead-detail");
 
   await page.getByRole("link", { name: "Cut sheet" }).click();
-  await expect(page.getByRole("heading", { level: 1 })).toHaveText(CUSTOMER);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText("Mirela Castellanos");
   await expect(page.getByRole("row", { name: /Inner mark/ })).toContainText("from each corner");
   await expect(page.getByRole("region", { name: "Safety on site" })).toContainText("1926.1153");
   await screenshotBothWidths(page, "cut-sheet");
@@ -80,12 +88,12 @@ test("an estimator sees a new request arrive, takes it on, walks it to won, give
 });
 
 test("the crew member sees only the jobs given to them, with no prices or customer contact, and nothing else", async ({ page, browser }) => {
-  // The owner knows a won job that has no crew yet.
+  // The owner knows a request that is not the crew's.
   const office = await browser.newContext();
   const ownerPage = await office.newPage();
   await signIn(ownerPage, "owner@cinder-slate.test");
-  await ownerPage.goto("/app/inbox?status=won");
-  const otherJob = await ownerPage.getByRole("link", { name: "Mirela Castellanos" }).getAttribute("href");
+  await ownerPage.goto("/app/inbox?status=called-back");
+  const otherJob = await ownerPage.getByRole("link", { name: "Hattie Lindqvist" }).getAttribute("href");
   await office.close();
 
   await signIn(page, "crew@cinder-slate.test");
@@ -93,7 +101,7 @@ test("the crew member sees only the jobs given to them, with no prices or custom
   const jobs = page.getByRole("main");
   await expect(jobs.getByRole("heading", { name: "Tobias Wren" })).toBeVisible();
   await expect(jobs.getByText("11 Cinderbrook Lane, Millbrook Falls")).toBeVisible();
-  await expect(jobs.getByRole("heading", { name: "Mirela Castellanos" })).toHaveCount(0);
+  await expect(jobs.getByRole("heading", { name: "Hattie Lindqvist" })).toHaveCount(0);
   await expect(jobs).not.toContainText("$");
   await screenshotBothWidths(page, "crew-jobs");
 

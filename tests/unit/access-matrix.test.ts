@@ -28,6 +28,15 @@ import { loader as jobsLoader } from "~/routes/app-jobs";
 import { loader as layoutLoader } from "~/routes/app-layout";
 import { loader as scheduleLoader } from "~/routes/app-schedule";
 import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
+import { action as visitAction, loader as visitLoader } from "~/routes/app-lead-visit";
+import { action as composeAction, loader as composeLoader } from "~/routes/app-lead-proposal";
+import { action as changeOrderAction, loader as changeOrderLoader } from "~/routes/app-lead-change-order";
+import { loader as termsLoader } from "~/routes/app-settings-proposals";
+import { loader as proposalPageLoader } from "~/routes/proposal";
+import { loader as proposalPdfLoader } from "~/routes/proposal-pdf";
+import { loader as myLoader } from "~/routes/my";
+import { getCompany } from "~/lib/catalog.server";
+import { sendProposal } from "~/lib/proposals.server";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -39,7 +48,7 @@ type Who = "owner" | "estimator" | "crew" | "homeowner" | "anonymous" | "other c
 const WHO: Who[] = ["owner", "estimator", "crew", "homeowner", "anonymous", "other company's owner"];
 
 const cookies = {} as Record<Who, string | undefined>;
-const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0 };
+const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "" };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
   const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
@@ -62,7 +71,7 @@ beforeAll(async () => {
   cookies.homeowner = (await startSession(homeowner!.id)).split(";")[0];
   cookies.anonymous = undefined;
   const byRef = async (ref: string) => (await db.select().from(leads).where(eq(leads.ref, ref)))[0]!;
-  // The seed gives the demo crew member one won job (Tobias Wren); Wendell Ashgrove's request is new.
+  // The seed gives the demo crew member one signed job (Tobias Wren); Wendell Ashgrove's request is new.
   const won = await byRef("demo-cinder-slate-10");
   const fresh = await byRef("demo-cinder-slate-02");
   const [crewUser] = await db.select().from(users).where(eq(users.email, "crew@cinder-slate.test"));
@@ -73,6 +82,16 @@ beforeAll(async () => {
   ids.wonPhoto = await addPhoto(company.id, won.id);
   ids.otherPhoto = await addPhoto(company.id, fresh.id);
   ids.estimator = (await db.select().from(users).where(eq(users.email, "estimator@cinder-slate.test")))[0]!.id;
+  // A proposal sent on the new request: its link is the homeowner's credential.
+  const [estimator] = await db.select().from(users).where(eq(users.id, ids.estimator));
+  const proposal = await sendProposal({
+    user: { ...estimator!, sessionId: "matrix" },
+    lead: fresh,
+    company: await getCompany(company.id),
+    input: { fixedPriceCents: 480_000, addOns: [], validUntil: "2099-12-31", included: "Base", excluded: "Permits" },
+    origin: "http://localhost",
+  });
+  ids.token = proposal.token;
 });
 
 /** What a person would see: "200", "403", "404", "sign-in", or "redirect <path>". */
@@ -103,12 +122,14 @@ type Case = {
   name: string;
   call: (cookie: string | undefined) => Promise<unknown>;
   expected: Record<Who, string>;
+  /** A homeowner's document opened by its link: it shows the homeowner's price to whoever holds the link. */
+  isHomeownersLink?: boolean;
 };
 
 const get = (url: string, cookie: string | undefined) => requestWithCookie(url, cookie);
 const post = (url: string, cookie: string | undefined, fields: Record<string, string>) => {
   const body = new URLSearchParams(fields);
-  return requestWithCookie(url, cookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } });
+  return requestWithCookie(url, cookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded", "Content-Length": String(body.toString().length) } });
 };
 const lead = () => String(ids.wonLead);
 
@@ -178,7 +199,7 @@ const CASES: Case[] = [
     expected: { owner: "200", estimator: "200", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "200" },
   },
   {
-    name: "GET /app/leads/:id (the crew's won job)",
+    name: "GET /app/leads/:id (the crew's signed job)",
     call: (c) => leadLoader(routeArgs(get(`/app/leads/${lead()}`, c), { leadId: lead() })),
     expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
   },
@@ -211,6 +232,64 @@ const CASES: Case[] = [
     name: "GET /app/leads/:id/design",
     call: (c) => designLoader(routeArgs(get(`/app/leads/${lead()}/design`, c), { leadId: lead() })),
     expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/visit",
+    call: (c) => visitLoader(routeArgs(get(`/app/leads/${lead()}/visit`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/visit (an empty form)",
+    call: (c) => visitAction(routeArgs(post(`/app/leads/${lead()}/visit`, c, {}), { leadId: lead() })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/proposal",
+    call: (c) => composeLoader(routeArgs(get(`/app/leads/${ids.otherLead}/proposal`, c), { leadId: String(ids.otherLead) })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/proposal (an empty form)",
+    call: (c) => composeAction(routeArgs(post(`/app/leads/${ids.otherLead}/proposal`, c, {}), { leadId: String(ids.otherLead) })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/change-order",
+    call: (c) => changeOrderLoader(routeArgs(get(`/app/leads/${lead()}/change-order`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/leads/:id/change-order (an empty form)",
+    call: (c) => changeOrderAction(routeArgs(post(`/app/leads/${lead()}/change-order`, c, {}), { leadId: lead() })),
+    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/settings/proposals",
+    call: (c) => termsLoader(routeArgs(get("/app/settings/proposals", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    // The unguessable link is the credential, as with a shared document: whoever holds it may read it.
+    name: "GET /p/:token",
+    isHomeownersLink: true,
+    call: (c) => proposalPageLoader(routeArgs(get(`/p/${ids.token}`, c), { token: ids.token })),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+  },
+  {
+    name: "GET /p/:token.pdf",
+    isHomeownersLink: true,
+    call: (c) => proposalPdfLoader(routeArgs(get(`/p/${ids.token}.pdf`, c), { token: ids.token })),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+  },
+  {
+    name: "GET /p/:token (a guessed token)",
+    call: (c) => proposalPageLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
+    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
+  },
+  {
+    name: "GET /p/:token.pdf (a guessed token)",
+    call: (c) => proposalPdfLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.pdf", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
+    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
   },
   {
     name: "GET /app/jobs",
@@ -271,7 +350,7 @@ describe.each(CASES)("$name", (route) => {
   }
   // A loader's return value is exactly what its `.data` request serialises, so checking it covers
   // the page's HTML and its data request alike; PDF and CSV answers are read back as text.
-  if (route.name.startsWith("GET")) {
+  if (route.name.startsWith("GET") && !route.isHomeownersLink) {
     test("no money for crew: no price, cost or rate in what crew receive", async () => {
       let value: unknown;
       try {
@@ -369,3 +448,19 @@ async function answerResponse(run: () => Promise<unknown>): Promise<Response> {
     return thrown as Response;
   }
 }
+
+test("a homeowner's “My requests” lists only proposals on their own requests", async () => {
+  const { company } = await demoCompany();
+  const [owner] = await db.insert(users).values({ companyId: company.id, email: "proposal.owner@example.test", name: "Proposal Owner", role: "homeowner" }).returning();
+  await db.update(leads).set({ homeownerId: owner!.id }).where(eq(leads.id, ids.otherLead));
+  const theirs = (await myLoader(routeArgs(get("/my", (await startSession(owner!.id)).split(";")[0])))) as { requests: { proposals: { href: string }[] }[] };
+  expect(theirs.requests.flatMap((r) => r.proposals.map((p) => p.href))).toEqual([`/p/${ids.token}`]);
+  const someoneElse = (await myLoader(routeArgs(get("/my", cookies.homeowner)))) as { requests: { proposals: unknown[] }[] };
+  expect(JSON.stringify(someoneElse)).not.toContain(ids.token);
+});
+
+test("the crew's view of their job lists no proposals and no totals", async () => {
+  const view = (await leadLoader(routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }))) as { proposals: unknown[]; totals: unknown };
+  expect(view.proposals).toEqual([]);
+  expect(view.totals).toBeNull();
+});

@@ -36,7 +36,7 @@ beforeAll(async () => {
     companyId,
     ref: `inbox-test-${i}`,
     status: statuses[i % statuses.length]!,
-    lostReason: statuses[i % statuses.length] === "lost" ? "Too far to travel." : null,
+    stopReason: statuses[i % statuses.length] === "not-going-ahead" ? "Too far to travel." : null,
     assignedUserId: i % 3 === 0 ? estimatorId : i % 3 === 1 ? ownerId : null,
     customerName: `${i % 2 ? "zara" : "Abel"} Paging ${String(i).padStart(2, "0")}`,
     email: `paging.${i}@example.test`,
@@ -155,13 +155,13 @@ test("sorting by price puts requests without a price last, whichever way", async
   }
 });
 
-test("sorting by status follows the pipeline, new first, then contacted, booked, proposal, won, lost", async () => {
+test("sorting by stage follows the job's steps, request first, stopped jobs last", async () => {
   const rows: InboxPage["rows"] = [];
   for (let p = 1; p <= Math.ceil(all.length / 25); p++) rows.push(...(await page({ sort: "status", dir: "asc", page: p })).rows);
   const order = rows.map((r) => LEAD_STATUSES.indexOf(r.status));
   expect(order).toEqual([...order].sort((a, b) => a - b));
-  expect(rows[0]!.status).toBe("new");
-  expect(rows.at(-1)!.status).toBe("lost");
+  expect(rows[0]!.status).toBe("request");
+  expect(rows.at(-1)!.status).toBe("not-going-ahead");
 });
 
 test("sorting by bowl, estimator and consult gives ordered pages", async () => {
@@ -182,7 +182,7 @@ test("bad filters are refused with a message naming each field", () => {
   expect(result.ok).toBe(false);
   if (result.ok) return;
   expect(Object.keys(result.errors).sort()).toEqual(["assignee", "dir", "from", "page", "sort", "status"]);
-  expect(result.errors.status).toContain("new, contacted");
+  expect(result.errors.status).toContain("request, called-back");
   expect(result.errors.from).toContain("2026-12-02");
   const reversed = parseInboxQuery(new URLSearchParams("from=2026-06-10&to=2026-06-01"));
   expect(reversed).toEqual({ ok: false, errors: { to: "To must be on or after From." } });
@@ -194,7 +194,7 @@ test("the inbox page answers bad filters with 400 and the messages, the API with
   const cookie = await loginAs(companyId, "estimator");
   const pageResult = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox?status=maybe", cookie)))) as { init: { status: number }; data: { errors: Record<string, string> } };
   expect(pageResult.init.status).toBe(400);
-  expect(pageResult.data.errors.status).toMatch(/^Status must be one of/);
+  expect(pageResult.data.errors.status).toMatch(/^Stage must be one of/);
   const api = await apiLoader(routeArgs(requestWithCookie("/api/leads?page=-1&since=yesterday", cookie)));
   expect(api.status).toBe(400);
   const body = (await api.json()) as { errors: { path: string; message: string }[] };
@@ -206,12 +206,12 @@ test("the inbox page answers bad filters with 400 and the messages, the API with
 
 test("the API gives the same page as the inbox for the same filters, as JSON", async () => {
   const cookie = await loginAs(companyId, "owner");
-  const response = await apiLoader(routeArgs(requestWithCookie("/api/leads?status=new&sort=customer&dir=asc", cookie)));
+  const response = await apiLoader(routeArgs(requestWithCookie("/api/leads?status=request&sort=customer&dir=asc", cookie)));
   expect(response.status).toBe(200);
   const body = (await response.json()) as InboxPage;
-  const direct = await page({ status: "new", sort: "customer", dir: "asc" });
+  const direct = await page({ status: "request", sort: "customer", dir: "asc" });
   expect(body.rows.map((r) => r.id)).toEqual(direct.rows.map((r) => r.id));
-  expect(body.query).toBe("status=new&sort=customer&dir=asc");
+  expect(body.query).toBe("status=request&sort=customer&dir=asc");
   expect(body.counts).toEqual(direct.counts);
 });
 
@@ -247,14 +247,14 @@ test("the CSV holds every request under the filters, all pages, in the inbox's o
   expect(response.headers.get("Content-Disposition")).toMatch(/^attachment; filename="emberwright-leads-cinder-slate-\d{4}-\d{2}-\d{2}\.csv"$/);
   const text = (await response.text()).replace(/^\uFEFF/, "");
   const [header, ...rows] = parseCsv(text);
-  expect(header).toEqual(["Request", "Received", "Status", "Lost reason", "Customer", "E-mail", "Phone", "Street", "Town", "Bowl (in)", "Wall stone", "Price low (USD)", "Price high (USD)", "Consult", "Estimator"]);
+  expect(header).toEqual(["Request", "Received", "Stage", "Why stopped", "Customer", "E-mail", "Phone", "Street", "Town", "Bowl (in)", "Wall stone", "Price low (USD)", "Price high (USD)", "Consult", "Estimator"]);
   const expected = all
     .filter((l) => [l.customerName, l.email, l.phone, l.town].some((v) => v.toLowerCase().includes("harrow")))
     .sort((a, b) => a.customerName.toLowerCase().localeCompare(b.customerName.toLowerCase()) || a.id - b.id);
   expect(expected.length).toBeGreaterThan(25);
   expect(rows.map((r) => Number(r[0]))).toEqual(expected.map((l) => l.id));
   const wren = rows.find((r) => r[4] === "Gunnar Halvorsen")!;
-  expect(wren[2]).toBe("Lost");
+  expect(wren[2]).toBe("Not going ahead");
   expect(wren[3]).toBe("Chose a portable steel fire bowl instead.");
 });
 

@@ -40,55 +40,69 @@ async function post(lead: Lead, fields: Record<string, string>, cookie = estimat
   return { status: result.init.status, location: null, errors: result.data.errors };
 }
 
-test("an estimator moves a new request through the pipeline to won; each step is saved and lands on the timeline with who did it", async () => {
+test("an estimator marks a new request called back; the move is saved and lands on the timeline with who did it", async () => {
   const lead = await byRef("demo-cinder-slate-01");
-  expect(lead.status).toBe("new");
+  expect(lead.status).toBe("request");
   const before = (await eventsOf(lead.id)).length;
-  for (const status of ["contacted", "consult-booked", "proposal-sent", "won"]) {
-    const answer = await post(lead, { intent: "status", status });
-    expect(answer).toEqual({ status: 302, location: `/app/leads/${lead.id}`, errors: {} });
-  }
-  expect((await byRef("demo-cinder-slate-01")).status).toBe("won");
+  expect(await post(lead, { intent: "status", status: "called-back" })).toEqual({ status: 302, location: `/app/leads/${lead.id}`, errors: {} });
+  const moved = await byRef("demo-cinder-slate-01");
+  expect(moved.status).toBe("called-back");
+  expect(moved.calledBackAt).not.toBeNull();
   const steps = (await eventsOf(lead.id)).slice(before);
-  expect(steps.map((e) => [e.kind, e.detail, e.actorUserId])).toEqual([
-    ["status", "New → Contacted", estimator.id],
-    ["status", "Contacted → Consult booked", estimator.id],
-    ["status", "Consult booked → Proposal sent", estimator.id],
-    ["status", "Proposal sent → Won", estimator.id],
-  ]);
+  expect(steps.map((e) => [e.kind, e.detail, e.actorUserId])).toEqual([["status", "Request in → Called back", estimator.id]]);
 });
 
-test("any status may follow any other, and the jump is recorded", async () => {
+test("stages that follow an event cannot be set by hand: consult, visit, proposal and signed are refused with the moves on offer", async () => {
   const lead = await byRef("demo-cinder-slate-03");
-  expect(await post(lead, { intent: "status", status: "proposal-sent" })).toMatchObject({ status: 302 });
-  expect((await eventsOf(lead.id)).at(-1)!.detail).toBe("New → Proposal sent");
+  for (const status of ["consult-booked", "measured", "proposal-out", "signed", "built"]) {
+    const refused = await post(lead, { intent: "status", status });
+    expect(refused.status).toBe(400);
+    expect(refused.errors.status).toBe("From “Request in” the job can move to “Called back”, “On hold”, “Not going ahead”.");
+  }
+  expect((await byRef("demo-cinder-slate-03")).status).toBe("request");
 });
 
-test("losing a request needs a reason; without one the answer is 400 naming the field and nothing changes", async () => {
+test("stopping a job needs a reason; without one the answer is 400 naming the field and nothing changes; picked up again, it returns to its step", async () => {
   const lead = await byRef("demo-cinder-slate-04");
+  expect(lead.status).toBe("called-back");
   const before = (await eventsOf(lead.id)).length;
-  const refused = await post(lead, { intent: "status", status: "lost", lostReason: " " });
+  const refused = await post(lead, { intent: "status", status: "not-going-ahead", reason: " " });
   expect(refused.status).toBe(400);
-  expect(refused.errors.lostReason).toMatch(/^Say why the job was lost/);
-  expect((await byRef("demo-cinder-slate-04")).status).toBe("contacted");
+  expect(refused.errors.reason).toMatch(/^Say why/);
+  expect((await byRef("demo-cinder-slate-04")).status).toBe("called-back");
   expect(await eventsOf(lead.id)).toHaveLength(before);
 
-  expect(await post(lead, { intent: "status", status: "lost", lostReason: "Moved out of town." })).toMatchObject({ status: 302 });
-  const lost = await byRef("demo-cinder-slate-04");
-  expect([lost.status, lost.lostReason]).toEqual(["lost", "Moved out of town."]);
-  expect((await eventsOf(lead.id)).at(-1)!.detail).toBe("Contacted → Lost: Moved out of town.");
+  expect(await post(lead, { intent: "status", status: "on-hold", reason: "Waiting for the town's burn permit." })).toMatchObject({ status: 302 });
+  const held = await byRef("demo-cinder-slate-04");
+  expect([held.status, held.stopReason, held.pausedStage]).toEqual(["on-hold", "Waiting for the town's burn permit.", "called-back"]);
+  expect((await eventsOf(lead.id)).at(-1)!.detail).toBe("Called back → On hold: Waiting for the town's burn permit.");
 
-  // Won back: the reason goes, the move is recorded.
-  expect(await post(lead, { intent: "status", status: "contacted" })).toMatchObject({ status: 302 });
+  // Dropped while on hold: it keeps the step it held at.
+  expect(await post(lead, { intent: "status", status: "not-going-ahead", reason: "Moved out of town." })).toMatchObject({ status: 302 });
+  const dropped = await byRef("demo-cinder-slate-04");
+  expect([dropped.status, dropped.stopReason, dropped.pausedStage]).toEqual(["not-going-ahead", "Moved out of town.", "called-back"]);
+
+  // Picked up again: back to its step, the reason goes, the move is recorded.
+  expect(await post(lead, { intent: "status", status: "called-back" })).toMatchObject({ status: 302 });
   const back = await byRef("demo-cinder-slate-04");
-  expect([back.status, back.lostReason]).toEqual(["contacted", null]);
+  expect([back.status, back.stopReason, back.pausedStage]).toEqual(["called-back", null, null]);
+  expect((await eventsOf(lead.id)).at(-1)!.detail).toBe("Not going ahead → Called back");
 });
 
-test("bad status forms are refused with 400 and a message naming the field", async () => {
+test("a signed job moves along the build's steps one at a time and can no longer be dropped by hand", async () => {
+  const lead = await byRef("demo-cinder-slate-11");
+  expect(lead.status).toBe("signed");
+  expect((await post(lead, { intent: "status", status: "not-going-ahead", reason: "Changed mind." })).status).toBe(400);
+  expect((await post(lead, { intent: "status", status: "built" })).status).toBe(400);
+  expect(await post(lead, { intent: "status", status: "stone-ordered" })).toMatchObject({ status: 302 });
+  expect((await byRef("demo-cinder-slate-11")).status).toBe("stone-ordered");
+});
+
+test("bad stage forms are refused with 400 and a message naming the field", async () => {
   const lead = await byRef("demo-cinder-slate-05");
-  expect((await post(lead, { intent: "status", status: "on-hold" })).errors.status).toMatch(/^Status must be one of: new, contacted/);
-  expect((await post(lead, { intent: "status", status: lead.status })).errors.status).toBe("The request is already “Contacted”.");
-  expect((await post(lead, { intent: "status", status: "lost", lostReason: "x".repeat(201) })).errors.lostReason).toBe("Reason must be at most 200 characters.");
+  expect((await post(lead, { intent: "status", status: "won" })).errors.status).toMatch(/^Stage must be one of: request, called-back/);
+  expect((await post(lead, { intent: "status", status: lead.status })).errors.status).toMatch(/^From “Called back” the job can move to/);
+  expect((await post(lead, { intent: "status", status: "on-hold", reason: "x".repeat(201) })).errors.reason).toBe("Reason must be at most 200 characters.");
   const unknown = await post(lead, { intent: "delete" });
   expect(unknown.status).toBe(400);
   expect(unknown.errors.intent).toMatch(/^Unknown action/);
@@ -126,9 +140,9 @@ test("a request is assigned to an owner or estimator of the company, never to cr
   expect((await eventsOf(lead.id)).at(-1)!.detail).toBe("Unassigned (was Maren Okafor)");
 });
 
-test("a job goes to a crew member only once it is won, and only to crew of the company", async () => {
+test("a job goes to a crew member only once it is signed, and only to crew of the company", async () => {
   const open = await byRef("demo-cinder-slate-09");
-  expect((await post(open, { intent: "crew", crewUserId: String(crewId) })).errors.crewUserId).toBe("Mark the request won before giving it to a crew.");
+  expect((await post(open, { intent: "crew", crewUserId: String(crewId) })).errors.crewUserId).toBe("A job goes to a crew once it is signed and the deposit is paid.");
   const won = await byRef("demo-cinder-slate-11");
   expect(won.crewUserId).toBeNull();
   expect((await post(won, { intent: "crew", crewUserId: String(estimator.id) })).errors.crewUserId).toBe("Choose an active crew member of your company.");

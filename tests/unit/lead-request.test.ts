@@ -61,7 +61,7 @@ test("a request with two photos saves the lead, its photos, an event, the homeow
   expect(location).toMatch(/^\/c\/cinder-slate\/sent\/[\w-]{22}$/);
   const ref = location.split("/").pop()!;
   const [lead] = await db.select().from(leads).where(eq(leads.ref, ref));
-  expect(lead).toMatchObject({ customerName: "Rosalind Ferreira", status: "new", town: "Millbrook Falls" });
+  expect(lead).toMatchObject({ customerName: "Rosalind Ferreira", status: "request", town: "Millbrook Falls" });
   expect(JSON.parse(lead!.planJson).ring.unitCount).toBe(14);
   expect(JSON.parse(lead!.designJson).summary.length).toBeGreaterThan(3);
   const photos = await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, lead!.id));

@@ -70,7 +70,7 @@ test("the lead page's forms answer random fields with a redirect or a 4xx, and a
   const fields = fc.record({
     intent: intents,
     status: hostile,
-    lostReason: hostile,
+    reason: hostile,
     note: hostile,
     assigneeId: hostile,
     crewUserId: hostile,

@@ -3,6 +3,7 @@ import type { Route } from "./+types/webhooks-stripe";
 import { applyPaymentEvent, bookingIdForPaymentIntent } from "~/lib/booking.server";
 import { env } from "~/lib/env.server";
 import { stripe } from "~/lib/payments.server";
+import { applyDepositEvent, isDepositEvent } from "~/lib/proposal-payments.server";
 
 const MAX_BODY_BYTES = 256 * 1024;
 
@@ -21,6 +22,8 @@ export async function action({ request }: Route.ActionArgs) {
   } catch {
     return Response.json({ error: "Signature check failed." }, { status: 400 });
   }
+  // Deposits on proposals carry metadata.kind = "deposit" and are applied by their own handler.
+  if (isDepositEvent(event)) return Response.json({ received: true, outcome: await applyDepositEvent(event) });
   if (event.type === "charge.refunded") {
     const charge = event.data.object as Stripe.Charge;
     const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;

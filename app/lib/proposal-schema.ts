@@ -1,0 +1,68 @@
+import { z } from "zod";
+import type { AddOn } from "~/domain/proposal-money";
+
+/*
+ * The office's proposal forms. Money is typed in dollars ("4,850" or "4850.00") and kept in integer
+ * cents; every message names its field and what is allowed.
+ */
+
+export const MAX_ADD_ONS = 4;
+
+/** Dollars as typed → integer cents, within a range of whole dollars. */
+export function formMoneyCents(label: string, minDollars: number, maxDollars: number) {
+  const range = `${label} must be between $${minDollars.toLocaleString("en-US")} and $${maxDollars.toLocaleString("en-US")}.`;
+  return z
+    .string({ error: `Enter the ${label.toLowerCase()}.` })
+    .trim()
+    .min(1, `Enter the ${label.toLowerCase()}.`)
+    .transform((s, ctx) => {
+      const cleaned = s.replace(/^\$/, "").replace(/,/g, "");
+      if (!/^\d+(\.\d{1,2})?$/.test(cleaned)) {
+        ctx.addIssue({ code: "custom", message: `${label} must be an amount in dollars, like 4,850 or 4850.00.` });
+        return z.NEVER;
+      }
+      const [whole, fraction = ""] = cleaned.split(".");
+      return Number(whole) * 100 + Number(fraction.padEnd(2, "0"));
+    })
+    .pipe(z.number().min(minDollars * 100, range).max(maxDollars * 100, range));
+}
+
+const textBlock = (label: string) => z.string().trim().min(1, `Write what is ${label} (one line each).`).max(3000, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most 3,000 characters.`);
+
+/** The compose form: fixed price, expiry, included and excluded, and up to four add-ons (label and price). */
+export function parseComposeForm(fields: Record<string, string>, today: string): { ok: true; value: { fixedPriceCents: number; validUntil: string; included: string; excluded: string; addOns: AddOn[] } } | { ok: false; errors: Record<string, string> } {
+  const errors: Record<string, string> = {};
+  const base = z
+    .object({
+      fixedPrice: formMoneyCents("Fixed price", 100, 500_000),
+      validUntil: z.iso.date({ error: "Valid until must be a date like 2026-12-31." }).refine((d) => d > today, { message: "Valid until must be after today." }),
+      included: textBlock("included"),
+      excluded: textBlock("not included"),
+    })
+    .safeParse(fields);
+  if (!base.success) for (const issue of base.error.issues) errors[String(issue.path[0])] ??= issue.message;
+  const addOns: AddOn[] = [];
+  for (let i = 1; i <= MAX_ADD_ONS; i++) {
+    const label = (fields[`addOnLabel${i}`] ?? "").trim();
+    const price = (fields[`addOnPrice${i}`] ?? "").trim();
+    if (!label && !price) continue;
+    if (label.length < 3 || label.length > 120) {
+      errors[`addOnLabel${i}`] = `Add-on ${i} needs a name of 3 to 120 characters.`;
+      continue;
+    }
+    const cents = formMoneyCents(`Add-on ${i}'s price`, 1, 100_000).safeParse(price);
+    if (!cents.success) {
+      errors[`addOnPrice${i}`] = cents.error.issues[0]!.message;
+      continue;
+    }
+    addOns.push({ key: `a${i}`, label, cents: cents.data });
+  }
+  if (!base.success || Object.keys(errors).length) return { ok: false, errors };
+  return { ok: true, value: { fixedPriceCents: base.data.fixedPrice, validUntil: base.data.validUntil, included: base.data.included, excluded: base.data.excluded, addOns } };
+}
+
+/** Withdrawing a proposal: which one and why. */
+export const withdrawSchema = z.object({
+  proposalId: z.string().regex(/^\d{1,9}$/, { error: "Choose a proposal to withdraw." }).transform(Number),
+  reason: z.string().trim().min(3, "Say why it is withdrawn (3 to 200 characters).").max(200, "Say why it is withdrawn (3 to 200 characters)."),
+});
