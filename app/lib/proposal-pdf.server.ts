@@ -1,11 +1,13 @@
 import PDFDocument from "pdfkit";
+import { withWideText } from "~/lib/pdf-fonts.server";
 import { basePriceCents, chooseAddOns, depositCents, proposalTotalCents } from "~/domain/proposal-money";
 import { LETTER_PT, PAGE_MARGIN_PT } from "~/lib/cap-template-layout";
 import { formatMoney } from "~/lib/money";
 import { describeDeposit, type ProposalDocument } from "~/lib/proposal-document";
 
 /*
- * The proposal (or change order) as a PDF, made with pdfkit's built-in Helvetica like the cut sheet.
+ * The proposal (or change order) as a PDF, made with pdfkit like the cut sheet: built-in Helvetica,
+ * and embedded Noto for text in other scripts.
  * The same document and the same choices always give the same bytes: the creation date is the
  * sending time, and pdfkit derives the file id from the document's info, so the SHA-256 of an
  * accepted PDF can be checked again later by rendering it anew.
@@ -92,7 +94,8 @@ export function proposalFigures(document: ProposalDocument, chosenKeys: readonly
 export function renderProposalPdf(document: ProposalDocument, options: { chosenKeys: readonly string[]; createdAt: string; signature?: SignatureFacts | null }): Promise<Buffer> {
   const isChange = document.kind === "change-order";
   const created = new Date(options.createdAt);
-  const doc = new PDFDocument({
+  // Names and addresses may be in any script: text the built-in font cannot set uses embedded Noto.
+  const doc = withWideText(new PDFDocument({
     size: "LETTER",
     margin: PAGE_MARGIN_PT,
     info: {
@@ -103,7 +106,7 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
       CreationDate: created,
       ModDate: created,
     },
-  });
+  }));
   const chunks: Buffer[] = [];
   doc.on("data", (chunk: Buffer) => chunks.push(chunk));
   const done = new Promise<Buffer>((resolve, reject) => {

@@ -290,3 +290,18 @@ test("a change order after signing: its own document with the difference, signed
   expect(await jobTotalsFor(signed)).toEqual({ contractCents: 596_500, depositCents: signed.depositCents, balanceCents: 596_500 - signed.depositCents! });
   expect(await stageOf(lead.id)).toBe("signed");
 });
+
+test("a homeowner named in Chinese and Greek gets their name on the proposal PDF as written, and the same choices still render the same bytes", async () => {
+  // The built-in PDF fonts encode only WinAnsi (PDF 32000-1:2008 Annex D); text is read back with
+  // pdf-parse through the PDF's ToUnicode maps, so a garbled name fails the comparison.
+  const { proposal } = await sentProposal();
+  const document = parseProposalDocument(proposal.documentJson);
+  const named = { ...document, customer: { ...document.customer, name: "王小明 Παπαδόπουλος", town: "Αθήνα" } };
+  const pdf = await renderProposalPdf(named, { chosenKeys: [], createdAt: proposal.sentAt });
+  const { PDFParse } = await import("pdf-parse");
+  const parser = new PDFParse({ data: new Uint8Array(pdf) });
+  const text = (await parser.getText()).text.replace(/\s+/g, " ");
+  await parser.destroy();
+  expect(text).toContain("王小明 Παπαδόπουλος");
+  expect(sha256(await renderProposalPdf(named, { chosenKeys: [], createdAt: proposal.sentAt }))).toBe(sha256(pdf));
+});
