@@ -201,7 +201,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                       {row.customerName}
                     </Link>
                     {unseen ? (
-                      <span className="ml-2 rounded bg-ember-500 px-1.5 py-0.5 align-middle text-[0.65rem] font-extrabold tracking-wide text-white uppercase">
+                      <span className="ml-2 rounded bg-action px-1.5 py-0.5 align-middle text-[0.65rem] font-extrabold tracking-wide text-white uppercase">
                         New<span className="sr-only"> since your last visit</span>
                       </span>
                     ) : null}

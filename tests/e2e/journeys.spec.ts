@@ -1,0 +1,153 @@
+/*
+ * Homeowner and office journeys where people used to stumble, one test each, named after what the
+ * person did. Mail and payments go through the local fakes.
+ */
+import { expect, test, type Page } from "@playwright/test";
+import { listMail, MAIL_FAKE, PAYMENTS_FAKE, screenshotBothWidths, sendRequest, signIn, type FakeMessage } from "./helpers";
+
+type FullMessage = FakeMessage & { html: string; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
+
+async function readMail(id: string): Promise<FullMessage> {
+  return (await (await fetch(`${MAIL_FAKE}/_fake/messages/${id}`)).json()) as FullMessage;
+}
+
+async function waitForMail(match: (m: FakeMessage) => boolean): Promise<FullMessage> {
+  await expect.poll(async () => (await listMail()).filter(match).length, { timeout: 15_000 }).toBeGreaterThan(0);
+  return readMail((await listMail()).find(match)!.id);
+}
+
+const icsText = (m: FullMessage, name: string) => Buffer.from(m.attachments.find((a) => a.filename === name)!.content, "base64").toString();
+/** An iCalendar property's value, with folded lines joined (RFC 5545 3.1). */
+const icsValue = (ics: string, name: string) => new RegExp(`^${name}(?:;[^:]*)?:(.*)$`, "m").exec(ics.replace(/\r?\n[ \t]/g, ""))?.[1]?.trim();
+
+/** A new homeowner sends a request, sets a password from the welcome e-mail, books and pays a consult. */
+async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ email: string }> {
+  const email = `${name.split(" ")[0]!.toLowerCase()}.${Date.now()}@example.test`;
+  await sendRequest(page, { name, email });
+  const consultPath = new URL(page.url()).pathname.replace("/sent/", "/consult/");
+  const welcome = await waitForMail((m) => m.to.includes(email));
+  const link = /http:\/\/[^\s)\]]+\/welcome\/[\w-]+/.exec(welcome.text)![0];
+  await page.goto(new URL(link).pathname);
+  await page.getByLabel("New password").fill("a-long-garden-password");
+  await page.getByLabel("Type it again").fill("a-long-garden-password");
+  await page.getByRole("button", { name: "Save password and continue" }).click();
+  await expect(page).toHaveURL(/\/my$/);
+  await page.goto(consultPath);
+  // A later slot than the other journeys take, so they do not compete for the same time.
+  await page.getByRole("button", { name: /^Book / }).nth(4).click();
+  await expect(page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));
+  await page.getByLabel("Card number").fill("4242 4242 4242 4242");
+  await page.getByLabel("Expiry (MM / YY)").fill("12 / 30");
+  await page.getByLabel("Security code (CVC)").fill("123");
+  await page.getByLabel("Name on card").fill(name);
+  await page.getByRole("button", { name: /^Pay / }).click();
+  await expect(page.getByRole("heading", { name: "Your design consult is booked" })).toBeVisible({ timeout: 20_000 });
+  await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"));
+  return { email };
+}
+
+test("a homeowner who cancels a paid consult is asked to confirm, and the calendar event is withdrawn with the same UID", async ({ page }) => {
+  const { email } = await homeownerWithPaidConsult(page, "Noor Castellane");
+  await page.goto("/my");
+  await page.getByRole("button", { name: "Cancel the consult" }).click();
+  // One click does nothing yet: the question names the fee and offers a way back.
+  await expect(page.getByText(/Cancel your design consult with Cinder & Slate Outdoor Works\? The fee of \$150\.00 goes back/)).toBeVisible();
+  await page.getByRole("button", { name: "Keep my consult" }).click();
+  await expect(page.getByRole("button", { name: "Cancel the consult" })).toBeFocused();
+  await page.getByRole("button", { name: "Cancel the consult" }).click();
+  await screenshotBothWidths(page, "my-cancel-confirm");
+  await page.getByRole("button", { name: "Yes, cancel it" }).click();
+  await expect(page.getByRole("status")).toContainText("Your consult is cancelled");
+
+  const booked = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"));
+  const cancelled = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult cancelled"));
+  const original = icsText(booked, "design-consult.ics");
+  const withdrawal = icsText(cancelled, "design-consult-cancelled.ics");
+  // RFC 5545 3.8.4.7: the same UID names the same event; 3.8.7.4: a later SEQUENCE supersedes it;
+  // RFC 5546 3.2.5: METHOD:CANCEL with STATUS:CANCELLED removes it.
+  expect(icsValue(withdrawal, "UID")).toBe(icsValue(original, "UID"));
+  expect(icsValue(withdrawal, "METHOD")).toBe("CANCEL");
+  expect(icsValue(withdrawal, "STATUS")).toBe("CANCELLED");
+  expect(Number(icsValue(withdrawal, "SEQUENCE"))).toBeGreaterThan(Number(icsValue(original, "SEQUENCE") ?? 0));
+  expect(icsValue(withdrawal, "ORGANIZER")).toContain("office@cinder-slate.test");
+  expect(icsValue(withdrawal, "DTSTART")).toBe(icsValue(original, "DTSTART"));
+});
+
+test("a homeowner cancels a consult: the office's e-mail speaks to the office, the homeowner's to the homeowner", async ({ page }) => {
+  const { email } = await homeownerWithPaidConsult(page, "Ilka Brennan");
+  await page.goto("/my");
+  await page.getByRole("button", { name: "Cancel the consult" }).click();
+  await page.getByRole("button", { name: "Yes, cancel it" }).click();
+  await expect(page.getByRole("status")).toContainText("Your consult is cancelled");
+
+  const homeowner = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult cancelled"));
+  expect(homeowner.text).toContain("Hello Ilka Brennan");
+  expect(homeowner.text).toContain("You cancelled it.");
+  expect(homeowner.text).toContain("refunded to the card that paid it");
+
+  const office = await waitForMail((m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult cancelled: Ilka Brennan"));
+  expect(office.text).toContain("Ilka Brennan cancelled it online.");
+  expect(office.text).toContain("refunded to Ilka Brennan");
+  expect(office.text).not.toMatch(/Hello Cinder/);
+  expect(office.text).not.toContain("You cancelled");
+  expect(office.text).not.toContain("the card that paid it");
+});
+
+test("the owner tries to block a day that has passed and is told so, with nothing blocked", async ({ page }) => {
+  await signIn(page, "owner@north-ridge.test");
+  await page.goto("/app/consult-hours");
+  await page.getByLabel("Block a day").fill("2020-03-02");
+  await page.getByRole("button", { name: "Block this day" }).click();
+  await expect(page.getByText(/Monday, March 2, 2020 has passed/)).toBeVisible();
+  await expect(page.getByLabel("Block a day")).toHaveAttribute("aria-invalid", "true");
+  await expect(page.getByText("No days blocked.")).toBeVisible();
+});
+
+test("the owner blocks a day with a paid consult: warned at once, cancels and refunds it from there after confirming", async ({ page }) => {
+  await signIn(page, "owner@north-ridge.test");
+  await page.goto("/app/schedule");
+  const firstDay = page.getByRole("main").getByRole("heading", { level: 2 }).first();
+  const day = (await firstDay.locator("time").getAttribute("datetime"))!;
+  const dayLabel = new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  const customer = (await page.getByRole("region", { name: (await firstDay.textContent())! }).getByRole("link").first().textContent())!;
+
+  await page.goto("/app/consult-hours");
+  await page.getByLabel("Block a day").fill(day);
+  await page.getByRole("button", { name: "Block this day" }).click();
+  const entry = page.getByRole("listitem").filter({ hasText: dayLabel }).first();
+  await expect(entry).toContainText("A consult is still booked on this day.");
+  await expect(entry).toContainText(customer);
+  await expect(entry.getByRole("button", { name: `Open ${dayLabel} again` })).toBeVisible();
+  await screenshotBothWidths(page, "consult-hours-blocked-day");
+
+  await entry.getByRole("button", { name: `Cancel and refund the consult with ${customer}` }).click();
+  await expect(page.getByText(new RegExp(`Cancel ${customer}'s consult at .* on ${dayLabel}\\?`))).toBeVisible();
+  await page.getByRole("button", { name: "Yes, cancel and refund" }).click();
+  await expect(page.getByRole("status")).toContainText("Consult cancelled");
+  await expect(page.getByRole("listitem").filter({ hasText: dayLabel }).first()).not.toContainText(customer);
+  await page.goto("/app/schedule");
+  await expect(page.getByRole("link", { name: customer })).toHaveCount(0);
+});
+
+test("the estimator cancelling a consult from the schedule is asked to confirm first", async ({ page }) => {
+  await signIn(page, "estimator@cinder-slate.test");
+  await page.goto("/app/schedule");
+  const button = page.getByRole("button", { name: /^Cancel and refund the consult with / }).first();
+  const name = (await button.getAttribute("aria-label"))!.replace("Cancel and refund the consult with ", "");
+  await button.click();
+  await expect(page.getByText(new RegExp(`Cancel ${name}'s consult`))).toBeVisible();
+  await page.getByRole("button", { name: "Keep it" }).click();
+  await page.reload();
+  await expect(page.getByRole("link", { name })).toBeVisible();
+});
+
+test("the owner opens consult hours on a phone and every time field fits the screen", async ({ page }) => {
+  await signIn(page, "owner@cinder-slate.test");
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.goto("/app/consult-hours");
+  expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(390);
+  const until = page.getByLabel("Monday until");
+  const box = (await until.boundingBox())!;
+  expect(box.x + box.width).toBeLessThanOrEqual(390);
+  await screenshotBothWidths(page, "consult-hours");
+});
