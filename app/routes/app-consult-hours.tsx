@@ -128,7 +128,7 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
       <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
         <input type="hidden" name="intent" value="hours" />
         {Object.keys(errors).filter((k) => k !== "day" && k !== "booking").length ? (
-          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">Nothing was saved. Fix the fields marked below.</p>
+          <FormAlert>Nothing was saved. Fix the fields marked below.</FormAlert>
         ) : null}
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-2 font-extrabold">Weekly hours</legend>

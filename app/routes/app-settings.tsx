@@ -2,7 +2,7 @@ import { eq } from "drizzle-orm";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
 import { fieldErrors } from "~/lib/form-fields";
-import { SelectField, TextField } from "~/components/ui/field";
+import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { companies } from "~/db/schema";
 import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog.server";
 import { companySettingsSchema, timeZoneList } from "~/lib/company-schema";
@@ -53,9 +53,9 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
       ) : null}
       <Form method="post" className="flex flex-col gap-6" noValidate>
         {Object.keys(errors).length ? (
-          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+          <FormAlert>
             Nothing was saved. Fix the fields marked below.
-          </p>
+          </FormAlert>
         ) : null}
         <section className="card grid gap-4 p-6 sm:grid-cols-2">
           <h2 className="text-lg font-extrabold sm:col-span-2">Company</h2>

@@ -5,7 +5,7 @@
 import { expect, test, type Page } from "@playwright/test";
 import { listMail, MAIL_FAKE, PAYMENTS_FAKE, screenshotBothWidths, sendRequest, signIn, type FakeMessage } from "./helpers";
 
-type FullMessage = FakeMessage & { html: string; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
+type FullMessage = Omit<FakeMessage, "attachments"> & { html: string; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
 
 async function readMail(id: string): Promise<FullMessage> {
   return (await (await fetch(`${MAIL_FAKE}/_fake/messages/${id}`)).json()) as FullMessage;
@@ -150,4 +150,82 @@ test("the owner opens consult hours on a phone and every time field fits the scr
   const box = (await until.boundingBox())!;
   expect(box.x + box.width).toBeLessThanOrEqual(390);
   await screenshotBothWidths(page, "consult-hours");
+});
+
+test("the estimator revises a design: the inbox price, its price sort and the CSV show the revision's price", async ({ page }) => {
+  await signIn(page, "estimator@cinder-slate.test");
+  await page.goto("/app/inbox?q=Hattie");
+  const row = page.getByRole("row", { name: /Hattie Lindqvist/ });
+  const before = (await row.getByRole("cell").nth(4).textContent())!.trim();
+  await row.getByRole("link", { name: "Hattie Lindqvist" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Hattie Lindqvist");
+  const leadPath = new URL(page.url()).pathname;
+  await page.goto(`${leadPath}/design`);
+  await expect(page.getByTestId("price-range")).toContainText("$");
+  const courses = page.getByRole("spinbutton", { name: "Courses" });
+  const start = Number(await courses.inputValue());
+  // Clicks before hydration do nothing; click until the count moves once.
+  await expect(async () => {
+    if (Number(await courses.inputValue()) === start) await page.getByRole("button", { name: "One course more" }).click();
+    await expect(courses).toHaveValue(String(start + 1), { timeout: 1_000 });
+  }).toPass({ timeout: 10_000 });
+  await expect(page.getByRole("region", { name: "This revision" })).toHaveAttribute("aria-busy", "false");
+  const revised = (await page.getByTestId("price-range").textContent())!.replace(/\s/g, "");
+  await page.getByRole("button", { name: "Save this revision" }).click();
+  await expect(page).toHaveURL(new RegExp(`${leadPath}$`));
+
+  await page.goto("/app/inbox?q=Hattie");
+  const after = (await page.getByRole("row", { name: /Hattie Lindqvist/ }).getByRole("cell").nth(4).textContent())!.trim();
+  expect(after).not.toBe(before);
+  expect(after.replace(/\s/g, "")).toBe(revised);
+
+  // Sorted by price, the revised request sits where its new price puts it.
+  await page.goto("/app/inbox?sort=price&dir=desc");
+  const prices = await page.getByRole("row").evaluateAll((rows) =>
+    rows.slice(1).map((r) => Number((r.querySelectorAll("td")[4]?.textContent ?? "").split("–")[0]!.replace(/[^\d]/g, "")) || null),
+  );
+  const priced = prices.filter((p): p is number => p !== null);
+  expect(priced).toEqual([...priced].sort((a, b) => b - a));
+
+  const csv = await (await page.request.get("/app/inbox.csv?q=Hattie")).text();
+  // RFC 4180 fields: quoted ones may hold commas.
+  const fields = (line: string) => [...line.matchAll(/("(?:[^"]|"")*"|[^,]*)(?:,|$)/g)].map((m) => m[1]!.replace(/^"|"$/g, "").replace(/""/g, '"'));
+  const header = fields(csv.split(/\r?\n/)[0]!);
+  const line = csv.split(/\r?\n/).find((l) => l.includes("Hattie Lindqvist"))!;
+  const csvLow = Number(fields(line)[header.indexOf("Price low (USD)")]);
+  const shownLow = Number(revised.split("–")[0]!.replace(/[^\d]/g, ""));
+  expect(Math.abs(csvLow - shownLow)).toBeLessThanOrEqual(1);
+});
+
+test("the owner marks a request lost without a reason: the error shows, the choice stays, and adding the reason saves it", async ({ page }) => {
+  await signIn(page, "owner@cinder-slate.test");
+  await page.goto("/app/inbox?q=Wendell");
+  await page.getByRole("link", { name: "Wendell Ashgrove" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Wendell Ashgrove");
+  await page.getByLabel("Status", { exact: true }).selectOption("lost");
+  await page.getByRole("button", { name: "Change status" }).click();
+  await expect(page.getByText(/Say why the job was lost/)).toBeVisible();
+  await expect(page.getByLabel("Status", { exact: true })).toHaveValue("lost");
+  // Focus goes to the summary of what to fix.
+  await expect(page.getByRole("alert").filter({ hasText: "The status was not changed" })).toBeFocused();
+  await page.getByLabel("Reason, if lost").fill("Went with a gas fire table instead.");
+  await page.getByRole("button", { name: "Change status" }).click();
+  await expect(page.getByRole("heading", { level: 1 })).toContainText("Lost");
+  await expect(page.getByLabel("Reason, if lost")).toHaveValue("Went with a gas fire table instead.");
+});
+
+test("the estimator picks an end date before the start date: the error shows beside the dates and the list stays", async ({ page }) => {
+  await signIn(page, "estimator@cinder-slate.test");
+  await page.goto("/app/inbox");
+  const total = (await page.getByRole("navigation", { name: "Pages" }).getByText(/requests? ·/).textContent())!;
+  await page.getByLabel("Received from").fill("2026-06-10");
+  await page.getByLabel("to", { exact: true }).fill("2026-06-01");
+  await page.getByRole("button", { name: "Apply" }).click();
+  await expect(page.getByText(/To must be on or after From/)).toBeVisible();
+  await expect(page.getByLabel("to", { exact: true })).toHaveAttribute("aria-invalid", "true");
+  await expect(page.getByLabel("to", { exact: true })).toHaveValue("2026-06-01");
+  await expect(page.getByRole("navigation", { name: "Filter by status" })).toBeVisible();
+  await expect(page.getByRole("navigation", { name: "Pages" }).getByText(/requests? ·/)).toHaveText(total);
+  expect(await page.getByRole("row").count()).toBeGreaterThan(2);
+  await expect(page.getByRole("alert")).toBeFocused();
 });
