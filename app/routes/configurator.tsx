@@ -22,6 +22,7 @@ import type { PlanFieldError } from "~/lib/plan-schema";
 import { publicPlan } from "~/lib/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
 import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
+import { speakLengths } from "~/lib/length-text";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
@@ -95,7 +96,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const stored = await storeReceivedPhotos(received);
   if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
   const { plan } = result;
-  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
+  // The homeowner's e-mail and pages speak their chosen unit; the crew's sheets stay in inches.
+  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, design.unit);
   let lead: Awaited<ReturnType<typeof createLead>>;
   try {
     lead = await createLead({
@@ -185,7 +187,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
             ) : null}
             {planErrors.length ? (
               <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
-                {planErrors.map((e) => e.message).join(" ")}
+                {planErrors.map((e) => speakLengths(e.message, design.unit)).join(" ")}
               </p>
             ) : null}
             {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}

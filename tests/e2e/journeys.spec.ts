@@ -229,3 +229,22 @@ test("the estimator picks an end date before the start date: the error shows bes
   expect(await page.getByRole("row").count()).toBeGreaterThan(2);
   await expect(page.getByRole("alert")).toBeFocused();
 });
+
+test("a homeowner in millimetres designs a tall wall: the notes speak millimetres and the wall is called too tall to sit on", async ({ page }) => {
+  await page.goto("/c/cinder-slate?unit=mm&courses=8");
+  await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
+  const notes = page.getByRole("status").filter({ has: page.getByRole("heading", { name: "Worth a second look" }) });
+  await expect(notes).toBeVisible();
+  const text = (await notes.textContent())!;
+  expect(text).toMatch(/\d+ mm/);
+  // No length left in inches or feet: "12 in", "1/2 in", "25 ft".
+  expect(text).not.toMatch(/\d(?:\/\d+)? (?:in|ft)\b/);
+  const safety = (await page.getByRole("heading", { name: "Safety first" }).locator("..").textContent())!;
+  expect(safety).not.toMatch(/\d (?:in|ft)\b/);
+  expect(safety).toMatch(/\d m\b/);
+  // Eight 3 1/2 in courses of the first stone and a 2 1/2 in cap: 30 1/2 in (775 mm), well above
+  // seat height (18–20 in, common practice, no source).
+  await expect(page.getByText(/775 mm high with the cap, too tall to sit on/)).toBeVisible();
+  await expect(page.getByText(/resting feet/)).toHaveCount(0);
+  await screenshotBothWidths(page, "configurator-mm-tall");
+});

@@ -82,7 +82,7 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
               </span>
               {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1); keyboard focus gets the site-wide outline. */}
               {s.id === design.stoneId ? (
-                <span className="ml-auto shrink-0 rounded-full bg-action px-2 py-0.5 text-xs font-extrabold text-white" aria-hidden="true">✓ Chosen</span>
+                <span className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white" aria-hidden="true">✓ Chosen</span>
               ) : null}
             </label>
           ))}
