@@ -228,7 +228,12 @@ const kindLabel: Record<string, string> = {
   "crew-assigned": "Crew",
   revision: "Design revised",
   email: "E-mail",
+  "consult-booked": "Consult booked",
+  "consult-cancelled": "Consult cancelled",
 };
+
+/** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
+const describeKind = (kind: string) => kindLabel[kind] ?? `${kind.charAt(0).toUpperCase()}${kind.slice(1).replace(/-/g, " ")}`;
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit, proposals, totals, isOwner } = loaderData;
@@ -502,7 +507,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               <ol className="mt-2 flex flex-col gap-3 text-sm">
                 {timeline.map((t) => (
                   <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
-                    <p className="font-bold text-char-800">{kindLabel[t.kind] ?? t.kind}</p>
+                    <p className="font-bold text-char-800">{describeKind(t.kind)}</p>
                     <p className="break-words whitespace-pre-line">{t.detail}</p>
                     <p className="text-xs text-char-500">
                       {t.when}

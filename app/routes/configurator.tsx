@@ -23,6 +23,7 @@ import { publicPlan } from "~/lib/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
 import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
 import { speakLengths } from "~/lib/length-text";
+import { formatPhone, phoneHref } from "~/lib/phone";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
@@ -164,6 +165,14 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
           <div>
             <p className="text-sm font-extrabold tracking-widest text-ember-600 uppercase">{company.name}</p>
             <h1 className="text-3xl font-extrabold sm:text-4xl">Design your fire pit</h1>
+            {company.phone ? (
+              <p className="mt-1 text-sm text-char-700">
+                Questions first? Call {company.name}:{" "}
+                <a href={phoneHref(company.phone)} className="font-bold text-ember-700 underline underline-offset-2">
+                  {formatPhone(company.phone)}
+                </a>
+              </p>
+            ) : null}
           </div>
           <div role="group" aria-label="Units" className="inline-flex rounded-lg border border-ash-300 bg-white p-0.5 text-sm font-bold">
             {(["in", "mm"] as const).map((u) => (

@@ -248,3 +248,44 @@ test("a homeowner in millimetres designs a tall wall: the notes speak millimetre
   await expect(page.getByText(/resting feet/)).toHaveCount(0);
   await screenshotBothWidths(page, "configurator-mm-tall");
 });
+
+test("the owner types 'call me' as the company phone: refused with a message, nothing saved; a real number is stored in E.164 and shown formatted", async ({ page }) => {
+  await signIn(page, "owner@north-ridge.test");
+  await page.goto("/app/settings");
+  const phone = page.getByLabel("Phone", { exact: true });
+  const before = await phone.inputValue();
+  await phone.fill("call me");
+  await page.getByRole("button", { name: /^Save/ }).click();
+  await expect(page.getByText(/Phone must be a phone number with its area code/)).toBeVisible();
+  await expect(page.getByRole("alert").first()).toBeFocused();
+  await page.goto("/app/settings");
+  await expect(phone).toHaveValue(before);
+
+  // Typed the way people write it; libphonenumber-js reads it as +1 970 555 0123 (E.164, ITU-T).
+  await phone.fill("970.555.0123");
+  await page.getByRole("button", { name: /^Save/ }).click();
+  await expect(page.getByRole("status")).toContainText("Settings saved");
+  await expect(phone).toHaveValue("(970) 555-0123");
+  await page.goto("/c/north-ridge");
+  const call = page.getByRole("link", { name: "(970) 555-0123" });
+  await expect(call).toHaveAttribute("href", "tel:+19705550123");
+});
+
+test("the estimator opens a request whose homeowner booked a consult: the timeline reads in words and lists the consult e-mails", async ({ page, browser }) => {
+  const { email } = await homeownerWithPaidConsult(page, "Oskar Leclerc");
+  const staff = await browser.newContext();
+  const office = await staff.newPage();
+  await signIn(office, "estimator@cinder-slate.test");
+  await office.goto("/app/inbox?q=Oskar");
+  await office.getByRole("link", { name: "Oskar Leclerc" }).click();
+  const timeline = office.getByRole("region", { name: "Timeline" });
+  await expect(timeline).toContainText("Consult booked");
+  await expect(timeline).not.toContainText("consult-booked");
+  await expect(timeline.getByRole("listitem").filter({ hasText: `to ${email}` }).filter({ hasText: "Design consult booked" })).toContainText("sent");
+  await expect(timeline.getByRole("listitem").filter({ hasText: "to office@cinder-slate.test" }).filter({ hasText: "Consult booked: Oskar Leclerc" })).toBeVisible();
+  await expect(timeline.getByRole("listitem").filter({ hasText: "Tomorrow: your design consult" })).toContainText("waiting to be sent");
+  // Every heading is words, not a code.
+  for (const heading of await timeline.getByRole("listitem").locator("p:first-child").allTextContents()) expect(heading).not.toMatch(/^[a-z]+(-[a-z]+)+$/);
+  await screenshotBothWidths(office, "lead-timeline");
+  await staff.close();
+});
