@@ -289,3 +289,33 @@ test("the estimator opens a request whose homeowner booked a consult: the timeli
   await screenshotBothWidths(office, "lead-timeline");
   await staff.close();
 });
+
+test("the owner downloads cut-sheet PDFs: no page of the material order or a cut list goes without its heading", async ({ page }) => {
+  const { PDFParse } = await import("pdf-parse");
+  await signIn(page, "owner@cinder-slate.test");
+  // Requests whose tables used to run over a page break (their material orders are long enough).
+  for (const name of ["Marcus Oyelaran", "Wendell Ashgrove", "Ingrid Sola-Martens", "Rafael Okonkwo-Reyes"]) {
+    await page.goto(`/app/inbox?q=${encodeURIComponent(name)}`);
+    const href = (await page.getByRole("link", { name }).getAttribute("href"))!;
+    const response = await page.request.get(`${href}/cut-sheet.pdf`);
+    expect(response.status()).toBe(200);
+    const parser = new PDFParse({ data: new Uint8Array(await response.body()) });
+    const pages = (await parser.getText()).pages.map((p) => p.text);
+    await parser.destroy();
+    // Walk the pages of text in order: rows on a page that does not start with a heading belong to the
+    // table in progress, and that is what must not happen.
+    const titles = /^(The design|Cut list: .*|Material order|Safety on site)( \(continued\))?$/;
+    let inTable: string | null = null;
+    for (const [index, text] of pages.entries()) {
+      const lines = text.split("\n").map((l) => l.trim()).filter(Boolean);
+      if (index > 0 && inTable && lines.length && !titles.test(lines[0]!) && !/^(CUT SHEET|Cap template|Full-size)/i.test(lines[0]!)) {
+        throw new Error(`${name}: page ${index + 1} continues "${inTable}" without a heading; it starts "${lines[0]}"`);
+      }
+      for (const line of lines) {
+        const m = titles.exec(line);
+        if (m) inTable = m[1] === "Safety on site" ? null : m[1]!;
+      }
+      if (lines.some((l) => /^Drawings|template/i.test(l))) inTable = null;
+    }
+  }
+});
