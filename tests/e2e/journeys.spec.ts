@@ -26,8 +26,8 @@ async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ ema
   await sendRequest(page, { name, email });
   const consultPath = new URL(page.url()).pathname.replace("/sent/", "/consult/");
   const welcome = await waitForMail((m) => m.to.includes(email));
-  const link = /http:\/\/[^\s)\]]+\/welcome\/[\w-]+/.exec(welcome.text)![0];
-  await page.goto(new URL(link).pathname);
+  const link = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec(welcome.text)![0];
+  await page.goto(`${new URL(link).pathname}${new URL(link).hash}`);
   await page.getByLabel("New password").fill("a-long-garden-password");
   await page.getByLabel("Type it again").fill("a-long-garden-password");
   await page.getByRole("button", { name: "Save password and continue" }).click();
