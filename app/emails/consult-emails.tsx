@@ -1,5 +1,6 @@
 import { Text } from "@react-email/components";
 import { EmailShell, emailText } from "~/emails/email-shell";
+import { possessive } from "~/lib/wording";
 
 type ConsultEmailProps = {
   companyName: string;
@@ -61,7 +62,7 @@ export function ConsultCancelledOfficeEmail(props: Omit<ConsultEmailProps, "reci
         The design consult with {props.customerName} on {props.when} is cancelled. {props.reason}
       </Text>
       {props.isRefunded ? (
-        <Text style={emailText}>The fee of {props.feeText} is refunded to {props.customerName}&apos;s card automatically; nothing to do.</Text>
+        <Text style={emailText}>The fee of {props.feeText} is refunded to {possessive(props.customerName)} card automatically; nothing to do.</Text>
       ) : null}
       <Text style={emailText}>Design: {props.design}</Text>
       <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d" }}>The calendar file attached removes the visit from the office calendar. The time is free for another booking.</Text>

@@ -22,6 +22,7 @@ import { settleStageStatements } from "~/lib/job-stage.server";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
 import { readStoredDesign } from "~/lib/stored-plan";
+import { possessive } from "~/lib/wording";
 
 /*
  * Paid design consults. A booking holds its slot from the moment checkout starts (the partial
@@ -257,7 +258,7 @@ const HOMEOWNER_REASON: Record<CancelCause, (companyName: string) => string> = {
 const OFFICE_REASON: Record<CancelCause, (customerName: string) => string> = {
   homeowner: (customerName) => `${customerName} cancelled it online.`,
   staff: () => "It was cancelled from the workspace.",
-  "slot-taken": (customerName) => `${customerName}'s payment arrived after another booking had taken that time, so it was not booked.`,
+  "slot-taken": (customerName) => `${possessive(customerName)} payment arrived after another booking had taken that time, so it was not booked.`,
 };
 
 async function cancellationEmails(booking: Booking, company: Company, lead: Lead, cause: CancelCause) {

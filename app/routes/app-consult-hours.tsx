@@ -13,6 +13,7 @@ import { parseWeeklyHours, type WeeklyHours } from "~/lib/consult-slots";
 import { db } from "~/lib/db.server";
 import { zonedDay } from "~/lib/zoned-time";
 import { requireUser } from "~/lib/session.server";
+import { possessive } from "~/lib/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult hours · Emberwright" }];
 
@@ -197,7 +198,7 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
                             <ConfirmAction
                               label="Cancel and refund"
                               accessibleLabel={`Cancel and refund the consult with ${booking.customerName}`}
-                              question={`Cancel ${booking.customerName}'s consult at ${booking.time} on ${b.label}? ${booking.isPaid ? "The fee is refunded in full and " : ""}${booking.customerName} is e-mailed.`}
+                              question={`Cancel ${possessive(booking.customerName)} consult at ${booking.time} on ${b.label}? ${booking.isPaid ? "The fee is refunded in full and " : ""}${booking.customerName} is e-mailed.`}
                               confirmLabel="Yes, cancel and refund"
                               disabled={navigation.state === "submitting"}
                             >

@@ -18,8 +18,9 @@ import { publicPlan } from "~/lib/plan.server";
 import { requireUser } from "~/lib/session.server";
 import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
 import { speakLengths } from "~/lib/length-text";
+import { possessive } from "~/lib/wording";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${data.lead.customerName}'s design · Emberwright` : "Revise a design · Emberwright" }];
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${possessive(data.lead.customerName)} design · Emberwright` : "Revise a design · Emberwright" }];
 
 async function loadContext(request: Request, rawLeadId: string | undefined) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });

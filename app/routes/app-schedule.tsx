@@ -12,6 +12,7 @@ import { zonedDay } from "~/lib/zoned-time";
 import { db } from "~/lib/db.server";
 import { formatMoney } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
+import { possessive } from "~/lib/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult schedule · Emberwright" }];
 
@@ -96,7 +97,7 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
                   <ConfirmAction
                     label="Cancel and refund"
                     accessibleLabel={`Cancel and refund the consult with ${item.customerName}`}
-                    question={`Cancel ${item.customerName}'s consult, ${item.from} on ${dayLabel(day)}? The fee of ${item.fee} is refunded in full and ${item.customerName} is e-mailed.`}
+                    question={`Cancel ${possessive(item.customerName)} consult, ${item.from} on ${dayLabel(day)}? The fee of ${item.fee} is refunded in full and ${item.customerName} is e-mailed.`}
                     confirmLabel="Yes, cancel and refund"
                     disabled={navigation.state === "submitting"}
                   >
