@@ -97,8 +97,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const stored = await storeReceivedPhotos(received);
   if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
   const { plan } = result;
-  // The homeowner's e-mail and pages speak their chosen unit; the crew's sheets stay in inches.
-  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, design.unit);
+  // The stored record (lead page, cut sheet, PDF) stays in inches for the crew; the e-mails speak the homeowner's chosen unit.
+  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
+  const summaryInChosenUnit = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, design.unit);
   let lead: Awaited<ReturnType<typeof createLead>>;
   try {
     lead = await createLead({
@@ -112,7 +113,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
         bowlDiameterIn: plan.ring.bowlDiameterIn,
         priceLowCents: plan.price?.lowCents ?? null,
         priceHighCents: plan.price?.highCents ?? null,
-        summary,
+        summary: summaryInChosenUnit,
       },
     });
   } catch (error) {

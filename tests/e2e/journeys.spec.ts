@@ -197,21 +197,19 @@ test("the estimator revises a design: the inbox price, its price sort and the CS
   expect(Math.abs(csvLow - shownLow)).toBeLessThanOrEqual(1);
 });
 
-test("the owner marks a request lost without a reason: the error shows, the choice stays, and adding the reason saves it", async ({ page }) => {
+test("the owner puts a request on hold without a reason: the error shows, the choice stays, and adding the reason saves it", async ({ page }) => {
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/inbox?q=Wendell");
   await page.getByRole("link", { name: "Wendell Ashgrove" }).click();
   await expect(page.getByRole("heading", { level: 1 })).toContainText("Wendell Ashgrove");
-  await page.getByLabel("Status", { exact: true }).selectOption("lost");
-  await page.getByRole("button", { name: "Change status" }).click();
-  await expect(page.getByText(/Say why the job was lost/)).toBeVisible();
-  await expect(page.getByLabel("Status", { exact: true })).toHaveValue("lost");
-  // Focus goes to the summary of what to fix.
-  await expect(page.getByRole("alert").filter({ hasText: "The status was not changed" })).toBeFocused();
-  await page.getByLabel("Reason, if lost").fill("Went with a gas fire table instead.");
-  await page.getByRole("button", { name: "Change status" }).click();
-  await expect(page.getByRole("heading", { level: 1 })).toContainText("Lost");
-  await expect(page.getByLabel("Reason, if lost")).toHaveValue("Went with a gas fire table instead.");
+  const move = page.getByLabel(/^Move the job/);
+  await move.selectOption({ label: "On hold" });
+  await page.getByRole("button", { name: "Move the job" }).click();
+  await expect(page.getByLabel(/^Why/)).toHaveAttribute("aria-invalid", "true");
+  await expect(move).toHaveValue("on-hold");
+  await page.getByLabel(/^Why/).fill("Waiting on the HOA's approval.");
+  await page.getByRole("button", { name: "Move the job" }).click();
+  await expect(page.getByLabel(/^Move the job/)).toHaveAccessibleName(/now: On hold/);
 });
 
 test("the estimator picks an end date before the start date: the error shows beside the dates and the list stays", async ({ page }) => {
