@@ -46,6 +46,7 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
       return <ProblemPage status={404} title="We could not find that page" detail="The link may be old, or the page may belong to another account." />;
     }
     const detail = typeof error.data === "string" ? error.data : error.statusText;
+    if (error.status === 403) return <ProblemPage status={403} title="This page is not open to your role" detail={detail} />;
     return <ProblemPage status={error.status} title="That did not work" detail={detail} />;
   }
   if (import.meta.env.DEV && error instanceof Error) {

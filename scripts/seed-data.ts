@@ -44,7 +44,8 @@ export const DEMO_COMPANIES: SeedCompany[] = [
     slug: "cinder-slate",
     name: "Cinder & Slate Outdoor Works",
     email: "office@cinder-slate.test",
-    phone: "(555) 014-2290",
+    // 555-0100 to 555-0199 are set aside for fiction in every North American area code (NANPA).
+    phone: "+12175550142",
     town: "Millbrook Falls",
     timeZone: "America/Chicago",
     consultFeeCents: 15000,
@@ -89,7 +90,7 @@ export const DEMO_COMPANIES: SeedCompany[] = [
     slug: "north-ridge",
     name: "North Ridge Hearth & Patio",
     email: "hello@north-ridge.test",
-    phone: "(555) 017-5521",
+    phone: "+19705550117",
     town: "Cedar Hollow",
     timeZone: "America/Denver",
     consultFeeCents: 12500,

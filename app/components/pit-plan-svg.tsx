@@ -16,6 +16,8 @@ export type PitPlanSvgProps = {
   /** Prints a length given in inches; defaults to 1/16 in fractions or whole mm by `unit`. */
   formatLength?: (inches: number) => string;
   className?: string;
+  /** 0 puts the drawing in the tab order, so keyboard and screen-reader users reach its description. */
+  tabIndex?: number;
 };
 
 const INK = "#413a35";
@@ -93,7 +95,7 @@ export function describePitPlan(input: PitSceneInput, format: (inches: number) =
 }
 
 /** Dimensioned top-down plan of the pit (first course, caps, liner, patio); plain SVG, sized by its container. */
-export function PitPlanSvg({ input, unit, formatLength, className }: PitPlanSvgProps) {
+export function PitPlanSvg({ input, unit, formatLength, className, tabIndex }: PitPlanSvgProps) {
   const format = formatLength ?? ((inches: number) => formatLengthIn(inches, unit));
   const plan = drawPitPlan(input);
   const m = plan.measurements;
@@ -133,6 +135,7 @@ export function PitPlanSvg({ input, unit, formatLength, className }: PitPlanSvgP
       width="100%"
       role="img"
       aria-label={summary}
+      tabIndex={tabIndex}
       data-unit={unit}
       className={className}
       style={{ display: "block" }}

@@ -72,7 +72,7 @@ export function PitPreview({ input, caption, unit, formatLength }: PitPreviewPro
   const can3d = support === "webgl" && !hasSceneFailed && PitScene !== null;
   const shows3d = can3d && view === "3d";
   const showsNote = support === "none" || hasSceneFailed;
-  const plan = <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" />;
+  const plan = <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" tabIndex={0} />;
   const planWithNote = (
     <div className="flex h-full w-full flex-col">
       <div className="min-h-0 flex-1">{plan}</div>
@@ -88,7 +88,7 @@ export function PitPreview({ input, caption, unit, formatLength }: PitPreviewPro
         {shows3d && PitScene ? (
           <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>
             <Suspense fallback={plan}>
-              <PitScene input={input} resetSignal={resetSignal} className="h-full w-full" />
+              <PitScene input={input} resetSignal={resetSignal} className="h-full w-full" description={caption} />
             </Suspense>
           </SceneBoundary>
         ) : showsNote ? (

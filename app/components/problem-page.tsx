@@ -5,6 +5,8 @@ import { Wordmark } from "~/components/brand-mark";
 export function ProblemPage({ status, title, detail, stack }: { status: number; title: string; detail?: string; stack?: string }) {
   return (
     <main className="mx-auto flex min-h-dvh max-w-xl flex-col justify-center gap-6 px-6 py-16">
+      {/* Shown from the root error boundary, where no route's meta runs: React hoists this into <head>. */}
+      <title>{`${title} · Emberwright`}</title>
       <Link to="/" aria-label="Emberwright home">
         <Wordmark />
       </Link>

@@ -1,5 +1,6 @@
 import { Text } from "@react-email/components";
 import { EmailShell, emailText } from "~/emails/email-shell";
+import { possessive } from "~/lib/wording";
 
 type ConsultEmailProps = {
   companyName: string;
@@ -13,15 +14,17 @@ type ConsultEmailProps = {
 export function ConsultConfirmedEmail(props: ConsultEmailProps & { forCompany: boolean; customerName: string }) {
   return (
     <EmailShell companyName={props.companyName} preview={`Design consult booked: ${props.when}`}>
-      <Text style={emailText}>Hello {props.recipientName},</Text>
+      {props.forCompany ? null : <Text style={emailText}>Hello {props.recipientName},</Text>}
       <Text style={emailText}>
         {props.forCompany
-          ? `${props.customerName} booked and paid for a design consult.`
+          ? `${props.customerName} booked and paid for a design consult (${props.feeText}, to be credited toward the build).`
           : `Your design consult with ${props.companyName} is booked and paid (${props.feeText}, credited toward the build).`}
       </Text>
       <Text style={{ ...emailText, fontSize: "18px", fontWeight: 800 }}>{props.when}</Text>
       <Text style={emailText}>Design: {props.design}</Text>
-      <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d" }}>The calendar file attached adds it to your calendar.</Text>
+      <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d" }}>
+        {props.forCompany ? "The calendar file attached puts the visit in the office calendar." : "The calendar file attached adds it to your calendar."}
+      </Text>
     </EmailShell>
   );
 }
@@ -47,6 +50,22 @@ export function ConsultCancelledEmail(props: ConsultEmailProps & { reason: strin
         <Text style={emailText}>The fee of {props.feeText} is refunded to the card that paid it; banks take a few days to show it.</Text>
       ) : null}
       <Text style={emailText}>Design: {props.design}</Text>
+    </EmailShell>
+  );
+}
+
+/** The office's copy of a cancellation: who cancelled, and what happens to the fee, in the office's words. */
+export function ConsultCancelledOfficeEmail(props: Omit<ConsultEmailProps, "recipientName"> & { customerName: string; reason: string; isRefunded: boolean }) {
+  return (
+    <EmailShell companyName={props.companyName} preview={`Consult cancelled: ${props.customerName}, ${props.when}`}>
+      <Text style={emailText}>
+        The design consult with {props.customerName} on {props.when} is cancelled. {props.reason}
+      </Text>
+      {props.isRefunded ? (
+        <Text style={emailText}>The fee of {props.feeText} is refunded to {possessive(props.customerName)} card automatically; nothing to do.</Text>
+      ) : null}
+      <Text style={emailText}>Design: {props.design}</Text>
+      <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d" }}>The calendar file attached removes the visit from the office calendar. The time is free for another booking.</Text>
     </EmailShell>
   );
 }

@@ -29,4 +29,4 @@ export function EmailShell({ preview, companyName, children }: { preview: string
 }
 
 export const emailText = { fontSize: "15px", lineHeight: "22px", margin: "0 0 12px" };
-export const emailButton = { backgroundColor: "#d4611a", color: "#ffffff", borderRadius: "8px", padding: "12px 18px", fontWeight: 700, fontSize: "15px", textDecoration: "none", display: "inline-block" };
+export const emailButton = { backgroundColor: "#b14c12", color: "#ffffff", borderRadius: "8px", padding: "12px 18px", fontWeight: 700, fontSize: "15px", textDecoration: "none", display: "inline-block" };

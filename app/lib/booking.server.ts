@@ -13,7 +13,7 @@ import {
   type Company,
   type Lead,
 } from "~/db/schema";
-import { ConsultCancelledEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
+import { ConsultCancelledEmail, ConsultCancelledOfficeEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
 import { db, writeTransaction, type Db } from "~/lib/db.server";
 import { prepareOutboxRow } from "~/lib/email.server";
 import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs.server";
@@ -22,6 +22,7 @@ import { settleStageStatements } from "~/lib/job-stage.server";
 import { formatMoney } from "~/lib/money";
 import { stripe as defaultStripe } from "~/lib/payments.server";
 import { readStoredDesign } from "~/lib/stored-plan";
+import { possessive } from "~/lib/wording";
 
 /*
  * Paid design consults. A booking holds its slot from the moment checkout starts (the partial
@@ -181,7 +182,12 @@ export async function abandonCheckout(bookingId: number, leadId: number, client:
   await db.update(bookings).set({ status: "expired", updatedAt: new Date().toISOString() }).where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
 }
 
-function calendarFile(booking: Booking, company: Company, lead: Lead): string {
+/*
+ * The consult as an iCalendar event. The cancelling file carries the same UID, a higher SEQUENCE,
+ * STATUS:CANCELLED and METHOD:CANCEL, which is how RFC 5545 (3.8.4.7 UID, 3.8.7.4 SEQUENCE) and
+ * RFC 5546 (3.2.5 CANCEL, which needs ORGANIZER) tell a calendar to drop the event it already holds.
+ */
+function calendarFile(booking: Booking, company: Company, lead: Lead, kind: "booked" | "cancelled" = "booked"): string {
   const start = new Date(booking.startsAt);
   const { value, error } = createEvent({
     uid: `consult-${booking.id}@emberwright`,
@@ -193,6 +199,9 @@ function calendarFile(booking: Booking, company: Company, lead: Lead): string {
     description: `Design consult for the fire pit at ${lead.street}, ${lead.town}.`,
     location: `${lead.street}, ${lead.town}`,
     productId: "emberwright/consults",
+    organizer: { name: company.name, email: company.email },
+    sequence: kind === "cancelled" ? 1 : 0,
+    ...(kind === "cancelled" ? { method: "CANCEL", status: "CANCELLED" as const } : {}),
   });
   if (error || !value) throw error ?? new Error("calendar file failed");
   return value;
@@ -237,22 +246,42 @@ async function confirmationEmails(booking: Booking, company: Company, lead: Lead
   ]);
 }
 
-async function cancellationEmails(booking: Booking, company: Company, lead: Lead, reason: string) {
-  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents), reason, isRefunded: booking.isPaid };
+/** Who or what ended a booking: each side's e-mail says it in its own words. */
+type CancelCause = "homeowner" | "staff" | "slot-taken";
+
+const HOMEOWNER_REASON: Record<CancelCause, (companyName: string) => string> = {
+  homeowner: () => "You cancelled it.",
+  staff: (companyName) => `${companyName} cancelled it and will be in touch to find another time.`,
+  "slot-taken": () => "Another booking took that time while your payment was going through.",
+};
+
+const OFFICE_REASON: Record<CancelCause, (customerName: string) => string> = {
+  homeowner: (customerName) => `${customerName} cancelled it online.`,
+  staff: () => "It was cancelled from the workspace.",
+  "slot-taken": (customerName) => `${possessive(customerName)} payment arrived after another booking had taken that time, so it was not booked.`,
+};
+
+async function cancellationEmails(booking: Booking, company: Company, lead: Lead, cause: CancelCause) {
+  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents), isRefunded: booking.isPaid };
+  const ics = Buffer.from(calendarFile(booking, company, lead, "cancelled")).toString("base64");
+  const attachments = [{ filename: "design-consult-cancelled.ics", content: ics, contentType: "text/calendar; method=CANCEL" }];
   return Promise.all([
     prepareOutboxRow({
       idempotencyKey: `consult-cancelled/${booking.id}`,
       companyId: company.id,
       to: lead.email,
       subject: `Design consult cancelled${booking.isPaid ? " and refunded" : ""}`,
-      template: ConsultCancelledEmail({ ...common, recipientName: lead.customerName, when: formatSlot(booking.startsAt, booking.customerTimeZone ?? company.timeZone) }),
+      template: ConsultCancelledEmail({ ...common, recipientName: lead.customerName, reason: HOMEOWNER_REASON[cause](company.name), when: formatSlot(booking.startsAt, booking.customerTimeZone ?? company.timeZone) }),
+      // A confirmed consult put an event in the homeowner's calendar; this takes it out again.
+      ...(cause === "slot-taken" ? {} : { attachments }),
     }),
     prepareOutboxRow({
       idempotencyKey: `consult-cancelled-company/${booking.id}`,
       companyId: company.id,
       to: company.email,
       subject: `Consult cancelled: ${lead.customerName}, ${formatSlot(booking.startsAt, company.timeZone)}`,
-      template: ConsultCancelledEmail({ ...common, recipientName: company.name, when: formatSlot(booking.startsAt, company.timeZone) }),
+      template: ConsultCancelledOfficeEmail({ ...common, customerName: lead.customerName, reason: OFFICE_REASON[cause](lead.customerName), when: formatSlot(booking.startsAt, company.timeZone) }),
+      ...(cause === "slot-taken" ? {} : { attachments }),
     }),
   ]);
 }
@@ -317,7 +346,7 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
   const confirmRows = context && event.type === "checkout.session.completed" ? await confirmationEmails(context.booking, context.company, context.lead) : [];
   const slotTakenRows =
     context && event.type === "checkout.session.completed"
-      ? await cancellationEmails({ ...context.booking, isPaid: true }, context.company, context.lead, "Another booking took that time while your payment was going through.")
+      ? await cancellationEmails({ ...context.booking, isPaid: true }, context.company, context.lead, "slot-taken")
       : [];
 
   return writeTransaction(async (tx) => {
@@ -406,8 +435,7 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
   if (args.by === "homeowner" && new Date(booking.startsAt).getTime() - now.getTime() < HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000) {
     throw new Response(`Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.`, { status: 409 });
   }
-  const reason = args.by === "homeowner" ? "You cancelled it." : `${company.name} cancelled it and will be in touch to find another time.`;
-  const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, reason) : [];
+  const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, args.by) : [];
   await writeTransaction(async (tx) => {
     // The state is checked again by the write itself: of two cancels at once (or a cancel racing the
     // payment), only the one that still finds the booking as it read it changes anything.

@@ -86,6 +86,9 @@ function ensureRoom(doc: Doc, height: number): void {
   if (doc.y + height > BOTTOM) doc.addPage();
 }
 
+// What heading() takes: room checked, a 0.6-line gap, 13 pt type, the rule and its gap (points).
+const HEADING_H = 40;
+
 function heading(doc: Doc, text: string): void {
   ensureRoom(doc, 40);
   doc.moveDown(0.6);
@@ -95,19 +98,38 @@ function heading(doc: Doc, text: string): void {
   doc.y = y + 5;
 }
 
-/** A two-column table (label, value); rows never split across pages. */
-function table(doc: Doc, rows: { label: string; value: string }[], labelW = 140): void {
+type TableRow = { label: string; value: string };
+
+function rowHeight(doc: Doc, row: TableRow, labelW: number): number {
   const valueW = CONTENT_W - labelW - 8;
-  for (const row of rows) {
-    doc.font("Helvetica").fontSize(9.5);
-    const h = Math.max(doc.heightOfString(row.value, { width: valueW }), doc.font("Helvetica-Bold").heightOfString(row.label, { width: labelW }));
-    ensureRoom(doc, h + 5);
+  doc.font("Helvetica").fontSize(9.5);
+  const valueH = doc.heightOfString(row.value, { width: valueW });
+  return Math.max(valueH, doc.font("Helvetica-Bold").heightOfString(row.label, { width: labelW }));
+}
+
+/**
+ * A headed two-column table (label, value). Rows never split across pages; a table that fits on one
+ * page starts on a new page rather than break, and one longer than a page repeats its heading,
+ * marked "(continued)", on each page it runs onto, so no page of rows goes without a title.
+ */
+function headedTable(doc: Doc, title: string, rows: TableRow[], labelW = 140): void {
+  const valueW = CONTENT_W - labelW - 8;
+  const heights = rows.map((row) => rowHeight(doc, row, labelW) + 3);
+  const total = heights.reduce((sum, h) => sum + h, 0) + HEADING_H;
+  if (doc.y + total > BOTTOM && total <= BOTTOM - PAGE_MARGIN_PT) doc.addPage();
+  heading(doc, title);
+  rows.forEach((row, i) => {
+    const h = heights[i]! - 3;
+    if (doc.y + h + 5 > BOTTOM) {
+      doc.addPage();
+      heading(doc, `${title} (continued)`);
+    }
     const y = doc.y;
     doc.font("Helvetica-Bold").fontSize(9.5).fillColor(INK).text(row.label, PAGE_MARGIN_PT, y, { width: labelW });
     doc.font("Helvetica").fontSize(9.5).fillColor(INK).text(row.value, PAGE_MARGIN_PT + labelW + 8, y, { width: valueW });
     doc.y = y + h + 3;
     doc.save().moveTo(PAGE_MARGIN_PT, doc.y - 1.5).lineTo(PAGE_MARGIN_PT + CONTENT_W, doc.y - 1.5).lineWidth(0.3).stroke(RULE).restore();
-  }
+  });
 }
 
 const UNIT_WORDS = { each: ["each", "each"], ton: ["ton", "tons"], cartridge: ["cartridge", "cartridges"], bag: ["bag", "bags"], pail: ["pail", "pails"], piece: ["piece", "pieces"] } as const;
@@ -141,17 +163,15 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
     .fillColor(SOFT)
     .text(`${sheet.companyName} · job #${sheet.leadId} · ${sheet.versionLabel} · printed ${sheet.printedOn}`, { width: CONTENT_W });
 
-  heading(doc, "The design");
-  table(doc, sheet.summary.map((l) => ({ label: l.label, value: l.value })), 110);
+  headedTable(doc, "The design", sheet.summary.map((l) => ({ label: l.label, value: l.value })), 110);
 
   for (const section of sheet.cutList) {
-    heading(doc, `Cut list: ${section.title.toLowerCase()}`);
-    table(doc, section.rows);
+    headedTable(doc, `Cut list: ${section.title.toLowerCase()}`, section.rows);
   }
 
-  heading(doc, "Material order");
-  table(
+  headedTable(
     doc,
+    "Material order",
     sheet.materials.map((m) => {
       const [one, many] = UNIT_WORDS[m.unit];
       return { label: `${m.quantity} ${m.quantity === 1 ? one : many}`, value: `${m.item}${m.note ? `: ${m.note}` : ""}` };

@@ -191,12 +191,22 @@ export function designToSceneInput(plan: DrawnPlan, design: Design, catalog: Cat
 
 export type SummaryLine = { label: string; value: string };
 
-/** Whether a wall (cap included) makes a comfortable seat: 17–20 in (from memory). */
+/*
+ * What a wall of this height (cap included) is good for. Common practice, no source: a chair seat
+ * is about 18 in high and seat walls are built 18–20 in; a footrest for someone in a chair sits lower,
+ * about 10–16 in; a wall above about 24 in is too tall to sit on and reads as a counter to lean on.
+ */
+export const SEAT_HEIGHTS_IN = { footrestFromIn: 10, lowSeatFromIn: 16, seatFromIn: 18, seatToIn: 20, tallFromIn: 24 } as const;
+
+/** Whether a wall (cap included, inches) suits looking, resting feet, sitting or leaning. */
 export function describeSeat(wallHeightIn: number): string {
-  if (wallHeightIn < 12) return "low: good for looking into the fire, too low to sit on";
-  if (wallHeightIn < 17) return "a low seat";
-  if (wallHeightIn <= 20) return "a comfortable seat";
-  return "above seat height: good for resting feet on";
+  const h = SEAT_HEIGHTS_IN;
+  if (wallHeightIn < h.footrestFromIn) return "low: good for looking into the fire, too low to sit on or rest feet on";
+  if (wallHeightIn < h.lowSeatFromIn) return "footrest height: good for resting feet on from a chair";
+  if (wallHeightIn < h.seatFromIn) return "a low seat";
+  if (wallHeightIn <= h.seatToIn) return "seat height: a comfortable seat";
+  if (wallHeightIn <= h.tallFromIn) return "a high seat: a perch rather than a chair";
+  return "too tall to sit on: a wall to lean on and set a drink on";
 }
 
 /** The design in a few plain lines (shown on pages and in e-mails). */

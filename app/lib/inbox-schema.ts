@@ -1,7 +1,7 @@
 import { z } from "zod";
 import { fieldErrors } from "~/lib/form-fields";
 import { LEAD_STATUSES } from "~/db/enums";
-import { FIRST_DIRECTION, INBOX_SORTS, type InboxFilters } from "~/lib/inbox-options";
+import { DEFAULT_INBOX_FILTERS, FIRST_DIRECTION, INBOX_SORTS, type InboxFilters } from "~/lib/inbox-options";
 
 const optional = (schema: z.ZodType) => z.preprocess((v) => (v === "" || v === null ? undefined : v), schema.optional());
 
@@ -32,7 +32,7 @@ export const inboxQuerySchema = z
   })
   .refine((v) => !v.from || !v.to || (v.from as string) <= (v.to as string), {
     path: ["to"],
-    message: "To must be on or after From.",
+    message: "To must be on or after From: the end date comes before the start date.",
   });
 
 export type InboxQueryResult = { ok: true; filters: InboxFilters } | { ok: false; errors: Record<string, string> };
@@ -70,4 +70,16 @@ export function parseInboxQuery(params: URLSearchParams): InboxQueryResult {
       page: v.page ?? 1,
     },
   };
+}
+
+/**
+ * The filters that can still be used when some were refused: each refused field is dropped (both
+ * dates when the range is backwards), so the inbox keeps showing a list beside the messages.
+ */
+export function usableInboxFilters(params: URLSearchParams, errors: Record<string, string>): InboxFilters {
+  const kept = new URLSearchParams(params);
+  for (const key of Object.keys(errors)) kept.delete(key);
+  if (errors.to && kept.has("from")) kept.delete("from");
+  const result = parseInboxQuery(kept);
+  return result.ok ? result.filters : DEFAULT_INBOX_FILTERS;
 }

@@ -1,6 +1,6 @@
 import { and, count, eq, gt, gte, inArray, isNull, lt, or, sql, type SQL, type SQLWrapper } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
-import { LEAD_STATUSES, bookings, leads, users, type LeadStatus } from "~/db/schema";
+import { LEAD_STATUSES, bookings, leadRevisions, leads, users, type LeadStatus } from "~/db/schema";
 import { toCsv } from "~/lib/csv";
 import { db } from "~/lib/db.server";
 import { INBOX_PAGE_SIZE, inboxSearchParams, type InboxFilters, type InboxPage, type InboxRow, type InboxSort } from "~/lib/inbox-options";
@@ -24,13 +24,21 @@ const STATUS_ORDER = sql`CASE ${leads.status} ${sql.join(
 // The first confirmed consult of a lead (bookings belong to the consult feature; read only here).
 const CONSULT_AT = sql<string | null>`(SELECT min(${bookings.startsAt}) FROM ${bookings} WHERE ${bookings.leadId} = ${leads.id} AND ${bookings.status} = 'confirmed')`;
 
+// The design on show is the latest staff revision, if any (revisions never overwrite the lead's own
+// design); its price is what the office quotes now. Ids grow with time, so the highest is the latest.
+const LATEST_REVISION = sql`(SELECT max(${leadRevisions.id}) FROM ${leadRevisions} WHERE ${leadRevisions.leadId} = ${leads.id})`;
+const currentPrice = (revisionColumn: SQLWrapper, leadColumn: SQLWrapper) =>
+  sql<number | null>`CASE WHEN ${LATEST_REVISION} IS NULL THEN ${leadColumn} ELSE (SELECT ${revisionColumn} FROM ${leadRevisions} WHERE ${leadRevisions.id} = ${LATEST_REVISION}) END`;
+const CURRENT_PRICE_LOW = currentPrice(leadRevisions.priceLowCents, leads.priceLowCents);
+const CURRENT_PRICE_HIGH = currentPrice(leadRevisions.priceHighCents, leads.priceHighCents);
+
 const SORT_COLUMNS: Record<InboxSort, SQL> = {
   received: sql`${leads.createdAt}`,
   status: STATUS_ORDER,
   customer: sql`${leads.customerName} COLLATE NOCASE`,
   town: sql`${leads.town} COLLATE NOCASE`,
   bowl: sql`${leads.bowlDiameterIn}`,
-  price: sql`${leads.priceLowCents}`,
+  price: CURRENT_PRICE_LOW,
   consult: CONSULT_AT,
   assignee: sql`${assignee.name} COLLATE NOCASE`,
 };
@@ -80,8 +88,8 @@ const rowColumns = {
   town: leads.town,
   bowlDiameterIn: leads.bowlDiameterIn,
   stoneName: leads.stoneName,
-  priceLowCents: leads.priceLowCents,
-  priceHighCents: leads.priceHighCents,
+  priceLowCents: CURRENT_PRICE_LOW,
+  priceHighCents: CURRENT_PRICE_HIGH,
   stopReason: leads.stopReason,
   createdAt: leads.createdAt,
   assigneeId: assignee.id,

@@ -1,6 +1,6 @@
-import { and, asc, desc, eq, like } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, like, or } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
-import { emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
+import { bookings, emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/db.server";
 import type { Design } from "~/lib/design";
@@ -68,8 +68,15 @@ export async function currentVersion(lead: Lead): Promise<DesignVersion> {
 
 const actor = alias(users, "actor");
 
-/** The lead's timeline, newest first: its events plus the e-mails sent about it. */
+const CONSULT_MAIL_KINDS = ["consult-confirmed", "consult-confirmed-company", "consult-reminder", "consult-cancelled", "consult-cancelled-company"] as const;
+
+const MAIL_STATE: Record<string, string> = { sent: "sent", failed: "could not be sent", pending: "waiting to be sent", cancelled: "withdrawn before it was sent" };
+
+/** The lead's timeline, newest first: its events plus the e-mails sent about it and its consults. */
 export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
+  // Consult e-mails are keyed by booking ("consult-confirmed/<bookingId>"), so find the lead's bookings first.
+  const bookingIds = (await db.select({ id: bookings.id }).from(bookings).where(and(eq(bookings.leadId, lead.id), eq(bookings.companyId, lead.companyId)))).map((b) => b.id);
+  const consultKeys = bookingIds.flatMap((id) => CONSULT_MAIL_KINDS.map((kind) => `${kind}/${id}`));
   const [events, mails] = await Promise.all([
     db
       .select({ id: leadEvents.id, kind: leadEvents.kind, detail: leadEvents.detail, createdAt: leadEvents.createdAt, actorName: actor.name })
@@ -81,14 +88,19 @@ export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
     db
       .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, status: emailOutbox.status, createdAt: emailOutbox.createdAt, sentAt: emailOutbox.sentAt })
       .from(emailOutbox)
-      .where(and(eq(emailOutbox.companyId, lead.companyId), like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`))),
+      .where(
+        and(
+          eq(emailOutbox.companyId, lead.companyId),
+          or(like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`), consultKeys.length ? inArray(emailOutbox.idempotencyKey, consultKeys) : undefined),
+        ),
+      ),
   ]);
   const entries: TimelineEntry[] = [
     ...events.map((e) => ({ key: `e${e.id}`, kind: e.kind, detail: e.detail, actorName: e.actorName, createdAt: e.createdAt })),
     ...mails.map((m) => ({
       key: `m${m.id}`,
       kind: "email",
-      detail: `E-mail “${m.subject}” to ${m.to}: ${m.status === "sent" ? "sent" : m.status === "failed" ? "could not be sent" : "waiting to be sent"}`,
+      detail: `“${m.subject}” to ${m.to}: ${MAIL_STATE[m.status] ?? "waiting to be sent"}.`,
       actorName: null,
       createdAt: m.sentAt ?? m.createdAt,
     })),

@@ -1,7 +1,7 @@
 import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
-import { TextField, SelectField } from "~/components/ui/field";
+import { TextField, SelectField, FormAlert } from "~/components/ui/field";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog-schema";
@@ -61,9 +61,9 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
       </div>
       <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
         {Object.keys(errors).length ? (
-          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+          <FormAlert>
             Nothing was saved. Fix the fields marked below.
-          </p>
+          </FormAlert>
         ) : null}
         <SelectField
           label="Kind"

@@ -58,7 +58,8 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
           <h2 id={`kind-${group.kind}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase">
             {KIND_INFO[group.kind].plural}
           </h2>
-          <div className="overflow-x-auto">
+          {/* A wide table scrolls on a phone; the scroller takes focus so keyboards can scroll it too. */}
+          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${KIND_INFO[group.kind].plural} table`}>
             <table className="w-full sm:min-w-[36rem] text-left text-sm">
               <thead className="text-xs text-char-500 uppercase">
                 <tr>

@@ -1,14 +1,19 @@
-import { and, asc, eq } from "drizzle-orm";
+import { eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
 import { fieldErrors, formId } from "~/lib/form-fields";
-import { SelectField, TextField } from "~/components/ui/field";
-import { companies, consultBlockedDays } from "~/db/schema";
+import { ConfirmAction } from "~/components/ui/confirm-action";
+import { FormAlert, SelectField, TextField } from "~/components/ui/field";
+import { companies } from "~/db/schema";
+import { cancelBooking } from "~/lib/booking.server";
+import { blockDay, listBlockedDays, unblockDay } from "~/lib/consult-days.server";
 import { getCompany } from "~/lib/catalog.server";
 import { parseWeeklyHours, type WeeklyHours } from "~/lib/consult-slots";
 import { db } from "~/lib/db.server";
+import { zonedDay } from "~/lib/zoned-time";
 import { requireUser } from "~/lib/session.server";
+import { possessive } from "~/lib/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult hours · Emberwright" }];
 
@@ -31,11 +36,7 @@ const fromClock = (text: string) => {
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const company = await getCompany(user.companyId);
-  const blocked = await db
-    .select({ id: consultBlockedDays.id, day: consultBlockedDays.day })
-    .from(consultBlockedDays)
-    .where(eq(consultBlockedDays.companyId, user.companyId))
-    .orderBy(asc(consultBlockedDays.day));
+  const blocked = await listBlockedDays(user.companyId, company.timeZone);
   const hours = parseWeeklyHours(company.consultHoursJson);
   return {
     timeZone: company.timeZone,
@@ -46,10 +47,12 @@ export async function loader({ request }: Route.LoaderArgs) {
       return { key, label, isOpen: Boolean(range), from: toClock(range?.[0] ?? 540), to: toClock(range?.[1] ?? 1020) };
     }),
     blocked,
+    today: zonedDay(new Date(), company.timeZone),
   };
 }
 
 const unblockIdSchema = formId("Choose a blocked day to open again.");
+const cancelIdSchema = formId("Choose a consult to cancel.");
 
 const hoursSchema = z.object({
   slotMinutes: z.enum(["30", "45", "60", "90", "120"], { error: "Choose a slot length from the list." }).transform(Number),
@@ -65,18 +68,27 @@ export async function action({ request }: Route.ActionArgs) {
   const form = await request.formData();
   const intent = form.get("intent");
   if (intent === "block") {
-    const day = String(form.get("day") ?? "");
-    if (!/^\d{4}-\d{2}-\d{2}$/.test(day) || Number.isNaN(Date.parse(`${day}T00:00:00Z`))) {
-      return data({ errors: { day: "Choose a date to block." } as Record<string, string> }, { status: 400 });
-    }
-    await db.insert(consultBlockedDays).values({ companyId: user.companyId, day }).onConflictDoNothing();
-    return redirect("/app/consult-hours?saved=1");
+    const company = await getCompany(user.companyId);
+    const result = await blockDay(user.companyId, company.timeZone, String(form.get("day") ?? ""));
+    if (!result.ok) return data({ errors: { day: result.error } as Record<string, string> }, { status: 400 });
+    return redirect("/app/consult-hours?saved=day");
   }
   if (intent === "unblock") {
     const id = unblockIdSchema.safeParse(form.get("id"));
     if (!id.success) return data({ errors: { day: id.error.issues[0]!.message } as Record<string, string> }, { status: 400 });
-    await db.delete(consultBlockedDays).where(and(eq(consultBlockedDays.companyId, user.companyId), eq(consultBlockedDays.id, id.data)));
+    await unblockDay(user.companyId, id.data);
     return redirect("/app/consult-hours?saved=1");
+  }
+  if (intent === "cancel-booking") {
+    const bookingId = cancelIdSchema.safeParse(form.get("bookingId"));
+    if (!bookingId.success) return data({ errors: { booking: bookingId.error.issues[0]!.message } as Record<string, string> }, { status: 400 });
+    try {
+      await cancelBooking({ bookingId: bookingId.data, companyId: user.companyId, by: "staff", actorUserId: user.id });
+    } catch (error) {
+      if (error instanceof Response) return data({ errors: { booking: error.status === 404 ? "That consult was not found." : await error.text() } as Record<string, string> }, { status: error.status });
+      throw error;
+    }
+    return redirect("/app/consult-hours?saved=cancelled");
   }
   const parsed = hoursSchema.safeParse({ slotMinutes: form.get("slotMinutes"), horizonDays: form.get("horizonDays") });
   const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
@@ -109,26 +121,30 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
         <h1 className="text-2xl font-extrabold">Consult hours</h1>
         <p className="text-char-600">When homeowners may book a paid design consult, in {loaderData.timeZone.replace(/_/g, " ")} time.</p>
       </div>
-      {params.get("saved") && !actionData ? <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Saved.</p> : null}
+      {params.get("saved") && !actionData ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          {params.get("saved") === "cancelled" ? "Consult cancelled; the fee is being refunded and both sides are e-mailed." : params.get("saved") === "day" ? "Day blocked: nobody can book a consult on it." : "Saved."}
+        </p>
+      ) : null}
       <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
         <input type="hidden" name="intent" value="hours" />
-        {Object.keys(errors).filter((k) => k !== "day").length ? (
-          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">Nothing was saved. Fix the fields marked below.</p>
+        {Object.keys(errors).filter((k) => k !== "day" && k !== "booking").length ? (
+          <FormAlert>Nothing was saved. Fix the fields marked below.</FormAlert>
         ) : null}
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-2 font-extrabold">Weekly hours</legend>
           {loaderData.days.map((day) => (
-            <div key={day.key} className="grid grid-cols-[7.5rem_1fr] items-center gap-3 sm:grid-cols-[9rem_1fr_1fr]">
+            <div key={day.key} className="grid grid-cols-1 items-center gap-x-3 gap-y-1 sm:grid-cols-[9rem_1fr]">
               <label className="flex items-center gap-2 font-bold text-char-700">
                 <input type="checkbox" name={`open-${day.key}`} defaultChecked={day.isOpen} className="h-4 w-4 accent-ember-500" />
                 {day.label}
               </label>
-              <div className="col-start-2 flex items-center gap-2 sm:col-span-2">
+              <div className="flex min-w-0 items-center gap-2">
                 <label className="sr-only" htmlFor={`from-${day.key}`}>{day.label} from</label>
-                <input id={`from-${day.key}`} type="time" name={`from-${day.key}`} defaultValue={day.from} className="field-input mt-0" />
+                <input id={`from-${day.key}`} type="time" name={`from-${day.key}`} defaultValue={day.from} className="field-input mt-0 min-w-0 flex-1" />
                 <span aria-hidden="true">–</span>
                 <label className="sr-only" htmlFor={`to-${day.key}`}>{day.label} until</label>
-                <input id={`to-${day.key}`} type="time" name={`to-${day.key}`} defaultValue={day.to} className="field-input mt-0" aria-invalid={errors[`to-${day.key}`] ? true : undefined} />
+                <input id={`to-${day.key}`} type="time" name={`to-${day.key}`} defaultValue={day.to} className="field-input mt-0 min-w-0 flex-1" aria-invalid={errors[`to-${day.key}`] ? true : undefined} />
               </div>
               {errors[`to-${day.key}`] ? <p className="field-error col-span-full">{errors[`to-${day.key}`]}</p> : null}
             </div>
@@ -148,21 +164,53 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
       </Form>
       <section className="card flex flex-col gap-4 p-6" aria-labelledby="blocked-title">
         <h2 id="blocked-title" className="font-extrabold">Days off</h2>
+        {errors.booking ? <FormAlert>{errors.booking}</FormAlert> : null}
         <Form method="post" className="flex flex-wrap items-end gap-3" noValidate>
           <input type="hidden" name="intent" value="block" />
-          <TextField label="Block a day" name="day" type="date" error={errors.day} />
-          <button type="submit" className="btn-quiet">Block it</button>
+          <TextField label="Block a day" name="day" type="date" min={loaderData.today} error={errors.day} hint="Nobody can book a consult on a blocked day. Consults already booked on it stay until you cancel them." />
+          <button type="submit" className="btn-quiet">Block this day</button>
         </Form>
         {loaderData.blocked.length ? (
-          <ul className="flex flex-wrap gap-2">
+          <ul className="flex flex-col gap-3">
             {loaderData.blocked.map((b) => (
-              <li key={b.id}>
-                <Form method="post" className="inline-flex items-center gap-2 rounded-full bg-ash-100 py-1 pr-1 pl-3 text-sm font-bold">
-                  <input type="hidden" name="intent" value="unblock" />
-                  <input type="hidden" name="id" value={b.id} />
-                  {b.day}
-                  <button type="submit" className="rounded-full px-2 hover:bg-ash-200" aria-label={`Unblock ${b.day}`}>×</button>
-                </Form>
+              <li key={b.id} className="rounded-lg border border-ash-200 bg-ash-50 p-3">
+                <div className="flex flex-wrap items-center justify-between gap-2">
+                  <span className="font-bold">{b.label}</span>
+                  <Form method="post">
+                    <input type="hidden" name="intent" value="unblock" />
+                    <input type="hidden" name="id" value={b.id} />
+                    <button type="submit" className="btn-quiet" aria-label={`Open ${b.label} again`}>Open again</button>
+                  </Form>
+                </div>
+                {b.bookings.length ? (
+                  <div role="note" className="mt-3 flex flex-col gap-2 rounded-lg border border-alert-600/30 bg-alert-100 p-3 text-sm">
+                    <p className="font-bold text-alert-700">
+                      {b.bookings.length === 1 ? "A consult is still booked on this day." : `${b.bookings.length} consults are still booked on this day.`} Cancel and refund, or keep the visit.
+                    </p>
+                    <ul className="flex flex-col gap-2">
+                      {b.bookings.map((booking) => (
+                        <li key={booking.id} className="flex flex-wrap items-center justify-between gap-2">
+                          <span>
+                            {booking.time}, {booking.customerName}
+                            {booking.status === "held" ? " (payment in progress)" : ""}
+                          </span>
+                          {booking.status === "confirmed" ? (
+                            <ConfirmAction
+                              label="Cancel and refund"
+                              accessibleLabel={`Cancel and refund the consult with ${booking.customerName}`}
+                              question={`Cancel ${possessive(booking.customerName)} consult at ${booking.time} on ${b.label}? ${booking.isPaid ? "The fee is refunded in full and " : ""}${booking.customerName} is e-mailed.`}
+                              confirmLabel="Yes, cancel and refund"
+                              disabled={navigation.state === "submitting"}
+                            >
+                              <input type="hidden" name="intent" value="cancel-booking" />
+                              <input type="hidden" name="bookingId" value={booking.id} />
+                            </ConfirmAction>
+                          ) : null}
+                        </li>
+                      ))}
+                    </ul>
+                  </div>
+                ) : null}
               </li>
             ))}
           </ul>

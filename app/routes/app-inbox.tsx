@@ -3,20 +3,19 @@ import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
 import { JobProgressCompact } from "~/components/job-progress";
-import { SelectField, TextField } from "~/components/ui/field";
+import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { LEAD_STATUSES, users } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog.server";
 import { db } from "~/lib/db.server";
 import {
-  DEFAULT_INBOX_FILTERS,
   FIRST_DIRECTION,
   inboxSearchParams,
   type InboxFilters,
   type InboxPage,
   type InboxSort,
 } from "~/lib/inbox-options";
-import { parseInboxQuery } from "~/lib/inbox-schema";
+import { parseInboxQuery, usableInboxFilters } from "~/lib/inbox-schema";
 import { loadInboxPage } from "~/lib/inbox.server";
 import { STATUS_LABEL } from "~/lib/lead-status";
 import { formatMoneyWhole } from "~/lib/money";
@@ -34,22 +33,24 @@ export async function loader({ request }: Route.LoaderArgs) {
     db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, user.id)).limit(1),
   ]);
   const estimators = team.filter((m) => m.role === "owner" || m.role === "estimator").map((m) => ({ id: m.id, name: m.name, isActive: m.isActive }));
-  const parsed = parseInboxQuery(new URL(request.url).searchParams);
-  if (!parsed.ok) {
-    return data({ inbox: null, errors: parsed.errors, estimators, myId: user.id }, { status: 400 });
-  }
+  const params = new URL(request.url).searchParams;
+  const parsed = parseInboxQuery(params);
+  // Refused filters are shown beside their fields as typed; the list stays, filtered by the rest.
+  const errors = parsed.ok ? null : parsed.errors;
+  const typed = parsed.ok ? null : { q: params.get("q") ?? "", from: params.get("from") ?? "", to: params.get("to") ?? "", assignee: params.get("assignee") ?? "" };
   const now = new Date();
   const inbox = await loadInboxPage({
     companyId: company.id,
     timeZone: company.timeZone,
-    filters: parsed.filters,
+    filters: parsed.ok ? parsed.filters : usableInboxFilters(params, parsed.errors),
     // Someone opening the inbox for the first time has no "last visit": nothing before now is marked.
     unseenSince: me?.inboxSeenAt ?? now.toISOString(),
     now,
   });
   // Viewing the inbox is what "seen" means; the marks on this page still compare with the old time.
   await db.update(users).set({ inboxSeenAt: now.toISOString() }).where(eq(users.id, user.id));
-  return { inbox, errors: null as Record<string, string> | null, estimators, myId: user.id };
+  const answer = { inbox, errors, typed, estimators, myId: user.id };
+  return errors ? data(answer, { status: 400 }) : answer;
 }
 
 const POLL_MS = 30_000;
@@ -98,19 +99,25 @@ function useLiveInbox(initial: InboxPage, since: string | null): InboxPage {
 }
 
 export default function InboxRoute({ loaderData }: Route.ComponentProps) {
-  const { errors, estimators, myId } = loaderData;
-  if (!loaderData.inbox) {
-    return (
-      <div className="flex flex-col gap-6">
-        <h1 className="text-2xl font-extrabold">Inbox</h1>
-        <FilterForm filters={DEFAULT_INBOX_FILTERS} estimators={estimators} myId={myId} errors={errors ?? {}} />
-      </div>
-    );
-  }
-  return <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} />;
+  const { errors, typed, estimators, myId } = loaderData;
+  return <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} errors={errors ?? {}} typed={typed} />;
 }
 
-function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimators: { id: number; name: string; isActive: boolean }[]; myId: number }) {
+type TypedFilters = { q: string; from: string; to: string; assignee: string } | null;
+
+function InboxView({
+  initial,
+  estimators,
+  myId,
+  errors,
+  typed,
+}: {
+  initial: InboxPage;
+  estimators: { id: number; name: string; isActive: boolean }[];
+  myId: number;
+  errors: Record<string, string>;
+  typed: TypedFilters;
+}) {
   // Marks stay put while the person moves between filters: compare with the time they arrived.
   const [since] = useState(initial.unseenSince);
   const inbox = useLiveInbox(initial, since);
@@ -158,7 +165,7 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
         </ul>
       </nav>
 
-      <FilterForm filters={filters} estimators={estimators} myId={myId} errors={{}} />
+      <FilterForm key={initial.query + JSON.stringify(errors)} filters={filters} estimators={estimators} myId={myId} errors={errors} typed={typed} />
 
       <div className="card overflow-hidden">
         <table className="w-full text-left text-sm">
@@ -201,8 +208,8 @@ function InboxView({ initial, estimators, myId }: { initial: InboxPage; estimato
                       {row.customerName}
                     </Link>
                     {unseen ? (
-                      <span className="ml-2 rounded bg-ember-500 px-1.5 py-0.5 align-middle text-[0.65rem] font-extrabold tracking-wide text-white uppercase">
-                        New<span className="sr-only"> since your last visit</span>
+                      <span className="ml-2 rounded bg-action px-1.5 py-0.5 align-middle text-[0.65rem] font-extrabold tracking-wide text-white uppercase">
+                        Unread<span className="sr-only"> since your last visit</span>
                       </span>
                     ) : null}
                     <span className="hidden text-xs break-all text-char-500 sm:block">{row.email}</span>
@@ -277,20 +284,22 @@ function FilterForm({
   estimators,
   myId,
   errors,
+  typed,
 }: {
   filters: InboxFilters;
   estimators: { id: number; name: string; isActive: boolean }[];
   myId: number;
   errors: Record<string, string>;
+  typed: TypedFilters;
 }) {
   const errorOf = (field: string) => (errors[field] ? <p id={`filter-${field}-error`} className="field-error">{errors[field]}</p> : null);
   const hasErrors = Object.keys(errors).length > 0;
   return (
     <Form method="get" action="/app/inbox" className="card grid grid-cols-2 gap-3 p-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]" aria-label="Filter requests">
       {hasErrors ? (
-        <p role="alert" className="col-span-2 rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 lg:col-span-5">
-          These filters could not be used. Fix the fields marked below.
-        </p>
+        <FormAlert className="col-span-2 lg:col-span-5">
+          Some filters could not be used, so the list below ignores them. Fix the fields marked below.
+        </FormAlert>
       ) : null}
       {filters.status ? <input type="hidden" name="status" value={filters.status} /> : null}
       {errors.status ? <div className="col-span-2 lg:col-span-5">{errorOf("status")}</div> : null}
@@ -304,7 +313,7 @@ function FilterForm({
         label="Search"
         name="q"
         type="search"
-        defaultValue={filters.q}
+        defaultValue={typed?.q ?? filters.q}
         placeholder="Name, e-mail, phone or town"
         maxLength={100}
         error={errors.q}
@@ -313,7 +322,7 @@ function FilterForm({
       <SelectField
         label="Estimator"
         name="assignee"
-        defaultValue={filters.assignee === null ? "" : String(filters.assignee)}
+        defaultValue={typed?.assignee ?? (filters.assignee === null ? "" : String(filters.assignee))}
         error={errors.assignee}
         className="col-span-2 lg:col-span-1"
       >
@@ -326,8 +335,8 @@ function FilterForm({
           </option>
         ))}
       </SelectField>
-      <TextField label="Received from" name="from" type="date" defaultValue={filters.from ?? ""} error={errors.from} className="min-w-0" />
-      <TextField label="to" name="to" type="date" defaultValue={filters.to ?? ""} error={errors.to} className="min-w-0" />
+      <TextField label="Received from" name="from" type="date" defaultValue={typed?.from ?? filters.from ?? ""} error={errors.from} className="min-w-0" />
+      <TextField label="to" name="to" type="date" defaultValue={typed?.to ?? filters.to ?? ""} error={errors.to} className="min-w-0" />
       <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
         <button type="submit" className="btn-primary">Apply</button>
         <Link to="/app/inbox" className="btn-quiet">Clear</Link>

@@ -30,8 +30,8 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
   const { sheet, backTo } = loaderData;
   const f = (inches: number) => formatInches(inches);
   return (
-    <div className="cut-sheet mx-auto max-w-4xl px-4 py-6 sm:px-6 print:max-w-none print:p-0">
-      <div className="no-print mb-6 flex flex-wrap items-center justify-between gap-3">
+    <main className="cut-sheet mx-auto max-w-4xl px-4 py-6 sm:px-6 print:max-w-none print:p-0">
+      <nav aria-label="Cut sheet" className="no-print mb-6 flex flex-wrap items-center justify-between gap-3">
         <Link to={backTo} className="text-sm font-bold text-ember-700 hover:underline">
           ← Back
         </Link>
@@ -41,7 +41,7 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
             PDF with full-size cap template
           </a>
         </div>
-      </div>
+      </nav>
 
       <header className="flex flex-wrap items-start justify-between gap-4 border-b-2 border-char-800 pb-3">
         <div className="min-w-0">
@@ -100,6 +100,6 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
         <h2 id="sheet-safety" className="mb-2 text-lg font-extrabold">Safety on site</h2>
         <CrewCautions cautions={sheet.cautions} />
       </section>
-    </div>
+    </main>
   );
 }

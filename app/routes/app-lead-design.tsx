@@ -17,8 +17,10 @@ import { formatMoneyWhole } from "~/lib/money";
 import { publicPlan } from "~/lib/plan.server";
 import { requireUser } from "~/lib/session.server";
 import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
+import { speakLengths } from "~/lib/length-text";
+import { possessive } from "~/lib/wording";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${data.lead.customerName}'s design · Emberwright` : "Revise a design · Emberwright" }];
+export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${possessive(data.lead.customerName)} design · Emberwright` : "Revise a design · Emberwright" }];
 
 async function loadContext(request: Request, rawLeadId: string | undefined) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
@@ -99,7 +101,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
           {sceneInput && plan ? <PitPreview input={sceneInput} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} /> : null}
           {planErrors.length ? (
             <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
-              {planErrors.map((e) => e.message).join(" ")}
+              {planErrors.map((e) => speakLengths(e.message, design.unit)).join(" ")}
             </p>
           ) : null}
           {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
@@ -147,7 +149,7 @@ function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: L
       {plan.warnings.length ? (
         <ul className="mt-4 list-disc rounded-lg bg-ember-50 py-3 pr-3 pl-8 text-sm text-char-800">
           {plan.warnings.map((w) => (
-            <li key={w.code}>{w.message}</li>
+            <li key={w.code}>{speakLengths(w.message, unit)}</li>
           ))}
         </ul>
       ) : null}

@@ -228,12 +228,19 @@ const kindLabel: Record<string, string> = {
   "crew-assigned": "Crew",
   revision: "Design revised",
   email: "E-mail",
+  "consult-booked": "Consult booked",
+  "consult-cancelled": "Consult cancelled",
 };
+
+/** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
+const describeKind = (kind: string) => kindLabel[kind] ?? `${kind.charAt(0).toUpperCase()}${kind.slice(1).replace(/-/g, " ")}`;
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit, proposals, totals, isOwner } = loaderData;
   const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
+  // A refused form comes back with what was typed and chosen, not the saved values.
+  const typed = (intent: string): Record<string, string | undefined> => (actionData && actionData.intent === intent ? actionData.fields : {});
   const navigation = useNavigation();
   // Each successful post redirects to a new location: keyed on it, the forms start again from the saved values.
   const { key: formKey } = useLocation();
@@ -447,7 +454,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
-                <SelectField label="Estimator" name="assigneeId" defaultValue={lead.assignedUserId === null ? "" : String(lead.assignedUserId)} error={errorsFor("assign").assigneeId}>
+                <SelectField label="Estimator" name="assigneeId" defaultValue={typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))} error={errorsFor("assign").assigneeId}>
                   <option value="">Unassigned</option>
                   {team.estimators.map((m) => (
                     <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
@@ -459,7 +466,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
-                  <SelectField label="Crew" name="crewUserId" defaultValue={lead.crewUserId === null ? "" : String(lead.crewUserId)} error={errorsFor("crew").crewUserId}>
+                  <SelectField label="Crew" name="crewUserId" defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))} error={errorsFor("crew").crewUserId}>
                     <option value="">No crew yet</option>
                     {team.crew.map((m) => (
                       <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
@@ -479,6 +486,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   name="note"
                   rows={3}
                   maxLength={2000}
+                  defaultValue={typed("note").note ?? ""}
                   aria-invalid={errorsFor("note").note ? true : undefined}
                   aria-describedby={errorsFor("note").note ? "note-error" : undefined}
                   className="field-input"
@@ -499,7 +507,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               <ol className="mt-2 flex flex-col gap-3 text-sm">
                 {timeline.map((t) => (
                   <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
-                    <p className="font-bold text-char-800">{kindLabel[t.kind] ?? t.kind}</p>
+                    <p className="font-bold text-char-800">{describeKind(t.kind)}</p>
                     <p className="break-words whitespace-pre-line">{t.detail}</p>
                     <p className="text-xs text-char-500">
                       {t.when}

@@ -1,7 +1,8 @@
 import { and, asc, eq, gt, inArray } from "drizzle-orm";
-import { data, Form, Link, useNavigation } from "react-router";
+import { data, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-schedule";
+import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { formId } from "~/lib/form-fields";
 import { bookings, leads } from "~/db/schema";
@@ -11,6 +12,7 @@ import { zonedDay } from "~/lib/zoned-time";
 import { db } from "~/lib/db.server";
 import { formatMoney } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
+import { possessive } from "~/lib/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult schedule · Emberwright" }];
 
@@ -78,26 +80,29 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
       {days.length === 0 ? <p className="card p-6 text-char-600">No consults booked yet.</p> : null}
       {days.map(({ day, items }) => (
         <section key={day} className="card overflow-hidden" aria-labelledby={`day-${day}`}>
-          <h2 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">{dayLabel(day)}</h2>
+          <h2 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold"><time dateTime={day}>{dayLabel(day)}</time></h2>
           <ul className="divide-y divide-ash-200">
             {items.map((item) => (
               <li key={item.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
                 <div>
                   <p className="font-extrabold tabular-nums">
                     {item.from} – {item.to}{" "}
-                    <Link to={`/app/leads/${item.leadId}`} className="text-ember-700 hover:underline">{item.customerName}</Link>
+                    <Link to={`/app/leads/${item.leadId}`} className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline">{item.customerName}</Link>
                   </p>
                   <p className="text-sm text-char-600">
                     {item.place} · {item.status === "confirmed" ? `paid ${item.fee}` : "payment in progress"}
                   </p>
                 </div>
                 {item.status === "confirmed" ? (
-                  <Form method="post">
+                  <ConfirmAction
+                    label="Cancel and refund"
+                    accessibleLabel={`Cancel and refund the consult with ${item.customerName}`}
+                    question={`Cancel ${possessive(item.customerName)} consult, ${item.from} on ${dayLabel(day)}? The fee of ${item.fee} is refunded in full and ${item.customerName} is e-mailed.`}
+                    confirmLabel="Yes, cancel and refund"
+                    disabled={navigation.state === "submitting"}
+                  >
                     <input type="hidden" name="bookingId" value={item.id} />
-                    <button type="submit" className="btn-quiet" disabled={navigation.state === "submitting"} aria-label={`Cancel and refund the consult with ${item.customerName}`}>
-                      Cancel and refund
-                    </button>
-                  </Form>
+                  </ConfirmAction>
                 ) : null}
               </li>
             ))}

@@ -2,12 +2,13 @@ import { eq } from "drizzle-orm";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
 import { fieldErrors } from "~/lib/form-fields";
-import { SelectField, TextField } from "~/components/ui/field";
+import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { companies } from "~/db/schema";
 import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog.server";
 import { companySettingsSchema, timeZoneList } from "~/lib/company-schema";
 import { db } from "~/lib/db.server";
 import { requireUser } from "~/lib/session.server";
+import { formatPhone } from "~/lib/phone";
 
 export const meta: Route.MetaFunction = () => [{ title: "Company settings · Emberwright" }];
 
@@ -51,17 +52,18 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
       {params.get("saved") && !actionData ? (
         <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Settings saved.</p>
       ) : null}
-      <Form method="post" className="flex flex-col gap-6" noValidate>
+      {/* Keyed on the saved values: after a save the fields show what was stored (e.g. the phone formatted); a refused save keeps what was typed. */}
+      <Form key={JSON.stringify(company)} method="post" className="flex flex-col gap-6" noValidate>
         {Object.keys(errors).length ? (
-          <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+          <FormAlert>
             Nothing was saved. Fix the fields marked below.
-          </p>
+          </FormAlert>
         ) : null}
         <section className="card grid gap-4 p-6 sm:grid-cols-2">
           <h2 className="text-lg font-extrabold sm:col-span-2">Company</h2>
           <TextField label="Company name" name="name" defaultValue={company.name} error={errors.name} className="sm:col-span-2" />
           <TextField label="E-mail for new requests" name="email" type="email" defaultValue={company.email} error={errors.email} />
-          <TextField label="Phone" name="phone" defaultValue={company.phone} error={errors.phone} />
+          <TextField label="Phone" name="phone" type="tel" autoComplete="tel" defaultValue={formatPhone(company.phone)} error={errors.phone} hint="Homeowners see it on your page and in e-mails. Include the area code." />
           <TextField label="Town" name="town" defaultValue={company.town} error={errors.town} />
           <SelectField label="Time zone" name="timeZone" defaultValue={company.timeZone} error={errors.timeZone}>
             {timeZones.map((tz) => (

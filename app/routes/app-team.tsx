@@ -107,7 +107,7 @@ export default function TeamRoute({ loaderData, actionData }: Route.ComponentPro
                           <option key={r} value={r}>{ROLE_LABEL[r]}</option>
                         ))}
                       </select>
-                      <button type="submit" className="btn-quiet" disabled={isBusy || !member.isActive} aria-label={`Change ${member.name}'s role`}>
+                      <button type="submit" className="btn-quiet" disabled={isBusy || !member.isActive} aria-label={`Change role of ${member.name}`}>
                         Change role
                       </button>
                     </Form>

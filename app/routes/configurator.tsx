@@ -22,6 +22,8 @@ import type { PlanFieldError } from "~/lib/plan-schema";
 import { publicPlan } from "~/lib/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
 import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
+import { speakLengths } from "~/lib/length-text";
+import { formatPhone, phoneHref } from "~/lib/phone";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
@@ -95,7 +97,9 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const stored = await storeReceivedPhotos(received);
   if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
   const { plan } = result;
+  // The stored record (lead page, cut sheet, PDF) stays in inches for the crew; the e-mails speak the homeowner's chosen unit.
   const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
+  const summaryInChosenUnit = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, design.unit);
   let lead: Awaited<ReturnType<typeof createLead>>;
   try {
     lead = await createLead({
@@ -109,7 +113,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
         bowlDiameterIn: plan.ring.bowlDiameterIn,
         priceLowCents: plan.price?.lowCents ?? null,
         priceHighCents: plan.price?.highCents ?? null,
-        summary,
+        summary: summaryInChosenUnit,
       },
     });
   } catch (error) {
@@ -162,6 +166,14 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
           <div>
             <p className="text-sm font-extrabold tracking-widest text-ember-600 uppercase">{company.name}</p>
             <h1 className="text-3xl font-extrabold sm:text-4xl">Design your fire pit</h1>
+            {company.phone ? (
+              <p className="mt-1 text-sm text-char-700">
+                Questions first? Call {company.name}:{" "}
+                <a href={phoneHref(company.phone)} className="font-bold text-ember-700 underline underline-offset-2">
+                  {formatPhone(company.phone)}
+                </a>
+              </p>
+            ) : null}
           </div>
           <div role="group" aria-label="Units" className="inline-flex rounded-lg border border-ash-300 bg-white p-0.5 text-sm font-bold">
             {(["in", "mm"] as const).map((u) => (
@@ -185,7 +197,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
             ) : null}
             {planErrors.length ? (
               <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
-                {planErrors.map((e) => e.message).join(" ")}
+                {planErrors.map((e) => speakLengths(e.message, design.unit)).join(" ")}
               </p>
             ) : null}
             {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}

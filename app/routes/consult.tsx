@@ -13,6 +13,7 @@ import { env } from "~/lib/env.server";
 import { findLeadByRef } from "~/lib/leads.server";
 import { formatMoney } from "~/lib/money";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
+import { possessive } from "~/lib/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Book a design consult · Emberwright" }];
 
@@ -106,7 +107,7 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
           <p className="text-sm font-extrabold tracking-widest text-ember-600 uppercase">{company.name}</p>
           <h1 className="mt-1 text-3xl font-extrabold">Book a design consult</h1>
           <p className="mt-2 text-char-600">
-            {firstName}, a designer from {company.name} visits, measures the spot and settles the design with you. The fee of {company.fee} is
+            {company.name} sends someone to your home to measure the spot and settle the design with you, {firstName}. The fee of {company.fee} is
             paid now and credited toward the build.
           </p>
         </div>
@@ -140,7 +141,7 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
                 </button>
               </div>
             ) : null}
-            <p className="text-sm text-char-600">Times are in {company.name}'s time zone ({company.timeZone.replace(/_/g, " ")}).</p>
+            <p className="text-sm text-char-600">Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).</p>
             {days.map(({ day, slots }) => (
               <fieldset key={day} className="card p-4">
                 <legend className="px-1 font-extrabold">{dayLabel(day)}</legend>

@@ -4,6 +4,7 @@ import { z } from "zod";
 import type { Route } from "./+types/my";
 import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
+import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { bookings, companies, leadPhotos, leads, proposals } from "~/db/schema";
 import { parseProposalDocument } from "~/lib/proposal-document";
@@ -13,7 +14,7 @@ import { db } from "~/lib/db.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
 import { listHomeownerLeads } from "~/lib/leads.server";
 import { formId } from "~/lib/form-fields";
-import { formatMoneyWhole } from "~/lib/money";
+import { formatMoney, formatMoneyWhole } from "~/lib/money";
 import { requireUser } from "~/lib/session.server";
 import { readStoredDesign } from "~/lib/stored-plan";
 
@@ -64,6 +65,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         consult: booking
           ? {
               bookingId: booking.id,
+              fee: formatMoney(booking.amountCents),
               startsAt: booking.startsAt,
               canCancel: new Date(booking.startsAt).getTime() - now >= HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000,
             }
@@ -142,10 +144,14 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                   <strong>Design consult:</strong> <LocalTime iso={req.consult.startsAt} companyTimeZone={req.companyTimeZone} />
                 </span>
                 {req.consult.canCancel ? (
-                  <Form method="post">
+                  <ConfirmAction
+                    label="Cancel the consult"
+                    question={`Cancel your design consult with ${req.companyName}? The fee of ${req.consult.fee} goes back to the card that paid it.`}
+                    confirmLabel="Yes, cancel it"
+                    keepLabel="Keep my consult"
+                  >
                     <input type="hidden" name="bookingId" value={req.consult.bookingId} />
-                    <button type="submit" className="btn-quiet">Cancel the consult</button>
-                  </Form>
+                  </ConfirmAction>
                 ) : (
                   <span className="text-char-600">Less than a day to go: call {req.companyName} to change it.</span>
                 )}

@@ -62,6 +62,8 @@ export type PitSceneProps = {
   /** Change this number (e.g. increment it) to put the camera back where it started. */
   resetSignal?: number;
   className?: string;
+  /** The design in words: the canvas's text alternative (WCAG 2.1 SC 1.1.1). */
+  description?: string;
 };
 
 declare global {
@@ -387,7 +389,7 @@ function RenderAndReport({ onReady }: { onReady?: (stats: PitSceneStats) => void
 }
 
 /** The 3D preview of one pit. Needs WebGL: mount it behind a check and an error boundary. */
-export default function PitScene({ input, onReady, resetSignal = 0, className }: PitSceneProps) {
+export default function PitScene({ input, onReady, resetSignal = 0, className, description }: PitSceneProps) {
   // Parents often rebuild the input object on every render; only a real change should redraw.
   const inputKey = JSON.stringify(input);
   const stableInput = useMemo(() => JSON.parse(inputKey) as PitSceneInput, [inputKey]);
@@ -408,8 +410,9 @@ export default function PitScene({ input, onReady, resetSignal = 0, className }:
           gl.info.autoReset = true;
           invalidate();
         }}
-        aria-label="3D view of the fire pit: drag to turn, scroll or pinch to zoom"
+        aria-label={`3D view of the fire pit${description ? `: ${description}` : ""}. Drag to turn, scroll or pinch to zoom.`}
         role="img"
+        tabIndex={0}
       >
         <color attach="background" args={[BACKGROUND]} />
         <hemisphereLight args={["#fff8ee", "#8a7f72", 1.7]} />

@@ -46,6 +46,7 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
   await screenshotBothWidths(staffPage, "schedule");
   const refundsBefore = ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length;
   await staffPage.getByRole("button", { name: "Cancel and refund the consult with Juno Marsh" }).click();
+  await staffPage.getByRole("button", { name: "Yes, cancel and refund" }).click();
   await expect(staffPage.getByText(/Consult cancelled/)).toBeVisible();
   await expect.poll(async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length, { timeout: 15_000 }).toBe(refundsBefore + 1);
   await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email) && /cancelled and refunded/.test(m.subject)).length, { timeout: 15_000 }).toBe(1);

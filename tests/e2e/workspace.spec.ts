@@ -24,7 +24,7 @@ test("an estimator sees a new request arrive, takes it on, calls back, holds it 
     await expect(page.getByRole("link", { name: CUSTOMER })).toBeVisible({ timeout: 1_000 });
   }).toPass({ timeout: 15_000 });
   const row = page.getByRole("row", { name: new RegExp(CUSTOMER) });
-  await expect(row).toContainText("New since your last visit");
+  await expect(row).toContainText("Unread since your last visit");
   await screenshotBothWidths(page, "inbox");
 
   // Filters live in the URL: search, then the stage tab.

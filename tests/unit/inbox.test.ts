@@ -185,7 +185,7 @@ test("bad filters are refused with a message naming each field", () => {
   expect(result.errors.status).toContain("request, called-back");
   expect(result.errors.from).toContain("2026-12-02");
   const reversed = parseInboxQuery(new URLSearchParams("from=2026-06-10&to=2026-06-01"));
-  expect(reversed).toEqual({ ok: false, errors: { to: "To must be on or after From." } });
+  expect(reversed).toEqual({ ok: false, errors: { to: "To must be on or after From: the end date comes before the start date." } });
   const long = parseInboxQuery(new URLSearchParams({ q: "x".repeat(101) }));
   expect(long.ok ? null : long.errors.q).toBe("Search must be at most 100 characters.");
 });

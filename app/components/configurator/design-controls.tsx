@@ -63,7 +63,7 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
           {stones.map((s) => (
             <label
               key={s.id}
-              className="flex cursor-pointer items-center gap-3 rounded-lg border border-ash-300 bg-white p-2.5 has-checked:border-ember-500 has-checked:ring-2 has-checked:ring-ember-200"
+              className="relative flex cursor-pointer items-center gap-3 rounded-lg border-2 border-ash-300 bg-white p-2.5 has-checked:border-action has-checked:bg-ember-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ember-500"
             >
               <input
                 type="radio"
@@ -80,6 +80,10 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
                   {s.colourName} · {sizeText(s, unit)}
                 </span>
               </span>
+              {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1); keyboard focus gets the site-wide outline. */}
+              {s.id === design.stoneId ? (
+                <span className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white" aria-hidden="true">✓ Chosen</span>
+              ) : null}
             </label>
           ))}
         </div>

@@ -1,5 +1,6 @@
 import { formatLength, type LengthUnit } from "~/domain/units";
 import type { PublicPlan } from "~/lib/design-plan";
+import { formatAreaFt2, speakLengths } from "~/lib/length-text";
 import { formatMoneyWhole } from "~/lib/money";
 
 /** Price, key numbers, warnings and cautions beside the preview. */
@@ -53,7 +54,7 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
           {plan.patio ? (
             <div>
               <dt className="text-char-500">Patio</dt>
-              <dd className="font-extrabold text-char-900 tabular-nums">{Math.round(plan.patio.pavedAreaFt2)} ft²</dd>
+              <dd className="font-extrabold text-char-900 tabular-nums">{formatAreaFt2(plan.patio.pavedAreaFt2, unit)}</dd>
             </div>
           ) : null}
         </dl>
@@ -64,7 +65,7 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
           <h3 className="font-extrabold text-ember-700">Worth a second look</h3>
           <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
             {plan.warnings.map((w) => (
-              <li key={w.code} data-code={w.code}>{w.message}</li>
+              <li key={w.code} data-code={w.code}>{speakLengths(w.message, unit)}</li>
             ))}
           </ul>
         </div>
@@ -75,7 +76,7 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
         <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
           {cautions.map((c) => (
             <li key={c.code} data-code={c.code} className="border-l-3 border-ash-300 pl-3">
-              {c.message}
+              {speakLengths(c.message, unit)}
             </li>
           ))}
         </ul>

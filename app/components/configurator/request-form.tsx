@@ -1,5 +1,5 @@
 import { Form, useNavigation } from "react-router";
-import { SelectField, TextField } from "~/components/ui/field";
+import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { BUILD_WINDOWS } from "~/db/enums";
 import { BUILD_WINDOW_LABEL } from "~/lib/lead-status";
 
@@ -18,9 +18,9 @@ export function RequestForm({ designQuery, state, companyName }: { designQuery: 
         <p className="mt-1 text-char-600">They will look at it with your yard photos and get back to you with a visit or a firm price.</p>
       </div>
       {Object.keys(errors).length ? (
-        <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+        <FormAlert>
           {errors.form ?? "Your request was not sent yet. Fix the fields marked below."}
-        </p>
+        </FormAlert>
       ) : null}
       <input type="hidden" name="design" value={designQuery} />
       <div className="grid gap-4 sm:grid-cols-2">

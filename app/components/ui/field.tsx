@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useEffect, useId, useRef, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
 
 type FieldProps = {
   label: ReactNode;
@@ -69,10 +69,18 @@ export function SelectField({ label, name, error, hint, children, className, ...
   );
 }
 
-/** A form-level message (e.g. a failed sign-in), announced to screen readers. */
-export function FormAlert({ children }: { children: ReactNode }) {
+/**
+ * A form-level message after a refused submit (e.g. a failed sign-in or fields to fix), announced to
+ * screen readers. It takes focus when it appears, so keyboard users start from the summary (the GOV.UK
+ * error-summary pattern; WCAG 2.1 SC 3.3.1), then reach each marked field in order.
+ */
+export function FormAlert({ children, className = "" }: { children: ReactNode; className?: string }) {
+  const ref = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    ref.current?.focus();
+  }, []);
   return (
-    <div role="alert" className="rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
+    <div ref={ref} tabIndex={-1} role="alert" className={`rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 ${className}`}>
       {children}
     </div>
   );

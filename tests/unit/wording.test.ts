@@ -1,0 +1,10 @@
+import { expect, test } from "vitest";
+import { possessive } from "~/lib/wording";
+
+// Names ending in s take the apostrophe alone (common house-style practice, e.g. "the Joneses'"; no single source).
+test("a name ending in s takes the apostrophe alone", () => {
+  expect(possessive("Cinder & Slate Outdoor Works")).toBe("Cinder & Slate Outdoor Works'");
+  expect(possessive("Silas Marrowby")).toBe("Silas Marrowby's");
+  expect(possessive("Juno Marsh")).toBe("Juno Marsh's");
+  expect(possessive("Ilse Marchetti ")).toBe("Ilse Marchetti's");
+});
