@@ -222,7 +222,7 @@ test("the estimator picks an end date before the start date: the error shows bes
   await expect(page.getByText(/To must be on or after From/)).toBeVisible();
   await expect(page.getByLabel("to", { exact: true })).toHaveAttribute("aria-invalid", "true");
   await expect(page.getByLabel("to", { exact: true })).toHaveValue("2026-06-01");
-  await expect(page.getByRole("navigation", { name: "Filter by status" })).toBeVisible();
+  await expect(page.getByRole("navigation", { name: "Filter by stage" })).toBeVisible();
   await expect(page.getByRole("navigation", { name: "Pages" }).getByText(/requests? ·/)).toHaveText(total);
   expect(await page.getByRole("row").count()).toBeGreaterThan(2);
   await expect(page.getByRole("alert")).toBeFocused();
