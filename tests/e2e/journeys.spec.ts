@@ -115,7 +115,8 @@ test("the owner blocks a day with a paid consult: warned at once, cancels and re
   await page.getByLabel("Block a day").fill(day);
   await page.getByRole("button", { name: "Block this day" }).click();
   const entry = page.getByRole("listitem").filter({ hasText: dayLabel }).first();
-  await expect(entry).toContainText("A consult is still booked on this day.");
+  // The seed books consults relative to today, so the first day may hold one or several.
+  await expect(entry).toContainText(/(A consult is|\d+ consults are) still booked on this day\./);
   await expect(entry).toContainText(customer);
   await expect(entry.getByRole("button", { name: `Open ${dayLabel} again` })).toBeVisible();
   await screenshotBothWidths(page, "consult-hours-blocked-day");
