@@ -5,12 +5,12 @@ import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { RouterContextProvider, ServerRouter, type EntryContext } from "react-router";
 import { NonceProvider } from "~/components/nonce";
-import { bodyLimitFor, bodyTooLarge } from "~/lib/body-limits.server";
-import { env } from "~/lib/env.server";
-import { socketAddressContext } from "~/lib/rate-limit.server";
-import { applyBaselineHeaders, nonceContext } from "~/lib/security.server";
-import "~/lib/db.server";
-import "~/lib/background.server";
+import { bodyLimitFor, bodyTooLarge } from "~/lib/platform/body-limits.server";
+import { env } from "~/lib/platform/env.server";
+import { socketAddressContext } from "~/lib/platform/rate-limit.server";
+import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.server";
+import "~/lib/platform/db.server";
+import "~/lib/jobs/background.server";
 
 export const streamTimeout = 5_000;
 

@@ -2,7 +2,7 @@ import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration }
 import type { Route } from "./+types/root";
 import { ProblemPage } from "~/components/problem-page";
 import { useNonce } from "~/components/nonce";
-import { securityMiddleware } from "~/lib/security.server";
+import { securityMiddleware } from "~/lib/platform/security.server";
 import nunitoBody from "@fontsource/nunito/files/nunito-latin-400-normal.woff2?url";
 import nunitoHeading from "@fontsource/nunito/files/nunito-latin-800-normal.woff2?url";
 import "./app.css";

@@ -1,6 +1,6 @@
 import { layoutCapTemplate, type CapTemplateInput } from "~/domain/cap-template";
 import { formatInches } from "~/domain/units";
-import { formatDegrees } from "~/lib/cut-list";
+import { formatDegrees } from "~/lib/cut-sheet/cut-list";
 
 const INK = "#413a35";
 const SOFT = "#978873";

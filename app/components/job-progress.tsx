@@ -1,5 +1,5 @@
 import { JOB_STEPS, type LeadStatus } from "~/db/enums";
-import { STATUS_LABEL, STEP_SHORT_LABEL, stepOf } from "~/lib/lead-status";
+import { STATUS_LABEL, STEP_SHORT_LABEL, stepOf } from "~/lib/leads/lead-status";
 
 type Props = { stage: LeadStatus; pausedStage: LeadStatus | null };
 

@@ -1,6 +1,6 @@
 import type { Caution } from "~/domain/advice";
 import type { MaterialLine } from "~/domain/quantities";
-import type { CutSection } from "~/lib/cut-list";
+import type { CutSection } from "~/lib/cut-sheet/cut-list";
 
 /*
  * The crew's tables, shared by the lead page and the printable cut sheet: the cut list, the

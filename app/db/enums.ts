@@ -26,7 +26,7 @@ export type CatalogKind = (typeof CATALOG_KINDS)[number];
 /*
  * The stages of a pit job, in the order a job moves through them, named the way a hardscaper and a
  * homeowner talk about them; the last two are where a job stops rather than a step along it.
- * (Stored in leads.status; labels in app/lib/lead-status.ts.)
+ * (Stored in leads.status; labels in app/lib/leads/lead-status.ts.)
  */
 export const JOB_STEPS = [
   "request",
@@ -50,7 +50,7 @@ export const SIGNED_STAGES = ["signed", "stone-ordered", "build-booked", "built"
 export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
 export type BuildWindow = (typeof BUILD_WINDOWS)[number];
 
-// The site visit's choices (labels in app/lib/site-visit-schema.ts).
+// The site visit's choices (labels in app/lib/leads/site-visit-schema.ts).
 export const SLOPES = ["level", "gentle", "steep"] as const;
 export const SOILS = ["sand", "loam", "clay", "rock", "fill"] as const;
 export const UTILITY_MARKS = ["marked-clear", "marked-near", "not-marked-yet"] as const;

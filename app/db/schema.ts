@@ -99,7 +99,7 @@ export const rateLimits = sqliteTable(
 
 
 // One table for the whole stock: each kind uses the dimension columns that describe it
-// (validated per kind in app/lib/catalog-schema.ts), the others stay null.
+// (validated per kind in app/lib/catalog/catalog-schema.ts), the others stay null.
 export const catalogItems = sqliteTable(
   "catalog_items",
   {
@@ -140,7 +140,7 @@ export const leads = sqliteTable(
     homeownerId: integer("homeowner_id").references(() => users.id),
     // Unguessable handle for the homeowner's confirmation page (ids are sequential).
     ref: text("ref").notNull().unique(),
-    // The job's stage (app/lib/lead-status.ts names them).
+    // The job's stage (app/lib/leads/lead-status.ts names them).
     status: text("status", { enum: LEAD_STATUSES }).notNull().default("request"),
     // Why a job is on hold or not going ahead (the column kept its first name).
     stopReason: text("lost_reason"),
@@ -261,7 +261,7 @@ export const emailOutbox = sqliteTable(
     lastError: text("last_error"),
     providerId: text("provider_id"),
     sentAt: text("sent_at"),
-    // The worker process that claimed the row, until when (app/lib/jobs.server.ts).
+    // The worker process that claimed the row, until when (app/lib/jobs/jobs.server.ts).
     leaseOwner: text("lease_owner"),
     leaseExpiresAt: text("lease_expires_at"),
     createdAt: createdAt(),
@@ -334,7 +334,7 @@ export const bookings = sqliteTable(
     isPaid: integer("is_paid", { mode: "boolean" }).notNull().default(false),
     refundId: text("refund_id"),
     refundedAt: text("refunded_at"),
-    // The refund job (app/lib/jobs.server.ts): tries so far, when the next may run, why the last
+    // The refund job (app/lib/jobs/jobs.server.ts): tries so far, when the next may run, why the last
     // one failed, when it gave up (shown to the owner), and the lease of the process sending it.
     refundAttempts: integer("refund_attempts").notNull().default(0),
     refundNextAt: text("refund_next_at"),
@@ -434,7 +434,7 @@ export const proposals = sqliteTable(
     // The unguessable handle of /p/:token (256 bits).
     token: text("token").notNull().unique(),
     revisionId: integer("revision_id").references(() => leadRevisions.id),
-    // The whole document as sent (app/lib/proposal-document.ts), and the design it was written from.
+    // The whole document as sent (app/lib/proposals/proposal-document.ts), and the design it was written from.
     documentJson: text("document_json").notNull(),
     designJson: text("design_json").notNull(),
     planJson: text("plan_json").notNull(),

@@ -1,6 +1,6 @@
 import { Text } from "@react-email/components";
 import { EmailShell, emailText } from "~/emails/email-shell";
-import { possessive } from "~/lib/wording";
+import { possessive } from "~/lib/format/wording";
 
 type ConsultEmailProps = {
   companyName: string;

@@ -1,6 +1,6 @@
 import { Button, Text } from "@react-email/components";
 import { EmailShell, emailButton, emailText } from "~/emails/email-shell";
-import { possessive } from "~/lib/wording";
+import { possessive } from "~/lib/format/wording";
 
 const ROLE_WORDS = { owner: "an owner", estimator: "an estimator", crew: "a member of the crew" } as const;
 

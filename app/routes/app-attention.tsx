@@ -2,11 +2,11 @@ import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-attention";
 import { FormAlert } from "~/components/ui/field";
-import { listFailedWork, retryFailedEmail, retryFailedRefund } from "~/lib/attention.server";
-import { getCompany } from "~/lib/catalog.server";
-import { formatSlot } from "~/lib/consult-slots";
-import { formatMoney } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
+import { listFailedWork, retryFailedEmail, retryFailedRefund } from "~/lib/jobs/attention.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { formatSlot } from "~/lib/consults/consult-slots";
+import { formatMoney } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Needs attention · Emberwright" }];
 

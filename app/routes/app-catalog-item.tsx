@@ -3,10 +3,10 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
-import { parseCatalogForm } from "~/lib/catalog-schema";
-import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog.server";
-import { requireUser } from "~/lib/session.server";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
+import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
+import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
+import { requireUser } from "~/lib/auth/session.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.item ? data.item.name : "New item"} · Catalog · Emberwright` },

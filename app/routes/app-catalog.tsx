@@ -2,10 +2,10 @@ import { Link } from "react-router";
 import type { Route } from "./+types/app-catalog";
 import { CATALOG_KINDS, STAFF_ROLES } from "~/db/enums";
 import type { CatalogItem } from "~/db/schema";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
-import { listCatalog } from "~/lib/catalog.server";
-import { formatMoney } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
+import { listCatalog } from "~/lib/catalog/catalog.server";
+import { formatMoney } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
 import { formatInches } from "~/domain/units";
 
 export const meta: Route.MetaFunction = () => [{ title: "Catalog · Emberwright" }];

@@ -2,18 +2,18 @@ import { eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
-import { fieldErrors, formId } from "~/lib/form-fields";
+import { fieldErrors, formId } from "~/lib/format/form-fields";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { companies } from "~/db/schema";
-import { cancelBooking } from "~/lib/booking.server";
-import { blockDay, listBlockedDays, unblockDay } from "~/lib/consult-days.server";
-import { getCompany } from "~/lib/catalog.server";
-import { parseWeeklyHours, type WeeklyHours } from "~/lib/consult-slots";
-import { db } from "~/lib/db.server";
-import { zonedDay } from "~/lib/zoned-time";
-import { requireUser } from "~/lib/session.server";
-import { possessive } from "~/lib/wording";
+import { cancelBooking } from "~/lib/consults/booking.server";
+import { blockDay, listBlockedDays, unblockDay } from "~/lib/consults/consult-days.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { parseWeeklyHours, type WeeklyHours } from "~/lib/consults/consult-slots";
+import { db } from "~/lib/platform/db.server";
+import { zonedDay } from "~/lib/format/zoned-time";
+import { requireUser } from "~/lib/auth/session.server";
+import { possessive } from "~/lib/format/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult hours · Emberwright" }];
 

@@ -2,12 +2,12 @@ import { data, Form, Link, redirect, useNavigation, useSearchParams } from "reac
 import type { Route } from "./+types/app-factors";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { DEFAULT_FACTORS } from "~/domain/factors";
-import { getCompany } from "~/lib/catalog.server";
-import { factorSettingsSchema } from "~/lib/factor-schema";
-import { FACTOR_GROUPS, FACTOR_ROWS, readCompanyFactors, toFormValue, type FactorRow } from "~/lib/factor-settings";
-import { saveCompanyFactors } from "~/lib/factor-settings.server";
-import { fieldErrors } from "~/lib/form-fields";
-import { requireUser } from "~/lib/session.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { factorSettingsSchema } from "~/lib/settings/factor-schema";
+import { FACTOR_GROUPS, FACTOR_ROWS, readCompanyFactors, toFormValue, type FactorRow } from "~/lib/settings/factor-settings";
+import { saveCompanyFactors } from "~/lib/settings/factor-settings.server";
+import { fieldErrors } from "~/lib/format/form-fields";
+import { requireUser } from "~/lib/auth/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Estimating factors · Emberwright" }];
 

@@ -1,10 +1,10 @@
 import type { Route } from "./+types/app-inbox-csv";
-import { getCompany } from "~/lib/catalog.server";
-import { parseInboxQuery } from "~/lib/inbox-schema";
-import { exportInboxCsv } from "~/lib/inbox.server";
-import { requireUser } from "~/lib/session.server";
-import { OFFICE_ROLES } from "~/lib/staff.server";
-import { zonedDay } from "~/lib/zoned-time";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { parseInboxQuery } from "~/lib/leads/inbox-schema";
+import { exportInboxCsv } from "~/lib/leads/inbox.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { OFFICE_ROLES } from "~/lib/auth/staff.server";
+import { zonedDay } from "~/lib/format/zoned-time";
 
 /** GET /app/inbox.csv: every lead under the inbox's filters (all pages), as a CSV download. */
 export async function loader({ request }: Route.LoaderArgs) {

@@ -6,22 +6,22 @@ import { JobProgressCompact } from "~/components/job-progress";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { LEAD_STATUSES, users } from "~/db/schema";
 import { formatInches } from "~/domain/units";
-import { getCompany } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { db } from "~/lib/platform/db.server";
 import {
   FIRST_DIRECTION,
   inboxSearchParams,
   type InboxFilters,
   type InboxPage,
   type InboxSort,
-} from "~/lib/inbox-options";
-import { parseInboxQuery, usableInboxFilters } from "~/lib/inbox-schema";
-import { loadInboxPage } from "~/lib/inbox.server";
-import { STATUS_LABEL } from "~/lib/lead-status";
-import { formatMoneyWhole } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
-import { OFFICE_ROLES } from "~/lib/staff.server";
-import { listTeam } from "~/lib/team.server";
+} from "~/lib/leads/inbox-options";
+import { parseInboxQuery, usableInboxFilters } from "~/lib/leads/inbox-schema";
+import { loadInboxPage } from "~/lib/leads/inbox.server";
+import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { formatMoneyWhole } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
+import { OFFICE_ROLES } from "~/lib/auth/staff.server";
+import { listTeam } from "~/lib/auth/team.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Inbox · Emberwright" }];
 

@@ -1,7 +1,7 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/app-index";
 import { STAFF_ROLES } from "~/db/schema";
-import { requireUser } from "~/lib/session.server";
+import { requireUser } from "~/lib/auth/session.server";
 
 // Each role starts where its work is: the office at the inbox, the crew at their jobs.
 export async function loader({ request }: Route.LoaderArgs) {

@@ -5,10 +5,10 @@ import type { Route } from "./+types/app-jobs";
 import { leads, SIGNED_STAGES, STAFF_ROLES, users } from "~/db/schema";
 import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
-import { db } from "~/lib/db.server";
-import { currentVersion } from "~/lib/lead-workspace.server";
-import { requireUser } from "~/lib/session.server";
-import { isOfficeRole } from "~/lib/staff.server";
+import { db } from "~/lib/platform/db.server";
+import { currentVersion } from "~/lib/leads/lead-workspace.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { isOfficeRole } from "~/lib/auth/staff.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Jobs · Emberwright" }];
 

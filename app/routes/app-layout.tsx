@@ -2,9 +2,9 @@ import { Link, Outlet } from "react-router";
 import type { Route } from "./+types/app-layout";
 import { WorkspaceShell } from "~/components/workspace-shell";
 import { STAFF_ROLES } from "~/db/schema";
-import { getCompany } from "~/lib/catalog.server";
-import { countFailedWork } from "~/lib/attention.server";
-import { requireUser } from "~/lib/session.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { countFailedWork } from "~/lib/jobs/attention.server";
+import { requireUser } from "~/lib/auth/session.server";
 
 // The shell needs the user for its header; each child loader still checks access itself.
 export async function loader({ request }: Route.LoaderArgs) {

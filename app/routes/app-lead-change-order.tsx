@@ -2,12 +2,12 @@ import { z } from "zod";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-change-order";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { draftChangeOrder, sendChangeOrder } from "~/lib/change-orders.server";
-import { getCompany } from "~/lib/catalog.server";
-import { appOrigin } from "~/lib/email.server";
-import { formatMoney } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
+import { draftChangeOrder, sendChangeOrder } from "~/lib/proposals/change-orders.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { appOrigin } from "~/lib/platform/email.server";
+import { formatMoney } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
+import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Change order: ${data.customerName} · Emberwright` : "Change order · Emberwright" }];
 

@@ -1,9 +1,9 @@
 import type { Route } from "./+types/app-lead-cut-sheet-pdf";
 import { STAFF_ROLES } from "~/db/schema";
-import { renderCutSheetPdf } from "~/lib/cut-sheet-pdf.server";
-import { loadCutSheet } from "~/lib/cut-sheet.server";
-import { requireUser } from "~/lib/session.server";
-import { parseLeadId } from "~/lib/staff.server";
+import { renderCutSheetPdf } from "~/lib/cut-sheet/cut-sheet-pdf.server";
+import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { parseLeadId } from "~/lib/auth/staff.server";
 
 /** GET /app/leads/:leadId/cut-sheet.pdf: the cut sheet with the full-size cap template, for print. */
 export async function loader({ request, params }: Route.LoaderArgs) {

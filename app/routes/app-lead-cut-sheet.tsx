@@ -6,9 +6,9 @@ import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sh
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
-import { loadCutSheet } from "~/lib/cut-sheet.server";
-import { requireUser } from "~/lib/session.server";
-import { isOfficeRole, parseLeadId } from "~/lib/staff.server";
+import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { isOfficeRole, parseLeadId } from "~/lib/auth/staff.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Cut sheet: ${data.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" }];
 

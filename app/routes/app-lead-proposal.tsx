@@ -2,15 +2,15 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-proposal";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { basePriceCents, depositCents } from "~/domain/proposal-money";
-import { getCompany } from "~/lib/catalog.server";
-import { appOrigin } from "~/lib/email.server";
-import { isSignedStage } from "~/lib/lead-status";
-import { formatMoney } from "~/lib/money";
-import { describeDeposit } from "~/lib/proposal-document";
-import { MAX_ADD_ONS, parseComposeForm, withdrawSchema } from "~/lib/proposal-schema";
-import { draftProposal, sendProposal, withdrawProposal } from "~/lib/proposals.server";
-import { requireUser } from "~/lib/session.server";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { appOrigin } from "~/lib/platform/email.server";
+import { isSignedStage } from "~/lib/leads/lead-status";
+import { formatMoney } from "~/lib/format/money";
+import { describeDeposit } from "~/lib/proposals/proposal-document";
+import { MAX_ADD_ONS, parseComposeForm, withdrawSchema } from "~/lib/proposals/proposal-schema";
+import { draftProposal, sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Proposal: ${data.customerName} · Emberwright` : "Proposal · Emberwright" }];
 

@@ -2,12 +2,12 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-visit";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
-import { fieldErrors } from "~/lib/form-fields";
-import { requireUser } from "~/lib/session.server";
-import { findSiteVisit, saveSiteVisit } from "~/lib/site-visit.server";
-import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/site-visit-schema";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
-import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
+import { fieldErrors } from "~/lib/format/form-fields";
+import { requireUser } from "~/lib/auth/session.server";
+import { findSiteVisit, saveSiteVisit } from "~/lib/leads/site-visit.server";
+import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/leads/site-visit-schema";
+import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Site visit: ${data.customerName} · Emberwright` : "Site visit · Emberwright" }];
 

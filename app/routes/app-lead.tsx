@@ -8,21 +8,21 @@ import { PitPreview } from "~/components/pit-preview";
 import { FormAlert, SelectField } from "~/components/ui/field";
 import { STAFF_ROLES } from "~/db/schema";
 import { formatInches } from "~/domain/units";
-import { getCompany } from "~/lib/catalog.server";
-import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-list";
-import { refreshStoredPlan } from "~/lib/plan-refresh.server";
-import { describePreview, planToSceneInput } from "~/lib/design-plan";
-import { leadActionErrors, leadActionSchema } from "~/lib/lead-action-schema";
-import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/lead-status";
-import { findLiveBooking } from "~/lib/booking.server";
-import { jobTotalsFor } from "~/lib/change-orders.server";
-import { parseProposalDocument, PROPOSAL_STATE_LABEL } from "~/lib/proposal-document";
-import { requestDepositRefund } from "~/lib/proposal-payments.server";
-import { listProposals } from "~/lib/proposals.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-sheet/cut-list";
+import { refreshStoredPlan } from "~/lib/design/plan-refresh.server";
+import { describePreview, planToSceneInput } from "~/lib/design/design-plan";
+import { leadActionErrors, leadActionSchema } from "~/lib/leads/lead-action-schema";
+import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
+import { findLiveBooking } from "~/lib/consults/booking.server";
+import { jobTotalsFor } from "~/lib/proposals/change-orders.server";
+import { parseProposalDocument, PROPOSAL_STATE_LABEL } from "~/lib/proposals/proposal-document";
+import { requestDepositRefund } from "~/lib/proposals/proposal-payments.server";
+import { listProposals } from "~/lib/proposals/proposals.server";
 import { checkSite } from "~/domain/site-checks";
-import { getProposalTerms } from "~/lib/proposal-terms.server";
-import { findSiteVisit } from "~/lib/site-visit.server";
-import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL } from "~/lib/site-visit-schema";
+import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
+import { findSiteVisit } from "~/lib/leads/site-visit.server";
+import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL } from "~/lib/leads/site-visit-schema";
 import {
   addNote,
   assignCrew,
@@ -34,13 +34,13 @@ import {
   originalVersion,
   type ActionResult,
   type DesignVersion,
-} from "~/lib/lead-workspace.server";
-import { formatMoney, formatMoneyWhole } from "~/lib/money";
-import { describeBreakdown, readBreakdown } from "~/lib/price-breakdown";
-import { requireUser } from "~/lib/session.server";
-import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/staff.server";
-import { listTeam } from "~/lib/team.server";
-import { describeAge, formatZonedDateTime } from "~/lib/zoned-time";
+} from "~/lib/leads/lead-workspace.server";
+import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
+import { describeBreakdown, readBreakdown } from "~/lib/design/price-breakdown";
+import { requireUser } from "~/lib/auth/session.server";
+import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { listTeam } from "~/lib/auth/team.server";
+import { describeAge, formatZonedDateTime } from "~/lib/format/zoned-time";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.lead.customerName} · Emberwright` : "Request · Emberwright" }];
 

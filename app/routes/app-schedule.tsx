@@ -4,15 +4,15 @@ import { z } from "zod";
 import type { Route } from "./+types/app-schedule";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
-import { formId } from "~/lib/form-fields";
+import { formId } from "~/lib/format/form-fields";
 import { bookings, leads } from "~/db/schema";
-import { cancelBooking } from "~/lib/booking.server";
-import { getCompany } from "~/lib/catalog.server";
-import { zonedDay } from "~/lib/zoned-time";
-import { db } from "~/lib/db.server";
-import { formatMoney } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
-import { possessive } from "~/lib/wording";
+import { cancelBooking } from "~/lib/consults/booking.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { zonedDay } from "~/lib/format/zoned-time";
+import { db } from "~/lib/platform/db.server";
+import { formatMoney } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
+import { possessive } from "~/lib/format/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult schedule · Emberwright" }];
 

@@ -2,10 +2,10 @@ import { data, Form, Link, redirect, useNavigation, useSearchParams } from "reac
 import { z } from "zod";
 import type { Route } from "./+types/app-settings-proposals";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { fieldErrors, formNumber } from "~/lib/form-fields";
-import { getProposalTerms, saveProposalTerms } from "~/lib/proposal-terms.server";
-import { formMoneyCents } from "~/lib/proposal-schema";
-import { requireUser } from "~/lib/session.server";
+import { fieldErrors, formNumber } from "~/lib/format/form-fields";
+import { getProposalTerms, saveProposalTerms } from "~/lib/proposals/proposal-terms.server";
+import { formMoneyCents } from "~/lib/proposals/proposal-schema";
+import { requireUser } from "~/lib/auth/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Proposal terms · Emberwright" }];
 

@@ -1,14 +1,14 @@
 import { eq } from "drizzle-orm";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
-import { fieldErrors } from "~/lib/form-fields";
+import { fieldErrors } from "~/lib/format/form-fields";
 import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { companies } from "~/db/schema";
-import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog.server";
-import { companySettingsSchema, timeZoneList } from "~/lib/company-schema";
-import { db } from "~/lib/db.server";
-import { requireUser } from "~/lib/session.server";
-import { formatPhone } from "~/lib/phone";
+import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog/catalog.server";
+import { companySettingsSchema, timeZoneList } from "~/lib/settings/company-schema";
+import { db } from "~/lib/platform/db.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { formatPhone } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = () => [{ title: "Company settings · Emberwright" }];
 

@@ -1,14 +1,14 @@
 import { data, Form, redirect, useLocation, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-team";
-import { fieldErrors } from "~/lib/form-fields";
+import { fieldErrors } from "~/lib/format/form-fields";
 import { ROLE_LABEL } from "~/components/workspace-shell";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { STAFF_ROLES } from "~/db/schema";
-import { getCompany } from "~/lib/catalog.server";
-import { appOrigin } from "~/lib/email.server";
-import { requireUser } from "~/lib/session.server";
-import { teamActionSchema } from "~/lib/team-schema";
-import { changeRole, inviteStaff, listTeam, setActive, type TeamResult } from "~/lib/team.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { appOrigin } from "~/lib/platform/email.server";
+import { requireUser } from "~/lib/auth/session.server";
+import { teamActionSchema } from "~/lib/auth/team-schema";
+import { changeRole, inviteStaff, listTeam, setActive, type TeamResult } from "~/lib/auth/team.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Team · Emberwright" }];
 

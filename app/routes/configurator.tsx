@@ -8,22 +8,22 @@ import { RequestForm } from "~/components/configurator/request-form";
 import { PitPreview } from "~/components/pit-preview";
 import { PublicShell } from "~/components/public-shell";
 import { formatLength } from "~/domain/units";
-import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
-import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/configurator.server";
-import { designToSearchParams, parseDesign } from "~/lib/design";
-import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design-plan";
-import { appOrigin } from "~/lib/email.server";
-import { env } from "~/lib/env.server";
-import { publicFactors, readCompanyFactors } from "~/lib/factor-settings";
-import { fieldErrors } from "~/lib/form-fields";
-import { leadFormSchema } from "~/lib/lead-schema";
-import { createLead, PhotoQuotaExceeded, photoBytesToday } from "~/lib/leads.server";
-import type { PlanFieldError } from "~/lib/plan-schema";
-import { publicPlan } from "~/lib/plan.server";
-import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
-import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/uploads.server";
-import { speakLengths } from "~/lib/length-text";
-import { formatPhone, phoneHref } from "~/lib/phone";
+import { findCompanyBySlug, listCatalog } from "~/lib/catalog/catalog.server";
+import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/design/configurator.server";
+import { designToSearchParams, parseDesign } from "~/lib/design/design";
+import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design/design-plan";
+import { appOrigin } from "~/lib/platform/email.server";
+import { env } from "~/lib/platform/env.server";
+import { publicFactors, readCompanyFactors } from "~/lib/settings/factor-settings";
+import { fieldErrors } from "~/lib/format/form-fields";
+import { leadFormSchema } from "~/lib/leads/lead-schema";
+import { createLead, PhotoQuotaExceeded, photoBytesToday } from "~/lib/leads/leads.server";
+import type { PlanFieldError } from "~/lib/design/plan-schema";
+import { publicPlan } from "~/lib/design/plan.server";
+import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
+import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
+import { speakLengths } from "~/lib/format/length-text";
+import { formatPhone, phoneHref } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },

@@ -5,9 +5,9 @@ import type { Route } from "./+types/consult-done";
 import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { bookings } from "~/db/schema";
-import { findCompanyBySlug } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
-import { findLeadByRef } from "~/lib/leads.server";
+import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
+import { db } from "~/lib/platform/db.server";
+import { findLeadByRef } from "~/lib/leads/leads.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Design consult · Emberwright" }];
 

@@ -4,16 +4,16 @@ import type { Route } from "./+types/consult";
 import { LocalTime, TimeZoneField } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
-import { abandonCheckout, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/booking.server";
-import { findCompanyBySlug } from "~/lib/catalog.server";
-import { CONSULT_HOLD_MINUTES } from "~/lib/consult-slots";
-import { zonedDay } from "~/lib/zoned-time";
-import { appOrigin } from "~/lib/email.server";
-import { env } from "~/lib/env.server";
-import { findLeadByRef } from "~/lib/leads.server";
-import { formatMoney } from "~/lib/money";
-import { clientAddress, createLimiter, spendLimit } from "~/lib/rate-limit.server";
-import { possessive } from "~/lib/wording";
+import { abandonCheckout, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/consults/booking.server";
+import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
+import { CONSULT_HOLD_MINUTES } from "~/lib/consults/consult-slots";
+import { zonedDay } from "~/lib/format/zoned-time";
+import { appOrigin } from "~/lib/platform/email.server";
+import { env } from "~/lib/platform/env.server";
+import { findLeadByRef } from "~/lib/leads/leads.server";
+import { formatMoney } from "~/lib/format/money";
+import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
+import { possessive } from "~/lib/format/wording";
 
 export const meta: Route.MetaFunction = () => [{ title: "Book a design consult · Emberwright" }];
 

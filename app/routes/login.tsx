@@ -2,9 +2,9 @@ import { data, Form, redirect, useNavigation, useSearchParams } from "react-rout
 import type { Route } from "./+types/login";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { authenticateWithPassword, SIGN_IN_FAILED, SignInError } from "~/lib/auth.server";
-import { clientAddress } from "~/lib/rate-limit.server";
-import { getSessionUser, safeRedirectPath, startSession, sweepExpiredSessions } from "~/lib/session.server";
+import { authenticateWithPassword, SIGN_IN_FAILED, SignInError } from "~/lib/auth/auth.server";
+import { clientAddress } from "~/lib/platform/rate-limit.server";
+import { getSessionUser, safeRedirectPath, startSession, sweepExpiredSessions } from "~/lib/auth/session.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Emberwright" }];
 

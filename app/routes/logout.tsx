@@ -1,6 +1,6 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/logout";
-import { endSession } from "~/lib/session.server";
+import { endSession } from "~/lib/auth/session.server";
 
 export async function loader() {
   return redirect("/login");

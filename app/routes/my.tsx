@@ -7,16 +7,16 @@ import { PublicShell } from "~/components/public-shell";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { bookings, companies, leadPhotos, leads, proposals } from "~/db/schema";
-import { parseProposalDocument } from "~/lib/proposal-document";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import type { DesignSummaryLine } from "~/emails/design-summary";
-import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/booking.server";
-import { db } from "~/lib/db.server";
-import { HOMEOWNER_STATUS_LABEL } from "~/lib/lead-status";
-import { listHomeownerLeads } from "~/lib/leads.server";
-import { formId } from "~/lib/form-fields";
-import { formatMoney, formatMoneyWhole } from "~/lib/money";
-import { requireUser } from "~/lib/session.server";
-import { readStoredDesign } from "~/lib/stored-plan";
+import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
+import { db } from "~/lib/platform/db.server";
+import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
+import { listHomeownerLeads } from "~/lib/leads/leads.server";
+import { formId } from "~/lib/format/form-fields";
+import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
+import { requireUser } from "~/lib/auth/session.server";
+import { readStoredDesign } from "~/lib/design/stored-plan";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 

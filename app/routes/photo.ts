@@ -1,10 +1,10 @@
 import { and, eq } from "drizzle-orm";
 import type { Route } from "./+types/photo";
 import { leadPhotos, leads } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { isSignedStage } from "~/lib/lead-status";
-import { requireUser } from "~/lib/session.server";
-import { readStoredPhoto } from "~/lib/uploads.server";
+import { db } from "~/lib/platform/db.server";
+import { isSignedStage } from "~/lib/leads/lead-status";
+import { requireUser } from "~/lib/auth/session.server";
+import { readStoredPhoto } from "~/lib/platform/uploads.server";
 
 // Yard photos are never public: the lead's company staff (crew only for their own signed jobs) or the
 // homeowner who sent them. Anyone else gets the same 404 as a photo that does not exist.

@@ -1,6 +1,6 @@
 import type { Route } from "./+types/proposal-pdf";
-import { proposalFigures, renderProposalPdf } from "~/lib/proposal-pdf.server";
-import { findProposalByToken } from "~/lib/proposals.server";
+import { proposalFigures, renderProposalPdf } from "~/lib/proposals/proposal-pdf.server";
+import { findProposalByToken } from "~/lib/proposals/proposals.server";
 
 /**
  * GET /p/:token.pdf: the proposal as a PDF, for whoever holds the link. Before signing it shows the

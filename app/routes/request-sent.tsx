@@ -1,10 +1,10 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/request-sent";
 import { PublicShell } from "~/components/public-shell";
-import { findCompanyBySlug } from "~/lib/catalog.server";
-import { findLeadByRef } from "~/lib/leads.server";
-import { formatMoney, formatMoneyWhole } from "~/lib/money";
-import { readStoredDesign } from "~/lib/stored-plan";
+import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
+import { findLeadByRef } from "~/lib/leads/leads.server";
+import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
+import { readStoredDesign } from "~/lib/design/stored-plan";
 
 export const meta: Route.MetaFunction = () => [{ title: "Request sent · Emberwright" }];
 

@@ -2,12 +2,12 @@ import { useEffect, useState } from "react";
 import { data, Form, redirect, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/welcome";
-import { fieldErrors } from "~/lib/form-fields";
+import { fieldErrors } from "~/lib/format/form-fields";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { hashPassword } from "~/lib/password.server";
-import { endAllSessions, startSession } from "~/lib/session.server";
-import { confirmRequestWithToken, findLiveToken, setPasswordWithToken } from "~/lib/tokens.server";
+import { hashPassword } from "~/lib/auth/password.server";
+import { endAllSessions, startSession } from "~/lib/auth/session.server";
+import { confirmRequestWithToken, findLiveToken, setPasswordWithToken } from "~/lib/auth/tokens.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Set your password · Emberwright" }];
 

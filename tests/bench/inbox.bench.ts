@@ -22,9 +22,9 @@ process.env.OUTBOX_WORKER = "off";
 process.env.NODE_ENV = "test";
 
 const { eq } = await import("drizzle-orm");
-const { db } = await import("~/lib/db.server");
+const { db } = await import("~/lib/platform/db.server");
 const { leads, users, companies } = await import("~/db/schema");
-const { startSession } = await import("~/lib/session.server");
+const { startSession } = await import("~/lib/auth/session.server");
 const { seedDemo } = await import("../../scripts/seed-demo");
 const { loader } = await import("~/routes/app-inbox");
 

@@ -1,9 +1,9 @@
 import { eq } from "drizzle-orm";
 import { expect, test } from "vitest";
 import { catalogItems } from "~/db/schema";
-import { findCatalogItem, listCatalog, updateCatalogItem } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
-import { endAllSessions, requireUser } from "~/lib/session.server";
+import { findCatalogItem, listCatalog, updateCatalogItem } from "~/lib/catalog/catalog.server";
+import { db } from "~/lib/platform/db.server";
+import { endAllSessions, requireUser } from "~/lib/auth/session.server";
 import { createCompanyWithStaff, requestWithCookie } from "./support/fixtures";
 
 const STAFF = ["owner", "estimator", "crew"] as const;

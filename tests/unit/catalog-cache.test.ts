@@ -7,10 +7,10 @@ import { eq } from "drizzle-orm";
 import { afterAll, expect, test } from "vitest";
 import { catalogItems, companies } from "~/db/schema";
 import { computePlan } from "~/domain/plan";
-import { loadOfferedCatalog } from "~/lib/catalog.server";
-import { openDatabase } from "~/lib/db.server";
-import { resolvePlanRequest } from "~/lib/plan.server";
-import { planRequestSchema } from "~/lib/plan-schema";
+import { loadOfferedCatalog } from "~/lib/catalog/catalog.server";
+import { openDatabase } from "~/lib/platform/db.server";
+import { resolvePlanRequest } from "~/lib/design/plan.server";
+import { planRequestSchema } from "~/lib/design/plan-schema";
 import { action } from "~/routes/api/plan";
 import { demoCompany, routeArgs } from "./support/demo";
 

@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { parseCatalogForm } from "~/lib/catalog-schema";
+import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 
 function form(fields: Record<string, string>): FormData {
   const f = new FormData();

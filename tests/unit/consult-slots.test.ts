@@ -1,6 +1,6 @@
 import { expect, test } from "vitest";
-import { formatSlot, listFreeSlots } from "~/lib/consult-slots";
-import { zonedDay, zonedTimeToUtc, zoneOffsetMinutes } from "~/lib/zoned-time";
+import { formatSlot, listFreeSlots } from "~/lib/consults/consult-slots";
+import { zonedDay, zonedTimeToUtc, zoneOffsetMinutes } from "~/lib/format/zoned-time";
 
 test("Chicago is UTC−6 in winter and UTC−5 in summer (IANA tz database, US daylight saving rules)", () => {
   expect(zoneOffsetMinutes(new Date("2026-01-15T12:00:00Z"), "America/Chicago")).toBe(-360);

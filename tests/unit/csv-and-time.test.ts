@@ -1,6 +1,6 @@
 import { expect, test } from "vitest";
-import { escapeCsvField, toCsv } from "~/lib/csv";
-import { describeAge, nextDay, startOfZonedDay, zonedDay } from "~/lib/zoned-time";
+import { escapeCsvField, toCsv } from "~/lib/format/csv";
+import { describeAge, nextDay, startOfZonedDay, zonedDay } from "~/lib/format/zoned-time";
 
 test("a CSV field with a comma, a quote or a line break is quoted with its quotes doubled (RFC 4180 §2.6–2.7)", () => {
   expect(escapeCsvField("plain")).toBe("plain");

@@ -7,10 +7,10 @@ import { eq } from "drizzle-orm";
 import { PDFParse } from "pdf-parse";
 import { beforeAll, expect, test } from "vitest";
 import { leads, users } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { renderCutSheetPdf } from "~/lib/cut-sheet-pdf.server";
-import { loadCutSheet, type CutSheet } from "~/lib/cut-sheet.server";
-import type { SessionUser } from "~/lib/session.server";
+import { db } from "~/lib/platform/db.server";
+import { renderCutSheetPdf } from "~/lib/cut-sheet/cut-sheet-pdf.server";
+import { loadCutSheet, type CutSheet } from "~/lib/cut-sheet/cut-sheet.server";
+import type { SessionUser } from "~/lib/auth/session.server";
 import { demoCompany } from "./support/demo";
 
 let sheet: CutSheet;
@@ -36,7 +36,7 @@ test("a homeowner named in Polish, Vietnamese, Norwegian, Greek and Russian lett
 });
 
 // Imported late, so the first test above also runs (and fails) on a build without this module.
-const fonts = await import("~/lib/pdf-fonts.server").catch(() => null);
+const fonts = await import("~/lib/platform/pdf-fonts.server").catch(() => null);
 
 test("plain Latin text stays in the built-in font: one run, no embedded face", () => {
   const { splitRuns } = fonts!;

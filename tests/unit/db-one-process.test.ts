@@ -6,7 +6,7 @@
  */
 import { sql } from "drizzle-orm";
 import { expect, test } from "vitest";
-import { db, writeTransaction } from "~/lib/db.server";
+import { db, writeTransaction } from "~/lib/platform/db.server";
 
 test("a plain write during an open write transaction waits for the commit, and the process keeps serving meanwhile", async () => {
   await db.run(sql`CREATE TABLE IF NOT EXISTS probe_one (id INTEGER PRIMARY KEY, who TEXT NOT NULL)`);

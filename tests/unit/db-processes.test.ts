@@ -10,7 +10,7 @@ import { mkdirSync, readdirSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { describe, expect, test } from "vitest";
-import { openDatabase } from "~/lib/db.server";
+import { openDatabase } from "~/lib/platform/db.server";
 
 const root = path.resolve(__dirname, "../..");
 const tsx = path.join(root, "node_modules/.bin/tsx");

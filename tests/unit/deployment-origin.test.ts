@@ -9,8 +9,8 @@ vi.hoisted(() => {
 });
 
 const { emailOutbox } = await import("~/db/schema");
-const { db } = await import("~/lib/db.server");
-const { applySecurityHeaders, strictTransportSecurity } = await import("~/lib/security.server");
+const { db } = await import("~/lib/platform/db.server");
+const { applySecurityHeaders, strictTransportSecurity } = await import("~/lib/platform/security.server");
 const { action } = await import("~/routes/configurator");
 const { demoCompany, routeArgs } = await import("./support/demo");
 

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { expect, test } from "vitest";
-import { offeredRingSizes, parseDesign, designToSearchParams, type CatalogChoice } from "~/lib/design";
-import { toCatalogChoice } from "~/lib/configurator.server";
+import { offeredRingSizes, parseDesign, designToSearchParams, type CatalogChoice } from "~/lib/design/design";
+import { toCatalogChoice } from "~/lib/design/configurator.server";
 import { demoCompany } from "./support/demo";
 
 async function demoCatalog(): Promise<CatalogChoice[]> {
@@ -68,8 +68,8 @@ test("the bowl slider offers one whole-unit ring per unit count, each bowl large
 });
 
 test("the browser's instant redraw computes the same ring and caps as the server's priced answer", async () => {
-  const { planLocally } = await import("~/lib/design-plan");
-  const { planForDesign } = await import("~/lib/configurator.server");
+  const { planLocally } = await import("~/lib/design/design-plan");
+  const { planForDesign } = await import("~/lib/design/configurator.server");
   const catalog = await demoCatalog();
   for (const query of ["", "units=18&courses=3&liner=none", "liner=firebrick&patio=9&units=16", "cap=none&units=12"]) {
     const design = parseDesign(new URLSearchParams(query), catalog)!;

@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { parseEnv } from "~/lib/env.server";
+import { parseEnv } from "~/lib/platform/env.server";
 
 test("development starts with safe defaults: an embedded database file and a dev-only secret", () => {
   const env = parseEnv({ NODE_ENV: "development" });

@@ -8,8 +8,8 @@
 import { eq } from "drizzle-orm";
 import { expect, test } from "vitest";
 import { companies, consultBlockedDays, emailOutbox, leads } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { leadFormSchema } from "~/lib/lead-schema";
+import { db } from "~/lib/platform/db.server";
+import { leadFormSchema } from "~/lib/leads/lead-schema";
 import { action as consultHoursAction } from "~/routes/app-consult-hours";
 import { action as scheduleAction } from "~/routes/app-schedule";
 import { action as myAction } from "~/routes/my";

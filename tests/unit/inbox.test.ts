@@ -6,10 +6,10 @@
 import { and, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { bookings, LEAD_STATUSES, leads, users, type Lead } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { DEFAULT_INBOX_FILTERS, type InboxFilters, type InboxPage } from "~/lib/inbox-options";
-import { parseInboxQuery } from "~/lib/inbox-schema";
-import { loadInboxPage } from "~/lib/inbox.server";
+import { db } from "~/lib/platform/db.server";
+import { DEFAULT_INBOX_FILTERS, type InboxFilters, type InboxPage } from "~/lib/leads/inbox-options";
+import { parseInboxQuery } from "~/lib/leads/inbox-schema";
+import { loadInboxPage } from "~/lib/leads/inbox.server";
 import { loader as inboxLoader } from "~/routes/app-inbox";
 import { loader as csvLoader } from "~/routes/app-inbox-csv";
 import { loader as apiLoader } from "~/routes/api/leads";
@@ -319,7 +319,7 @@ test("the consult column shows a confirmed booking in the company's time, and ig
 
 test("someone opening the inbox for the first time sees nothing marked new, and the count agrees with the marks", async () => {
   const [fresh] = await db.insert(users).values({ companyId, email: "first.visit@cinder-slate.test", name: "First Visit", role: "estimator" }).returning();
-  const { startSession } = await import("~/lib/session.server");
+  const { startSession } = await import("~/lib/auth/session.server");
   const cookie = (await startSession(fresh!.id)).split(";")[0]!;
   const first = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox", cookie)))) as { inbox: InboxPage };
   expect(first.inbox.unseenCount).toBe(0);

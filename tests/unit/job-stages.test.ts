@@ -7,9 +7,9 @@ import { eq } from "drizzle-orm";
 import Stripe from "stripe";
 import { expect, test } from "vitest";
 import { bookings, leads } from "~/db/schema";
-import { applyPaymentEvent, cancelBooking, holdSlot, listCompanySlots } from "~/lib/booking.server";
-import { db } from "~/lib/db.server";
-import { allowedMoves, describeNextStep, stepOf } from "~/lib/lead-status";
+import { applyPaymentEvent, cancelBooking, holdSlot, listCompanySlots } from "~/lib/consults/booking.server";
+import { db } from "~/lib/platform/db.server";
+import { allowedMoves, describeNextStep, stepOf } from "~/lib/leads/lead-status";
 import { demoCompany } from "./support/demo";
 import { createTestLead } from "./support/leads";
 

@@ -6,8 +6,8 @@
 import { and, count, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { leadEvents, leadRevisions, leads, users, type Lead } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { designToSearchParams, type Design } from "~/lib/design";
+import { db } from "~/lib/platform/db.server";
+import { designToSearchParams, type Design } from "~/lib/design/design";
 import { action as designAction, loader as designLoader } from "~/routes/app-lead-design";
 import { action as leadAction, loader as leadLoader } from "~/routes/app-lead";
 import { demoCompany, routeArgs } from "./support/demo";

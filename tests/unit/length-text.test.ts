@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { formatAreaFt2, speakLengths } from "~/lib/length-text";
+import { formatAreaFt2, speakLengths } from "~/lib/format/length-text";
 
 // 1 in = 25.4 mm exactly and 1 ft = 0.3048 m exactly (international yard and pound agreement, 1959; NIST SP 811 B.8).
 

@@ -9,7 +9,7 @@ import { getTableConfig, SQLiteTable } from "drizzle-orm/sqlite-core";
 import { expect, test } from "vitest";
 import * as schema from "~/db/schema";
 // Loading the module migrates the database, as a server does on start.
-import { client } from "~/lib/db.server";
+import { client } from "~/lib/platform/db.server";
 
 test("after the migrations, every index and unique index in the schema exists, on the right table and columns", async () => {
   const tables: SQLiteTable[] = (Object.values(schema) as unknown[]).filter((value): value is SQLiteTable => is(value, SQLiteTable));

@@ -9,9 +9,9 @@
 import { desc, eq, like } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { emailOutbox, leads, users, type Company } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { hashPassword, verifyPassword } from "~/lib/password.server";
-import { startSession } from "~/lib/session.server";
+import { db } from "~/lib/platform/db.server";
+import { hashPassword, verifyPassword } from "~/lib/auth/password.server";
+import { startSession } from "~/lib/auth/session.server";
 import { loader as myLoader } from "~/routes/my";
 import { loader as sentLoader } from "~/routes/request-sent";
 import { action as welcomeAction } from "~/routes/welcome";

@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { hashPassword, verifyPassword } from "~/lib/password.server";
+import { hashPassword, verifyPassword } from "~/lib/auth/password.server";
 
 test("passwords are hashed with argon2id at OWASP's minimum: m=19 MiB, t=2, p=1 (OWASP Password Storage Cheat Sheet)", async () => {
   const phc = await hashPassword("correct horse battery staple");

@@ -1,7 +1,7 @@
 import fc from "fast-check";
 import { expect, test } from "vitest";
 import { computePlan, PlanGeometryError, type PlanInput } from "~/domain/plan";
-import { formatPlanErrors, isCatalogRef, planRequestSchema } from "~/lib/plan-schema";
+import { formatPlanErrors, isCatalogRef, planRequestSchema } from "~/lib/design/plan-schema";
 
 const VALID = {
   ring: { unitCount: 14 },

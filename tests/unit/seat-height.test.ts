@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { describeSeat } from "~/lib/design-plan";
+import { describeSeat } from "~/lib/design/design-plan";
 
 // Common practice, no source: chair seats and seat walls stand about 18–20 in; a footrest from a chair
 // is lower (about 10–16 in); above about 24 in a wall is too tall to sit on.

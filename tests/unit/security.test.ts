@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { contentSecurityPolicy, isCrossOriginWrite } from "~/lib/security.server";
+import { contentSecurityPolicy, isCrossOriginWrite } from "~/lib/platform/security.server";
 
 const post = (headers: Record<string, string>, path = "/login") =>
   new Request(`http://localhost:3000${path}`, { method: "POST", headers });

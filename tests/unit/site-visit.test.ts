@@ -7,7 +7,7 @@ import { and, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { leadEvents, leadPhotos, leads, siteVisits } from "~/db/schema";
 import { checkSite, siteAllowances } from "~/domain/site-checks";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/platform/db.server";
 import { action as visitAction } from "~/routes/app-lead-visit";
 import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";

@@ -7,8 +7,8 @@
 import { count, eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { emailOutbox, oneTimeTokens, sessions, users } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { hashToken } from "~/lib/tokens.server";
+import { db } from "~/lib/platform/db.server";
+import { hashToken } from "~/lib/auth/tokens.server";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { loader as inboxLoader } from "~/routes/app-inbox";
 import { action as loginAction } from "~/routes/login";
@@ -157,6 +157,6 @@ test("the team list shows the company's staff only, never its customers", async 
 
 async function createStaff(email: string, role: "estimator" | "crew") {
   const [row] = await db.insert(users).values({ companyId, email, name: "Role Change", role }).returning();
-  const { startSession } = await import("~/lib/session.server");
+  const { startSession } = await import("~/lib/auth/session.server");
   return { id: row!.id, cookie: (await startSession(row!.id)).split(";")[0]! };
 }

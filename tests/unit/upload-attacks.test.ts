@@ -10,7 +10,7 @@ import { eq } from "drizzle-orm";
 import sharp from "sharp";
 import { expect, test } from "vitest";
 import { leadPhotos, leads } from "~/db/schema";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/platform/db.server";
 import { action } from "~/routes/configurator";
 import { demoCompany, routeArgs } from "./support/demo";
 import { FAKE_JPEG, TINY_JPEG, TINY_PNG } from "./support/images";

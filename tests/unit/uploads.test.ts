@@ -3,7 +3,7 @@ import path from "node:path";
 import { crc32 } from "node:zlib";
 import { expect, test } from "vitest";
 import { FAKE_JPEG, TINY_JPEG, TINY_PNG } from "./support/images";
-import { cleanOriginalName, deleteStoredPhotos, MAX_PHOTO_BYTES, readLeadForm, storePhotoBytes, storeReceivedPhotos } from "~/lib/uploads.server";
+import { cleanOriginalName, deleteStoredPhotos, MAX_PHOTO_BYTES, readLeadForm, storePhotoBytes, storeReceivedPhotos } from "~/lib/platform/uploads.server";
 
 const uploads = () => path.resolve(process.env.UPLOADS_DIR!);
 const file = (bytes: Uint8Array<ArrayBuffer>, name: string, type = "image/jpeg") => new File([bytes], name, { type });
@@ -97,7 +97,7 @@ test("a decompression bomb (a small PNG declaring 20,000 × 20,000 pixels) is re
 });
 
 test("photo files that no lead names are swept; recorded ones stay", async () => {
-  const { sweepUnrecordedPhotos } = await import("~/lib/leads.server");
+  const { sweepUnrecordedPhotos } = await import("~/lib/leads/leads.server");
   const orphan = await storePhotoBytes(TINY_PNG, "a.png");
   const other = await storePhotoBytes(TINY_PNG, "b.png");
   // Age 0: everything unrecorded counts as left behind.
@@ -106,12 +106,12 @@ test("photo files that no lead names are swept; recorded ones stay", async () =>
   expect(left).not.toContain(orphan.storedName);
   expect(left).not.toContain(other.storedName);
 
-  const { createLead } = await import("~/lib/leads.server");
+  const { createLead } = await import("~/lib/leads/leads.server");
   const { createTestPlanRecord } = await import("./support/leads");
   const { demoCompany } = await import("./support/demo");
   const { company } = await demoCompany();
   const { leadPhotos } = await import("~/db/schema");
-  const { db } = await import("~/lib/db.server");
+  const { db } = await import("~/lib/platform/db.server");
   const kept = await storePhotoBytes(TINY_PNG, "c.png");
   await createLead({
     company,

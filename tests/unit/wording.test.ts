@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { possessive } from "~/lib/wording";
+import { possessive } from "~/lib/format/wording";
 
 // Names ending in s take the apostrophe alone (common house-style practice, e.g. "the Joneses'"; no single source).
 test("a name ending in s takes the apostrophe alone", () => {

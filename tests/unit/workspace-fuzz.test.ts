@@ -6,7 +6,7 @@ import { count, eq } from "drizzle-orm";
 import fc from "fast-check";
 import { beforeAll, expect, test } from "vitest";
 import { leadEvents, leads, users } from "~/db/schema";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/platform/db.server";
 import { loader as apiLoader } from "~/routes/api/leads";
 import { action as leadAction } from "~/routes/app-lead";
 import { action as teamAction } from "~/routes/app-team";

@@ -9,8 +9,8 @@ import {
   type CatalogChoice,
   type Design,
   type LinerKind,
-} from "~/lib/design";
-import { describeSeat } from "~/lib/design-plan";
+} from "~/lib/design/design";
+import { describeSeat } from "~/lib/design/design-plan";
 
 type Props = {
   design: Design;

@@ -1,7 +1,7 @@
 import { formatLength, type LengthUnit } from "~/domain/units";
-import type { PublicPlan } from "~/lib/design-plan";
-import { formatAreaFt2, speakLengths } from "~/lib/length-text";
-import { formatMoneyWhole } from "~/lib/money";
+import type { PublicPlan } from "~/lib/design/design-plan";
+import { formatAreaFt2, speakLengths } from "~/lib/format/length-text";
+import { formatMoneyWhole } from "~/lib/format/money";
 
 /** Price, key numbers, warnings and cautions beside the preview. */
 export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {

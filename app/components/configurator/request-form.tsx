@@ -1,7 +1,7 @@
 import { Form, useNavigation } from "react-router";
 import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { BUILD_WINDOWS } from "~/db/enums";
-import { BUILD_WINDOW_LABEL } from "~/lib/lead-status";
+import { BUILD_WINDOW_LABEL } from "~/lib/leads/lead-status";
 
 export type RequestFormState = { errors?: Record<string, string>; values?: Record<string, string> };
 

@@ -1,10 +1,10 @@
 import { useEffect, useRef, useState } from "react";
 import { useFetcher } from "react-router";
 import type { CompanyFactors } from "~/domain/factors";
-import type { CatalogChoice, Design } from "~/lib/design";
-import { designToSearchParams } from "~/lib/design";
-import { designToPlanRequest, planLocally, type PublicPlan } from "~/lib/design-plan";
-import type { PlanFieldError } from "~/lib/plan-schema";
+import type { CatalogChoice, Design } from "~/lib/design/design";
+import { designToSearchParams } from "~/lib/design/design";
+import { designToPlanRequest, planLocally, type PublicPlan } from "~/lib/design/design-plan";
+import type { PlanFieldError } from "~/lib/design/plan-schema";
 
 // A change is sent at once; further changes within this window (a slider drag) are folded into
 // one trailing request, so the screen answers the first step without waiting.

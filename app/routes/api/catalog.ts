@@ -1,6 +1,6 @@
 import type { Route } from "./+types/catalog";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog-kinds";
-import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
+import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
+import { findCompanyBySlug, listCatalog } from "~/lib/catalog/catalog.server";
 
 // Public: what a homeowner may choose from. Dimensions, names and colours only; no prices.
 export async function loader({ params }: Route.LoaderArgs) {

@@ -1,5 +1,5 @@
 import { sql } from "drizzle-orm";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/platform/db.server";
 
 export async function loader() {
   try {

@@ -2,11 +2,11 @@ import { eq } from "drizzle-orm";
 import { z } from "zod";
 import type { Route } from "./+types/leads";
 import { users } from "~/db/schema";
-import { getCompany } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
-import { parseInboxQuery } from "~/lib/inbox-schema";
-import { loadInboxPage } from "~/lib/inbox.server";
-import { OFFICE_ROLES, requireApiUser } from "~/lib/staff.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { db } from "~/lib/platform/db.server";
+import { parseInboxQuery } from "~/lib/leads/inbox-schema";
+import { loadInboxPage } from "~/lib/leads/inbox.server";
+import { OFFICE_ROLES, requireApiUser } from "~/lib/auth/staff.server";
 
 const sinceSchema = z.iso.datetime({ error: "Since must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." });
 

@@ -1,7 +1,7 @@
 import type { Route } from "./+types/plan";
-import { formatPlanErrors, planRequestSchema } from "~/lib/plan-schema";
-import { PlanRequestError, publicPlan, resolvePlanRequest, runPlan } from "~/lib/plan.server";
-import { getSessionUser } from "~/lib/session.server";
+import { formatPlanErrors, planRequestSchema } from "~/lib/design/plan-schema";
+import { PlanRequestError, publicPlan, resolvePlanRequest, runPlan } from "~/lib/design/plan.server";
+import { getSessionUser } from "~/lib/auth/session.server";
 
 const MAX_BODY_BYTES = 64 * 1024;
 

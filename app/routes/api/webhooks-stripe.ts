@@ -1,9 +1,9 @@
 import type Stripe from "stripe";
 import type { Route } from "./+types/webhooks-stripe";
-import { applyPaymentEvent, bookingIdForPaymentIntent } from "~/lib/booking.server";
-import { env } from "~/lib/env.server";
-import { stripe } from "~/lib/payments.server";
-import { applyDepositEvent, isDepositEvent } from "~/lib/proposal-payments.server";
+import { applyPaymentEvent, bookingIdForPaymentIntent } from "~/lib/consults/booking.server";
+import { env } from "~/lib/platform/env.server";
+import { stripe } from "~/lib/platform/payments.server";
+import { applyDepositEvent, isDepositEvent } from "~/lib/proposals/proposal-payments.server";
 
 const MAX_BODY_BYTES = 256 * 1024;
 

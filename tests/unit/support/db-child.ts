@@ -11,12 +11,12 @@ const mode = process.env.MODE;
 if (mode === "migrate") {
   // Load everything but the database module first, so that after "go" the processes reach the
   // file within a few milliseconds of each other (starting tsx takes seconds on a busy machine).
-  await Promise.all([import("drizzle-orm/libsql"), import("drizzle-orm/libsql/migrator"), import("~/db/schema"), import("~/lib/env.server")]);
+  await Promise.all([import("drizzle-orm/libsql"), import("drizzle-orm/libsql/migrator"), import("~/db/schema"), import("~/lib/platform/env.server")]);
   console.log("ready");
   await new Promise<void>((resolve) => process.stdin.once("data", () => resolve()));
   process.stdin.pause();
   try {
-    const { client } = await import("~/lib/db.server");
+    const { client } = await import("~/lib/platform/db.server");
     const { rows } = await client.execute("SELECT count(*) AS n FROM __drizzle_migrations");
     console.log(`migrated ${rows[0]!.n}`);
   } catch (error) {

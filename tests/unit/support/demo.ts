@@ -1,6 +1,6 @@
 import { RouterContextProvider } from "react-router";
-import { findCompanyBySlug, listCatalog } from "~/lib/catalog.server";
-import { socketAddressContext } from "~/lib/rate-limit.server";
+import { findCompanyBySlug, listCatalog } from "~/lib/catalog/catalog.server";
+import { socketAddressContext } from "~/lib/platform/rate-limit.server";
 import { seedDemo } from "../../../scripts/seed-demo";
 
 let seeded: Promise<void> | null = null;

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
 import { catalogItems, companies, users, type Role } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { startSession } from "~/lib/session.server";
+import { db } from "~/lib/platform/db.server";
+import { startSession } from "~/lib/auth/session.server";
 
 /** A company with one user per role, each with a live session cookie. */
 export async function createCompanyWithStaff(name = "Test Masonry") {

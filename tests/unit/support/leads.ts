@@ -1,8 +1,8 @@
 import type { Company } from "~/db/schema";
 import { resolveFactors } from "~/domain/factors";
 import { computePlan, type PlanInput } from "~/domain/plan";
-import { createLead } from "~/lib/leads.server";
-import { STORED_PLAN_VERSION, type StoredPlanRecord } from "~/lib/stored-plan";
+import { createLead } from "~/lib/leads/leads.server";
+import { STORED_PLAN_VERSION, type StoredPlanRecord } from "~/lib/design/stored-plan";
 
 let n = 0;
 

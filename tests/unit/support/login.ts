@@ -1,7 +1,7 @@
 import { and, eq } from "drizzle-orm";
 import { users, type Role } from "~/db/schema";
-import { db } from "~/lib/db.server";
-import { startSession } from "~/lib/session.server";
+import { db } from "~/lib/platform/db.server";
+import { startSession } from "~/lib/auth/session.server";
 
 /** A session cookie for the first user of a company with the role. */
 export async function loginAs(companyId: number, role: Role): Promise<string> {

@@ -1,10 +1,10 @@
 import { randomUUID } from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import { leads, users, type Lead, type LeadStatus } from "~/db/schema";
-import { getCompany } from "~/lib/catalog.server";
-import { db } from "~/lib/db.server";
-import { sendProposal, type SendInput } from "~/lib/proposals.server";
-import type { SessionUser } from "~/lib/session.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { db } from "~/lib/platform/db.server";
+import { sendProposal, type SendInput } from "~/lib/proposals/proposals.server";
+import type { SessionUser } from "~/lib/auth/session.server";
 import { demoCompany } from "./demo";
 
 /** A fresh request with a real plan: a copy of a seeded demo request under a new ref. */

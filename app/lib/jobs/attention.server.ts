@@ -1,0 +1,58 @@
+import { and, count, desc, eq, isNotNull, isNull } from "drizzle-orm";
+import { bookings, emailOutbox, leads } from "~/db/schema";
+import { retryFailedRefund } from "~/lib/consults/booking.server";
+import { db } from "~/lib/platform/db.server";
+
+/*
+ * Background work that gave up (past its tries, or refused for good by the service) waits here for
+ * the company's owner: each row says what failed and why, and "Try again" puts it back in the queue.
+ */
+
+/** How many e-mails and refunds of a company have failed for good (for the workspace banner). */
+export async function countFailedWork(companyId: number): Promise<number> {
+  const [[mail], [refunds]] = await Promise.all([
+    db.select({ n: count() }).from(emailOutbox).where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed"))),
+    db.select({ n: count() }).from(bookings).where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId))),
+  ]);
+  return (mail?.n ?? 0) + (refunds?.n ?? 0);
+}
+
+export async function listFailedWork(companyId: number) {
+  const [mail, refunds] = await Promise.all([
+    db
+      .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, attempts: emailOutbox.attempts, lastError: emailOutbox.lastError, createdAt: emailOutbox.createdAt })
+      .from(emailOutbox)
+      .where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed")))
+      .orderBy(desc(emailOutbox.createdAt))
+      .limit(100),
+    db
+      .select({
+        id: bookings.id,
+        leadId: bookings.leadId,
+        customerName: leads.customerName,
+        startsAt: bookings.startsAt,
+        amountCents: bookings.amountCents,
+        attempts: bookings.refundAttempts,
+        lastError: bookings.refundLastError,
+        failedAt: bookings.refundFailedAt,
+      })
+      .from(bookings)
+      .innerJoin(leads, eq(leads.id, bookings.leadId))
+      .where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId)))
+      .orderBy(desc(bookings.refundFailedAt))
+      .limit(100),
+  ]);
+  return { mail, refunds };
+}
+
+/** Puts a failed e-mail of the company back in the queue, due now, with its tries reset. */
+export async function retryFailedEmail(id: number, companyId: number, now = new Date()): Promise<boolean> {
+  const rows = await db
+    .update(emailOutbox)
+    .set({ status: "pending", attempts: 0, sendAfter: now.toISOString(), lastError: null, leaseOwner: null, leaseExpiresAt: null })
+    .where(and(eq(emailOutbox.id, id), eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed")))
+    .returning({ id: emailOutbox.id });
+  return rows.length > 0;
+}
+
+export { retryFailedRefund };

@@ -1,0 +1,260 @@
+import { and, asc, desc, eq, inArray, like, or } from "drizzle-orm";
+import { alias } from "drizzle-orm/sqlite-core";
+import { bookings, emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
+import { formatInches } from "~/domain/units";
+import { db } from "~/lib/platform/db.server";
+import type { Design } from "~/lib/design/design";
+import type { SummaryLine } from "~/lib/design/design-plan";
+import { allowedMoves, isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
+import { formatMoneyWhole } from "~/lib/format/money";
+import type { SessionUser } from "~/lib/auth/session.server";
+import { readStoredPlan, writeStoredPlan, type StoredDesign, type StoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
+import { findActiveStaff } from "~/lib/auth/team.server";
+
+/*
+ * Reading and changing one lead from the workspace. Every change writes the lead and its timeline
+ * event in one batch (both or neither), scoped by the company as well as the id.
+ */
+
+export type DesignVersion = {
+  /** null for the homeowner's original request. */
+  revisionId: number | null;
+  authorName: string | null;
+  createdAt: string;
+  design: StoredDesign;
+  plan: StoredPlan;
+  priceLowCents: number | null;
+  priceHighCents: number | null;
+};
+
+export type TimelineEntry = { key: string; kind: string; detail: string; actorName: string | null; createdAt: string };
+
+/** The homeowner's design as it was sent: never changed after. */
+export function originalVersion(lead: Lead): DesignVersion {
+  return {
+    revisionId: null,
+    authorName: null,
+    createdAt: lead.createdAt,
+    ...readStoredPlan(lead),
+    priceLowCents: lead.priceLowCents,
+    priceHighCents: lead.priceHighCents,
+  };
+}
+
+const author = alias(users, "author");
+
+/** Every staff revision of a lead, oldest first. */
+export async function listRevisions(lead: Lead): Promise<DesignVersion[]> {
+  const rows = await db
+    .select({ revision: leadRevisions, authorName: author.name })
+    .from(leadRevisions)
+    .leftJoin(author, eq(author.id, leadRevisions.authorUserId))
+    .where(and(eq(leadRevisions.leadId, lead.id), eq(leadRevisions.companyId, lead.companyId)))
+    .orderBy(asc(leadRevisions.createdAt), asc(leadRevisions.id));
+  return rows.map(({ revision, authorName }) => ({
+    revisionId: revision.id,
+    authorName,
+    createdAt: revision.createdAt,
+    ...readStoredPlan(revision),
+    priceLowCents: revision.priceLowCents,
+    priceHighCents: revision.priceHighCents,
+  }));
+}
+
+/** The design the job is built to: the latest revision, or the original when there is none. */
+export async function currentVersion(lead: Lead): Promise<DesignVersion> {
+  return (await listRevisions(lead)).at(-1) ?? originalVersion(lead);
+}
+
+const actor = alias(users, "actor");
+
+const CONSULT_MAIL_KINDS = ["consult-confirmed", "consult-confirmed-company", "consult-reminder", "consult-cancelled", "consult-cancelled-company"] as const;
+
+const MAIL_STATE: Record<string, string> = { sent: "sent", failed: "could not be sent", pending: "waiting to be sent", cancelled: "withdrawn before it was sent" };
+
+/** The lead's timeline, newest first: its events plus the e-mails sent about it and its consults. */
+export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
+  // Consult e-mails are keyed by booking ("consult-confirmed/<bookingId>"), so find the lead's bookings first.
+  const bookingIds = (await db.select({ id: bookings.id }).from(bookings).where(and(eq(bookings.leadId, lead.id), eq(bookings.companyId, lead.companyId)))).map((b) => b.id);
+  const consultKeys = bookingIds.flatMap((id) => CONSULT_MAIL_KINDS.map((kind) => `${kind}/${id}`));
+  const [events, mails] = await Promise.all([
+    db
+      .select({ id: leadEvents.id, kind: leadEvents.kind, detail: leadEvents.detail, createdAt: leadEvents.createdAt, actorName: actor.name })
+      .from(leadEvents)
+      .leftJoin(actor, eq(actor.id, leadEvents.actorUserId))
+      .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.companyId, lead.companyId)))
+      .orderBy(desc(leadEvents.createdAt), desc(leadEvents.id)),
+    // The lead's own e-mails carry keys like "lead-received/<id>" (see leads.server.ts).
+    db
+      .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, status: emailOutbox.status, createdAt: emailOutbox.createdAt, sentAt: emailOutbox.sentAt })
+      .from(emailOutbox)
+      .where(
+        and(
+          eq(emailOutbox.companyId, lead.companyId),
+          or(like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`), consultKeys.length ? inArray(emailOutbox.idempotencyKey, consultKeys) : undefined),
+        ),
+      ),
+  ]);
+  const entries: TimelineEntry[] = [
+    ...events.map((e) => ({ key: `e${e.id}`, kind: e.kind, detail: e.detail, actorName: e.actorName, createdAt: e.createdAt })),
+    ...mails.map((m) => ({
+      key: `m${m.id}`,
+      kind: "email",
+      detail: `“${m.subject}” to ${m.to}: ${MAIL_STATE[m.status] ?? "waiting to be sent"}.`,
+      actorName: null,
+      createdAt: m.sentAt ?? m.createdAt,
+    })),
+  ];
+  return entries.sort((x, y) => (x.createdAt < y.createdAt ? 1 : x.createdAt > y.createdAt ? -1 : x.key < y.key ? 1 : -1));
+}
+
+export function listPhotos(lead: Lead) {
+  return db
+    .select({ id: leadPhotos.id, originalName: leadPhotos.originalName, source: leadPhotos.source })
+    .from(leadPhotos)
+    .where(and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId)))
+    .orderBy(asc(leadPhotos.id));
+}
+
+export type ActionResult = { ok: true } | { ok: false; status: number; errors: Record<string, string> };
+
+const now = () => new Date().toISOString();
+
+function scoped(lead: Lead) {
+  return and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId));
+}
+
+/**
+ * Moves a job by hand: called back, on hold or not going ahead (with a reason), picked up again where
+ * it stopped, or along the build's steps. Stages that follow an event (consult, visit, proposal,
+ * deposit) are refused here: the event sets them.
+ */
+export async function changeStage(user: SessionUser, lead: Lead, to: LeadStatus, reason: string): Promise<ActionResult> {
+  const move = allowedMoves(lead.status, lead.pausedStage).find((m) => m.to === to);
+  if (!move) {
+    const choices = allowedMoves(lead.status, lead.pausedStage).map((m) => `“${m.label}”`).join(", ");
+    return { ok: false, status: 400, errors: { status: `From “${STATUS_LABEL[lead.status]}” the job can move to ${choices || "no other stage by hand"}.` } };
+  }
+  if (move.needsReason && reason.length < 3) {
+    return { ok: false, status: 400, errors: { reason: `Say why (3 to 200 characters), e.g. “waiting for the town's permit” or “went with another contractor”.` } };
+  }
+  const isStopping = to === "on-hold" || to === "not-going-ahead";
+  const at = now();
+  const detail = `${STATUS_LABEL[lead.status]} → ${STATUS_LABEL[to]}${move.needsReason ? `: ${reason}` : ""}`;
+  await db.batch([
+    db
+      .update(leads)
+      .set({
+        status: to,
+        stopReason: isStopping ? reason : null,
+        // Stopping remembers the step (a job on hold that is then dropped keeps the step it held at).
+        pausedStage: isStopping ? (lead.status === "on-hold" ? lead.pausedStage : lead.status) : null,
+        ...(to === "called-back" && !lead.calledBackAt ? { calledBackAt: at } : {}),
+        updatedAt: at,
+      })
+      .where(and(scoped(lead), eq(leads.status, lead.status))),
+    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "status", detail, createdAt: at }),
+  ]);
+  return { ok: true };
+}
+
+/** Adds a staff note to the timeline. */
+export async function addNote(user: SessionUser, lead: Lead, note: string): Promise<ActionResult> {
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "note", detail: note, createdAt: at }),
+  ]);
+  return { ok: true };
+}
+
+async function nameOf(userId: number | null): Promise<string | null> {
+  if (userId === null) return null;
+  const [row] = await db.select({ name: users.name }).from(users).where(eq(users.id, userId)).limit(1);
+  return row?.name ?? null;
+}
+
+/** Assigns the lead to an owner or estimator of the company (or to nobody). */
+export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId: number | null): Promise<ActionResult> {
+  if (assigneeId === lead.assignedUserId) {
+    return { ok: false, status: 400, errors: { assigneeId: "The request is already assigned that way." } };
+  }
+  const assignee = assigneeId === null ? null : await findActiveStaff(lead.companyId, assigneeId, ["owner", "estimator"]);
+  if (assigneeId !== null && !assignee) {
+    return { ok: false, status: 400, errors: { assigneeId: "Choose an active owner or estimator of your company." } };
+  }
+  const previous = await nameOf(lead.assignedUserId);
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ assignedUserId: assigneeId, updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "assigned",
+      detail: assignee ? `Assigned to ${assignee.name}${previous ? ` (was ${previous})` : ""}` : `Unassigned${previous ? ` (was ${previous})` : ""}`,
+      createdAt: at,
+    }),
+  ]);
+  return { ok: true };
+}
+
+/** Gives a signed job to a crew member of the company (or takes it back). */
+export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null): Promise<ActionResult> {
+  if (!isSignedStage(lead.status)) {
+    return { ok: false, status: 400, errors: { crewUserId: "A job goes to a crew once it is signed and the deposit is paid." } };
+  }
+  if (crewUserId === lead.crewUserId) {
+    return { ok: false, status: 400, errors: { crewUserId: "The job is already with that crew." } };
+  }
+  const crew = crewUserId === null ? null : await findActiveStaff(lead.companyId, crewUserId, ["crew"]);
+  if (crewUserId !== null && !crew) {
+    return { ok: false, status: 400, errors: { crewUserId: "Choose an active crew member of your company." } };
+  }
+  const previous = await nameOf(lead.crewUserId);
+  const at = now();
+  await db.batch([
+    db.update(leads).set({ crewUserId, updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "crew-assigned",
+      detail: crew ? `Job given to ${crew.name}${previous ? ` (was ${previous})` : ""}` : `Job taken back from ${previous ?? "the crew"}`,
+      createdAt: at,
+    }),
+  ]);
+  return { ok: true };
+}
+
+/** Saves a staff revision of the design with its freshly computed plan; the original stays as sent. */
+export async function saveRevision(user: SessionUser, lead: Lead, record: StoredPlanRecord): Promise<number> {
+  const { plan } = record;
+  const at = now();
+  const low = plan.price?.lowCents ?? null;
+  const high = plan.price?.highCents ?? null;
+  const [inserted] = await db.batch([
+    db
+      .insert(leadRevisions)
+      .values({
+        companyId: lead.companyId,
+        leadId: lead.id,
+        authorUserId: user.id,
+        ...writeStoredPlan(record),
+        priceLowCents: low,
+        priceHighCents: high,
+        createdAt: at,
+      })
+      .returning({ id: leadRevisions.id }),
+    db.update(leads).set({ updatedAt: at }).where(scoped(lead)),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "revision",
+      detail: `Design revised: ${formatInches(plan.ring.bowlDiameterIn)} bowl, ${plan.ring.unitsPerCourse} units a course, ${plan.ring.courses} courses${plan.caps ? `, ${plan.caps.count} caps` : ""}${low !== null && high !== null ? `; ${formatMoneyWhole(low)}–${formatMoneyWhole(high)}` : ""}`,
+      createdAt: at,
+    }),
+  ]);
+  return inserted[0]!.id;
+}

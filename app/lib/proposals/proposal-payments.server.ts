@@ -1,0 +1,250 @@
+import { and, eq, inArray, isNotNull, isNull, lte } from "drizzle-orm";
+import type Stripe from "stripe";
+import { companies, emailOutbox, leadEvents, leads, paymentEvents, proposals, type Company, type Lead, type Proposal } from "~/db/schema";
+import { DepositPaidEmail } from "~/emails/proposal-emails";
+import { db, writeTransaction } from "~/lib/platform/db.server";
+import { prepareOutboxRow } from "~/lib/platform/email.server";
+import { settleStageStatements } from "~/lib/leads/job-stage.server";
+import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { formatMoney } from "~/lib/format/money";
+import { stripe as defaultStripe } from "~/lib/platform/payments.server";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+
+/*
+ * The deposit on a signed proposal, paid through Checkout like the consult fee: our own idempotency
+ * keys (`deposit-checkout:<proposalId>:<attempt>`, `refund:deposit:<proposalId>`), every signed
+ * webhook applied once (payment_events), the session id, amount and currency checked against what
+ * we stored, and states that only move forward. Checkout sessions for deposits carry
+ * metadata.kind = "deposit", which is how the webhook route hands them here.
+ */
+
+export const DEPOSIT_METADATA_KIND = "deposit";
+
+export class DepositCheckoutError extends Error {}
+
+/** Whether a payment event belongs to a proposal's deposit. */
+export function isDepositEvent(event: Stripe.Event): boolean {
+  const object = event.data.object as { metadata?: Record<string, string> | null };
+  return object.metadata?.kind === DEPOSIT_METADATA_KIND;
+}
+
+/**
+ * Opens (or reopens) the hosted checkout for an accepted proposal's deposit; returns its URL. An
+ * open session is reused; a new one is made only when the last one expired, under a new attempt key.
+ */
+export async function startDepositCheckout(args: { proposal: Proposal; lead: Lead; company: Company; origin: string; client?: Stripe; now?: Date }): Promise<string> {
+  const client = args.client ?? defaultStripe;
+  const { proposal, lead, company, origin } = args;
+  const now = args.now ?? new Date();
+  if (proposal.status !== "accepted" || proposal.depositCents === null) throw new DepositCheckoutError("This proposal has no deposit to pay.");
+  if (now.toISOString() >= proposal.expiresAt) throw new DepositCheckoutError("This proposal has expired: ask the contractor for a new one.");
+  let attempt = proposal.checkoutAttempt;
+  if (proposal.checkoutSessionId) {
+    const existing = await client.checkout.sessions.retrieve(proposal.checkoutSessionId);
+    if (existing.status === "open" && existing.url) return existing.url;
+    if (existing.status === "complete") throw new DepositCheckoutError("The deposit is paid; it shows here in a moment.");
+    attempt += 1;
+  } else if (attempt === 0) {
+    attempt = 1;
+  }
+  const document = parseProposalDocument(proposal.documentJson);
+  const metadata = { kind: DEPOSIT_METADATA_KIND, proposal_id: String(proposal.id), lead_id: String(lead.id) };
+  const session = await client.checkout.sessions.create(
+    {
+      mode: "payment",
+      line_items: [
+        {
+          price_data: { currency: "usd", unit_amount: proposal.depositCents, product_data: { name: `Deposit: ${document.number}, fire pit by ${company.name}` } },
+          quantity: 1,
+        },
+      ],
+      customer_email: lead.email,
+      // Not a bare number: the consult handler reads client_reference_id as a booking id.
+      client_reference_id: `proposal-${proposal.id}`,
+      metadata,
+      payment_intent_data: { metadata },
+      success_url: `${origin}/p/${proposal.token}?paid=1`,
+      cancel_url: `${origin}/p/${proposal.token}?left=1`,
+    },
+    { idempotencyKey: `deposit-checkout:${proposal.id}:${attempt}` },
+  );
+  await db
+    .update(proposals)
+    .set({ checkoutSessionId: session.id, checkoutAttempt: attempt, updatedAt: now.toISOString() })
+    .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
+  if (!session.url) throw new Error("The payment service returned no checkout page.");
+  return session.url;
+}
+
+function proposalIdOf(event: Stripe.Event): number | null {
+  const object = event.data.object as { metadata?: Record<string, string> | null };
+  const id = Number(object.metadata?.proposal_id);
+  return Number.isSafeInteger(id) && id > 0 ? id : null;
+}
+
+export type DepositOutcome = "applied" | "duplicate" | "ignored" | "mismatch";
+
+/**
+ * Applies one verified deposit event, once. A completed checkout signs the job only when its
+ * session id, amount and currency are the ones stored for an accepted proposal; a payment that
+ * arrives after the proposal expired or was withdrawn is owed back and refunded by the worker.
+ */
+export async function applyDepositEvent(event: Stripe.Event, now = new Date()): Promise<DepositOutcome> {
+  const proposalId = proposalIdOf(event);
+  const [context] = proposalId
+    ? await db
+        .select({ proposal: proposals, lead: leads, company: companies })
+        .from(proposals)
+        .innerJoin(leads, eq(leads.id, proposals.leadId))
+        .innerJoin(companies, eq(companies.id, proposals.companyId))
+        .where(eq(proposals.id, proposalId))
+        .limit(1)
+    : [];
+  // E-mails are rendered before the transaction, so it holds only writes.
+  const paidMails =
+    context && event.type === "checkout.session.completed" && context.proposal.depositCents !== null && context.proposal.totalCents !== null
+      ? await depositPaidEmails(context.proposal, context.lead, context.company)
+      : [];
+  const at = now.toISOString();
+
+  return writeTransaction(async (tx) => {
+    const recorded = await tx.insert(paymentEvents).values({ id: event.id, type: event.type, bookingId: null }).onConflictDoNothing().returning({ id: paymentEvents.id });
+    if (recorded.length === 0) return "duplicate";
+    if (!context) return "ignored";
+    const [proposal] = await tx.select().from(proposals).where(eq(proposals.id, context.proposal.id));
+    if (!proposal) return "ignored";
+    const document = parseProposalDocument(proposal.documentJson);
+
+    if (event.type === "checkout.session.completed") {
+      const session = event.data.object as Stripe.Checkout.Session;
+      if (session.payment_status !== "paid") return "ignored";
+      if (session.id !== proposal.checkoutSessionId || session.amount_total !== proposal.depositCents || session.currency !== "usd") {
+        console.error(`deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`);
+        return "mismatch";
+      }
+      const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+      if (proposal.status === "accepted") {
+        await tx.update(proposals).set({ status: "signed", paymentIntentId, depositPaidAt: at, updatedAt: at }).where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
+        const moved = await tx
+          .update(leads)
+          .set({ status: "signed", stopReason: null, pausedStage: null, updatedAt: at })
+          .where(and(eq(leads.id, proposal.leadId), inArray(leads.status, ["request", "called-back", "consult-booked", "measured", "proposal-out", "on-hold"])))
+          .returning({ id: leads.id });
+        await tx.insert(leadEvents).values({
+          companyId: proposal.companyId,
+          leadId: proposal.leadId,
+          kind: "deposit-paid",
+          detail: `Deposit of ${formatMoney(proposal.depositCents!)} paid on ${document.number}.${moved.length ? ` ${STATUS_LABEL["proposal-out"]} → ${STATUS_LABEL.signed}.` : ""}`,
+          createdAt: at,
+        });
+        if (paidMails.length) await tx.insert(emailOutbox).values(paidMails).onConflictDoNothing();
+        return "applied";
+      }
+      if (proposal.status === "expired" || proposal.status === "withdrawn") {
+        // Paid for a proposal no longer open: the money goes back, and the timeline says why.
+        await tx
+          .update(proposals)
+          .set({ paymentIntentId, refundOwedAt: at, refundReason: `The deposit arrived after the proposal was ${proposal.status}.`, updatedAt: at })
+          .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt)));
+        await tx.insert(leadEvents).values({ companyId: proposal.companyId, leadId: proposal.leadId, kind: "deposit-refund", detail: `A deposit arrived after ${document.number} was ${proposal.status}; it is being refunded.`, createdAt: at });
+        return "applied";
+      }
+      return "ignored";
+    }
+    if (event.type === "checkout.session.expired") {
+      // Forward only: an expired session leaves an accepted proposal accepted; the homeowner can pay again.
+      return "applied";
+    }
+    if (event.type === "charge.refunded") {
+      const charge = event.data.object as Stripe.Charge;
+      await tx
+        .update(proposals)
+        .set({ refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded", refundedAt: proposal.refundedAt ?? at, updatedAt: at })
+        .where(eq(proposals.id, proposal.id));
+      return "applied";
+    }
+    return "ignored";
+  });
+}
+
+async function depositPaidEmails(proposal: Proposal, lead: Lead, company: Company) {
+  const document = parseProposalDocument(proposal.documentJson);
+  const common = { companyName: company.name, customerName: lead.customerName, number: document.number, depositText: formatMoney(proposal.depositCents!), balanceText: formatMoney(proposal.totalCents! - proposal.depositCents!) };
+  return Promise.all([
+    prepareOutboxRow({ idempotencyKey: `deposit-paid/${proposal.id}`, companyId: company.id, to: lead.email, subject: `Deposit received: your fire pit with ${company.name} is booked`, template: DepositPaidEmail({ ...common, recipientName: lead.customerName, forCompany: false }) }),
+    prepareOutboxRow({ idempotencyKey: `deposit-paid-company/${proposal.id}`, companyId: company.id, to: company.email, subject: `Signed: ${lead.customerName} paid the deposit`, template: DepositPaidEmail({ ...common, recipientName: company.name, forCompany: true }) }),
+  ]);
+}
+
+/**
+ * The owner refunds a paid deposit, with a reason: the refund is owed at once and sent by the worker;
+ * the job stops as "not going ahead" with that reason.
+ */
+export async function requestDepositRefund(args: { actorUserId: number; lead: Lead; proposalId: number; reason: string; now?: Date }): Promise<string | null> {
+  const { lead, reason } = args;
+  const at = (args.now ?? new Date()).toISOString();
+  const [proposal] = await db.select().from(proposals).where(and(eq(proposals.id, args.proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId))).limit(1);
+  if (!proposal || proposal.kind !== "proposal") return "That proposal is not one of this job's.";
+  if (proposal.status !== "signed" || !proposal.paymentIntentId) return "Only a deposit paid through the payment service can be refunded here.";
+  if (proposal.refundOwedAt) return "That deposit is already being refunded.";
+  const document = parseProposalDocument(proposal.documentJson);
+  await db.batch([
+    db.update(proposals).set({ refundOwedAt: at, refundReason: reason, updatedAt: at }).where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt))),
+    db
+      .update(leads)
+      .set({ status: "not-going-ahead", stopReason: reason, pausedStage: lead.status === "on-hold" ? lead.pausedStage : lead.status, updatedAt: at })
+      .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId))),
+    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: args.actorUserId, kind: "deposit-refund", detail: `Deposit of ${formatMoney(proposal.depositCents ?? 0)} on ${document.number} refunded: ${reason}. ${STATUS_LABEL[lead.status]} → ${STATUS_LABEL["not-going-ahead"]}.`, createdAt: at }),
+  ]);
+  return null;
+}
+
+/** Sends the deposit refunds owed, each once, keyed `refund:deposit:<proposalId>`. */
+export async function processDepositRefunds(client: Stripe = defaultStripe): Promise<number> {
+  const owed = await db
+    .select()
+    .from(proposals)
+    .where(and(isNotNull(proposals.refundOwedAt), isNull(proposals.refundId), isNotNull(proposals.paymentIntentId)))
+    .limit(20);
+  let done = 0;
+  for (const proposal of owed) {
+    try {
+      const refund = await client.refunds.create({ payment_intent: proposal.paymentIntentId! }, { idempotencyKey: `refund:deposit:${proposal.id}` });
+      await db.update(proposals).set({ refundId: refund.id, refundedAt: new Date().toISOString() }).where(eq(proposals.id, proposal.id));
+      done += 1;
+    } catch (error) {
+      console.error(`deposit refund for proposal ${proposal.id} failed; will retry`, (error as Error).message);
+    }
+  }
+  return done;
+}
+
+/**
+ * Expires proposals and change orders past their date that were not signed (an accepted one whose
+ * deposit never came included); the job's stage falls back to what is still true. An open deposit
+ * checkout is closed afterwards, outside the transaction.
+ */
+export async function expireProposals(now = new Date(), client: Stripe = defaultStripe): Promise<number> {
+  const at = now.toISOString();
+  const due = await db.select().from(proposals).where(and(inArray(proposals.status, ["sent", "accepted"]), lte(proposals.expiresAt, at))).limit(50);
+  let count = 0;
+  for (const proposal of due) {
+    const document = parseProposalDocument(proposal.documentJson);
+    // The event and the stage follow only the process whose update moved the proposal.
+    const changed = await writeTransaction(async (tx) => {
+      const moved = await tx
+        .update(proposals)
+        .set({ status: "expired", updatedAt: at })
+        .where(and(eq(proposals.id, proposal.id), inArray(proposals.status, ["sent", "accepted"])))
+        .returning({ id: proposals.id });
+      if (moved.length === 0) return false;
+      await tx.insert(leadEvents).values({ companyId: proposal.companyId, leadId: proposal.leadId, kind: "proposal-expired", detail: `${document.number} expired unsigned${proposal.status === "accepted" ? " (signed, but the deposit never came)" : ""}.`, createdAt: at });
+      if (proposal.kind === "proposal") for (const statement of settleStageStatements({ leadId: proposal.leadId, from: ["proposal-out"], at, tx })) await statement;
+      return true;
+    });
+    if (!changed) continue;
+    count += 1;
+    if (proposal.checkoutSessionId) await client.checkout.sessions.expire(proposal.checkoutSessionId).catch(() => undefined);
+  }
+  return count;
+}

@@ -1,0 +1,111 @@
+import { createHash } from "node:crypto";
+import { and, eq, inArray } from "drizzle-orm";
+import { companies, emailOutbox, leadEvents, leads, proposals, type Company, type Lead, type Proposal } from "~/db/schema";
+import { ProposalSignedEmail } from "~/emails/proposal-emails";
+import { db } from "~/lib/platform/db.server";
+import { prepareOutboxRow } from "~/lib/platform/email.server";
+import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { formatMoney } from "~/lib/format/money";
+import type { ProposalDocument } from "~/lib/proposals/proposal-document";
+import { proposalFigures, renderProposalPdf, type SignatureFacts } from "~/lib/proposals/proposal-pdf.server";
+import { formatZonedDateTime } from "~/lib/format/zoned-time";
+
+/*
+ * Electronic signature (US ESIGN Act, 15 U.S.C. §7001, and UETA): the homeowner consents to sign
+ * electronically, shows intent by typing their full name, and gets a copy they can keep. We record
+ * who, when, the address and browser, the add-ons chosen, and the SHA-256 of the exact PDF accepted;
+ * the signed PDF adds a signature block with those facts. A signed document never changes: the
+ * bytes are stored, and the update only ever applies to a proposal still "sent".
+ */
+
+export function sha256Hex(bytes: Uint8Array): string {
+  return createHash("sha256").update(bytes).digest("hex");
+}
+
+export type AcceptInput = { name: string; chosenKeys: string[]; ip: string; userAgent: string; now?: Date };
+export type AcceptResult = { ok: true; proposal: Proposal } | { ok: false; status: number; message: string };
+
+/** Whether a proposal can still be accepted now (sent and not past its date). */
+export function isOpenForSignature(proposal: Pick<Proposal, "status" | "expiresAt">, now: Date): boolean {
+  return proposal.status === "sent" && now.toISOString() < proposal.expiresAt;
+}
+
+/**
+ * Records the homeowner's acceptance: renders the accepted PDF, hashes it, renders the signed PDF
+ * with the signature block, and in one batch stores both, moves the proposal on, writes the timeline
+ * event and e-mails the signed PDF to both sides. A proposal with a deposit waits for it ("accepted");
+ * a change order, or a proposal with no deposit, is signed at once.
+ */
+export async function acceptProposal(args: { proposal: Proposal; lead: Lead; document: ProposalDocument; input: AcceptInput }): Promise<AcceptResult> {
+  const { proposal, lead, document, input } = args;
+  const now = input.now ?? new Date();
+  if (!isOpenForSignature(proposal, now)) {
+    return { ok: false, status: 409, message: proposal.status === "sent" ? "This proposal has expired: ask the contractor for a new one." : `This ${document.kind === "change-order" ? "change order" : "proposal"} can no longer be signed.` };
+  }
+  let figures: ReturnType<typeof proposalFigures>;
+  try {
+    figures = proposalFigures(document, input.chosenKeys);
+  } catch {
+    return { ok: false, status: 400, message: "Choose add-ons from the list on this page." };
+  }
+  const [company] = (await db.select().from(companies).where(eq(companies.id, proposal.companyId)).limit(1)) as [Company];
+  const at = now.toISOString();
+  const chosenKeys = figures.chosen.map((a) => a.key);
+  const acceptedPdf = await renderProposalPdf(document, { chosenKeys, createdAt: proposal.sentAt });
+  const acceptedSha256 = sha256Hex(acceptedPdf);
+  const signature: SignatureFacts = { name: input.name, signedAtLabel: formatZonedDateTime(at, company.timeZone), signedAtIso: at, ip: input.ip, userAgent: input.userAgent, acceptedSha256 };
+  const signedPdf = await renderProposalPdf(document, { chosenKeys, createdAt: proposal.sentAt, signature });
+
+  const isChange = document.kind === "change-order";
+  const totalCents = isChange ? document.change!.previousContractCents + document.change!.deltaCents : figures.total;
+  const deposit = isChange ? 0 : figures.deposit;
+  const signsNow = deposit === 0;
+  const attachment = { filename: `${document.number.toLowerCase().replace(/[^a-z0-9]+/g, "-")}-signed.pdf`, content: signedPdf.toString("base64"), contentType: "application/pdf" };
+  const common = { companyName: company.name, customerName: lead.customerName, title: document.title, number: document.number, totalText: formatMoney(isChange ? document.change!.deltaCents : totalCents), depositText: signsNow ? null : formatMoney(deposit), signedAt: signature.signedAtLabel, sha256: acceptedSha256, link: "" };
+  const mails = await Promise.all([
+    prepareOutboxRow({ idempotencyKey: `proposal-signed/${proposal.id}`, companyId: company.id, to: lead.email, subject: `Signed: ${document.number} with ${company.name}`, template: ProposalSignedEmail({ ...common, recipientName: lead.customerName, forCompany: false }), attachments: [attachment] }),
+    prepareOutboxRow({ idempotencyKey: `proposal-signed-company/${proposal.id}`, companyId: company.id, to: company.email, subject: `${lead.customerName} signed ${document.number}`, template: ProposalSignedEmail({ ...common, recipientName: company.name, forCompany: true }), attachments: [attachment] }),
+  ]);
+
+  const [updated] = await db.batch([
+    db
+      .update(proposals)
+      .set({
+        status: signsNow ? "signed" : "accepted",
+        signerName: input.name,
+        signedAt: at,
+        signerIp: input.ip,
+        signerUserAgent: input.userAgent,
+        chosenAddOnsJson: JSON.stringify(chosenKeys),
+        totalCents,
+        depositCents: deposit,
+        acceptedPdfSha256: acceptedSha256,
+        acceptedPdf,
+        signedPdf,
+        ...(signsNow && !isChange ? { depositPaidAt: at } : {}),
+        updatedAt: at,
+      })
+      .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "sent")))
+      .returning(),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      kind: isChange ? "change-order-signed" : "proposal-accepted",
+      detail: isChange
+        ? `${document.number} signed by ${input.name}: ${formatMoney(document.change!.deltaCents)}; the job is now ${formatMoney(totalCents)}.`
+        : `${document.number} signed by ${input.name} for ${formatMoney(totalCents)}${chosenKeys.length ? ` with ${figures.chosen.map((a) => a.label).join(", ")}` : ""}; ${signsNow ? "no deposit asked." : `deposit of ${formatMoney(deposit)} to pay.`}`,
+      createdAt: at,
+    }),
+    db.insert(emailOutbox).values(mails).onConflictDoNothing(),
+    // A proposal signed with no deposit signs the job at once.
+    db
+      .update(leads)
+      .set({ status: "signed", updatedAt: at })
+      .where(and(eq(leads.id, lead.id), signsNow && !isChange ? inArray(leads.status, ["proposal-out", "on-hold"]) : eq(leads.id, -1))),
+  ]);
+  if (updated.length === 0) return { ok: false, status: 409, message: "This proposal was signed or changed a moment ago: reload the page." };
+  return { ok: true, proposal: updated[0]! };
+}
+
+/** The stage words for a proposal's timeline detail. */
+export const SIGNED_STAGE_LABEL = STATUS_LABEL.signed;
