@@ -470,6 +470,13 @@ export const proposals = sqliteTable(
     refundOwedAt: text("refund_owed_at"),
     refundId: text("refund_id"),
     refundedAt: text("refunded_at"),
+    // The refund job (app/lib/jobs/refund-queue.server.ts), as on bookings.
+    refundAttempts: integer("refund_attempts").notNull().default(0),
+    refundNextAt: text("refund_next_at"),
+    refundLastError: text("refund_last_error"),
+    refundFailedAt: text("refund_failed_at"),
+    refundLeaseOwner: text("refund_lease_owner"),
+    refundLeaseExpiresAt: text("refund_lease_expires_at"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
@@ -477,6 +484,9 @@ export const proposals = sqliteTable(
     index("proposals_lead_idx").on(t.leadId, t.createdAt),
     index("proposals_status_expires_idx").on(t.status, t.expiresAt),
     index("proposals_refund_owed_idx").on(t.refundOwedAt, t.refundId),
+    index("proposals_refund_due_idx")
+      .on(t.refundNextAt)
+      .where(sql`refund_owed_at is not null and refund_id is null and refund_failed_at is null`),
   ],
 );
 

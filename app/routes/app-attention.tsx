@@ -2,7 +2,7 @@ import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-attention";
 import { FormAlert } from "~/components/ui/field";
-import { listFailedWork, retryFailedEmail, retryFailedRefund } from "~/lib/jobs/attention.server";
+import { listFailedWork, retryFailedDepositRefund, retryFailedEmail, retryFailedRefund } from "~/lib/jobs/attention.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { formatSlot } from "~/lib/consults/consult-slots";
 import { formatMoney } from "~/lib/format/money";
@@ -13,15 +13,18 @@ export const meta: Route.MetaFunction = () => [{ title: "Needs attention · Embe
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const company = await getCompany(user.companyId);
-  const { mail, refunds } = await listFailedWork(user.companyId);
+  const { mail, refunds, deposits } = await listFailedWork(user.companyId);
   return {
     mail,
-    refunds: refunds.map((r) => ({ ...r, when: formatSlot(r.startsAt, company.timeZone), fee: formatMoney(r.amountCents) })),
+    refunds: [
+      ...refunds.map((r) => ({ key: `consult-${r.id}`, intent: "retry-refund" as const, id: r.id, leadId: r.leadId, customerName: r.customerName, what: `Consult of ${formatSlot(r.startsAt, company.timeZone)}`, amount: formatMoney(r.amountCents), attempts: r.attempts, lastError: r.lastError })),
+      ...deposits.map((r) => ({ key: `deposit-${r.id}`, intent: "retry-deposit-refund" as const, id: r.id, leadId: r.leadId, customerName: r.customerName, what: `Deposit on ${r.number}`, amount: formatMoney(r.amountCents), attempts: r.attempts, lastError: r.lastError })),
+    ],
   };
 }
 
 const retrySchema = z.object({
-  intent: z.enum(["retry-email", "retry-refund"], { error: "Choose what to try again." }),
+  intent: z.enum(["retry-email", "retry-refund", "retry-deposit-refund"], { error: "Choose what to try again." }),
   id: z.coerce.number().int().positive({ error: "Choose what to try again." }),
 });
 
@@ -30,7 +33,8 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = retrySchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: null }, { status: 400 });
   const { intent, id } = parsed.data;
-  const isQueued = intent === "retry-email" ? await retryFailedEmail(id, user.companyId) : await retryFailedRefund(id, user.companyId);
+  const retry = { "retry-email": retryFailedEmail, "retry-refund": retryFailedRefund, "retry-deposit-refund": retryFailedDepositRefund }[intent];
+  const isQueued = await retry(id, user.companyId);
   // Another company's row, or one already back in the queue, is simply not found here.
   if (!isQueued) return data({ error: "That item was not found, or it is already being tried again.", done: null }, { status: 404 });
   return data({ error: null, done: intent === "retry-email" ? "The e-mail is queued again." : "The refund is queued again." });
@@ -56,16 +60,16 @@ export default function AttentionRoute({ loaderData, actionData }: Route.Compone
           <h2 id="failed-refunds" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">Refunds not made</h2>
           <ul className="divide-y divide-ash-200">
             {refunds.map((r) => (
-              <li key={r.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
+              <li key={r.key} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
                 <div className="min-w-0">
                   <p className="font-extrabold">
-                    {r.fee} to <Link to={`/app/leads/${r.leadId}`} className="text-ember-700 hover:underline">{r.customerName}</Link>
+                    {r.amount} to <Link to={`/app/leads/${r.leadId}`} className="text-ember-700 hover:underline">{r.customerName}</Link>
                   </p>
-                  <p className="text-sm text-char-600">Consult of {r.when} · {r.attempts} tries</p>
+                  <p className="text-sm text-char-600">{r.what} · {r.attempts} tries</p>
                   {r.lastError ? <p className="text-sm break-words text-char-600">Last answer: {r.lastError}</p> : null}
                 </div>
                 <Form method="post">
-                  <input type="hidden" name="intent" value="retry-refund" />
+                  <input type="hidden" name="intent" value={r.intent} />
                   <input type="hidden" name="id" value={r.id} />
                   <button type="submit" className="btn-quiet" disabled={isBusy} aria-label={`Try the refund to ${r.customerName} again`}>Try again</button>
                 </Form>

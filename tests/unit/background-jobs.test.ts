@@ -1,5 +1,5 @@
 /*
- * The background jobs (e-mail outbox, refunds, lapsed holds, upload sweep) under failure and under
+ * The background jobs (e-mail outbox, consult and deposit refunds, lapsed holds, upload sweep) under failure and under
  * two processes. "Two processes" are two libSQL clients on the one database file, as two servers
  * would open it; the effects are counted where they land, by the e-mail and payments fakes.
  */
@@ -11,7 +11,7 @@ import { and, eq, inArray, like } from "drizzle-orm";
 import { Resend } from "resend";
 import type Stripe from "stripe";
 import { afterAll, beforeAll, expect, onTestFinished, test, vi } from "vitest";
-import { bookings, emailOutbox, jobLeases, type Company } from "~/db/schema";
+import { bookings, emailOutbox, jobLeases, proposals, type Company } from "~/db/schema";
 import { processRefunds, releaseLapsedHolds } from "~/lib/consults/booking.server";
 import { sweepStrayUploads } from "~/lib/jobs/background.server";
 import { db, openDatabase, type Db } from "~/lib/platform/db.server";
@@ -19,6 +19,7 @@ import { env } from "~/lib/platform/env.server";
 import { LEASE_MS } from "~/lib/jobs/jobs.server";
 import { deliverDueEmails } from "~/lib/jobs/outbox-worker.server";
 import { createStripe } from "~/lib/platform/payments.server";
+import { processDepositRefunds } from "~/lib/proposals/proposal-payments.server";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
 import { startEmailFake, type EmailFake } from "../../fakes/email/server";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
@@ -26,6 +27,7 @@ import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
 import { createTestLead } from "./support/leads";
 import { loginAs } from "./support/login";
+import { sentProposal } from "./support/proposals";
 
 let payments: PaymentsFake;
 let mailFake: EmailFake;
@@ -76,6 +78,22 @@ async function owedRefund(paymentIntentId?: string) {
   const [row] = await db
     .insert(bookings)
     .values({ companyId: company.id, leadId, ...nextSlot(), status: "cancelled", isPaid: true, paymentIntentId: intent, holdExpiresAt: new Date().toISOString(), amountCents: 15000, cancelledBy: "staff", cancelReason: "staff" })
+    .returning();
+  return row!;
+}
+
+/** A deposit paid through the payments fake (or with the given intent) that the owner refunded: a refund is owed. */
+async function owedDeposit(paymentIntentId?: string) {
+  const intent = paymentIntentId ?? (await owedRefund().then(async (b) => {
+    // The consult row only lent its paid intent; it is settled so the consult refund tests never meet it.
+    await db.update(bookings).set({ refundId: "by-hand" }).where(eq(bookings.id, b.id));
+    return b.paymentIntentId!;
+  }));
+  const { proposal } = await sentProposal();
+  const [row] = await db
+    .update(proposals)
+    .set({ status: "signed", depositCents: 145_500, paymentIntentId: intent, refundOwedAt: new Date().toISOString(), refundReason: "Moved house." })
+    .where(eq(proposals.id, proposal.id))
     .returning();
   return row!;
 }
@@ -184,8 +202,8 @@ test("a refund that keeps failing is tried with backoff, logs a handful of lines
 
   // The owner sees it with its reason, and "Try again" puts it back in the queue.
   const owner = await loginAs(company.id, "owner");
-  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { refunds: { id: number; lastError: string | null }[] };
-  expect(page.refunds.find((r) => r.id === booking.id)?.lastError).toMatch(/unavailable/);
+  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { refunds: { key: string; lastError: string | null }[] };
+  expect(page.refunds.find((r) => r.key === `consult-${booking.id}`)?.lastError).toMatch(/unavailable/);
   const body = new URLSearchParams({ intent: "retry-refund", id: String(booking.id) });
   await attentionAction(routeArgs(requestWithCookie("/app/attention", owner, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } })));
   const [again] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
@@ -283,6 +301,75 @@ test("a worker that dies mid-job leaves a lease that lapses; the other worker th
   expect((await fakeMessages()).filter((m) => m.idempotency_key?.startsWith(`job-test/${tag}/`))).toHaveLength(5);
   expect((await refundRequests()).filter((r) => r.idempotencyKey === `refund:${refund.id}`)).toHaveLength(1);
   const [row] = await db.select().from(bookings).where(eq(bookings.id, refund.id));
+  expect(row).toMatchObject({ refundAttempts: 2, refundLeaseOwner: null });
+  expect(row!.refundId).toMatch(/^re_/);
+});
+
+test("a deposit refund the payment service keeps refusing is tried with backoff, ends failed on the owner's list, where Try again queues it again", async () => {
+  const deposit = await owedDeposit(`pi_stuck_${randomUUID().slice(0, 8)}`);
+  let tries = 0;
+  const down = {
+    refunds: {
+      create: (params: Stripe.RefundCreateParams) => {
+        if (params.payment_intent === deposit.paymentIntentId) tries += 1;
+        return Promise.reject(Object.assign(new Error("The payment service is unavailable."), { statusCode: 503, type: "StripeAPIError" }));
+      },
+    },
+  } as unknown as Stripe;
+  const lines: string[] = [];
+  const errors = vi.spyOn(console, "error").mockImplementation((...args: unknown[]) => void lines.push(args.map(String).join(" ")));
+  const start = Date.now();
+  try {
+    // A pass a second for ten minutes: the 30 s, 1 min, 2 min, 4 min waits allow five tries, not 600.
+    for (let s = 0; s < 600; s += 1) await processDepositRefunds(down, { now: new Date(start + s * 1000) });
+    expect(tries).toBeLessThanOrEqual(5);
+    expect(tries).toBeGreaterThanOrEqual(4);
+    // Then a pass a minute for three hours: eight tries in all, then it stops.
+    for (let m = 10; m < 3 * 60; m += 1) await processDepositRefunds(down, { now: new Date(start + m * 60_000) });
+    expect(tries).toBe(8);
+    const aboutThis = lines.filter((l) => l.includes(`deposit of proposal ${deposit.id} `));
+    expect(aboutThis).toHaveLength(8);
+    expect(aboutThis.at(-1)).toMatch(/failed for good after 8 tries/);
+  } finally {
+    errors.mockRestore();
+  }
+  const [row] = await db.select().from(proposals).where(eq(proposals.id, deposit.id));
+  expect(row).toMatchObject({ refundId: null, refundAttempts: 8, refundLeaseOwner: null });
+  expect(row!.refundFailedAt).not.toBeNull();
+
+  const owner = await loginAs(company.id, "owner");
+  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { refunds: { key: string; what: string; amount: string; lastError: string | null }[] };
+  const listed = page.refunds.find((r) => r.key === `deposit-${deposit.id}`);
+  expect(listed?.lastError).toMatch(/^503 .*unavailable/);
+  expect(listed?.what).toMatch(/^Deposit on /);
+  expect(listed?.amount).toBe("$1,455.00");
+  const body = new URLSearchParams({ intent: "retry-deposit-refund", id: String(deposit.id) });
+  await attentionAction(routeArgs(requestWithCookie("/app/attention", owner, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } })));
+  const [again] = await db.select().from(proposals).where(eq(proposals.id, deposit.id));
+  expect(again).toMatchObject({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null });
+  // A company's owner cannot requeue another company's row: the same id under another company is not found.
+  expect(await import("~/lib/proposals/proposal-payments.server").then((m) => m.retryFailedDepositRefund(deposit.id, company.id + 999))).toBe(false);
+  await db.update(proposals).set({ refundId: "by-hand" }).where(eq(proposals.id, deposit.id));
+});
+
+test("two workers at once make each deposit refund once, and a worker that dies mid-refund leaves it to the other after its lease lapses", async () => {
+  const deposits = await Promise.all(Array.from({ length: 4 }, () => owedDeposit()));
+  const now = new Date();
+  for (let round = 0; round < 3; round += 1) {
+    await Promise.all([processDepositRefunds(stripe, { db, owner: "worker-a", now }), processDepositRefunds(stripe, { db: second.db, owner: "worker-b", now })]);
+  }
+  const keys = (await refundRequests()).map((r) => r.idempotencyKey);
+  for (const d of deposits) expect(keys.filter((k) => k === `refund:deposit:${d.id}`), `refund:deposit:${d.id}`).toHaveLength(1);
+
+  const stuck = await owedDeposit();
+  let hung = 0;
+  void processDepositRefunds({ refunds: { create: () => ((hung += 1), new Promise<never>(() => {})) } } as unknown as Stripe, { db, owner: "dying", now });
+  await vi.waitFor(() => expect(hung).toBe(1));
+  await processDepositRefunds(stripe, { db: second.db, owner: "survivor", now: new Date(now.getTime() + 1000) });
+  expect((await refundRequests()).filter((r) => r.idempotencyKey === `refund:deposit:${stuck.id}`)).toHaveLength(0);
+  await processDepositRefunds(stripe, { db: second.db, owner: "survivor", now: new Date(now.getTime() + LEASE_MS + 1000) });
+  expect((await refundRequests()).filter((r) => r.idempotencyKey === `refund:deposit:${stuck.id}`)).toHaveLength(1);
+  const [row] = await db.select().from(proposals).where(eq(proposals.id, stuck.id));
   expect(row).toMatchObject({ refundAttempts: 2, refundLeaseOwner: null });
   expect(row!.refundId).toMatch(/^re_/);
 });

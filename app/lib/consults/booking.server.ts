@@ -16,7 +16,8 @@ import {
 import { ConsultCancelledEmail, ConsultCancelledOfficeEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
-import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs/jobs.server";
+import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
+import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
 import { CONSULT_HOLD_MINUTES, formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consults/consult-slots";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { formatMoney } from "~/lib/format/money";
@@ -454,95 +455,52 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
   return { ...booking, status: "cancelled" };
 }
 
-// 30 s, 1 min, 2 min … 1 h: eight tries span about two hours before the owner is told.
-export const REFUND_BACKOFF: Backoff = { baseMs: 30_000, maxMs: 60 * 60_000, maxAttempts: 8 };
 const REFUND_BATCH_SIZE = 10;
 
-/** Claims up to REFUND_BATCH_SIZE owed refunds that are due, for this process (app/lib/jobs/jobs.server.ts). */
-async function claimOwedRefunds(database: Db, owner: string, now: Date) {
-  const nowIso = now.toISOString();
-  const due = database
-    .select({ id: bookings.id })
-    .from(bookings)
-    .where(
-      and(
-        eq(bookings.status, "cancelled"),
-        eq(bookings.isPaid, true),
-        isNull(bookings.refundId),
-        isNotNull(bookings.paymentIntentId),
-        isNull(bookings.refundFailedAt),
-        or(isNull(bookings.refundNextAt), lte(bookings.refundNextAt, nowIso)),
-        or(isNull(bookings.refundLeaseExpiresAt), lt(bookings.refundLeaseExpiresAt, nowIso)),
-      ),
-    )
-    // Never tried first, then by when each may try again: a failing refund waits behind the rest.
-    .orderBy(asc(sql`coalesce(${bookings.refundNextAt}, '')`), asc(bookings.id))
-    .limit(REFUND_BATCH_SIZE);
-  return database
-    .update(bookings)
-    .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${bookings.refundAttempts} + 1` })
-    .where(and(inArray(bookings.id, due), isNull(bookings.refundId)))
-    .returning();
+/** Cancelled consults that were paid, refunded through the shared refund worker (app/lib/jobs/refund-queue.server.ts). */
+function consultRefundQueue(database: Db): RefundQueue {
+  return {
+    label: "booking",
+    idempotencyKey: (id) => `refund:${id}`,
+    claim: async (owner, now) => {
+      const nowIso = now.toISOString();
+      const due = database
+        .select({ id: bookings.id })
+        .from(bookings)
+        .where(
+          and(
+            eq(bookings.status, "cancelled"),
+            eq(bookings.isPaid, true),
+            isNull(bookings.refundId),
+            isNotNull(bookings.paymentIntentId),
+            isNull(bookings.refundFailedAt),
+            or(isNull(bookings.refundNextAt), lte(bookings.refundNextAt, nowIso)),
+            or(isNull(bookings.refundLeaseExpiresAt), lt(bookings.refundLeaseExpiresAt, nowIso)),
+          ),
+        )
+        // Never tried first, then by when each may try again: a failing refund waits behind the rest.
+        .orderBy(asc(sql`coalesce(${bookings.refundNextAt}, '')`), asc(bookings.id))
+        .limit(REFUND_BATCH_SIZE);
+      return database
+        .update(bookings)
+        .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${bookings.refundAttempts} + 1` })
+        .where(and(inArray(bookings.id, due), isNull(bookings.refundId)))
+        .returning({ id: bookings.id, paymentIntentId: bookings.paymentIntentId, refundAttempts: bookings.refundAttempts });
+    },
+    settle: (id, owner, outcome) =>
+      database
+        .update(bookings)
+        .set(outcome)
+        .where(and(eq(bookings.id, id), eq(bookings.refundLeaseOwner, owner))),
+  };
 }
 
 /**
  * Sends the refunds owed (cancelled after payment), each once, keyed `refund:<bookingId>`, under a
- * lease so two processes never send the same one. A failed refund is retried with backoff and,
- * past its cap or on an answer a retry cannot change, marked failed for the owner to see.
+ * lease so two processes never send the same one; retried with backoff, failed rows shown to the owner.
  */
 export async function processRefunds(client: Pick<Stripe, "refunds"> = defaultStripe, options: { now?: Date; db?: Db; owner?: string } = {}): Promise<number> {
-  const database = options.db ?? db;
-  const owner = options.owner ?? WORKER_ID;
-  const now = options.now ?? new Date();
-  const claimed = await claimOwedRefunds(database, owner, now);
-  const mine = (id: number) => and(eq(bookings.id, id), eq(bookings.refundLeaseOwner, owner));
-  let done = 0;
-  for (const booking of claimed) {
-    const attempts = booking.refundAttempts;
-    let failure: { status: number | null; message: string };
-    try {
-      if (attempts > REFUND_BACKOFF.maxAttempts) {
-        failure = { status: null, message: "no tries left after the worker stopped mid-refund" };
-      } else {
-        const refund = await client.refunds.create({ payment_intent: booking.paymentIntentId! }, { idempotencyKey: `refund:${booking.id}` });
-        await database
-          .update(bookings)
-          .set({ refundId: refund.id, refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null })
-          .where(mine(booking.id));
-        done += 1;
-        continue;
-      }
-    } catch (error) {
-      const stripeError = error as { statusCode?: number; code?: string; type?: string; message?: string };
-      if (stripeError.code === "charge_already_refunded") {
-        // Refunded already (by hand, or by a try whose answer was lost): nothing is owed.
-        await database
-          .update(bookings)
-          .set({ refundId: "already-refunded", refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null })
-          .where(mine(booking.id));
-        continue;
-      }
-      failure = { status: stripeError.statusCode ?? null, message: `${stripeError.statusCode ?? "network"} ${stripeError.code ?? stripeError.type ?? "error"}: ${stripeError.message ?? String(error)}` };
-    }
-    const isGivingUp = isPermanentStatus(failure.status) || attempts >= REFUND_BACKOFF.maxAttempts;
-    const delay = retryDelayMs(attempts, REFUND_BACKOFF);
-    await database
-      .update(bookings)
-      .set({
-        refundLastError: failure.message.slice(0, 500),
-        refundNextAt: iso(now.getTime() + delay),
-        refundFailedAt: isGivingUp ? now.toISOString() : null,
-        refundLeaseOwner: null,
-        refundLeaseExpiresAt: null,
-      })
-      .where(mine(booking.id));
-    console.error(
-      isGivingUp
-        ? `refunds: booking ${booking.id} failed for good after ${attempts} tries, the owner is shown it: ${failure.message}`
-        : `refunds: booking ${booking.id} try ${attempts} failed, next in ${delay / 1000} s: ${failure.message}`,
-    );
-  }
-  return done;
+  return sendOwedRefunds(consultRefundQueue(options.db ?? db), client, options.owner ?? WORKER_ID, options.now ?? new Date());
 }
 
 /** Puts a failed refund back in the queue (the owner pressed "Try again"). */

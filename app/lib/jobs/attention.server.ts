@@ -1,7 +1,9 @@
 import { and, count, desc, eq, isNotNull, isNull } from "drizzle-orm";
-import { bookings, emailOutbox, leads } from "~/db/schema";
+import { bookings, emailOutbox, leads, proposals } from "~/db/schema";
 import { retryFailedRefund } from "~/lib/consults/booking.server";
 import { db } from "~/lib/platform/db.server";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { retryFailedDepositRefund } from "~/lib/proposals/proposal-payments.server";
 
 /*
  * Background work that gave up (past its tries, or refused for good by the service) waits here for
@@ -10,15 +12,16 @@ import { db } from "~/lib/platform/db.server";
 
 /** How many e-mails and refunds of a company have failed for good (for the workspace banner). */
 export async function countFailedWork(companyId: number): Promise<number> {
-  const [[mail], [refunds]] = await Promise.all([
+  const [[mail], [refunds], [deposits]] = await Promise.all([
     db.select({ n: count() }).from(emailOutbox).where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed"))),
     db.select({ n: count() }).from(bookings).where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId))),
+    db.select({ n: count() }).from(proposals).where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId))),
   ]);
-  return (mail?.n ?? 0) + (refunds?.n ?? 0);
+  return (mail?.n ?? 0) + (refunds?.n ?? 0) + (deposits?.n ?? 0);
 }
 
 export async function listFailedWork(companyId: number) {
-  const [mail, refunds] = await Promise.all([
+  const [mail, refunds, deposits] = await Promise.all([
     db
       .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, attempts: emailOutbox.attempts, lastError: emailOutbox.lastError, createdAt: emailOutbox.createdAt })
       .from(emailOutbox)
@@ -41,8 +44,28 @@ export async function listFailedWork(companyId: number) {
       .where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId)))
       .orderBy(desc(bookings.refundFailedAt))
       .limit(100),
+    db
+      .select({
+        id: proposals.id,
+        leadId: proposals.leadId,
+        customerName: leads.customerName,
+        documentJson: proposals.documentJson,
+        amountCents: proposals.depositCents,
+        attempts: proposals.refundAttempts,
+        lastError: proposals.refundLastError,
+        failedAt: proposals.refundFailedAt,
+      })
+      .from(proposals)
+      .innerJoin(leads, eq(leads.id, proposals.leadId))
+      .where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId)))
+      .orderBy(desc(proposals.refundFailedAt))
+      .limit(100),
   ]);
-  return { mail, refunds };
+  return {
+    mail,
+    refunds,
+    deposits: deposits.map(({ documentJson, amountCents, ...row }) => ({ ...row, amountCents: amountCents ?? 0, number: parseProposalDocument(documentJson).number })),
+  };
 }
 
 /** Puts a failed e-mail of the company back in the queue, due now, with its tries reset. */
@@ -55,4 +78,4 @@ export async function retryFailedEmail(id: number, companyId: number, now = new 
   return rows.length > 0;
 }
 
-export { retryFailedRefund };
+export { retryFailedDepositRefund, retryFailedRefund };

@@ -1,8 +1,10 @@
-import { and, eq, inArray, isNotNull, isNull, lte } from "drizzle-orm";
+import { and, asc, eq, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
 import type Stripe from "stripe";
 import { companies, emailOutbox, leadEvents, leads, paymentEvents, proposals, type Company, type Lead, type Proposal } from "~/db/schema";
 import { DepositPaidEmail } from "~/emails/proposal-emails";
-import { db, writeTransaction } from "~/lib/platform/db.server";
+import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
+import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
+import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
@@ -199,24 +201,61 @@ export async function requestDepositRefund(args: { actorUserId: number; lead: Le
   return null;
 }
 
-/** Sends the deposit refunds owed, each once, keyed `refund:deposit:<proposalId>`. */
-export async function processDepositRefunds(client: Stripe = defaultStripe): Promise<number> {
-  const owed = await db
-    .select()
-    .from(proposals)
-    .where(and(isNotNull(proposals.refundOwedAt), isNull(proposals.refundId), isNotNull(proposals.paymentIntentId)))
-    .limit(20);
-  let done = 0;
-  for (const proposal of owed) {
-    try {
-      const refund = await client.refunds.create({ payment_intent: proposal.paymentIntentId! }, { idempotencyKey: `refund:deposit:${proposal.id}` });
-      await db.update(proposals).set({ refundId: refund.id, refundedAt: new Date().toISOString() }).where(eq(proposals.id, proposal.id));
-      done += 1;
-    } catch (error) {
-      console.error(`deposit refund for proposal ${proposal.id} failed; will retry`, (error as Error).message);
-    }
-  }
-  return done;
+const DEPOSIT_REFUND_BATCH_SIZE = 10;
+
+/** Deposits the owner refunded (or paid too late), refunded through the shared refund worker. */
+function depositRefundQueue(database: Db): RefundQueue {
+  return {
+    label: "deposit of proposal",
+    idempotencyKey: (id) => `refund:deposit:${id}`,
+    claim: async (owner, now) => {
+      const nowIso = now.toISOString();
+      const due = database
+        .select({ id: proposals.id })
+        .from(proposals)
+        .where(
+          and(
+            isNotNull(proposals.refundOwedAt),
+            isNull(proposals.refundId),
+            isNotNull(proposals.paymentIntentId),
+            isNull(proposals.refundFailedAt),
+            or(isNull(proposals.refundNextAt), lte(proposals.refundNextAt, nowIso)),
+            or(isNull(proposals.refundLeaseExpiresAt), lt(proposals.refundLeaseExpiresAt, nowIso)),
+          ),
+        )
+        // Never tried first, then by when each may try again: a failing refund waits behind the rest.
+        .orderBy(asc(sql`coalesce(${proposals.refundNextAt}, '')`), asc(proposals.id))
+        .limit(DEPOSIT_REFUND_BATCH_SIZE);
+      return database
+        .update(proposals)
+        .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${proposals.refundAttempts} + 1` })
+        .where(and(inArray(proposals.id, due), isNull(proposals.refundId)))
+        .returning({ id: proposals.id, paymentIntentId: proposals.paymentIntentId, refundAttempts: proposals.refundAttempts });
+    },
+    settle: (id, owner, outcome) =>
+      database
+        .update(proposals)
+        .set(outcome)
+        .where(and(eq(proposals.id, id), eq(proposals.refundLeaseOwner, owner))),
+  };
+}
+
+/**
+ * Sends the deposit refunds owed, each once, keyed `refund:deposit:<proposalId>`, under a lease so two
+ * processes never send the same one; retried with backoff, failed rows shown to the owner.
+ */
+export async function processDepositRefunds(client: Pick<Stripe, "refunds"> = defaultStripe, options: { now?: Date; db?: Db; owner?: string } = {}): Promise<number> {
+  return sendOwedRefunds(depositRefundQueue(options.db ?? db), client, options.owner ?? WORKER_ID, options.now ?? new Date());
+}
+
+/** Puts a failed deposit refund back in the queue (the owner pressed "Try again"). */
+export async function retryFailedDepositRefund(proposalId: number, companyId: number): Promise<boolean> {
+  const rows = await db
+    .update(proposals)
+    .set({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null, refundLastError: null })
+    .where(and(eq(proposals.id, proposalId), eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId)))
+    .returning({ id: proposals.id });
+  return rows.length > 0;
 }
 
 /**

@@ -1,0 +1,81 @@
+import type Stripe from "stripe";
+import { iso, isPermanentStatus, retryDelayMs, type Backoff } from "~/lib/jobs/jobs.server";
+
+/*
+ * One refund worker for every kind of payment that can be owed back (a cancelled consult, a refunded
+ * deposit). Each kind keeps the same bookkeeping columns on its own table (refund_attempts,
+ * refund_next_at, refund_last_error, refund_failed_at, refund_lease_owner, refund_lease_expires_at,
+ * refund_id, refunded_at) and supplies how to claim and update its rows; the rules of
+ * app/lib/jobs/jobs.server.ts (lease, attempt counted at claim, backoff, cap, owner told) live here once.
+ */
+
+/** Refunds wait 30 s, 1 min, 2 min … at most an hour between tries: eight tries span about two hours before the owner is told. */
+export const REFUND_BACKOFF: Backoff = { baseMs: 30_000, maxMs: 60 * 60_000, maxAttempts: 8 };
+
+/** A claimed row: what the worker needs to send its refund. */
+export type OwedRefund = { id: number; paymentIntentId: string | null; refundAttempts: number };
+
+/** The columns a refund try writes back. */
+export type RefundOutcome =
+  | { refundId: string; refundedAt: string; refundLastError: null; refundLeaseOwner: null; refundLeaseExpiresAt: null }
+  | { refundLastError: string; refundNextAt: string; refundFailedAt: string | null; refundLeaseOwner: null; refundLeaseExpiresAt: null };
+
+export type RefundQueue = {
+  /** Names the row in log lines, e.g. "booking" or "deposit of proposal". */
+  label: string;
+  /** The idempotency key of the row's refund: the same on every try and in every process. */
+  idempotencyKey: (id: number) => string;
+  /** Takes up to a batch of due rows under this process's lease (attempts counted), oldest first. */
+  claim: (owner: string, now: Date) => Promise<OwedRefund[]>;
+  /** Writes a try's outcome, only while this process still holds the row's lease. */
+  settle: (id: number, owner: string, outcome: RefundOutcome) => Promise<unknown>;
+};
+
+/**
+ * Sends the refunds a queue owes, each once, under a lease so two processes never send the same one.
+ * A failed refund is retried with backoff and, past its cap or on an answer a retry cannot change,
+ * marked failed for the owner to see. Returns how many refunds went out.
+ */
+export async function sendOwedRefunds(queue: RefundQueue, client: Pick<Stripe, "refunds">, owner: string, now: Date): Promise<number> {
+  const claimed = await queue.claim(owner, now);
+  let done = 0;
+  for (const row of claimed) {
+    const attempts = row.refundAttempts;
+    let failure: { status: number | null; message: string };
+    try {
+      if (attempts > REFUND_BACKOFF.maxAttempts) {
+        failure = { status: null, message: "no tries left after the worker stopped mid-refund" };
+      } else if (!row.paymentIntentId) {
+        failure = { status: 400, message: "no payment to refund" };
+      } else {
+        const refund = await client.refunds.create({ payment_intent: row.paymentIntentId }, { idempotencyKey: queue.idempotencyKey(row.id) });
+        await queue.settle(row.id, owner, { refundId: refund.id, refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null });
+        done += 1;
+        continue;
+      }
+    } catch (error) {
+      const stripeError = error as { statusCode?: number; code?: string; type?: string; message?: string };
+      if (stripeError.code === "charge_already_refunded") {
+        // Refunded already (by hand, or by a try whose answer was lost): nothing is owed.
+        await queue.settle(row.id, owner, { refundId: "already-refunded", refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null });
+        continue;
+      }
+      failure = { status: stripeError.statusCode ?? null, message: `${stripeError.statusCode ?? "network"} ${stripeError.code ?? stripeError.type ?? "error"}: ${stripeError.message ?? String(error)}` };
+    }
+    const isGivingUp = isPermanentStatus(failure.status) || attempts >= REFUND_BACKOFF.maxAttempts;
+    const delay = retryDelayMs(attempts, REFUND_BACKOFF);
+    await queue.settle(row.id, owner, {
+      refundLastError: failure.message.slice(0, 500),
+      refundNextAt: iso(now.getTime() + delay),
+      refundFailedAt: isGivingUp ? now.toISOString() : null,
+      refundLeaseOwner: null,
+      refundLeaseExpiresAt: null,
+    });
+    console.error(
+      isGivingUp
+        ? `refunds: ${queue.label} ${row.id} failed for good after ${attempts} tries, the owner is shown it: ${failure.message}`
+        : `refunds: ${queue.label} ${row.id} try ${attempts} failed, next in ${delay / 1000} s: ${failure.message}`,
+    );
+  }
+  return done;
+}
