@@ -12,6 +12,7 @@ export default [
   route("my", "routes/my.tsx"),
   route("p/:token", "routes/proposal.tsx"),
   route("p/:token.pdf", "routes/proposal-pdf.ts"),
+  route("p/:token/opened", "routes/proposal-opened.ts"),
   route("photos/:photoId", "routes/photo.ts"),
 
   ...prefix("app", [
@@ -36,6 +37,7 @@ export default [
       route("attention", "routes/app-attention.tsx"),
     ]),
     route("inbox.csv", "routes/app-inbox-csv.ts"),
+    route("inbox/seen", "routes/app-inbox-seen.ts"),
     route("leads/:leadId/cut-sheet", "routes/app-lead-cut-sheet.tsx"),
     route("leads/:leadId/cut-sheet.pdf", "routes/app-lead-cut-sheet-pdf.ts"),
   ]),

@@ -1,7 +1,7 @@
 import type { ReactNode } from "react";
 import { Form, Link, NavLink } from "react-router";
 import { Wordmark } from "~/components/brand-mark";
-import type { Role } from "~/db/schema";
+import type { Role } from "~/db/enums";
 
 type NavItem = { to: string; label: string; roles: Role[] };
 

@@ -1,7 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/app-catalog";
 import { CATALOG_KINDS, STAFF_ROLES } from "~/db/enums";
-import type { CatalogItem } from "~/db/schema";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
 import { listCatalog } from "~/lib/catalog/catalog.server";
 import { formatMoney } from "~/lib/format/money";
@@ -26,7 +25,7 @@ export async function loader({ request }: Route.LoaderArgs) {
   };
 }
 
-function sizeOf(item: Omit<CatalogItem, "priceCents">): string {
+function sizeOf(item: Route.ComponentProps["loaderData"]["items"][number]): string {
   const parts = KIND_DIMENSIONS[item.kind]
     .map((rule) => item[rule.key])
     .filter((v): v is number => typeof v === "number")

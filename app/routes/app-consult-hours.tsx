@@ -1,16 +1,14 @@
-import { eq } from "drizzle-orm";
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
 import { fieldErrors, formId } from "~/lib/format/form-fields";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { companies } from "~/db/schema";
 import { cancelBooking } from "~/lib/consults/booking.server";
 import { blockDay, listBlockedDays, unblockDay } from "~/lib/consults/consult-days.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { parseWeeklyHours, type WeeklyHours } from "~/lib/consults/consult-slots";
-import { db } from "~/lib/platform/db.server";
+import { saveConsultHours } from "~/lib/settings/company-settings.server";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
@@ -104,10 +102,7 @@ export async function action({ request }: Route.ActionArgs) {
     hours[key] = [[from, to]];
   }
   if (Object.keys(errors).length) return data({ errors }, { status: 400 });
-  await db
-    .update(companies)
-    .set({ consultHoursJson: JSON.stringify(hours), consultSlotMinutes: parsed.data!.slotMinutes, consultHorizonDays: parsed.data!.horizonDays })
-    .where(eq(companies.id, user.companyId));
+  await saveConsultHours(user.companyId, { hours, slotMinutes: parsed.data!.slotMinutes, horizonDays: parsed.data!.horizonDays });
   return redirect("/app/consult-hours?saved=1");
 }
 

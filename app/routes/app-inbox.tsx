@@ -1,13 +1,11 @@
-import { eq } from "drizzle-orm";
 import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
 import { JobProgressCompact } from "~/components/job-progress";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { LEAD_STATUSES, users } from "~/db/schema";
+import { LEAD_STATUSES } from "~/db/enums";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog/catalog.server";
-import { db } from "~/lib/platform/db.server";
 import {
   FIRST_DIRECTION,
   inboxSearchParams,
@@ -16,7 +14,7 @@ import {
   type InboxSort,
 } from "~/lib/leads/inbox-options";
 import { parseInboxQuery, usableInboxFilters } from "~/lib/leads/inbox-schema";
-import { loadInboxPage } from "~/lib/leads/inbox.server";
+import { inboxSeenAt, loadInboxPage } from "~/lib/leads/inbox.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoneyWhole } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
@@ -27,11 +25,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Inbox · Emberwright" }
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const [company, team, [me]] = await Promise.all([
-    getCompany(user.companyId),
-    listTeam(user.companyId),
-    db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, user.id)).limit(1),
-  ]);
+  const [company, team, seenAt] = await Promise.all([getCompany(user.companyId), listTeam(user.companyId), inboxSeenAt(user.id)]);
   const estimators = team.filter((m) => m.role === "owner" || m.role === "estimator").map((m) => ({ id: m.id, name: m.name, isActive: m.isActive }));
   const params = new URL(request.url).searchParams;
   const parsed = parseInboxQuery(params);
@@ -44,12 +38,12 @@ export async function loader({ request }: Route.LoaderArgs) {
     timeZone: company.timeZone,
     filters: parsed.ok ? parsed.filters : usableInboxFilters(params, parsed.errors),
     // Someone opening the inbox for the first time has no "last visit": nothing before now is marked.
-    unseenSince: me?.inboxSeenAt ?? now.toISOString(),
+    unseenSince: seenAt ?? now.toISOString(),
     now,
   });
-  // Viewing the inbox is what "seen" means; the marks on this page still compare with the old time.
-  await db.update(users).set({ inboxSeenAt: now.toISOString() }).where(eq(users.id, user.id));
-  const answer = { inbox, errors, typed, estimators, myId: user.id };
+  // Viewing the inbox is what "seen" means: the page posts `viewedAt` back once it is shown (a loader
+  // never writes); the marks on this page still compare with the old time.
+  const answer = { inbox, errors, typed, estimators, myId: user.id, viewedAt: now.toISOString() };
   return errors ? data(answer, { status: 400 }) : answer;
 }
 
@@ -98,8 +92,19 @@ function useLiveInbox(initial: InboxPage, since: string | null): InboxPage {
   return polled && polled.query === initial.query && polled.generatedAt > initial.generatedAt ? polled : initial;
 }
 
+/** Tells the server the inbox was seen as it stood at `viewedAt`, once per page load. */
+function useMarkSeen(viewedAt: string) {
+  const sent = useRef<string | null>(null);
+  useEffect(() => {
+    if (sent.current === viewedAt) return;
+    sent.current = viewedAt;
+    void fetch("/app/inbox/seen", { method: "POST", body: new URLSearchParams({ at: viewedAt }), keepalive: true }).catch(() => {});
+  }, [viewedAt]);
+}
+
 export default function InboxRoute({ loaderData }: Route.ComponentProps) {
   const { errors, typed, estimators, myId } = loaderData;
+  useMarkSeen(loaderData.viewedAt);
   return <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} errors={errors ?? {}} typed={typed} />;
 }
 

@@ -1,6 +1,6 @@
 import { redirect } from "react-router";
 import type { Route } from "./+types/app-index";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { requireUser } from "~/lib/auth/session.server";
 
 // Each role starts where its work is: the office at the inbox, the crew at their jobs.

@@ -1,33 +1,20 @@
-import { and, desc, eq, inArray } from "drizzle-orm";
-import { alias } from "drizzle-orm/sqlite-core";
 import { Link } from "react-router";
 import type { Route } from "./+types/app-jobs";
-import { leads, SIGNED_STAGES, STAFF_ROLES, users } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
-import { db } from "~/lib/platform/db.server";
+import { listWonJobs } from "~/lib/leads/won-jobs.server";
 import { currentVersion } from "~/lib/leads/lead-workspace.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Jobs · Emberwright" }];
 
-const crew = alias(users, "crew");
-
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const isOffice = isOfficeRole(user.role);
   // Crew see only the signed jobs given to them; the office sees every signed job of the company.
-  const where = isOffice
-    ? and(eq(leads.companyId, user.companyId), inArray(leads.status, SIGNED_STAGES))
-    : and(eq(leads.companyId, user.companyId), inArray(leads.status, SIGNED_STAGES), eq(leads.crewUserId, user.id));
-  const rows = await db
-    .select({ lead: leads, crewName: crew.name })
-    .from(leads)
-    .leftJoin(crew, eq(crew.id, leads.crewUserId))
-    .where(where)
-    .orderBy(desc(leads.updatedAt))
-    .limit(200);
+  const rows = await listWonJobs(user);
   const jobs = await Promise.all(
     rows.map(async ({ lead, crewName }) => {
       const { plan } = await currentVersion(lead);

@@ -1,7 +1,7 @@
 import { Link, Outlet } from "react-router";
 import type { Route } from "./+types/app-layout";
 import { WorkspaceShell } from "~/components/workspace-shell";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { countFailedWork } from "~/lib/jobs/attention.server";
 import { requireUser } from "~/lib/auth/session.server";

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/app-lead-cut-sheet-pdf";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { renderCutSheetPdf } from "~/lib/cut-sheet/cut-sheet-pdf.server";
 import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { requireUser } from "~/lib/auth/session.server";

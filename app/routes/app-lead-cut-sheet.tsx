@@ -4,7 +4,7 @@ import { Wordmark } from "~/components/brand-mark";
 import { CapDrawingSvg } from "~/components/cap-drawing-svg";
 import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { formatInches } from "~/domain/units";
 import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { requireUser } from "~/lib/auth/session.server";

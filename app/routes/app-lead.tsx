@@ -6,7 +6,7 @@ import { JobProgress } from "~/components/job-progress";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { PitPreview } from "~/components/pit-preview";
 import { FormAlert, SelectField } from "~/components/ui/field";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-sheet/cut-list";

@@ -1,15 +1,13 @@
-import { and, asc, eq, gt, inArray } from "drizzle-orm";
 import { data, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-schedule";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { formId } from "~/lib/format/form-fields";
-import { bookings, leads } from "~/db/schema";
 import { cancelBooking } from "~/lib/consults/booking.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { zonedDay } from "~/lib/format/zoned-time";
-import { db } from "~/lib/platform/db.server";
+import { listUpcomingConsults } from "~/lib/consults/schedule.server";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
@@ -21,12 +19,7 @@ const SCHEDULE_ROLES = ["owner", "estimator"] as const;
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });
   const company = await getCompany(user.companyId);
-  const rows = await db
-    .select({ booking: bookings, customerName: leads.customerName, town: leads.town, street: leads.street, leadId: leads.id })
-    .from(bookings)
-    .innerJoin(leads, eq(leads.id, bookings.leadId))
-    .where(and(eq(bookings.companyId, user.companyId), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.endsAt, new Date().toISOString())))
-    .orderBy(asc(bookings.startsAt));
+  const rows = await listUpcomingConsults(user.companyId);
   const time = (iso: string) => new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
   const days = new Map<string, typeof items>();
   const items = rows.map((r) => ({

@@ -1,12 +1,10 @@
-import { eq } from "drizzle-orm";
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { SelectField, TextField, FormAlert } from "~/components/ui/field";
-import { companies } from "~/db/schema";
-import { forgetOfferedCatalogs, getCompany } from "~/lib/catalog/catalog.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { saveCompanySettings } from "~/lib/settings/company-settings.server";
 import { companySettingsSchema, timeZoneList } from "~/lib/settings/company-schema";
-import { db } from "~/lib/platform/db.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { formatPhone } from "~/lib/format/phone";
 
@@ -24,12 +22,7 @@ export async function action({ request }: Route.ActionArgs) {
   if (!parsed.success) {
     return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   }
-  const { consultFee, ...rest } = parsed.data;
-  await db
-    .update(companies)
-    .set({ ...rest, consultFeeCents: consultFee })
-    .where(eq(companies.id, user.companyId));
-  forgetOfferedCatalogs();
+  await saveCompanySettings(user.companyId, parsed.data);
   return redirect("/app/settings?saved=1");
 }
 

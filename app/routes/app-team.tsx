@@ -3,7 +3,7 @@ import type { Route } from "./+types/app-team";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { ROLE_LABEL } from "~/components/workspace-shell";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { STAFF_ROLES } from "~/db/schema";
+import { STAFF_ROLES } from "~/db/enums";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { appOrigin } from "~/lib/platform/email.server";
 import { requireUser } from "~/lib/auth/session.server";

@@ -1,12 +1,10 @@
-import { and, eq } from "drizzle-orm";
 import { useEffect } from "react";
 import { Link, useRevalidator } from "react-router";
 import type { Route } from "./+types/consult-done";
 import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
-import { bookings } from "~/db/schema";
 import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
-import { db } from "~/lib/platform/db.server";
+import { findBookingByCheckout } from "~/lib/consults/booking.server";
 import { findLeadByRef } from "~/lib/leads/leads.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Design consult · Emberwright" }];
@@ -16,14 +14,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const company = await findCompanyBySlug(params.companySlug);
   const lead = company ? await findLeadByRef(company.id, params.ref) : null;
   const sessionId = new URL(request.url).searchParams.get("session_id") ?? "";
-  const [booking] =
-    company && lead
-      ? await db
-          .select()
-          .from(bookings)
-          .where(and(eq(bookings.leadId, lead.id), eq(bookings.checkoutSessionId, sessionId)))
-          .limit(1)
-      : [];
+  const booking = company && lead ? await findBookingByCheckout(lead.id, sessionId) : null;
   if (!company || !lead || !booking) throw new Response("Not found", { status: 404 });
   const state =
     booking.status === "confirmed" ? "confirmed" : booking.isPaid && booking.status === "cancelled" ? "refunded" : booking.status === "held" ? "waiting" : "not-paid";

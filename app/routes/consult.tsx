@@ -1,4 +1,5 @@
-import { data, Form, Link, redirect, useNavigation } from "react-router";
+import { useEffect, useRef } from "react";
+import { data, Form, Link, redirect, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/consult";
 import { LocalTime, TimeZoneField } from "~/components/local-time";
@@ -32,8 +33,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { company, lead } = await loadLead(params);
   const url = new URL(request.url);
   const left = Number(url.searchParams.get("left"));
-  // Back from the payment page without paying: free the held time at once.
-  if (Number.isSafeInteger(left) && left > 0) await abandonCheckout(left, lead.id);
+  // Back from the payment page without paying: the page posts `leave` to free the held time at once
+  // (a loader never writes).
   const booking = await findLiveBooking(lead.id);
   const slots = booking?.status === "confirmed" ? [] : await listCompanySlots(company);
   const days = new Map<string, { startsAt: string }[]>();
@@ -47,6 +48,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     booking: booking ? { status: booking.status, startsAt: booking.startsAt } : null,
     days: [...days.entries()].map(([day, list]) => ({ day, slots: list })),
     didLeave: left > 0,
+    leftBookingId: Number.isSafeInteger(left) && left > 0 ? left : null,
   };
 }
 
@@ -54,6 +56,21 @@ const bookSchema = z.object({
   startsAt: z.iso.datetime({ error: "Choose a time from the list." }),
   timeZone: z.string().max(64).optional(),
 });
+
+const leaveSchema = z.object({ bookingId: z.coerce.number({ error: "Booking must be a consult id." }).int({ error: "Booking must be a whole number." }).positive({ error: "Booking must be a positive id." }) });
+
+/** Back from the payment page without paying: frees the held time once the page is shown. */
+function useLeaveCheckout(bookingId: number | null) {
+  const fetcher = useFetcher();
+  const sent = useRef<number | null>(null);
+  const submit = useRef(fetcher.submit);
+  submit.current = fetcher.submit;
+  useEffect(() => {
+    if (bookingId === null || sent.current === bookingId) return;
+    sent.current = bookingId;
+    void submit.current({ intent: "leave", bookingId: String(bookingId) }, { method: "post" });
+  }, [bookingId]);
+}
 
 // Per company and address, like the request form.
 const bookingLimiter = createLimiter("consult-booking:company+address", env.PUBLIC_FORM_LIMIT, 10 * 60);
@@ -64,7 +81,14 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!limit.ok) {
     return data({ error: "Too many tries from this address. Please wait a few minutes." }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
   }
-  const parsed = bookSchema.safeParse(Object.fromEntries(await request.formData()));
+  const form = Object.fromEntries(await request.formData());
+  if (form.intent === "leave") {
+    const left = leaveSchema.safeParse(form);
+    if (!left.success) return data({ error: left.error.issues[0]!.message }, { status: 400 });
+    await abandonCheckout(left.data.bookingId, lead.id);
+    return data({ error: null });
+  }
+  const parsed = bookSchema.safeParse(form);
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
   const timeZone = parsed.data.timeZone && Intl.supportedValuesOf("timeZone").includes(parsed.data.timeZone) ? parsed.data.timeZone : null;
 
@@ -96,6 +120,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 
 export default function ConsultRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { company, firstName, booking, days, didLeave } = loaderData;
+  useLeaveCheckout(loaderData.leftBookingId);
   const navigation = useNavigation();
   const isPaying = navigation.state !== "idle" && navigation.formMethod === "POST";
   const dayLabel = (day: string) =>

@@ -1,4 +1,3 @@
-import { and, desc, eq, inArray } from "drizzle-orm";
 import { data, Form, Link } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/my";
@@ -6,11 +5,10 @@ import { LocalTime } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
-import { bookings, companies, leadPhotos, leads, proposals } from "~/db/schema";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
-import { db } from "~/lib/platform/db.server";
+import { findHomeownerBooking, loadHomeownerRequestDetails } from "~/lib/leads/homeowner.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
 import { listHomeownerLeads } from "~/lib/leads/leads.server";
 import { formId } from "~/lib/format/form-fields";
@@ -25,20 +23,8 @@ const HOMEOWNER_PROPOSAL_STATE = { sent: "ready to read and sign", accepted: "si
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
   const rows = await listHomeownerLeads(user.id);
-  const ids = rows.map((r) => r.id);
-  const [photos, liveBookings, companyRows, proposalRows] = ids.length
-    ? await Promise.all([
-        db.select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName }).from(leadPhotos).where(inArray(leadPhotos.leadId, ids)),
-        db.select().from(bookings).where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
-        db.select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone }).from(companies).where(inArray(companies.id, rows.map((r) => r.companyId))),
-        // Only proposals on this homeowner's own requests (ids come from their leads).
-        db
-          .select({ leadId: proposals.leadId, kind: proposals.kind, token: proposals.token, status: proposals.status, documentJson: proposals.documentJson, sentAt: proposals.sentAt })
-          .from(proposals)
-          .where(inArray(proposals.leadId, ids))
-          .orderBy(desc(proposals.sentAt)),
-      ])
-    : [[], [], [], []];
+  // Only rows of this homeowner's own requests (the leads come from their account).
+  const { photos, liveBookings, companies: companyRows, proposals: proposalRows } = await loadHomeownerRequestDetails(rows);
   const now = Date.now();
   return {
     name: user.name,
@@ -84,15 +70,10 @@ export async function action({ request }: Route.ActionArgs) {
   const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
   // Only a booking on one of this homeowner's own requests; anything else is "not found".
-  const [row] = await db
-    .select({ booking: bookings })
-    .from(bookings)
-    .innerJoin(leads, eq(leads.id, bookings.leadId))
-    .where(and(eq(bookings.id, parsed.data.bookingId), eq(leads.homeownerId, user.id)))
-    .limit(1);
-  if (!row) return data({ error: "That consult was not found." }, { status: 404 });
+  const booking = await findHomeownerBooking(user.id, parsed.data.bookingId);
+  if (!booking) return data({ error: "That consult was not found." }, { status: 404 });
   try {
-    await cancelBooking({ bookingId: row.booking.id, companyId: row.booking.companyId, by: "homeowner", actorUserId: user.id });
+    await cancelBooking({ bookingId: booking.id, companyId: booking.companyId, by: "homeowner", actorUserId: user.id });
   } catch (error) {
     if (error instanceof Response) return data({ error: await error.text() }, { status: error.status });
     throw error;

@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { data, Form, redirect, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/proposal";
@@ -17,7 +17,7 @@ import { jobTotalsFor } from "~/lib/proposals/change-orders.server";
 import { describeDeposit } from "~/lib/proposals/proposal-document";
 import { DepositCheckoutError, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
-import { findProposalByToken, recordOpened } from "~/lib/proposals/proposals.server";
+import { countsAsOpen, findProposalByToken, linkStateOf } from "~/lib/proposals/proposals.server";
 import { readStoredPlan } from "~/lib/design/stored-plan";
 import { resolveClientAddress } from "~/lib/platform/client-address";
 import { clientAddress, createLimiter, socketAddressContext, spendLimit } from "~/lib/platform/rate-limit.server";
@@ -33,20 +33,14 @@ async function load(token: string) {
   return found;
 }
 
-/** What the link shows: open to sign, waiting for the deposit, signed, or closed (and why). */
-function stateOf(proposal: { status: string; expiresAt: string }, now: Date): "open" | "accepted" | "signed" | "expired" | "withdrawn" {
-  if ((proposal.status === "sent" || proposal.status === "accepted") && now.toISOString() >= proposal.expiresAt) return "expired";
-  return proposal.status === "sent" ? "open" : (proposal.status as "accepted" | "signed" | "expired" | "withdrawn");
-}
-
-// The link is the credential: anyone holding it may read and sign. Staff of the company previewing it are not counted as opens.
+// The link is the credential: anyone holding it may read and sign. The page counts the homeowner's
+// visit by posting to /p/:token/opened once shown (a loader never writes); staff previews are not counted.
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { proposal, lead, document } = await load(params.token);
   const viewer = await getSessionUser(request);
   const isStaffPreview = viewer !== null && isOfficeRole(viewer.role) && viewer.companyId === proposal.companyId;
   const now = new Date();
-  const state = stateOf(proposal, now);
-  if (!isStaffPreview && state !== "withdrawn" && state !== "expired") await recordOpened(proposal.id, now);
+  const state = linkStateOf(proposal, now);
   const company = await getCompany(proposal.companyId);
   // Drawn from the inputs stored with the proposal, never today's catalog.
   const { design, plan } = readStoredPlan({ designJson: proposal.designJson, planJson: proposal.planJson });
@@ -59,6 +53,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     kind: proposal.kind,
     document,
     isStaffPreview,
+    countsAsOpen: countsAsOpen(proposal, viewer, now),
     firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
     sceneInput: proposal.kind === "proposal" ? planToSceneInput(plan, design.inputs.engine) : null,
     caption: describePreview(plan, "in"),
@@ -137,6 +132,16 @@ async function payDeposit(found: Awaited<ReturnType<typeof load>>, company: Awai
   }
 }
 
+/** Counts the homeowner's visit once the page is shown (not for staff previews or closed links). */
+function useRecordOpen(token: string, counts: boolean) {
+  const sent = useRef(false);
+  useEffect(() => {
+    if (!counts || sent.current) return;
+    sent.current = true;
+    void fetch(`/p/${token}/opened`, { method: "POST", keepalive: true }).catch(() => {});
+  }, [token, counts]);
+}
+
 export default function ProposalRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { document, state, token, base, sceneInput, caption, signed, kind, firstName, totals } = loaderData;
   const isChange = kind === "change-order";
@@ -149,6 +154,7 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
   const errors: Record<string, string> = actionData?.errors ?? {};
   const pdfHref = `/p/${token}.pdf${chosen.length && state === "open" ? `?addOns=${chosen.join(",")}` : ""}`;
   const what = isChange ? "change order" : "proposal";
+  useRecordOpen(token, loaderData.countsAsOpen);
 
   return (
     <PublicShell right={<span className="text-sm font-bold text-char-700">{document.letterhead.name}</span>}>

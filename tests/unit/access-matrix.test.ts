@@ -20,6 +20,7 @@ import { action as factorsAction, loader as factorsLoader } from "~/routes/app-f
 import { loader as inboxLoader } from "~/routes/app-inbox";
 import { loader as inboxCsvLoader } from "~/routes/app-inbox-csv";
 import { loader as apiLeadsLoader } from "~/routes/api/leads";
+import { action as inboxSeenAction } from "~/routes/app-inbox-seen";
 import { action as leadAction, loader as leadLoader } from "~/routes/app-lead";
 import { action as designAction, loader as designLoader } from "~/routes/app-lead-design";
 import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
@@ -197,6 +198,12 @@ const CASES: Case[] = [
     name: "GET /api/leads",
     call: (c) => apiLeadsLoader(routeArgs(get("/api/leads", c))),
     expected: { owner: "200", estimator: "200", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "200" },
+  },
+  {
+    // Marks only the caller's own inbox as seen; nobody else's data is touched or shown.
+    name: "POST /app/inbox/seen",
+    call: (c) => inboxSeenAction(routeArgs(post("/app/inbox/seen", c, { at: "2026-01-01T00:00:00.000Z" }))),
+    expected: { owner: "204", estimator: "204", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "204" },
   },
   {
     name: "GET /app/leads/:id (the crew's signed job)",

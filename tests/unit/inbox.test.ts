@@ -13,6 +13,7 @@ import { loadInboxPage } from "~/lib/leads/inbox.server";
 import { loader as inboxLoader } from "~/routes/app-inbox";
 import { loader as csvLoader } from "~/routes/app-inbox-csv";
 import { loader as apiLoader } from "~/routes/api/leads";
+import { action as seenAction } from "~/routes/app-inbox-seen";
 import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
 import { loginAs } from "./support/login";
@@ -289,8 +290,21 @@ test("opening the inbox marks newer requests unseen, then remembers the visit; p
   const expectedUnseen = all.filter((l) => l.createdAt > seenBefore).length;
   expect(first.inbox.unseenCount).toBe(expectedUnseen);
   expect(first.inbox.rows.filter((r) => r.isUnseen).length).toBe(expectedUnseen);
+  // Reading the page changes nothing; the page then posts the moment it was read.
+  const [unchanged] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
+  expect(unchanged!.seen).toBe(seenBefore);
+  const viewedAt = (first as unknown as { viewedAt: string }).viewedAt;
+  const seen = await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: viewedAt }) })));
+  expect(seen.status).toBe(204);
   const [after] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
-  expect(after!.seen! > seenBefore).toBe(true);
+  expect(after!.seen).toBe(viewedAt);
+  // An older time never moves the mark back; a malformed one is refused, naming the field.
+  await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: seenBefore }) })));
+  const bad = await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: "yesterday" }) })));
+  expect(bad.status).toBe(400);
+  expect(((await bad.json()) as { errors: { path: string }[] }).errors[0]!.path).toBe("at");
+  const [kept] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
+  expect(kept!.seen).toBe(viewedAt);
 
   const polled = (await (await apiLoader(routeArgs(requestWithCookie(`/api/leads?since=${encodeURIComponent(seenBefore)}`, cookie)))).json()) as InboxPage;
   expect(polled.unseenCount).toBe(expectedUnseen);

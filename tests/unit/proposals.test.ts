@@ -27,6 +27,7 @@ import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { withdrawProposal } from "~/lib/proposals/proposals.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { action as proposalAction, loader as proposalLoader } from "~/routes/proposal";
+import { action as openedAction } from "~/routes/proposal-opened";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
 import { routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
@@ -145,14 +146,27 @@ test("the sign form answers 400 naming the field without consent or a full name,
 
 test("the homeowner opening the link is counted; the office previewing it is not; an unknown link is a 404", async () => {
   const { proposal, lead } = await sentProposal();
-  await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }));
+  const opened = (cookie?: string, token = proposal.token) =>
+    openedAction(routeArgs(requestWithCookie(`/p/${token}/opened`, cookie, { method: "POST" }), { token }));
+  // Reading the page writes nothing; the page posts the open once shown, and says whether it counts.
+  const homeowner = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }))) as { countsAsOpen: boolean };
+  expect(homeowner.countsAsOpen).toBe(true);
+  expect((await reload(proposal.id)).openCount).toBe(0);
+  expect((await opened()).status).toBe(204);
   const staff = await loginAs(lead.companyId, "estimator");
-  const preview = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`, staff), { token: proposal.token }))) as { isStaffPreview: boolean };
+  const preview = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`, staff), { token: proposal.token }))) as { isStaffPreview: boolean; countsAsOpen: boolean };
   expect(preview.isStaffPreview).toBe(true);
+  expect(preview.countsAsOpen).toBe(false);
+  expect((await opened(staff)).status).toBe(204);
   const row = await reload(proposal.id);
   expect(row.openCount).toBe(1);
   expect(row.firstOpenedAt).not.toBeNull();
   await expect(proposalLoader(routeArgs(requestWithCookie("/p/not-a-real-token-000000000"), { token: "not-a-real-token-000000000" }))).rejects.toMatchObject({ status: 404 });
+  expect((await opened(undefined, "not-a-real-token-000000000")).status).toBe(404);
+  // A withdrawn link is not counted either.
+  await db.update(proposals).set({ status: "withdrawn" }).where(eq(proposals.id, proposal.id));
+  await opened();
+  expect((await reload(proposal.id)).openCount).toBe(1);
 });
 
 const stripe = new Stripe("sk_test_local");

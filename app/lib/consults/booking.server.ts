@@ -172,6 +172,13 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
   return session.url;
 }
 
+/** The lead's booking made by one checkout session, or null (the success page's lookup). */
+export async function findBookingByCheckout(leadId: number, checkoutSessionId: string): Promise<Booking | null> {
+  if (!checkoutSessionId) return null;
+  const [row] = await db.select().from(bookings).where(and(eq(bookings.leadId, leadId), eq(bookings.checkoutSessionId, checkoutSessionId))).limit(1);
+  return row ?? null;
+}
+
 /** The homeowner came back without paying: close the checkout and free the slot now. */
 export async function abandonCheckout(bookingId: number, leadId: number, client: Stripe = defaultStripe): Promise<void> {
   const [booking] = await db.select().from(bookings).where(and(eq(bookings.id, bookingId), eq(bookings.leadId, leadId))).limit(1);

@@ -253,3 +253,18 @@ async function findConsultsInChunks(leadIds: number[]): Promise<Map<number, stri
   }
   return all;
 }
+
+/** When the person last opened the inbox page (ISO), or null if they never have. */
+export async function inboxSeenAt(userId: number): Promise<string | null> {
+  const [me] = await db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, userId)).limit(1);
+  return me?.inboxSeenAt ?? null;
+}
+
+/** Records that the person has seen the inbox as it was at `at`: later leads count as unseen. Never moves back. */
+export async function markInboxSeen(userId: number, at: Date): Promise<void> {
+  const iso = at.toISOString();
+  await db
+    .update(users)
+    .set({ inboxSeenAt: iso })
+    .where(and(eq(users.id, userId), or(isNull(users.inboxSeenAt), lt(users.inboxSeenAt, iso))));
+}

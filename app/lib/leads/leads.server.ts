@@ -1,5 +1,7 @@
 import { and, desc, eq, gt, sum } from "drizzle-orm";
-import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead } from "~/db/schema";
+import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead, type LeadPhoto } from "~/db/schema";
+import type { SessionUser } from "~/lib/auth/session.server";
+import { isSignedStage } from "~/lib/leads/lead-status";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { LeadReceivedEmail } from "~/emails/lead-received";
 import { NewLeadEmail } from "~/emails/new-lead";
@@ -189,4 +191,23 @@ export function listHomeownerLeads(homeownerId: number) {
 export async function sweepUnrecordedPhotos(olderThanMs?: number): Promise<number> {
   const rows = await db.select({ storedName: leadPhotos.storedName }).from(leadPhotos);
   return sweepOrphanPhotos(new Set(rows.map((r) => r.storedName)), olderThanMs);
+}
+
+/**
+ * A yard photo the user may see, or null: the lead's company staff (crew only for their own signed
+ * jobs) or the homeowner who sent it. Anyone else gets the same null as a photo that does not exist.
+ */
+export async function findPhotoFor(user: Pick<SessionUser, "id" | "role" | "companyId">, photoId: number): Promise<LeadPhoto | null> {
+  const [row] = await db
+    .select({ photo: leadPhotos, lead: { companyId: leads.companyId, homeownerId: leads.homeownerId, crewUserId: leads.crewUserId, status: leads.status } })
+    .from(leadPhotos)
+    .innerJoin(leads, eq(leads.id, leadPhotos.leadId))
+    .where(eq(leadPhotos.id, photoId))
+    .limit(1);
+  if (!row) return null;
+  const isAllowed =
+    user.role === "homeowner"
+      ? row.lead.homeownerId === user.id
+      : row.lead.companyId === user.companyId && (user.role !== "crew" || (row.lead.crewUserId === user.id && isSignedStage(row.lead.status)));
+  return isAllowed ? row.photo : null;
 }

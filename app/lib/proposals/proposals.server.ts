@@ -13,6 +13,7 @@ import { formatMoney } from "~/lib/format/money";
 import { PROPOSAL_CAUTIONS, parseProposalDocument, writeScope, type ProposalDocument } from "~/lib/proposals/proposal-document";
 import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
 import type { SessionUser } from "~/lib/auth/session.server";
+import { isOfficeRole } from "~/lib/auth/staff.server";
 import { findSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL } from "~/lib/leads/site-visit-schema";
 import { createToken } from "~/lib/auth/tokens.server";
@@ -216,6 +217,21 @@ export async function findProposalByToken(token: string) {
   if (!row) return null;
   const [lead] = await db.select().from(leads).where(eq(leads.id, row.leadId)).limit(1);
   return lead ? { proposal: row, lead, document: parseProposalDocument(row.documentJson) } : null;
+}
+
+export type LinkState = "open" | "accepted" | "signed" | "expired" | "withdrawn";
+
+/** What the link shows: open to sign, waiting for the deposit, signed, or closed (and why). */
+export function linkStateOf(proposal: Pick<Proposal, "status" | "expiresAt">, now: Date): LinkState {
+  if ((proposal.status === "sent" || proposal.status === "accepted") && now.toISOString() >= proposal.expiresAt) return "expired";
+  return proposal.status === "sent" ? "open" : proposal.status;
+}
+
+/** Whether this visit counts as the homeowner opening the link: not staff of the company, not a closed link. */
+export function countsAsOpen(proposal: Pick<Proposal, "status" | "expiresAt" | "companyId">, viewer: Pick<SessionUser, "role" | "companyId"> | null, now: Date): boolean {
+  const isStaffPreview = viewer !== null && isOfficeRole(viewer.role) && viewer.companyId === proposal.companyId;
+  const state = linkStateOf(proposal, now);
+  return !isStaffPreview && state !== "withdrawn" && state !== "expired";
 }
 
 /** Counts the homeowner opening the link (staff previews do not count). */

@@ -1,11 +1,8 @@
-import { eq } from "drizzle-orm";
 import { z } from "zod";
 import type { Route } from "./+types/leads";
-import { users } from "~/db/schema";
 import { getCompany } from "~/lib/catalog/catalog.server";
-import { db } from "~/lib/platform/db.server";
 import { parseInboxQuery } from "~/lib/leads/inbox-schema";
-import { loadInboxPage } from "~/lib/leads/inbox.server";
+import { inboxSeenAt, loadInboxPage } from "~/lib/leads/inbox.server";
 import { OFFICE_ROLES, requireApiUser } from "~/lib/auth/staff.server";
 
 const sinceSchema = z.iso.datetime({ error: "Since must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." });
@@ -28,9 +25,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   const company = await getCompany(user.companyId);
   let unseenSince = since?.success ? since.data : null;
   if (!since) {
-    const [me] = await db.select({ inboxSeenAt: users.inboxSeenAt }).from(users).where(eq(users.id, user.id)).limit(1);
     // Never opened the inbox: nothing counts as unseen yet (as on the page itself).
-    unseenSince = me?.inboxSeenAt ?? new Date().toISOString();
+    unseenSince = (await inboxSeenAt(user.id)) ?? new Date().toISOString();
   }
   const page = await loadInboxPage({ companyId: company.id, timeZone: company.timeZone, filters: parsed.filters, unseenSince });
   return Response.json(page, { headers: { "Cache-Control": "private, no-store" } });

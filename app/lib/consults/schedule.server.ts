@@ -1,0 +1,15 @@
+import { and, asc, eq, gt, inArray } from "drizzle-orm";
+import { bookings, leads, type Booking } from "~/db/schema";
+import { db } from "~/lib/platform/db.server";
+
+export type ScheduledConsult = { booking: Booking; customerName: string; town: string; street: string; leadId: number };
+
+/** The company's consults held or confirmed that have not ended by `now`, earliest first. */
+export function listUpcomingConsults(companyId: number, now = new Date()): Promise<ScheduledConsult[]> {
+  return db
+    .select({ booking: bookings, customerName: leads.customerName, town: leads.town, street: leads.street, leadId: leads.id })
+    .from(bookings)
+    .innerJoin(leads, eq(leads.id, bookings.leadId))
+    .where(and(eq(bookings.companyId, companyId), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.endsAt, now.toISOString())))
+    .orderBy(asc(bookings.startsAt));
+}
