@@ -1,6 +1,7 @@
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-attention";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert } from "~/components/ui/field";
 import { listFailedWork, retryFailedDepositRefund, retryFailedEmail, retryFailedRefund } from "~/lib/jobs/attention.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -101,4 +102,9 @@ export default function AttentionRoute({ loaderData, actionData }: Route.Compone
       ) : null}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

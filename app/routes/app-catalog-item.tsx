@@ -1,6 +1,7 @@
 import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
@@ -8,8 +9,8 @@ import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
 import { requireUser } from "~/lib/auth/session.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [
-  { title: `${data?.item ? data.item.name : "New item"} · Catalog · Emberwright` },
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: `${loaderData?.item ? loaderData.item.name : "New item"} · Catalog · Emberwright` },
 ];
 
 /** Parses the :itemId param; anything but a positive integer is a 404. */
@@ -124,4 +125,9 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
       </Form>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,5 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/app-catalog";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { CATALOG_KINDS, STAFF_ROLES } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
 import { listCatalog } from "~/lib/catalog/catalog.server";
@@ -105,4 +106,9 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
       ))}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,10 +1,11 @@
 import { data, Form, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-consult-hours";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { fieldErrors, formId } from "~/lib/format/form-fields";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { cancelBooking } from "~/lib/consults/booking.server";
+import { cancelBooking, cancelRefusalStatus } from "~/lib/consults/booking.server";
 import { blockDay, listBlockedDays, unblockDay } from "~/lib/consults/consult-days.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { parseWeeklyHours, type WeeklyHours } from "~/lib/consults/consult-slots";
@@ -80,12 +81,8 @@ export async function action({ request }: Route.ActionArgs) {
   if (intent === "cancel-booking") {
     const bookingId = cancelIdSchema.safeParse(form.get("bookingId"));
     if (!bookingId.success) return data({ errors: { booking: bookingId.error.issues[0]!.message } as Record<string, string> }, { status: 400 });
-    try {
-      await cancelBooking({ bookingId: bookingId.data, companyId: user.companyId, by: "staff", actorUserId: user.id });
-    } catch (error) {
-      if (error instanceof Response) return data({ errors: { booking: error.status === 404 ? "That consult was not found." : await error.text() } as Record<string, string> }, { status: error.status });
-      throw error;
-    }
+    const cancelled = await cancelBooking({ bookingId: bookingId.data, companyId: user.companyId, by: "staff", actorUserId: user.id });
+    if (!cancelled.ok) return data({ errors: { booking: cancelled.message } as Record<string, string> }, { status: cancelRefusalStatus(cancelled) });
     return redirect("/app/consult-hours?saved=cancelled");
   }
   const parsed = hoursSchema.safeParse({ slotMinutes: form.get("slotMinutes"), horizonDays: form.get("horizonDays") });
@@ -215,4 +212,9 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
       </section>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

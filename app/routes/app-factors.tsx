@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-factors";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { DEFAULT_FACTORS } from "~/domain/factors";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -141,4 +142,9 @@ function FactorField({ row, value, error, disabled }: { row: FactorRow; value: s
       <div className="pt-7">{reset}</div>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

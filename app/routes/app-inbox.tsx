@@ -1,6 +1,7 @@
 import { useEffect, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { JobProgressCompact } from "~/components/job-progress";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { LEAD_STATUSES } from "~/db/enums";
@@ -355,4 +356,9 @@ function FilterForm({
       ) : null}
     </Form>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,5 +1,6 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/app-jobs";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { STAFF_ROLES } from "~/db/enums";
 import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
@@ -66,4 +67,9 @@ export default function JobsRoute({ loaderData }: Route.ComponentProps) {
       )}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,19 +1,21 @@
 import { z } from "zod";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-change-order";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { draftChangeOrder, sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { appOrigin } from "~/lib/platform/email.server";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Change order: ${data.customerName} · Emberwright` : "Change order · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
   const draft = await draftChangeOrder(lead, company);
   return {
@@ -51,7 +53,8 @@ const changeSchema = z.object({
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
   const parsed = changeSchema.safeParse(fields);
   const company = await getCompany(user.companyId);
@@ -124,4 +127,9 @@ export default function ChangeOrderRoute({ loaderData, actionData }: Route.Compo
       )}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -10,11 +10,12 @@ import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { isOfficeRole, parseLeadId } from "~/lib/auth/staff.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Cut sheet: ${data.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Cut sheet: ${loaderData.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
   const sheet = await loadCutSheet(user, parseLeadId(params.leadId));
+  if (!sheet) throw new Response("Not found", { status: 404 });
   return { sheet, backTo: isOfficeRole(user.role) ? `/app/leads/${sheet.leadId}` : "/app/jobs" };
 }
 

@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/app-lead-design";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { DesignControls } from "~/components/configurator/design-controls";
 import { useLivePlan } from "~/components/configurator/use-live-plan";
 import { PitPreview } from "~/components/pit-preview";
@@ -16,15 +17,16 @@ import type { PlanFieldError } from "~/lib/design/plan-schema";
 import { formatMoneyWhole } from "~/lib/format/money";
 import { publicPlan } from "~/lib/design/plan.server";
 import { requireUser } from "~/lib/auth/session.server";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { speakLengths } from "~/lib/format/length-text";
 import { possessive } from "~/lib/format/wording";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Revise ${possessive(data.lead.customerName)} design · Emberwright` : "Revise a design · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Revise ${possessive(loaderData.lead.customerName)} design · Emberwright` : "Revise a design · Emberwright" }];
 
 async function loadContext(request: Request, rawLeadId: string | undefined) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(rawLeadId));
+  const lead = await findLeadFor(user, parseLeadId(rawLeadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
   const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
   return { user, lead, company, catalog, factors: publicFactors(readCompanyFactors(company)) };
@@ -155,4 +157,9 @@ function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: L
       ) : null}
     </section>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

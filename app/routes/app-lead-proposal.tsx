@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-proposal";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { basePriceCents, depositCents } from "~/domain/proposal-money";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -10,15 +11,16 @@ import { describeDeposit } from "~/lib/proposals/proposal-document";
 import { MAX_ADD_ONS, parseComposeForm, withdrawSchema } from "~/lib/proposals/proposal-schema";
 import { draftProposal, sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server";
 import { requireUser } from "~/lib/auth/session.server";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Proposal: ${data.customerName} · Emberwright` : "Proposal · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Proposal: ${loaderData.customerName} · Emberwright` : "Proposal · Emberwright" }];
 
 const dollars = (cents: number) => (cents / 100).toFixed(2);
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   if (isSignedStage(lead.status)) throw redirect(`/app/leads/${lead.id}/change-order`);
   const company = await getCompany(user.companyId);
   const draft = await draftProposal(lead, company);
@@ -39,7 +41,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
   if (fields.intent === "withdraw") {
     const parsed = withdrawSchema.safeParse(fields);
@@ -148,4 +151,9 @@ function TextBlock({ label, name, value, error }: { label: string; name: string;
       {error ? <p id={`tb-${name}-error`} className="field-error">{error}</p> : null}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

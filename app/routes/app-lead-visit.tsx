@@ -1,19 +1,21 @@
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-visit";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSiteVisit, saveSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/leads/site-visit-schema";
-import { OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `Site visit: ${data.customerName} · Emberwright` : "Site visit · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Site visit: ${loaderData.customerName} · Emberwright` : "Site visit · Emberwright" }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const visit = await findSiteVisit(lead);
   return {
     leadId: lead.id,
@@ -39,7 +41,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   // The same rules as the homeowner's photos: streamed to disk under the same limits, checked by
   // their bytes, decoded and encoded again.
   const reading = await readLeadForm(request);
@@ -170,3 +173,7 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
   );
 }
 
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
+}

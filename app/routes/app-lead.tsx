@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useLocation, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { CapDrawingSvg } from "~/components/cap-drawing-svg";
 import { CrewCautions, CutListTables, MaterialsTable } from "~/components/job-sheets";
 import { JobProgress } from "~/components/job-progress";
@@ -38,11 +39,11 @@ import {
 import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
 import { describeBreakdown, readBreakdown } from "~/lib/design/price-breakdown";
 import { requireUser } from "~/lib/auth/session.server";
-import { isOfficeRole, OFFICE_ROLES, parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { isOfficeRole, OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { listTeam } from "~/lib/auth/team.server";
 import { describeAge, formatZonedDateTime } from "~/lib/format/zoned-time";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.lead.customerName} · Emberwright` : "Request · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" }];
 
 function versionLabel(version: DesignVersion, index: number): string {
   return version.revisionId === null ? "Homeowner's original" : `Revision ${index}`;
@@ -50,7 +51,8 @@ function versionLabel(version: DesignVersion, index: number): string {
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const isOffice = isOfficeRole(user.role);
   const [company, revisions, photos, booking, visit, terms] = await Promise.all([
     getCompany(user.companyId),
@@ -185,7 +187,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
   const parsed = leadActionSchema.safeParse(fields);
   if (!parsed.success) {
@@ -708,4 +711,9 @@ function PhotoList({ photos }: { photos: { id: number; originalName: string; sou
       )}
     </section>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

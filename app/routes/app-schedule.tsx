@@ -1,10 +1,11 @@
 import { data, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-schedule";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { formId } from "~/lib/format/form-fields";
-import { cancelBooking } from "~/lib/consults/booking.server";
+import { cancelBooking, cancelRefusalStatus } from "~/lib/consults/booking.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { listUpcomingConsults } from "~/lib/consults/schedule.server";
@@ -44,12 +45,8 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });
   const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: false }, { status: 400 });
-  try {
-    await cancelBooking({ bookingId: parsed.data.bookingId, companyId: user.companyId, by: "staff", actorUserId: user.id });
-  } catch (error) {
-    if (error instanceof Response) return data({ error: error.status === 404 ? "That consult was not found." : await error.text(), done: false }, { status: error.status });
-    throw error;
-  }
+  const cancelled = await cancelBooking({ bookingId: parsed.data.bookingId, companyId: user.companyId, by: "staff", actorUserId: user.id });
+  if (!cancelled.ok) return data({ error: cancelled.message, done: false }, { status: cancelRefusalStatus(cancelled) });
   return data({ error: null, done: true });
 }
 
@@ -104,4 +101,9 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
       ))}
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,6 +1,7 @@
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-settings-proposals";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { fieldErrors, formNumber } from "~/lib/format/form-fields";
 import { getProposalTerms, saveProposalTerms } from "~/lib/proposals/proposal-terms.server";
@@ -122,4 +123,9 @@ export default function ProposalTermsRoute({ loaderData, actionData }: Route.Com
       </Form>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-settings";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { SelectField, TextField, FormAlert } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -82,4 +83,9 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
       </Form>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

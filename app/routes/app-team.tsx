@@ -1,5 +1,6 @@
 import { data, Form, redirect, useLocation, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/app-team";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { ROLE_LABEL } from "~/components/workspace-shell";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
@@ -144,4 +145,9 @@ export default function TeamRoute({ loaderData, actionData }: Route.ComponentPro
       </section>
     </div>
   );
+}
+
+/** A missing or forbidden record shows its problem inside the workspace, navigation kept. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }

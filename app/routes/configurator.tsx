@@ -25,8 +25,8 @@ import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER
 import { speakLengths } from "~/lib/format/length-text";
 import { formatPhone, phoneHref } from "~/lib/format/phone";
 
-export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `Design your fire pit · ${data.company.name}` : "Design your fire pit" },
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `Design your fire pit · ${loaderData.company.name}` : "Design your fire pit" },
   { name: "description", content: "Size a round masonry fire pit, see it in 3D and get a price range." },
 ];
 

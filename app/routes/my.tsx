@@ -7,7 +7,7 @@ import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import type { DesignSummaryLine } from "~/emails/design-summary";
-import { cancelBooking, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
+import { cancelBooking, cancelRefusalStatus, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
 import { findHomeownerBooking, loadHomeownerRequestDetails } from "~/lib/leads/homeowner.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
 import { listHomeownerLeads } from "~/lib/leads/leads.server";
@@ -72,12 +72,8 @@ export async function action({ request }: Route.ActionArgs) {
   // Only a booking on one of this homeowner's own requests; anything else is "not found".
   const booking = await findHomeownerBooking(user.id, parsed.data.bookingId);
   if (!booking) return data({ error: "That consult was not found." }, { status: 404 });
-  try {
-    await cancelBooking({ bookingId: booking.id, companyId: booking.companyId, by: "homeowner", actorUserId: user.id });
-  } catch (error) {
-    if (error instanceof Response) return data({ error: await error.text() }, { status: error.status });
-    throw error;
-  }
+  const cancelled = await cancelBooking({ bookingId: booking.id, companyId: booking.companyId, by: "homeowner", actorUserId: user.id });
+  if (!cancelled.ok) return data({ error: cancelled.message }, { status: cancelRefusalStatus(cancelled) });
   return data({ error: null, cancelled: true });
 }
 

@@ -25,7 +25,7 @@ import { getSessionUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.document.number}: ${data.document.title} · ${data.document.letterhead.name}` : "Proposal · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `${loaderData.document.number}: ${loaderData.document.title} · ${loaderData.document.letterhead.name}` : "Proposal · Emberwright" }];
 
 async function load(token: string) {
   const found = await findProposalByToken(token);

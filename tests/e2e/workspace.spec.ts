@@ -131,3 +131,26 @@ test("the owner invites a crew member and sees the invitation waiting", async ({
   await expect(page.getByText("Name must be 2 to 80 characters.")).toBeVisible();
   await screenshotBothWidths(page, "team");
 });
+
+test("a lead that does not exist, or a malformed id, shows a 404 inside the workspace with its navigation kept", async ({ page }) => {
+  await signIn(page, "estimator@cinder-slate.test");
+  for (const path of ["/app/leads/987654321", "/app/leads/not-a-number", "/app/leads/987654321/proposal"]) {
+    const response = await page.goto(path);
+    expect(response?.status(), path).toBe(404);
+    await expect(page.getByRole("heading", { level: 1 })).toHaveText("We could not find that");
+    // The workspace layout is still there: its navigation, the signed-in person, a way back.
+    await expect(page.getByRole("navigation", { name: "Workspace" }).getByRole("link", { name: "Inbox" })).toBeVisible();
+    await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible();
+    await expect(page).toHaveTitle("We could not find that · Emberwright");
+  }
+  // Axe (WCAG 2.x rules) finds nothing, and the page fits a 360 px phone.
+  const { default: AxeBuilder } = await import("@axe-core/playwright");
+  expect((await new AxeBuilder({ page }).analyze()).violations.map((v) => v.id)).toEqual([]);
+  await screenshotBothWidths(page, "workspace-not-found");
+  await page.setViewportSize({ width: 360, height: 800 });
+  expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
+  // The way back leads into the workspace.
+  await page.setViewportSize({ width: 1280, height: 900 });
+  await page.getByRole("link", { name: "Back to the workspace" }).click();
+  await expect(page).toHaveURL(/\/app\/inbox$/);
+});

@@ -18,7 +18,9 @@ beforeAll(async () => {
   const { company } = await demoCompany();
   const [lead] = await db.select().from(leads).where(eq(leads.ref, "demo-cinder-slate-10"));
   const [owner] = await db.select().from(users).where(eq(users.email, "owner@cinder-slate.test"));
-  sheet = await loadCutSheet({ ...owner!, companyId: company.id } as unknown as SessionUser, lead!.id);
+  const loaded = await loadCutSheet({ ...owner!, companyId: company.id } as unknown as SessionUser, lead!.id);
+  if (!loaded) throw new Error("the demo lead's cut sheet should load for its owner");
+  sheet = loaded;
 });
 
 async function pdfText(overrides: Partial<CutSheet>): Promise<string> {

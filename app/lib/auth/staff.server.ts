@@ -26,20 +26,19 @@ export async function requireApiUser(request: Request, roles: readonly Role[]): 
   return user;
 }
 
-/** A :leadId route param as a positive integer; anything else is a 404. */
-export function parseLeadId(raw: string | undefined): number {
+/** A :leadId route param as a positive integer, or null for anything else (callers answer 404). */
+export function parseLeadId(raw: string | undefined): number | null {
   const id = Number(raw);
-  if (!raw || !/^\d{1,12}$/.test(raw) || !Number.isSafeInteger(id) || id <= 0) {
-    throw new Response("Not found", { status: 404 });
-  }
+  if (!raw || !/^\d{1,12}$/.test(raw) || !Number.isSafeInteger(id) || id <= 0) return null;
   return id;
 }
 
 /**
- * A lead the user may open, or a 404 (never a 403, so ids of other companies' leads reveal nothing).
- * Owners and estimators: any lead of their company. Crew: only signed jobs assigned to them.
+ * A lead the user may open, or null: callers answer 404 (never 403, so ids of other companies' leads
+ * reveal nothing). Owners and estimators: any lead of their company. Crew: only signed jobs assigned to them.
  */
-export async function requireLeadFor(user: SessionUser, leadId: number): Promise<Lead> {
+export async function findLeadFor(user: SessionUser, leadId: number | null): Promise<Lead | null> {
+  if (leadId === null) return null;
   const [lead] = await db
     .select()
     .from(leads)
@@ -48,6 +47,5 @@ export async function requireLeadFor(user: SessionUser, leadId: number): Promise
   const isAllowed =
     lead !== undefined &&
     (isOfficeRole(user.role) || (user.role === "crew" && lead.crewUserId === user.id && isSignedStage(lead.status)));
-  if (!lead || !isAllowed) throw new Response("Not found", { status: 404 });
-  return lead;
+  return lead && isAllowed ? lead : null;
 }

@@ -9,9 +9,21 @@ export async function findCompanyBySlug(slug: string): Promise<Company | null> {
   return row ?? null;
 }
 
+/** A company id that names no company: only a broken reference (a session, a lead) can carry one. */
+export class CompanyMissingError extends Error {
+  constructor(readonly companyId: number) {
+    super(`Company ${companyId} does not exist.`);
+  }
+}
+
+/**
+ * The company behind an id the server already trusts (the signed-in user's, a lead's). Its absence is
+ * a broken reference, not a visitor's mistake, so it throws CompanyMissingError (a 500) rather than
+ * answering 404; look a company up by what a visitor typed with findCompanyBySlug.
+ */
 export async function getCompany(companyId: number): Promise<Company> {
   const [row] = await db.select().from(companies).where(eq(companies.id, companyId)).limit(1);
-  if (!row) throw new Response("Company not found", { status: 404 });
+  if (!row) throw new CompanyMissingError(companyId);
   return row;
 }
 

@@ -428,23 +428,39 @@ export async function bookingIdForPaymentIntent(paymentIntentId: string): Promis
   return row?.id ?? null;
 }
 
+/** Why a consult could not be cancelled: `not-found` (no such booking in the company), or a conflict with its state. */
+export type CancelRefusal = { ok: false; reason: "not-found" | "not-booked" | "too-late" | "changed"; message: string };
+export type CancelResult = { ok: true; booking: Booking } | CancelRefusal;
+
+class BookingChanged extends Error {}
+
 /**
  * Cancels a live booking (staff any time, the homeowner up to 24 h ahead). A paid booking is
- * refunded by the refund worker; both sides get an e-mail; the reminder is withdrawn.
+ * refunded by the refund worker; both sides get an e-mail; the reminder is withdrawn. A refusal says
+ * why, in words for the person who asked; nothing is written then.
  */
-export async function cancelBooking(args: { bookingId: number; companyId: number; by: "homeowner" | "staff"; actorUserId: number | null; now?: Date }): Promise<Booking> {
+export async function cancelBooking(args: { bookingId: number; companyId: number; by: "homeowner" | "staff"; actorUserId: number | null; now?: Date }): Promise<CancelResult> {
   const now = args.now ?? new Date();
   const context = await loadBookingContext(args.bookingId);
-  if (!context || context.booking.companyId !== args.companyId) throw new Response("Not found", { status: 404 });
+  if (!context || context.booking.companyId !== args.companyId) return { ok: false, reason: "not-found", message: "That consult was not found." };
   const { booking, company, lead } = context;
   if (booking.status !== "confirmed" && booking.status !== "held") {
-    throw new Response("This consult is not booked.", { status: 409 });
+    return { ok: false, reason: "not-booked", message: "This consult is not booked." };
   }
   if (args.by === "homeowner" && new Date(booking.startsAt).getTime() - now.getTime() < HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000) {
-    throw new Response(`Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.`, { status: 409 });
+    return { ok: false, reason: "too-late", message: `Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.` };
   }
   const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, args.by) : [];
-  await writeTransaction(async (tx) => {
+  try {
+    await cancelInTransaction();
+  } catch (error) {
+    if (error instanceof BookingChanged) return { ok: false, reason: "changed", message: "This consult changed a moment ago (cancelled or paid). Reload to see it." };
+    throw error;
+  }
+  return { ok: true, booking: { ...booking, status: "cancelled" } };
+
+  function cancelInTransaction() {
+    return writeTransaction(async (tx) => {
     // The state is checked again by the write itself: of two cancels at once (or a cancel racing the
     // payment), only the one that still finds the booking as it read it changes anything.
     const changed = await tx
@@ -452,15 +468,18 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
       .set({ status: "cancelled", cancelledBy: args.by, cancelReason: args.by === "homeowner" ? "homeowner" : "staff", updatedAt: now.toISOString() })
       .where(and(eq(bookings.id, booking.id), eq(bookings.status, booking.status), eq(bookings.isPaid, booking.isPaid)))
       .returning({ id: bookings.id });
-    if (changed.length === 0) throw new Response("This consult changed a moment ago (cancelled or paid). Reload to see it.", { status: 409 });
+    if (changed.length === 0) throw new BookingChanged();
     await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending")));
     await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` });
     if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
     // The request's stage follows the booking: no confirmed consult left, no "consult booked".
     for (const statement of settleStageStatements({ leadId: lead.id, from: ["consult-booked"], cancelledBookingId: booking.id, at: now.toISOString(), tx })) await statement;
-  });
-  return { ...booking, status: "cancelled" };
+    });
+  }
 }
+
+/** The HTTP status a cancel refusal answers with. */
+export const cancelRefusalStatus = (refusal: CancelRefusal): 404 | 409 => (refusal.reason === "not-found" ? 404 : 409);
 
 const REFUND_BATCH_SIZE = 10;
 

@@ -7,7 +7,7 @@ import { planToSceneInput, type SummaryLine } from "~/lib/design/design-plan";
 import { listRevisions, originalVersion } from "~/lib/leads/lead-workspace.server";
 import { refreshStoredPlan } from "~/lib/design/plan-refresh.server";
 import type { SessionUser } from "~/lib/auth/session.server";
-import { requireLeadFor } from "~/lib/auth/staff.server";
+import { findLeadFor } from "~/lib/auth/staff.server";
 import { formatZonedDate, formatZonedDateTime, zonedDay } from "~/lib/format/zoned-time";
 import type { PitSceneInput } from "~/domain/pit-layout";
 
@@ -30,9 +30,10 @@ export type CutSheet = {
   sceneInput: PitSceneInput;
 };
 
-/** The cut sheet of a lead the user may open (404 otherwise), built to its latest design version. */
-export async function loadCutSheet(user: SessionUser, leadId: number): Promise<CutSheet> {
-  const lead = await requireLeadFor(user, leadId);
+/** The cut sheet of a lead the user may open (null otherwise: callers answer 404), built to its latest design version. */
+export async function loadCutSheet(user: SessionUser, leadId: number | null): Promise<CutSheet | null> {
+  const lead = await findLeadFor(user, leadId);
+  if (!lead) return null;
   const [company, revisions] = await Promise.all([getCompany(user.companyId), listRevisions(lead)]);
   const version = revisions.at(-1) ?? originalVersion(lead);
   const shown = refreshStoredPlan(version);
