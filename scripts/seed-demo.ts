@@ -1,5 +1,5 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import { bookings, catalogItems, companies, suppliers, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import type { CatalogChoice, Design } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
@@ -22,7 +22,7 @@ import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedD
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
-  for (const { staff, catalog, ...company } of DEMO_COMPANIES) {
+  for (const { staff, catalog, suppliers: supplierSeeds, ...company } of DEMO_COMPANIES) {
     await db.insert(companies).values(company).onConflictDoNothing({ target: companies.slug });
     const [row] = await db.select({ id: companies.id }).from(companies).where(eq(companies.slug, company.slug));
     const companyId = row!.id;
@@ -32,12 +32,24 @@ export async function seedDemo() {
         .values({ ...person, companyId, passwordHash })
         .onConflictDoNothing({ target: users.email });
     }
-    for (const item of catalog) {
+    for (const supplier of supplierSeeds) {
+      await db.insert(suppliers).values({ ...supplier, companyId }).onConflictDoNothing();
+    }
+    const supplierRows = await db.select().from(suppliers).where(eq(suppliers.companyId, companyId));
+    for (const { supplier, ...item } of catalog) {
+      const supplierId = supplierRows.find((s) => s.name === supplier)?.id ?? null;
       const [existing] = await db
-        .select({ id: catalogItems.id })
+        .select({ id: catalogItems.id, supplierId: catalogItems.supplierId })
         .from(catalogItems)
         .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.name, item.name)));
-      if (!existing) await db.insert(catalogItems).values({ ...item, companyId });
+      if (!existing) await db.insert(catalogItems).values({ ...item, supplierId, companyId });
+      // A database seeded before items had ordering terms gets them once (an owner's own choice stays).
+      else if (existing.supplierId === null && supplierId !== null) {
+        await db
+          .update(catalogItems)
+          .set({ supplierId, orderUnit: item.orderUnit ?? "each", unitsPerOrderUnit: item.unitsPerOrderUnit ?? 1, orderUnitWeightLb: item.orderUnitWeightLb ?? null })
+          .where(eq(catalogItems.id, existing.id));
+      }
     }
     // Letterhead and allowances (invented address and licence numbers).
     const letterhead = DEMO_LETTERHEADS[company.slug];
