@@ -2,13 +2,6 @@ import { useState } from "react";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
-<<<<<<< HEAD
-import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
-import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
-import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
-import { requireUser } from "~/lib/auth/session.server";
-=======
 import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind, type OrderUnit } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
@@ -16,7 +9,6 @@ import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/cat
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSupplier, listSuppliers } from "~/lib/suppliers/suppliers.server";
->>>>>>> 5c04fca (Suppliers page, ordering terms on catalog items, supplier orders per signed job (draft, send with PDF and CSV through the outbox, confirm, deliver, discard, combine same-week drafts) on each job's timeline)
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.item ? data.item.name : "New item"} · Catalog · Emberwright` },
