@@ -196,7 +196,7 @@ describe("states", () => {
 });
 
 describe("combining", () => {
-  test("two jobs' drafts to the yard in one week become one order with two drops; a different week is refused", async () => {
+  test("two jobs' drafts to the yard in one week become one order with two drops; another supplier's draft is refused", async () => {
     const { monday, friday } = nextWeek();
     const tobias = await byName("Tobias Wren");
     const ordered = (await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "stone-ordered"))))[0]!;
