@@ -2,9 +2,8 @@ import type { Route } from "./+types/app-supplier-order-file";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { renderSupplierOrderPdf } from "~/lib/suppliers/supplier-order-pdf.server";
-import { buildOrderDocument, orderCsv, orderNumber } from "~/lib/suppliers/supplier-orders.server";
+import { buildOrderDocument, orderCsv, orderNumber, requireOrder } from "~/lib/suppliers/supplier-orders.server";
 import { zonedDay } from "~/lib/format/zoned-time";
-import { requireOrder } from "~/routes/app-supplier-order";
 
 /** The order as a PDF or CSV, as the supplier gets it (owners only). */
 export async function loader({ request, params }: Route.LoaderArgs) {

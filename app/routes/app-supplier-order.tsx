@@ -3,26 +3,17 @@ import type { Route } from "./+types/app-supplier-order";
 import { OrderLinesTable, STATE_BADGE } from "~/components/supplier-order-view";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
-import { fieldErrors, formId } from "~/lib/format/form-fields";
+import { fieldErrors } from "~/lib/format/form-fields";
 import { formatPounds } from "~/lib/suppliers/order-units";
 import { formatPhone } from "~/lib/format/phone";
 import { requireUser } from "~/lib/auth/session.server";
 import { orderMoveSchema } from "~/lib/suppliers/supplier-order-schema";
-import { findSupplierOrder, moveOrder, ORDER_STATE_LABEL, orderNumber, type OrderView } from "~/lib/suppliers/supplier-orders.server";
+import { moveOrder, ORDER_STATE_LABEL, orderNumber, requireOrder } from "~/lib/suppliers/supplier-orders.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.order.number} · Supplier orders · Emberwright` : "Supplier order · Emberwright" }];
 
 const ROLES = ["owner"] as const;
-
-/** The company's order by its :orderId, or a 404 (a malformed id, no such order, another company's). */
-export async function requireOrder(companyId: number, raw: string | undefined): Promise<OrderView> {
-  const id = formId("Not found").safeParse(raw ?? "");
-  const order = id.success ? await findSupplierOrder(companyId, id.data) : null;
-  // A combined order's page leads to the order it went into.
-  if (!order || order.status === "discarded") throw new Response("Not found", { status: 404 });
-  return order;
-}
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ROLES });

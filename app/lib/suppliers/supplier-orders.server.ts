@@ -29,6 +29,7 @@ import { toCsv } from "~/lib/format/csv";
 import { db, writeTransaction } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
+import { formId } from "~/lib/format/form-fields";
 import { describeOrderQuantity, formatPounds } from "~/lib/suppliers/order-units";
 import { formatPhone } from "~/lib/format/phone";
 import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
@@ -265,6 +266,15 @@ export async function findSupplierOrder(companyId: number, orderId: number): Pro
     .where(and(eq(supplierOrders.companyId, companyId), eq(supplierOrders.id, orderId)))
     .limit(1);
   return (await withDrops(companyId, rows))[0] ?? null;
+}
+
+/** The company's order by its :orderId, or a 404 (a malformed id, no such order, another company's). */
+export async function requireOrder(companyId: number, raw: string | undefined): Promise<OrderView> {
+  const id = formId("Not found").safeParse(raw ?? "");
+  const order = id.success ? await findSupplierOrder(companyId, id.data) : null;
+  // A combined order's page leads to the order it went into.
+  if (!order || order.status === "discarded") throw new Response("Not found", { status: 404 });
+  return order;
 }
 
 // ---- The document: PDF, CSV and e-mail say the same ----
