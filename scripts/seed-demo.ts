@@ -1,5 +1,5 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { bookings, catalogItems, companies, suppliers, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import { bookings, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import type { CatalogChoice, Design } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
@@ -17,6 +17,8 @@ import { readStoredDesign, writeStoredPlan } from "~/lib/design/stored-plan";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { hashPassword } from "~/lib/auth/password.server";
 import { publicPlan } from "~/lib/design/plan.server";
+import { draftSupplierOrders, orderNumber } from "~/lib/suppliers/supplier-orders.server";
+import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead, type SeedPapers } from "./seed-data";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
@@ -60,6 +62,7 @@ export async function seedDemo() {
         .onConflictDoNothing();
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
+    await seedSupplierOrders(companyId);
     await seedConsults(companyId);
   }
 }
@@ -68,6 +71,35 @@ export async function seedDemo() {
  * Books the next free consult slots for the demo requests that are at "consult booked", as paid.
  * Demo bookings carry no payment of the payment service, so nothing is ever refunded for them.
  */
+/**
+ * Supplier orders for the demo jobs past "signed": the stone-ordered job's orders are sent, the
+ * build-booked job's confirmed, for delivery ten days out. Written without e-mails (the demo
+ * suppliers are invented). A job that has orders already is left alone.
+ */
+async function seedSupplierOrders(companyId: number) {
+  const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
+  const [owner] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, "owner"))).limit(1);
+  if (!company || !owner) return;
+  let day = zonedDay(new Date(), company.timeZone);
+  for (let i = 0; i < 10; i += 1) day = nextDay(day);
+  const states = { "stone-ordered": "sent", "build-booked": "confirmed" } as const;
+  const jobs = await db.select().from(leads).where(and(eq(leads.companyId, companyId), inArray(leads.status, ["stone-ordered", "build-booked"])));
+  for (const job of jobs) {
+    if ((await db.select({ id: supplierOrderDrops.id }).from(supplierOrderDrops).where(eq(supplierOrderDrops.leadId, job.id)).limit(1)).length) continue;
+    const drafted = await draftSupplierOrders({ ...owner, sessionId: "seed" }, job, day);
+    if (!drafted.ok) continue;
+    const at = new Date().toISOString();
+    const state = states[job.status as keyof typeof states];
+    await db
+      .update(supplierOrders)
+      .set({ status: state, sentAt: at, ...(state === "confirmed" ? { confirmedAt: at, confirmationNote: "Confirmed by phone" } : {}) })
+      .where(inArray(supplierOrders.id, drafted.orderIds));
+    await db.insert(leadEvents).values(
+      drafted.orderIds.map((id) => ({ companyId, leadId: job.id, actorUserId: owner.id, kind: "supplier-order", detail: `${orderNumber(id)} ${state === "sent" ? "sent" : "sent and confirmed"} (demo data, no e-mail).`, createdAt: at })),
+    );
+  }
+}
+
 async function seedConsults(companyId: number) {
   const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
   const waiting = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "consult-booked")));

@@ -1,6 +1,6 @@
 import type { OrderUnit } from "~/db/enums";
 import type { MaterialUnit } from "~/domain/quantities";
-import { describeOrderQuantity, formatPounds } from "~/lib/suppliers/order-units";
+import { describeOrderQuantity, describePlanQuantity, formatPounds } from "~/lib/suppliers/order-units";
 
 export type OrderLineView = {
   item: string;
@@ -12,8 +12,6 @@ export type OrderLineView = {
   weightLb: number | null;
   working: string;
 };
-
-const amount = (n: number) => (Number.isInteger(n) ? String(n) : String(Math.round(n * 100) / 100));
 
 /** The lines of one delivery: what the plan needs (spares included), what is ordered, and its weight. */
 export function OrderLinesTable({ lines, weightLb, label }: { lines: OrderLineView[]; weightLb: number; label: string }) {
@@ -34,15 +32,15 @@ export function OrderLinesTable({ lines, weightLb, label }: { lines: OrderLineVi
               <td className="py-2 pr-3 font-bold">
                 {l.item}
                 <span className="block text-xs font-normal text-char-600 sm:hidden">
-                  needs {amount(l.planQuantity)} {l.planUnit}
+                  needs {describePlanQuantity(l.planQuantity, l.planUnit)}
                 </span>
               </td>
-              <td className="py-2 pr-3" title={l.working}>
+              <td className="py-2 pr-3 whitespace-nowrap" title={l.working}>
                 {describeOrderQuantity(l.orderQuantity, l.orderUnit)}
               </td>
               <td className="hidden py-2 pr-3 text-char-700 sm:table-cell">
-                {amount(l.planQuantity)} {l.planUnit}
-                {l.suppliedQuantity > l.planQuantity + 1e-9 ? `, ${amount(l.suppliedQuantity)} arrive` : ""}
+                {describePlanQuantity(l.planQuantity, l.planUnit)}
+                {l.suppliedQuantity > l.planQuantity + 1e-9 ? `; ${describePlanQuantity(l.suppliedQuantity, l.planUnit)} arrive` : ""}
               </td>
               <td className="py-2 text-right whitespace-nowrap tabular-nums">{l.weightLb === null ? "—" : formatPounds(l.weightLb)}</td>
             </tr>

@@ -23,7 +23,7 @@ async function checkPage(page: Page, name: string) {
   await page.setViewportSize({ width: 1366, height: 900 });
 }
 
-test("signed job → supplier orders drafted → the yard's order sent (PDF and CSV arrive) → marked confirmed → delivered", async ({ page }) => {
+test("signed job → supplier orders drafted → the yard's order sent (PDF and CSV arrive) → marked confirmed → delivered; two jobs' same-week drafts combined", async ({ page }) => {
   test.setTimeout(120_000);
   const customer = "Mirela Castellanos";
   await signIn(page, "owner@cinder-slate.test");
@@ -92,8 +92,23 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await expect(timeline).toContainText(`${number} delivered.`);
   await expect(page.getByRole("heading", { name: "Book the build" })).toBeVisible();
 
+  // A second signed job's hearth supplies for the same week: the two drafts to Kestrel combine into one order.
+  await page.goto("/app/inbox?q=Wren");
+  await page.getByRole("link", { name: "Tobias Wren" }).click();
+  await page.getByRole("link", { name: "Supplier orders" }).click();
+  await page.getByLabel("Requested delivery date").fill(inAWeek);
+  await page.getByRole("button", { name: /^Draft (2 orders|the order)$/ }).click();
+  await expect(page.getByRole("status")).toContainText("drafted");
   await page.goto("/app/supplier-orders");
+  const combine = page.getByRole("region", { name: "Combine drafts" });
+  await expect(combine).toContainText("Kestrel Hearth Supply");
   await checkPage(page, "supplier-orders-list");
+  await combine.getByRole("button", { name: /^Combine SO-\d{4} and SO-\d{4} into one order$/ }).click();
+  await expect(page.getByRole("status")).toHaveText("Combined: one order for every delivery below.");
+  await expect(page.getByRole("heading", { name: `Deliver ${inAWeek} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
+  await expect(page.getByRole("heading", { name: `Deliver ${inAWeek} to 11 Cinderbrook Lane, Millbrook Falls` })).toBeVisible();
+  await checkPage(page, "supplier-order-combined");
+
   await page.goto("/app/suppliers");
   await checkPage(page, "suppliers");
   await page.goto("/app/catalog");

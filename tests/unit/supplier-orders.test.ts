@@ -196,39 +196,50 @@ describe("states", () => {
 });
 
 describe("combining", () => {
-  test("two jobs' drafts to the yard in one week become one order with two drops; another supplier's draft is refused", async () => {
-    const { monday, friday } = nextWeek();
+  test("two jobs' drafts to one supplier in one week become one order with two drops; another supplier's draft is refused", async () => {
+    const { friday } = nextWeek();
     const tobias = await byName("Tobias Wren");
-    const ordered = (await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "stone-ordered"))))[0]!;
-    expect((await draft(tobias, monday)).status).toBe(302);
-    expect((await draft(ordered, friday)).status).toBe(302);
-    const yardOf = async (leadId: number) => (await ordersOf(leadId)).find((r) => r.supplier.name === "Millbrook Stone Yard")!.order.id;
-    const a = await yardOf(tobias.id);
-    const b = await yardOf(ordered.id);
+    const mirela = await byName("Mirela Castellanos");
+    expect((await draft(tobias, friday)).status).toBe(302);
+    const orderOf = async (leadId: number, supplier: string) => (await ordersOf(leadId)).find((r) => r.supplier.name === supplier)!.order.id;
+    // Mirela's hearth supplies are still a draft for the Monday of the same week (the yard's order went out above).
+    const a = await orderOf(mirela.id, "Kestrel Hearth Supply");
+    const b = await orderOf(tobias.id, "Kestrel Hearth Supply");
 
-    // The Hearth supply order is another supplier: refused in words.
-    const hearth = (await ordersOf(tobias.id)).find((r) => r.supplier.name === "Kestrel Hearth Supply")!.order.id;
-    const mixed = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(a), String(hearth)] }))));
+    const tobiasYard = await orderOf(tobias.id, "Millbrook Stone Yard");
+    const mixed = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(b), String(tobiasYard)] }))));
     expect(mixed).toMatchObject({ status: 409, errors: { form: "Only orders to the same supplier can be combined." } });
     const bad = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(a), "abc"] }))));
-    expect(bad.status).toBe(400);
+    expect(bad).toMatchObject({ status: 400, errors: { orderIds: "Choose orders from the list." } });
+    const sent = await orderOf(mirela.id, "Millbrook Stone Yard");
+    const notDraft = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(sent), String(tobiasYard)] }))));
+    expect(notDraft).toMatchObject({ status: 409, errors: { form: `Order ${sent} is delivered; only drafts can be combined.` } });
 
     const combined = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(b), String(a)] }))));
     const target = Math.min(a, b);
     expect(combined).toMatchObject({ status: 302, location: `/app/supplier-orders/${target}?saved=combined` });
     const drops = await db.select().from(supplierOrderDrops).where(eq(supplierOrderDrops.orderId, target));
-    expect(drops.map((d) => d.leadId).sort()).toEqual([tobias.id, ordered.id].sort());
+    expect(drops.map((d) => d.leadId).sort()).toEqual([tobias.id, mirela.id].sort());
     const [gone] = await db.select().from(supplierOrders).where(eq(supplierOrders.id, Math.max(a, b)));
     expect(gone).toMatchObject({ status: "combined", combinedIntoId: target });
     // The combined order's page leads to the order it went into.
     const other = String(Math.max(a, b));
     expect(await answer(() => orderLoader(routeArgs(requestWithCookie(`/app/supplier-orders/${other}`, owner), { orderId: other })))).toMatchObject({ status: 302, location: `/app/supplier-orders/${target}` });
-    const events = await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, ordered.id), like(leadEvents.detail, "%combined into%")));
+    const events = await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, tobias.id), like(leadEvents.detail, "%combined into%")));
     expect(events).toHaveLength(1);
 
     // The job page lists the combined order once, with the other job counted.
     const page = (await jobOrdersLoader(routeArgs(requestWithCookie(`/app/leads/${tobias.id}/supplier-orders`, owner), { leadId: String(tobias.id) }))) as { orders: { id: number; deliveries: number }[] };
     expect(page.orders.find((o) => o.id === target)?.deliveries).toBe(2);
+  });
+
+  test("the seed's stone-ordered job has its orders sent, the build-booked job's are confirmed", async () => {
+    for (const [stage, state] of [["stone-ordered", "sent"], ["build-booked", "confirmed"]] as const) {
+      const job = (await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, stage))))[0]!;
+      const states = (await ordersOf(job.id)).map((r) => r.order.status);
+      expect(states.length, stage).toBeGreaterThan(0);
+      expect(new Set(states), stage).toEqual(new Set([state]));
+    }
   });
 });
 

@@ -31,6 +31,15 @@ export function describeOrderQuantity(quantity: number, unit: OrderUnit): string
   return `${n} ${quantity === 1 || unit === "each" ? words.label : words.plural}`;
 }
 
+const PLAN_UNIT_PLURAL: Record<string, string> = { each: "each", piece: "pieces", bag: "bags", pail: "pails", cartridge: "cartridges" };
+
+/** A quantity of the material order in its own unit: "68 each", "4 pails", "4.6 t". */
+export function describePlanQuantity(quantity: number, unit: string): string {
+  const n = Number.isInteger(quantity) ? String(quantity) : String(Math.round(quantity * 100) / 100);
+  if (unit === "ton") return `${n} t`;
+  return `${n} ${quantity === 1 ? unit : (PLAN_UNIT_PLURAL[unit] ?? unit)}`;
+}
+
 /** Pounds as people write them: "9,600 lb". */
 export function formatPounds(lb: number): string {
   return `${Math.round(lb).toLocaleString("en-US")} lb`;
