@@ -110,6 +110,11 @@ test("every page the owner sees has no accessibility violations and fits a 360 p
       "/app/catalog",
       "/app/catalog/new",
       "/app/catalog/1",
+      "/app/suppliers",
+      "/app/supplier-orders",
+      // The seed sends the stone-ordered job's orders, so the first one exists.
+      "/app/supplier-orders/1",
+      `${job}/supplier-orders`,
       "/app/team",
       "/app/settings",
       "/app/settings/factors",
