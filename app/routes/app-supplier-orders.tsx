@@ -76,8 +76,8 @@ export default function SupplierOrdersRoute({ loaderData, actionData }: Route.Co
               <span>
                 <span className="font-bold">{g.supplierName}</span>, week {g.week.slice(-2)}: {g.numbers.join(", ")}
               </span>
-              <button type="submit" className="btn-primary" disabled={isBusy} aria-label={`Combine ${g.numbers.join(" and ")} into one order`}>
-                Combine into one order
+              <button type="submit" className="btn-primary" disabled={isBusy}>
+                Combine {g.numbers.join(" and ")}
               </button>
             </Form>
           ))}
