@@ -101,7 +101,7 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
         },
       };
     }
-    return problem(`${line.item} is planned by the ${line.unit} but the catalog sells it by the ${orderUnit}: choose ${line.unit}, pallet, cube, bundle or case.`);
+    return problem(`${line.item} is counted (${line.unit}) but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ${line.unit}, pallet, cube, bundle or case.`);
   }
 
   // Bulk, planned in short tons.
@@ -142,7 +142,7 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
       },
     };
   }
-  return problem(`${line.item} is planned in tons but the catalog sells it by the ${orderUnit}: choose ton, cubic yard or bag.`);
+  return problem(`${line.item} is planned in tons but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ton, cubic yard or bag.`);
 }
 
 /** The delivered weight of some lines, lb, and the items whose weight is unknown. */

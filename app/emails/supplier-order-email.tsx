@@ -1,6 +1,6 @@
 import { Text } from "@react-email/components";
 import { EmailShell, emailText } from "~/emails/email-shell";
-import { describeOrderQuantity, formatPounds } from "~/lib/suppliers/order-units";
+import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-orders.server";
 
 /** To the supplier: the order in words, with the PDF and CSV attached. */
@@ -16,7 +16,7 @@ export function SupplierOrderEmail({ document }: { document: SupplierOrderDocume
       {document.drops.map((drop) => (
         <Text key={`${drop.job}-${drop.requestedOn}`} style={emailText}>
           <strong>
-            Deliver {drop.requestedOn} to {drop.siteAddress}
+            Deliver {formatDeliveryDay(drop.requestedOn)} to {drop.siteAddress}
           </strong>{" "}
           ({drop.job})
           <br />

@@ -4,7 +4,7 @@ import { OrderLinesTable, STATE_BADGE } from "~/components/supplier-order-view";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
-import { formatPounds } from "~/lib/suppliers/order-units";
+import { formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
 import { draftSupplierOrders, listJobSupplierOrders, ORDER_STATE_LABEL, orderNumber, planSupplierOrders } from "~/lib/suppliers/supplier-orders.server";
@@ -86,7 +86,7 @@ export default function LeadSupplierOrdersRoute({ loaderData, actionData }: Rout
                     {o.number} to {o.supplierName}
                   </Link>{" "}
                   <span className="text-sm text-char-600">
-                    {o.drop ? `for ${o.drop.requestedOn}` : ""}
+                    {o.drop ? `for ${formatDeliveryDay(o.drop.requestedOn)}` : ""}
                     {o.deliveries > 1 ? `, combined with ${o.deliveries - 1} other ${o.deliveries === 2 ? "job" : "jobs"}` : ""}, {o.weight}
                   </span>
                 </span>

@@ -4,7 +4,7 @@ import { OrderLinesTable, STATE_BADGE } from "~/components/supplier-order-view";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { fieldErrors } from "~/lib/format/form-fields";
-import { formatPounds } from "~/lib/suppliers/order-units";
+import { formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { formatPhone } from "~/lib/format/phone";
 import { requireUser } from "~/lib/auth/session.server";
 import { orderMoveSchema } from "~/lib/suppliers/supplier-order-schema";
@@ -142,7 +142,7 @@ export default function SupplierOrderRoute({ loaderData, actionData }: Route.Com
       {order.drops.map((d) => (
         <section key={d.id} aria-labelledby={`drop-${d.id}`} className="card flex flex-col gap-2 p-5">
           <h2 id={`drop-${d.id}`} className="text-lg font-extrabold">
-            Deliver {d.requestedOn} to {d.siteAddress}
+            Deliver {formatDeliveryDay(d.requestedOn)} to {d.siteAddress}
           </h2>
           <p className="text-sm">
             <Link to={`/app/leads/${d.leadId}`} className="font-bold text-ember-700 underline">

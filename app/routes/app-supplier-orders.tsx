@@ -4,7 +4,7 @@ import { STATE_BADGE } from "~/components/supplier-order-view";
 import { FormAlert } from "~/components/ui/field";
 import { findCombinable } from "~/domain/supplier-order";
 import { fieldErrors } from "~/lib/format/form-fields";
-import { formatPounds } from "~/lib/suppliers/order-units";
+import { formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { combineSchema } from "~/lib/suppliers/supplier-order-schema";
 import { combineOrders, listSupplierOrders, ORDER_STATE_LABEL, orderNumber } from "~/lib/suppliers/supplier-orders.server";
@@ -97,7 +97,7 @@ export default function SupplierOrdersRoute({ loaderData, actionData }: Route.Co
                   {o.number} to {o.supplierName}
                 </Link>
                 <p className="text-sm text-char-600">
-                  {o.jobs.map((j) => `${j.customerName} (${j.requestedOn})`).join("; ")} · {o.weight}
+                  {o.jobs.map((j) => `${j.customerName} (${formatDeliveryDay(j.requestedOn)})`).join("; ")} · {o.weight}
                 </p>
               </div>
               <span className={`self-start rounded-full px-2 py-0.5 text-xs font-bold sm:self-center ${STATE_BADGE[o.status] ?? ""}`}>{o.stateLabel}</span>

@@ -43,13 +43,15 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await page.getByRole("button", { name: /^Draft 2 orders$/ }).click();
   await expect(page.getByText("Delivery date must be within a year.")).toBeVisible();
   const inAWeek = await page.evaluate(() => new Date(Date.now() + 7 * 86_400_000).toISOString().slice(0, 10));
+  // As the pages say it: "Wed, Dec 9, 2026".
+  const shown = new Intl.DateTimeFormat("en-US", { weekday: "short", month: "short", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${inAWeek}T12:00:00Z`));
   await page.getByLabel("Requested delivery date").fill(inAWeek);
   await page.getByRole("button", { name: /^Draft 2 orders$/ }).click();
   await expect(page.getByRole("status")).toHaveText("2 orders drafted. Open each to send it.");
   await page.getByRole("link", { name: /to Millbrook Stone Yard$/ }).click();
 
   await expect(page.getByTestId("order-state")).toHaveText("Draft");
-  await expect(page.getByRole("heading", { name: `Deliver ${inAWeek} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
+  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
   await expect(page.getByText(/^Access: Narrowest way in from where the truck parks/)).toBeVisible();
   const number = (await page.getByRole("heading", { level: 1 }).textContent())!.match(/SO-\d{4}/)![0];
   await checkPage(page, "supplier-order-draft");
@@ -86,7 +88,7 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   // Every step is on the job's timeline, and the job moved to "Stone ordered".
   await page.getByRole("link", { name: customer }).click();
   const timeline = page.getByRole("region", { name: "Timeline" });
-  await expect(timeline).toContainText(`${number} to Millbrook Stone Yard drafted for delivery ${inAWeek}`);
+  await expect(timeline).toContainText(`${number} to Millbrook Stone Yard drafted for delivery ${shown}`);
   await expect(timeline).toContainText(`${number} sent to Millbrook Stone Yard (orders@millbrook-stone.test) with the PDF and CSV`);
   await expect(timeline).toContainText(`${number} confirmed by Millbrook Stone Yard: Ref 4471, Dana at the desk`);
   await expect(timeline).toContainText(`${number} delivered.`);
@@ -105,8 +107,8 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await checkPage(page, "supplier-orders-list");
   await combine.getByRole("button", { name: /^Combine SO-\d{4} and SO-\d{4}$/ }).click();
   await expect(page.getByRole("status")).toHaveText("Combined: one order for every delivery below.");
-  await expect(page.getByRole("heading", { name: `Deliver ${inAWeek} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
-  await expect(page.getByRole("heading", { name: `Deliver ${inAWeek} to 11 Cinderbrook Lane, Millbrook Falls` })).toBeVisible();
+  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
+  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 11 Cinderbrook Lane, Millbrook Falls` })).toBeVisible();
   await checkPage(page, "supplier-order-combined");
 
   await page.goto("/app/suppliers");

@@ -40,6 +40,11 @@ export function describePlanQuantity(quantity: number, unit: string): string {
   return `${n} ${quantity === 1 ? unit : (PLAN_UNIT_PLURAL[unit] ?? unit)}`;
 }
 
+/** A calendar day (YYYY-MM-DD) as people read it: "Wed, Dec 9, 2026" (the same on server and browser). */
+export function formatDeliveryDay(day: string): string {
+  return new Intl.DateTimeFormat("en-US", { weekday: "short", month: "short", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+}
+
 /** Pounds as people write them: "9,600 lb". */
 export function formatPounds(lb: number): string {
   return `${Math.round(lb).toLocaleString("en-US")} lb`;

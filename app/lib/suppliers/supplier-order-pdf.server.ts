@@ -1,6 +1,6 @@
 import PDFDocument from "pdfkit";
 import { PAGE_MARGIN_PT } from "~/lib/cut-sheet/cap-template-layout";
-import { describeOrderQuantity, formatPounds } from "~/lib/suppliers/order-units";
+import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
 import { ACCENT, CONTENT_W, ensureRoom, heading, INK, paragraph, RULE, SOFT, type Doc } from "~/lib/proposals/proposal-pdf.server";
 import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-orders.server";
@@ -54,7 +54,7 @@ export function renderSupplierOrderPdf(document: SupplierOrderDocument, createdA
   paragraph(doc, `Please confirm by replying to ${c.email}${c.phone ? ` or calling ${c.phone}` : ""}.`, { size: 9.5, colour: SOFT });
 
   for (const drop of document.drops) {
-    heading(doc, `Deliver ${drop.requestedOn} to ${drop.siteAddress}`);
+    heading(doc, `Deliver ${formatDeliveryDay(drop.requestedOn)} to ${drop.siteAddress}`);
     paragraph(doc, drop.job, { size: 9.5, colour: SOFT });
     if (drop.accessNotes) paragraph(doc, `Access: ${drop.accessNotes}`, { size: 9.5 });
     lineRow(doc, ["Item", "Quantity", "Weight"], true);

@@ -30,7 +30,7 @@ import { db, writeTransaction } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formId } from "~/lib/format/form-fields";
-import { describeOrderQuantity, formatPounds } from "~/lib/suppliers/order-units";
+import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { formatPhone } from "~/lib/format/phone";
 import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
 import type { SessionUser } from "~/lib/auth/session.server";
@@ -200,7 +200,7 @@ export async function draftSupplierOrders(user: SessionUser, lead: Lead, request
         leadId: lead.id,
         actorUserId: user.id,
         kind: "supplier-order",
-        detail: `${orderNumber(order!.id)} to ${group.supplier.name} drafted for delivery ${requestedOn}: ${group.lines.map((l) => `${describeOrderQuantity(l.orderQuantity, l.orderUnit)} ${l.item}`).join(", ")}; ${formatPounds(group.weightLb)}.`,
+        detail: `${orderNumber(order!.id)} to ${group.supplier.name} drafted for delivery ${formatDeliveryDay(requestedOn)}: ${group.lines.map((l) => `${describeOrderQuantity(l.orderQuantity, l.orderUnit)} ${l.item}`).join(", ")}; ${formatPounds(group.weightLb)}.`,
         createdAt: at,
       });
       orderIds.push(order!.id);

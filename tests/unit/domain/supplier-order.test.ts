@@ -82,7 +82,7 @@ describe("terms that cannot round a line say why", () => {
   };
   test("tons on pallets, units by the ton, part units in a pallet, no step, no density, no bag weight", () => {
     expect(message(tons("aggregate", 2), pallet(40, 3000))).toMatch(/planned in tons .* choose ton, cubic yard or bag/);
-    expect(message(wallUnits(60), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatch(/planned by the each .* by the ton/);
+    expect(message(wallUnits(60), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatch(/is counted \(each\) but the catalog sells it by the ton/);
     expect(message(wallUnits(60), pallet(72.5, 3200))).toMatch(/whole number/);
     expect(message(wallUnits(60), pallet(0, 3200))).toMatch(/more than 0/);
     expect(message(tons("aggregate", 2), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null }, null)).toMatch(/no density/);
