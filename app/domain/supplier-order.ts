@@ -211,7 +211,8 @@ export function isoWeekOf(day: string): string {
   return `${year}-W${String(week).padStart(2, "0")}`;
 }
 
-export type CombinableOrder = { id: number; supplierId: number; state: SupplierOrderState; requestedOn: string[] };
+/** An order as combining sees it; `label` names it in messages ("SO-0012"), else "Order <id>". */
+export type CombinableOrder = { id: number; supplierId: number; state: SupplierOrderState; requestedOn: string[]; label?: string };
 
 /**
  * Drafts that can go as one order: the same supplier, every delivery in the same ISO week. Groups of
@@ -236,7 +237,7 @@ export function findCombinable(orders: readonly CombinableOrder[]): { supplierId
 export function checkCombine(orders: readonly CombinableOrder[]): string | null {
   if (orders.length < 2) return "Choose at least two draft orders to combine.";
   const notDraft = orders.find((o) => o.state !== "drafted");
-  if (notDraft) return `Order ${notDraft.id} is ${STATE_WORDS[notDraft.state]}; only drafts can be combined.`;
+  if (notDraft) return `${notDraft.label ?? `Order ${notDraft.id}`} is ${STATE_WORDS[notDraft.state]}; only drafts can be combined.`;
   if (new Set(orders.map((o) => o.supplierId)).size > 1) return "Only orders to the same supplier can be combined.";
   const weeks = new Set(orders.flatMap((o) => o.requestedOn.map(isoWeekOf)));
   if (weeks.size > 1) return `Only deliveries in the same week can be combined; these fall in ${[...weeks].sort().join(", ")}.`;

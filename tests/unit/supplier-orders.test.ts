@@ -213,7 +213,7 @@ describe("combining", () => {
     expect(bad).toMatchObject({ status: 400, errors: { orderIds: "Choose orders from the list." } });
     const sent = await orderOf(mirela.id, "Millbrook Stone Yard");
     const notDraft = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(sent), String(tobiasYard)] }))));
-    expect(notDraft).toMatchObject({ status: 409, errors: { form: `Order ${sent} is delivered; only drafts can be combined.` } });
+    expect(notDraft).toMatchObject({ status: 409, errors: { form: `SO-${String(sent).padStart(4, "0")} is delivered; only drafts can be combined.` } });
 
     const combined = await answer(() => ordersAction(routeArgs(post("/app/supplier-orders", owner, { orderId: [String(b), String(a)] }))));
     const target = Math.min(a, b);

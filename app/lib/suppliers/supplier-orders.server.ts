@@ -407,7 +407,7 @@ export async function combineOrders(user: SessionUser, companyId: number, orderI
   const unique = [...new Set(orderIds)].sort((a, b) => a - b);
   const orders = (await Promise.all(unique.map((id) => findSupplierOrder(companyId, id)))).filter((o): o is OrderView => o !== null);
   if (orders.length !== unique.length) return { ok: false, status: 404, errors: { form: "One of those orders does not exist." } };
-  const problem = checkCombine(orders.map((o) => ({ id: o.id, supplierId: o.supplierId, state: o.status, requestedOn: o.drops.map((d) => d.requestedOn) })));
+  const problem = checkCombine(orders.map((o) => ({ id: o.id, label: orderNumber(o.id), supplierId: o.supplierId, state: o.status, requestedOn: o.drops.map((d) => d.requestedOn) })));
   if (problem) return { ok: false, status: 409, errors: { form: problem } };
   const [target, ...others] = orders as [OrderView, ...OrderView[]];
   const otherIds = others.map((o) => o.id);

@@ -140,6 +140,7 @@ describe("combining", () => {
     const a = { id: 1, supplierId: 1, state: "drafted" as const, requestedOn: ["2026-12-07"] };
     expect(checkCombine([a])).toMatch(/at least two/);
     expect(checkCombine([a, { ...a, id: 2, state: "sent" }])).toMatch(/Order 2 is sent; only drafts/);
+    expect(checkCombine([a, { ...a, id: 2, state: "delivered", label: "SO-0002" }])).toBe("SO-0002 is delivered; only drafts can be combined.");
     expect(checkCombine([a, { ...a, id: 2, supplierId: 9 }])).toMatch(/same supplier/);
     expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-14"] }])).toMatch(/2026-W50, 2026-W51/);
     expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-13"] }])).toBeNull();
