@@ -21,6 +21,10 @@ export default [
       route("catalog", "routes/app-catalog.tsx"),
       route("catalog/new", "routes/app-catalog-item.tsx", { id: "catalog-new" }),
       route("catalog/:itemId", "routes/app-catalog-item.tsx", { id: "catalog-edit" }),
+      route("suppliers", "routes/app-suppliers.tsx"),
+      route("supplier-orders", "routes/app-supplier-orders.tsx"),
+      route("supplier-orders/:orderId", "routes/app-supplier-order.tsx"),
+      route("leads/:leadId/supplier-orders", "routes/app-lead-supplier-orders.tsx"),
       route("settings", "routes/app-settings.tsx"),
       route("settings/factors", "routes/app-factors.tsx"),
       route("settings/proposals", "routes/app-settings-proposals.tsx"),
@@ -40,6 +44,7 @@ export default [
     route("inbox/seen", "routes/app-inbox-seen.ts"),
     route("leads/:leadId/cut-sheet", "routes/app-lead-cut-sheet.tsx"),
     route("leads/:leadId/cut-sheet.pdf", "routes/app-lead-cut-sheet-pdf.ts"),
+    route("supplier-orders/:orderId/:file", "routes/app-supplier-order-file.ts"),
   ]),
 
   ...prefix("api", [

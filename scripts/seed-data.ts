@@ -1,4 +1,4 @@
-import type { CatalogKind, LeadStatus } from "~/db/schema";
+import type { CatalogKind, LeadStatus, OrderUnit } from "~/db/schema";
 
 /*
  * The demo scenario. Every company, person, product name and price here is invented.
@@ -20,6 +20,11 @@ type SeedItem = {
   thicknessIn?: number;
   diameterIn?: number;
   priceCents: number;
+  /** Ordering: the supplier's name (from the company's `suppliers`), how it is sold, pack size or step, weight of one order unit (lb). */
+  supplier?: string;
+  orderUnit?: OrderUnit;
+  unitsPerOrderUnit?: number;
+  orderUnitWeightLb?: number;
 };
 
 export type SeedCompany = {
@@ -36,8 +41,17 @@ export type SeedCompany = {
   marginPct: number;
   priceSpreadPct: number;
   staff: { email: string; name: string; role: "owner" | "estimator" | "crew" }[];
+  suppliers: { name: string; email: string; phone: string }[];
   catalog: SeedItem[];
 };
+
+/*
+ * Ordering terms of the demo catalog, invented for the demo (no maker's figures). Weights: the unit's
+ * volume × 142 lb/ft³ (the engine's concrete density, from memory), plus about 40 lb for the pallet
+ * (common practice, no source); a 9 in firebrick straight about 7.5 lb (from memory).
+ */
+const YARD = "Millbrook Stone Yard";
+const HEARTH = "Kestrel Hearth Supply";
 
 export const DEMO_COMPANIES: SeedCompany[] = [
   {
@@ -59,31 +73,35 @@ export const DEMO_COMPANIES: SeedCompany[] = [
       { email: "estimator@cinder-slate.test", name: "Theo Brandvold", role: "estimator" },
       { email: "crew@cinder-slate.test", name: "Dario Quist", role: "crew" },
     ],
+    suppliers: [
+      { name: YARD, email: "orders@millbrook-stone.test", phone: "+12175550163" },
+      { name: HEARTH, email: "sales@kestrel-hearth.test", phone: "+12175550178" },
+    ],
     catalog: [
-      { kind: "wall-unit", name: "Hearthline Taper", colourName: "Ember Blend", colourHex: "#8f6b58", faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, priceCents: 485 },
-      { kind: "wall-unit", name: "Ridgeback Taper", colourName: "Granite Grey", colourHex: "#8a8782", faceIn: 11.5, backIn: 7.75, depthIn: 7, heightIn: 4, priceCents: 445 },
-      { kind: "wall-unit", name: "Kilnstone Grand Taper", colourName: "Charcoal", colourHex: "#4d4946", faceIn: 12, backIn: 8.75, depthIn: 9, heightIn: 6, priceCents: 740 },
-      { kind: "wall-unit", name: "Fieldcut Taper", colourName: "Sandstone Tan", colourHex: "#b79d7c", faceIn: 11, backIn: 7.5, depthIn: 7.5, heightIn: 3.5, priceCents: 395 },
-      { kind: "wall-unit", name: "Plainface Block", colourName: "Limestone", colourHex: "#c9c0b0", faceIn: 12, backIn: 12, depthIn: 8, heightIn: 4, priceCents: 360 },
-      { kind: "wall-unit", name: "Quarry Square", colourName: "Slate Brown", colourHex: "#6b5a4e", faceIn: 16, backIn: 16, depthIn: 8, heightIn: 6, priceCents: 690 },
-      { kind: "cap", name: "Sill Cap 16", colourName: "Charcoal", colourHex: "#55504c", lengthIn: 16, depthIn: 12, thicknessIn: 2.5, priceCents: 950 },
-      { kind: "cap", name: "Broad Cap 20", colourName: "Ember Blend", colourHex: "#94705c", lengthIn: 20, depthIn: 13, thicknessIn: 3, priceCents: 1420 },
-      { kind: "cap", name: "Bluestone-look Cap 18", colourName: "Blue Grey", colourHex: "#6c7379", lengthIn: 18, depthIn: 12, thicknessIn: 2.5, priceCents: 1280 },
-      { kind: "steel-ring", name: "Heavy Ring 36", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 36, heightIn: 10, priceCents: 18900 },
-      { kind: "steel-ring", name: "Heavy Ring 42", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 42, heightIn: 10, priceCents: 22900 },
-      { kind: "firebrick", name: "Firebrick straight", colourName: "Buff", colourHex: "#d9c39a", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310 },
-      { kind: "paver", name: "Courtyard Paver 6×9", colourName: "Autumn Blend", colourHex: "#a07d63", lengthIn: 9, widthIn: 6, thicknessIn: 2.375, priceCents: 95 },
-      { kind: "paver", name: "Courtyard Paver 12×12", colourName: "Pewter", colourHex: "#8d8b87", lengthIn: 12, widthIn: 12, thicknessIn: 2.375, priceCents: 240 },
-      { kind: "border-unit", name: "Rim Border 4×8", colourName: "Charcoal", colourHex: "#4f4a46", lengthIn: 8, widthIn: 4, thicknessIn: 2.375, priceCents: 80 },
-      { kind: "border-unit", name: "Rim Border 6×12", colourName: "Charcoal", colourHex: "#4f4a46", lengthIn: 12, widthIn: 6, thicknessIn: 2.375, priceCents: 165 },
-      { kind: "aggregate", name: "Crushed base 3/4 in minus", priceCents: 4800 },
-      { kind: "adhesive", name: "Masonry adhesive 10.1 oz", priceCents: 850 },
-      { kind: "bedding-sand", name: "Concrete sand", priceCents: 4200 },
-      { kind: "joint-sand", name: "Polymeric joint sand 50 lb", priceCents: 2900 },
-      { kind: "refractory-mortar", name: "Refractory mortar, 1 gal", priceCents: 3400 },
-      { kind: "fill", name: "Pea gravel 0.5 ft³", priceCents: 650 },
-      { kind: "edge-restraint", name: "Paver edging 8 ft", priceCents: 1150 },
-      { kind: "edge-spike", name: "Edging spike 10 in", priceCents: 45 },
+      { kind: "wall-unit", name: "Hearthline Taper", colourName: "Ember Blend", colourHex: "#8f6b58", faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, priceCents: 485, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 72, orderUnitWeightLb: 1935 },
+      { kind: "wall-unit", name: "Ridgeback Taper", colourName: "Granite Grey", colourHex: "#8a8782", faceIn: 11.5, backIn: 7.75, depthIn: 7, heightIn: 4, priceCents: 445, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 90, orderUnitWeightLb: 2030 },
+      { kind: "wall-unit", name: "Kilnstone Grand Taper", colourName: "Charcoal", colourHex: "#4d4946", faceIn: 12, backIn: 8.75, depthIn: 9, heightIn: 6, priceCents: 740, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 40, orderUnitWeightLb: 1880 },
+      { kind: "wall-unit", name: "Fieldcut Taper", colourName: "Sandstone Tan", colourHex: "#b79d7c", faceIn: 11, backIn: 7.5, depthIn: 7.5, heightIn: 3.5, priceCents: 395, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 100, orderUnitWeightLb: 2035 },
+      { kind: "wall-unit", name: "Plainface Block", colourName: "Limestone", colourHex: "#c9c0b0", faceIn: 12, backIn: 12, depthIn: 8, heightIn: 4, priceCents: 360, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 60, orderUnitWeightLb: 1935 },
+      { kind: "wall-unit", name: "Quarry Square", colourName: "Slate Brown", colourHex: "#6b5a4e", faceIn: 16, backIn: 16, depthIn: 8, heightIn: 6, priceCents: 690, supplier: YARD, orderUnit: "pallet", unitsPerOrderUnit: 30, orderUnitWeightLb: 1933 },
+      { kind: "cap", name: "Sill Cap 16", colourName: "Charcoal", colourHex: "#55504c", lengthIn: 16, depthIn: 12, thicknessIn: 2.5, priceCents: 950, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 39 },
+      { kind: "cap", name: "Broad Cap 20", colourName: "Ember Blend", colourHex: "#94705c", lengthIn: 20, depthIn: 13, thicknessIn: 3, priceCents: 1420, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 64 },
+      { kind: "cap", name: "Bluestone-look Cap 18", colourName: "Blue Grey", colourHex: "#6c7379", lengthIn: 18, depthIn: 12, thicknessIn: 2.5, priceCents: 1280, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 44 },
+      { kind: "steel-ring", name: "Heavy Ring 36", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 36, heightIn: 10, priceCents: 18900, supplier: HEARTH, orderUnit: "each", orderUnitWeightLb: 45 },
+      { kind: "steel-ring", name: "Heavy Ring 42", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 42, heightIn: 10, priceCents: 22900, supplier: HEARTH, orderUnit: "each", orderUnitWeightLb: 55 },
+      { kind: "firebrick", name: "Firebrick straight", colourName: "Buff", colourHex: "#d9c39a", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310, supplier: HEARTH, orderUnit: "each", orderUnitWeightLb: 7.5 },
+      { kind: "paver", name: "Courtyard Paver 6×9", colourName: "Autumn Blend", colourHex: "#a07d63", lengthIn: 9, widthIn: 6, thicknessIn: 2.375, priceCents: 95, supplier: YARD, orderUnit: "cube", unitsPerOrderUnit: 180, orderUnitWeightLb: 1930 },
+      { kind: "paver", name: "Courtyard Paver 12×12", colourName: "Pewter", colourHex: "#8d8b87", lengthIn: 12, widthIn: 12, thicknessIn: 2.375, priceCents: 240, supplier: YARD, orderUnit: "cube", unitsPerOrderUnit: 70, orderUnitWeightLb: 2000 },
+      { kind: "border-unit", name: "Rim Border 4×8", colourName: "Charcoal", colourHex: "#4f4a46", lengthIn: 8, widthIn: 4, thicknessIn: 2.375, priceCents: 80, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 6.2 },
+      { kind: "border-unit", name: "Rim Border 6×12", colourName: "Charcoal", colourHex: "#4f4a46", lengthIn: 12, widthIn: 6, thicknessIn: 2.375, priceCents: 165, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 14 },
+      { kind: "aggregate", name: "Crushed base 3/4 in minus", priceCents: 4800, supplier: YARD, orderUnit: "ton", unitsPerOrderUnit: 0.5 },
+      { kind: "adhesive", name: "Masonry adhesive 10.1 oz", priceCents: 850, supplier: HEARTH, orderUnit: "case", unitsPerOrderUnit: 12, orderUnitWeightLb: 12 },
+      { kind: "bedding-sand", name: "Concrete sand", priceCents: 4200, supplier: YARD, orderUnit: "ton", unitsPerOrderUnit: 0.5 },
+      { kind: "joint-sand", name: "Polymeric joint sand 50 lb", priceCents: 2900, supplier: YARD, orderUnit: "bag", orderUnitWeightLb: 50 },
+      { kind: "refractory-mortar", name: "Refractory mortar, 1 gal", priceCents: 3400, supplier: HEARTH, orderUnit: "pail", orderUnitWeightLb: 12 },
+      { kind: "fill", name: "Pea gravel 0.5 ft³", priceCents: 650, supplier: YARD, orderUnit: "bag", orderUnitWeightLb: 50 },
+      { kind: "edge-restraint", name: "Paver edging 8 ft", priceCents: 1150, supplier: YARD, orderUnit: "piece", orderUnitWeightLb: 4 },
+      { kind: "edge-spike", name: "Edging spike 10 in", priceCents: 45, supplier: YARD, orderUnit: "each", orderUnitWeightLb: 0.4 },
     ],
   },
   {
@@ -100,11 +118,12 @@ export const DEMO_COMPANIES: SeedCompany[] = [
     marginPct: 18,
     priceSpreadPct: 15,
     staff: [{ email: "owner@north-ridge.test", name: "Ilse Marchetti", role: "owner" }],
+    suppliers: [{ name: "Cedar Hollow Landscape Depot", email: "desk@cedar-hollow-depot.test", phone: "+19705550121" }],
     catalog: [
-      { kind: "wall-unit", name: "Timberline Taper", colourName: "Canyon Red", colourHex: "#8c5443", faceIn: 12, backIn: 8.25, depthIn: 7.5, heightIn: 4, priceCents: 470 },
+      { kind: "wall-unit", name: "Timberline Taper", colourName: "Canyon Red", colourHex: "#8c5443", faceIn: 12, backIn: 8.25, depthIn: 7.5, heightIn: 4, priceCents: 470, supplier: "Cedar Hollow Landscape Depot", orderUnit: "pallet", unitsPerOrderUnit: 72, orderUnitWeightLb: 1900 },
       { kind: "cap", name: "Ridge Cap 18", colourName: "Slate", colourHex: "#5b6066", lengthIn: 18, depthIn: 12, thicknessIn: 2.5, priceCents: 1190 },
       { kind: "steel-ring", name: "Camp Ring 38", colourName: "Black steel", colourHex: "#2a2a2a", diameterIn: 38, heightIn: 10, priceCents: 19900 },
-      { kind: "aggregate", name: "Road base", priceCents: 4500 },
+      { kind: "aggregate", name: "Road base", priceCents: 4500, supplier: "Cedar Hollow Landscape Depot", orderUnit: "cubic-yard", unitsPerOrderUnit: 0.5 },
       { kind: "adhesive", name: "Block glue", priceCents: 790 },
       { kind: "fill", name: "Pea gravel bag", priceCents: 600 },
     ],

@@ -1,5 +1,5 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { bookings, catalogItems, companies, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import { bookings, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import type { CatalogChoice, Design } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
@@ -17,12 +17,14 @@ import { readStoredDesign, writeStoredPlan } from "~/lib/design/stored-plan";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { hashPassword } from "~/lib/auth/password.server";
 import { publicPlan } from "~/lib/design/plan.server";
+import { draftSupplierOrders, orderNumber } from "~/lib/suppliers/supplier-orders.server";
+import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead, type SeedPapers } from "./seed-data";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
   const passwordHash = await hashPassword(DEMO_PASSWORD);
-  for (const { staff, catalog, ...company } of DEMO_COMPANIES) {
+  for (const { staff, catalog, suppliers: supplierSeeds, ...company } of DEMO_COMPANIES) {
     await db.insert(companies).values(company).onConflictDoNothing({ target: companies.slug });
     const [row] = await db.select({ id: companies.id }).from(companies).where(eq(companies.slug, company.slug));
     const companyId = row!.id;
@@ -32,12 +34,24 @@ export async function seedDemo() {
         .values({ ...person, companyId, passwordHash })
         .onConflictDoNothing({ target: users.email });
     }
-    for (const item of catalog) {
+    for (const supplier of supplierSeeds) {
+      await db.insert(suppliers).values({ ...supplier, companyId }).onConflictDoNothing();
+    }
+    const supplierRows = await db.select().from(suppliers).where(eq(suppliers.companyId, companyId));
+    for (const { supplier, ...item } of catalog) {
+      const supplierId = supplierRows.find((s) => s.name === supplier)?.id ?? null;
       const [existing] = await db
-        .select({ id: catalogItems.id })
+        .select({ id: catalogItems.id, supplierId: catalogItems.supplierId })
         .from(catalogItems)
         .where(and(eq(catalogItems.companyId, companyId), eq(catalogItems.name, item.name)));
-      if (!existing) await db.insert(catalogItems).values({ ...item, companyId });
+      if (!existing) await db.insert(catalogItems).values({ ...item, supplierId, companyId });
+      // A database seeded before items had ordering terms gets them once (an owner's own choice stays).
+      else if (existing.supplierId === null && supplierId !== null) {
+        await db
+          .update(catalogItems)
+          .set({ supplierId, orderUnit: item.orderUnit ?? "each", unitsPerOrderUnit: item.unitsPerOrderUnit ?? 1, orderUnitWeightLb: item.orderUnitWeightLb ?? null })
+          .where(eq(catalogItems.id, existing.id));
+      }
     }
     // Letterhead and allowances (invented address and licence numbers).
     const letterhead = DEMO_LETTERHEADS[company.slug];
@@ -48,6 +62,7 @@ export async function seedDemo() {
         .onConflictDoNothing();
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
+    await seedSupplierOrders(companyId);
     await seedConsults(companyId);
   }
 }
@@ -56,6 +71,35 @@ export async function seedDemo() {
  * Books the next free consult slots for the demo requests that are at "consult booked", as paid.
  * Demo bookings carry no payment of the payment service, so nothing is ever refunded for them.
  */
+/**
+ * Supplier orders for the demo jobs past "signed": the stone-ordered job's orders are sent, the
+ * build-booked job's confirmed, for delivery ten days out. Written without e-mails (the demo
+ * suppliers are invented). A job that has orders already is left alone.
+ */
+async function seedSupplierOrders(companyId: number) {
+  const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
+  const [owner] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, "owner"))).limit(1);
+  if (!company || !owner) return;
+  let day = zonedDay(new Date(), company.timeZone);
+  for (let i = 0; i < 10; i += 1) day = nextDay(day);
+  const states = { "stone-ordered": "sent", "build-booked": "confirmed" } as const;
+  const jobs = await db.select().from(leads).where(and(eq(leads.companyId, companyId), inArray(leads.status, ["stone-ordered", "build-booked"])));
+  for (const job of jobs) {
+    if ((await db.select({ id: supplierOrderDrops.id }).from(supplierOrderDrops).where(eq(supplierOrderDrops.leadId, job.id)).limit(1)).length) continue;
+    const drafted = await draftSupplierOrders({ ...owner, sessionId: "seed" }, job, day);
+    if (!drafted.ok) continue;
+    const at = new Date().toISOString();
+    const state = states[job.status as keyof typeof states];
+    await db
+      .update(supplierOrders)
+      .set({ status: state, sentAt: at, ...(state === "confirmed" ? { confirmedAt: at, confirmationNote: "Confirmed by phone" } : {}) })
+      .where(inArray(supplierOrders.id, drafted.orderIds));
+    await db.insert(leadEvents).values(
+      drafted.orderIds.map((id) => ({ companyId, leadId: job.id, actorUserId: owner.id, kind: "supplier-order", detail: `${orderNumber(id)} ${state === "sent" ? "sent" : "sent and confirmed"} (demo data, no e-mail).`, createdAt: at })),
+    );
+  }
+}
+
 async function seedConsults(companyId: number) {
   const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
   const waiting = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "consult-booked")));

@@ -55,3 +55,15 @@ export const SLOPES = ["level", "gentle", "steep"] as const;
 export const SOILS = ["sand", "loam", "clay", "rock", "fill"] as const;
 export const UTILITY_MARKS = ["marked-clear", "marked-near", "not-marked-yet"] as const;
 export const SPOIL_PLANS = ["haul-away", "spread-on-site", "pile-for-homeowner"] as const;
+
+/*
+ * How a yard sells a catalog item (labels in app/lib/supplier-order-labels.ts): by the piece, in
+ * whole packs of `unitsPerOrderUnit` pieces (pallet, cube, bundle, case), by the bag, pail or
+ * cartridge, or in bulk by weight (short ton) or volume (cubic yard).
+ */
+export const ORDER_UNITS = ["each", "piece", "pallet", "cube", "bundle", "case", "bag", "pail", "cartridge", "ton", "cubic-yard"] as const;
+export type OrderUnit = (typeof ORDER_UNITS)[number];
+
+/** A supplier order: drafted → sent → confirmed → delivered; a draft may be discarded or combined into another. */
+export const SUPPLIER_ORDER_STATES = ["drafted", "sent", "confirmed", "delivered", "combined", "discarded"] as const;
+export type SupplierOrderState = (typeof SUPPLIER_ORDER_STATES)[number];

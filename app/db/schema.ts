@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
 import { blob, index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ROLES, SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
+import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ORDER_UNITS, ROLES, SLOPES, SOILS, SPOIL_PLANS, SUPPLIER_ORDER_STATES, UTILITY_MARKS } from "~/db/enums";
 
 export * from "~/db/enums";
 
@@ -119,11 +119,36 @@ export const catalogItems = sqliteTable(
     diameterIn: real("diameter_in"),
     priceCents: integer("price_cents").notNull(),
     isActive: integer("is_active", { mode: "boolean" }).notNull().default(true),
+    // Where it is bought and how the yard sells it (app/domain/supplier-order.ts rounds to it):
+    // pieces in a pallet, cube, bundle or case; for tons and cubic yards the smallest step sold.
+    supplierId: integer("supplier_id").references(() => suppliers.id),
+    orderUnit: text("order_unit", { enum: ORDER_UNITS }).notNull().default("each"),
+    unitsPerOrderUnit: real("units_per_order_unit").notNull().default(1),
+    // Weight of one order unit as delivered (a full pallet with its pallet, one bag, one piece), lb.
+    orderUnitWeightLb: real("order_unit_weight_lb"),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
   (t) => [index("catalog_company_kind_idx").on(t.companyId, t.kind, t.isActive, t.name)],
 );
+
+// The yards and dealers a company buys from; catalog items name one.
+export const suppliers = sqliteTable(
+  "suppliers",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    name: text("name").notNull(),
+    email: text("email").notNull(),
+    // E.164 (app/lib/phone.ts), or empty.
+    phone: text("phone").notNull().default(""),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("suppliers_company_name_unique").on(t.companyId, t.name)],
+);
+
+export type Supplier = typeof suppliers.$inferSelect;
 
 export type Company = typeof companies.$inferSelect;
 export type User = typeof users.$inferSelect;
@@ -515,3 +540,54 @@ export const proposalTerms = sqliteTable("proposal_terms", {
 export type SiteVisit = typeof siteVisits.$inferSelect;
 export type Proposal = typeof proposals.$inferSelect;
 export type ProposalTerms = typeof proposalTerms.$inferSelect;
+
+// An order to one supplier: one drop (delivery) per job, each with its own lines. Drafts of several
+// jobs to the same supplier for the same week can be combined: their drops move to one order and
+// the others are marked "combined" (combinedIntoId), so every job keeps its history.
+export const supplierOrders = sqliteTable(
+  "supplier_orders",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    supplierId: integer("supplier_id")
+      .notNull()
+      .references(() => suppliers.id),
+    status: text("status", { enum: SUPPLIER_ORDER_STATES }).notNull().default("drafted"),
+    combinedIntoId: integer("combined_into_id"),
+    createdByUserId: integer("created_by_user_id").references(() => users.id),
+    sentAt: text("sent_at"),
+    confirmedAt: text("confirmed_at"),
+    // The supplier's own reference or the name of who confirmed, as the owner typed it.
+    confirmationNote: text("confirmation_note"),
+    deliveredAt: text("delivered_at"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [index("supplier_orders_company_status_idx").on(t.companyId, t.status, t.supplierId)],
+);
+
+export const supplierOrderDrops = sqliteTable(
+  "supplier_order_drops",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    orderId: integer("order_id")
+      .notNull()
+      .references(() => supplierOrders.id),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    // A local calendar day, YYYY-MM-DD.
+    requestedOn: text("requested_on").notNull(),
+    siteAddress: text("site_address").notNull(),
+    accessNotes: text("access_notes").notNull().default(""),
+    // The rounded lines (app/domain/supplier-order.ts RoundedLine[]) as drafted, and their weight, lb.
+    linesJson: text("lines_json").notNull(),
+    weightLb: real("weight_lb").notNull(),
+    createdAt: createdAt(),
+  },
+  (t) => [index("supplier_order_drops_order_idx").on(t.orderId), index("supplier_order_drops_lead_idx").on(t.leadId)],
+);
+
+export type SupplierOrder = typeof supplierOrders.$inferSelect;
+export type SupplierOrderDrop = typeof supplierOrderDrops.$inferSelect;

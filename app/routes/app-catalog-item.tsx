@@ -3,11 +3,13 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
-import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
+import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind, type OrderUnit } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
+import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
+import { findSupplier, listSuppliers } from "~/lib/suppliers/suppliers.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: `${loaderData?.item ? loaderData.item.name : "New item"} · Catalog · Emberwright` },
@@ -24,10 +26,11 @@ function parseItemId(raw: string | undefined): number | null {
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const itemId = parseItemId(params.itemId);
-  if (itemId === null) return { item: null };
+  const suppliers = (await listSuppliers(user.companyId)).map((s) => ({ id: s.id, name: s.name }));
+  if (itemId === null) return { item: null, suppliers };
   const item = await findCatalogItem(user.companyId, itemId);
   if (!item) throw new Response("Not found", { status: 404 });
-  return { item };
+  return { item, suppliers };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -38,6 +41,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!parsed.ok) {
     return data({ errors: parsed.errors }, { status: 400 });
   }
+  // Another company's supplier is as good as none: named beside its field, nothing saved.
+  if (parsed.value.supplierId != null && !(await findSupplier(user.companyId, parsed.value.supplierId))) {
+    return data({ errors: { supplierId: "Choose a supplier from the list." } as Record<string, string> }, { status: 400 });
+  }
   if (itemId === null) {
     await createCatalogItem(user.companyId, parsed.value);
   } else if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
@@ -47,11 +54,13 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 export default function CatalogItemRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { item } = loaderData;
+  const { item, suppliers } = loaderData;
   const errors: Record<string, string> = actionData?.errors ?? {};
   const [kind, setKind] = useState<CatalogKind>(item?.kind ?? "wall-unit");
   const navigation = useNavigation();
+  const [orderUnit, setOrderUnit] = useState<OrderUnit>(item?.orderUnit ?? "each");
   const dims = KIND_DIMENSIONS[kind];
+  const per = ORDER_UNIT_LABEL[orderUnit].per;
   return (
     <div className="mx-auto flex max-w-2xl flex-col gap-6">
       <div>
@@ -110,6 +119,44 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
           defaultValue={item ? (item.priceCents / 100).toFixed(2) : ""}
           error={errors.price}
         />
+        <fieldset className="grid gap-4 sm:grid-cols-2">
+          <legend className="mb-2 text-sm font-extrabold text-char-700">Ordering</legend>
+          <SelectField label="Supplier" name="supplierId" defaultValue={item?.supplierId ?? ""} error={errors.supplierId} hint={suppliers.length ? undefined : "Add your yards and dealers on the Suppliers page first."}>
+            <option value="">No supplier yet</option>
+            {suppliers.map((s) => (
+              <option key={s.id} value={s.id}>
+                {s.name}
+              </option>
+            ))}
+          </SelectField>
+          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => setOrderUnit(e.target.value as OrderUnit)} error={errors.orderUnit}>
+            {ORDER_UNITS.map((u) => (
+              <option key={u} value={u}>
+                {ORDER_UNIT_LABEL[u].label}
+              </option>
+            ))}
+          </SelectField>
+          {per ? (
+            <TextField
+              key={`per-${orderUnit}`}
+              label={per}
+              name="unitsPerOrderUnit"
+              inputMode="decimal"
+              hint="Orders round up to whole steps of this."
+              defaultValue={item && item.orderUnit === orderUnit ? String(item.unitsPerOrderUnit) : ""}
+              error={errors.unitsPerOrderUnit}
+            />
+          ) : null}
+          <TextField
+            label={`Weight of one ${ORDER_UNIT_LABEL[orderUnit].label}`}
+            name="orderUnitWeightLb"
+            inputMode="decimal"
+            suffix="lb"
+            hint={orderUnit === "ton" || orderUnit === "cubic-yard" ? "Not needed: bulk is weighed by the ton." : "As delivered (a full pallet with its pallet). Optional; gives the delivered weight."}
+            defaultValue={item?.orderUnitWeightLb ?? ""}
+            error={errors.orderUnitWeightLb}
+          />
+        </fieldset>
         <label className="flex items-center gap-3 text-sm font-bold text-char-700">
           <input type="checkbox" name="isActive" defaultChecked={item?.isActive ?? true} className="h-5 w-5 accent-ember-500" />
           Offered in the configurator

@@ -47,9 +47,14 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
           </p>
         </div>
         {canEdit ? (
-          <Link to="/app/catalog/new" className="btn-primary">
-            Add an item
-          </Link>
+          <div className="flex flex-wrap gap-3">
+            <Link to="/app/suppliers" className="btn-quiet">
+              Suppliers
+            </Link>
+            <Link to="/app/catalog/new" className="btn-primary">
+              Add an item
+            </Link>
+          </div>
         ) : null}
       </div>
       {groups.length === 0 ? <p className="card p-6 text-char-600">No items yet.</p> : null}

@@ -233,6 +233,7 @@ const kindLabel: Record<string, string> = {
   email: "E-mail",
   "consult-booked": "Consult booked",
   "consult-cancelled": "Consult cancelled",
+  "supplier-order": "Supplier order",
 };
 
 /** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
@@ -297,6 +298,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
             ) : (
               <Link to={`/app/leads/${lead.id}/change-order`} className="btn-quiet">Send a change order</Link>
             )}
+            {lead.isSigned && isOwner ? (
+              <Link to={`/app/leads/${lead.id}/supplier-orders`} className={lead.status === "signed" ? "btn-primary" : "btn-quiet"}>Supplier orders</Link>
+            ) : null}
           </div>
         ) : null}
       </section>

@@ -119,6 +119,14 @@ test("every page the owner sees has no accessibility violations and fits a 360 p
   );
 });
 
+// Apart from the owner's walk above, which is long already.
+test("every supplier page the owner sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
+  await signIn(page, "owner@cinder-slate.test");
+  const job = await leadPathFrom(page, "/app/jobs");
+  // The seed sends the stone-ordered job's orders, so the first one exists.
+  expectClean(await auditPaths(page, ["/app/suppliers", "/app/supplier-orders", "/app/supplier-orders/1", `${job}/supplier-orders`]));
+});
+
 test("every page the estimator sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
   await signIn(page, "estimator@cinder-slate.test");
   const lead = await leadPathFrom(page, "/app/inbox");

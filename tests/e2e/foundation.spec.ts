@@ -18,7 +18,7 @@ test("the sign-in page shows one generic message for a wrong password", async ({
 
 // Each role lands where its work is: the office in the inbox, the crew at their jobs.
 const NAV_BY_ROLE = [
-  { email: "owner@cinder-slate.test", role: "Owner", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Catalog", "Team", "Company settings"] },
+  { email: "owner@cinder-slate.test", role: "Owner", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Orders", "Catalog", "Team", "Company settings"] },
   { email: "estimator@cinder-slate.test", role: "Estimator", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Catalog"] },
   { email: "crew@cinder-slate.test", role: "Crew", home: /\/app\/jobs$/, links: ["Jobs", "Catalog"] },
 ];

@@ -40,6 +40,13 @@ import { getCompany } from "~/lib/catalog/catalog.server";
 import { sendProposal } from "~/lib/proposals/proposals.server";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
 import { action as attentionAction, loader as attentionLoader } from "~/routes/app-attention";
+import { action as suppliersAction, loader as suppliersLoader } from "~/routes/app-suppliers";
+import { action as supplierOrdersAction, loader as supplierOrdersLoader } from "~/routes/app-supplier-orders";
+import { action as supplierOrderAction, loader as supplierOrderLoader } from "~/routes/app-supplier-order";
+import { loader as supplierOrderFileLoader } from "~/routes/app-supplier-order-file";
+import { action as jobOrdersAction, loader as jobOrdersLoader } from "~/routes/app-lead-supplier-orders";
+import { draftSupplierOrders } from "~/lib/suppliers/supplier-orders.server";
+import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
 import { loginAs } from "./support/login";
@@ -49,7 +56,7 @@ type Who = "owner" | "estimator" | "crew" | "homeowner" | "anonymous" | "other c
 const WHO: Who[] = ["owner", "estimator", "crew", "homeowner", "anonymous", "other company's owner"];
 
 const cookies = {} as Record<Who, string | undefined>;
-const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "" };
+const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "", order: 0 };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
   const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
@@ -93,6 +100,11 @@ beforeAll(async () => {
     origin: "http://localhost",
   });
   ids.token = proposal.token;
+  // A drafted supplier order for the signed job (the owner drafts; the routes below read and move it).
+  const [owner] = await db.select().from(users).where(eq(users.email, "owner@cinder-slate.test"));
+  const drafted = await draftSupplierOrders({ ...owner!, sessionId: "matrix" }, won, nextDay(nextDay(zonedDay(new Date(), company.timeZone))));
+  if (!drafted.ok) throw new Error(JSON.stringify(drafted.errors));
+  ids.order = drafted.orderIds[0]!;
 });
 
 /** What a person would see: "200", "403", "404", "sign-in", or "redirect <path>". */
@@ -312,6 +324,58 @@ const CASES: Case[] = [
     name: "POST /app/attention (an e-mail that has not failed)",
     call: (c) => attentionAction(routeArgs(post("/app/attention", c, { intent: "retry-email", id: "1" }))),
     expected: { owner: "404", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/suppliers",
+    call: (c) => suppliersLoader(routeArgs(get("/app/suppliers", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "POST /app/suppliers (a form without a name)",
+    call: (c) => suppliersAction(routeArgs(post("/app/suppliers", c, { supplierId: "", name: "", email: "x" }))),
+    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+  },
+  {
+    name: "GET /app/supplier-orders",
+    call: (c) => supplierOrdersLoader(routeArgs(get("/app/supplier-orders", c))),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    // Combining one order alone is refused before anything is looked up; the other company's owner gets the same words.
+    name: "POST /app/supplier-orders (combine one order)",
+    call: (c) => supplierOrdersAction(routeArgs(post("/app/supplier-orders", c, { orderId: String(ids.order) }))),
+    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+  },
+  {
+    name: "GET /app/supplier-orders/:id",
+    call: (c) => supplierOrderLoader(routeArgs(get(`/app/supplier-orders/${ids.order}`, c), { orderId: String(ids.order) })),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "POST /app/supplier-orders/:id (mark a draft delivered)",
+    call: (c) => supplierOrderAction(routeArgs(post(`/app/supplier-orders/${ids.order}`, c, { intent: "deliver" }), { orderId: String(ids.order) })),
+    expected: { owner: "409", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/supplier-orders/:id/order.pdf",
+    call: (c) => supplierOrderFileLoader(routeArgs(get(`/app/supplier-orders/${ids.order}/order.pdf`, c), { orderId: String(ids.order), file: "order.pdf" })),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/supplier-orders/:id/order.csv",
+    call: (c) => supplierOrderFileLoader(routeArgs(get(`/app/supplier-orders/${ids.order}/order.csv`, c), { orderId: String(ids.order), file: "order.csv" })),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/supplier-orders",
+    call: (c) => jobOrdersLoader(routeArgs(get(`/app/leads/${lead()}/supplier-orders`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    // Drafted already (above): the owner is told so.
+    name: "POST /app/leads/:id/supplier-orders (draft again)",
+    call: (c) => jobOrdersAction(routeArgs(post(`/app/leads/${lead()}/supplier-orders`, c, { requestedOn: nextDay(nextDay(zonedDay(new Date(), "America/Chicago"))) }), { leadId: lead() })),
+    expected: { owner: "409", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
   },
   {
     name: "GET /app/team",

@@ -1,10 +1,26 @@
 import { z } from "zod";
 import { toSingleLine } from "~/lib/format/clean-text";
-import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
+import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind } from "~/db/enums";
+import { PACK_UNITS } from "~/domain/supplier-order";
 import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog/catalog-kinds";
-import { fieldErrors, formNumber } from "~/lib/format/form-fields";
+import { fieldErrors, formId, formNumber } from "~/lib/format/form-fields";
+import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 
 const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
+
+/** A form field that may be left blank (or left out): blank gives `blank`, anything else must pass `schema`, whose message is kept. */
+function blankOr<T, B>(schema: z.ZodType<T, string>, blank: B) {
+  return z
+    .string()
+    .default("")
+    .transform((value, ctx): T | B => {
+      if (value.trim() === "") return blank;
+      const parsed = schema.safeParse(value);
+      if (parsed.success) return parsed.data;
+      ctx.addIssue({ code: "custom", message: parsed.error.issues[0]?.message ?? "Check this field." });
+      return z.NEVER;
+    });
+}
 
 const baseSchema = z.object({
   kind: z.enum(CATALOG_KINDS, { error: "Choose what kind of item this is." }),
@@ -17,9 +33,16 @@ const baseSchema = z.object({
     .default("#8a8178"),
   price: formNumber("Price", 0, 100_000, "dollars").transform((dollars) => Math.round(dollars * 100)),
   isActive: z.boolean(),
+  // How the yard sells it. Blank fields keep the simple case: no supplier, sold each, weight unknown.
+  supplierId: blankOr(formId("Choose a supplier from the list."), null),
+  orderUnit: z.enum(ORDER_UNITS, { error: "Choose how the yard sells it from the list." }).prefault("each"),
+  unitsPerOrderUnit: blankOr(formNumber("Units per order unit", 0.01, 100_000), 1),
+  orderUnitWeightLb: blankOr(formNumber("Weight of one order unit", 0.01, 100_000, "lb"), null),
 });
 
-export type CatalogItemInput = Omit<z.output<typeof baseSchema>, "price"> & {
+type OrderingKey = "supplierId" | "orderUnit" | "unitsPerOrderUnit" | "orderUnitWeightLb";
+// The ordering fields are optional for callers that write items in code (the defaults apply).
+export type CatalogItemInput = Omit<z.output<typeof baseSchema>, "price" | OrderingKey> & Partial<Pick<z.output<typeof baseSchema>, OrderingKey>> & {
   priceCents: number;
 } & Partial<Record<DimensionKey, number | null>>;
 
@@ -45,6 +68,9 @@ export function parseCatalogForm(form: FormData):
   }
   if (kind === "wall-unit" && dims.faceIn != null && dims.backIn != null && dims.backIn > dims.faceIn) {
     errors.backIn = `Back length must not be longer than the face (${dims.faceIn} in): the narrow end faces the fire.`;
+  }
+  if (base.success && PACK_UNITS.includes(base.data.orderUnit) && !Number.isInteger(base.data.unitsPerOrderUnit)) {
+    errors.unitsPerOrderUnit = `${ORDER_UNIT_LABEL[base.data.orderUnit].per} must be a whole number.`;
   }
   if (!base.success || Object.keys(errors).length > 0) return { ok: false, errors };
   const { price, ...rest } = base.data;

@@ -13,7 +13,7 @@ import { describeDeposit, type ProposalDocument } from "~/lib/proposals/proposal
  * accepted PDF can be checked again later by rendering it anew.
  */
 
-type Doc = InstanceType<typeof PDFDocument>;
+export type Doc = InstanceType<typeof PDFDocument>;
 
 export type SignatureFacts = {
   name: string;
@@ -24,18 +24,18 @@ export type SignatureFacts = {
   acceptedSha256: string;
 };
 
-const INK = "#1f1b19";
-const SOFT = "#574e47";
-const ACCENT = "#b14c12";
-const RULE = "#d6c9b7";
-const CONTENT_W = LETTER_PT.width - 2 * PAGE_MARGIN_PT;
+export const INK = "#1f1b19";
+export const SOFT = "#574e47";
+export const ACCENT = "#b14c12";
+export const RULE = "#d6c9b7";
+export const CONTENT_W = LETTER_PT.width - 2 * PAGE_MARGIN_PT;
 const BOTTOM = LETTER_PT.height - PAGE_MARGIN_PT - 18;
 
-function ensureRoom(doc: Doc, height: number): void {
+export function ensureRoom(doc: Doc, height: number): void {
   if (doc.y + height > BOTTOM) doc.addPage();
 }
 
-function heading(doc: Doc, text: string): void {
+export function heading(doc: Doc, text: string): void {
   ensureRoom(doc, 48);
   doc.moveDown(0.7);
   doc.font("Helvetica-Bold").fontSize(12.5).fillColor(INK).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
@@ -44,14 +44,14 @@ function heading(doc: Doc, text: string): void {
   doc.y = y + 5;
 }
 
-function paragraph(doc: Doc, text: string, options: { size?: number; colour?: string; bold?: boolean } = {}): void {
+export function paragraph(doc: Doc, text: string, options: { size?: number; colour?: string; bold?: boolean } = {}): void {
   doc.font(options.bold ? "Helvetica-Bold" : "Helvetica").fontSize(options.size ?? 10);
   ensureRoom(doc, doc.heightOfString(text, { width: CONTENT_W }) + 4);
   doc.fillColor(options.colour ?? INK).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
   doc.moveDown(0.25);
 }
 
-function bullets(doc: Doc, lines: string[]): void {
+export function bullets(doc: Doc, lines: string[]): void {
   for (const line of lines) {
     doc.font("Helvetica").fontSize(10);
     const h = doc.heightOfString(line, { width: CONTENT_W - 14 });
