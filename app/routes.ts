@@ -5,6 +5,7 @@ export default [
   route("login", "routes/login.tsx"),
   route("logout", "routes/logout.tsx"),
   route("c/:companySlug", "routes/configurator.tsx"),
+  route("c/:companySlug/request", "routes/request-upload.ts"),
   route("c/:companySlug/sent/:ref", "routes/request-sent.tsx"),
   route("c/:companySlug/consult/:ref", "routes/consult.tsx"),
   route("c/:companySlug/consult/:ref/done", "routes/consult-done.tsx"),

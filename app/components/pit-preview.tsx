@@ -9,6 +9,10 @@ export type PitPreviewProps = {
   caption: string;
   unit: LengthUnit;
   formatLength: (inches: number) => string;
+  /** Sizes the drawing's frame (default: square on phones, 4:3 from small screens up). */
+  frameClassName?: string;
+  /** An id for the figure, so a link can bring it into view. */
+  id?: string;
 };
 
 // three.js and react-three-fiber arrive only through this import, after hydration, on the client.
@@ -58,7 +62,7 @@ class SceneBoundary extends Component<SceneBoundaryProps, { hasFailed: boolean }
 type Support = "checking" | "webgl" | "none" | "forced-plan";
 
 /** The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle. */
-export function PitPreview({ input, caption, unit, formatLength }: PitPreviewProps) {
+export function PitPreview({ input, caption, unit, formatLength, frameClassName = "aspect-square sm:aspect-[4/3]", id }: PitPreviewProps) {
   const [support, setSupport] = useState<Support>("checking");
   const [view, setView] = useState<"3d" | "plan">("3d");
   const [hasSceneFailed, setHasSceneFailed] = useState(false);
@@ -83,8 +87,8 @@ export function PitPreview({ input, caption, unit, formatLength }: PitPreviewPro
   );
 
   return (
-    <figure className="card overflow-hidden">
-      <div className="relative aspect-square w-full bg-ash-100 sm:aspect-[4/3]" data-preview={shows3d ? "3d" : "plan"}>
+    <figure className="card overflow-hidden" id={id}>
+      <div className={`relative w-full bg-ash-100 ${frameClassName}`} data-preview={shows3d ? "3d" : "plan"}>
         {shows3d && PitScene ? (
           <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>
             <Suspense fallback={plan}>

@@ -30,10 +30,10 @@ export function StaffInviteEmail(props: { companyName: string; name: string; inv
  */
 export function StaffInviteAddressInUseEmail(props: { companyName: string; name: string; invitedBy: string }) {
   return (
-    <EmailShell companyName={props.companyName} preview={`${props.invitedBy} tried to add you to ${props.companyName}'s workspace`}>
+    <EmailShell companyName={props.companyName} preview={`${props.invitedBy} tried to add you to ${possessive(props.companyName)} workspace`}>
       <Text style={emailText}>Hello {props.name},</Text>
       <Text style={emailText}>
-        {props.invitedBy} tried to add this address to {props.companyName}'s Emberwright workspace, but it already belongs to
+        {props.invitedBy} tried to add this address to {possessive(props.companyName)} Emberwright workspace, but it already belongs to
         another Emberwright account, and one address can hold only one account. Ask {props.invitedBy} to invite you at another
         address.
       </Text>

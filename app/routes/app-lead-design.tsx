@@ -109,7 +109,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
           {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
         </div>
         <div className="card p-5 lg:sticky lg:top-4">
-          <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} onChange={changeDesign} />
+          <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} outsideDiameterIn={plan?.ring.outsideDiameterIn ?? null} onChange={changeDesign} />
           <Form method="post" className="mt-5 border-t border-ash-200 pt-4">
             <input type="hidden" name="design" value={designToSearchParams(design).toString()} />
             <button type="submit" className="btn-primary w-full" disabled={navigation.state === "submitting" || planErrors.length > 0}>

@@ -42,6 +42,7 @@ import { requireUser } from "~/lib/auth/session.server";
 import { isOfficeRole, OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { listTeam } from "~/lib/auth/team.server";
 import { describeAge, formatZonedDateTime } from "~/lib/format/zoned-time";
+import { formatPhone, phoneHref } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" }];
 
@@ -656,7 +657,7 @@ function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean })
       ) : null}
       {lead.phone ? (
         <p>
-          <a href={`tel:${lead.phone.replace(/[^\d+]/g, "")}`} className="font-bold text-ember-700 hover:underline">{lead.phone}</a>
+          <a href={phoneHref(lead.phone)} className="font-bold text-ember-700 hover:underline">{formatPhone(lead.phone)}</a>
         </p>
       ) : null}
       <p className="mt-2 text-char-600">Hopes to build: {lead.buildWindow}</p>

@@ -1,28 +1,22 @@
-import { useEffect, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { data, Form, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/configurator";
 import { DesignControls } from "~/components/configurator/design-controls";
-import { PlanResults } from "~/components/configurator/plan-results";
+import { PlanCautions, PlanPrice, PlanWarnings } from "~/components/configurator/plan-results";
+import { PreviewStrip } from "~/components/configurator/preview-strip";
+import type { SiteFieldNotes } from "~/components/configurator/design-controls";
+import { DEFAULT_FACTORS } from "~/domain/factors";
 import { useLivePlan } from "~/components/configurator/use-live-plan";
 import { RequestForm } from "~/components/configurator/request-form";
 import { PitPreview } from "~/components/pit-preview";
 import { PublicShell } from "~/components/public-shell";
 import { formatLength } from "~/domain/units";
-import { findCompanyBySlug, listCatalog } from "~/lib/catalog/catalog.server";
-import { planForDesign, recordPlan, toCatalogChoice } from "~/lib/design/configurator.server";
+import { planForDesign } from "~/lib/design/configurator.server";
+import { loadCompanyCatalog, receiveLeadRequest } from "~/lib/leads/lead-request.server";
 import { designToSearchParams, parseDesign } from "~/lib/design/design";
 import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design/design-plan";
-import { appOrigin } from "~/lib/platform/email.server";
-import { env } from "~/lib/platform/env.server";
-import { publicFactors, readCompanyFactors } from "~/lib/settings/factor-settings";
-import { fieldErrors } from "~/lib/format/form-fields";
-import { leadFormSchema } from "~/lib/leads/lead-schema";
-import { createLead, PhotoQuotaExceeded, photoBytesToday } from "~/lib/leads/leads.server";
-import type { PlanFieldError } from "~/lib/design/plan-schema";
 import { publicPlan } from "~/lib/design/plan.server";
-import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
-import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
-import { speakLengths } from "~/lib/format/length-text";
+import { speakLengths, summaryInUnit } from "~/lib/format/length-text";
 import { formatPhone, phoneHref } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
@@ -30,12 +24,6 @@ export const meta: Route.MetaFunction = ({ loaderData }) => [
   { name: "description", content: "Size a round masonry fire pit, see it in 3D and get a price range." },
 ];
 
-async function loadCompanyCatalog(slug: string) {
-  const company = await findCompanyBySlug(slug);
-  if (!company) throw new Response("Not found", { status: 404 });
-  const catalog = (await listCatalog(company.id, { activeOnly: true })).map(toCatalogChoice);
-  return { company, catalog, factors: publicFactors(readCompanyFactors(company)) };
-}
 
 // Document responses take their headers from here: pass an action's Retry-After through.
 export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
@@ -54,74 +42,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   };
 }
 
-// Requests from one address to one company in 10 minutes; honest households send one or two. Keyed
-// by company too, so a bot on one contractor's page cannot close every contractor's form.
-const requestLimiter = createLimiter("lead-request:company+address", env.PUBLIC_FORM_LIMIT, 10 * 60);
-
 export async function action({ request, params, context }: Route.ActionArgs) {
-  const { company, catalog, factors } = await loadCompanyCatalog(params.companySlug);
-  const limit = await spendLimit(requestLimiter, `${company.id}|${clientAddress(request, context)}`);
-  if (!limit.ok) {
-    return data(
-      { errors: { form: "Too many requests from this address. Please wait a few minutes and try again." }, values: {} },
-      { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
-    );
-  }
-  const length = Number(request.headers.get("Content-Length") ?? "NaN");
-  if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
-    return data({ errors: { photos: "The request is too large: attach at most 6 photos of 10 MB each." }, values: {} }, { status: 413 });
-  }
-  // Photos stream to temporary files as they arrive; the limits stop the reading itself.
-  const reading = await readLeadForm(request);
-  if (!reading.ok) return data({ errors: reading.errors, values: {} }, { status: reading.status });
-  const { fields, photos: received } = reading;
-  const parsed = leadFormSchema.safeParse(fields);
-  const { website: _honeypot, ...values } = fields;
-  const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
-  const design = parsed.success ? parseDesign(new URLSearchParams(fields.design ?? ""), catalog) : null;
-  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] as PlanFieldError[] };
-  if (!parsed.success || !design || !result.plan) {
-    // Only the quick checks here: nothing is decoded for a request that is refused anyway.
-    const quick = await checkReceivedPhotos(received);
-    await discardReceivedPhotos(received);
-    if (!quick.ok) errors.photos = quick.message;
-    if (!parsed.success || !quick.ok) return data({ errors, values }, { status: 400 });
-    const message = result.errors[0]?.message ?? "This design cannot be built as it stands.";
-    return data({ errors: { form: `Change the design first: ${message}` }, values }, { status: 422 });
-  }
-  const quotaRefusal = () => data({ errors: { photos: new PhotoQuotaExceeded().message }, values }, { status: 429, headers: { "Retry-After": "3600" } });
-  if (received.length && (await photoBytesToday(undefined, company.id)) >= MAX_COMPANY_PHOTO_BYTES_PER_DAY) {
-    await discardReceivedPhotos(received);
-    return quotaRefusal();
-  }
-  const stored = await storeReceivedPhotos(received);
-  if (!stored.ok) return data({ errors: { photos: stored.message }, values }, { status: 400 });
-  const { plan } = result;
-  // The stored record (lead page, cut sheet, PDF) stays in inches for the crew; the e-mails speak the homeowner's chosen unit.
-  const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
-  const summaryInChosenUnit = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, design.unit);
-  let lead: Awaited<ReturnType<typeof createLead>>;
-  try {
-    lead = await createLead({
-      company,
-      form: parsed.data,
-      photos: stored.photos,
-      origin: appOrigin(request),
-      snapshot: {
-        record: recordPlan({ design, summary, resolved: result.resolved, plan }),
-        stoneName: catalog.find((i) => i.id === design.stoneId)?.name ?? "",
-        bowlDiameterIn: plan.ring.bowlDiameterIn,
-        priceLowCents: plan.price?.lowCents ?? null,
-        priceHighCents: plan.price?.highCents ?? null,
-        summary: summaryInChosenUnit,
-      },
-    });
-  } catch (error) {
-    // createLead deletes the stored photos itself when it fails; nothing of the request is kept.
-    if (error instanceof PhotoQuotaExceeded) return quotaRefusal();
-    throw error;
-  }
-  return redirect(`/c/${company.slug}/sent/${lead.ref}`);
+  const outcome = await receiveLeadRequest({ request, companySlug: params.companySlug, context });
+  if (outcome.ok) return redirect(outcome.location);
+  return data({ errors: outcome.errors, values: outcome.values }, { status: outcome.status, headers: outcome.headers });
 }
 
 // The plan API answers the live updates itself, and a refused request form changes nothing the
@@ -133,6 +57,7 @@ export function shouldRevalidate({ formAction, formMethod, defaultShouldRevalida
 export default function ConfiguratorRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { company, catalog, factors } = loaderData;
   const [isHydrated, setIsHydrated] = useState(false);
+  const priceRef = useRef<HTMLDivElement>(null);
   useEffect(() => setIsHydrated(true), []);
   const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({
     initial: loaderData,
@@ -158,6 +83,16 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
   const designQuery = designToSearchParams(design).toString();
   const f = (inches: number) => formatLength(inches, design.unit);
   const sceneInput = plan ? designToSceneInput(plan, design, catalog) : null;
+  // Each distance's consequence, said beside its field (the full list stays under "Safety first").
+  const cautionFor = (code: string) => {
+    const caution = plan?.cautions.find((c) => c.code === code);
+    return caution ? speakLengths(caution.message, design.unit) : null;
+  };
+  const siteNotes: SiteFieldNotes = {
+    setback: { requiredFt: factors.requiredSetbackFt ?? DEFAULT_FACTORS.requiredSetbackFt, note: cautionFor("setback-too-close") },
+    propertyLine: { requiredFt: factors.requiredPropertyLineFt ?? DEFAULT_FACTORS.requiredPropertyLineFt, note: cautionFor("property-line-too-close") },
+    branches: { requiredFt: factors.requiredBranchClearanceFt ?? DEFAULT_FACTORS.requiredBranchClearanceFt, note: cautionFor("branches-too-close") },
+  };
 
   return (
     <PublicShell>
@@ -190,49 +125,71 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
           </div>
         </div>
 
-        <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
-          <div className="flex min-w-0 flex-col gap-6">
+        {/* Wide screens: the preview, price and notes stay in view (sticky) beside the controls, the cautions and the
+            request form as they scroll. Phones: preview and price come first, then the rest, with a slim strip keeping
+            the price in sight. */}
+        <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_28rem]">
+          <div className="flex min-w-0 flex-col gap-4 lg:sticky lg:top-4 lg:max-h-[calc(100dvh-2rem)] lg:overflow-y-auto [&>*]:shrink-0" data-testid="preview-column">
             {sceneInput && plan ? (
-              <PitPreview input={sceneInput} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} />
+              <PitPreview
+                id="preview"
+                input={sceneInput}
+                caption={describePreview(plan, design.unit)}
+                unit={design.unit}
+                formatLength={f}
+                frameClassName="aspect-square sm:aspect-[4/3] lg:aspect-auto lg:h-[min(42dvh,30rem)]"
+              />
             ) : null}
             {planErrors.length ? (
               <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
                 {planErrors.map((e) => speakLengths(e.message, design.unit)).join(" ")}
               </p>
             ) : null}
-            {plan ? <PlanResults plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
+            {plan ? (
+              <div ref={priceRef}>
+                <PlanPrice plan={plan} unit={design.unit} isUpdating={isUpdating} />
+              </div>
+            ) : null}
+            {plan ? <PlanWarnings plan={plan} unit={design.unit} /> : null}
           </div>
-          <Form method="get" className="card p-5 lg:sticky lg:top-4" aria-label="Design choices" onSubmit={(e) => isHydrated && e.preventDefault()}>
-            <input type="hidden" name="unit" value={design.unit} />
-            <DesignControls
-              design={design}
-              catalog={catalog}
-              plannedUnitCount={plan?.ring.unitCount ?? null}
-              onChange={changeDesign}
-            />
-            {isHydrated ? null : (
-              <button type="submit" className="btn-primary mt-4 w-full">
-                Update the design
-              </button>
-            )}
-          </Form>
+          {plan && isHydrated ? <PreviewStrip watch={priceRef} plan={plan} sceneInput={sceneInput} unit={design.unit} previewId="preview" /> : null}
+          <div className="flex min-w-0 flex-col gap-6">
+            <Form method="get" className="card p-5" aria-label="Design choices" onSubmit={(e) => isHydrated && e.preventDefault()}>
+              <input type="hidden" name="unit" value={design.unit} />
+              <DesignControls
+                design={design}
+                catalog={catalog}
+                plannedUnitCount={plan?.ring.unitCount ?? null}
+                outsideDiameterIn={plan?.ring.outsideDiameterIn ?? null}
+                siteNotes={siteNotes}
+                onChange={changeDesign}
+              />
+              {isHydrated ? null : (
+                <button type="submit" className="btn-primary mt-4 w-full">
+                  Update the design
+                </button>
+              )}
+            </Form>
+
+            {plan ? <PlanCautions plan={plan} unit={design.unit} /> : null}
+
+            {plan ? (
+              <section aria-label="What you will get" className="card p-5 text-sm">
+                <h2 className="text-lg font-extrabold">Your design in short</h2>
+                <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1">
+                  {summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit).map((line) => (
+                    <div key={line.label} className="flex gap-2">
+                      <dt className="font-bold text-char-700">{line.label}:</dt>
+                      <dd>{line.value}</dd>
+                    </div>
+                  ))}
+                </dl>
+              </section>
+            ) : null}
+
+            <RequestForm designQuery={designQuery} state={actionData} companyName={company.name} companySlug={company.slug} />
+          </div>
         </div>
-
-        {plan ? (
-          <section aria-label="What you will get" className="card p-5 text-sm">
-            <h2 className="text-lg font-extrabold">Your design in short</h2>
-            <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2">
-              {summarizeDesign(plan, design, catalog, design.unit).map((line) => (
-                <div key={line.label} className="flex gap-2">
-                  <dt className="font-bold text-char-700">{line.label}:</dt>
-                  <dd>{line.value}</dd>
-                </div>
-              ))}
-            </dl>
-          </section>
-        ) : null}
-
-        <RequestForm designQuery={designQuery} state={actionData} companyName={company.name} />
       </main>
     </PublicShell>
   );

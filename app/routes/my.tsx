@@ -15,6 +15,7 @@ import { formId } from "~/lib/format/form-fields";
 import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { readStoredDesign } from "~/lib/design/stored-plan";
+import { summaryInUnit } from "~/lib/format/length-text";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
@@ -39,7 +40,8 @@ export async function loader({ request }: Route.LoaderArgs) {
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
-        summary: design.summary,
+        // Stored in inches for the crew; said here in the unit the homeowner designed in.
+        summary: summaryInUnit(design.summary, design.choices.unit),
         price:
           lead.priceLowCents !== null && lead.priceHighCents !== null
             ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`

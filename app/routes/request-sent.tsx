@@ -5,6 +5,7 @@ import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
 import { findLeadByRef } from "~/lib/leads/leads.server";
 import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
 import { readStoredDesign } from "~/lib/design/stored-plan";
+import { summaryInUnit } from "~/lib/format/length-text";
 
 export const meta: Route.MetaFunction = () => [{ title: "Request sent · Emberwright" }];
 
@@ -22,7 +23,8 @@ export async function loader({ params }: Route.LoaderArgs) {
     ref: lead.ref,
     consultFee: formatMoney(company.consultFeeCents),
     firstName: lead.customerName.split(" ")[0],
-    summary: design.summary,
+    // Stored in inches for the crew; said here in the unit the homeowner designed in.
+    summary: summaryInUnit(design.summary, design.choices.unit),
     price:
       lead.priceLowCents !== null && lead.priceHighCents !== null
         ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`

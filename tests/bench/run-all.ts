@@ -193,7 +193,7 @@ async function benchHttp(server: BenchServer, session: Session) {
       customerName: "Bench Homeowner",
       // A fresh address per request, so each request also creates its homeowner account.
       email: `bench-${process.pid}-${++sequence}@example.test`,
-      phone: "555-010-2030",
+      phone: "970-555-0130",
       street: "12 Quarry Lane",
       town: "Millbrook",
       buildWindow: "this-season",

@@ -80,7 +80,7 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
   await waitForHydration(page);
   await page.getByLabel("Your name").fill("Hazel Quinlan");
   await page.getByLabel("E-mail", { exact: true }).fill(email);
-  await page.getByLabel("Phone", { exact: true }).fill("555 010 9911");
+  await page.getByLabel("Phone", { exact: true }).fill("(970) 555-0191");
   await page.getByLabel("Street address").fill("7 Birchwood Court");
   await page.getByLabel("Town").fill("Millbrook Falls");
   await page.getByLabel(/Photos of the spot/).setInputFiles([
@@ -129,7 +129,7 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
   await expect(otherPage.getByRole("button", { name: "Update the design" })).toHaveCount(0);
   await otherPage.getByLabel("Your name").fill("Ivo Szabo");
   await otherPage.getByLabel("E-mail", { exact: true }).fill(otherEmail);
-  await otherPage.getByLabel("Phone", { exact: true }).fill("555 010 2323");
+  await otherPage.getByLabel("Phone", { exact: true }).fill("(970) 555-0123");
   await otherPage.getByLabel("Street address").fill("2 Quarry Road");
   await otherPage.getByLabel("Town").fill("Cedar Hollow");
   await otherPage.getByLabel(/may contact me/).check();

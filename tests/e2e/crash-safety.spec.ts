@@ -48,7 +48,7 @@ const PNG = Buffer.from("89504e470d0a1a0a0000000d4948445200000002000000020806000
 
 function submit(i: number) {
   const form = new FormData();
-  for (const [k, v] of Object.entries({ customerName: `Crash Test ${i}`, email: `crash${i}@example.test`, phone: "555 010 0000", street: `${i} Test Row`, town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14" })) form.set(k, v);
+  for (const [k, v] of Object.entries({ customerName: `Crash Test ${i}`, email: `crash${i}@example.test`, phone: "(970) 555-0100", street: `${i} Test Row`, town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14" })) form.set(k, v);
   form.append("photos", new File([PNG], "a.png", { type: "image/png" }));
   form.append("photos", new File([PNG], "b.png", { type: "image/png" }));
   return fetch(`http://127.0.0.1:${PORT}/c/cinder-slate`, { method: "POST", body: form, redirect: "manual", headers: { Origin: `http://127.0.0.1:${PORT}` } }).then(

@@ -29,7 +29,7 @@ export async function sendRequest(page: Page, person: { name: string; email: str
   await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
   await page.getByLabel("Your name").fill(person.name);
   await page.getByLabel("E-mail", { exact: true }).fill(person.email);
-  await page.getByLabel("Phone", { exact: true }).fill("555 010 7788");
+  await page.getByLabel("Phone", { exact: true }).fill("(970) 555-0178");
   await page.getByLabel("Street address").fill("21 Juniper Row");
   await page.getByLabel("Town").fill(person.town ?? "Millbrook Falls");
   await page.getByLabel(/may contact me/).check();

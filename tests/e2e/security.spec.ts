@@ -150,7 +150,7 @@ function rawPost(
 
 test("host-header link poisoning: a request posted with Host attacker.example mails the set-password link on the configured origin only", async ({ baseURL }) => {
   const email = `host-attack-${Date.now()}@example.test`;
-  const fields = { customerName: "Hostile Host", email, phone: "555 010 9911", street: "9 Elm Row", town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14" };
+  const fields = { customerName: "Hostile Host", email, phone: "(970) 555-0191", street: "9 Elm Row", town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14" };
   const boundary = "----emberwright-e2e";
   const body = Buffer.from(
     Object.entries(fields)

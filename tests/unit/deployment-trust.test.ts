@@ -226,6 +226,9 @@ test("the body cap by route kind: JSON APIs and the webhook 64 kB, sign-in and p
   expect(bodyLimitFor("/c/cinder-slate/consult/abc").bytes).toBe(16 * 1024);
   expect(bodyLimitFor("/c/cinder-slate").bytes).toBe(MAX_FORM_BYTES);
   expect(bodyLimitFor("/c/cinder-slate.data").bytes).toBe(MAX_FORM_BYTES);
+  // The upload endpoint the enhanced request form posts to takes the same photos; its neighbours do not.
+  expect(bodyLimitFor("/c/cinder-slate/request").bytes).toBe(MAX_FORM_BYTES);
+  expect(bodyLimitFor("/c/cinder-slate/sent/abc").bytes).toBe(16 * 1024);
 });
 
 async function throughMiddleware(request: Request) {

@@ -5,6 +5,7 @@ import { emailOutbox, leadEvents, leadPhotos, leads, oneTimeTokens, users } from
 import { db } from "~/lib/platform/db.server";
 import { deliverDueEmails } from "~/lib/jobs/outbox-worker.server";
 import { action } from "~/routes/configurator";
+import { action as uploadAction } from "~/routes/request-upload";
 import { startEmailFake, type EmailFake } from "../../fakes/email/server";
 import { demoCompany, routeArgs } from "./support/demo";
 import { TINY_JPEG, TINY_PNG } from "./support/images";
@@ -39,7 +40,7 @@ async function send(fields: Record<string, string>, photos: File[] = []) {
 const GOOD = {
   customerName: "Rosalind Ferreira",
   email: "rosalind@example.test",
-  phone: "(555) 010-4477",
+  phone: "(970) 555-0147",
   street: "14 Larkspur Lane",
   town: "Millbrook Falls",
   buildWindow: "this-season",
@@ -138,4 +139,31 @@ test("one address sending more than the limit of requests in 10 minutes gets 429
   expect(statuses.slice(0, 10)).toEqual(Array(10).fill(400));
   expect(statuses[10]).toBe(429);
   expect(Number(retryAfter)).toBeGreaterThan(0);
+});
+
+async function sendThroughUploadEndpoint(fields: Record<string, string>, photos: File[] = []) {
+  const raw = requestForm(fields, photos);
+  const body = await raw.arrayBuffer();
+  const request = new Request("http://localhost/c/cinder-slate/request", { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) } });
+  return (await uploadAction(routeArgs(request, { companySlug: "cinder-slate" }))) as Response;
+}
+
+test("the upload endpoint answers in JSON: where to go once the request is saved, and each refused field by name with nothing saved", async () => {
+  await demoCompany();
+  const sent = await sendThroughUploadEndpoint({ ...GOOD, email: "upload.endpoint@example.test" }, [new File([TINY_JPEG], "yard.jpg", { type: "image/jpeg" })]);
+  expect(sent.status).toBe(200);
+  const { location } = (await sent.json()) as { location: string };
+  expect(location).toMatch(/^\/c\/cinder-slate\/sent\/[\w-]{22}$/);
+  const [lead] = await db.select().from(leads).where(eq(leads.ref, location.split("/").pop()!));
+  // The phone as typed, "(970) 555-0147", kept in E.164 (ITU-T E.164).
+  expect(lead?.phone).toBe("+19705550147");
+  expect(await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, lead!.id))).toHaveLength(1);
+
+  const before = await Promise.all([tableCount(leads), tableCount(leadPhotos)]);
+  const refused = await sendThroughUploadEndpoint({ ...GOOD, phone: "call me" });
+  expect(refused.status).toBe(400);
+  const answer = (await refused.json()) as { errors: Record<string, string>; values: Record<string, string> };
+  expect(answer.errors.phone).toMatch(/phone number with its area code/);
+  expect(answer.values.customerName).toBe(GOOD.customerName);
+  expect(await Promise.all([tableCount(leads), tableCount(leadPhotos)])).toEqual(before);
 });

@@ -1,5 +1,5 @@
 import { expect, test } from "vitest";
-import { formatAreaFt2, speakLengths } from "~/lib/format/length-text";
+import { formatAreaFt2, speakLengths, summaryInUnit } from "~/lib/format/length-text";
 
 // 1 in = 25.4 mm exactly and 1 ft = 0.3048 m exactly (international yard and pound agreement, 1959; NIST SP 811 B.8).
 
@@ -29,4 +29,18 @@ test("feet become metres to a tenth and square feet become square metres", () =>
 test("words that merely start with 'in' and counts of things are left alone", () => {
   expect(speakLengths("16 units in each course, 2 inside, 14 units a course", "mm")).toBe("16 units in each course, 2 inside, 14 units a course");
   expect(speakLengths("section §307.4.2 of the code", "mm")).toBe("section §307.4.2 of the code");
+});
+
+test("a design summary stored in inches is said in millimetres and metres line by line, and left alone in inches", () => {
+  const stored = [
+    { label: "Bowl", value: "36 9/16 in across inside, 14 units a course" },
+    { label: "Patio", value: "8 ft radius, Flagstone with a Soldier edge" },
+    { label: "Site", value: "30 ft to the nearest building" },
+  ];
+  expect(summaryInUnit(stored, "mm")).toEqual([
+    { label: "Bowl", value: "929 mm across inside, 14 units a course" }, // 36.5625 × 25.4 = 928.69
+    { label: "Patio", value: "2.4 m radius, Flagstone with a Soldier edge" }, // 8 × 0.3048 = 2.4384
+    { label: "Site", value: "9.1 m to the nearest building" }, // 30 × 0.3048 = 9.144
+  ]);
+  expect(summaryInUnit(stored, "in")).toEqual(stored);
 });

@@ -17,7 +17,7 @@ import { FAKE_JPEG, TINY_JPEG, TINY_PNG } from "./support/images";
 
 const FIELDS = {
   customerName: "Rosalind Ferreira",
-  phone: "(555) 010-4477",
+  phone: "(970) 555-0147",
   street: "14 Larkspur Lane",
   town: "Millbrook Falls",
   buildWindow: "this-season",

@@ -1,4 +1,4 @@
-import { useId, type ReactNode } from "react";
+import { useId, useState, type ReactNode } from "react";
 import { MAX_COURSES } from "~/domain/ring";
 import { formatLength, type LengthUnit } from "~/domain/units";
 import {
@@ -6,17 +6,27 @@ import {
   OVERHANG_STEP_IN,
   PATIO_RADIUS_FT,
   offeredRingSizes,
+  suggestPatioRadiusFt,
   type CatalogChoice,
   type Design,
   type LinerKind,
 } from "~/lib/design/design";
 import { describeSeat } from "~/lib/design/design-plan";
+import { speakLengths } from "~/lib/format/length-text";
+
+/** A distance field's consequence, said beside the field: what the contractor works to, and a note when the spot is closer. */
+export type SiteFieldNote = { requiredFt: number | null; note: string | null };
+export type SiteFieldNotes = Record<"setback" | "propertyLine" | "branches", SiteFieldNote>;
 
 type Props = {
   design: Design;
   catalog: CatalogChoice[];
-  /** The plan's bowl when it is sized to the steel ring (the slider then shows it, disabled). */
+  /** The plan's bowl when it is sized to the steel ring (the slider then starts from it). */
   plannedUnitCount: number | null;
+  /** The plan's outside diameter (in), for the patio size suggested before a patio is priced. */
+  outsideDiameterIn: number | null;
+  /** What each distance field means for this design, shown beside it. */
+  siteNotes?: SiteFieldNotes;
   onChange: (patch: Partial<Design>) => void;
 };
 
@@ -30,6 +40,10 @@ function Section({ title, hint, children }: { title: string; hint?: ReactNode; c
   );
 }
 
+/** A patio's width across, from its radius in feet: feet for inches, metres for millimetres (1 ft = 0.3048 m exactly). */
+const patioAcross = (radiusFt: number, unit: LengthUnit) =>
+  unit === "mm" ? `${(Math.round(radiusFt * 2 * 0.3048 * 10) / 10).toLocaleString("en-US")} m across` : `${radiusFt * 2} ft across`;
+
 const sizeText = (item: CatalogChoice, unit: LengthUnit) =>
   `${formatLength(item.faceIn ?? 0, unit)} face, ${formatLength(item.heightIn ?? 0, unit)} high`;
 
@@ -37,14 +51,19 @@ const sizeText = (item: CatalogChoice, unit: LengthUnit) =>
  * The configurator's controls. Every input carries the search-param name it stands for, so the
  * form also works as a plain GET without JavaScript.
  */
-export function DesignControls({ design, catalog, plannedUnitCount, onChange }: Props) {
+export function DesignControls({ design, catalog, plannedUnitCount, outsideDiameterIn, siteNotes, onChange }: Props) {
   const ids = useId();
+  // A patio being sized: its radius is asked for (with a suggestion) before it enters the design and the price.
+  const [patioDraftFt, setPatioDraftFt] = useState<number | null>(null);
+  const suggestedPatioFt = suggestPatioRadiusFt(outsideDiameterIn);
+
   const unit = design.unit;
   const f = (inches: number) => formatLength(inches, unit);
   const ofKind = (kind: string) => catalog.filter((i) => i.kind === kind);
   const stones = ofKind("wall-unit");
   const caps = ofKind("cap");
   const rings = ofKind("steel-ring");
+  const ring = rings.find((r) => r.id === design.ringId) ?? rings[0] ?? null;
   const hasFirebrick = ofKind("firebrick").length > 0;
   const pavers = ofKind("paver");
   const borders = ofKind("border-unit");
@@ -63,7 +82,7 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
           {stones.map((s) => (
             <label
               key={s.id}
-              className="relative flex cursor-pointer items-center gap-3 rounded-lg border-2 border-ash-300 bg-white p-2.5 has-checked:border-action has-checked:bg-ember-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ember-500"
+              className="relative flex cursor-pointer items-center gap-3 rounded-lg border-2 border-ash-300 bg-white p-2.5 has-checked:border-action has-checked:bg-ember-50 has-focus-visible:outline-3 has-focus-visible:outline-offset-3 has-focus-visible:outline-char-900 has-focus-visible:outline-dashed"
             >
               <input
                 type="radio"
@@ -80,7 +99,8 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
                   {s.colourName} · {sizeText(s, unit)}
                 </span>
               </span>
-              {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1); keyboard focus gets the site-wide outline. */}
+              {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1). Keyboard focus is a dark dashed ring outside
+                  the card, so it cannot be mistaken for the orange border that marks the chosen stone (WCAG 2.1 SC 2.4.7). */}
               {s.id === design.stoneId ? (
                 <span className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white" aria-hidden="true">✓ Chosen</span>
               ) : null}
@@ -104,10 +124,11 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
           max={maxCount}
           step={1}
           value={Math.min(maxCount, Math.max(minCount, shownCount))}
-          disabled={design.fitToRing}
           aria-valuetext={shownSize ? `${f(shownSize.bowlDiameterIn)} across inside, ${shownCount} blocks a course` : undefined}
+          aria-describedby={design.fitToRing ? `${ids}-fit-note` : undefined}
+          // Moving the slider is choosing a size by hand: the bowl stops following the ring (and says so below).
           onChange={(e) => onChange({ unitCount: Number(e.target.value), fitToRing: false })}
-          className="mt-2 w-full accent-ember-500 disabled:opacity-50"
+          className="mt-2 w-full accent-ember-500"
         />
         <p className="text-xs text-char-500">{shownCount} blocks a course</p>
         {design.linerKind === "steel-ring" && rings.length ? (
@@ -122,6 +143,13 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
             />
             Size the bowl to fit my steel ring insert
           </label>
+        ) : null}
+        {design.linerKind === "steel-ring" && rings.length ? (
+          <p id={`${ids}-fit-note`} className="mt-1 text-xs text-char-600" aria-live="polite">
+            {design.fitToRing
+              ? `The bowl follows the ${ring?.name ?? "ring insert"}: the smallest size that fits it with room around it. Moving the slider picks your own size instead.`
+              : `The bowl is the size you picked. Tick the box to size it to the ${ring?.name ?? "ring insert"} again.`}
+          </p>
         ) : null}
       </Section>
 
@@ -234,19 +262,69 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
           <label className="flex items-center gap-2 text-sm font-bold text-char-700">
             <input
               type="checkbox"
-              checked={design.patioRadiusFt > 0}
-              onChange={(e) => onChange({ patioRadiusFt: e.target.checked ? 8 : 0 })}
+              checked={design.patioRadiusFt > 0 || patioDraftFt !== null}
+              onChange={(e) => {
+                // Ticking asks for the size first; the price changes only once a size is chosen.
+                if (e.target.checked) setPatioDraftFt(suggestedPatioFt);
+                else {
+                  setPatioDraftFt(null);
+                  if (design.patioRadiusFt > 0) onChange({ patioRadiusFt: 0 });
+                }
+              }}
               className="h-4 w-4 accent-ember-500"
             />
             Add a round patio
           </label>
-          {design.patioRadiusFt > 0 ? (
+          {design.patioRadiusFt === 0 && patioDraftFt !== null ? (
+            <div className="mt-3 flex flex-col gap-3 rounded-lg border border-ash-300 bg-ash-50 p-3" role="group" aria-labelledby={`${ids}-patio-ask`}>
+              <p id={`${ids}-patio-ask`} className="text-sm font-bold text-char-800">How big a patio?</p>
+              <p className="text-sm text-char-700">
+                We suggest {suggestedPatioFt} ft out from the centre ({patioAcross(suggestedPatioFt, unit)}): room for a ring of chairs
+                around the pit and a path behind them. The price changes when you add it.
+              </p>
+              <div>
+                <label htmlFor={`${ids}-patio-draft`} className="flex items-baseline justify-between text-sm">
+                  <span className="font-bold text-char-700">Patio radius</span>
+                  <output htmlFor={`${ids}-patio-draft`} className="font-extrabold tabular-nums">
+                    {patioDraftFt} ft ({patioAcross(patioDraftFt, unit)})
+                  </output>
+                </label>
+                <input
+                  id={`${ids}-patio-draft`}
+                  type="range"
+                  min={PATIO_RADIUS_FT.min}
+                  max={PATIO_RADIUS_FT.max}
+                  step={0.5}
+                  value={patioDraftFt}
+                  aria-valuetext={`${patioDraftFt} ft radius, ${patioAcross(patioDraftFt, unit)}`}
+                  onChange={(e) => setPatioDraftFt(Number(e.target.value))}
+                  className="mt-1 w-full accent-ember-500"
+                />
+              </div>
+              <div className="flex flex-wrap gap-2">
+                <button
+                  type="button"
+                  className="btn-primary"
+                  onClick={() => {
+                    onChange({ patioRadiusFt: patioDraftFt });
+                    setPatioDraftFt(null);
+                  }}
+                >
+                  Add a {patioDraftFt} ft patio
+                </button>
+                <button type="button" className="btn-quiet" onClick={() => setPatioDraftFt(null)}>
+                  Not now
+                </button>
+              </div>
+              <input type="hidden" name="patio" value="0" />
+            </div>
+          ) : design.patioRadiusFt > 0 ? (
             <div className="mt-3 flex flex-col gap-3">
               <div>
                 <label htmlFor={`${ids}-patio`} className="flex items-baseline justify-between text-sm">
                   <span className="font-bold text-char-700">Patio radius</span>
                   <output className="font-extrabold tabular-nums">
-                    {design.patioRadiusFt} ft ({f(design.patioRadiusFt * 24)} across)
+                    {design.patioRadiusFt} ft ({patioAcross(design.patioRadiusFt, unit)})
                   </output>
                 </label>
                 <input
@@ -293,12 +371,17 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
             ["propertyLine", "propertyLineFt", "Distance to the property line", "e.g. 15"],
             ["branches", "branchesFt", "Distance to overhanging branches or wires", "e.g. 20"],
           ] as const
-        ).map(([name, key, label, example]) => (
+        ).map(([name, key, label, example]) => {
+          const site = siteNotes?.[name];
+          const describedBy = [site?.requiredFt != null ? `${ids}-${name}-needs` : null, site?.note ? `${ids}-${name}-note` : null].filter(Boolean).join(" ");
+          return (
           <div key={name} className="mt-3 first:mt-0">
             <label className="field-label" htmlFor={`${ids}-${name}`}>{label}</label>
             <div className="relative mt-1 max-w-48">
               <input
                 id={`${ids}-${name}`}
+                aria-describedby={describedBy || undefined}
+                aria-invalid={site?.note ? true : undefined}
                 type="number"
                 name={name}
                 min={0}
@@ -311,8 +394,18 @@ export function DesignControls({ design, catalog, plannedUnitCount, onChange }: 
               />
               <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">ft</span>
             </div>
+            {site?.requiredFt != null ? (
+              <p id={`${ids}-${name}-needs`} className="mt-1 text-xs text-char-600">
+                {speakLengths(`Your contractor works to at least ${site.requiredFt} ft.`, unit)}
+              </p>
+            ) : null}
+            {/* The consequence sits beside its field; the full list of cautions stays under "Safety first". */}
+            <p id={`${ids}-${name}-note`} aria-live="polite" className={site?.note ? "mt-1 rounded-md bg-alert-100 px-2 py-1.5 text-sm font-semibold text-alert-700" : "sr-only"}>
+              {site?.note ?? ""}
+            </p>
           </div>
-        ))}
+          );
+        })}
       </Section>
     </div>
   );

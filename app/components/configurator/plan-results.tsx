@@ -3,15 +3,14 @@ import type { PublicPlan } from "~/lib/design/design-plan";
 import { formatAreaFt2, speakLengths } from "~/lib/format/length-text";
 import { formatMoneyWhole } from "~/lib/format/money";
 
-/** Price, key numbers, warnings and cautions beside the preview. */
-export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {
+/** The price and the key numbers, kept in view beside the preview while the controls change them. */
+export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {
   const f = (inches: number) => formatLength(inches, unit);
   const wallUnits = plan.materials.find((m) => m.key === "wall-unit");
   const caps = plan.materials.find((m) => m.key === "cap");
-  const cautions = plan.cautions.filter((c) => c.audience !== "crew");
   return (
-    <section aria-labelledby="plan-summary-title" aria-busy={isUpdating} className="flex flex-col gap-4">
-      <div className="card p-5">
+    <section aria-labelledby="plan-summary-title" aria-busy={isUpdating}>
+      <div className="card p-4 lg:p-5">
         <h2 id="plan-summary-title" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">
           Your fire pit
         </h2>
@@ -19,7 +18,7 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
           {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "Price on request"}
         </p>
         <p className="text-sm text-char-600">Installed, as an estimate. The contractor confirms the price after seeing your yard.</p>
-        <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm" data-testid="plan-summary">
+        <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm lg:mt-3 lg:grid-cols-3" data-testid="plan-summary">
           <div>
             <dt className="text-char-500">Inside (bowl)</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.bowlDiameterIn)}</dd>
@@ -59,20 +58,30 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
           ) : null}
         </dl>
       </div>
+    </section>
+  );
+}
 
-      {plan.warnings.length ? (
+/** The engine's notes on this design ("worth a second look"), said in the chosen unit. */
+export function PlanWarnings({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
+  return plan.warnings.length ? (
         <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4" role="status">
-          <h3 className="font-extrabold text-ember-700">Worth a second look</h3>
+          <h2 className="font-extrabold text-ember-700">Worth a second look</h2>
           <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
             {plan.warnings.map((w) => (
               <li key={w.code} data-code={w.code}>{speakLengths(w.message, unit)}</li>
             ))}
           </ul>
         </div>
-      ) : null}
+  ) : null;
+}
 
+/** Every caution for the homeowner, in one list. */
+export function PlanCautions({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
+  const cautions = plan.cautions.filter((c) => c.audience !== "crew");
+  return (
       <div className="card p-4">
-        <h3 className="font-extrabold">Safety first</h3>
+        <h2 className="font-extrabold">Safety first</h2>
         <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
           {cautions.map((c) => (
             <li key={c.code} data-code={c.code} className="border-l-3 border-ash-300 pl-3">
@@ -81,6 +90,5 @@ export function PlanResults({ plan, unit, isUpdating }: { plan: PublicPlan; unit
           ))}
         </ul>
       </div>
-    </section>
   );
 }

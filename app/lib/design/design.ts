@@ -75,6 +75,19 @@ export function offeredRingSizes(item: CatalogChoice): { unitCount: number; bowl
   return sizes;
 }
 
+/*
+ * The patio size offered when a homeowner first asks for one: the pit's outside edge plus room for
+ * a ring of chairs and a path behind them. Common practice, no source: chairs sit about 2 ft back
+ * from the wall, take about 3 ft, and a path behind them wants about 1 ft more (6 ft in all).
+ */
+export const PATIO_CHAIR_ROOM_FT = 6;
+
+/** The suggested patio radius (ft, half-foot steps within the offered range) for a pit this wide outside (in). */
+export function suggestPatioRadiusFt(outsideDiameterIn: number | null): number {
+  const pitRadiusFt = outsideDiameterIn && outsideDiameterIn > 0 ? outsideDiameterIn / 2 / 12 : 2;
+  return clamp(Math.ceil((pitRadiusFt + PATIO_CHAIR_ROOM_FT) * 2) / 2, PATIO_RADIUS_FT.min, PATIO_RADIUS_FT.max);
+}
+
 function intParam(params: URLSearchParams, key: string): number | null {
   const raw = params.get(key);
   if (raw === null || !/^\d{1,6}$/.test(raw)) return null;

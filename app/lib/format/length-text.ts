@@ -43,3 +43,11 @@ export function speakLengths(text: string, unit: LengthUnit): string {
 export function formatAreaFt2(areaFt2: number, unit: LengthUnit): string {
   return unit === "mm" ? `${metres(areaFt2 * FT2_TO_M2)} m²` : `${Math.round(areaFt2)} ft²`;
 }
+
+/**
+ * A design summary kept in inches (the stored record the crew reads), said in the homeowner's
+ * chosen unit: the same lines on the sent page, in the e-mail and on /my.
+ */
+export function summaryInUnit<T extends { label: string; value: string }>(lines: readonly T[], unit: LengthUnit): T[] {
+  return lines.map((line) => ({ ...line, value: speakLengths(line.value, unit) }));
+}

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { BUILD_WINDOWS } from "~/db/enums";
 import { toCleanLines, toSingleLine } from "~/lib/format/clean-text";
+import { phoneNumberSchema } from "~/lib/format/phone-schema";
 
 /**
  * The homeowner's request form (the design itself travels in the search params). Every text field
@@ -9,11 +10,8 @@ import { toCleanLines, toSingleLine } from "~/lib/format/clean-text";
 export const leadFormSchema = z.object({
   customerName: z.string().overwrite(toSingleLine).trim().min(2, "Enter your name (2 to 80 characters).").max(80, "Enter your name (2 to 80 characters)."),
   email: z.email("Enter an e-mail address like you@example.com.").max(254, "E-mail must be at most 254 characters."),
-  phone: z
-    .string()
-    .overwrite(toSingleLine)
-    .trim()
-    .regex(/^[+()\d\s.-]{7,25}$/, "Enter a phone number: 7 to 25 digits, spaces, +, ( ) or -."),
+  // Stored in E.164 ("+12175550142") and shown formatted.
+  phone: phoneNumberSchema("Enter your phone number with its area code, like (217) 555-0142; outside North America start with + and the country code."),
   street: z.string().overwrite(toSingleLine).trim().min(3, "Enter the street address (3 to 120 characters).").max(120, "Enter the street address (3 to 120 characters)."),
   town: z.string().overwrite(toSingleLine).trim().min(2, "Enter the town (2 to 80 characters).").max(80, "Enter the town (2 to 80 characters)."),
   buildWindow: z.enum(BUILD_WINDOWS, { error: "Choose when you hope to build." }),

@@ -22,7 +22,8 @@ export function bodyLimitFor(pathname: string): BodyLimit {
   const path = stripDataSuffix(pathname);
   if (path === "/api/webhooks/stripe") return { bytes: JSON_BODY_LIMIT, kind: "webhook" };
   if (path.startsWith("/api/")) return { bytes: JSON_BODY_LIMIT, kind: "json" };
-  if (/^\/c\/[^/]+\/?$/.test(path)) return { bytes: LEAD_FORM_LIMIT, kind: "lead-form" };
+  // The configurator's own form post, and the upload endpoint its enhanced form posts to.
+  if (/^\/c\/[^/]+(?:\/request)?\/?$/.test(path)) return { bytes: LEAD_FORM_LIMIT, kind: "lead-form" };
   if (path === "/app" || path.startsWith("/app/")) return { bytes: WORKSPACE_FORM_LIMIT, kind: "workspace-form" };
   return { bytes: FORM_BODY_LIMIT, kind: "form" };
 }

@@ -40,7 +40,7 @@ export async function sendLead(target: string, publicOrigin: string, args: { ema
   const form = new FormData();
   form.set("customerName", args.name ?? "Multi Process Homeowner");
   form.set("email", args.email);
-  form.set("phone", "555-010-2030");
+  form.set("phone", "970-555-0130");
   form.set("street", "12 Quarry Lane");
   form.set("town", "Millbrook");
   form.set("buildWindow", "this-season");
