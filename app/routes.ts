@@ -15,6 +15,7 @@ export default [
   route("p/:token.pdf", "routes/proposal-pdf.ts"),
   route("p/:token/opened", "routes/proposal-opened.ts"),
   route("photos/:photoId", "routes/photo.ts"),
+  route("calendar/:token.ics", "routes/calendar-feed.ts"),
 
   ...prefix("app", [
     layout("routes/app-layout.tsx", [
@@ -35,11 +36,13 @@ export default [
       route("leads/:leadId/visit", "routes/app-lead-visit.tsx"),
       route("leads/:leadId/proposal", "routes/app-lead-proposal.tsx"),
       route("leads/:leadId/change-order", "routes/app-lead-change-order.tsx"),
+      route("leads/:leadId/build", "routes/app-lead-build.tsx"),
       route("jobs", "routes/app-jobs.tsx"),
       route("team", "routes/app-team.tsx"),
       route("schedule", "routes/app-schedule.tsx"),
       route("consult-hours", "routes/app-consult-hours.tsx"),
       route("attention", "routes/app-attention.tsx"),
+      route("calendar", "routes/app-calendar.tsx"),
     ]),
     route("inbox.csv", "routes/app-inbox-csv.ts"),
     route("inbox/seen", "routes/app-inbox-seen.ts"),

@@ -67,3 +67,7 @@ export type OrderUnit = (typeof ORDER_UNITS)[number];
 /** A supplier order: drafted → sent → confirmed → delivered; a draft may be discarded or combined into another. */
 export const SUPPLIER_ORDER_STATES = ["drafted", "sent", "confirmed", "delivered", "combined", "discarded"] as const;
 export type SupplierOrderState = (typeof SUPPLIER_ORDER_STATES)[number];
+
+// A build on the calendar is booked until it is cancelled (moving it keeps it booked).
+export const BUILD_STATES = ["booked", "cancelled"] as const;
+export type BuildState = (typeof BUILD_STATES)[number];

@@ -1,6 +1,6 @@
 import { sql } from "drizzle-orm";
-import { blob, index, integer, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ORDER_UNITS, ROLES, SLOPES, SOILS, SPOIL_PLANS, SUPPLIER_ORDER_STATES, UTILITY_MARKS } from "~/db/enums";
+import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
+import { BUILD_STATES, BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ORDER_UNITS, ROLES, SLOPES, SOILS, SPOIL_PLANS, SUPPLIER_ORDER_STATES, UTILITY_MARKS } from "~/db/enums";
 
 export * from "~/db/enums";
 
@@ -41,6 +41,10 @@ export const companies = sqliteTable("companies", {
   consultHorizonDays: integer("consult_horizon_days").notNull().default(21),
   // Overrides of the estimating engine's factors (waste, base depth, labour minutes…), JSON.
   factorsJson: text("factors_json").notNull().default("{}"),
+  // Builds: the usual crew size, hours on site a day, and the weekdays crews work (0 Sunday … 6 Saturday).
+  crewSize: integer("crew_size").notNull().default(2),
+  crewDayHours: real("crew_day_hours").notNull().default(8),
+  workWeekdaysJson: text("work_weekdays_json").notNull().default("[1,2,3,4,5]"),
   // Raised by triggers whenever this row or any of the company's catalog items changes, so every
   // process can tell whether the company and catalog it keeps in memory are still the stored ones.
   cacheVersion: integer("cache_version").notNull().default(0),
@@ -61,10 +65,13 @@ export const users = sqliteTable(
     isActive: integer("is_active", { mode: "boolean" }).notNull().default(true),
     // Leads newer than this are marked unseen in the inbox.
     inboxSeenAt: text("inbox_seen_at"),
+    // SHA-256 of the secret in this person's private build calendar link; null when they have none.
+    calendarFeedTokenHash: text("calendar_feed_token_hash"),
     createdAt: createdAt(),
   },
   (t) => [
     uniqueIndex("users_email_unique").on(t.email),
+    uniqueIndex("users_calendar_feed_unique").on(t.calendarFeedTokenHash),
     index("users_company_role_idx").on(t.companyId, t.role),
   ],
 );
@@ -591,3 +598,52 @@ export const supplierOrderDrops = sqliteTable(
 
 export type SupplierOrder = typeof supplierOrders.$inferSelect;
 export type SupplierOrderDrop = typeof supplierOrderDrops.$inferSelect;
+
+// A build on the calendar: one per job at a time (cancelled ones stay for the record). Its days are
+// calendar days in the company's time zone; `sequence` is the iCalendar SEQUENCE, raised on every
+// move or cancellation so calendars replace what they hold (app/lib/builds/build-calendar.ts).
+export const builds = sqliteTable(
+  "builds",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    status: text("status", { enum: BUILD_STATES }).notNull().default("booked"),
+    /** JSON array of "YYYY-MM-DD", in order. */
+    datesJson: text("dates_json").notNull(),
+    firstDay: text("first_day").notNull(),
+    lastDay: text("last_day").notNull(),
+    sequence: integer("sequence").notNull().default(0),
+    labourHours: real("labour_hours").notNull(),
+    notes: text("notes").notNull().default(""),
+    // The job's stage before the build was booked, to go back to if it is cancelled.
+    stageBefore: text("stage_before", { enum: LEAD_STATUSES }).notNull(),
+    bookedByUserId: integer("booked_by_user_id").references(() => users.id),
+    cancelledAt: text("cancelled_at"),
+    cancelReason: text("cancel_reason"),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    index("builds_company_days_idx").on(t.companyId, t.firstDay, t.lastDay),
+    uniqueIndex("builds_one_booked_per_lead").on(t.leadId).where(sql`status = 'booked'`),
+  ],
+);
+
+export const buildCrew = sqliteTable(
+  "build_crew",
+  {
+    buildId: integer("build_id")
+      .notNull()
+      .references(() => builds.id),
+    userId: integer("user_id")
+      .notNull()
+      .references(() => users.id),
+    companyId: companyId(),
+  },
+  (t) => [primaryKey({ columns: [t.buildId, t.userId] }), index("build_crew_user_idx").on(t.userId)],
+);
+
+export type Build = typeof builds.$inferSelect;

@@ -11,25 +11,45 @@ export type CalendarDate = string;
 export type WorkCalendar = { workWeekdays: readonly number[]; daysOff: ReadonlySet<CalendarDate> };
 
 const DATE_PATTERN = /^(\d{4})-(\d{2})-(\d{2})$/;
-const DAY_MS = 86_400_000;
-
 /** Whether the text is a real calendar date "YYYY-MM-DD" (2027-02-29 is not). */
 export function isCalendarDate(text: string): boolean {
   const match = DATE_PATTERN.exec(text);
   if (!match) return false;
   const [year, month, day] = [Number(match[1]), Number(match[2]), Number(match[3])];
-  const date = new Date(Date.UTC(year, month - 1, day));
-  return date.getUTCFullYear() === year && date.getUTCMonth() === month - 1 && date.getUTCDate() === day;
+  return month >= 1 && month <= 12 && day >= 1 && day <= daysInMonth(year, month);
 }
 
+function daysInMonth(year: number, month: number): number {
+  const isLeap = (year % 4 === 0 && year % 100 !== 0) || year % 400 === 0;
+  return [31, isLeap ? 29 : 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31][month - 1]!;
+}
+
+/*
+ * Days since 1970-01-01 and back, in the proleptic Gregorian calendar: H. Hinnant's
+ * days_from_civil / civil_from_days ("chrono-Compatible Low-Level Date Algorithms").
+ */
 function toDayNumber(date: CalendarDate): number {
   if (!isCalendarDate(date)) throw new RangeError(`not a calendar date: ${date}`);
-  const [year, month, day] = date.split("-").map(Number) as [number, number, number];
-  return Date.UTC(year, month - 1, day) / DAY_MS;
+  const [y0, m, d] = date.split("-").map(Number) as [number, number, number];
+  const y = m <= 2 ? y0 - 1 : y0;
+  const era = Math.floor(y / 400);
+  const yoe = y - era * 400;
+  const doy = Math.floor((153 * (m + (m > 2 ? -3 : 9)) + 2) / 5) + d - 1;
+  const doe = yoe * 365 + Math.floor(yoe / 4) - Math.floor(yoe / 100) + doy;
+  return era * 146097 + doe - 719468;
 }
 
 function fromDayNumber(dayNumber: number): CalendarDate {
-  return new Date(dayNumber * DAY_MS).toISOString().slice(0, 10);
+  const z = dayNumber + 719468;
+  const era = Math.floor(z / 146097);
+  const doe = z - era * 146097;
+  const yoe = Math.floor((doe - Math.floor(doe / 1460) + Math.floor(doe / 36524) - Math.floor(doe / 146096)) / 365);
+  const doy = doe - (365 * yoe + Math.floor(yoe / 4) - Math.floor(yoe / 100));
+  const mp = Math.floor((5 * doy + 2) / 153);
+  const d = doy - Math.floor((153 * mp + 2) / 5) + 1;
+  const m = mp < 10 ? mp + 3 : mp - 9;
+  const y = yoe + era * 400 + (m <= 2 ? 1 : 0);
+  return `${String(y).padStart(4, "0")}-${String(m).padStart(2, "0")}-${String(d).padStart(2, "0")}`;
 }
 
 /** The weekday of a calendar date, 0 Sunday … 6 Saturday (proleptic Gregorian, as ISO 8601). */

@@ -25,6 +25,17 @@ describe("calendar dates", () => {
     expect(weekdayOf("2000-01-01")).toBe(6);
   });
 
+  test("adding days agrees with the platform's own calendar (ECMAScript Date) over four centuries", () => {
+    fc.assert(
+      fc.property(fc.integer({ min: Date.UTC(1900, 0, 1), max: Date.UTC(2299, 11, 31) }), fc.integer({ min: -800, max: 800 }), (ms, n) => {
+        const date = new Date(ms).toISOString().slice(0, 10);
+        expect(addCalendarDays(date, n)).toBe(new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(5, 7)) - 1, Number(date.slice(8, 10)) + n)).toISOString().slice(0, 10));
+        expect(daysBetween(date, addCalendarDays(date, n))).toBe(n);
+      }),
+      { numRuns: 300 },
+    );
+  });
+
   test("the Gregorian leap-year rule: 2000 and 2028 have a 29 February, 1900 and 2027 do not", () => {
     expect(isCalendarDate("2000-02-29")).toBe(true);
     expect(isCalendarDate("2028-02-29")).toBe(true);

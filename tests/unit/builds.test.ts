@@ -1,0 +1,216 @@
+/*
+ * Builds on the calendar: booked from the job's labour-hours, moved and cancelled with the calendar
+ * event updated for everyone (RFC 5545 UID/SEQUENCE, RFC 5546 CANCEL, read back with ical.js), two
+ * changes at once settled by the sequence, and the crew's private feed. Day counts worked by hand.
+ */
+import ICAL from "ical.js";
+import { eq, like } from "drizzle-orm";
+import { beforeAll, expect, test } from "vitest";
+import { buildCrew, builds, companies, emailOutbox, leads, users, type Company } from "~/db/schema";
+import { addCalendarDays, buildDates, weekdayOf } from "~/domain/build-schedule";
+import { bookBuild, calendarFeedFor, cancelBuild, issueCalendarFeed, jobLabourHours, moveBuild, revokeCalendarFeed, workCalendarFor } from "~/lib/builds/builds.server";
+import { db } from "~/lib/platform/db.server";
+import { action as buildAction, loader as buildLoader } from "~/routes/app-lead-build";
+import { demoCompany, routeArgs } from "./support/demo";
+import { createCompanyWithStaff, requestWithCookie } from "./support/fixtures";
+import { loginAs } from "./support/login";
+import { copyDemoLead, officeUser } from "./support/proposals";
+
+let company: Company;
+let crewA: { id: number; name: string; email: string };
+let crewB: { id: number; name: string; email: string };
+const ORIGIN = "http://localhost";
+
+beforeAll(async () => {
+  ({ company } = await demoCompany());
+  const suffix = Math.random().toString(36).slice(2, 8);
+  const [a, b] = await db
+    .insert(users)
+    .values([
+      { companyId: company.id, email: `ash.${suffix}@crew.example`, name: `Ash Test ${suffix}`, role: "crew" },
+      { companyId: company.id, email: `rowan.${suffix}@crew.example`, name: `Rowan Test ${suffix}`, role: "crew" },
+    ])
+    .returning();
+  crewA = a!;
+  crewB = b!;
+});
+
+/** A working day far ahead, so these builds never meet the seed's or each other's. */
+let weekOffset = 0;
+async function farMonday(): Promise<string> {
+  weekOffset += 2;
+  let day = addCalendarDays("2091-01-01", weekOffset * 7);
+  while (weekdayOf(day) !== 1) day = addCalendarDays(day, 1);
+  return day;
+}
+
+async function signedJob() {
+  return copyDemoLead("demo-cinder-slate-07", "signed");
+}
+
+const mailFor = (key: string) => db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, key));
+
+function icsOf(row: { attachmentsJson: string }) {
+  const [file] = JSON.parse(row.attachmentsJson) as { content: string }[];
+  const calendar = new ICAL.Component(ICAL.parse(Buffer.from(file!.content, "base64").toString()));
+  const event = new ICAL.Event(calendar.getFirstSubcomponent("vevent")!);
+  const days: string[] = [];
+  const it = event.iterator();
+  for (let next = it.next(); next && days.length < 40; next = it.next()) days.push(next.toString().slice(0, 10));
+  return { method: calendar.getFirstPropertyValue("method"), uid: event.uid, sequence: event.sequence, days, status: event.component.getFirstPropertyValue("status") };
+}
+
+test("booking lays the job's labour-hours over the crew's days, moves the job to “build booked” and e-mails everyone the event", async () => {
+  const lead = await signedJob();
+  const owner = await officeUser(company.id, "owner");
+  const hours = await jobLabourHours(lead);
+  expect(hours).toBeGreaterThan(0);
+  const start = await farMonday();
+  const result = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: null, notes: "", allowClash: false }, ORIGIN);
+  if (!result.ok) throw new Error(JSON.stringify(result));
+  // Days = ceil(hours / (2 people × 8 h)) with the demo company's crew of 2 on 8-hour days.
+  const expectedDays = Math.max(1, Math.ceil(hours / 16 - 1e-9));
+  const dates = JSON.parse(result.build.datesJson) as string[];
+  expect(dates).toEqual(buildDates(start, expectedDays, await workCalendarFor(company)));
+  const [job] = await db.select().from(leads).where(eq(leads.id, lead.id));
+  expect(job!.status).toBe("build-booked");
+
+  const [homeowner] = await mailFor(`build-booked/${result.build.id}/0`);
+  expect(homeowner!.toAddress).toBe(lead.email);
+  const ics = icsOf(homeowner!);
+  expect(ics).toMatchObject({ method: "REQUEST", uid: `build-${result.build.id}@emberwright`, sequence: 0, days: dates });
+  const [crewMail] = await mailFor(`build-crew-booked/${result.build.id}/${crewA.id}/0`);
+  expect(crewMail!.toAddress).toBe(crewA.email);
+  // The reminder waits for 8 a.m. company time the day before the first day.
+  const [reminder] = await mailFor(`build-reminder/${result.build.id}/0`);
+  expect(reminder!.status).toBe("pending");
+  const dayBefore = addCalendarDays(dates[0]!, -1);
+  expect(new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone, year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", hourCycle: "h23" }).format(new Date(reminder!.sendAfter))).toBe(`${dayBefore}, 08`);
+  expect(reminder!.text).toMatch(/utility locate marks/);
+
+  // A second booking for the same job is refused: move it instead.
+  const again = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: false }, ORIGIN);
+  expect(again).toMatchObject({ ok: false, status: 409 });
+});
+
+test("the same crew member on another build the same days is a clash, named, unless the owner books anyway", async () => {
+  const owner = await officeUser(company.id, "owner");
+  const start = await farMonday();
+  const first = await bookBuild(owner, await signedJob(), company, { start, crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  expect(first.ok).toBe(true);
+  const second = await signedJob();
+  const refused = await bookBuild(owner, second, company, { start: addCalendarDays(start, 1), crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  expect(refused).toMatchObject({ ok: false, status: 409 });
+  if (refused.ok) return;
+  expect(refused.clashes).toHaveLength(1);
+  expect(refused.clashes![0]).toContain(crewB.name);
+  // Nothing half-saved: the job is still signed, no build row.
+  expect((await db.select().from(builds).where(eq(builds.leadId, second.id))).length).toBe(0);
+  // A different person the same days is no clash.
+  const other = await bookBuild(owner, second, company, { start: addCalendarDays(start, 1), crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  expect(other.ok).toBe(true);
+});
+
+test("moving keeps the UID and raises SEQUENCE; two moves at once: one wins, the other is told; the old reminder is withdrawn", async () => {
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const start = await farMonday();
+  const booked = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  if (!booked.ok) throw new Error("not booked");
+  const target = addCalendarDays(start, 3); // Thursday: Thursday and Friday.
+  const [a, b] = await Promise.all([
+    moveBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, start: target, days: null, crewUserIds: null, allowClash: true }, ORIGIN),
+    moveBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, start: addCalendarDays(start, 7), days: null, crewUserIds: null, allowClash: true }, ORIGIN),
+  ]);
+  expect([a.ok, b.ok].sort()).toEqual([false, true]);
+  const loser = a.ok ? b : a;
+  expect(loser).toMatchObject({ ok: false, status: 409 });
+  const [row] = await db.select().from(builds).where(eq(builds.id, booked.build.id));
+  expect(row!.sequence).toBe(1);
+  const [moved] = await mailFor(`build-moved/${booked.build.id}/1`);
+  const ics = icsOf(moved!);
+  expect(ics).toMatchObject({ method: "REQUEST", uid: `build-${booked.build.id}@emberwright`, sequence: 1 });
+  expect(ics.days).toEqual(JSON.parse(row!.datesJson));
+  const [oldReminder] = await mailFor(`build-reminder/${booked.build.id}/0`);
+  expect(oldReminder!.status).toBe("cancelled");
+  const [newReminder] = await mailFor(`build-reminder/${booked.build.id}/1`);
+  expect(newReminder!.status).toBe("pending");
+});
+
+test("cancelling sends METHOD:CANCEL under the same UID, withdraws the reminder and puts the job back to signed", async () => {
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const booked = await bookBuild(owner, lead, company, { start: await farMonday(), crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true }, ORIGIN);
+  if (!booked.ok) throw new Error("not booked");
+  const stale = await cancelBuild(owner, lead, company, { buildId: booked.build.id, sequence: 5, reason: "Rain all week." }, ORIGIN);
+  expect(stale).toMatchObject({ ok: false, status: 409 });
+  const cancelled = await cancelBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, reason: "Rain all week." }, ORIGIN);
+  expect(cancelled.ok).toBe(true);
+  const [mail] = await mailFor(`build-cancelled/${booked.build.id}/1`);
+  expect(icsOf(mail!)).toMatchObject({ method: "CANCEL", status: "CANCELLED", sequence: 1, uid: `build-${booked.build.id}@emberwright` });
+  expect(mail!.text).toContain("Rain all week.");
+  expect((await mailFor(`build-crew-cancelled/${booked.build.id}/${crewA.id}/1`)).length).toBe(1);
+  expect((await mailFor(`build-reminder/${booked.build.id}/0`))[0]!.status).toBe("cancelled");
+  const [job] = await db.select().from(leads).where(eq(leads.id, lead.id));
+  expect(job!.status).toBe("signed");
+});
+
+test("a crew member's feed lists their builds only; a new link ends the old one, and stopping ends both", async () => {
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const booked = await bookBuild(owner, lead, company, { start: addCalendarDays(new Date().toISOString().slice(0, 10), 40), crewUserIds: [crewB.id], days: 1, notes: "", allowClash: true }, ORIGIN);
+  if (!booked.ok) throw new Error(JSON.stringify(booked));
+  const first = await issueCalendarFeed(crewB.id, company.id);
+  const feed = await calendarFeedFor(first);
+  expect(feed).toContain(`UID:build-${booked.build.id}@emberwright`);
+  const rowsForB = await db.select({ id: buildCrew.buildId }).from(buildCrew).where(eq(buildCrew.userId, crewB.id));
+  expect(feed!.match(/BEGIN:VEVENT/g)!.length).toBeLessThanOrEqual(rowsForB.length);
+  const aFeed = await calendarFeedFor(await issueCalendarFeed(crewA.id, company.id));
+  expect(aFeed).not.toContain(`UID:build-${booked.build.id}@emberwright`);
+
+  const second = await issueCalendarFeed(crewB.id, company.id);
+  expect(await calendarFeedFor(first)).toBeNull();
+  expect(await calendarFeedFor(second)).not.toBeNull();
+  await revokeCalendarFeed(crewB.id, company.id);
+  expect(await calendarFeedFor(second)).toBeNull();
+  expect(await calendarFeedFor("../../etc/passwd")).toBeNull();
+  expect(await calendarFeedFor("")).toBeNull();
+});
+
+test("the build page: owners only, 404 for another company's job, and bad input named by field with nothing saved", async () => {
+  const lead = await signedJob();
+  const ownerCookie = await loginAs(company.id, "owner");
+  const page = (await buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie), { leadId: String(lead.id) }))) as { suggestedDays: number; canBook: boolean };
+  expect(page.canBook).toBe(true);
+  expect(page.suggestedDays).toBeGreaterThanOrEqual(1);
+
+  const crewCookie = await loginAs(company.id, "crew");
+  await expect(buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, crewCookie), { leadId: String(lead.id) }))).rejects.toSatisfy((r: unknown) => r instanceof Response && [302, 403, 404].includes(r.status));
+
+  const other = await createCompanyWithStaff("Other Masonry");
+  const otherCookie = other.people.owner.cookie;
+  await expect(buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, otherCookie), { leadId: String(lead.id) }))).rejects.toSatisfy((r: unknown) => r instanceof Response && r.status === 404);
+
+  const post = (fields: Record<string, string | string[]>) => {
+    const body = new URLSearchParams();
+    for (const [k, v] of Object.entries(fields)) for (const one of [v].flat()) body.append(k, one);
+    return buildAction(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } }), { leadId: String(lead.id) }));
+  };
+  const badDay = (await post({ intent: "book", start: "2091-02-30", days: "", crewUserIds: String(crewA.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(badDay.init.status).toBe(400);
+  expect(badDay.data.errors.start).toMatch(/first build day/);
+  const noCrew = (await post({ intent: "book", start: "2091-03-05", days: "2", notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(noCrew.init.status).toBe(400);
+  expect(noCrew.data.errors.crewUserIds).toMatch(/crew member/);
+  const tooLong = (await post({ intent: "book", start: "2091-03-05", days: "31", crewUserIds: String(crewA.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(tooLong.data.errors.days).toMatch(/1 to 30/);
+  // Someone else's crew member is refused by name of the field.
+  const [otherCrew] = await db.insert(users).values({ companyId: other.company.id, email: `x.${Date.now()}@other.example`, name: "Not Ours", role: "crew" }).returning();
+  const foreign = (await post({ intent: "book", start: "2091-03-05", days: "1", crewUserIds: String(otherCrew!.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(foreign.init.status).toBe(400);
+  expect(foreign.data.errors.crewUserIds).toMatch(/active crew members of your company/);
+  expect((await db.select().from(builds).where(eq(builds.leadId, lead.id))).length).toBe(0);
+  // The company row is untouched by any of it.
+  const [after] = await db.select().from(companies).where(eq(companies.id, company.id));
+  expect(after!.crewSize).toBe(2);
+});
