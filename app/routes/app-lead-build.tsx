@@ -2,9 +2,10 @@ import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/app-lead-build";
 import { FormAlert, TextField } from "~/components/ui/field";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { addCalendarDays, buildDates, buildDaysNeeded, isCalendarDate } from "~/domain/build-schedule";
 import { requireUser } from "~/lib/auth/session.server";
-import { parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { listTeam } from "~/lib/auth/team.server";
 import { bookBuild, cancelBuild, describeBuildDays, findBookedBuild, jobLabourHours, moveBuild, workCalendarFor } from "~/lib/builds/builds.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -19,7 +20,8 @@ const BUILD_ROLES = ["owner"] as const;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: BUILD_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
   const [build, team, labourHours, calendar] = await Promise.all([findBookedBuild(lead), listTeam(user.companyId), jobLabourHours(lead), workCalendarFor(company)]);
   const crewSize = company.crewSize;
@@ -75,7 +77,8 @@ const actionSchema = z.discriminatedUnion("intent", [
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: BUILD_ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
   const form = await request.formData();
   const values = { ...Object.fromEntries(form), crewUserIds: form.getAll("crewUserIds") };
@@ -202,4 +205,8 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
       )}
     </div>
   );
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }
