@@ -6,6 +6,7 @@
  * Units: short ton = 2,000 lb exactly (NIST Handbook 44, Appendix C); 1 yd³ = 27 ft³ (NIST SP 811).
  */
 import type { MaterialKey, MaterialUnit } from "~/domain/quantities";
+import { addCalendarDays, daysBetween, weekdayOf } from "~/domain/build-schedule";
 
 export const LB_PER_SHORT_TON = 2000;
 
@@ -201,13 +202,11 @@ export function moveSupplierOrder(state: SupplierOrderState, move: SupplierOrder
  * holds the year's first Thursday (ISO 8601-1:2019, 5.2.4.2).
  */
 export function isoWeekOf(day: string): string {
-  const [y, m, d] = day.split("-").map(Number) as [number, number, number];
-  const date = new Date(Date.UTC(y, m - 1, d));
-  const weekday = date.getUTCDay() || 7; // Monday 1 … Sunday 7
+  const weekday = weekdayOf(day) || 7; // Monday 1 … Sunday 7
   // The Thursday of the same week decides the year.
-  date.setUTCDate(date.getUTCDate() + 4 - weekday);
-  const year = date.getUTCFullYear();
-  const week = Math.ceil(((date.getTime() - Date.UTC(year, 0, 1)) / 86_400_000 + 1) / 7);
+  const thursday = addCalendarDays(day, 4 - weekday);
+  const year = thursday.slice(0, 4);
+  const week = Math.floor(daysBetween(`${year}-01-01`, thursday) / 7) + 1;
   return `${year}-W${String(week).padStart(2, "0")}`;
 }
 

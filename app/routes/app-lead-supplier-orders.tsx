@@ -6,7 +6,8 @@ import { getCompany } from "~/lib/catalog/catalog.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
-import { parseLeadId, requireLeadFor } from "~/lib/auth/staff.server";
+import { findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
+import { WorkspaceProblem } from "~/components/workspace-problem";
 import { draftSupplierOrders, listJobSupplierOrders, ORDER_STATE_LABEL, orderNumber, planSupplierOrders } from "~/lib/suppliers/supplier-orders.server";
 import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 
@@ -17,7 +18,8 @@ const ROLES = ["owner"] as const;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
   const today = zonedDay(new Date(), company.timeZone);
   const [planned, orders] = await Promise.all([isSignedStage(lead.status) ? planSupplierOrders(lead) : null, listJobSupplierOrders(lead)]);
@@ -42,7 +44,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
-  const lead = await requireLeadFor(user, parseLeadId(params.leadId));
+  const lead = await findLeadFor(user, parseLeadId(params.leadId));
+  if (!lead) throw new Response("Not found", { status: 404 });
   const form = await request.formData();
   const requestedOn = String(form.get("requestedOn") ?? "").trim();
   const result = await draftSupplierOrders(user, lead, requestedOn);
@@ -139,4 +142,8 @@ export default function LeadSupplierOrdersRoute({ loaderData, actionData }: Rout
       )}
     </div>
   );
+}
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  return <WorkspaceProblem error={error} />;
 }
