@@ -3,10 +3,12 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
+import { KIND_DIMENSIONS, KIND_INFO, perUnit } from "~/lib/catalog/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
 import { requireUser } from "~/lib/auth/session.server";
+import { LENGTH_EXAMPLES } from "~/lib/format/form-fields";
+import { formatLengthInput } from "~/domain/units";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.item ? data.item.name : "New item"} · Catalog · Emberwright` },
@@ -38,11 +40,13 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data({ errors: parsed.errors }, { status: 400 });
   }
   if (itemId === null) {
-    await createCatalogItem(user.companyId, parsed.value);
-  } else if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
+    const newId = await createCatalogItem(user.companyId, parsed.value);
+    return redirect(`/app/catalog?saved=${newId}&added=1`);
+  }
+  if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
     throw new Response("Not found", { status: 404 });
   }
-  return redirect("/app/catalog");
+  return redirect(`/app/catalog?saved=${itemId}`);
 }
 
 export default function CatalogItemRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -85,27 +89,26 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
         </div>
         {dims.length ? (
           <fieldset className="grid gap-4 sm:grid-cols-2">
-            <legend className="mb-2 text-sm font-extrabold text-char-700">Size (inches, decimals like 11.75)</legend>
+            <legend className="mb-2 text-sm font-extrabold text-char-700">Size in inches: type it as you read it, like {LENGTH_EXAMPLES}</legend>
             {dims.map((rule) => (
               <TextField
                 key={`${kind}-${rule.key}`}
                 label={rule.label}
                 name={rule.key}
-                inputMode="decimal"
                 suffix="in"
-                hint={rule.hint ? `${rule.hint}. ${rule.min}–${rule.max} in.` : `${rule.min}–${rule.max} in.`}
-                defaultValue={item?.[rule.key] ?? ""}
+                hint={`${rule.hint ? `${rule.hint}. ` : ""}${formatLengthInput(rule.min)} to ${formatLengthInput(rule.max)} in.`}
+                defaultValue={typeof item?.[rule.key] === "number" ? formatLengthInput(item[rule.key] as number) : ""}
                 error={errors[rule.key]}
               />
             ))}
           </fieldset>
         ) : null}
         <TextField
-          label={`Price per ${KIND_INFO[kind].priceUnit}`}
+          label={`Cost ${perUnit(KIND_INFO[kind].priceUnit)}`}
           name="price"
           inputMode="decimal"
           suffix="USD"
-          hint="What you charge, before overhead and margin."
+          hint="What you pay your supplier. Estimates add overhead and your markup or margin (estimating factors) to make the homeowner's price."
           defaultValue={item ? (item.priceCents / 100).toFixed(2) : ""}
           error={errors.price}
         />

@@ -435,7 +435,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   </details>
                 </div>
               ) : (
-                <p className="text-sm text-char-600">No price: some items of this design have no price in the catalog.</p>
+                <p className="text-sm text-char-600">No price: some items of this design have no cost in the catalog.</p>
               )}
             </section>
           ) : null}
@@ -454,6 +454,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
+                <NotSaved errors={errorsFor("assign")} />
                 <SelectField label="Estimator" name="assigneeId" defaultValue={typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))} error={errorsFor("assign").assigneeId}>
                   <option value="">Unassigned</option>
                   {team.estimators.map((m) => (
@@ -466,6 +467,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
+                  <NotSaved errors={errorsFor("crew")} />
                   <SelectField label="Crew" name="crewUserId" defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))} error={errorsFor("crew").crewUserId}>
                     <option value="">No crew yet</option>
                     {team.crew.map((m) => (
@@ -480,6 +482,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
               <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="note" />
+                <NotSaved errors={errorsFor("note")} />
                 <label htmlFor="note" className="field-label">Add a note</label>
                 <textarea
                   id="note"
@@ -590,6 +593,12 @@ function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: {
 }
 
 /** Moves the job by hand; a refused move keeps what was chosen and typed. */
+/** The summary a refused form opens with (it takes focus); each message stays beside its field. */
+function NotSaved({ errors }: { errors: Record<string, string> }) {
+  const count = Object.keys(errors).length;
+  return count ? <FormAlert>Not saved: see the {count === 1 ? "message" : "messages"} below.</FormAlert> : null;
+}
+
 function StageForm({
   stageLabel,
   moves,
@@ -607,6 +616,7 @@ function StageForm({
   return (
     <Form method="post" className="flex flex-col gap-2" noValidate>
       <input type="hidden" name="intent" value="status" />
+      <NotSaved errors={errors} />
       <SelectField label={`Move the job (now: ${stageLabel})`} name="status" defaultValue={submitted?.status ?? moves[0]!.to} error={errors.status}>
         {moves.map((m) => (
           <option key={m.to} value={m.to}>{m.label}</option>

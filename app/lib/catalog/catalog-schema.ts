@@ -2,7 +2,8 @@ import { z } from "zod";
 import { toSingleLine } from "~/lib/format/clean-text";
 import { CATALOG_KINDS, type CatalogKind } from "~/db/enums";
 import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog/catalog-kinds";
-import { fieldErrors, formNumber } from "~/lib/format/form-fields";
+import { fieldErrors, formLength, formNumber } from "~/lib/format/form-fields";
+import { formatInches } from "~/domain/units";
 
 const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
 
@@ -15,7 +16,7 @@ const baseSchema = z.object({
     .trim()
     .regex(/^#[0-9a-fA-F]{6}$/, "Colour must be a hex value like #8a8178.")
     .default("#8a8178"),
-  price: formNumber("Price", 0, 100_000, "dollars").transform((dollars) => Math.round(dollars * 100)),
+  price: formNumber("Cost", 0, 100_000, "dollars").transform((dollars) => Math.round(dollars * 100)),
   isActive: z.boolean(),
 });
 
@@ -39,12 +40,12 @@ export function parseCatalogForm(form: FormData):
   const kind = (CATALOG_KINDS as readonly string[]).includes(raw.kind ?? "") ? (raw.kind as CatalogKind) : null;
   const dims: Partial<Record<DimensionKey, number | null>> = Object.fromEntries(ALL_DIMENSIONS.map((k) => [k, null]));
   for (const rule of kind ? KIND_DIMENSIONS[kind] : []) {
-    const parsed = formNumber(rule.label, rule.min, rule.max, "in").safeParse(raw[rule.key] ?? "");
+    const parsed = formLength(rule.label, rule.min, rule.max).safeParse(raw[rule.key] ?? "");
     if (parsed.success) dims[rule.key] = parsed.data;
     else errors[rule.key] = parsed.error.issues[0]?.message ?? `Check the ${rule.label.toLowerCase()}.`;
   }
   if (kind === "wall-unit" && dims.faceIn != null && dims.backIn != null && dims.backIn > dims.faceIn) {
-    errors.backIn = `Back length must not be longer than the face (${dims.faceIn} in): the narrow end faces the fire.`;
+    errors.backIn = `Back length must not be longer than the face (${formatInches(dims.faceIn)}): the narrow end faces the fire.`;
   }
   if (!base.success || Object.keys(errors).length > 0) return { ok: false, errors };
   const { price, ...rest } = base.data;
