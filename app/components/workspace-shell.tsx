@@ -56,13 +56,14 @@ export function WorkspaceShell({
           </div>
         </div>
         <nav aria-label="Workspace" className="border-t border-char-700">
-          <ul className="mx-auto flex max-w-7xl gap-1 overflow-x-auto px-2 sm:px-4">
+          {/* Wraps on a phone: a sideways-scrolling strip hid the last sections past the screen's edge. */}
+          <ul className="mx-auto flex max-w-7xl flex-wrap gap-x-1 px-2 sm:px-4">
             {items.map((item) => (
               <li key={item.to}>
                 <NavLink
                   to={item.to}
                   className={({ isActive }) =>
-                    `block border-b-3 px-3 py-2.5 text-sm font-bold whitespace-nowrap ${
+                    `block border-b-3 px-2.5 py-2.5 text-sm font-bold whitespace-nowrap sm:px-3 ${
                       isActive ? "border-ember-400 text-ash-50" : "border-transparent text-ash-400 hover:text-ash-100"
                     }`
                   }

@@ -46,44 +46,63 @@ export function formatLength(lengthIn: number, unit: LengthUnit): string {
   return unit === "mm" ? formatMm(lengthIn) : formatInches(lengthIn);
 }
 
-const UNIT_TO_IN: Record<string, number> = {
-  "": 1,
-  in: 1,
-  inch: 1,
-  inches: 1,
-  '"': 1,
-  ft: IN_PER_FT,
-  "'": IN_PER_FT,
-  mm: 1 / IN_TO_MM,
-  cm: 10 / IN_TO_MM,
-  m: 1000 / IN_TO_MM,
+/** Inches in one of each unit a length may be typed in, as exact fractions (NIST SP 811: 1 in = 25.4 mm = 127/5 mm, 1 ft = 12 in). */
+const UNIT_TO_IN: Record<string, Fraction> = {
+  in: new Fraction(1),
+  inch: new Fraction(1),
+  inches: new Fraction(1),
+  '"': new Fraction(1),
+  ft: new Fraction(IN_PER_FT),
+  feet: new Fraction(IN_PER_FT),
+  foot: new Fraction(IN_PER_FT),
+  "'": new Fraction(IN_PER_FT),
+  mm: new Fraction(5, 127),
+  cm: new Fraction(50, 127),
+  m: new Fraction(5000, 127),
 };
 
-// A number, then an optional fraction (separated by a space or a hyphen, as tape readings are
-// written: "36 9/16", "36-9/16"), or a bare fraction ("9/16"), then an optional unit.
-const LENGTH_PATTERN =
-  /^(-)?\s*(?:(\d+(?:\.\d+)?|\.\d+)(?:(?:\s+|\s*-\s*)(\d+)\s*\/\s*(\d+))?|(\d+)\s*\/\s*(\d+))\s*(in|inch|inches|"|ft|'|mm|cm|m)?\.?$/i;
+/** The units a bare number may stand for in a form field. */
+export type TypedLengthUnit = "in" | "ft";
 
-/** Parses a typed length ("36 9/16", "36-9/16 in", "930 mm", "93 cm") into inches; null when unreadable. */
-export function parseLength(text: string): number | null {
+// A number, then an optional fraction (separated by a space or a hyphen, as tape readings are
+// written: "36 9/16", "36-9/16"), or a bare fraction ("9/16", "49/4"), then an optional unit.
+const LENGTH_PATTERN =
+  /^(-)?\s*(?:(\d+(?:\.\d+)?|\.\d+)(?:(?:\s+|\s*-\s*)(\d+)\s*\/\s*(\d+))?|(\d+)\s*\/\s*(\d+))\s*(in|inch|inches|"|ft|feet|foot|'|mm|cm|m)?\.?$/i;
+
+/**
+ * Parses a typed length ("36 9/16", "36-9/16 in", "49/4", "930 mm", "93 cm", "3 ft") into inches,
+ * exactly (fraction.js arithmetic, then one conversion to a float); null when unreadable. A number
+ * with no unit is in `bareUnit` (inches unless the field is in feet).
+ */
+export function parseLength(text: string, bareUnit: TypedLengthUnit = "in"): number | null {
   const match = LENGTH_PATTERN.exec(text.trim());
   if (!match) return null;
   const [, minus, decimal, fracNum, fracDen, bareNum, bareDen, unitText] = match;
-  let value: number;
+  let value: Fraction;
   if (decimal !== undefined) {
-    value = Number(decimal);
+    value = new Fraction(decimal);
     if (fracNum !== undefined) {
-      const den = Number(fracDen);
       // A mixed number's fraction must be proper ("36 9/16", not "36 17/16") and follow a whole number.
-      if (den === 0 || Number(fracNum) >= den || decimal.includes(".")) return null;
-      value += Number(fracNum) / den;
+      if (Number(fracDen) === 0 || Number(fracNum) >= Number(fracDen) || decimal.includes(".")) return null;
+      value = value.add(new Fraction(Number(fracNum), Number(fracDen)));
     }
   } else {
-    const den = Number(bareDen);
-    if (den === 0) return null;
-    value = Number(bareNum) / den;
+    if (Number(bareDen) === 0) return null;
+    value = new Fraction(Number(bareNum), Number(bareDen));
   }
-  const factor = UNIT_TO_IN[(unitText ?? "").toLowerCase()];
-  const lengthIn = (minus ? -1 : 1) * value * factor;
+  const factor = UNIT_TO_IN[(unitText ?? bareUnit).toLowerCase()];
+  const lengthIn = value.mul(factor).mul(minus ? -1 : 1).valueOf();
   return Number.isFinite(lengthIn) ? lengthIn : null;
+}
+
+/**
+ * A stored length in inches as a person would type it back: a mixed fraction when it falls on a
+ * 1/64 in mark ("12 1/4"), otherwise a decimal to 1/10,000 in ("12.2441"), so saving the form
+ * unchanged never moves the value by more than that.
+ */
+export function formatLengthInput(lengthIn: number): string {
+  const sixtyFourths = lengthIn * 64;
+  if (Math.abs(sixtyFourths - Math.round(sixtyFourths)) > 1e-9) return String(Math.round(lengthIn * 10_000) / 10_000);
+  const exact = new Fraction(Math.round(sixtyFourths), 64);
+  return exact.toFraction(true);
 }

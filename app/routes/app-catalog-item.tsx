@@ -4,12 +4,14 @@ import type { Route } from "./+types/app-catalog-item";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
 import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind, type OrderUnit } from "~/db/enums";
-import { KIND_DIMENSIONS, KIND_INFO } from "~/lib/catalog/catalog-kinds";
+import { KIND_DIMENSIONS, KIND_INFO, perUnit } from "~/lib/catalog/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSupplier, listSuppliers } from "~/lib/suppliers/suppliers.server";
+import { LENGTH_EXAMPLES } from "~/lib/format/form-fields";
+import { formatLengthInput } from "~/domain/units";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: `${loaderData?.item ? loaderData.item.name : "New item"} · Catalog · Emberwright` },
@@ -46,11 +48,13 @@ export async function action({ request, params }: Route.ActionArgs) {
     return data({ errors: { supplierId: "Choose a supplier from the list." } as Record<string, string> }, { status: 400 });
   }
   if (itemId === null) {
-    await createCatalogItem(user.companyId, parsed.value);
-  } else if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
+    const newId = await createCatalogItem(user.companyId, parsed.value);
+    return redirect(`/app/catalog?saved=${newId}&added=1`);
+  }
+  if (!(await updateCatalogItem(user.companyId, itemId, parsed.value))) {
     throw new Response("Not found", { status: 404 });
   }
-  return redirect("/app/catalog");
+  return redirect(`/app/catalog?saved=${itemId}`);
 }
 
 export default function CatalogItemRoute({ loaderData, actionData }: Route.ComponentProps) {
@@ -95,27 +99,26 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
         </div>
         {dims.length ? (
           <fieldset className="grid gap-4 sm:grid-cols-2">
-            <legend className="mb-2 text-sm font-extrabold text-char-700">Size (inches, decimals like 11.75)</legend>
+            <legend className="mb-2 text-sm font-extrabold text-char-700">Size in inches: type it as you read it, like {LENGTH_EXAMPLES}</legend>
             {dims.map((rule) => (
               <TextField
                 key={`${kind}-${rule.key}`}
                 label={rule.label}
                 name={rule.key}
-                inputMode="decimal"
                 suffix="in"
-                hint={rule.hint ? `${rule.hint}. ${rule.min}–${rule.max} in.` : `${rule.min}–${rule.max} in.`}
-                defaultValue={item?.[rule.key] ?? ""}
+                hint={`${rule.hint ? `${rule.hint}. ` : ""}${formatLengthInput(rule.min)} to ${formatLengthInput(rule.max)} in.`}
+                defaultValue={typeof item?.[rule.key] === "number" ? formatLengthInput(item[rule.key] as number) : ""}
                 error={errors[rule.key]}
               />
             ))}
           </fieldset>
         ) : null}
         <TextField
-          label={`Price per ${KIND_INFO[kind].priceUnit}`}
+          label={`Cost ${perUnit(KIND_INFO[kind].priceUnit)}`}
           name="price"
           inputMode="decimal"
           suffix="USD"
-          hint="What you charge, before overhead and margin."
+          hint="What you pay your supplier. Estimates add overhead and your markup or margin (estimating factors) to make the homeowner's price."
           defaultValue={item ? (item.priceCents / 100).toFixed(2) : ""}
           error={errors.price}
         />

@@ -156,7 +156,7 @@ export default function ConsultHoursRoute({ loaderData, actionData }: Route.Comp
       </Form>
       <section className="card flex flex-col gap-4 p-6" aria-labelledby="blocked-title">
         <h2 id="blocked-title" className="font-extrabold">Days off</h2>
-        {errors.booking ? <FormAlert>{errors.booking}</FormAlert> : null}
+        {errors.booking ? <FormAlert>{errors.booking}</FormAlert> : errors.day ? <FormAlert>No day was blocked: see the message under the date.</FormAlert> : null}
         <Form method="post" className="flex flex-wrap items-end gap-3" noValidate>
           <input type="hidden" name="intent" value="block" />
           <TextField label="Block a day" name="day" type="date" min={loaderData.today} error={errors.day} hint="Nobody can book a consult on a blocked day. Consults already booked on it stay until you cancel them." />

@@ -9,6 +9,7 @@ import { FACTOR_GROUPS, FACTOR_ROWS, readCompanyFactors, toFormValue, type Facto
 import { saveCompanyFactors } from "~/lib/settings/factor-settings.server";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
+import { formatLengthInput } from "~/domain/units";
 
 export const meta: Route.MetaFunction = () => [{ title: "Estimating factors · Emberwright" }];
 
@@ -40,6 +41,7 @@ function formatDefault(row: FactorRow): string {
   if (row.kind === "choice") return row.options.find((o) => o.value === row.default)?.label ?? String(row.default);
   if (row.kind === "money") return `$${toFormValue(row, row.default)}${row.unit.slice(1)}`;
   // "1 blanks" reads wrong: counts of one take the singular.
+  if (row.unit === "in") return `${toFormValue(row, row.default)} in`;
   return `${row.default} ${row.default === 1 && row.whole ? row.unit.replace(/s$/, "") : row.unit}`;
 }
 
@@ -127,16 +129,24 @@ function FactorField({ row, value, error, disabled }: { row: FactorRow; value: s
       </div>
     );
   }
+  // Lengths are typed as read off a tape ("1 1/4") or in metric; a decimal keypad has no space or slash.
+  const isLength = row.kind === "number" && (row.unit === "in" || row.unit === "ft");
+  const allowed =
+    row.kind === "money"
+      ? `$${row.min}–$${row.max}`
+      : row.unit === "in"
+        ? `${formatLengthInput(row.min)}–${formatLengthInput(row.max)} in, typed like 1 1/4, 1-1/4, 5/4 or 32 mm`
+        : `${row.min}–${row.max} ${row.unit}${row.unit === "ft" ? ", or in metres like 3 m" : ""}`;
   return (
     <div className="flex flex-wrap items-start gap-3" data-factor={row.key}>
       <TextField
         label={row.label}
         name={row.key}
         suffix={row.unit}
-        inputMode="decimal"
+        inputMode={isLength ? "text" : "decimal"}
         defaultValue={value}
         error={error}
-        hint={`${defaultText} ${row.help} Allowed: ${row.kind === "money" ? `$${row.min}–$${row.max}` : `${row.min}–${row.max} ${row.unit}`}${row.whole ? ", whole numbers" : ""}.`}
+        hint={`${defaultText} ${row.help} Allowed: ${allowed}${row.whole ? ", whole numbers" : ""}.`}
         className="min-w-0 flex-1"
       />
       <div className="pt-7">{reset}</div>

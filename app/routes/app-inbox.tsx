@@ -140,7 +140,7 @@ function InboxView({
           <h1 className="text-2xl font-extrabold">Inbox</h1>
           <p className="text-char-600" role="status" aria-live="polite">
             {inbox.unseenCount > 0
-              ? `${inbox.unseenCount} new ${inbox.unseenCount === 1 ? "request" : "requests"} since your last visit.`
+              ? `${inbox.unseenCount} unread ${inbox.unseenCount === 1 ? "request" : "requests"}: sent since your last visit.`
               : "Fire-pit requests from your configurator, newest first."}
           </p>
         </div>
@@ -149,8 +149,9 @@ function InboxView({
         </a>
       </div>
 
-      <nav aria-label="Filter by stage" className="-mx-1 overflow-x-auto">
-        <ul className="flex gap-1 px-1 pb-1">
+      {/* The tabs wrap rather than scroll: on a phone a sideways-scrolling strip hides the stages past the edge. */}
+      <nav aria-label="Filter by stage">
+        <ul className="flex flex-wrap gap-x-1 gap-y-0.5">
           {([null, ...LEAD_STATUSES] as const).map((status) => {
             const isCurrent = filters.status === status;
             return (

@@ -108,7 +108,7 @@ export default function ChangeOrderRoute({ loaderData, actionData }: Route.Compo
             )}
             <p className="mt-3">The job as signed: {draft.contract} (balance {draft.balance}).</p>
           </section>
-          {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
+          {Object.keys(errors).length ? <FormAlert>{errors.form ?? "Nothing was sent. Fix the fields marked below."}</FormAlert> : null}
           <Form method="post" className="card flex flex-col gap-4 p-5" noValidate>
             <TextField
               label="Price difference"

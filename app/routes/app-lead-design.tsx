@@ -90,7 +90,7 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
         </Link>
         <h1 className="mt-1 text-2xl font-extrabold">Revise the design</h1>
         <p className="text-char-600">
-          Saved as a new revision with today's catalog prices. The homeowner's original request stays as it was sent.
+          Saved as a new revision with today's catalog costs. The homeowner's original request stays as it was sent.
         </p>
       </div>
       {Object.keys(errors).length ? (
@@ -137,9 +137,9 @@ function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: L
     <section aria-labelledby="revision-summary" aria-busy={isUpdating} className="card p-5">
       <h2 id="revision-summary" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">This revision</h2>
       <p className="mt-1 text-3xl font-extrabold text-char-900" data-testid="price-range">
-        {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "No price: an item has no catalog price"}
+        {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "No price: an item has no cost in the catalog"}
       </p>
-      <p className="text-sm text-char-600">At today's catalog prices and company rates. The full breakdown shows on the request once saved.</p>
+      <p className="text-sm text-char-600">At today's catalog costs and company rates. The full breakdown shows on the request once saved.</p>
       <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm sm:grid-cols-3">
         {facts.map(([label, value]) => (
           <div key={label}>

@@ -3,12 +3,13 @@ import type { Route } from "./+types/app-lead-visit";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
-import { fieldErrors } from "~/lib/format/form-fields";
+import { fieldErrors, LENGTH_EXAMPLES } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSiteVisit, saveSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/leads/site-visit-schema";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
+import { formatLengthInput } from "~/domain/units";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Site visit: ${loaderData.customerName} · Emberwright` : "Site visit · Emberwright" }];
 
@@ -30,7 +31,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
           branchesFt: visit.branchesFt === null ? "" : String(visit.branchesFt),
           slope: visit.slope,
           soil: visit.soil,
-          accessWidthIn: String(visit.accessWidthIn),
+          accessWidthIn: formatLengthInput(visit.accessWidthIn),
           utilityMarks: visit.utilityMarks,
           spoil: visit.spoil,
           notes: visit.notes,
@@ -84,12 +85,11 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
       <Form method="post" encType="multipart/form-data" className="card flex flex-col gap-4 p-5" noValidate>
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-1 text-lg font-extrabold">Distances from the centre</legend>
-          <TextField label="Nearest structure (house, shed, fence, deck)" name="structureFt" inputMode="decimal" suffix="ft" defaultValue={values.structureFt ?? ""} error={errors.structureFt} />
-          <TextField label="Property line" name="propertyLineFt" inputMode="decimal" suffix="ft" defaultValue={values.propertyLineFt ?? ""} error={errors.propertyLineFt} />
+          <TextField label="Nearest structure (house, shed, fence, deck)" name="structureFt" suffix="ft" hint="Feet, like 12 1/2, or with a unit: 3.8 m." defaultValue={values.structureFt ?? ""} error={errors.structureFt} />
+          <TextField label="Property line" name="propertyLineFt" suffix="ft" defaultValue={values.propertyLineFt ?? ""} error={errors.propertyLineFt} />
           <TextField
             label="Overhanging branches"
             name="branchesFt"
-            inputMode="decimal"
             suffix="ft"
             hint="Along the ground to the nearest branch above; leave empty when none hang over."
             defaultValue={values.branchesFt ?? ""}
@@ -113,9 +113,8 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
           <TextField
             label="Access width"
             name="accessWidthIn"
-            inputMode="decimal"
             suffix="in"
-            hint="Narrowest point between the truck and the spot: gate, side yard, steps."
+            hint={`Narrowest point between the truck and the spot: gate, side yard, steps. Like ${LENGTH_EXAMPLES}.`}
             defaultValue={values.accessWidthIn ?? ""}
             error={errors.accessWidthIn}
           />

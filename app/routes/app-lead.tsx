@@ -443,7 +443,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   </details>
                 </div>
               ) : (
-                <p className="text-sm text-char-600">No price: some items of this design have no price in the catalog.</p>
+                <p className="text-sm text-char-600">No price: some items of this design have no cost in the catalog.</p>
               )}
             </section>
           ) : null}
@@ -462,6 +462,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
+                <NotSaved errors={errorsFor("assign")} />
                 <SelectField label="Estimator" name="assigneeId" defaultValue={typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))} error={errorsFor("assign").assigneeId}>
                   <option value="">Unassigned</option>
                   {team.estimators.map((m) => (
@@ -474,6 +475,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
+                  <NotSaved errors={errorsFor("crew")} />
                   <SelectField label="Crew" name="crewUserId" defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))} error={errorsFor("crew").crewUserId}>
                     <option value="">No crew yet</option>
                     {team.crew.map((m) => (
@@ -488,6 +490,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
               <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="note" />
+                <NotSaved errors={errorsFor("note")} />
                 <label htmlFor="note" className="field-label">Add a note</label>
                 <textarea
                   id="note"
@@ -598,6 +601,12 @@ function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: {
 }
 
 /** Moves the job by hand; a refused move keeps what was chosen and typed. */
+/** The summary a refused form opens with (it takes focus); each message stays beside its field. */
+function NotSaved({ errors }: { errors: Record<string, string> }) {
+  const count = Object.keys(errors).length;
+  return count ? <FormAlert>Not saved: see the {count === 1 ? "message" : "messages"} below.</FormAlert> : null;
+}
+
 function StageForm({
   stageLabel,
   moves,
@@ -615,6 +624,7 @@ function StageForm({
   return (
     <Form method="post" className="flex flex-col gap-2" noValidate>
       <input type="hidden" name="intent" value="status" />
+      <NotSaved errors={errors} />
       <SelectField label={`Move the job (now: ${stageLabel})`} name="status" defaultValue={submitted?.status ?? moves[0]!.to} error={errors.status}>
         {moves.map((m) => (
           <option key={m.to} value={m.to}>{m.label}</option>

@@ -3,10 +3,11 @@ import { z } from "zod";
 import type { Route } from "./+types/app-settings-proposals";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
-import { fieldErrors, formNumber } from "~/lib/format/form-fields";
+import { fieldErrors, formLength, formNumber, LENGTH_EXAMPLES } from "~/lib/format/form-fields";
 import { getProposalTerms, saveProposalTerms } from "~/lib/proposals/proposal-terms.server";
 import { formMoneyCents } from "~/lib/proposals/proposal-schema";
 import { requireUser } from "~/lib/auth/session.server";
+import { formatLengthInput } from "~/domain/units";
 
 export const meta: Route.MetaFunction = () => [{ title: "Proposal terms · Emberwright" }];
 
@@ -23,7 +24,7 @@ export async function loader({ request }: Route.LoaderArgs) {
       excludedText: terms.excludedText,
       streetAddress: terms.streetAddress,
       licenceNumber: terms.licenceNumber,
-      narrowAccessIn: String(terms.narrowAccessIn),
+      narrowAccessIn: formatLengthInput(terms.narrowAccessIn),
       narrowAccessAllowance: (terms.narrowAccessAllowanceCents / 100).toFixed(2),
       steepSlopeAllowance: (terms.steepSlopeAllowanceCents / 100).toFixed(2),
     } as Record<string, string>,
@@ -46,7 +47,7 @@ const termsSchema = z.object({
   excludedText: text("Not included", 3000, 3),
   streetAddress: text("Address", 200),
   licenceNumber: text("Licence number", 60),
-  narrowAccessIn: formNumber("Narrow access below", 12, 120, "in"),
+  narrowAccessIn: formLength("Narrow access below", 12, 120),
   narrowAccessAllowance: formMoneyCents("Narrow-access allowance", 0, 20_000),
   steepSlopeAllowance: formMoneyCents("Steep-ground allowance", 0, 20_000),
 });
@@ -115,7 +116,7 @@ export default function ProposalTermsRoute({ loaderData, actionData }: Route.Com
         </fieldset>
         <fieldset className="grid gap-3 sm:grid-cols-3">
           <legend className="mb-1 font-extrabold">Site allowances</legend>
-          <TextField label="Narrow access below" name="narrowAccessIn" inputMode="decimal" suffix="in" defaultValue={values.narrowAccessIn} error={errors.narrowAccessIn} />
+          <TextField label="Narrow access below" name="narrowAccessIn" suffix="in" hint={`Like ${LENGTH_EXAMPLES}.`} defaultValue={values.narrowAccessIn} error={errors.narrowAccessIn} />
           <TextField label="Narrow-access allowance" name="narrowAccessAllowance" inputMode="decimal" defaultValue={values.narrowAccessAllowance} error={errors.narrowAccessAllowance} />
           <TextField label="Steep-ground allowance" name="steepSlopeAllowance" inputMode="decimal" defaultValue={values.steepSlopeAllowance} error={errors.steepSlopeAllowance} />
         </fieldset>

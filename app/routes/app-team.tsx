@@ -93,7 +93,7 @@ export default function TeamRoute({ loaderData, actionData }: Route.ComponentPro
                       <span className="text-ember-700">Invited, has not set a password yet</span>
                     )}
                   </p>
-                  {Object.keys(errors).length ? <p className="field-error">{Object.values(errors).join(" ")}</p> : null}
+                  {Object.keys(errors).length ? <FormAlert className="mt-1">Not changed. {Object.values(errors).join(" ")}</FormAlert> : null}
                 </div>
                 {isMe ? (
                   <p className="text-sm text-char-600">{ROLE_LABEL[member.role]}: you cannot change your own role or deactivate yourself.</p>
@@ -133,6 +133,9 @@ export default function TeamRoute({ loaderData, actionData }: Route.ComponentPro
         {/* A new location after a successful invitation remounts the form, emptying it for the next one. */}
         <Form key={location.key} method="post" className="mt-4 grid gap-4 sm:grid-cols-[1fr_1fr_12rem_auto] sm:items-start" noValidate>
           <input type="hidden" name="intent" value="invite" />
+          {Object.keys(inviteErrors).length ? (
+            <FormAlert className="sm:col-span-4">Nobody was invited. Fix the fields marked below.</FormAlert>
+          ) : null}
           <TextField label="Name" name="name" defaultValue={actionData?.intent === "invite" ? actionData.values.name : ""} error={inviteErrors.name} maxLength={80} autoComplete="off" />
           <TextField label="E-mail" name="email" type="email" defaultValue={actionData?.intent === "invite" ? actionData.values.email : ""} error={inviteErrors.email} autoComplete="off" />
           <SelectField label="Role" name="role" defaultValue={actionData?.intent === "invite" ? actionData.values.role : "estimator"} error={inviteErrors.role}>

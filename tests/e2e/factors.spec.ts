@@ -34,7 +34,7 @@ test("an owner changes estimating factors and the configurator, a revision and i
   await spareCaps.fill("3");
   await page.getByRole("button", { name: "Save factors" }).click();
   await expect(page.getByRole("alert").first()).toContainText("Nothing was saved");
-  await expect(page.getByText("Base depth under the pit must be between 2 and 12 in.")).toBeVisible();
+  await expect(page.getByText("Base depth under the pit must be between 2 and 12 in (51–305 mm).")).toBeVisible();
   await page.getByLabel("Base depth under the pit", { exact: true }).fill("6");
   await saveFactors(page);
   await expect(spareCaps).toHaveValue("3");

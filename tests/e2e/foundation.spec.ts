@@ -62,12 +62,13 @@ test("the owner edits a catalog item; a bad value shows its message and nothing 
 
   await page.goto("/app/catalog");
   const row = page.getByRole("row", { name: /Hearthline Taper/ });
-  await expect(row).toContainText("12 × 8 × 8 × 4 in");
+  await expect(row).toContainText("face 12 in · back 8 in · depth 8 in · height 4 in");
 
   await page.getByRole("link", { name: "Hearthline Taper" }).click();
-  await page.getByLabel("Price per each").fill("5.10");
+  await page.getByLabel("Cost each").fill("5.10");
   await page.getByRole("button", { name: "Save changes" }).click();
-  await expect(page).toHaveURL(/\/app\/catalog$/);
+  await expect(page).toHaveURL(/\/app\/catalog\?saved=\d+$/);
+  await expect(page.getByRole("status")).toContainText("Saved Hearthline Taper");
   await expect(page.getByRole("row", { name: /Hearthline Taper/ })).toContainText("$5.10");
   await screenshotBothWidths(page, "catalog");
 });

@@ -1,3 +1,4 @@
+import Fraction from "fraction.js";
 /*
  * The owners' estimating factors: one descriptor per factor, checked input, stored overrides that
  * reach every plan (configurator, plan API, revisions). Ranges are the product's own choices.
@@ -41,10 +42,18 @@ test("bad input names the field and what is allowed", () => {
   const result = factorSettingsSchema.safeParse({ ...defaultsAsForm(), baseDepthIn: "1", wallUnitMinSpares: "1.5", gluedCourses: "two", profitBasis: "both" });
   expect(result.success).toBe(false);
   const messages = Object.fromEntries(result.error!.issues.map((i) => [String(i.path[0]), i.message]));
-  expect(messages.baseDepthIn).toBe("Base depth under the pit must be between 2 and 12 in.");
+  expect(messages.baseDepthIn).toBe("Base depth under the pit must be between 2 and 12 in (51–305 mm)."); // 50.8 and 304.8 mm at 25.4 mm per inch (NIST SP 811)
   expect(messages.wallUnitMinSpares).toBe("At least this many spare wall units must be a whole number from 0 to 10.");
   expect(messages.gluedCourses).toBe("Glued courses must be a number.");
   expect(messages.profitBasis).toBe("Choose one of the options for “We set our profit as”.");
+});
+
+test("length factors take tape readings and millimetres: 1 1/4, 1-1/4, 5/4 and 31.75 mm are all 1.25 in (fraction.js; 25.4 mm per inch, NIST SP 811)", () => {
+  for (const typed of ["1 1/4", "1-1/4", "5/4", "31.75 mm"]) {
+    expect(factorSettingsSchema.parse({ ...defaultsAsForm(), linerMinGapIn: typed }).linerMinGapIn, typed).toBe(new Fraction(5, 4).valueOf());
+  }
+  // A length in feet takes metres too: 7.62 m is 25 ft exactly (1 ft = 0.3048 m).
+  expect(factorSettingsSchema.parse({ ...defaultsAsForm(), edgeRestraintPieceFt: "3.048 m" }).edgeRestraintPieceFt).toBeCloseTo(10, 12);
 });
 
 test("a margin of price must stay below 90 %; the same figure as a markup on cost is allowed", () => {
@@ -165,7 +174,7 @@ test("bad input answers 400 with each error beside its field, and nothing is sav
   const { data, init } = result as { data: { errors: Record<string, string> }; init: { status: number } };
   expect(init.status).toBe(400);
   expect(data.errors).toEqual({
-    baseDepthIn: "Base depth under the pit must be between 2 and 12 in.",
+    baseDepthIn: "Base depth under the pit must be between 2 and 12 in (51–305 mm).", // 50.8 and 304.8 mm at 25.4 mm per inch (NIST SP 811)
     linerMinGapIn: "Enter the gap around a steel ring.",
   });
   const after = await reload();

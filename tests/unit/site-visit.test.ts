@@ -68,8 +68,8 @@ test("a bad visit form answers 400 naming each field, and nothing is saved", asy
   ]);
   expect(answer.status).toBe(400);
   expect(answer.errors).toEqual({
-    structureFt: "Distance to the nearest structure must be a number.",
-    accessWidthIn: "Access width must be between 12 and 240 in.",
+    structureFt: "Distance to the nearest structure must be a length, like 10, 10 1/2, 10.5 ft or 3.2 m.",
+    accessWidthIn: "Access width must be between 12 and 240 in (305–6096 mm).", // 304.8 and 6096 mm (NIST SP 811)
     slope: "Choose the ground's slope.",
     branchesFt: "Branches must be between 0 and 500 ft, or left empty when none hang over.",
     photos: "\"notes.txt\" is not a JPEG, PNG or WebP photo.",

@@ -1,4 +1,5 @@
 import { useEffect, useId, useRef, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes } from "react";
+import { useNavigation } from "react-router";
 
 type FieldProps = {
   label: ReactNode;
@@ -76,9 +77,23 @@ export function SelectField({ label, name, error, hint, children, className, ...
  */
 export function FormAlert({ children, className = "" }: { children: ReactNode; className?: string }) {
   const ref = useRef<HTMLDivElement>(null);
+  const navigation = useNavigation();
+  const wasSubmitting = useRef(false);
   useEffect(() => {
     ref.current?.focus();
   }, []);
+  // Refused again while the summary is already shown: it stays mounted, so focus it again once the
+  // submit has settled (otherwise focus would stay on the submit button, away from the new message).
+  useEffect(() => {
+    if (navigation.state !== "idle") {
+      if (navigation.formMethod) wasSubmitting.current = true;
+      return;
+    }
+    if (wasSubmitting.current) {
+      wasSubmitting.current = false;
+      ref.current?.focus();
+    }
+  }, [navigation.state, navigation.formMethod]);
   return (
     <div ref={ref} tabIndex={-1} role="alert" className={`rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 ${className}`}>
       {children}

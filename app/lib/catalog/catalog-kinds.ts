@@ -22,21 +22,22 @@ export const KIND_INFO: Record<CatalogKind, { label: string; plural: string; pri
 
 export type DimensionKey = "faceIn" | "backIn" | "depthIn" | "heightIn" | "lengthIn" | "widthIn" | "thicknessIn" | "diameterIn";
 
-type DimensionRule = { key: DimensionKey; label: string; hint: string; min: number; max: number };
+/** `short` names the size in a one-line summary ("face 11 in · back 7 1/2 in"), in the field's own words. */
+type DimensionRule = { key: DimensionKey; label: string; short: string; hint: string; min: number; max: number };
 
-const d = (key: DimensionKey, label: string, hint: string, min: number, max: number): DimensionRule => ({ key, label, hint, min, max });
+const d = (key: DimensionKey, label: string, hint: string, min: number, max: number, short = label.toLowerCase()): DimensionRule => ({ key, label, short, hint, min, max });
 
 /** The dimensions each kind needs, with the range accepted (inches). Ranges cover every unit sold for this work with room to spare. */
 export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
   "wall-unit": [
-    d("faceIn", "Face length", "The outer, exposed face", 2, 36),
-    d("backIn", "Back length", "The face toward the fire; no longer than the face", 2, 36),
+    d("faceIn", "Face length", "The outer, exposed face", 2, 36, "face"),
+    d("backIn", "Back length", "The face toward the fire; no longer than the face", 2, 36, "back"),
     d("depthIn", "Depth", "Front to back", 2, 24),
     d("heightIn", "Height", "One course", 1, 12),
   ],
   cap: [
-    d("lengthIn", "Blank length", "Laid along the ring", 4, 48),
-    d("depthIn", "Blank depth", "Across the wall, toward the fire", 4, 36),
+    d("lengthIn", "Blank length", "Laid along the ring", 4, 48, "length"),
+    d("depthIn", "Blank depth", "Across the wall, toward the fire", 4, 36, "depth"),
     d("thicknessIn", "Thickness", "", 0.5, 8),
   ],
   "steel-ring": [
@@ -67,3 +68,21 @@ export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
   "edge-restraint": [],
   "edge-spike": [],
 };
+
+/** An item's sizes with what each one is: [{ name: "face", value: "11 in" }, { name: "back", value: "7 1/2 in" }, …]. */
+export function describeSizes(
+  kind: CatalogKind,
+  sizes: Partial<Record<DimensionKey, number | null>>,
+  format: (lengthIn: number) => string,
+): { name: string; value: string }[] {
+  return KIND_DIMENSIONS[kind].flatMap((rule) => {
+    const value = sizes[rule.key];
+    return typeof value === "number" ? [{ name: rule.short, value: format(value) }] : [];
+  });
+}
+
+/** The sizes on one line: "face 11 in · back 7 1/2 in · depth 7 1/2 in · height 3 1/2 in". */
+export const sizesText = (sizes: { name: string; value: string }[]): string => sizes.map((s) => `${s.name} ${s.value}`).join(" · ");
+
+/** "each" or "per ton": how a cost is quoted for one of the kind's units. */
+export const perUnit = (priceUnit: string): string => (priceUnit === "each" ? "each" : `per ${priceUnit}`);

@@ -3,8 +3,9 @@ import { toSingleLine } from "~/lib/format/clean-text";
 import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind } from "~/db/enums";
 import { PACK_UNITS } from "~/domain/supplier-order";
 import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog/catalog-kinds";
-import { fieldErrors, formId, formNumber } from "~/lib/format/form-fields";
+import { fieldErrors, formId, formLength, formNumber } from "~/lib/format/form-fields";
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
+import { formatInches } from "~/domain/units";
 
 const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
 
@@ -31,7 +32,7 @@ const baseSchema = z.object({
     .trim()
     .regex(/^#[0-9a-fA-F]{6}$/, "Colour must be a hex value like #8a8178.")
     .default("#8a8178"),
-  price: formNumber("Price", 0, 100_000, "dollars").transform((dollars) => Math.round(dollars * 100)),
+  price: formNumber("Cost", 0, 100_000, "dollars").transform((dollars) => Math.round(dollars * 100)),
   isActive: z.boolean(),
   // How the yard sells it. Blank fields keep the simple case: no supplier, sold each, weight unknown.
   supplierId: blankOr(formId("Choose a supplier from the list."), null),
@@ -62,12 +63,12 @@ export function parseCatalogForm(form: FormData):
   const kind = (CATALOG_KINDS as readonly string[]).includes(raw.kind ?? "") ? (raw.kind as CatalogKind) : null;
   const dims: Partial<Record<DimensionKey, number | null>> = Object.fromEntries(ALL_DIMENSIONS.map((k) => [k, null]));
   for (const rule of kind ? KIND_DIMENSIONS[kind] : []) {
-    const parsed = formNumber(rule.label, rule.min, rule.max, "in").safeParse(raw[rule.key] ?? "");
+    const parsed = formLength(rule.label, rule.min, rule.max).safeParse(raw[rule.key] ?? "");
     if (parsed.success) dims[rule.key] = parsed.data;
     else errors[rule.key] = parsed.error.issues[0]?.message ?? `Check the ${rule.label.toLowerCase()}.`;
   }
   if (kind === "wall-unit" && dims.faceIn != null && dims.backIn != null && dims.backIn > dims.faceIn) {
-    errors.backIn = `Back length must not be longer than the face (${dims.faceIn} in): the narrow end faces the fire.`;
+    errors.backIn = `Back length must not be longer than the face (${formatInches(dims.faceIn)}): the narrow end faces the fire.`;
   }
   if (base.success && PACK_UNITS.includes(base.data.orderUnit) && !Number.isInteger(base.data.unitsPerOrderUnit)) {
     errors.unitsPerOrderUnit = `${ORDER_UNIT_LABEL[base.data.orderUnit].per} must be a whole number.`;

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
-import { formNumber } from "~/lib/format/form-fields";
+import { formLength } from "~/lib/format/form-fields";
+import { parseLength } from "~/domain/units";
 
 /** Words for the visit form's choices, shared by the form, the lead page and the proposal. */
 export const SLOPE_LABEL: Record<(typeof SLOPES)[number], string> = {
@@ -31,8 +32,9 @@ const optionalFeet = z
   .trim()
   .transform((s, ctx) => {
     if (s === "") return null;
-    const n = Number(s);
-    if (!Number.isFinite(n) || n < 0 || n > 500) {
+    const lengthIn = parseLength(s, "ft");
+    const n = lengthIn === null ? NaN : lengthIn / 12;
+    if (!Number.isFinite(n) || n < 0 || n > 500 + 1e-9) {
       ctx.addIssue({ code: "custom", message: "Branches must be between 0 and 500 ft, or left empty when none hang over." });
       return z.NEVER;
     }
@@ -41,12 +43,12 @@ const optionalFeet = z
 
 /** The site visit form; every message names its field and what is allowed. */
 export const siteVisitSchema = z.object({
-  structureFt: formNumber("Distance to the nearest structure", 0, 500, "ft"),
-  propertyLineFt: formNumber("Distance to the property line", 0, 500, "ft"),
+  structureFt: formLength("Distance to the nearest structure", 0, 500, "ft"),
+  propertyLineFt: formLength("Distance to the property line", 0, 500, "ft"),
   branchesFt: z.preprocess((v) => v ?? "", optionalFeet),
   slope: z.enum(SLOPES, { error: "Choose the ground's slope." }),
   soil: z.enum(SOILS, { error: "Choose the soil." }),
-  accessWidthIn: formNumber("Access width", 12, 240, "in"),
+  accessWidthIn: formLength("Access width", 12, 240),
   utilityMarks: z.enum(UTILITY_MARKS, { error: "Say whether the utilities are marked." }),
   spoil: z.enum(SPOIL_PLANS, { error: "Say where the dug soil goes." }),
   notes: z.string().trim().max(2000, "Notes must be at most 2,000 characters.").default(""),

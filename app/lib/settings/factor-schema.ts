@@ -1,7 +1,7 @@
 import { z } from "zod";
 import type { CompanyFactors } from "~/domain/factors";
 import { FACTOR_ROWS, MAX_MARGIN_PCT, type FactorKey, type FactorRow } from "~/lib/settings/factor-settings";
-import { formNumber } from "~/lib/format/form-fields";
+import { formLength, formNumber } from "~/lib/format/form-fields";
 
 const rangeText = (value: number) => String(value);
 
@@ -10,7 +10,8 @@ function rowSchema(row: FactorRow): z.ZodType<number | string> {
     const values = row.options.map((o) => o.value);
     return z.string({ error: `Choose ${row.label.toLowerCase()}.` }).refine((v) => values.includes(v), `Choose one of the options for “${row.label}”.`);
   }
-  const number = formNumber(row.label, row.min, row.max, row.unit);
+  // Lengths take tape readings and millimetres ("1 1/4", "32 mm"); other numbers are plain decimals.
+  const number = row.unit === "in" || row.unit === "ft" ? formLength(row.label, row.min, row.max, row.unit) : formNumber(row.label, row.min, row.max, row.unit);
   if (row.kind === "money") return number.transform((dollars) => Math.round(dollars * 100));
   if (row.whole) return number.refine((n) => Number.isInteger(n), `${row.label} must be a whole number from ${rangeText(row.min)} to ${rangeText(row.max)}.`);
   return number;

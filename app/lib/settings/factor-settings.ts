@@ -1,3 +1,4 @@
+import { formatLengthInput } from "~/domain/units";
 import {
   DEFAULT_FACTORS,
   FACTOR_CHOICES,
@@ -213,6 +214,7 @@ export const MAX_MARGIN_PCT = 90;
 /** A stored value (cents for money) as typed into the form (dollars for money). */
 export function toFormValue(row: FactorRow, value: number | string): string {
   if (row.kind === "money" && typeof value === "number") return (value / 100).toFixed(2);
+  if (row.kind === "number" && row.unit === "in" && typeof value === "number") return formatLengthInput(value);
   return String(value);
 }
 

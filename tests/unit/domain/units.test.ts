@@ -1,9 +1,11 @@
 import fc from "fast-check";
+import Fraction from "fraction.js";
 import { expect, test } from "vitest";
 import {
   IN_TO_MM,
   formatInches,
   formatLength,
+  formatLengthInput,
   formatMm,
   inToMm,
   mmToIn,
@@ -106,4 +108,42 @@ test("tape readings written with odd spacing still parse; a whole fraction (16/1
 test("negative millimetres keep their sign (NIST SP 811 factor)", () => {
   expect(formatMm(-36.575)).toBe("-929 mm");
   expect(formatLength(-1, "mm")).toBe("-25 mm");
+});
+
+test("every spelling of twelve and a quarter inches parses to fraction.js's value for 49/4", () => {
+  const reference = new Fraction(49, 4).valueOf(); // fraction.js, the reference library
+  for (const text of ["12 1/4", "12-1/4", "49/4", "12.25", "12 1/4 in", '12 1/4"', "12.25 inches"]) {
+    expect(parseLength(text), text).toBe(reference);
+  }
+});
+
+test("millimetres convert at exactly 25.4 mm per inch (NIST SP 811 B.8): 311 mm is 311/25.4 in and 25.4 mm is one inch", () => {
+  expect(parseLength("311 mm")).toBe(new Fraction(311).div(new Fraction("25.4")).valueOf());
+  expect(parseLength("311mm")).toBe(parseLength("311 mm"));
+  expect(parseLength("25.4 mm")).toBe(1);
+  expect(parseLength("304.8 mm")).toBe(12);
+});
+
+test("a bare number in a field measured in feet is feet; a typed unit wins (NIST SP 811: 1 ft = 12 in)", () => {
+  expect(parseLength("10 1/2", "ft")).toBe(126);
+  expect(parseLength("10.5 ft", "ft")).toBe(126);
+  expect(parseLength("18 in", "ft")).toBe(18);
+  expect(parseLength("3.048 m", "ft")).toBeCloseTo(120, 12);
+});
+
+test("a length shown back in a form reads as a tape reading when it falls on a 1/64 in mark, else as a decimal (fraction.js toFraction)", () => {
+  expect(formatLengthInput(12.25)).toBe(new Fraction(49, 4).toFraction(true)); // "12 1/4"
+  expect(formatLengthInput(0.0625)).toBe("1/16");
+  expect(formatLengthInput(36)).toBe("36");
+  expect(formatLengthInput(311 / 25.4)).toBe("12.2441");
+});
+
+test("a length shown in a form parses back to itself to within 1/10,000 in (round trip property)", () => {
+  fc.assert(
+    fc.property(fc.double({ min: 0, max: 600, noNaN: true }), (lengthIn) => {
+      const parsed = parseLength(formatLengthInput(lengthIn));
+      expect(parsed).not.toBeNull();
+      expect(Math.abs((parsed as number) - lengthIn)).toBeLessThanOrEqual(0.00005 + 1e-9);
+    }),
+  );
 });
