@@ -14,7 +14,7 @@ import { createClient } from "@libsql/client";
 import { checkBundles, NON_3D_ROUTE_BUDGET_KB } from "./bundle-budget";
 import { measureConfiguratorInBrowser, type StepTiming } from "./support/browser";
 import { CONNECTIONS, loadInterleaved, loadTest, type LoadResult, multipartBody } from "./support/http-load";
-import { type LighthouseFigures, runLighthouse } from "./support/lighthouse";
+import { killAllChromium, type LighthouseFigures, runLighthouse } from "./support/lighthouse";
 import { buildBareApp } from "./support/bare-app";
 import {
   freePort,
@@ -311,39 +311,49 @@ const HEALTH_SECONDS = 12;
  * /api/health of the full app against a bare React Router 7 app's resource route, both built here
  * with the same packages and served by the same server.mjs, loaded in alternating slices.
  */
-async function benchHealthVsBare(app: BenchServer) {
+type BareServer = { origin: string; stop: () => Promise<void> };
+
+/** Builds the bare React Router 7 app and serves it with server.mjs like the app. */
+async function startBareServer(): Promise<BareServer> {
   const bare = await buildBareApp(ROOT);
-  try {
-    const port = await freePort();
-    const origin = `http://127.0.0.1:${port}`;
-    const child = startProcess("node", ["server.mjs", bare.serverEntry], {
-      cwd: ROOT,
-      env: { ...process.env, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1", APP_ORIGIN: origin, ACCESS_LOG: "off", BARE_DATABASE_FILE: bare.databaseFile },
-    });
-    try {
-      await waitForHealth(origin, child);
-      const [full, bareJson, bareDb] = await loadInterleaved(
-        [{ url: `${app.origin}/api/health` }, { url: `${origin}/api/health` }, { url: `${origin}/api/health-db` }],
-        HEALTH_SECONDS,
-        6,
-      );
-      loadRow("GET /api/health, the full app (same run as below)", full);
-      loadRow("GET /api/health, bare React Router 7 resource route (JSON only)", bareJson);
-      loadRow("GET /api/health-db, bare React Router 7 resource route with libSQL `select 1`", bareDb);
-      const ratio = full.rps / bareJson.rps;
-      add("/api/health requests/s, full app ÷ bare route (alternating 2 s slices)", fmt(ratio, 2), "≥ 0.8", check(ratio >= 0.8));
-      add("/api/health requests/s, full app ÷ bare route with `select 1`", fmt(full.rps / bareDb.rps, 2), "", "info");
-      notes.push(
-        `/api/health: of the gap to the bare route, the database round trip (\`select 1\`) accounts for ${fmt((1 / bareDb.rps - 1 / bareJson.rps) * 1000, 2)} ms per request ` +
-          `(bare ${fmt(bareJson.rps)} → ${fmt(bareDb.rps)} req/s); the rest (${fmt((1 / full.rps - 1 / bareDb.rps) * 1000, 2)} ms per request) is the app's own ` +
-          "request work: the root middleware (security headers and CSP with a per-request nonce, Origin and Sec-Fetch checks, the request context for per-address limits) and Drizzle over the libSQL client.",
-      );
-    } finally {
-      await stopProcess(child);
-    }
-  } finally {
+  const port = await freePort();
+  const origin = `http://127.0.0.1:${port}`;
+  const child = startProcess("node", ["server.mjs", bare.serverEntry], {
+    cwd: ROOT,
+    env: { ...process.env, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1", APP_ORIGIN: origin, ACCESS_LOG: "off", BARE_DATABASE_FILE: bare.databaseFile },
+  });
+  const stop = async () => {
+    await stopProcess(child);
     await bare.remove();
+  };
+  try {
+    await waitForHealth(origin, child);
+  } catch (error) {
+    await stop();
+    throw error;
   }
+  return { origin, stop };
+}
+
+async function benchHealthVsBare(app: BenchServer, bare: BareServer) {
+  const { origin } = bare;
+  const [full, bareJson, bareDb] = await loadInterleaved(
+    [{ url: `${app.origin}/api/health` }, { url: `${origin}/api/health` }, { url: `${origin}/api/health-db` }],
+    HEALTH_SECONDS,
+    6,
+  );
+  loadRow("GET /api/health, the full app (same run as below)", full);
+  loadRow("GET /api/health, bare React Router 7 resource route (JSON only)", bareJson);
+  loadRow("GET /api/health-db, bare React Router 7 resource route with libSQL `select 1`", bareDb);
+  const ratio = full.rps / bareJson.rps;
+  add("/api/health requests/s, full app ÷ bare route (alternating 2 s slices)", fmt(ratio, 2), "≥ 0.8", check(ratio >= 0.8));
+  add("/api/health requests/s, full app ÷ bare route with `select 1`", fmt(full.rps / bareDb.rps, 2), "", "info");
+  notes.push(
+    `/api/health: of the gap to the bare route, the database round trip (\`select 1\`) accounts for ${fmt((1 / bareDb.rps - 1 / bareJson.rps) * 1000, 2)} ms per request ` +
+      `(bare ${fmt(bareJson.rps)} → ${fmt(bareDb.rps)} req/s); the rest (${fmt((1 / full.rps - 1 / bareDb.rps) * 1000, 2)} ms per request) is what the full app adds ` +
+      "to every request (not timed one by one here): React Router's middleware pipeline with the root security middleware (cross-site check, body limit, a random CSP nonce, " +
+      "the security and cache headers, a longer header block to write), the request context, Drizzle over the libSQL client, and the background loop sharing the process.",
+  );
 }
 
 const CLUSTER_SECONDS = 16;
@@ -459,7 +469,7 @@ async function benchSoak() {
   add(`Soak: RSS after gc, minute ${end.minute} ÷ minute 1`, `${fmt(rssRatio, 2)} (${mib(warm.rss)} → ${mib(end.rss)})`, "≤ 1.2", check(rssRatio <= 1.2));
 }
 
-const LIGHTHOUSE_RUNS = 3;
+const LIGHTHOUSE_RUNS = Number(process.env.LIGHTHOUSE_RUNS ?? 3);
 
 const median = (values: number[]) => {
   const sorted = [...values].sort((a, b) => a - b);
@@ -472,9 +482,10 @@ const median = (values: number[]) => {
  * rounds over the pages, each audit in a fresh Chromium. Budgets are on the median of the three
  * runs, except CLS, which must hold in every run.
  */
-async function benchLighthouse(origin: string, session: Session) {
+async function benchLighthouse(origin: string, session: Session, bare: BareServer | null) {
   type Page = { name: string; label: string; url: string; headers?: Record<string, string> };
   const pages: Page[] = [
+    ...(bare ? [{ name: "bare", label: "bare React Router 7 page (the machine's floor)", url: `${bare.origin}/` }] : []),
     { name: "landing", label: "landing page /", url: `${origin}/` },
     { name: "configurator", label: `configurator /c/${COMPANY}`, url: `${origin}/c/${COMPANY}` },
   ];
@@ -527,6 +538,8 @@ async function benchLighthouse(origin: string, session: Session) {
     }
     if (page.name === "landing") {
       add(`${label}: LCP, median`, `${s(m.lcp)} (runs: ${each((f) => s(f.lcpMs))})`, "< 1.2 s", check(m.lcp < 1200));
+      const floor = runs.get("bare");
+      if (floor?.length) add(`${label}: LCP ÷ the bare page's LCP (medians)`, fmt(m.lcp / median(floor.map((f) => f.lcpMs)), 2), "", "info");
     }
     if (page.name === "landing" || page.name === "inbox") {
       add(`${label}: CLS, every run`, `worst ${fmt(m.clsWorst, 3)} (runs: ${each((f) => fmt(f.cls, 3))})`, "< 0.1", check(m.clsWorst < 0.1));
@@ -595,6 +608,7 @@ async function main() {
 /** Every measurement on one production server with the demo data. */
 async function benchOnOneServer() {
   let server: BenchServer | null = null;
+  let bare: BareServer | null = null;
   try {
     await step("Start the production server", 120_000, async () => {
       server = await startBenchServer(ROOT);
@@ -612,21 +626,31 @@ async function benchOnOneServer() {
     });
 
     if (wanted("http")) await step("HTTP load", 120_000, () => benchHttp(s, session));
-    if (wanted("health")) await step("/api/health against a bare React Router 7 app", 240_000, () => benchHealthVsBare(s));
+    if (wanted("health") || wanted("lighthouse")) {
+      await step("Build and serve a bare React Router 7 app", 200_000, async () => {
+        bare = await startBareServer();
+      });
+    }
+    const b = bare as BareServer | null;
+    if (wanted("health") && b) await step("/api/health against a bare React Router 7 app", 120_000, () => benchHealthVsBare(s, b));
     const loadedMiB = await residentMiB(s.pid);
     add("Server resident memory (VmRSS), idle after start", idleMiB === null ? "unreadable" : `${fmt(idleMiB, 1)} MiB`, "", "info");
     add("Server resident memory (VmRSS), after the HTTP load", loadedMiB === null ? "unreadable" : `${fmt(loadedMiB, 1)} MiB`, "", "info");
 
     if (wanted("browser")) await step("3D preview in Chromium", 90_000, () => benchBrowser(s.origin));
-    if (wanted("lighthouse")) await step(`Lighthouse, ${LIGHTHOUSE_RUNS} runs`, 600_000, () => benchLighthouse(s.origin, session));
+    if (wanted("lighthouse")) await step(`Lighthouse, ${LIGHTHOUSE_RUNS} runs`, 600_000, () => benchLighthouse(s.origin, session, b));
     const endMiB = await residentMiB(s.pid);
     add("Server resident memory (VmRSS), at the end of the run", endMiB === null ? "unreadable" : `${fmt(endMiB, 1)} MiB`, "", "info");
   } finally {
     if (server) await (server as BenchServer).stop();
+    if (bare) await (bare as BareServer).stop();
   }
 }
 
-process.on("exit", killAllNow);
+process.on("exit", () => {
+  killAllNow();
+  killAllChromium();
+});
 for (const signal of ["SIGINT", "SIGTERM"] as const) {
   process.on(signal, () => {
     process.stderr.write(`bench: ${signal}, stopping every process it started\n`);
