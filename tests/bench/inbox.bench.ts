@@ -106,7 +106,7 @@ async function time(query: string) {
 }
 
 const first = await time("");
-const filtered = await time(`?status=proposal-sent&assignee=${estimator.id}`);
+const filtered = await time(`?status=proposal-out&assignee=${estimator.id}`);
 const dated = await time("?from=2026-01-01&to=2026-06-30&sort=price&dir=desc");
 const searched = await time("?q=hartwell");
 const deep = await time("?page=300");

@@ -23,8 +23,10 @@ declare module "autocannon" {
     method?: string;
     headers?: Record<string, string>;
     body?: string | Buffer;
+    /** Requests per second over all connections (a steady rate instead of as fast as possible). */
+    overallRate?: number;
     /** Each request may be rebuilt by its setupRequest just before it is sent. */
-    requests?: { method?: string; headers?: Record<string, string>; body?: string; setupRequest?: (request: { body?: string }) => object }[];
+    requests?: { path?: string; method?: string; headers?: Record<string, string>; body?: string; setupRequest?: (request: { body?: string }) => object }[];
   };
   type Instance = Promise<AutocannonResult> & {
     stop: () => void;

@@ -17,7 +17,8 @@ export type LoadResult = {
   durationS: number;
 };
 
-type Target = Omit<AutocannonOptions, "connections" | "duration">;
+/** What to load; `connections` defaults to CONNECTIONS. */
+export type Target = Omit<AutocannonOptions, "duration">;
 
 export const CONNECTIONS = 10;
 
@@ -26,7 +27,7 @@ type Tally = { latenciesMs: number[]; ok: number; failed: number; statusCounts: 
 const emptyTally = (): Tally => ({ latenciesMs: [], ok: 0, failed: 0, statusCounts: {}, durationS: 0 });
 
 async function runSlice(target: Target, seconds: number, tally: Tally | null): Promise<void> {
-  const instance = autocannon({ ...target, connections: CONNECTIONS, duration: seconds, timeout: 10 });
+  const instance = autocannon({ connections: CONNECTIONS, ...target, duration: seconds, timeout: 10 });
   if (tally) {
     instance.on("response", (_client: unknown, statusCode: number, _bytes: number, responseTimeMs: number) => {
       tally.latenciesMs.push(responseTimeMs);
@@ -66,15 +67,28 @@ export async function loadTest(target: Target, seconds: number, warmupS = 1): Pr
 
 /**
  * Loads compared by their ratios, run in alternating slices (a, b, c, a, b, c, …) so that a change
- * in what else the machine is doing falls on all of them alike.
+ * in what else the machine is doing falls on all of them alike. With `meter`, its readings (e.g.
+ * CPU seconds per process) are taken around every slice and their differences summed per target.
  */
-export async function loadInterleaved(targets: Target[], seconds: number, slices = 4): Promise<LoadResult[]> {
+export async function loadInterleaved(
+  targets: Target[],
+  seconds: number,
+  slices = 4,
+  meter?: () => Promise<Record<string, number>>,
+): Promise<(LoadResult & { metered: Record<string, number> })[]> {
   for (const target of targets) await runSlice(target, 1, null);
   const tallies = targets.map(emptyTally);
+  const metered = targets.map((): Record<string, number> => ({}));
   for (let i = 0; i < slices; i++) {
-    for (const [j, target] of targets.entries()) await runSlice(target, seconds / slices, tallies[j]!);
+    for (const [j, target] of targets.entries()) {
+      const before = meter ? await meter() : {};
+      await runSlice(target, seconds / slices, tallies[j]!);
+      if (!meter) continue;
+      const after = await meter();
+      for (const [key, value] of Object.entries(after)) metered[j]![key] = (metered[j]![key] ?? 0) + value - (before[key] ?? 0);
+    }
   }
-  return tallies.map(summarise);
+  return tallies.map((tally, j) => ({ ...summarise(tally), metered: metered[j]! }));
 }
 
 /** A multipart/form-data body with a fixed boundary. */

@@ -1,13 +1,13 @@
 /*
- * Lighthouse 12.2.3 with its default config (the mobile preset: simulated slow 4G and a 4x slower
- * CPU) against Debian's Chromium, which the bench starts itself so it can always end it.
+ * Lighthouse 12.2.3 with its default config (the mobile preset: a phone-sized screen, simulated
+ * slow 4G and a 4x slower CPU) against Debian's Chromium, started through chrome-launcher.
  */
-import { mkdtemp, rm, writeFile } from "node:fs/promises";
-import { tmpdir } from "node:os";
+import { writeFile } from "node:fs/promises";
 import path from "node:path";
+import { killAll, launch } from "chrome-launcher";
 import lighthouse from "lighthouse";
 import { CHROMIUM_PATH } from "./browser";
-import { freePort, startProcess, stopProcess } from "./processes";
+import { freePort } from "./processes";
 
 export type LighthouseFigures = {
   score: number;
@@ -50,22 +50,27 @@ export async function runLighthouse(
   return figures;
 }
 
+/**
+ * A fresh headless Chromium through chrome-launcher (Lighthouse's own launcher) on a port from
+ * freePort (so BENCH_PORTS applies), with a throwaway profile; killed (also on Ctrl-C: the
+ * launcher's SIGINT handler and `killAllChromium` below) when the audit is done.
+ */
 async function withChromium<T>(work: (port: number) => Promise<T>): Promise<T> {
-  const port = await freePort();
-  const profile = await mkdtemp(path.join(tmpdir(), "emberwright-lh-"));
-  const chrome = startProcess(
-    CHROMIUM_PATH,
-    ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--enable-unsafe-swiftshader", "--no-first-run", "--no-default-browser-check", `--user-data-dir=${profile}`, `--remote-debugging-port=${port}`, "about:blank"],
-    { cwd: tmpdir() },
-  );
+  const chrome = await launch({
+    chromePath: CHROMIUM_PATH,
+    port: await freePort(),
+    chromeFlags: ["--headless=new", "--no-sandbox", "--disable-gpu", "--disable-quic", "--enable-unsafe-swiftshader"],
+    logLevel: "silent",
+  });
   try {
-    await waitForDevTools(port);
-    return await work(port);
+    return await work(chrome.port);
   } finally {
-    await stopProcess(chrome);
-    await rm(profile, { recursive: true, force: true });
+    chrome.kill();
   }
 }
+
+/** Ends every Chromium chrome-launcher started (for exit and signal handlers). */
+export const killAllChromium = () => void killAll();
 
 /**
  * One audit, tried up to three times when Lighthouse reports a runtime error: on a busy machine its
@@ -81,18 +86,4 @@ async function auditOnce(url: string, port: number, headers?: Record<string, str
     process.stderr.write(`bench: Lighthouse on ${url}, attempt ${attempt}: ${message}\n`);
   }
   throw new Error(`Lighthouse on ${url}: ${message}`);
-}
-
-async function waitForDevTools(port: number) {
-  const deadline = Date.now() + 20_000;
-  while (Date.now() < deadline) {
-    try {
-      const res = await fetch(`http://127.0.0.1:${port}/json/version`);
-      if (res.ok) return;
-    } catch {
-      // Not up yet.
-    }
-    await new Promise((r) => setTimeout(r, 200));
-  }
-  throw new Error("Chromium's DevTools endpoint did not come up within 20 s.");
 }

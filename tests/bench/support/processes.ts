@@ -81,18 +81,69 @@ export async function runToEnd(command: string, args: string[], opts: SpawnArgs 
   return { code, stdout, stderr, timedOut };
 }
 
-/** A TCP port that was free on 127.0.0.1 a moment ago. */
+/**
+ * A TCP port that was free on 127.0.0.1 a moment ago. With BENCH_PORTS=first-last (e.g.
+ * 3340-3360) ports come from that range only, handed out in turn so two calls in a row never get
+ * the same one; otherwise the system picks any free port.
+ */
 export async function freePort(): Promise<number> {
+  const range = /^(\d+)-(\d+)$/.exec(process.env.BENCH_PORTS ?? "");
+  if (!range) return listenOnce(0);
+  const [first, last] = [Number(range[1]), Number(range[2])];
+  const size = last - first + 1;
+  for (let tried = 0; tried < size; tried++) {
+    const port = first + ((nextInRange + tried) % size);
+    const free = await listenOnce(port).then(
+      () => true,
+      () => false,
+    );
+    if (free) {
+      nextInRange = (port - first + 1) % size;
+      return port;
+    }
+  }
+  throw new Error(`No free port left in BENCH_PORTS=${process.env.BENCH_PORTS}.`);
+}
+
+let nextInRange = 0;
+
+function listenOnce(port: number): Promise<number> {
   return new Promise((resolve, reject) => {
     const server = createServer();
     server.once("error", reject);
-    server.listen(0, "127.0.0.1", () => {
+    server.listen(port, "127.0.0.1", () => {
       const address = server.address();
-      const port = typeof address === "object" && address ? address.port : 0;
-      server.close(() => resolve(port));
+      const bound = typeof address === "object" && address ? address.port : 0;
+      server.close(() => resolve(bound));
     });
   });
 }
+
+/**
+ * CPU seconds (user + system) used so far by every live process in a process group, from /proc
+ * (Linux only). A group started by `startProcess` holds the shell, tsx and the Node processes under it.
+ */
+export async function groupCpuSeconds(pgid: number): Promise<number> {
+  const { readdir, readFile } = await import("node:fs/promises");
+  let ticks = 0;
+  for (const entry of await readdir("/proc")) {
+    if (!/^\d+$/.test(entry)) continue;
+    try {
+      const stat = await readFile(`/proc/${entry}/stat`, "utf8");
+      // Fields after the command name (which may hold spaces) start after the last ")".
+      const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+      // fields[0] is field 3 (state): pgrp is field 5, utime 14, stime 15.
+      if (Number(fields[2]) !== pgid) continue;
+      ticks += Number(fields[11]) + Number(fields[12]);
+    } catch {
+      // The process ended while we looked.
+    }
+  }
+  return ticks / CLOCK_TICKS;
+}
+
+/** USER_HZ: 100 on every Linux this runs on (`getconf CLK_TCK`). */
+const CLOCK_TICKS = 100;
 
 /** Rejects after `ms` with a message naming the step, so one stuck step cannot hold the run. */
 export async function withTimeout<T>(label: string, ms: number, work: () => Promise<T>): Promise<T> {
@@ -114,6 +165,18 @@ export async function residentMiB(pid: number): Promise<number | null> {
     const status = await readFile(`/proc/${pid}/status`, "utf8");
     const kib = Number(/^VmRSS:\s+(\d+)\s+kB/m.exec(status)?.[1]);
     return Number.isFinite(kib) ? kib / 1024 : null;
+  } catch {
+    return null;
+  }
+}
+
+/** CPU seconds (user + system) one process has used so far, from /proc; null when it is gone. */
+export async function processCpuSeconds(pid: number): Promise<number | null> {
+  const { readFile } = await import("node:fs/promises");
+  try {
+    const stat = await readFile(`/proc/${pid}/stat`, "utf8");
+    const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
+    return (Number(fields[11]) + Number(fields[12])) / CLOCK_TICKS;
   } catch {
     return null;
   }

@@ -13,6 +13,10 @@ export type BenchServer = {
   origin: string;
   pid: number;
   databaseFile: string;
+  /** The environment the server process got (without what start-fakes.sh exported). */
+  env: NodeJS.ProcessEnv;
+  emailPort: number;
+  paymentsPort: number;
   stop: () => Promise<void>;
   recentOutput: () => string;
 };
@@ -20,9 +24,24 @@ export type BenchServer = {
 const READY_TIMEOUT_MS = 30_000;
 const SETUP_TIMEOUT_MS = 90_000;
 
-/** Migrates and seeds a fresh bench database, then starts the fakes and the server and waits for /api/health. */
-export async function startBenchServer(root: string): Promise<BenchServer> {
-  const dataDir = path.join(root, "data", "bench");
+export type BenchServerOptions = {
+  /** Folder under data/ for the database and uploads (fresh each time); default "bench". */
+  name?: string;
+  /** Options for node before server.mjs (e.g. --expose-gc). */
+  nodeArgs?: string[];
+  /** Settings on top of the defaults below (e.g. TRUST_PROXY, APP_ORIGIN). */
+  env?: Record<string, string>;
+  /** Another process on the first one's database and fakes: no migration, no seed, no fakes of its own. */
+  joins?: BenchServer;
+};
+
+/**
+ * Migrates and seeds a fresh bench database, then starts the fakes and the server and waits for
+ * /api/health; with `joins`, starts one more process on an existing server's database and fakes.
+ */
+export async function startBenchServer(root: string, options: BenchServerOptions = {}): Promise<BenchServer> {
+  if (options.joins) return startJoiningServer(root, options.joins, options);
+  const dataDir = path.join(root, "data", options.name ?? "bench");
   await rm(dataDir, { recursive: true, force: true });
   await mkdir(dataDir, { recursive: true });
   const [port, emailPort, paymentsPort] = [await freePort(), await freePort(), await freePort()];
@@ -43,6 +62,7 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
     STRIPE_SECRET_KEY: "sk_test_bench_0123456789",
     RESEND_API_KEY: "re_bench_0123456789",
     ACCESS_LOG: "off",
+    ...options.env,
   };
   delete env.NODE_ENV;
   for (const script of ["scripts/migrate.ts", "scripts/seed.ts"]) {
@@ -56,9 +76,38 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
     "set -euo pipefail",
     "pids=()",
     "source scripts/start-fakes.sh",
-    "exec node server.mjs",
+    `exec node ${(options.nodeArgs ?? []).join(" ")} server.mjs`,
   ].join("\n");
   const child = startProcess("bash", ["-c", shell], { cwd: root, env: { ...env, NODE_ENV: "production" } });
+  return watchUntilHealthy(child, `http://127.0.0.1:${port}`, { databaseFile, env, emailPort, paymentsPort });
+}
+
+async function startJoiningServer(root: string, first: BenchServer, options: BenchServerOptions): Promise<BenchServer> {
+  const port = await freePort();
+  const env: NodeJS.ProcessEnv = {
+    ...first.env,
+    PORT: String(port),
+    APP_ORIGIN: first.env.APP_ORIGIN === first.origin ? `http://127.0.0.1:${port}` : first.env.APP_ORIGIN!,
+    ...options.env,
+    // What start-fakes.sh exports for the first process: the same fakes serve this one.
+    RESEND_BASE_URL: `http://127.0.0.1:${first.emailPort}`,
+    STRIPE_API_BASE: `http://127.0.0.1:${first.paymentsPort}`,
+    NODE_ENV: "production",
+  };
+  const child = startProcess("node", [...(options.nodeArgs ?? []), "server.mjs"], { cwd: root, env });
+  return watchUntilHealthy(child, `http://127.0.0.1:${port}`, {
+    databaseFile: first.databaseFile,
+    env,
+    emailPort: first.emailPort,
+    paymentsPort: first.paymentsPort,
+  });
+}
+
+async function watchUntilHealthy(
+  child: ChildProcess,
+  origin: string,
+  rest: Pick<BenchServer, "databaseFile" | "env" | "emailPort" | "paymentsPort">,
+): Promise<BenchServer> {
   let output = "";
   const keep = (chunk: Buffer) => {
     output = (output + chunk.toString()).slice(-20_000);
@@ -66,7 +115,6 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
   child.stdout?.on("data", keep);
   child.stderr?.on("data", keep);
 
-  const origin = `http://127.0.0.1:${port}`;
   try {
     await waitForHealth(origin, child);
   } catch (error) {
@@ -76,13 +124,13 @@ export async function startBenchServer(root: string): Promise<BenchServer> {
   return {
     origin,
     pid: child.pid!,
-    databaseFile,
+    ...rest,
     stop: () => stopProcess(child),
     recentOutput: () => output,
   };
 }
 
-async function waitForHealth(origin: string, child: ChildProcess): Promise<void> {
+export async function waitForHealth(origin: string, child: ChildProcess): Promise<void> {
   const deadline = Date.now() + READY_TIMEOUT_MS;
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`The server exited with code ${child.exitCode} before it was ready.`);
