@@ -1,5 +1,5 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { bookings, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import { bookings, buildCrew, builds, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import type { CatalogChoice, Design } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
@@ -20,6 +20,8 @@ import { publicPlan } from "~/lib/design/plan.server";
 import { draftSupplierOrders, orderNumber } from "~/lib/suppliers/supplier-orders.server";
 import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead, type SeedPapers } from "./seed-data";
+import { addCalendarDays, buildDates, buildDaysNeeded } from "~/domain/build-schedule";
+import { jobLabourHours, workCalendarFor } from "~/lib/builds/builds.server";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -63,6 +65,7 @@ export async function seedDemo() {
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
     await seedSupplierOrders(companyId);
+    await seedBuilds(companyId);
     await seedConsults(companyId);
   }
 }
@@ -97,6 +100,31 @@ async function seedSupplierOrders(companyId: number) {
     await db.insert(leadEvents).values(
       drafted.orderIds.map((id) => ({ companyId, leadId: job.id, actorUserId: owner.id, kind: "supplier-order", detail: `${orderNumber(id)} ${state === "sent" ? "sent" : "sent and confirmed"} (demo data, no e-mail).`, createdAt: at })),
     );
+  }
+}
+
+/**
+ * Build dates for the demo jobs from "build booked" on: the booked job starts two weeks out, the
+ * built and paid ones were built a few weeks ago. Written without e-mails; a job with a build is left alone.
+ */
+async function seedBuilds(companyId: number) {
+  const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
+  const [crew] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, "crew"), eq(users.isActive, true))).limit(1);
+  if (!company || !crew) return;
+  const calendar = await workCalendarFor(company);
+  const today = zonedDay(new Date(), company.timeZone);
+  const jobs = await db.select().from(leads).where(and(eq(leads.companyId, companyId), inArray(leads.status, ["build-booked", "built", "paid-in-full"])));
+  for (const [i, job] of jobs.entries()) {
+    if ((await db.select({ id: builds.id }).from(builds).where(eq(builds.leadId, job.id)).limit(1)).length) continue;
+    const labourHours = await jobLabourHours(job);
+    const days = buildDaysNeeded({ labourHours, crewSize: company.crewSize, dayHours: company.crewDayHours });
+    const start = job.status === "build-booked" ? addCalendarDays(today, 14) : addCalendarDays(today, -21 - 7 * i);
+    const dates = buildDates(start, days, calendar);
+    const [row] = await db
+      .insert(builds)
+      .values({ companyId, leadId: job.id, datesJson: JSON.stringify(dates), firstDay: dates[0]!, lastDay: dates.at(-1)!, labourHours, stageBefore: "stone-ordered", bookedByUserId: null })
+      .returning();
+    await db.insert(buildCrew).values({ buildId: row!.id, userId: job.crewUserId ?? crew.id, companyId });
   }
 }
 

@@ -235,6 +235,9 @@ const kindLabel: Record<string, string> = {
   "consult-booked": "Consult booked",
   "consult-cancelled": "Consult cancelled",
   "supplier-order": "Supplier order",
+  "build-booked": "Build booked",
+  "build-moved": "Build moved",
+  "build-cancelled": "Build cancelled",
 };
 
 /** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
@@ -301,6 +304,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
             )}
             {lead.isSigned && isOwner ? (
               <Link to={`/app/leads/${lead.id}/supplier-orders`} className={lead.status === "signed" ? "btn-primary" : "btn-quiet"}>Supplier orders</Link>
+            ) : null}
+            {lead.isSigned && isOwner ? (
+              <Link to={`/app/leads/${lead.id}/build`} className={lead.status === "stone-ordered" ? "btn-primary" : "btn-quiet"}>Build dates</Link>
             ) : null}
           </div>
         ) : null}

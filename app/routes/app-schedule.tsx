@@ -9,11 +9,13 @@ import { cancelBooking, cancelRefusalStatus } from "~/lib/consults/booking.serve
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { listUpcomingConsults } from "~/lib/consults/schedule.server";
+import { describeBuildDays, listBuilds } from "~/lib/builds/builds.server";
+import { addCalendarDays } from "~/domain/build-schedule";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
 
-export const meta: Route.MetaFunction = () => [{ title: "Consult schedule · Emberwright" }];
+export const meta: Route.MetaFunction = () => [{ title: "Schedule · Emberwright" }];
 
 const SCHEDULE_ROLES = ["owner", "estimator"] as const;
 
@@ -36,7 +38,18 @@ export async function loader({ request }: Route.LoaderArgs) {
     fee: formatMoney(r.booking.amountCents),
   }));
   for (const item of items) days.set(item.day, [...(days.get(item.day) ?? []), item]);
-  return { timeZone: company.timeZone, days: [...days.entries()].map(([day, list]) => ({ day, items: list })), canEditHours: user.role === "owner" };
+  // Builds from today for the next three months, beside the consults (days off are shared).
+  const today = zonedDay(new Date(), company.timeZone);
+  const builds = (await listBuilds(user.companyId, today, addCalendarDays(today, 92))).map((b) => ({
+    id: b.id,
+    leadId: b.leadId,
+    daysText: describeBuildDays(b.dates),
+    dayCount: b.dates.length,
+    customerName: b.customerName,
+    place: b.place,
+    crew: b.crew.map((c) => c.name).join(", "),
+  }));
+  return { timeZone: company.timeZone, days: [...days.entries()].map(([day, list]) => ({ day, items: list })), builds, canEditHours: user.role === "owner", canBook: user.role === "owner" };
 }
 
 const cancelSchema = z.object({ bookingId: formId("Choose a consult to cancel.") });
@@ -51,15 +64,15 @@ export async function action({ request }: Route.ActionArgs) {
 }
 
 export default function ScheduleRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { days, timeZone, canEditHours } = loaderData;
+  const { days, timeZone, canEditHours, builds, canBook } = loaderData;
   const navigation = useNavigation();
   const dayLabel = (day: string) => new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
   return (
     <div className="flex flex-col gap-6">
       <div className="flex flex-wrap items-end justify-between gap-4">
         <div>
-          <h1 className="text-2xl font-extrabold">Consult schedule</h1>
-          <p className="text-char-600">Booked design consults, in {timeZone.replace(/_/g, " ")} time.</p>
+          <h1 className="text-2xl font-extrabold">Schedule</h1>
+          <p className="text-char-600">Builds and booked design consults, in {timeZone.replace(/_/g, " ")} time.</p>
         </div>
         {canEditHours ? <Link to="/app/consult-hours" className="btn-quiet">Consult hours</Link> : null}
       </div>
@@ -67,10 +80,35 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
       {actionData?.done ? (
         <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Consult cancelled; the fee is being refunded and both sides are e-mailed.</p>
       ) : null}
+      <section className="card overflow-hidden" aria-labelledby="builds-heading">
+        <h2 id="builds-heading" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">Builds</h2>
+        {builds.length === 0 ? <p className="px-4 py-3 text-char-600">No builds booked in the next three months.</p> : null}
+        <ul className="divide-y divide-ash-200">
+          {builds.map((b) => (
+            <li key={b.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
+              <div className="min-w-0">
+                <p className="font-extrabold">
+                  <Link to={`/app/leads/${b.leadId}`} className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline">{b.customerName}</Link> · {b.dayCount} day{b.dayCount === 1 ? "" : "s"}
+                </p>
+                <p className="text-sm break-words text-char-700">{b.daysText}</p>
+                <p className="text-sm text-char-600">
+                  {b.place} · crew: {b.crew || "none"}
+                </p>
+              </div>
+              {canBook ? (
+                <Link to={`/app/leads/${b.leadId}/build`} className="btn-quiet" aria-label={`Change the build dates of ${b.customerName}`}>
+                  Change dates
+                </Link>
+              ) : null}
+            </li>
+          ))}
+        </ul>
+      </section>
+      <h2 className="text-lg font-extrabold">Design consults</h2>
       {days.length === 0 ? <p className="card p-6 text-char-600">No consults booked yet.</p> : null}
       {days.map(({ day, items }) => (
         <section key={day} className="card overflow-hidden" aria-labelledby={`day-${day}`}>
-          <h2 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold"><time dateTime={day}>{dayLabel(day)}</time></h2>
+          <h3 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold"><time dateTime={day}>{dayLabel(day)}</time></h3>
           <ul className="divide-y divide-ash-200">
             {items.map((item) => (
               <li key={item.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
