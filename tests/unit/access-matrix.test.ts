@@ -46,6 +46,9 @@ import { action as supplierOrderAction, loader as supplierOrderLoader } from "~/
 import { loader as supplierOrderFileLoader } from "~/routes/app-supplier-order-file";
 import { action as jobOrdersAction, loader as jobOrdersLoader } from "~/routes/app-lead-supplier-orders";
 import { draftSupplierOrders } from "~/lib/suppliers/supplier-orders.server";
+import { action as buildAction, loader as buildLoader } from "~/routes/app-lead-build";
+import { action as calendarAction, loader as calendarLoader } from "~/routes/app-calendar";
+import { loader as calendarFeedLoader } from "~/routes/calendar-feed";
 import { nextDay, zonedDay } from "~/lib/format/zoned-time";
 import { demoCompany, routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
@@ -376,6 +379,33 @@ const CASES: Case[] = [
     name: "POST /app/leads/:id/supplier-orders (draft again)",
     call: (c) => jobOrdersAction(routeArgs(post(`/app/leads/${lead()}/supplier-orders`, c, { requestedOn: nextDay(nextDay(zonedDay(new Date(), "America/Chicago"))) }), { leadId: lead() })),
     expected: { owner: "409", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/leads/:id/build",
+    call: (c) => buildLoader(routeArgs(get(`/app/leads/${lead()}/build`, c), { leadId: lead() })),
+    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    // A day that is not a date is refused by field before anything is booked.
+    name: "POST /app/leads/:id/build (a day that is not a date)",
+    call: (c) => buildAction(routeArgs(post(`/app/leads/${lead()}/build`, c, { intent: "book", start: "someday", days: "", crewUserIds: "1", notes: "" }), { leadId: lead() })),
+    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /app/calendar",
+    call: (c) => calendarLoader(routeArgs(get("/app/calendar", c))),
+    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+  },
+  {
+    name: "POST /app/calendar (an unknown choice)",
+    call: (c) => calendarAction(routeArgs(post("/app/calendar", c, { intent: "share-with-everyone" }))),
+    expected: { owner: "400", estimator: "400", crew: "400", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+  },
+  {
+    // The link's secret is the credential; a made-up one is the same 404 for everybody.
+    name: "GET /calendar/:token.ics (a made-up link)",
+    call: (c) => calendarFeedLoader(routeArgs(get("/calendar/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.ics", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
+    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
   },
   {
     name: "GET /app/team",
