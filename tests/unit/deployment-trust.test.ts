@@ -140,7 +140,7 @@ test("one bot on one contractor's form does not close another contractor's form 
   expect(statuses.slice(0, 10).every((s) => s !== 429)).toBe(true);
   expect(statuses[10]).toBe(429);
   expect(statusOf(await post("north-ridge"))).not.toBe(429);
-});
+}, 60_000);
 
 test("spoofed X-Forwarded-For from an untrusted peer does not buy fresh buckets on the request form", async () => {
   await demoCompany();
