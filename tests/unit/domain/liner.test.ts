@@ -1,13 +1,15 @@
 import { expect, test } from "vitest";
 import { DEFAULT_FACTORS } from "~/domain/factors";
 import { firebrickInnerEdgeDistance, planFirebrick, planSteelRing } from "~/domain/liner";
-import { bowlDiameterForCount } from "~/domain/ring";
 import { gapBetween, overlapArea, rectanglePolygon } from "./flatten-shapes";
 
 // A "9 in straight" firebrick: 9 × 4½ × 2½ in (supplier literature; ASTM C27 sets no sizes).
 const STRAIGHT = { lengthIn: 9, widthIn: 4.5, heightIn: 2.5 };
 // 14 units of 12/8/8: a 36.575 in bowl (derived here from the regular-polygon formulas).
-const BOWL_14 = bowlDiameterForCount({ faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 }, 14);
+// The 14-unit ring of 12/8/8 tapered units: past the tightest bowl the 12 in faces close, so they are
+// the sides of a regular 14-gon (apothem 6/tan(π/14), any geometry handbook) and the bowl is twice the
+// apothem less the 8 in depth: 12/tan(π/14) − 16 = 36.575 in.
+const BOWL_14 = 12 / Math.tan(Math.PI / 14) - 16;
 
 test("a 36 in steel ring leaves 0.288 in each side in a 36.575 in bowl: under the 1/2 in needed for ±1/8 in unit tolerance (ASTM C1372, from memory) plus steel growth of 36 × 6.5e-6 × 800 ≈ 0.19 in (carbon steel's published coefficient), so it does not fit by default", () => {
   expect(36 * 6.5e-6 * 800).toBeCloseTo(0.187, 3);
