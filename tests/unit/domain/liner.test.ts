@@ -5,7 +5,6 @@ import { gapBetween, overlapArea, rectanglePolygon } from "./flatten-shapes";
 
 // A "9 in straight" firebrick: 9 × 4½ × 2½ in (supplier literature; ASTM C27 sets no sizes).
 const STRAIGHT = { lengthIn: 9, widthIn: 4.5, heightIn: 2.5 };
-// 14 units of 12/8/8: a 36.575 in bowl (derived here from the regular-polygon formulas).
 // The 14-unit ring of 12/8/8 tapered units: past the tightest bowl the 12 in faces close, so they are
 // the sides of a regular 14-gon (apothem 6/tan(π/14), any geometry handbook) and the bowl is twice the
 // apothem less the 8 in depth: 12/tan(π/14) − 16 = 36.575 in.
