@@ -36,6 +36,15 @@ test("job A, the typical pit: 3 courses of 14 (12/8/8/4 units), 12 caps from 16 
   // Glue: 2 layers × 14 × 10 in × 2 beads = 560 in ÷ (165 × 0.85 = 140.25) = 3.99 → 4 cartridges.
   expect(byKey(plan)).toEqual({ "wall-unit": 45, cap: 13, "steel-ring": 1, fill: 4, aggregate: 0.9, adhesive: 4 });
   expect(plan.liner).toMatchObject({ kind: "steel-ring", fits: true, bedDepthIn: 1.875 });
+  // What the order says, from the same working: 0.4390 yd³ to two places, 1.776 ft³ to one, 560 in of bead.
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "3 courses of 14, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "12 caps cut from 16 in × 12 in blanks, plus 1 spare"],
+    ["steel-ring", "Steel ring insert", "each", undefined],
+    ["fill", "Pea gravel", "bag", "1.8 ft³: a 1 7/8 in bed under the ring and the gap round it"],
+    ["aggregate", "Base aggregate", "ton", "0.44 yd³ compacted"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 560 in of bead"],
+  ]);
   // Labour: base 23.706 × 0.15 = 3.556 → 3.56; spoil 0.4390 × 1.25 × 1.5 = 0.823 → 0.82;
   // carry (45 × 26.30 + 13 × 39.44 lb = 1696 lb) = 0.848 t → 0.85; first course 14 × 5 min = 1.17;
   // courses 28 × 3 min = 1.40; saw 24 side cuts × (0.5 + 12.423 × 2.5 / 40 = 1.2765 min) = 0.51;
@@ -75,6 +84,16 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   // Glue: 2 layers × (14 × 10 + (10.554 + 7.539)/2) × 2 = 596.2 in ÷ 140.25 = 4.25 → 5 cartridges.
   expect(byKey(plan)).toEqual({ "wall-unit": 63, cap: 14, firebrick: 51, "refractory-mortar": 4, fill: 2, aggregate: 1, adhesive: 5 });
   expect(plan.liner).toMatchObject({ kind: "firebrick", bricksPerRow: 12, fullRows: 3, rippedRows: 1, ripCuts: 12 });
+  // The order's notes: one closure a course × 4 courses; 410.8 in³ of mortar; 0.720 ft³ of sand; 0.4847 yd³; 596.2 in of bead.
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "4 courses of 15, 4 of them cut down as closure units, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "13 caps cut from 16 in × 12 in blanks, plus 1 spare"],
+    ["firebrick", "Firebrick", "each", "4 rows of 12 on edge, the top row ripped to 2 1/8 in, plus 3 spare"],
+    ["refractory-mortar", "Refractory mortar, 1 gal pail", "pail", "1/16 in joints, 411 in³; not ordinary mortar"],
+    ["fill", "Sand", "bag", "0.7 ft³ between the firebrick and the wall"],
+    ["aggregate", "Base aggregate", "ton", "0.48 yd³ compacted"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 596 in of bead"],
+  ]);
   // Labour: base 26.172 × 0.15 = 3.93; spoil 0.4847 × 1.875 = 0.91; carry (63 × 26.30 + 14 × 39.44
   // + 51 × 8.32 lb = 2633 lb) = 1.32; first 15 × 5 min = 1.25; courses 45 × 3 min = 2.25;
   // saw 26 side cuts × 1.2724 + 8 closure cuts × (0.5 + 8 × 4 / 40 = 1.3) + 12 rips × (0.5 + 9 × 2.5 / 40
@@ -110,6 +129,21 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
     "wall-unit": 48, cap: 13, aggregate: 5.8, adhesive: 5, paver: 492, "border-unit": 54, "bedding-sand": 0.8, "joint-sand": 4, "edge-restraint": 7, "edge-spike": 51,
   });
   expect(plan.base.patioRadiusIn).toBe(102);
+  // The order's notes. Paver waste: the field is π × 90² less the pit's outside polygon
+  // 15 × 29.583² × tan 12° = 2790 in², so 22,657 in² ÷ 54 in² = 419.6 pavers; 492 is 17 % over.
+  // Edge 603.2 in = 50.3 ft; spikes at the default 12 in spacing (common practice, no source).
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "3 courses of 15, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "12 caps cut from 18 in × 12 in blanks, plus 1 spare"],
+    ["aggregate", "Base aggregate", "ton", "2.98 yd³ compacted under the pit and the patio"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 623 in of bead"],
+    ["paver", "Patio pavers", "each", "348 whole, 120 cut, 5 % spare: 17 % over the area"],
+    ["border-unit", "Border units", "each", "51 in the course, plus 3 spare"],
+    ["bedding-sand", "Bedding sand", "ton", undefined],
+    ["joint-sand", "Joint sand", "bag", undefined],
+    ["edge-restraint", "Edge restraint, 8 ft", "piece", "50.3 ft round the patio"],
+    ["edge-spike", "Edge spikes", "each", "one every 12 in"],
+  ]);
   expect(plan.patio).toMatchObject({ borderLayout: "tapered", borderWholeCount: 50, borderClosureCount: 1, wholePaverCount: 348, cutPaverCount: 120 });
   // Labour: base 28.566 ft² × 0.15 = 4.28; spoil (4113.4 × 6 + 28,572 × 5) in³ = 3.591 yd³ × 1.875 = 6.73;
   // carry (48 × 46.04 + 13 × 44.38 lb = 2787 lb) = 1.39; first 15 × 5 min = 1.25; courses 30 × 3 min = 1.50;
