@@ -99,3 +99,56 @@ test("a steel ring whose top sits more than 1 in under the caps is raised on a g
   const close = planSteelRing({ bowlDiameterIn: BOWL_14, insert: { outsideDiameterIn: 35, heightIn: 11 }, minGapIn: 0.5, linedHeightIn: 11.875, wallSides: 14, raiseOverIn: 1 });
   expect(close.bedDepthIn).toBe(0);
 });
+
+test("a 36 in ring in a 40 in bowl with nothing else said: 2 in each side, as tall as the lining, no bed; the gap to its own top is the round bowl less the ring, (π·20² − π·18²) × 10 = 2387.6 in³ = 1.382 ft³ (circle area; 1 ft³ = 1728 in³, NIST SP 811)", () => {
+  const plan = planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5 });
+  expect(plan).toMatchObject({ kind: "steel-ring", outsideDiameterIn: 36, heightIn: 10, fits: true, gapIn: 2, requiredBowlDiameterIn: 37, minGapIn: 0.5, linedHeightIn: 10, bedDepthIn: 0, tooTall: false });
+  expect(plan.fillFt3).toBeCloseTo(1.3817, 4);
+});
+
+test("a bowl exactly the ring plus twice the gap clears it; a ring 1/8 in over the lined height is too tall, one exactly at it is not; a ring exactly the raise limit under the caps stays on the floor (common practice, no source)", () => {
+  expect(planSteelRing({ bowlDiameterIn: 37, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5 }).fits).toBe(true);
+  expect(planSteelRing({ bowlDiameterIn: 36.99, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5 }).fits).toBe(false);
+  const tall = planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 12 }, minGapIn: 0.5, linedHeightIn: 11.875, raiseOverIn: 1 });
+  expect([tall.tooTall, tall.bedDepthIn]).toEqual([true, 0]);
+  expect(planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 11.875 }, minGapIn: 0.5, linedHeightIn: 11.875 }).tooTall).toBe(false);
+  expect(planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5, linedHeightIn: 11, raiseOverIn: 1 }).bedDepthIn).toBe(0);
+  expect(planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5, linedHeightIn: 11.25, raiseOverIn: 1 }).bedDepthIn).toBe(1.25);
+});
+
+/*
+ * The firebrick lining of a 40 in bowl inside 15 wall pieces, worked by hand (regular-polygon
+ * apothem a = L/(2 tan(π/M)) and area M·a²·tan(π/M), Machinery's Handbook; 1 ft³ = 1728 in³):
+ * 12 bricks a row: a_in = 9/(2 × 0.267949) = 16.794 in; outer faces at 19.294 in; the V-joint at the
+ * back 2 × 19.294 × 0.267949 − 9 = 1.340 in; the gap to the wall 20 − 19.294 = 0.706 in.
+ * Rows (1/16 in joints, 15 7/8 in lined): 3 whole and a 2 1/8 in rip. Mortar: beds 4 × 9 × 2.5 × 1/16
+ * = 5.625, heads (3 × 4.5 + 2.125) × 2.5 × (1/16 + 0.670) = 28.608, × 12 = 410.8 in³.
+ * Sand: wall polygon 15 × 20² × tan 12° = 1275.34 in² less the lining 12 × 19.294² × tan 15° =
+ * 1196.97 in² = 78.37 in² × 15.875 in = 1244.1 in³ = 0.720 ft³; against a round bowl (no sides given)
+ * π × 20² = 1256.64 in², 59.67 in² × 15.875 = 947.3 in³ = 0.548 ft³.
+ */
+test("firebrick in a 40 in bowl of 15 pieces: 12 a row, 1.340 in V-joints, 0.706 in to the wall, 410.8 in³ of mortar and 0.720 ft³ of sand (worked by hand)", () => {
+  const args = { bowlDiameterIn: 40, linedHeightIn: 15.875, brick: STRAIGHT, jointIn: 1 / 16, minRipIn: 1 };
+  const plan = planFirebrick({ ...args, wallSides: 15 });
+  expect(plan).toMatchObject({ fits: true, bricksPerRow: 12, fullRows: 3, rippedRows: 1, rows: 4, totalBricks: 48, ripCuts: 12, rowHeightIn: 4.5, thicknessIn: 2.5, jointIn: 1 / 16, linedHeightIn: 15.875 });
+  expect(plan.innerEdgeDistanceIn).toBeCloseTo(16.794, 3);
+  expect(plan.fireboxDiameterIn).toBeCloseTo(33.588, 3);
+  expect(plan.outerJointIn).toBeCloseTo(1.34, 3);
+  expect(plan.gapToWallIn).toBeCloseTo(0.706, 3);
+  expect(plan.mortarIn3).toBeCloseTo(410.8, 1);
+  expect(plan.fillFt3).toBeCloseTo(0.72, 3);
+  expect(planFirebrick(args).fillFt3).toBeCloseTo(0.548, 3);
+});
+
+test("firebrick defaults: no joint and a 1 in smallest rip; 10 in lined takes 2 rows of 4 1/2 in and a 1 in rip, 9.9 in leaves 0.9 in out; with no joint only the V-joints take mortar, 12 × 10 in × 2.5 × 1.340/2 = 200.96 in³ (common practice, no source)", () => {
+  const ten = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 10, brick: STRAIGHT });
+  expect([ten.jointIn, ten.fullRows, ten.ripHeightIn, ten.rows, ten.builtHeightIn]).toEqual([0, 2, 1, 3, 10]);
+  expect(ten.mortarIn3).toBeCloseTo(200.96, 2);
+  const under = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 9.9, brick: STRAIGHT });
+  expect([under.fullRows, under.ripHeightIn, under.rows, under.builtHeightIn]).toEqual([2, null, 2, 9]);
+});
+
+test("a lining too low for one row does not fit, though the bowl would take 12 a row: nothing is ordered", () => {
+  const plan = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 0.5, brick: STRAIGHT, jointIn: 1 / 16 });
+  expect(plan).toMatchObject({ fits: false, bricksPerRow: 12, fullRows: 0, rows: 0, totalBricks: 0, ripCuts: 0, builtHeightIn: 0, mortarIn3: 0, fillFt3: 0, fireboxDiameterIn: 0, outerJointIn: 0, gapToWallIn: 0, innerEdgeDistanceIn: 0 });
+});
