@@ -54,6 +54,27 @@ test("job A, the typical pit: 3 courses of 14 (12/8/8/4 units), 12 caps from 16 
   });
   expect(plan.labour.hours).toBe(12.21);
   expect(plan.labour.sawCuts).toBe(24);
+  // The labour lines say what they count: 23.706 ft², 0.4390 × 1.25 = 0.549 yd³ loose, 1696 lb
+  // (a unit (12 + 8)/2 × 8 × 4 = 320 in³ and a blank 16 × 12 × 2.5 = 480 in³ at 142 lb/ft³: 26.30 and 39.44 lb).
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (23.7 ft²)",
+    "Haul away the dug soil (0.55 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (1,696 lb)",
+    "Set and level the first course (14 units)",
+    "Stack and glue the upper courses (28 units)",
+    "Wet-saw cuts (24)",
+    "Mark the cap blanks (12)",
+    "Glue and set the caps (12)",
+    "Lay the gravel bed, set the steel ring and backfill",
+  ]);
+  expect(plan.labour.wallUnitLb).toBeCloseTo(26.296, 3);
+  expect(plan.labour.capBlankLb).toBeCloseTo(39.444, 3);
+  expect(plan.labour.carriedLb).toBeCloseTo(1696.11, 2);
+  expect(plan.labour.sawGroups).toHaveLength(1);
+  expect(plan.labour.sawGroups[0]).toMatchObject({ what: "cap side cuts", count: 24, depthIn: 2.5, passes: 1 });
+  expect(plan.labour.sawGroups[0]!.lengthIn).toBeCloseTo(12.423, 3);
+  expect(plan.labour.sawGroups[0]!.minutesEach).toBeCloseTo(1.2765, 4);
   // Price lines: 45 × $6.50, 13 × $22, $220, 4 × $6.50, 0.9 t × $45, 4 × $9 (the fixture's invented prices).
   expect(plan.price?.breakdown.lines.map((l) => l.totalCents)).toEqual([29_250, 28_600, 22_000, 2_600, 4_050, 3_600]);
   expect(plan.price?.breakdown.materialsCents).toBe(90_100);
@@ -103,6 +124,28 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   });
   expect(plan.labour.hours).toBe(15.71);
   expect(plan.labour.sawCuts).toBe(26 + 8 + 12);
+  // Lines: 26.172 ft², 0.4847 × 1.25 = 0.606 yd³ loose, 2633 lb; closure cuts 8 in deep through 4 in,
+  // firebrick rips 9 in through 2.5 in; every cut one pass (under the 5 in saw depth).
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (26.2 ft²)",
+    "Haul away the dug soil (0.61 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (2,633 lb)",
+    "Set and level the first course (15 units)",
+    "Stack and glue the upper courses (45 units)",
+    "Wet-saw cuts (46)",
+    "Mark the cap blanks (13)",
+    "Glue and set the caps (13)",
+    "Line the bowl with firebrick (48)",
+  ]);
+  expect(plan.labour.sawGroups.map((g) => [g.what, g.count, g.depthIn, g.passes])).toEqual([
+    ["cap side cuts", 26, 2.5, 1],
+    ["closure cuts", 8, 4, 1],
+    ["firebrick rips", 12, 2.5, 1],
+  ]);
+  expect(plan.labour.sawGroups[1]).toMatchObject({ lengthIn: 8, minutesEach: 1.3 });
+  expect(plan.labour.sawGroups[2]!.lengthIn).toBeCloseTo(9, 9);
+  expect(plan.labour.sawGroups[2]!.minutesEach).toBeCloseTo(1.0625, 9);
 });
 
 test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no liner, a 16 ft patio of 9 × 6 pavers and a 12 × 6 border", () => {
@@ -152,4 +195,20 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
     setup: 2, base: 4.28, spoil: 6.73, carry: 1.39, "first-course": 1.25, courses: 1.5, "saw-cuts": 0.51, "mark-caps": 0.4, caps: 1, patio: 21.84,
   });
   expect(plan.labour.hours).toBe(40.9);
+  // Lines: 28.566 ft², 3.591 × 1.25 = 4.489 yd³ loose, 2787 lb (a unit (12 + 8.75)/2 × 9 × 6 =
+  // 560.25 in³ = 46.04 lb, a blank 18 × 12 × 2.5 = 540 in³ = 44.38 lb), 181.97 ft² of patio.
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (28.6 ft²)",
+    "Haul away the dug soil (4.49 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (2,787 lb)",
+    "Set and level the first course (15 units)",
+    "Stack and glue the upper courses (30 units)",
+    "Wet-saw cuts (24)",
+    "Mark the cap blanks (12)",
+    "Glue and set the caps (12)",
+    "Patio: base, bedding, border and field (182 ft²)",
+  ]);
+  expect(plan.labour.wallUnitLb).toBeCloseTo(46.039, 3);
+  expect(plan.labour.capBlankLb).toBeCloseTo(44.375, 3);
 });
