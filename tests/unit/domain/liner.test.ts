@@ -152,3 +152,17 @@ test("a lining too low for one row does not fit, though the bowl would take 12 a
   const plan = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 0.5, brick: STRAIGHT, jointIn: 1 / 16 });
   expect(plan).toMatchObject({ fits: false, bricksPerRow: 12, fullRows: 0, rows: 0, totalBricks: 0, ripCuts: 0, builtHeightIn: 0, mortarIn3: 0, fillFt3: 0, fireboxDiameterIn: 0, outerJointIn: 0, gapToWallIn: 0, innerEdgeDistanceIn: 0 });
 });
+
+test("a lined height of exactly three rows takes three rows, whatever the float noise: 3 × (4 1/2 + 0.15) = 13.95 in, though 13.95 / 4.65 computes as 2.9999999999999996", () => {
+  expect(13.95 / 4.65).toBeLessThan(3);
+  const plan = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 13.95, brick: STRAIGHT, jointIn: 0.15 });
+  expect([plan.fullRows, plan.rippedRows, plan.rows]).toEqual([3, 0, 3]);
+  expect(plan.builtHeightIn).toBeCloseTo(13.95, 12);
+});
+
+test("inside a three-sided wall the fill is measured against the triangle, 3·a²·tan 60° = 5.196 a² (regular-polygon area, Machinery's Handbook), not the circle", () => {
+  // a = 20: triangle 2078.46 in²; a 36 in ring 1017.88 in², 10 in tall: 10,605.8 in³ = 6.138 ft³.
+  expect(planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5, wallSides: 3 }).fillFt3).toBeCloseTo(6.1376, 3);
+  // Firebrick, 12 a row (a_in + t = 19.294 in): (2078.46 − 1196.97) in² × 10 in lined (2 rows and a 1 in rip) = 8814.9 in³ = 5.101 ft³.
+  expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 10, brick: STRAIGHT, wallSides: 3 }).fillFt3).toBeCloseTo(5.101, 2);
+});
