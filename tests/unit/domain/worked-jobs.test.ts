@@ -175,8 +175,8 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
   // The two base areas: the pit's disc 4113.4 in² = 28.566 ft², the patio's ring 28,572 in² = 198.42 ft².
   expect(plan.base.pitAreaFt2).toBeCloseTo(28.566, 2);
   expect(plan.base.patioAreaFt2).toBeCloseTo(198.42, 1);
-  // The order's notes. Paver waste: the field is π × 90² less the pit's outside polygon
-  // 15 × 29.583² × tan 12° = 2790 in², so 22,657 in² ÷ 54 in² = 419.6 pavers; 492 is 17 % over.
+  // The order's notes. Paver waste: the field is π × 90² less the pit's footprint, the circle through
+  // the middles of its faces (π × 29.583² = 2749.4 in²), so 22,697 in² ÷ 54 in² = 420.3 pavers; 492 is 17 % over.
   // Edge 603.2 in = 50.3 ft; spikes at the default 12 in spacing (common practice, no source).
   expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
     ["wall-unit", "Wall units", "each", "3 courses of 15, plus 3 spare"],
