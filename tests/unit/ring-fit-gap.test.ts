@@ -16,7 +16,7 @@
 import { eq } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { companies } from "~/db/schema";
-import { db } from "~/lib/db.server";
+import { db } from "~/lib/platform/db.server";
 import { loader as configuratorLoader } from "~/routes/configurator";
 import { demoCompany, routeArgs } from "./support/demo";
 
@@ -57,7 +57,7 @@ test("sized to the ring with the company's 1 1/2 in gap: 17 units, a 48.194 in b
 });
 
 test("the browser's instant redraw sizes the bowl with the same company gap as the server", async () => {
-  const { planLocally } = await import("~/lib/design-plan");
+  const { planLocally } = await import("~/lib/design/design-plan");
   const loaded = (await sizedToRing(1.5)) as Loaded & { catalog: never[]; factors: Record<string, unknown> };
   expect(loaded.factors.linerMinGapIn).toBe(1.5);
   const local = planLocally(loaded.design as never, loaded.catalog, loaded.factors);
