@@ -81,6 +81,7 @@ test("three courses of 14 units with 2 1/2 in caps: 42 units, 14 1/2 in wall, co
   expect(plan.totalUnits).toBe(42);
   expect(plan.wallHeightIn).toBe(14.5);
   expect(plan.runningBondDeg).toBeCloseTo(180 / 14, 12);
+  expect(plan.unitAngleDeg).toBeCloseTo(360 / 14, 12);
   expect(plan.neighbours.below?.unitCount).toBe(13);
   expect(plan.neighbours.above?.unitCount).toBe(15);
 });
