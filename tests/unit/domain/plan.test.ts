@@ -169,3 +169,10 @@ test("a custom cap joint is used: 1/4 in joints take j/cos 15° = 0.259 in off e
   // c2 = 2 × 28.2877 × tan 15° − 0.25 / cos 15° = 15.159 − 0.259 = 14.900 in.
   expect(plan.caps?.outerWidthIn).toBeCloseTo(14.9, 2);
 });
+
+test("a refused plan's error says what it is by name, so logs and the API can tell it from a crash", () => {
+  const error = new PlanGeometryError("ring.unitCount", "Units per course must be a whole number from 3 to 200.");
+  expect(error.name).toBe("PlanGeometryError");
+  expect(String(error)).toBe("PlanGeometryError: Units per course must be a whole number from 3 to 200.");
+  expect(error).toBeInstanceOf(Error);
+});
