@@ -194,3 +194,45 @@ test("a ring of caps laid out with flatten-js: no overlaps, every joint exactly 
     expect(caps.outerEdgeDistanceIn).toBeGreaterThanOrEqual(edgeDistanceIn + 8);
   }
 });
+
+test("each refusal names the field and says what is allowed", () => {
+  const refused = (cap: CapBlank, edgeDistanceIn = 18, jointIn = 3 / 16) => {
+    const error = thrown(() => planCaps({ edgeDistanceIn, wallDepthIn: 8, cap, jointIn, spares: 1 }));
+    return [error.path, error.message];
+  };
+  expect(refused({ ...BLANK, lengthIn: 0 })).toEqual(["cap.lengthIn", "The cap's length must be a length above 0 in."]);
+  expect(refused({ ...BLANK, depthIn: Number.NaN })).toEqual(["cap.depthIn", "The cap's depth must be a length above 0 in."]);
+  expect(refused({ ...BLANK, thicknessIn: -2.5 })).toEqual(["cap.thicknessIn", "The cap's thickness must be a length above 0 in."]);
+  expect(refused({ ...BLANK, innerOverhangIn: -0.5 })).toEqual(["cap.innerOverhangIn", "The inner overhang must be 0 in or more."]);
+  expect(refused({ ...BLANK, innerOverhangIn: Number.NaN })).toEqual(["cap.innerOverhangIn", "The inner overhang must be 0 in or more."]);
+  expect(refused(BLANK, 18, Number.NaN)).toEqual(["jointIn", "The joint must be 0 in or more."]);
+  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 5)).toEqual(["cap.innerOverhangIn", "The bowl is too small for this inner overhang: the caps would meet in the middle. Keep the overhang under 5 in."]);
+  expect(refused({ ...BLANK, outerOverhangIn: -1 })).toEqual(["cap.outerOverhangIn", "The outer overhang must be 0 in or more."]);
+  // 8 + 2 + 3 = 13 in needed from 12 in blanks; the most they give is 12 − 8 − 2 = 2 in.
+  expect(refused({ ...BLANK, outerOverhangIn: 3 })).toEqual(["cap.outerOverhangIn", "A 3 in outer overhang needs blanks at least 13 in deep; these are 12 in. The most these blanks give is 2 in."]);
+  // Blanks 0.01 in long with tight joints: 2 × 30 × tan(π/n) ≤ 0.01 needs n ≥ 18,850, past any real ring.
+  expect(refused({ ...BLANK, lengthIn: 0.01 }, 18, 0)).toEqual(["cap.lengthIn", "The cap blanks are too short for this ring."]);
+  // a1 = 6 − 5 = 1 in, a2 = 13 in, 3 in joints: 5 caps fit outside (2 × 13 × tan 36° − 3/cos 36° = 15.18 in),
+  // but inside 2 × 1 × tan 36° − 3.71 = −2.26 in.
+  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 6, 3)).toEqual(["cap.innerOverhangIn", "The caps would come to a point at their inner edge: make the inner overhang or the joint smaller."]);
+});
+
+test("an outer overhang that uses the whole blank needs no rip: 8 + 2 + 2 = 12 in from 12 in blanks", () => {
+  const caps = planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: { ...BLANK, outerOverhangIn: 2 }, jointIn: 3 / 16, spares: 1 });
+  expect(caps.ripToDepthIn).toBeNull();
+  expect(caps.capDepthIn).toBe(12);
+});
+
+test("why this count: the fewest that fit when the wall is not given; the wall's count when the fewest already divides it; a matching count only within the allowed extra waste (common practice, no source)", () => {
+  const plan = (wallSides?: number, matchMaxExtraOffcutPct?: number) =>
+    planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: BLANK, jointIn: 3 / 16, spares: 1, wallSides, matchMaxExtraOffcutPct });
+  expect([plan().count, plan().countReason]).toEqual([12, "fewest"]);
+  // 12 caps divide a 24-unit wall: they already sit centred over every other unit.
+  expect([plan(24).count, plan(24).countReason]).toEqual([12, "matches-wall"]);
+  // 14 units: 14 caps waste more than 12 do, so without an allowance the fewest stay.
+  expect([plan(14).count, plan(14).countReason]).toEqual([12, "fewest"]);
+  expect([plan(14, 15).count, plan(14, 15).countReason]).toEqual([14, "matches-wall"]);
+  // A 13-unit wall: no count from 13 up to 13 divides it but 13 itself.
+  expect(plan(13, 50).count).toBe(13);
+  expect(plan(2, 50).countReason).toBe("fewest");
+});

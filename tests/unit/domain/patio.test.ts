@@ -119,3 +119,34 @@ test("a patio that does not reach past the pit and its border is refused on pati
     expect((error as PlanGeometryError).path).toBe("patio.outsideRadiusIn");
   }
 });
+
+test("each patio size is checked by name, and a patio that does not clear the pit says how far it must reach: the pit's 26.97 in corners plus a 6 in border, 32.97 in, said to the nearest 1/16 in: 33 in", () => {
+  const refused = (patio: typeof PATIO) => {
+    try {
+      planPatio({ patio, ...PIT, factors: FACTORS });
+    } catch (error) {
+      if (error instanceof PlanGeometryError) return [error.path, error.message];
+      throw error;
+    }
+    return null;
+  };
+  const size = "This size must be a length above 0 in.";
+  expect(refused({ ...PATIO, outsideRadiusIn: Number.NaN })).toEqual(["patio.outsideRadiusIn", size]);
+  expect(refused({ ...PATIO, border: { widthIn: 0, lengthIn: 12 } })).toEqual(["patio.border.widthIn", size]);
+  expect(refused({ ...PATIO, border: { widthIn: 6, lengthIn: -12 } })).toEqual(["patio.border.lengthIn", size]);
+  expect(refused({ ...PATIO, paver: { lengthIn: Infinity, widthIn: 4 } })).toEqual(["patio.paver.lengthIn", size]);
+  expect(refused({ ...PATIO, paver: { lengthIn: 8, widthIn: 0 } })).toEqual(["patio.paver.widthIn", size]);
+  expect(refused({ ...PATIO, outsideRadiusIn: 32.97 })).toEqual(["patio.outsideRadiusIn", "The patio must reach past the pit and its border: its outside radius must be more than 33 in."]);
+});
+
+test("the 16 ft patio's areas and sand: field π(90² − 26.288²) = 23,275 in² = 161.63 ft²; paved π(96² − 26.288²) = 26,782 in² = 185.98 ft²; 1 in of bedding 0.5740 yd³ × 1.35 = 0.775 t; joint sand 185.98 lb ÷ 50 → 4 bags (NIST SP 811; rates from memory)", () => {
+  const patio = plan();
+  expect(patio.fieldCutRadiusIn).toBe(90);
+  expect(patio.borderInnerEdgeDistanceIn).toBe(90);
+  expect(patio.fieldAreaFt2).toBeCloseTo(161.63, 1);
+  expect(patio.pavedAreaFt2).toBeCloseTo(185.98, 1);
+  expect(patio.beddingSandYd3).toBeCloseTo(0.574, 3);
+  expect(patio.beddingSandTons).toBeCloseTo(0.775, 3);
+  expect(patio.jointSandBags).toBe(4);
+  expect(patio.edgeRestraintIn).toBeCloseTo(603.19, 2);
+});

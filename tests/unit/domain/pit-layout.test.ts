@@ -86,13 +86,14 @@ const FIREBRICK = { kind: "firebrick", perRow: 11, rows: 3, lengthIn: 9, widthIn
 // A 7 ft patio edged with 6 × 12 in border units round the 14-unit ring, as the engine lays it:
 // with the company's default joint limit the V-joints would open too wide, so every unit's end is
 // cut to touch at the outer face; with a generous limit the units stay square-ended.
-const RING_14 = planRing({ target: { unitCount: 14 }, wallUnit: UNIT, courses: 3 });
+// Functions, not module constants, so each test runs the engine itself (what mutation testing needs).
+const ring14 = () => planRing({ target: { unitCount: 14 }, wallUnit: UNIT, courses: 3 });
 const BORDER_UNIT = { widthIn: 6, lengthIn: 12 };
 const planBorder = (borderMaxJointIn: number) =>
   planPatio({
     patio: { outsideRadiusIn: 84, border: BORDER_UNIT, paver: { lengthIn: 8, widthIn: 4 } },
-    pitOutsideEdgeDistanceIn: RING_14.edgeDistanceIn + UNIT.depthIn,
-    pitOutsideCornerRadiusIn: RING_14.outsideCornerRadiusIn,
+    pitOutsideEdgeDistanceIn: ring14().edgeDistanceIn + UNIT.depthIn,
+    pitOutsideCornerRadiusIn: ring14().outsideCornerRadiusIn,
     factors: { ...resolveFactors(), borderMaxJointIn },
   });
 function patioFor(plan: ReturnType<typeof planBorder>) {
@@ -109,9 +110,8 @@ function patioFor(plan: ReturnType<typeof planBorder>) {
     fieldColourHex: "#c9bca9",
   };
 }
-const TAPERED_PLAN = planBorder(DEFAULT_FACTORS.borderMaxJointIn);
-const SQUARE_PLAN = planBorder(2);
-const PATIO = patioFor(TAPERED_PLAN);
+const taperedPlan = () => planBorder(DEFAULT_FACTORS.borderMaxJointIn);
+const squarePlan = () => planBorder(2);
 
 const flat = (polygon: PlanPolygon) => new Polygon(polygon.map(([x, y]) => point(x, y)));
 const overlapArea = (p: PlanPolygon, q: PlanPolygon) => BooleanOperations.intersect(flat(p), flat(q)).area();
@@ -273,9 +273,10 @@ test("firebrick count is perRow × rows; rows stack one brick width apart, every
 });
 
 test("the border is drawn as the engine laid it: its piece count, inner faces at r, no two overlapping (flatten-js)", () => {
-  expect(TAPERED_PLAN.borderLayout).toBe("tapered");
-  expect(SQUARE_PLAN.borderLayout).toBe("square");
-  for (const plan of [TAPERED_PLAN, SQUARE_PLAN]) {
+  const [tapered, square] = [taperedPlan(), squarePlan()];
+  expect(tapered.borderLayout).toBe("tapered");
+  expect(square.borderLayout).toBe("square");
+  for (const plan of [tapered, square]) {
     const input = { ...wholeRing(14), patio: patioFor(plan) };
     const { whole, closure } = placeBorderUnits(input);
     expect(whole.length + closure.length).toBe(plan.borderUnitCount);
@@ -290,6 +291,7 @@ const gap = (p: [number, number], q: [number, number]) => Math.hypot(p[0] - q[0]
 const farthest = (polygon: PlanPolygon) => Math.max(...polygon.map(([x, y]) => Math.hypot(x, y)));
 
 test("square-ended units touch at their inner corners and open the engine's outer V-joint (chord 2w·sin(θ/2), regular polygon)", () => {
+  const SQUARE_PLAN = squarePlan();
   const input = { ...wholeRing(14), patio: patioFor(SQUARE_PLAN) };
   const outline = outlineBorderUnit(input)!;
   expect(outline).toHaveLength(4);
@@ -303,7 +305,7 @@ test("square-ended units touch at their inner corners and open the engine's oute
 });
 
 test("units cut to touch at the outer face close every joint there, and the course reaches the patio's edge R", () => {
-  const input = { ...wholeRing(14), patio: patioFor(TAPERED_PLAN) };
+  const input = { ...wholeRing(14), patio: patioFor(taperedPlan()) };
   const pieces = drawPitPlan(input).borderUnits.sort((p, q) => byAngle(p) - byAngle(q));
   for (const piece of pieces) expect(farthest(piece)).toBeLessThanOrEqual(Math.hypot(84, BORDER_UNIT.lengthIn / 2) + 1e-9);
   const outline = outlineBorderUnit(input)!;
@@ -315,9 +317,9 @@ test("units cut to touch at the outer face close every joint there, and the cour
 });
 
 test("without a patio the base pad is the plan's own base radius, so a company's reach past the wall shows", () => {
-  const input = { ...wholeRing(14), basePadRadiusIn: RING_14.outsideCornerRadiusIn + 10 };
-  expect(measurePit(input).basePadRadiusIn).toBeCloseTo(RING_14.outsideCornerRadiusIn + 10, 12);
-  expect(measurePit(input).extentRadiusIn).toBeCloseTo(RING_14.outsideCornerRadiusIn + 10, 12);
+  const input = { ...wholeRing(14), basePadRadiusIn: ring14().outsideCornerRadiusIn + 10 };
+  expect(measurePit(input).basePadRadiusIn).toBeCloseTo(ring14().outsideCornerRadiusIn + 10, 12);
+  expect(measurePit(input).extentRadiusIn).toBeCloseTo(ring14().outsideCornerRadiusIn + 10, 12);
 });
 
 test("no patio, no caps, no liner: nothing but the wall is placed", () => {
@@ -340,7 +342,7 @@ test("a 14-unit 12/8/8 ring measures a 36.575 in bowl and 52.575 in outside (der
 });
 
 test("the camera's view holds the whole pit and patio, in portrait and landscape, and stands no farther back than needed", () => {
-  for (const input of [withCaps({ ...wholeRing(14), patio: PATIO }), withCaps(wholeRing(14)), wholeRing(30, 6)]) {
+  for (const input of [withCaps({ ...wholeRing(14), patio: patioFor(taperedPlan()) }), withCaps(wholeRing(14)), wholeRing(30, 6)]) {
     for (const aspect of [0.6, 1, 1.8]) {
       const framing = frameCamera(input, aspect, 35);
       const tanV = Math.tan((35 * Math.PI) / 360);

@@ -81,6 +81,7 @@ test("three courses of 14 units with 2 1/2 in caps: 42 units, 14 1/2 in wall, co
   expect(plan.totalUnits).toBe(42);
   expect(plan.wallHeightIn).toBe(14.5);
   expect(plan.runningBondDeg).toBeCloseTo(180 / 14, 12);
+  expect(plan.unitAngleDeg).toBeCloseTo(360 / 14, 12);
   expect(plan.neighbours.below?.unitCount).toBe(13);
   expect(plan.neighbours.above?.unitCount).toBe(15);
 });
@@ -266,4 +267,70 @@ test("an exact bowl's whole units and closures always add up to 360° with closu
       if (above) expect(above.bowlDiameterIn).toBeGreaterThan(bowlDiameterIn);
     }),
   );
+});
+
+test("a bad wall unit, course count or unit count is refused with the field and the allowed range in words", () => {
+  const refused = (fn: () => unknown) => {
+    const error = thrown(fn);
+    return [error.path, error.message];
+  };
+  expect(refused(() => ring(12, { ...UNIT, faceIn: 0 }))).toEqual(["wallUnit.faceIn", "The wall unit's face length must be a length above 0 in."]);
+  expect(refused(() => ring(12, { ...UNIT, backIn: Number.NaN }))).toEqual(["wallUnit.backIn", "The wall unit's back length must be a length above 0 in."]);
+  expect(refused(() => ring(12, { ...UNIT, depthIn: -8 }))).toEqual(["wallUnit.depthIn", "The wall unit's depth must be a length above 0 in."]);
+  expect(refused(() => ring(12, { ...UNIT, heightIn: Infinity }))).toEqual(["wallUnit.heightIn", "The wall unit's height must be a length above 0 in."]);
+  expect(refused(() => ring(12, { ...UNIT, backIn: 13 }))).toEqual(["wallUnit.backIn", "The back (13 in) cannot be longer than the face (12 in): the narrow end faces the fire."]);
+  expect(ring(12, { ...UNIT, backIn: 12 }).limitedBy).toBe("back");
+  const courses = "Courses must be a whole number from 1 to 12.";
+  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 0 }))).toEqual(["courses", courses]);
+  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 2.5 }))).toEqual(["courses", courses]);
+  expect(planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 12 }).courses).toBe(12);
+  expect(planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 1 }).bondOffsetIn).toBeNull();
+  expect(refused(() => ring(2))).toEqual(["ring.unitCount", "Units per course must be a whole number from 3 to 200."]);
+  expect([ring(3).unitCount, ring(200).unitCount]).toEqual([3, 200]);
+  for (const bowlDiameterIn of [0, -5, Number.NaN]) {
+    expect(refused(() => planRing({ target: { bowlDiameterIn, fit: "nearest" }, wallUnit: UNIT, courses: 1 }))).toEqual(["ring.bowlDiameterIn", "The bowl diameter must be a length above 0 in."]);
+  }
+});
+
+test("the largest ring of 12/8/8 units is 200 a course, a 12/tan(0.9°) − 16 = 747.88 in bowl: past it a whole ring is refused, and an exact bowl needing more than 200 units too (regular-polygon apothem)", () => {
+  expect(thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "at-least" }, wallUnit: UNIT, courses: 1 })).message).toBe("No ring of these units reaches a 760 in bowl: even 200 units a course make only 747 7/8 in.");
+  expect(planRing({ target: { bowlDiameterIn: 747, fit: "at-least" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(200);
+  // Exact 760 in: each unit spans 2·atan(6/388) = 1.772°, so 203 would be needed.
+  expect(thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "exact" }, wallUnit: UNIT, courses: 1 })).message).toBe("A 760 in bowl needs more than 200 of these units a course.");
+});
+
+test("an exact bowl too small for three pieces is refused: 100 in faces 1/2 in deep round a 1 in bowl span 2·atan(50) = 177.7° each, two close the circle to within a 0.08 in sliver", () => {
+  const wide = { faceIn: 100, backIn: 1, depthIn: 0.5, heightIn: 4 };
+  const error = thrown(() => planRing({ target: { bowlDiameterIn: 1, fit: "exact" }, wallUnit: wide, courses: 1 }));
+  expect([error.path, error.message]).toEqual(["ring.bowlDiameterIn", "A 1 in bowl is too small for these units: a ring needs at least 3 a course."]);
+});
+
+test("'nearest' to a tiny bowl is the smallest ring, 3 units; a target exactly between two rings takes the larger (the rule: a tie still clears a liner sized to the target)", () => {
+  expect(planRing({ target: { bowlDiameterIn: 1, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(3);
+  const below = bowlDiameterForCount(UNIT, 13);
+  const above = bowlDiameterForCount(UNIT, 14);
+  const middle = (below + above) / 2;
+  expect(middle - below).toBe(above - middle);
+  expect(planRing({ target: { bowlDiameterIn: middle, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(14);
+  expect(planRing({ target: { bowlDiameterIn: middle - 0.01, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(13);
+  // A target equal to a whole ring's bowl, 12/tan(π/14) − 16 = 36.5754 in, is met by that ring.
+  expect(planRing({ target: { bowlDiameterIn: 12 / Math.tan(Math.PI / 14) - 16, fit: "at-least" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(14);
+});
+
+test("an exact 36.6 in bowl is a hair over the 14-unit ring: 14 units span 359.84°, the 0.075 in left is shared among the face joints, 2 × 26.3 × tan(0.0058°) = 0.0053 in each (derived here)", () => {
+  const plan = planRing({ target: { bowlDiameterIn: 36.6, fit: "exact" }, wallUnit: UNIT, courses: 1 });
+  expect(plan.closure).toBeNull();
+  expect(plan.unitCount).toBe(14);
+  expect(plan.unitAngleDeg).toBeCloseTo(360 / 14, 12);
+  expect(plan.faceGapIn).toBeCloseTo(0.00533, 5);
+});
+
+test("an exact 36.5 in bowl just under the 14-unit ring: 13 whole units of 25.750° and one closure of 25.250°, 11.759 in at the face; its back would be 2 × 18.25 × tan 12.625° = 8.175 in, so it keeps the unit's whole 8 in back", () => {
+  const plan = planRing({ target: { bowlDiameterIn: 36.5, fit: "exact" }, wallUnit: UNIT, courses: 1 });
+  expect(plan.unitCount).toBe(13);
+  expect(plan.closure?.countPerCourse).toBe(1);
+  expect(plan.unitAngleDeg).toBeCloseTo(25.75, 4);
+  expect(plan.closure?.angleDeg).toBeCloseTo(25.25, 4);
+  expect(plan.closure?.faceWidthIn).toBeCloseTo(11.759, 3);
+  expect(plan.closure?.backWidthIn).toBe(8);
 });

@@ -36,6 +36,15 @@ test("job A, the typical pit: 3 courses of 14 (12/8/8/4 units), 12 caps from 16 
   // Glue: 2 layers × 14 × 10 in × 2 beads = 560 in ÷ (165 × 0.85 = 140.25) = 3.99 → 4 cartridges.
   expect(byKey(plan)).toEqual({ "wall-unit": 45, cap: 13, "steel-ring": 1, fill: 4, aggregate: 0.9, adhesive: 4 });
   expect(plan.liner).toMatchObject({ kind: "steel-ring", fits: true, bedDepthIn: 1.875 });
+  // What the order says, from the same working: 0.4390 yd³ to two places, 1.776 ft³ to one, 560 in of bead.
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "3 courses of 14, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "12 caps cut from 16 in × 12 in blanks, plus 1 spare"],
+    ["steel-ring", "Steel ring insert", "each", undefined],
+    ["fill", "Pea gravel", "bag", "1.8 ft³: a 1 7/8 in bed under the ring and the gap round it"],
+    ["aggregate", "Base aggregate", "ton", "0.44 yd³ compacted"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 560 in of bead"],
+  ]);
   // Labour: base 23.706 × 0.15 = 3.556 → 3.56; spoil 0.4390 × 1.25 × 1.5 = 0.823 → 0.82;
   // carry (45 × 26.30 + 13 × 39.44 lb = 1696 lb) = 0.848 t → 0.85; first course 14 × 5 min = 1.17;
   // courses 28 × 3 min = 1.40; saw 24 side cuts × (0.5 + 12.423 × 2.5 / 40 = 1.2765 min) = 0.51;
@@ -45,6 +54,27 @@ test("job A, the typical pit: 3 courses of 14 (12/8/8/4 units), 12 caps from 16 
   });
   expect(plan.labour.hours).toBe(12.21);
   expect(plan.labour.sawCuts).toBe(24);
+  // The labour lines say what they count: 23.706 ft², 0.4390 × 1.25 = 0.549 yd³ loose, 1696 lb
+  // (a unit (12 + 8)/2 × 8 × 4 = 320 in³ and a blank 16 × 12 × 2.5 = 480 in³ at 142 lb/ft³: 26.30 and 39.44 lb).
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (23.7 ft²)",
+    "Haul away the dug soil (0.55 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (1,696 lb)",
+    "Set and level the first course (14 units)",
+    "Stack and glue the upper courses (28 units)",
+    "Wet-saw cuts (24)",
+    "Mark the cap blanks (12)",
+    "Glue and set the caps (12)",
+    "Lay the gravel bed, set the steel ring and backfill",
+  ]);
+  expect(plan.labour.wallUnitLb).toBeCloseTo(26.296, 3);
+  expect(plan.labour.capBlankLb).toBeCloseTo(39.444, 3);
+  expect(plan.labour.carriedLb).toBeCloseTo(1696.11, 2);
+  expect(plan.labour.sawGroups).toHaveLength(1);
+  expect(plan.labour.sawGroups[0]).toMatchObject({ what: "cap side cuts", count: 24, depthIn: 2.5, passes: 1 });
+  expect(plan.labour.sawGroups[0]!.lengthIn).toBeCloseTo(12.423, 3);
+  expect(plan.labour.sawGroups[0]!.minutesEach).toBeCloseTo(1.2765, 4);
   // Price lines: 45 × $6.50, 13 × $22, $220, 4 × $6.50, 0.9 t × $45, 4 × $9 (the fixture's invented prices).
   expect(plan.price?.breakdown.lines.map((l) => l.totalCents)).toEqual([29_250, 28_600, 22_000, 2_600, 4_050, 3_600]);
   expect(plan.price?.breakdown.materialsCents).toBe(90_100);
@@ -75,6 +105,16 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   // Glue: 2 layers × (14 × 10 + (10.554 + 7.539)/2) × 2 = 596.2 in ÷ 140.25 = 4.25 → 5 cartridges.
   expect(byKey(plan)).toEqual({ "wall-unit": 63, cap: 14, firebrick: 51, "refractory-mortar": 4, fill: 2, aggregate: 1, adhesive: 5 });
   expect(plan.liner).toMatchObject({ kind: "firebrick", bricksPerRow: 12, fullRows: 3, rippedRows: 1, ripCuts: 12 });
+  // The order's notes: one closure a course × 4 courses; 410.8 in³ of mortar; 0.720 ft³ of sand; 0.4847 yd³; 596.2 in of bead.
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "4 courses of 15, 4 of them cut down as closure units, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "13 caps cut from 16 in × 12 in blanks, plus 1 spare"],
+    ["firebrick", "Firebrick", "each", "4 rows of 12 on edge, the top row ripped to 2 1/8 in, plus 3 spare"],
+    ["refractory-mortar", "Refractory mortar, 1 gal pail", "pail", "1/16 in joints, 411 in³; not ordinary mortar"],
+    ["fill", "Sand", "bag", "0.7 ft³ between the firebrick and the wall"],
+    ["aggregate", "Base aggregate", "ton", "0.48 yd³ compacted"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 596 in of bead"],
+  ]);
   // Labour: base 26.172 × 0.15 = 3.93; spoil 0.4847 × 1.875 = 0.91; carry (63 × 26.30 + 14 × 39.44
   // + 51 × 8.32 lb = 2633 lb) = 1.32; first 15 × 5 min = 1.25; courses 45 × 3 min = 2.25;
   // saw 26 side cuts × 1.2724 + 8 closure cuts × (0.5 + 8 × 4 / 40 = 1.3) + 12 rips × (0.5 + 9 × 2.5 / 40
@@ -84,6 +124,28 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   });
   expect(plan.labour.hours).toBe(15.71);
   expect(plan.labour.sawCuts).toBe(26 + 8 + 12);
+  // Lines: 26.172 ft², 0.4847 × 1.25 = 0.606 yd³ loose, 2633 lb; closure cuts 8 in deep through 4 in,
+  // firebrick rips 9 in through 2.5 in; every cut one pass (under the 5 in saw depth).
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (26.2 ft²)",
+    "Haul away the dug soil (0.61 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (2,633 lb)",
+    "Set and level the first course (15 units)",
+    "Stack and glue the upper courses (45 units)",
+    "Wet-saw cuts (46)",
+    "Mark the cap blanks (13)",
+    "Glue and set the caps (13)",
+    "Line the bowl with firebrick (48)",
+  ]);
+  expect(plan.labour.sawGroups.map((g) => [g.what, g.count, g.depthIn, g.passes])).toEqual([
+    ["cap side cuts", 26, 2.5, 1],
+    ["closure cuts", 8, 4, 1],
+    ["firebrick rips", 12, 2.5, 1],
+  ]);
+  expect(plan.labour.sawGroups[1]).toMatchObject({ lengthIn: 8, minutesEach: 1.3 });
+  expect(plan.labour.sawGroups[2]!.lengthIn).toBeCloseTo(9, 9);
+  expect(plan.labour.sawGroups[2]!.minutesEach).toBeCloseTo(1.0625, 9);
 });
 
 test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no liner, a 16 ft patio of 9 × 6 pavers and a 12 × 6 border", () => {
@@ -110,6 +172,24 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
     "wall-unit": 48, cap: 13, aggregate: 5.8, adhesive: 5, paver: 492, "border-unit": 54, "bedding-sand": 0.8, "joint-sand": 4, "edge-restraint": 7, "edge-spike": 51,
   });
   expect(plan.base.patioRadiusIn).toBe(102);
+  // The two base areas: the pit's disc 4113.4 in² = 28.566 ft², the patio's ring 28,572 in² = 198.42 ft².
+  expect(plan.base.pitAreaFt2).toBeCloseTo(28.566, 2);
+  expect(plan.base.patioAreaFt2).toBeCloseTo(198.42, 1);
+  // The order's notes. Paver waste: the field is π × 90² less the pit's footprint, the circle through
+  // the middles of its faces (π × 29.583² = 2749.4 in²), so 22,697 in² ÷ 54 in² = 420.3 pavers; 492 is 17 % over.
+  // Edge 603.2 in = 50.3 ft; spikes at the default 12 in spacing (common practice, no source).
+  expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
+    ["wall-unit", "Wall units", "each", "3 courses of 15, plus 3 spare"],
+    ["cap", "Cap blanks", "each", "12 caps cut from 18 in × 12 in blanks, plus 1 spare"],
+    ["aggregate", "Base aggregate", "ton", "2.98 yd³ compacted under the pit and the patio"],
+    ["adhesive", "Heat-rated masonry adhesive, 10.1 fl oz", "cartridge", "top course and caps: 623 in of bead"],
+    ["paver", "Patio pavers", "each", "348 whole, 120 cut, 5 % spare: 17 % over the area"],
+    ["border-unit", "Border units", "each", "51 in the course, plus 3 spare"],
+    ["bedding-sand", "Bedding sand", "ton", undefined],
+    ["joint-sand", "Joint sand", "bag", undefined],
+    ["edge-restraint", "Edge restraint, 8 ft", "piece", "50.3 ft round the patio"],
+    ["edge-spike", "Edge spikes", "each", "one every 12 in"],
+  ]);
   expect(plan.patio).toMatchObject({ borderLayout: "tapered", borderWholeCount: 50, borderClosureCount: 1, wholePaverCount: 348, cutPaverCount: 120 });
   // Labour: base 28.566 ft² × 0.15 = 4.28; spoil (4113.4 × 6 + 28,572 × 5) in³ = 3.591 yd³ × 1.875 = 6.73;
   // carry (48 × 46.04 + 13 × 44.38 lb = 2787 lb) = 1.39; first 15 × 5 min = 1.25; courses 30 × 3 min = 1.50;
@@ -118,4 +198,20 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
     setup: 2, base: 4.28, spoil: 6.73, carry: 1.39, "first-course": 1.25, courses: 1.5, "saw-cuts": 0.51, "mark-caps": 0.4, caps: 1, patio: 21.84,
   });
   expect(plan.labour.hours).toBe(40.9);
+  // Lines: 28.566 ft², 3.591 × 1.25 = 4.489 yd³ loose, 2787 lb (a unit (12 + 8.75)/2 × 9 × 6 =
+  // 560.25 in³ = 46.04 lb, a blank 18 × 12 × 2.5 = 540 in³ = 44.38 lb), 181.97 ft² of patio.
+  expect(plan.labour.tasks.map((t) => t.label)).toEqual([
+    "Layout, set-up and clean-up",
+    "Excavate and compact the base (28.6 ft²)",
+    "Haul away the dug soil (4.49 yd³ loose)",
+    "Unload and carry units, caps and brick to the pit (2,787 lb)",
+    "Set and level the first course (15 units)",
+    "Stack and glue the upper courses (30 units)",
+    "Wet-saw cuts (24)",
+    "Mark the cap blanks (12)",
+    "Glue and set the caps (12)",
+    "Patio: base, bedding, border and field (182 ft²)",
+  ]);
+  expect(plan.labour.wallUnitLb).toBeCloseTo(46.039, 3);
+  expect(plan.labour.capBlankLb).toBeCloseTo(44.375, 3);
 });
