@@ -60,7 +60,13 @@ export default function MoveConsultRoute({ loaderData, actionData }: Route.Compo
   const navigation = useNavigation();
   const isBusy = navigation.state !== "idle" && navigation.formMethod === "POST";
   return (
-    <PublicShell>
+    <PublicShell
+      right={
+        <Form method="post" action="/logout">
+          <button type="submit" className="btn-quiet">Sign out</button>
+        </Form>
+      }
+    >
       <main className="mx-auto flex max-w-6xl flex-col gap-6 px-4 py-8 sm:px-6 sm:py-10">
         <div className="max-w-3xl">
           <Link to="/my" className="text-sm font-bold text-ember-700 underline underline-offset-2">
