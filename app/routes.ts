@@ -11,6 +11,7 @@ export default [
   route("c/:companySlug/consult/:ref/done", "routes/consult-done.tsx"),
   route("welcome/:token?", "routes/welcome.tsx"),
   route("my", "routes/my.tsx"),
+  route("my/consult/:bookingId", "routes/my-consult.tsx"),
   route("p/:token", "routes/proposal.tsx"),
   route("p/:token.pdf", "routes/proposal-pdf.ts"),
   route("p/:token/opened", "routes/proposal-opened.ts"),

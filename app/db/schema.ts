@@ -228,6 +228,8 @@ export const leadRevisions = sqliteTable(
     planJson: text("plan_json").notNull(),
     priceLowCents: integer("price_low_cents"),
     priceHighCents: integer("price_high_cents"),
+    // When staff sent this revision to the homeowner (shown on their page and e-mailed); null until then.
+    sentAt: text("sent_at"),
     createdAt: createdAt(),
   },
   (t) => [index("lead_revisions_lead_idx").on(t.leadId, t.createdAt)],
@@ -376,6 +378,9 @@ export const bookings = sqliteTable(
     refundLeaseExpiresAt: text("refund_lease_expires_at"),
     cancelledBy: text("cancelled_by"),
     cancelReason: text("cancel_reason"),
+    // The consult's calendar file revision (RFC 5545 3.8.7.4 SEQUENCE): 0 when booked, raised by
+    // each move to another time, so calendars replace the event they hold under the same UID.
+    calendarSequence: integer("calendar_sequence").notNull().default(0),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },

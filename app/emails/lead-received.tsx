@@ -5,6 +5,8 @@ import { EmailShell, emailButton, emailText } from "~/emails/email-shell";
 /** To the homeowner: we have your request, here is the design, and a link to follow it. */
 export function LeadReceivedEmail(props: {
   companyName: string;
+  /** E.164; the footer shows it formatted. */
+  companyPhone?: string;
   customerName: string;
   summary: DesignSummaryLine[];
   /** Sets a password and adds this request to the new account. */
@@ -14,7 +16,7 @@ export function LeadReceivedEmail(props: {
   requestLink: string;
 }) {
   return (
-    <EmailShell companyName={props.companyName} preview={`${props.companyName} has your fire-pit request`}>
+    <EmailShell companyName={props.companyName} companyPhone={props.companyPhone} preview={`${props.companyName} has your fire-pit request`}>
       <Text style={emailText}>Hello {props.customerName},</Text>
       <Text style={emailText}>
         Thank you for your fire-pit request. {props.companyName} will look at your design and your yard photos and get in

@@ -2,10 +2,10 @@ import { Button, Text } from "@react-email/components";
 import { EmailShell, emailButton, emailText } from "~/emails/email-shell";
 
 /** To the homeowner: a proposal (or change order) is ready to read and sign. */
-export function ProposalSentEmail(props: { companyName: string; customerName: string; title: string; totalText: string; validUntil: string; link: string; isChangeOrder: boolean }) {
+export function ProposalSentEmail(props: { companyName: string; companyPhone?: string; customerName: string; title: string; totalText: string; validUntil: string; link: string; isChangeOrder: boolean }) {
   const what = props.isChangeOrder ? "a change order" : "a proposal";
   return (
-    <EmailShell companyName={props.companyName} preview={`${props.companyName} sent you ${what}: ${props.title}`}>
+    <EmailShell companyName={props.companyName} companyPhone={props.companyPhone} preview={`${props.companyName} sent you ${what}: ${props.title}`}>
       <Text style={emailText}>Hello {props.customerName},</Text>
       <Text style={emailText}>
         {props.companyName} sent you {what} for {props.title.replace(/^A /, "a ")}: the scope of the work, the price ({props.totalText}

@@ -10,6 +10,7 @@ import { FormAlert, SelectField } from "~/components/ui/field";
 import { STAFF_ROLES } from "~/db/enums";
 import { formatInches } from "~/domain/units";
 import { getCompany } from "~/lib/catalog/catalog.server";
+import { appOrigin } from "~/lib/platform/email.server";
 import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-sheet/cut-list";
 import { refreshStoredPlan } from "~/lib/design/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design/design-plan";
@@ -28,6 +29,7 @@ import {
   addNote,
   assignCrew,
   assignEstimator,
+  sendRevision,
   changeStage,
   listPhotos,
   listRevisions,
@@ -162,6 +164,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       detail: v.revisionId === null ? `sent ${formatZonedDateTime(v.createdAt, tz)}` : `by ${v.authorName ?? "staff"}, ${formatZonedDateTime(v.createdAt, tz)}`,
       isShown: i === shownIndex,
       isLatest: i === versions.length - 1,
+      revisionId: v.revisionId,
+      sentOn: v.sentAt ? formatZonedDateTime(v.sentAt, tz) : null,
     })),
     shown: {
       summary: shown.design.summary,
@@ -205,10 +209,13 @@ export async function action({ request, params }: Route.ActionArgs) {
       result = await addNote(user, lead, input.note);
       break;
     case "assign":
-      result = await assignEstimator(user, lead, input.assigneeId);
+      result = await assignEstimator(user, lead, input.assigneeId, appOrigin(request));
       break;
     case "crew":
-      result = await assignCrew(user, lead, input.crewUserId);
+      result = await assignCrew(user, lead, input.crewUserId, appOrigin(request));
+      break;
+    case "send-revision":
+      result = await sendRevision(user, lead, input.revisionId, appOrigin(request));
       break;
     case "refund": {
       if (user.role !== "owner") {
@@ -238,6 +245,8 @@ const kindLabel: Record<string, string> = {
   "build-booked": "Build booked",
   "build-moved": "Build moved",
   "build-cancelled": "Build cancelled",
+  "consult-moved": "Consult moved",
+  "revision-sent": "Revision sent to the homeowner",
 };
 
 /** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
@@ -347,7 +356,19 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
             <p className="-mt-2 text-sm text-char-600">
               {shownVersion.label}, {shownVersion.detail}.
               {versions.length > 1 && !shownVersion.isLatest ? " The job is built to the latest version." : ""}
+              {shownVersion.sentOn ? ` Sent to the homeowner ${shownVersion.sentOn}.` : ""}
             </p>
+            {isOffice && shownVersion.revisionId !== null && !shownVersion.sentOn ? (
+              <Form method="post" className="-mt-1 flex flex-wrap items-center gap-3">
+                <input type="hidden" name="intent" value="send-revision" />
+                <input type="hidden" name="revisionId" value={shownVersion.revisionId} />
+                <button type="submit" className="btn-quiet" disabled={isBusy}>
+                  Send {shownVersion.label.toLowerCase()} to {lead.customerName}
+                </button>
+                <span className="text-xs text-char-600">They get an e-mail, and the plan drawing shows on their page.</span>
+                {errorsFor("send-revision").revisionId ? <span className="field-error">{errorsFor("send-revision").revisionId}</span> : null}
+              </Form>
+            ) : null}
             <div className="grid gap-4 xl:grid-cols-2">
               <PitPreview input={shown.sceneInput} caption={shown.caption} unit="in" formatLength={f} />
               <figure className="card overflow-hidden">

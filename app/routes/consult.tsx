@@ -1,14 +1,15 @@
 import { useEffect, useRef } from "react";
-import { data, Form, Link, redirect, useFetcher, useNavigation } from "react-router";
+import { data, Form, Link, redirect, useFetcher, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/consult";
 import { LocalTime, TimeZoneField } from "~/components/local-time";
 import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
-import { abandonCheckout, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/consults/booking.server";
+import { ConsultTimePicker, onlyDayChanged } from "~/components/consult-time-picker";
+import { VisitBrief, VisitFacts } from "~/components/consult-visit";
+import { abandonCheckout, designLine, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/consults/booking.server";
 import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
-import { CONSULT_HOLD_MINUTES } from "~/lib/consults/consult-slots";
-import { zonedDay } from "~/lib/format/zoned-time";
+import { CONSULT_HOLD_MINUTES, groupSlotsByDay } from "~/lib/consults/consult-slots";
 import { appOrigin } from "~/lib/platform/email.server";
 import { env } from "~/lib/platform/env.server";
 import { findLeadByRef } from "~/lib/leads/leads.server";
@@ -29,6 +30,11 @@ async function loadLead(params: { companySlug: string; ref: string }) {
 // Document responses take their headers from here: pass an action's Retry-After through.
 export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
 
+// Choosing a day only changes what is shown: the free times already came with the page.
+export function shouldRevalidate({ currentUrl, nextUrl, formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+  return onlyDayChanged({ currentUrl, nextUrl, formMethod }) ? false : defaultShouldRevalidate;
+}
+
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { company, lead } = await loadLead(params);
   const url = new URL(request.url);
@@ -37,16 +43,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   // (a loader never writes).
   const booking = await findLiveBooking(lead.id);
   const slots = booking?.status === "confirmed" ? [] : await listCompanySlots(company);
-  const days = new Map<string, { startsAt: string }[]>();
-  for (const slot of slots) {
-    const day = zonedDay(new Date(slot.startsAt), company.timeZone);
-    days.set(day, [...(days.get(day) ?? []), { startsAt: slot.startsAt }]);
-  }
   return {
-    company: { name: company.name, timeZone: company.timeZone, fee: formatMoney(company.consultFeeCents) },
+    company: {
+      name: company.name,
+      timeZone: company.timeZone,
+      fee: formatMoney(company.consultFeeCents),
+      phone: company.phone,
+      visitMinutes: company.consultSlotMinutes,
+    },
     firstName: lead.customerName.split(" ")[0],
+    address: `${lead.street}, ${lead.town}`,
+    design: designLine(lead),
     booking: booking ? { status: booking.status, startsAt: booking.startsAt } : null,
-    days: [...days.entries()].map(([day, list]) => ({ day, slots: list })),
+    days: groupSlotsByDay(slots, company.timeZone).map(({ day, slots: list }) => ({ day, slots: list.map((s) => ({ startsAt: s.startsAt })) })),
     didLeave: left > 0,
     leftBookingId: Number.isSafeInteger(left) && left > 0 ? left : null,
   };
@@ -119,77 +128,68 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 }
 
 export default function ConsultRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { company, firstName, booking, days, didLeave } = loaderData;
+  const { company, firstName, booking, days, didLeave, address, design } = loaderData;
   useLeaveCheckout(loaderData.leftBookingId);
   const navigation = useNavigation();
   const isPaying = navigation.state !== "idle" && navigation.formMethod === "POST";
-  const dayLabel = (day: string) =>
-    new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
   return (
     <PublicShell>
-      <main className="mx-auto flex max-w-3xl flex-col gap-6 px-4 py-10 sm:px-6">
-        <div>
-          <p className="text-sm font-extrabold tracking-widest text-ember-600 uppercase">{company.name}</p>
+      <main className="mx-auto flex max-w-6xl flex-col gap-6 px-4 py-8 sm:px-6 sm:py-10">
+        <div className="max-w-3xl">
+          <p className="text-sm font-extrabold tracking-widest text-ember-700 uppercase">{company.name}</p>
           <h1 className="mt-1 text-3xl font-extrabold">Book a design consult</h1>
           <p className="mt-2 text-char-600">
-            {company.name} sends someone to your home to measure the spot and settle the design with you, {firstName}. The fee of {company.fee} is
-            paid now and credited toward the build.
+            Someone from {company.name} comes to your home, {firstName}, walks the spot with you, measures it and settles the design and price
+            before anything is built.
           </p>
         </div>
+        <VisitFacts minutes={company.visitMinutes} address={address} fee={company.fee} design={design} />
         {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
         {didLeave && !actionData ? (
           <p role="status" className="rounded-lg bg-ash-100 px-4 py-3 text-sm font-semibold text-char-700">
             You left the payment page, so nothing was charged and that time is free again.
           </p>
         ) : null}
-        {booking?.status === "confirmed" ? (
-          <section className="card p-6">
-            <h2 className="text-xl font-extrabold">Your consult is booked</h2>
-            <p className="mt-2 text-lg">
-              <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
-            </p>
-            <p className="mt-2 text-sm text-char-600">To cancel or change it, sign in and open your requests.</p>
-            <Link to="/my" className="btn-quiet mt-4">My requests</Link>
-          </section>
-        ) : days.length === 0 ? (
-          <p className="card p-6">No times are free in the coming weeks. {company.name} will contact you about your request.</p>
-        ) : (
-          <Form method="post" className="flex flex-col gap-5">
-            <TimeZoneField />
-            {booking?.status === "held" ? (
-              <div className="card flex flex-wrap items-center justify-between gap-3 border-ember-300 bg-ember-50 p-4">
-                <p>
-                  <strong>Held for you:</strong> <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
-                </p>
-                <button type="submit" name="startsAt" value={booking.startsAt} className="btn-primary" disabled={isPaying}>
-                  Continue to payment
-                </button>
-              </div>
-            ) : null}
-            <p className="text-sm text-char-600">Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).</p>
-            {days.map(({ day, slots }) => (
-              <fieldset key={day} className="card p-4">
-                <legend className="px-1 font-extrabold">{dayLabel(day)}</legend>
-                <div className="mt-2 flex flex-wrap gap-2">
-                  {slots.map((slot) => (
-                    <button
-                      key={slot.startsAt}
-                      type="submit"
-                      name="startsAt"
-                      value={slot.startsAt}
-                      disabled={isPaying}
-                      className="btn-quiet tabular-nums"
-                      aria-label={`Book ${new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, weekday: "long", month: "long", day: "numeric", hour: "numeric", minute: "2-digit" }).format(new Date(slot.startsAt))} and pay ${company.fee}`}
-                    >
-                      {new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(slot.startsAt))}
-                    </button>
-                  ))}
+        <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
+          {booking?.status === "confirmed" ? (
+            <section className="card p-6" aria-labelledby="booked-title">
+              <h2 id="booked-title" className="text-xl font-extrabold">Your consult is booked</h2>
+              <p className="mt-2 text-lg">
+                <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
+              </p>
+              <p className="mt-2 text-sm text-char-600">
+                To move it to another time (no second payment) or cancel it, sign in and open your requests, up to a day ahead.
+              </p>
+              <Link to="/my" className="btn-quiet mt-4">My requests</Link>
+            </section>
+          ) : days.length === 0 ? (
+            <p className="card p-6">No times are free in the coming weeks. {company.name} will contact you about your request.</p>
+          ) : (
+            <Form method="post" className="card flex min-w-0 flex-col gap-5 p-4 sm:p-6" aria-label="Choose a time for the consult">
+              <TimeZoneField />
+              {booking?.status === "held" ? (
+                <div className="flex flex-wrap items-center justify-between gap-3 rounded-xl border border-ember-300 bg-ember-50 p-4">
+                  <p>
+                    <strong>Held for you:</strong> <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
+                  </p>
+                  <button type="submit" name="startsAt" value={booking.startsAt} formNoValidate className="btn-primary" disabled={isPaying}>
+                    Continue to payment
+                  </button>
                 </div>
-              </fieldset>
-            ))}
-            <p className="text-xs text-char-500">Choosing a time holds it for {CONSULT_HOLD_MINUTES} minutes while you pay on the secure payment page.</p>
-          </Form>
-        )}
+              ) : null}
+              <p className="text-sm text-char-600">Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).</p>
+              <ConsultTimePicker
+                days={days}
+                timeZone={company.timeZone}
+                visitMinutes={company.visitMinutes}
+                isBusy={isPaying}
+                submitLabel={() => `Hold this time and pay ${company.fee}`}
+                footnote={<p className="text-xs text-char-600">Holding a time keeps it yours for {CONSULT_HOLD_MINUTES} minutes while you pay on the secure payment page.</p>}
+              />
+            </Form>
+          )}
+          <VisitBrief companyName={company.name} phone={company.phone} minutes={company.visitMinutes} />
+        </div>
       </main>
     </PublicShell>
   );

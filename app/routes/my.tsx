@@ -6,7 +6,9 @@ import { PublicShell } from "~/components/public-shell";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
-import type { DesignSummaryLine } from "~/emails/design-summary";
+import { PitPlanSvg } from "~/components/pit-plan-svg";
+import { describePreview, planToSceneInput } from "~/lib/design/design-plan";
+import { formatPhone, phoneHref } from "~/lib/format/phone";
 import { cancelBooking, cancelRefusalStatus, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
 import { findHomeownerBooking, loadHomeownerRequestDetails } from "~/lib/leads/homeowner.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
@@ -14,7 +16,7 @@ import { listHomeownerLeads } from "~/lib/leads/leads.server";
 import { formId } from "~/lib/format/form-fields";
 import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
-import { readStoredDesign } from "~/lib/design/stored-plan";
+import { readStoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
 import { summaryInUnit } from "~/lib/format/length-text";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
@@ -25,27 +27,33 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
   const rows = await listHomeownerLeads(user.id);
   // Only rows of this homeowner's own requests (the leads come from their account).
-  const { photos, liveBookings, companies: companyRows, proposals: proposalRows } = await loadHomeownerRequestDetails(rows);
+  const { photos, liveBookings, companies: companyRows, proposals: proposalRows, sentRevisions } = await loadHomeownerRequestDetails(rows);
   const now = Date.now();
+  const movedId = Number(new URL(request.url).searchParams.get("moved"));
+  const moved = liveBookings.find((b) => b.id === movedId && b.status === "confirmed");
   return {
     name: user.name,
+    moved: moved ? { startsAt: moved.startsAt, timeZone: companyRows.find((c) => c.id === moved.companyId)!.timeZone } : null,
     requests: rows.map((lead) => {
-      const design = readStoredDesign(lead.designJson);
+      const original = readStoredPlan(lead);
       const company = companyRows.find((c) => c.id === lead.companyId)!;
+      const range = (low: number | null, high: number | null) => (low !== null && high !== null ? `${formatMoneyWhole(low)} – ${formatMoneyWhole(high)}` : null);
       const booking = liveBookings.find((b) => b.leadId === lead.id && b.status === "confirmed");
       return {
         id: lead.id,
         companyName: company.name,
         companyTimeZone: company.timeZone,
+        companyPhone: company.phone,
+        // Newest first: every revision sent to them, then their own request as they sent it.
+        designs: [
+          ...sentRevisions
+            .filter((r) => r.leadId === lead.id)
+            .map((r, i) => drawing(`revision-${r.id}`, i === 0 ? `Revised design from ${company.name}` : `Earlier revision from ${company.name}`, `sent ${dateOf(r.sentAt!)}`, readStoredPlan(r), range(r.priceLowCents, r.priceHighCents))),
+          drawing(`request-${lead.id}`, "Your design as you sent it", `sent ${dateOf(lead.createdAt)}`, original, range(lead.priceLowCents, lead.priceHighCents)),
+        ],
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
-        // Stored in inches for the crew; said here in the unit the homeowner designed in.
-        summary: summaryInUnit(design.summary, design.choices.unit),
-        price:
-          lead.priceLowCents !== null && lead.priceHighCents !== null
-            ? `${formatMoneyWhole(lead.priceLowCents)} – ${formatMoneyWhole(lead.priceHighCents)}`
-            : null,
         photos: photos.filter((p) => p.leadId === lead.id),
         proposals: proposalRows
           .filter((p) => p.leadId === lead.id && p.status !== "withdrawn")
@@ -56,12 +64,31 @@ export async function loader({ request }: Route.LoaderArgs) {
               fee: formatMoney(booking.amountCents),
               startsAt: booking.startsAt,
               canCancel: new Date(booking.startsAt).getTime() - now >= HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000,
+              movePath: `/my/consult/${booking.id}`,
             }
           : null,
         // A consult is booked before the visit; later stages have had theirs.
         isOpen: lead.status === "request" || lead.status === "called-back",
       };
     }),
+  };
+}
+
+const dateOf = (iso: string) => new Date(iso).toLocaleDateString("en-US", { dateStyle: "medium" });
+
+/** One design as the homeowner sees it: the plan drawing from its own stored record, its summary (in their unit) and price. */
+function drawing(key: string, title: string, when: string, record: StoredPlanRecord, price: string | null) {
+  const unit = record.design.choices.unit;
+  return {
+    key,
+    title,
+    when,
+    unit,
+    // Stored in inches for the crew; said here in the unit the homeowner designed in.
+    summary: summaryInUnit(record.design.summary, unit),
+    price,
+    sceneInput: planToSceneInput(record.plan, record.design.inputs.engine),
+    caption: describePreview(record.plan, unit),
   };
 }
 
@@ -99,6 +126,12 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
             Your consult is cancelled. The fee is refunded to your card; you will get an e-mail.
           </p>
         ) : null}
+        {loaderData.moved ? (
+          <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+            Your consult is moved to <LocalTime iso={loaderData.moved.startsAt} companyTimeZone={loaderData.moved.timeZone} />. The fee you paid
+            carries over; an e-mail with the new calendar file is on its way.
+          </p>
+        ) : null}
         {loaderData.requests.length === 0 ? <p className="card p-6">You have not sent a request yet.</p> : null}
         {loaderData.requests.map((req) => (
           <article key={req.id} className="card flex flex-col gap-4 p-6" aria-labelledby={`req-${req.id}`}>
@@ -108,21 +141,51 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
               </h2>
               <span className="rounded-full bg-ember-50 px-3 py-1 text-sm font-bold text-ember-700">{req.status}</span>
             </div>
-            <dl className="grid gap-x-6 gap-y-1 text-sm sm:grid-cols-2">
-              {req.summary.map((line) => (
-                <div key={line.label} className="flex gap-2">
-                  <dt className="font-bold text-char-700">{line.label}:</dt>
-                  <dd>{line.value}</dd>
-                </div>
+            {req.companyPhone ? (
+              <p className="-mt-2 text-sm text-char-700">
+                Questions about it? Call {req.companyName} at{" "}
+                <a href={phoneHref(req.companyPhone)} className="font-bold whitespace-nowrap text-ember-700 underline underline-offset-2">
+                  {formatPhone(req.companyPhone)}
+                </a>{" "}
+                or reply to any of their e-mails.
+              </p>
+            ) : null}
+            <section aria-label={`Designs for the request sent ${req.sentOn}`} className="grid gap-4 md:grid-cols-2">
+              {req.designs.map((d, i) => (
+                <figure key={d.key} id={d.key} className={`flex min-w-0 flex-col overflow-hidden rounded-xl border ${i === 0 && req.designs.length > 1 ? "border-ember-300" : "border-ash-200"}`}>
+                  <figcaption className="border-b border-ash-200 bg-ash-50 px-4 py-3">
+                    <h3 className="font-extrabold">{d.title}</h3>
+                    <p className="text-sm text-char-600">
+                      {d.when}
+                      {d.price ? <> · estimated <strong className="text-char-900">{d.price}</strong></> : null}
+                    </p>
+                  </figcaption>
+                  <div className="aspect-square max-h-80 w-full self-center bg-white p-2">
+                    <PitPlanSvg input={d.sceneInput} unit={d.unit} className="h-full w-full" />
+                  </div>
+                  <p className="border-t border-ash-200 px-4 py-2 text-xs text-char-600">Plan, to scale. {d.caption}.</p>
+                  <details className="border-t border-ash-200 px-4 py-3 text-sm">
+                    <summary className="cursor-pointer font-bold text-char-700">Every choice in this design</summary>
+                    <dl className="mt-2 grid gap-y-1">
+                      {d.summary.map((line) => (
+                        <div key={line.label} className="flex flex-wrap gap-x-2">
+                          <dt className="font-bold text-char-700">{line.label}:</dt>
+                          <dd>{line.value}</dd>
+                        </div>
+                      ))}
+                    </dl>
+                  </details>
+                </figure>
               ))}
-            </dl>
-            {req.price ? <p className="text-lg font-extrabold">Estimated {req.price}</p> : null}
+            </section>
             {req.consult ? (
               <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg bg-moss-100 px-4 py-3 text-sm">
                 <span>
                   <strong>Design consult:</strong> <LocalTime iso={req.consult.startsAt} companyTimeZone={req.companyTimeZone} />
                 </span>
                 {req.consult.canCancel ? (
+                  <div className="flex flex-wrap items-center gap-2">
+                  <Link to={req.consult.movePath} className="btn-quiet">Move to another time</Link>
                   <ConfirmAction
                     label="Cancel the consult"
                     question={`Cancel your design consult with ${req.companyName}? The fee of ${req.consult.fee} goes back to the card that paid it.`}
@@ -131,8 +194,12 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                   >
                     <input type="hidden" name="bookingId" value={req.consult.bookingId} />
                   </ConfirmAction>
+                  </div>
                 ) : (
-                  <span className="text-char-600">Less than a day to go: call {req.companyName} to change it.</span>
+                  <span className="text-char-600">
+                    Less than a day to go: call {req.companyName}
+                    {req.companyPhone ? ` at ${formatPhone(req.companyPhone)}` : ""} to change it.
+                  </span>
                 )}
               </div>
             ) : req.isOpen ? (

@@ -1,4 +1,4 @@
-import { expect, type Page } from "@playwright/test";
+import { expect, type Locator, type Page } from "@playwright/test";
 
 export const DEMO_PASSWORD = "ember-demo-2026";
 
@@ -44,4 +44,63 @@ export type FakeMessage = { id: string; to: string[]; subject: string; text: str
 
 export async function listMail(): Promise<FakeMessage[]> {
   return (await (await fetch(`${MAIL_FAKE}/_fake/messages`)).json()) as FakeMessage[];
+}
+
+/**
+ * Picks the nth free consult time counted across all days (0 = the first), as a person would: the
+ * day in the grid of days, then the time among that day's. Returns the day's and the time's names.
+ */
+export async function chooseConsultTime(page: Page, n = 0): Promise<{ day: string; time: string }> {
+  const days = page.getByRole("list", { name: "Days with free times" }).getByRole("link");
+  await expect(days.first()).toBeVisible();
+  let left = n;
+  for (let i = 0; i < (await days.count()); i++) {
+    const free = await freeTimesOn(days.nth(i));
+    if (left >= free) {
+      left -= free;
+      continue;
+    }
+    const day = await longDayOf(days.nth(i));
+    await days.nth(i).click();
+    await expect(days.nth(i)).toHaveAttribute("aria-current", "date");
+    const times = page.getByRole("group", { name: `Pick a time on ${day}` }).getByRole("radio");
+    await expect(times.nth(left)).toBeAttached();
+    const time = (await times.nth(left).getAttribute("value"))!;
+    // Keeps trying until the page has hydrated (a choice made before it may be reset).
+    await expect(async () => {
+      await times.nth(left).check({ force: true });
+      await expect(times.nth(left)).toBeChecked();
+    }).toPass();
+    return { day, time };
+  }
+  throw new Error(`only ${n - left} free consult times are offered`);
+}
+
+/** How many free times a day link says it has ("Thu, Dec 3: 6 free times"). */
+export async function freeTimesOn(dayLink: Locator): Promise<number> {
+  return Number(/(\d+) free/.exec((await dayLink.textContent())!)![1]);
+}
+
+/** "Thursday, December 3" for a day link, from its `?day=YYYY-MM-DD`. */
+export async function longDayOf(dayLink: Locator): Promise<string> {
+  const day = /[?&]day=(\d{4}-\d{2}-\d{2})/.exec((await dayLink.getAttribute("href"))!)![1];
+  return new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+}
+
+/** Picks the nth free time and presses the pay button: the browser goes to the payment page. */
+export async function holdConsultTime(page: Page, n = 0): Promise<{ day: string; time: string }> {
+  const chosen = await chooseConsultTime(page, n);
+  await page.getByRole("button", { name: /^Hold this time and pay/ }).click();
+  return chosen;
+}
+
+/** Full-page screenshots at 1366, 390 and 360 px under data/screens; at each width the page must not scroll sideways. */
+export async function screenshotThreeWidths(page: Page, name: string) {
+  for (const width of [1366, 390, 360]) {
+    await page.setViewportSize({ width, height: width > 400 ? 900 : 800 });
+    await page.screenshot({ path: `data/screens/${name}-${width}.png`, fullPage: true });
+    const overflow = await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth);
+    expect(overflow, `${name} at ${width} px scrolls sideways`).toBeLessThanOrEqual(0);
+  }
+  await page.setViewportSize({ width: 1280, height: 900 });
 }

@@ -3,9 +3,9 @@
  * person did. Mail and payments go through the local fakes.
  */
 import { expect, test, type Page } from "@playwright/test";
-import { listMail, MAIL_FAKE, PAYMENTS_FAKE, screenshotBothWidths, sendRequest, signIn, type FakeMessage } from "./helpers";
+import { chooseConsultTime, holdConsultTime, listMail, MAIL_FAKE, PAYMENTS_FAKE, screenshotBothWidths, screenshotThreeWidths, sendRequest, signIn, type FakeMessage } from "./helpers";
 
-type FullMessage = Omit<FakeMessage, "attachments"> & { html: string; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
+type FullMessage = Omit<FakeMessage, "attachments"> & { html: string; from: string; reply_to: string[]; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
 
 async function readMail(id: string): Promise<FullMessage> {
   return (await (await fetch(`${MAIL_FAKE}/_fake/messages/${id}`)).json()) as FullMessage;
@@ -20,8 +20,8 @@ const icsText = (m: FullMessage, name: string) => Buffer.from(m.attachments.find
 /** An iCalendar property's value, with folded lines joined (RFC 5545 3.1). */
 const icsValue = (ics: string, name: string) => new RegExp(`^${name}(?:;[^:]*)?:(.*)$`, "m").exec(ics.replace(/\r?\n[ \t]/g, ""))?.[1]?.trim();
 
-/** A new homeowner sends a request, sets a password from the welcome e-mail, books and pays a consult. */
-async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ email: string }> {
+/** A new homeowner sends a request and sets a password from the welcome e-mail; returns where to book its consult. */
+async function homeownerWithAccount(page: Page, name: string): Promise<{ email: string; consultPath: string }> {
   const email = `${name.split(" ")[0]!.toLowerCase()}.${Date.now()}@example.test`;
   await sendRequest(page, { name, email });
   const consultPath = new URL(page.url()).pathname.replace("/sent/", "/consult/");
@@ -32,9 +32,15 @@ async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ ema
   await page.getByLabel("Type it again").fill("a-long-garden-password");
   await page.getByRole("button", { name: "Save password and continue" }).click();
   await expect(page).toHaveURL(/\/my$/);
+  return { email, consultPath };
+}
+
+/** A new homeowner sends a request, sets a password from the welcome e-mail, books and pays a consult. */
+async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ email: string }> {
+  const { email, consultPath } = await homeownerWithAccount(page, name);
   await page.goto(consultPath);
   // A later slot than the other journeys take, so they do not compete for the same time.
-  await page.getByRole("button", { name: /^Book / }).nth(4).click();
+  await holdConsultTime(page, 4);
   await expect(page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));
   await page.getByLabel("Card number").fill("4242 4242 4242 4242");
   await page.getByLabel("Expiry (MM / YY)").fill("12 / 30");
@@ -317,4 +323,102 @@ test("the owner downloads cut-sheet PDFs: no page of the material order or a cut
       if (lines.some((l) => /^Drawings|template/i.test(l))) inTable = null;
     }
   }
+});
+
+const sessionCount = async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/sessions`)).json()) as { data: unknown[] }).data.length;
+
+test("a homeowner moves a paid consult to another time: nothing more is charged, the calendar file replaces the event, and the office is told", async ({ page }) => {
+  const { email } = await homeownerWithPaidConsult(page, "Tamsin Oakes");
+  const booked = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"));
+  const uid = icsValue(icsText(booked, "design-consult.ics"), "UID");
+  const sessionsBefore = await sessionCount();
+
+  await page.goto("/my");
+  await page.getByRole("link", { name: "Move to another time" }).click();
+  await expect(page.getByRole("heading", { name: "Move your design consult" })).toBeVisible();
+  await expect(page.getByText(/nothing more is charged/)).toBeVisible();
+  await screenshotThreeWidths(page, "consult-move");
+  const chosen = await chooseConsultTime(page, 12);
+  await page.getByRole("button", { name: "Move my consult to this time" }).click();
+  await expect(page).toHaveURL(/\/my\?moved=\d+$/);
+  await expect(page.getByRole("status")).toContainText("Your consult is moved to");
+  // No second checkout was opened.
+  expect(await sessionCount()).toBe(sessionsBefore);
+
+  // The homeowner's file replaces the event: the same UID, SEQUENCE 1, the new start (RFC 5545 3.8.4.7, 3.8.7.4, 3.3.5).
+  const moved = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult moved to"));
+  const ics = icsText(moved, "design-consult.ics");
+  expect(icsValue(ics, "UID")).toBe(uid);
+  expect(icsValue(ics, "SEQUENCE")).toBe("1");
+  expect(icsValue(ics, "DTSTART")).toBe(chosen.time.replace(/[-:]/g, "").replace(/\.\d{3}/, ""));
+  expect(moved.text).toContain("nothing more is charged");
+  // From the company, replies to the company, its phone in the footer.
+  expect(moved.from).toMatch(/^Cinder & Slate Outdoor Works <[^>]+>$/);
+  expect(moved.reply_to).toEqual(["office@cinder-slate.test"]);
+  expect(moved.text).toContain("(217) 555-0142");
+  const office = await waitForMail((m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult moved: Tamsin Oakes"));
+  expect(office.text).toContain("Tamsin Oakes moved their design consult online");
+  expect(office.reply_to).toEqual([]);
+});
+
+test("the estimator sends a revised design: the homeowner hears from the company and sees both plan drawings on their page", async ({ page, browser }) => {
+  const { email } = await homeownerWithAccount(page, "Mira Solberg");
+  const staff = await browser.newContext();
+  const staffPage = await staff.newPage();
+  await signIn(staffPage, "estimator@cinder-slate.test");
+  await staffPage.goto(`/app/inbox?q=${encodeURIComponent(email)}`);
+  await staffPage.getByRole("link", { name: "Mira Solberg" }).click();
+  await expect(staffPage).toHaveURL(/\/app\/leads\/\d+$/);
+  const leadPath = new URL(staffPage.url()).pathname;
+  await staffPage.goto(`${leadPath}/design`);
+  const courses = staffPage.getByRole("spinbutton", { name: "Courses" });
+  const start = Number(await courses.inputValue());
+  await expect(async () => {
+    if (Number(await courses.inputValue()) === start) await staffPage.getByRole("button", { name: "One course more" }).click();
+    await expect(courses).toHaveValue(String(start + 1), { timeout: 1_000 });
+  }).toPass({ timeout: 10_000 });
+  await expect(staffPage.getByRole("region", { name: "This revision" })).toHaveAttribute("aria-busy", "false");
+  await staffPage.getByRole("button", { name: "Save this revision" }).click();
+  await expect(staffPage).toHaveURL(new RegExp(`${leadPath}$`));
+  await staffPage.getByRole("button", { name: "Send revision 1 to Mira Solberg" }).click();
+  await expect(staffPage.getByText(/Sent to the homeowner/)).toBeVisible();
+  await expect(staffPage.getByRole("button", { name: "Send revision 1 to Mira Solberg" })).toHaveCount(0);
+  await staff.close();
+
+  const note = await waitForMail((m) => m.to.includes(email) && m.subject === "Your revised fire-pit design from Cinder & Slate Outdoor Works");
+  expect(note.from).toMatch(/^Cinder & Slate Outdoor Works <[^>]+>$/);
+  expect(note.reply_to).toEqual(["office@cinder-slate.test"]);
+  expect(note.text).toContain("(217) 555-0142");
+  expect(note.text).toContain(`/my#revision-`);
+
+  await page.goto("/my");
+  const revised = page.getByRole("figure", { name: /Revised design from Cinder & Slate Outdoor Works/ });
+  const original = page.getByRole("figure", { name: /Your design as you sent it/ });
+  await expect(revised.getByRole("img", { name: /^Plan view of the fire pit: bowl diameter/ })).toBeVisible();
+  await expect(original.getByRole("img", { name: /^Plan view of the fire pit: bowl diameter/ })).toBeVisible();
+  await expect(page.getByRole("link", { name: "(217) 555-0142" }).first()).toBeVisible();
+  await screenshotThreeWidths(page, "my-requests");
+});
+
+test("the owner assigns a new request to the estimator: the estimator gets an e-mail with a link to it", async ({ page, browser }) => {
+  const email = `pavla.${Date.now()}@example.test`;
+  await sendRequest(page, { name: "Pavla Hruska", email });
+  const staff = await browser.newContext();
+  const owner = await staff.newPage();
+  await signIn(owner, "owner@cinder-slate.test");
+  await owner.goto(`/app/inbox?q=${encodeURIComponent(email)}`);
+  await owner.getByRole("link", { name: "Pavla Hruska" }).click();
+  await expect(owner).toHaveURL(/\/app\/leads\/\d+$/);
+  const leadPath = new URL(owner.url()).pathname;
+  // A choice made before hydration is reset by it: choose and press until the timeline shows the assignment.
+  await expect(async () => {
+    await owner.getByLabel("Estimator").selectOption({ label: "Theo Brandvold" });
+    await owner.getByRole("button", { name: "Assign", exact: true }).click();
+    await expect(owner.getByText("Assigned to Theo Brandvold")).toBeVisible({ timeout: 2_000 });
+  }).toPass({ timeout: 15_000 });
+  const mail = await waitForMail((m) => m.to.includes("estimator@cinder-slate.test") && m.subject === "Request assigned to you: Pavla Hruska, Millbrook Falls");
+  expect(mail.text).toContain("Maren Okafor assigned you the fire-pit request from Pavla Hruska in Millbrook Falls");
+  expect(mail.text).toContain(leadPath);
+  expect(mail.from).toMatch(/^Cinder & Slate Outdoor Works </);
+  await staff.close();
 });

@@ -10,7 +10,7 @@ import sharp from "sharp";
 import Stripe from "stripe";
 import { afterAll, beforeAll, describe, expect, test } from "vitest";
 import { ROOT, SECRETS, startCluster, type Cluster } from "./support/cluster";
-import { buttonValues, COMPANY, editForm, postJson, sendLead, signIn, yardPhoto } from "./support/http";
+import { COMPANY, editForm, postJson, radioValues, sendLead, signIn, yardPhoto } from "./support/http";
 
 let cluster: Cluster;
 const rows = async (sql: string, args: (string | number)[] = []) => (await cluster.db.execute({ sql, args })).rows;
@@ -116,7 +116,7 @@ describe("three processes on one database", () => {
       leads.push(...sent.map((s) => s.ref!));
     }
     const page = await (await fetch(`${cluster.origin}/c/${COMPANY}/consult/${leads[0]}`)).text();
-    const startsAt = buttonValues(page, "startsAt")[0];
+    const startsAt = radioValues(page, "startsAt")[0];
     expect(startsAt).toBeTruthy();
     const sessionsBefore = ((await (await fetch(`${cluster.payments.url}/_fake/sessions`)).json()) as { data: unknown[] }).data.length;
 

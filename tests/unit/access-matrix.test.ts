@@ -7,7 +7,7 @@
 import { eq } from "drizzle-orm";
 import { PDFParse } from "pdf-parse";
 import { beforeAll, describe, expect, test } from "vitest";
-import { leadPhotos, leads, users, type Role } from "~/db/schema";
+import { bookings, leadPhotos, leads, users, type Role } from "~/db/schema";
 import { db } from "~/lib/platform/db.server";
 import { startSession } from "~/lib/auth/session.server";
 import { storePhotoBytes } from "~/lib/platform/uploads.server";
@@ -36,6 +36,7 @@ import { loader as termsLoader } from "~/routes/app-settings-proposals";
 import { loader as proposalPageLoader } from "~/routes/proposal";
 import { loader as proposalPdfLoader } from "~/routes/proposal-pdf";
 import { loader as myLoader } from "~/routes/my";
+import { action as moveConsultAction, loader as moveConsultLoader } from "~/routes/my-consult";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { sendProposal } from "~/lib/proposals/proposals.server";
 import { action as teamAction, loader as teamLoader } from "~/routes/app-team";
@@ -59,7 +60,7 @@ type Who = "owner" | "estimator" | "crew" | "homeowner" | "anonymous" | "other c
 const WHO: Who[] = ["owner", "estimator", "crew", "homeowner", "anonymous", "other company's owner"];
 
 const cookies = {} as Record<Who, string | undefined>;
-const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "", order: 0 };
+const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "", order: 0, booking: 0 };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
   const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
@@ -108,6 +109,8 @@ beforeAll(async () => {
   const drafted = await draftSupplierOrders({ ...owner!, sessionId: "matrix" }, won, nextDay(nextDay(zonedDay(new Date(), company.timeZone))));
   if (!drafted.ok) throw new Error(JSON.stringify(drafted.errors));
   ids.order = drafted.orderIds[0]!;
+  // A seeded consult, on a request that is not the matrix homeowner's.
+  ids.booking = (await db.select({ id: bookings.id }).from(bookings).limit(1))[0]!.id;
 });
 
 /** What a person would see: "200", "403", "404", "sign-in", or "redirect <path>". */
@@ -437,6 +440,16 @@ const CASES: Case[] = [
     call: (c) => teamAction(routeArgs(post("/app/team", c, { intent: "deactivate", userId: String(ids.estimator) }))),
     // The owner's own deactivation of the estimator is tested with the team; here only who may ask.
     expected: { owner: "skip", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+  },
+  {
+    name: "GET /my/consult/:id (someone else's consult)",
+    call: (c) => moveConsultLoader(routeArgs(get(`/my/consult/${ids.booking}`, c), { bookingId: String(ids.booking) })),
+    expected: { owner: "403", estimator: "403", crew: "403", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "403" },
+  },
+  {
+    name: "POST /my/consult/:id (move someone else's consult)",
+    call: (c) => moveConsultAction(routeArgs(post(`/my/consult/${ids.booking}`, c, { startsAt: "2099-01-05T15:00:00.000Z" }), { bookingId: String(ids.booking) })),
+    expected: { owner: "403", estimator: "403", crew: "403", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "403" },
   },
 ];
 

@@ -174,3 +174,14 @@ test("two cancels of one paid consult at the same moment: one cancels, the other
   expect(events).toHaveLength(1);
   expect(await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `consult-cancelled%/${booking.id}`))).toHaveLength(2);
 });
+
+test("the hosted checkout names the contractor being paid, not the product: the line item and its note carry the company's name", async () => {
+  const client = createStripe(fake.url);
+  const { company, lead, booking } = await heldBooking();
+  const url = await startCheckout({ booking, company, lead, origin: "http://localhost", basePath: "/c/x/consult/y", client });
+  const page = await (await fetch(url)).text();
+  // The stand-in escapes HTML as the real page would show text: "&" arrives as "&amp;".
+  const shown = page.replace(/&amp;/g, "&");
+  expect(shown).toContain(`Fire pit design consult with ${company.name}`);
+  expect(shown).toContain(`Paid to ${company.name} for a visit to ${lead.street}, ${lead.town}`);
+});

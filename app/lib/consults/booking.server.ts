@@ -13,14 +13,22 @@ import {
   type Company,
   type Lead,
 } from "~/db/schema";
-import { ConsultCancelledEmail, ConsultCancelledOfficeEmail, ConsultConfirmedEmail, ConsultReminderEmail } from "~/emails/consult-emails";
+import {
+  ConsultCancelledEmail,
+  ConsultCancelledOfficeEmail,
+  ConsultConfirmedEmail,
+  ConsultMovedEmail,
+  ConsultMovedOfficeEmail,
+  ConsultReminderEmail,
+} from "~/emails/consult-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
 import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
-import { CONSULT_HOLD_MINUTES, formatSlot, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consults/consult-slots";
+import { checkReschedule, CONSULT_HOLD_MINUTES, formatSlot, HOMEOWNER_CHANGE_CUTOFF_HOURS, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consults/consult-slots";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { formatMoney } from "~/lib/format/money";
+import { formatPhone } from "~/lib/format/phone";
 import { stripe as defaultStripe } from "~/lib/platform/payments.server";
 import { readStoredDesign } from "~/lib/design/stored-plan";
 import { possessive } from "~/lib/format/wording";
@@ -41,7 +49,7 @@ const CHECKOUT_CLOSES_BEFORE_HOLD_MS = 5 * 60_000;
 // The service accepts expires_at from 30 minutes to 24 hours ahead ("Manage limited inventory",
 // Stripe Checkout docs); one minute more covers the difference between its clock and ours.
 const MIN_CHECKOUT_OPEN_MS = 31 * 60_000;
-export const HOMEOWNER_CANCEL_CUTOFF_HOURS = 24;
+export const HOMEOWNER_CANCEL_CUTOFF_HOURS = HOMEOWNER_CHANGE_CUTOFF_HOURS;
 
 export class SlotUnavailableError extends Error {}
 
@@ -150,11 +158,19 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
           price_data: {
             currency: booking.currency,
             unit_amount: booking.amountCents,
-            product_data: { name: `Fire pit design consult with ${company.name}` },
+            // The hosted page lists the line item: it names the contractor being paid, and for what.
+            product_data: {
+              name: `Fire pit design consult with ${company.name}`,
+              description: `Paid to ${company.name} for a visit to ${lead.street}, ${lead.town}; credited toward the build.`,
+            },
           },
           quantity: 1,
         },
       ],
+      // Shown beside the pay button by the hosted checkout (the local stand-in accepts it and does not draw it).
+      custom_text: {
+        submit: { message: `You are paying ${company.name}${company.phone ? ` (${formatPhone(company.phone)})` : ""}. The fee is credited toward the build.` },
+      },
       customer_email: lead.email,
       client_reference_id: String(booking.id),
       metadata: { booking_id: String(booking.id), lead_id: String(lead.id) },
@@ -194,8 +210,10 @@ export async function abandonCheckout(bookingId: number, leadId: number, client:
  * The consult as an iCalendar event. The cancelling file carries the same UID, a higher SEQUENCE,
  * STATUS:CANCELLED and METHOD:CANCEL, which is how RFC 5545 (3.8.4.7 UID, 3.8.7.4 SEQUENCE) and
  * RFC 5546 (3.2.5 CANCEL, which needs ORGANIZER) tell a calendar to drop the event it already holds.
+ * A moved consult sends the event again under the same UID with the booking's raised SEQUENCE, which
+ * replaces the earlier time rather than adding a second event.
  */
-function calendarFile(booking: Booking, company: Company, lead: Lead, kind: "booked" | "cancelled" = "booked"): string {
+export function calendarFile(booking: Booking, company: Company, lead: Lead, kind: "booked" | "cancelled" = "booked"): string {
   const start = new Date(booking.startsAt);
   const { value, error } = createEvent({
     uid: `consult-${booking.id}@emberwright`,
@@ -208,24 +226,35 @@ function calendarFile(booking: Booking, company: Company, lead: Lead, kind: "boo
     location: `${lead.street}, ${lead.town}`,
     productId: "emberwright/consults",
     organizer: { name: company.name, email: company.email },
-    sequence: kind === "cancelled" ? 1 : 0,
+    // Each move raised the booking's sequence; the cancellation outranks the last of them.
+    sequence: booking.calendarSequence + (kind === "cancelled" ? 1 : 0),
     ...(kind === "cancelled" ? { method: "CANCEL", status: "CANCELLED" as const } : {}),
   });
   if (error || !value) throw error ?? new Error("calendar file failed");
   return value;
 }
 
-function designLine(lead: Lead): string {
+/** "Hearthline Taper, 36 9/16 in across inside": the stone and bowl of a request, for e-mails and the consult page. */
+export function designLine(lead: Lead): string {
   const bowl = readStoredDesign(lead.designJson).summary.find((l) => l.label === "Bowl")?.value;
   return [lead.stoneName, bowl].filter(Boolean).join(", ");
 }
 
+/** The outbox key of a booking's reminder for one calendar sequence (each move schedules its own). */
+const reminderKey = (bookingId: number, sequence: number) => (sequence === 0 ? `consult-reminder/${bookingId}` : `consult-reminder/${bookingId}/${sequence}`);
+
+/** Every reminder key a booking may have had, up to its current sequence. */
+export const reminderKeys = (booking: Pick<Booking, "id" | "calendarSequence">) => Array.from({ length: booking.calendarSequence + 1 }, (_, n) => reminderKey(booking.id, n));
+
+/** The e-mail keys of a booking's moves, for the lead's timeline. */
+export const moveMailKeys = (booking: Pick<Booking, "id" | "calendarSequence">) =>
+  Array.from({ length: booking.calendarSequence }, (_, n) => [`consult-moved/${booking.id}/${n + 1}`, `consult-moved-company/${booking.id}/${n + 1}`, reminderKey(booking.id, n + 1)]).flat();
+
 async function confirmationEmails(booking: Booking, company: Company, lead: Lead) {
   const homeownerZone = booking.customerTimeZone ?? company.timeZone;
-  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents) };
+  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(booking.amountCents) };
   const ics = Buffer.from(calendarFile(booking, company, lead)).toString("base64");
   const attachments = [{ filename: "design-consult.ics", content: ics, contentType: "text/calendar" }];
-  const reminderAt = new Date(new Date(booking.startsAt).getTime() - 24 * 60 * 60_000);
   return Promise.all([
     prepareOutboxRow({
       idempotencyKey: `consult-confirmed/${booking.id}`,
@@ -243,14 +272,66 @@ async function confirmationEmails(booking: Booking, company: Company, lead: Lead
       template: ConsultConfirmedEmail({ ...common, recipientName: company.name, customerName: lead.customerName, when: formatSlot(booking.startsAt, company.timeZone), forCompany: true }),
       attachments,
     }),
+    reminderEmail(booking, company, lead),
+  ]);
+}
+
+function reminderEmail(booking: Booking, company: Company, lead: Lead) {
+  const homeownerZone = booking.customerTimeZone ?? company.timeZone;
+  return prepareOutboxRow({
+    idempotencyKey: reminderKey(booking.id, booking.calendarSequence),
+    companyId: company.id,
+    to: lead.email,
+    subject: `Tomorrow: your design consult with ${company.name}`,
+    template: ConsultReminderEmail({
+      companyName: company.name,
+      companyPhone: company.phone,
+      design: designLine(lead),
+      feeText: formatMoney(booking.amountCents),
+      recipientName: lead.customerName,
+      when: formatSlot(booking.startsAt, homeownerZone),
+    }),
+    sendAfter: new Date(new Date(booking.startsAt).getTime() - 24 * 60 * 60_000),
+  });
+}
+
+/** The homeowner's new calendar file and note, and the office's, for a consult moved to `moved.startsAt`. */
+async function movedEmails(before: Booking, moved: Booking, company: Company, lead: Lead, by: "homeowner" | "staff") {
+  const homeownerZone = moved.customerTimeZone ?? company.timeZone;
+  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(moved.amountCents) };
+  const ics = Buffer.from(calendarFile(moved, company, lead)).toString("base64");
+  const attachments = [{ filename: "design-consult.ics", content: ics, contentType: "text/calendar" }];
+  const seq = moved.calendarSequence;
+  return Promise.all([
     prepareOutboxRow({
-      idempotencyKey: `consult-reminder/${booking.id}`,
+      idempotencyKey: `consult-moved/${moved.id}/${seq}`,
       companyId: company.id,
       to: lead.email,
-      subject: `Tomorrow: your design consult with ${company.name}`,
-      template: ConsultReminderEmail({ ...common, recipientName: lead.customerName, when: formatSlot(booking.startsAt, homeownerZone) }),
-      sendAfter: reminderAt,
+      subject: `Design consult moved to ${formatSlot(moved.startsAt, homeownerZone)}`,
+      template: ConsultMovedEmail({
+        ...common,
+        recipientName: lead.customerName,
+        when: formatSlot(moved.startsAt, homeownerZone),
+        was: formatSlot(before.startsAt, homeownerZone),
+        byCompany: by === "staff",
+      }),
+      attachments,
     }),
+    prepareOutboxRow({
+      idempotencyKey: `consult-moved-company/${moved.id}/${seq}`,
+      companyId: company.id,
+      to: company.email,
+      subject: `Consult moved: ${lead.customerName}, now ${formatSlot(moved.startsAt, company.timeZone)}`,
+      template: ConsultMovedOfficeEmail({
+        ...common,
+        customerName: lead.customerName,
+        when: formatSlot(moved.startsAt, company.timeZone),
+        was: formatSlot(before.startsAt, company.timeZone),
+        byCustomer: by === "homeowner",
+      }),
+      attachments,
+    }),
+    reminderEmail(moved, company, lead),
   ]);
 }
 
@@ -270,7 +351,7 @@ const OFFICE_REASON: Record<CancelCause, (customerName: string) => string> = {
 };
 
 async function cancellationEmails(booking: Booking, company: Company, lead: Lead, cause: CancelCause) {
-  const common = { companyName: company.name, design: designLine(lead), feeText: formatMoney(booking.amountCents), isRefunded: booking.isPaid };
+  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(booking.amountCents), isRefunded: booking.isPaid };
   const ics = Buffer.from(calendarFile(booking, company, lead, "cancelled")).toString("base64");
   const attachments = [{ filename: "design-consult-cancelled.ics", content: ics, contentType: "text/calendar; method=CANCEL" }];
   return Promise.all([
@@ -301,6 +382,21 @@ async function loadBookingContext(bookingId: number) {
     .innerJoin(leads, eq(leads.id, bookings.leadId))
     .innerJoin(companies, eq(companies.id, bookings.companyId))
     .where(eq(bookings.id, bookingId))
+    .limit(1);
+  return row ?? null;
+}
+
+/**
+ * A booking on one of this homeowner's own requests, with its company and request; null for anyone
+ * else's (the caller answers 404).
+ */
+export async function loadHomeownerConsult(homeownerId: number, bookingId: number) {
+  const [row] = await db
+    .select({ booking: bookings, lead: leads, company: companies })
+    .from(bookings)
+    .innerJoin(leads, eq(leads.id, bookings.leadId))
+    .innerJoin(companies, eq(companies.id, bookings.companyId))
+    .where(and(eq(bookings.id, bookingId), eq(leads.homeownerId, homeownerId)))
     .limit(1);
   return row ?? null;
 }
@@ -469,13 +565,78 @@ export async function cancelBooking(args: { bookingId: number; companyId: number
       .where(and(eq(bookings.id, booking.id), eq(bookings.status, booking.status), eq(bookings.isPaid, booking.isPaid)))
       .returning({ id: bookings.id });
     if (changed.length === 0) throw new BookingChanged();
-    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.idempotencyKey, `consult-reminder/${booking.id}`), eq(emailOutbox.status, "pending")));
+    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
     await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` });
     if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
     // The request's stage follows the booking: no confirmed consult left, no "consult booked".
     for (const statement of settleStageStatements({ leadId: lead.id, from: ["consult-booked"], cancelledBookingId: booking.id, at: now.toISOString(), tx })) await statement;
     });
   }
+}
+
+export type RescheduleResult = { ok: true; booking: Booking } | { ok: false; status: 400 | 404 | 409; message: string };
+
+class SlotTaken extends Error {}
+
+/**
+ * Moves a confirmed consult to another free time, keeping its payment: no second checkout. The same
+ * guarantees as booking: the slot's partial unique index lets only one booking hold a time, and the
+ * booking's state (confirmed, at the time read, at the sequence read) is re-checked by the write
+ * itself in the transaction, so of two moves at once one wins and the other is refused (409). The
+ * homeowner gets the event again under the same UID with SEQUENCE raised, the office a note, and
+ * the reminder follows the new time. A refusal says why; nothing is written then.
+ */
+export async function rescheduleBooking(args: {
+  bookingId: number;
+  companyId: number;
+  startsAt: string;
+  by: "homeowner" | "staff";
+  actorUserId: number | null;
+  now?: Date;
+}): Promise<RescheduleResult> {
+  const now = args.now ?? new Date();
+  const context = await loadBookingContext(args.bookingId);
+  if (!context || context.booking.companyId !== args.companyId) return { ok: false, status: 404, message: "That consult was not found." };
+  const { booking, company, lead } = context;
+  const freeSlots = booking.status === "confirmed" ? await listCompanySlots(company, now) : [];
+  const check = checkReschedule({ status: booking.status, currentStartsAt: booking.startsAt, targetStartsAt: args.startsAt, freeSlots, by: args.by, companyName: company.name, now });
+  if (!check.ok) return { ok: false, status: check.status, message: check.message };
+  const moved: Booking = { ...booking, startsAt: check.slot.startsAt, endsAt: check.slot.endsAt, calendarSequence: booking.calendarSequence + 1, updatedAt: now.toISOString() };
+  // Rendered before the transaction, so it holds only writes.
+  const rows = await movedEmails(booking, moved, company, lead, args.by);
+  try {
+    await writeTransaction(async (tx) => {
+      const changed = await tx
+        .update(bookings)
+        .set({ startsAt: moved.startsAt, endsAt: moved.endsAt, calendarSequence: moved.calendarSequence, updatedAt: moved.updatedAt })
+        .where(
+          and(
+            eq(bookings.id, booking.id),
+            eq(bookings.status, "confirmed"),
+            eq(bookings.startsAt, booking.startsAt),
+            eq(bookings.calendarSequence, booking.calendarSequence),
+          ),
+        )
+        .returning({ id: bookings.id });
+      if (changed.length === 0) throw new BookingChanged();
+      await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
+      await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
+      await tx.insert(leadEvents).values({
+        companyId: company.id,
+        leadId: lead.id,
+        actorUserId: args.actorUserId,
+        kind: "consult-moved",
+        detail: `Consult moved by the ${args.by} from ${formatSlot(booking.startsAt, company.timeZone)} to ${formatSlot(moved.startsAt, company.timeZone)}; the fee paid stands.`,
+      });
+    }).catch((error: unknown) => {
+      throw isUniqueViolation(error) ? new SlotTaken() : error;
+    });
+  } catch (error) {
+    if (error instanceof BookingChanged) return { ok: false, status: 409, message: "This consult changed a moment ago (moved or cancelled). Reload to see it." };
+    if (error instanceof SlotTaken) return { ok: false, status: 409, message: "Someone booked that time a moment ago. Choose another." };
+    throw error;
+  }
+  return { ok: true, booking: moved };
 }
 
 /** The HTTP status a cancel refusal answers with. */

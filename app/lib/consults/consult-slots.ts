@@ -86,3 +86,44 @@ export function parseWeeklyHours(json: string): WeeklyHours {
     return {};
   }
 }
+
+/** How close to the visit a homeowner may still cancel or move it online (hours); after that, they call. */
+export const HOMEOWNER_CHANGE_CUTOFF_HOURS = 24;
+
+export type RescheduleCheck = { ok: true; slot: Slot } | { ok: false; status: 400 | 409; message: string };
+
+/**
+ * Whether a booked consult may move to `targetStartsAt`: only a confirmed (paid) booking moves, the
+ * homeowner only while the visit is more than the cutoff away, and only to another time that is
+ * free now. The database still has the last word (the slot's unique index and the state re-check).
+ */
+export function checkReschedule(args: {
+  status: string;
+  currentStartsAt: string;
+  targetStartsAt: string;
+  freeSlots: Slot[];
+  by: "homeowner" | "staff";
+  companyName: string;
+  now: Date;
+}): RescheduleCheck {
+  if (args.status !== "confirmed") return { ok: false, status: 409, message: "This consult is not booked (it was cancelled or is not paid yet), so there is no time to move." };
+  if (args.by === "homeowner" && new Date(args.currentStartsAt).getTime() - args.now.getTime() < HOMEOWNER_CHANGE_CUTOFF_HOURS * 3_600_000) {
+    return { ok: false, status: 409, message: `Consults can be moved online up to ${HOMEOWNER_CHANGE_CUTOFF_HOURS} hours ahead. Please call ${args.companyName}.` };
+  }
+  const target = new Date(args.targetStartsAt);
+  if (Number.isNaN(target.getTime())) return { ok: false, status: 400, message: "Choose a new time from the list." };
+  if (target.toISOString() === new Date(args.currentStartsAt).toISOString()) return { ok: false, status: 400, message: "That is the time already booked. Choose another one." };
+  const slot = args.freeSlots.find((s) => s.startsAt === target.toISOString());
+  if (!slot) return { ok: false, status: 409, message: "That time is no longer free. Choose another." };
+  return { ok: true, slot };
+}
+
+/** Groups slots by their local calendar day in a zone, days and times in order. */
+export function groupSlotsByDay(slots: Slot[], timeZone: string): { day: string; slots: Slot[] }[] {
+  const days = new Map<string, Slot[]>();
+  for (const slot of [...slots].sort((a, b) => (a.startsAt < b.startsAt ? -1 : 1))) {
+    const day = zonedDay(new Date(slot.startsAt), timeZone);
+    days.set(day, [...(days.get(day) ?? []), slot]);
+  }
+  return [...days.entries()].map(([day, list]) => ({ day, slots: list }));
+}

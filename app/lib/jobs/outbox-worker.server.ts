@@ -1,5 +1,6 @@
 import { and, asc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
-import { emailOutbox } from "~/db/schema";
+import { companies, emailOutbox } from "~/db/schema";
+import { senderHeaders } from "~/lib/platform/email-headers";
 import { db as defaultDb, type Db } from "~/lib/platform/db.server";
 import { resend, type OutboxAttachment } from "~/lib/platform/email.server";
 import { env } from "~/lib/platform/env.server";
@@ -42,6 +43,11 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
   const db = options.db ?? defaultDb;
   const owner = options.owner ?? WORKER_ID;
   const claimed = await claimDueEmails(db, owner, now);
+  // The sender's name and Reply-To come from the company as it is at sending time.
+  const companyIds = [...new Set(claimed.map((row) => row.companyId).filter((id): id is number => id !== null))];
+  const senders = companyIds.length
+    ? await db.select({ id: companies.id, name: companies.name, email: companies.email }).from(companies).where(inArray(companies.id, companyIds))
+    : [];
   const mine = (id: number) => and(eq(emailOutbox.id, id), eq(emailOutbox.leaseOwner, owner));
   let sent = 0;
   for (const row of claimed) {
@@ -53,9 +59,11 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
         failure = { status: null, message: "no tries left after the worker stopped mid-send" };
       } else {
         const attachments = JSON.parse(row.attachmentsJson) as OutboxAttachment[];
+        const sender = senderHeaders({ sendingFrom: env.EMAIL_FROM, company: senders.find((c) => c.id === row.companyId) ?? null, to: row.toAddress });
         const { data, error } = await client.emails.send(
           {
-            from: env.EMAIL_FROM,
+            from: sender.from,
+            ...(sender.replyTo ? { replyTo: sender.replyTo } : {}),
             to: row.toAddress,
             subject: row.subject,
             html: row.html,

@@ -1,5 +1,5 @@
-import { and, desc, eq, inArray } from "drizzle-orm";
-import { bookings, companies, leadPhotos, leads, proposals, type Booking, type Lead } from "~/db/schema";
+import { and, desc, eq, inArray, isNotNull } from "drizzle-orm";
+import { bookings, companies, leadPhotos, leadRevisions, leads, proposals, type Booking, type Lead } from "~/db/schema";
 import { db } from "~/lib/platform/db.server";
 
 /**
@@ -8,12 +8,12 @@ import { db } from "~/lib/platform/db.server";
  */
 export async function loadHomeownerRequestDetails(ownLeads: Pick<Lead, "id" | "companyId">[]) {
   const ids = ownLeads.map((l) => l.id);
-  if (!ids.length) return { photos: [], liveBookings: [], companies: [], proposals: [] };
-  const [photoRows, liveBookings, companyRows, proposalRows] = await Promise.all([
+  if (!ids.length) return { photos: [], liveBookings: [], companies: [], proposals: [], sentRevisions: [] };
+  const [photoRows, liveBookings, companyRows, proposalRows, sentRevisions] = await Promise.all([
     db.select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName }).from(leadPhotos).where(inArray(leadPhotos.leadId, ids)),
     db.select().from(bookings).where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
     db
-      .select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone })
+      .select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone, phone: companies.phone })
       .from(companies)
       .where(inArray(companies.id, ownLeads.map((l) => l.companyId))),
     db
@@ -21,8 +21,22 @@ export async function loadHomeownerRequestDetails(ownLeads: Pick<Lead, "id" | "c
       .from(proposals)
       .where(inArray(proposals.leadId, ids))
       .orderBy(desc(proposals.sentAt)),
+    // Only the revisions staff sent to them; those still being worked on in the office stay there.
+    db
+      .select({
+        id: leadRevisions.id,
+        leadId: leadRevisions.leadId,
+        designJson: leadRevisions.designJson,
+        planJson: leadRevisions.planJson,
+        priceLowCents: leadRevisions.priceLowCents,
+        priceHighCents: leadRevisions.priceHighCents,
+        sentAt: leadRevisions.sentAt,
+      })
+      .from(leadRevisions)
+      .where(and(inArray(leadRevisions.leadId, ids), isNotNull(leadRevisions.sentAt)))
+      .orderBy(desc(leadRevisions.sentAt), desc(leadRevisions.id)),
   ]);
-  return { photos: photoRows, liveBookings, companies: companyRows, proposals: proposalRows };
+  return { photos: photoRows, liveBookings, companies: companyRows, proposals: proposalRows, sentRevisions };
 }
 
 /** A booking on one of this homeowner's own requests, or null (anything else is "not found"). */

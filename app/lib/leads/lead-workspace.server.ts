@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, like, or } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNull, like, or } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
 import { bookings, emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
 import { formatInches } from "~/domain/units";
@@ -10,6 +10,11 @@ import { formatMoneyWhole } from "~/lib/format/money";
 import type { SessionUser } from "~/lib/auth/session.server";
 import { readStoredPlan, writeStoredPlan, type StoredDesign, type StoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
 import { findActiveStaff } from "~/lib/auth/team.server";
+import { RevisionSentEmail, StaffAssignedEmail } from "~/emails/lead-emails";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { writeTransaction } from "~/lib/platform/db.server";
+import { prepareOutboxRow } from "~/lib/platform/email.server";
+import { moveMailKeys } from "~/lib/consults/booking.server";
 
 /*
  * Reading and changing one lead from the workspace. Every change writes the lead and its timeline
@@ -25,6 +30,8 @@ export type DesignVersion = {
   plan: StoredPlan;
   priceLowCents: number | null;
   priceHighCents: number | null;
+  /** When staff sent a revision to the homeowner; null for the original and for revisions kept in the office. */
+  sentAt: string | null;
 };
 
 export type TimelineEntry = { key: string; kind: string; detail: string; actorName: string | null; createdAt: string };
@@ -38,6 +45,7 @@ export function originalVersion(lead: Lead): DesignVersion {
     ...readStoredPlan(lead),
     priceLowCents: lead.priceLowCents,
     priceHighCents: lead.priceHighCents,
+    sentAt: null,
   };
 }
 
@@ -58,6 +66,7 @@ export async function listRevisions(lead: Lead): Promise<DesignVersion[]> {
     ...readStoredPlan(revision),
     priceLowCents: revision.priceLowCents,
     priceHighCents: revision.priceHighCents,
+    sentAt: revision.sentAt,
   }));
 }
 
@@ -75,8 +84,12 @@ const MAIL_STATE: Record<string, string> = { sent: "sent", failed: "could not be
 /** The lead's timeline, newest first: its events plus the e-mails sent about it and its consults. */
 export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
   // Consult e-mails are keyed by booking ("consult-confirmed/<bookingId>"), so find the lead's bookings first.
-  const bookingIds = (await db.select({ id: bookings.id }).from(bookings).where(and(eq(bookings.leadId, lead.id), eq(bookings.companyId, lead.companyId)))).map((b) => b.id);
-  const consultKeys = bookingIds.flatMap((id) => CONSULT_MAIL_KINDS.map((kind) => `${kind}/${id}`));
+  const leadBookings = await db
+    .select({ id: bookings.id, calendarSequence: bookings.calendarSequence })
+    .from(bookings)
+    .where(and(eq(bookings.leadId, lead.id), eq(bookings.companyId, lead.companyId)));
+  // A moved consult adds its notes and its new reminder under "<kind>/<bookingId>/<sequence>".
+  const consultKeys = leadBookings.flatMap((b) => [...CONSULT_MAIL_KINDS.map((kind) => `${kind}/${b.id}`), ...moveMailKeys(b)]);
   const [events, mails] = await Promise.all([
     db
       .select({ id: leadEvents.id, kind: leadEvents.kind, detail: leadEvents.detail, createdAt: leadEvents.createdAt, actorName: actor.name })
@@ -174,8 +187,35 @@ async function nameOf(userId: number | null): Promise<string | null> {
   return row?.name ?? null;
 }
 
-/** Assigns the lead to an owner or estimator of the company (or to nobody). */
-export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId: number | null): Promise<ActionResult> {
+/**
+ * The e-mail telling a staff member a request (or a job to build) is theirs now; none when they
+ * gave it to themselves. Its key ends in the lead's id, so the lead's timeline lists it.
+ */
+async function assignedEmail(args: { user: SessionUser; lead: Lead; to: { id: number; name: string; email: string }; asCrew: boolean; at: string; origin: string }) {
+  if (args.to.id === args.user.id) return [];
+  const company = await getCompany(args.lead.companyId);
+  return [
+    await prepareOutboxRow({
+      idempotencyKey: `lead-${args.asCrew ? "crew" : "assigned"}-${Date.parse(args.at)}-${args.to.id}/${args.lead.id}`,
+      companyId: args.lead.companyId,
+      to: args.to.email,
+      subject: args.asCrew ? `Job to build: ${args.lead.customerName}, ${args.lead.town}` : `Request assigned to you: ${args.lead.customerName}, ${args.lead.town}`,
+      template: StaffAssignedEmail({
+        companyName: company.name,
+        recipientName: args.to.name,
+        assignedBy: args.user.name,
+        customerName: args.lead.customerName,
+        town: args.lead.town,
+        asCrew: args.asCrew,
+        stage: STATUS_LABEL[args.lead.status],
+        link: `${args.origin}/app/leads/${args.lead.id}`,
+      }),
+    }),
+  ];
+}
+
+/** Assigns the lead to an owner or estimator of the company (or to nobody), and e-mails the one assigned. */
+export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId: number | null, origin: string): Promise<ActionResult> {
   if (assigneeId === lead.assignedUserId) {
     return { ok: false, status: 400, errors: { assigneeId: "The request is already assigned that way." } };
   }
@@ -185,8 +225,10 @@ export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId:
   }
   const previous = await nameOf(lead.assignedUserId);
   const at = now();
+  const mail = assignee ? await assignedEmail({ user, lead, to: assignee, asCrew: false, at, origin }) : [];
   await db.batch([
     db.update(leads).set({ assignedUserId: assigneeId, updatedAt: at }).where(scoped(lead)),
+    ...mail.map((row) => db.insert(emailOutbox).values(row).onConflictDoNothing()),
     db.insert(leadEvents).values({
       companyId: lead.companyId,
       leadId: lead.id,
@@ -199,8 +241,8 @@ export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId:
   return { ok: true };
 }
 
-/** Gives a signed job to a crew member of the company (or takes it back). */
-export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null): Promise<ActionResult> {
+/** Gives a signed job to a crew member of the company (or takes it back), and e-mails the crew member. */
+export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null, origin: string): Promise<ActionResult> {
   if (!isSignedStage(lead.status)) {
     return { ok: false, status: 400, errors: { crewUserId: "A job goes to a crew once it is signed and the deposit is paid." } };
   }
@@ -213,8 +255,10 @@ export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: numb
   }
   const previous = await nameOf(lead.crewUserId);
   const at = now();
+  const mail = crew ? await assignedEmail({ user, lead, to: crew, asCrew: true, at, origin }) : [];
   await db.batch([
     db.update(leads).set({ crewUserId, updatedAt: at }).where(scoped(lead)),
+    ...mail.map((row) => db.insert(emailOutbox).values(row).onConflictDoNothing()),
     db.insert(leadEvents).values({
       companyId: lead.companyId,
       leadId: lead.id,
@@ -257,4 +301,52 @@ export async function saveRevision(user: SessionUser, lead: Lead, record: Stored
     }),
   ]);
   return inserted[0]!.id;
+}
+
+/**
+ * Sends a staff revision to the homeowner: marks it sent (once; a second send is refused), notes it
+ * on the timeline and e-mails the homeowner through the outbox, all in one transaction.
+ */
+export async function sendRevision(user: SessionUser, lead: Lead, revisionId: number, origin: string): Promise<ActionResult> {
+  const [row] = await db
+    .select({ revision: leadRevisions, authorName: author.name })
+    .from(leadRevisions)
+    .leftJoin(author, eq(author.id, leadRevisions.authorUserId))
+    .where(and(eq(leadRevisions.id, revisionId), eq(leadRevisions.leadId, lead.id), eq(leadRevisions.companyId, lead.companyId)))
+    .limit(1);
+  if (!row) return { ok: false, status: 404, errors: { revisionId: "That revision is not one of this request's." } };
+  if (row.revision.sentAt) return { ok: false, status: 409, errors: { revisionId: "This revision was already sent to the homeowner." } };
+  const company = await getCompany(lead.companyId);
+  const { design } = readStoredPlan(row.revision);
+  const low = row.revision.priceLowCents;
+  const high = row.revision.priceHighCents;
+  const at = now();
+  const mail = await prepareOutboxRow({
+    idempotencyKey: `lead-revision-${revisionId}/${lead.id}`,
+    companyId: lead.companyId,
+    to: lead.email,
+    subject: `Your revised fire-pit design from ${company.name}`,
+    template: RevisionSentEmail({
+      companyName: company.name,
+      companyPhone: company.phone,
+      recipientName: lead.customerName,
+      authorName: row.authorName ?? user.name,
+      summary: design.summary,
+      price: low !== null && high !== null ? `${formatMoneyWhole(low)} – ${formatMoneyWhole(high)}` : null,
+      link: `${origin}/my#revision-${revisionId}`,
+    }),
+  });
+  return writeTransaction(async (tx) => {
+    // Re-checked by the write: of two sends at once, one marks it and the other is told.
+    const marked = await tx
+      .update(leadRevisions)
+      .set({ sentAt: at })
+      .where(and(eq(leadRevisions.id, revisionId), isNull(leadRevisions.sentAt)))
+      .returning({ id: leadRevisions.id });
+    if (marked.length === 0) return { ok: false as const, status: 409, errors: { revisionId: "This revision was already sent to the homeowner." } };
+    await tx.update(leads).set({ updatedAt: at }).where(scoped(lead));
+    await tx.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "revision-sent", detail: `Revised design sent to ${lead.customerName} (${lead.email}).`, createdAt: at });
+    await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
+    return { ok: true as const };
+  });
 }

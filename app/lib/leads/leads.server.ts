@@ -130,6 +130,7 @@ export async function createLead(args: {
           subject: `${company.name} received your fire-pit request`,
           template: LeadReceivedEmail({
             companyName: company.name,
+            companyPhone: company.phone,
             customerName: form.customerName,
             summary: snapshot.summary,
             accountLink,

@@ -125,7 +125,7 @@ export async function sendChangeOrder(args: { user: SessionUser; lead: Lead; com
     companyId: company.id,
     to: lead.email,
     subject: `A change order from ${company.name} to sign`,
-    template: ProposalSentEmail({ companyName: company.name, customerName: lead.customerName, title: document.title, totalText: formatMoney(args.deltaCents), validUntil: document.validUntil, link, isChangeOrder: true }),
+    template: ProposalSentEmail({ companyName: company.name, companyPhone: company.phone, customerName: lead.customerName, title: document.title, totalText: formatMoney(args.deltaCents), validUntil: document.validUntil, link, isChangeOrder: true }),
   });
   const open = await db.select({ id: proposals.id }).from(proposals).where(and(eq(proposals.parentId, draft.signed.id), eq(proposals.status, "sent")));
   const [inserted] = await db.batch([

@@ -155,7 +155,7 @@ export async function sendProposal(args: { user: SessionUser; lead: Lead; compan
     companyId: company.id,
     to: lead.email,
     subject: `Your fire pit proposal from ${company.name}`,
-    template: ProposalSentEmail({ companyName: company.name, customerName: lead.customerName, title: document.title, totalText: formatMoney(basePriceCents(document.fixedPriceCents, document.allowances)), validUntil: document.validUntil, link, isChangeOrder: false }),
+    template: ProposalSentEmail({ companyName: company.name, companyPhone: company.phone, customerName: lead.customerName, title: document.title, totalText: formatMoney(basePriceCents(document.fixedPriceCents, document.allowances)), validUntil: document.validUntil, link, isChangeOrder: false }),
   });
   const open = await db.select({ id: proposals.id }).from(proposals).where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, [...OPEN_STATES])));
   const movesStage = lead.status !== "proposal-out" && lead.status !== "on-hold" && lead.status !== "not-going-ahead";

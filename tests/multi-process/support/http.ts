@@ -66,6 +66,14 @@ export function buttonValues(html: string, name: string): string[] {
   return [...html.matchAll(/<button\b[^>]*>/gi)].map(([tag]) => tag).filter((tag) => attr(tag, "name") === name).map((tag) => attr(tag, "value") ?? "");
 }
 
+/** The value of every `<input type="radio" name=…>` with that name on a page, in page order (the choices offered). */
+export function radioValues(html: string, name: string): string[] {
+  return [...html.matchAll(/<input\b[^>]*>/gi)]
+    .map(([tag]) => tag)
+    .filter((tag) => (attr(tag, "type") ?? "").toLowerCase() === "radio" && attr(tag, "name") === name)
+    .map((tag) => attr(tag, "value") ?? "");
+}
+
 /**
  * The fields a browser would submit from the page's main POST form (the one with the most fields,
  * so not the sign-out button's): inputs (checkboxes and radios only when checked), selected
