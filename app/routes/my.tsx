@@ -6,7 +6,6 @@ import { PublicShell } from "~/components/public-shell";
 import { ConfirmAction } from "~/components/ui/confirm-action";
 import { FormAlert } from "~/components/ui/field";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
-import type { DesignSummaryLine } from "~/emails/design-summary";
 import { cancelBooking, cancelRefusalStatus, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
 import { findHomeownerBooking, loadHomeownerRequestDetails } from "~/lib/leads/homeowner.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
