@@ -19,8 +19,8 @@ const SERVER_MODULE = {
   message: "Client code cannot import server code (*.server modules hold secrets and database access).",
 };
 
-/** The boundary rules, exported so a test can check each one fires. */
-export const boundaries = {
+// Checked by tests/unit/lint-boundaries.test.ts through ESLint's Node API.
+const boundaries = {
   client: ["error", { patterns: [DB_SCHEMA, SERVER_MODULE] }],
   route: ["error", { patterns: [DB_SCHEMA, DB_CLIENT] }],
 };
