@@ -31,7 +31,7 @@ describe("client code (components, scene, domain, e-mails, non-server library mo
 
   test.each(clientFiles)("%s may not import the database client or any server module", async (file) => {
     const code = [
-      'import { db } from "~/lib/db.server";',
+      'import { db } from "~/lib/platform/db.server";',
       'import { requireUser } from "~/lib/session.server";',
       'import { findLead } from "../lib/leads/queries.server";',
       'export { sendMail } from "./mail.server.ts";',
@@ -62,7 +62,7 @@ describe("client code (components, scene, domain, e-mails, non-server library mo
 
 describe("server modules", () => {
   test("a *.server module may use the tables and the database client", async () => {
-    const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/db.server";\nexport const q = () => db.select().from(leads);\n';
+    const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = () => db.select().from(leads);\n';
     expect(await boundaryProblems("app/lib/some-queries.server.ts", code)).toEqual([]);
     expect(await boundaryProblems("app/lib/leads/some-queries.server.ts", code)).toEqual([]);
   });
@@ -78,7 +78,7 @@ describe("route modules", () => {
   test.each(["app/routes/some-page.tsx", "app/routes/api/some-endpoint.ts", "app/root.tsx"])(
     "%s may not import the tables or the database client",
     async (file) => {
-      const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/db.server";\nexport const q = [leads, db];\n';
+      const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = [leads, db];\n';
       const problems = await boundaryProblems(file, code);
       expect(problems).toHaveLength(2);
       expect(problems[0]).toMatch(/table definitions/);
