@@ -110,7 +110,7 @@ export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
     // Once, on arrival: the fragment is the link.
     if (token) checkToken(token);
   }, [token]);
-  const errors: Record<string, string> = (actionData as WelcomeAnswer | undefined)?.errors ?? {};
+  const errors: Record<string, string> = actionData?.errors ?? {};
   const person = check.data?.person;
   const isChecking = token === null || (token !== "" && !check.data);
 

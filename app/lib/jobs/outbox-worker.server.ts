@@ -1,7 +1,7 @@
 import { and, asc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
 import { emailOutbox } from "~/db/schema";
 import { db as defaultDb, type Db } from "~/lib/platform/db.server";
-import { resend, type OutboxAttachment } from "~/lib/platform/email.server";
+import { outboxAttachmentsSchema, resend } from "~/lib/platform/email.server";
 import { env } from "~/lib/platform/env.server";
 import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs/jobs.server";
 
@@ -52,7 +52,8 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
         // Its last worker stopped mid-send (the lease lapsed) and it has no tries left.
         failure = { status: null, message: "no tries left after the worker stopped mid-send" };
       } else {
-        const attachments = JSON.parse(row.attachmentsJson) as OutboxAttachment[];
+        // A row that does not parse fails like any other send (a ZodError, caught below), never as a half-read attachment.
+        const attachments = outboxAttachmentsSchema.parse(JSON.parse(row.attachmentsJson));
         const { data, error } = await client.emails.send(
           {
             from: env.EMAIL_FROM,
