@@ -135,7 +135,10 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
               </option>
             ))}
           </SelectField>
-          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => setOrderUnit(e.target.value as OrderUnit)} error={errors.orderUnit}>
+          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => {
+              const chosen = e.target.value;
+              if (isOneOf(ORDER_UNITS, chosen)) setOrderUnit(chosen);
+            }} error={errors.orderUnit}>
             {ORDER_UNITS.map((u) => (
               <option key={u} value={u}>
                 {ORDER_UNIT_LABEL[u].label}
