@@ -1,7 +1,7 @@
 import { and, eq, inArray } from "drizzle-orm";
 import { bookings, buildCrew, builds, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
-import type { CatalogChoice, Design } from "~/lib/design/design";
+import type { CatalogChoice } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
 import { formatMoney } from "~/lib/format/money";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";

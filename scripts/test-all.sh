@@ -1,9 +1,12 @@
 #!/usr/bin/env bash
-# Every test: typecheck, module boundaries, unit and API tests, production build, bundle budget,
-# several production processes on one database behind a loopback balancer, end-to-end in Chromium.
+# Every test: formatting, lint (zero warnings), typecheck, module boundaries, unit and API tests,
+# production build, bundle budget, several production processes on one database behind a loopback
+# balancer, end-to-end in Chromium.
 set -euo pipefail
 cd "$(dirname "$0")/.."
 bash scripts/ensure-chromium.sh
+npm run --silent format:check
+npm run --silent lint
 npm run --silent typecheck
 node scripts/check-boundaries.mjs
 npx vitest run

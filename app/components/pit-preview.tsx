@@ -1,5 +1,6 @@
-import { Component, Suspense, lazy, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
+import { Component, Suspense, lazy, useState, type ErrorInfo, type ReactNode } from "react";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
+import { useBrowserValue } from "~/components/use-browser-value";
 import type { LengthUnit } from "~/domain/units";
 import type { PitSceneInput } from "~/domain/pit-layout";
 
@@ -21,8 +22,15 @@ const PitScene = import.meta.env.SSR ? null : lazy(() => import("~/scene/pit-sce
 
 const UNAVAILABLE_NOTE = "3D preview unavailable on this device; showing the plan";
 
-/** True when this browser can create a WebGL context; the test context is released at once. */
+let hasWebGl: boolean | undefined;
+
+/** True when this browser can create a WebGL context; the test context is released at once. Asked once a page load. */
 function detectWebGl(): boolean {
+  hasWebGl ??= probeWebGl();
+  return hasWebGl;
+}
+
+function probeWebGl(): boolean {
   try {
     const canvas = document.createElement("canvas");
     const gl = canvas.getContext("webgl2") ?? canvas.getContext("webgl");
@@ -61,17 +69,17 @@ class SceneBoundary extends Component<SceneBoundaryProps, { hasFailed: boolean }
 
 type Support = "checking" | "webgl" | "none" | "forced-plan";
 
+function detectSupport(): Support {
+  if (isPlanForced(window.location.search)) return "forced-plan";
+  return PitScene && detectWebGl() ? "webgl" : "none";
+}
+
 /** The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle. */
 export function PitPreview({ input, caption, unit, formatLength, frameClassName = "aspect-square sm:aspect-[4/3]", id }: PitPreviewProps) {
-  const [support, setSupport] = useState<Support>("checking");
+  const support = useBrowserValue<Support>(detectSupport, "checking");
   const [view, setView] = useState<"3d" | "plan">("3d");
   const [hasSceneFailed, setHasSceneFailed] = useState(false);
   const [resetSignal, setResetSignal] = useState(0);
-
-  useEffect(() => {
-    if (isPlanForced(window.location.search)) setSupport("forced-plan");
-    else setSupport(PitScene && detectWebGl() ? "webgl" : "none");
-  }, []);
 
   const can3d = support === "webgl" && !hasSceneFailed && PitScene !== null;
   const shows3d = can3d && view === "3d";

@@ -1,6 +1,11 @@
 // The fixed vocabularies of the data model, apart from the tables so client code can import them
 // without pulling in the ORM.
 
+/** Whether `value` is one of `values`: a narrowing for text from a form, a URL or a stored row. */
+export function isOneOf<T extends string>(values: readonly T[], value: unknown): value is T {
+  return typeof value === "string" && (values as readonly string[]).includes(value);
+}
+
 export const ROLES = ["owner", "estimator", "crew", "homeowner"] as const;
 export type Role = (typeof ROLES)[number];
 export const STAFF_ROLES = ["owner", "estimator", "crew"] as const satisfies readonly Role[];

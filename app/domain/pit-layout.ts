@@ -107,10 +107,6 @@ function wholeCount(n: number): number {
   return Number.isFinite(n) ? Math.max(0, Math.floor(n)) : 0;
 }
 
-function isLength(n: number): boolean {
-  return Number.isFinite(n) && n > 0;
-}
-
 /** Scene placement of a part whose origin lies at `distanceIn` from the centre on plan angle `angleRad`. */
 function placeOnRadius(distanceIn: number, angleRad: number, heightIn: number, layer: number): PartPlacement {
   return {

@@ -5,12 +5,8 @@
  * price), plus permits at cost and sales tax, quoted as a range. Money is integer cents, rounded
  * to the nearest cent (Math.round: halves up) at each step shown in the breakdown.
  */
-import type { CapPlan } from "~/domain/caps";
 import type { CompanyFactors, LabourRateBasis, ProfitBasis, SalesTaxBasis } from "~/domain/factors";
-import type { LinerPlan } from "~/domain/liner";
-import type { PatioPlan } from "~/domain/patio";
-import type { BaseEstimate, MaterialKey, MaterialLine, MaterialUnit } from "~/domain/quantities";
-import type { RingPlan } from "~/domain/ring";
+import type { MaterialKey, MaterialLine, MaterialUnit } from "~/domain/quantities";
 
 export type LabourTaskKey = "setup" | "base" | "first-course" | "courses" | "saw-cuts" | "caps" | "liner" | "patio";
 
@@ -69,8 +65,6 @@ export type PriceEstimate = { lowCents: number; highCents: number; breakdown: Pr
 
 /** Unit prices by material, integer cents; a missing or null price leaves the job unpriced. */
 export type UnitPrices = Partial<Record<MaterialKey, number | null | undefined>>;
-
-const roundHours = (hours: number) => Math.round(hours * 100) / 100;
 
 
 /** Rounds a cents amount down (or up) to a multiple of `stepCents`; steps below 1 cent leave it whole. */

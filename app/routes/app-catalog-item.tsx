@@ -3,7 +3,7 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-catalog-item";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { TextField, SelectField, FormAlert } from "~/components/ui/field";
-import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind, type OrderUnit } from "~/db/enums";
+import { CATALOG_KINDS, isOneOf, ORDER_UNITS, type CatalogKind, type OrderUnit } from "~/db/enums";
 import { KIND_DIMENSIONS, KIND_INFO, perUnit } from "~/lib/catalog/catalog-kinds";
 import { parseCatalogForm } from "~/lib/catalog/catalog-schema";
 import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/catalog/catalog.server";
@@ -83,7 +83,10 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
           label="Kind"
           name="kind"
           value={kind}
-          onChange={(e) => setKind(e.target.value as CatalogKind)}
+          onChange={(e) => {
+            const chosen = e.target.value;
+            if (isOneOf(CATALOG_KINDS, chosen)) setKind(chosen);
+          }}
           error={errors.kind}
         >
           {CATALOG_KINDS.map((k) => (
@@ -132,7 +135,10 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
               </option>
             ))}
           </SelectField>
-          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => setOrderUnit(e.target.value as OrderUnit)} error={errors.orderUnit}>
+          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => {
+              const chosen = e.target.value;
+              if (isOneOf(ORDER_UNITS, chosen)) setOrderUnit(chosen);
+            }} error={errors.orderUnit}>
             {ORDER_UNITS.map((u) => (
               <option key={u} value={u}>
                 {ORDER_UNIT_LABEL[u].label}

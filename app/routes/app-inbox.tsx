@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useEffect, useEffectEvent, useRef, useState } from "react";
 import { data, Form, Link, useFetcher } from "react-router";
 import type { Route } from "./+types/app-inbox";
 import { WorkspaceProblem } from "~/components/workspace-problem";
@@ -69,15 +69,14 @@ const COLUMNS: { sort: InboxSort; label: string; className?: string }[] = [
 /** Keeps the inbox fresh: polls the JSON API every 30 s and when the window regains focus. */
 function useLiveInbox(initial: InboxPage, since: string | null): InboxPage {
   const fetcher = useFetcher<InboxPage>();
-  const load = useRef(fetcher.load);
-  load.current = fetcher.load;
+  const load = useEffectEvent((url: string) => void fetcher.load(url));
   const query = initial.query;
   useEffect(() => {
     const params = new URLSearchParams(query);
     if (since) params.set("since", since);
     const url = `/api/leads?${params.toString()}`;
     const poll = () => {
-      if (document.visibilityState === "visible") void load.current(url);
+      if (document.visibilityState === "visible") load(url);
     };
     const timer = window.setInterval(poll, POLL_MS);
     window.addEventListener("focus", poll);

@@ -2,7 +2,6 @@ import { Link } from "react-router";
 import type { Route } from "./+types/app-jobs";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { STAFF_ROLES } from "~/db/enums";
-import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
 import { listWonJobs } from "~/lib/leads/won-jobs.server";
 import { currentVersion } from "~/lib/leads/lead-workspace.server";

@@ -1,4 +1,5 @@
-import { useEffect, useRef, useState } from "react";
+import { useRef } from "react";
+import { useHydrated } from "~/components/use-browser-value";
 import { data, Form, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/configurator";
 import { DesignControls } from "~/components/configurator/design-controls";
@@ -56,9 +57,8 @@ export function shouldRevalidate({ formAction, formMethod, defaultShouldRevalida
 
 export default function ConfiguratorRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { company, catalog, factors } = loaderData;
-  const [isHydrated, setIsHydrated] = useState(false);
+  const isHydrated = useHydrated();
   const priceRef = useRef<HTMLDivElement>(null);
-  useEffect(() => setIsHydrated(true), []);
   const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({
     initial: loaderData,
     companySlug: company.slug,

@@ -1,4 +1,4 @@
-import { useEffect, useRef } from "react";
+import { useEffect, useEffectEvent, useRef } from "react";
 import { data, Form, Link, redirect, useFetcher, useNavigation, type ShouldRevalidateFunctionArgs } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/consult";
@@ -72,12 +72,11 @@ const leaveSchema = z.object({ bookingId: z.coerce.number({ error: "Booking must
 function useLeaveCheckout(bookingId: number | null) {
   const fetcher = useFetcher();
   const sent = useRef<number | null>(null);
-  const submit = useRef(fetcher.submit);
-  submit.current = fetcher.submit;
+  const leave = useEffectEvent((id: number) => void fetcher.submit({ intent: "leave", bookingId: String(id) }, { method: "post" }));
   useEffect(() => {
     if (bookingId === null || sent.current === bookingId) return;
     sent.current = bookingId;
-    void submit.current({ intent: "leave", bookingId: String(bookingId) }, { method: "post" });
+    leave(bookingId);
   }, [bookingId]);
 }
 

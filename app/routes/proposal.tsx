@@ -15,6 +15,7 @@ import { env } from "~/lib/platform/env.server";
 import { formatMoney } from "~/lib/format/money";
 import { jobTotalsFor } from "~/lib/proposals/change-orders.server";
 import { describeDeposit } from "~/lib/proposals/proposal-document";
+import { chosenAddOnsSchema } from "~/lib/proposals/proposal-schema";
 import { DepositCheckoutError, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { countsAsOpen, findProposalByToken, linkStateOf } from "~/lib/proposals/proposals.server";
@@ -44,7 +45,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const company = await getCompany(proposal.companyId);
   // Drawn from the inputs stored with the proposal, never today's catalog.
   const { design, plan } = readStoredPlan({ designJson: proposal.designJson, planJson: proposal.planJson });
-  const chosen = proposal.chosenAddOnsJson ? (JSON.parse(proposal.chosenAddOnsJson) as string[]) : [];
+  const chosen = proposal.chosenAddOnsJson ? chosenAddOnsSchema.parse(JSON.parse(proposal.chosenAddOnsJson)) : [];
   const url = new URL(request.url);
   const totals = proposal.kind === "proposal" && state === "signed" ? await jobTotalsFor(proposal) : null;
   return {

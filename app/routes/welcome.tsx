@@ -1,9 +1,10 @@
-import { useEffect, useState } from "react";
+import { useEffect, useEffectEvent } from "react";
 import { data, Form, redirect, useFetcher, useNavigation } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/welcome";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { PublicShell } from "~/components/public-shell";
+import { useBrowserValue } from "~/components/use-browser-value";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth/password.server";
 import { endAllSessions, startSession } from "~/lib/auth/session.server";
@@ -17,6 +18,14 @@ export const meta: Route.MetaFunction = () => [{ title: "Set your password · Em
  */
 
 const DEAD_LINK = "This link has been used or has expired.";
+
+function readFragment(): string {
+  try {
+    return decodeURIComponent(window.location.hash.slice(1));
+  } catch {
+    return "";
+  }
+}
 
 const tokenField = z.string({ error: DEAD_LINK }).min(1, DEAD_LINK).max(200, DEAD_LINK);
 
@@ -91,18 +100,17 @@ function DeadLink() {
 }
 
 export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
-  const [token, setToken] = useState<string | null>(null);
+  // null until the browser has read the fragment; "" when there is none (or it is garbled).
+  const token = useBrowserValue<string | null>(readFragment, null);
   const check = useFetcher<WelcomeAnswer>();
   const confirm = useFetcher<WelcomeAnswer>();
   const navigation = useNavigation();
+  const checkToken = useEffectEvent((value: string) => void check.submit({ intent: "check", token: value }, { method: "post" }));
   useEffect(() => {
-    const fromFragment = decodeURIComponent(window.location.hash.slice(1));
-    setToken(fromFragment);
-    if (fromFragment) void check.submit({ intent: "check", token: fromFragment }, { method: "post" });
-    // Run once, on arrival: the fragment is the link.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, []);
-  const errors: Record<string, string> = (actionData as WelcomeAnswer | undefined)?.errors ?? {};
+    // Once, on arrival: the fragment is the link.
+    if (token) checkToken(token);
+  }, [token]);
+  const errors: Record<string, string> = actionData?.errors ?? {};
   const person = check.data?.person;
   const isChecking = token === null || (token !== "" && !check.data);
 

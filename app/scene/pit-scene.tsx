@@ -9,7 +9,7 @@
  */
 import { OrbitControls } from "@react-three/drei";
 import { Canvas, useFrame, useThree } from "@react-three/fiber";
-import { useEffect, useLayoutEffect, useMemo, useRef, type ComponentRef } from "react";
+import { useEffect, useEffectEvent, useLayoutEffect, useMemo, useRef, useState, type ComponentRef } from "react";
 import {
   CanvasTexture,
   CircleGeometry,
@@ -27,7 +27,7 @@ import {
   Vector3,
   type BufferGeometry,
   type InstancedMesh,
-  type PerspectiveCamera,
+  PerspectiveCamera,
 } from "three";
 import {
   FALLBACK_COLOURS,
@@ -252,10 +252,12 @@ function PitParts({ input }: { input: PitSceneInput }) {
   paverTexture.repeat.setScalar((2 * Math.max(fieldRadiusIn, 1)) / PAVER_TILE_IN);
 
   const steel = input.liner.kind === "steel-ring" ? input.liner : null;
+  const steelRadiusIn = steel ? steel.outsideDiameterIn / 2 : 1;
+  const steelHeightIn = steel ? steel.heightIn : 1;
   const steelGeometry = useDisposable(
     useMemo(
-      () => new CylinderGeometry(steel ? steel.outsideDiameterIn / 2 : 1, steel ? steel.outsideDiameterIn / 2 : 1, steel ? steel.heightIn : 1, 96, 1, true),
-      [steel?.outsideDiameterIn, steel?.heightIn],
+      () => new CylinderGeometry(steelRadiusIn, steelRadiusIn, steelHeightIn, 96, 1, true),
+      [steelRadiusIn, steelHeightIn],
     ),
   );
 
@@ -326,13 +328,16 @@ function PitParts({ input }: { input: PitSceneInput }) {
 /** Puts the camera where `frameCamera` says: on mount, on reset, and when the pit grows or shrinks a lot. */
 function CameraRig({ input, resetSignal }: { input: PitSceneInput; resetSignal: number }) {
   const controlsRef = useRef<ComponentRef<typeof OrbitControls>>(null);
-  const camera = useThree((state) => state.camera) as PerspectiveCamera;
-  const size = useThree((state) => state.size);
-  const invalidate = useThree((state) => state.invalidate);
+  // The camera is three.js's own object, moved in place; it is read from the store when framing
+  // (in effects), never during render.
+  const getThree = useThree((state) => state.get);
   const framedExtent = useRef(0);
   const extent = measurePit(input).extentRadiusIn;
 
-  const frame = () => {
+  const frame = useEffectEvent(() => {
+    const { camera, size, invalidate } = getThree();
+    // The Canvas makes a perspective camera (it is given a field of view).
+    if (!(camera instanceof PerspectiveCamera)) return;
     const framing = frameCamera(input, size.width / Math.max(size.height, 1), camera.fov);
     camera.position.set(...framing.position);
     camera.near = framing.near;
@@ -349,9 +354,9 @@ function CameraRig({ input, resetSignal }: { input: PitSceneInput; resetSignal: 
     }
     framedExtent.current = extent;
     invalidate();
-  };
+  });
 
-  useEffect(frame, [resetSignal]);
+  useEffect(() => frame(), [resetSignal]);
   useEffect(() => {
     // Small edits (a unit more or less) keep the viewer's angle; adding a patio reframes.
     const ratio = extent / (framedExtent.current || extent);
@@ -392,8 +397,11 @@ function RenderAndReport({ onReady }: { onReady?: (stats: PitSceneStats) => void
 export default function PitScene({ input, onReady, resetSignal = 0, className, description }: PitSceneProps) {
   // Parents often rebuild the input object on every render; only a real change should redraw.
   const inputKey = JSON.stringify(input);
-  const stableInput = useMemo(() => JSON.parse(inputKey) as PitSceneInput, [inputKey]);
-  const initial = useMemo(() => frameCamera(stableInput, 4 / 3, FOV_DEG), []);
+  const [stable, setStable] = useState({ key: inputKey, input });
+  if (stable.key !== inputKey) setStable({ key: inputKey, input });
+  const stableInput = stable.input;
+  // The Canvas reads its camera settings once, when it is created; CameraRig moves the camera after.
+  const [initial] = useState(() => frameCamera(stableInput, 4 / 3, FOV_DEG));
 
   return (
     <div className={className ?? "h-full w-full"}>

@@ -1,11 +1,27 @@
-import { createHash, randomUUID } from "node:crypto";
+import { randomUUID } from "node:crypto";
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
-import type { AddressInfo } from "node:net";
 import { resolve } from "node:path";
 import { pathToFileURL } from "node:url";
 import { renderInboxPage, renderMessagePage, renderNotFoundPage, type FailureSummary } from "./inbox-html";
 import { MessageStore, type StoredMessage } from "./store";
 import { MAX_BATCH_SIZE, parseEmailPayload, type ApiError, type ApiErrorName, type ParsedEmail } from "./validate";
+import { activeFailure, takeFailure, type FailurePlan } from "../shared/failures";
+import {
+  BodyTooLargeError,
+  bearerKey,
+  closeServer,
+  envInt,
+  InvalidJsonError,
+  isJsonObject,
+  listen,
+  matchEndpoint,
+  parseJsonBody,
+  readBody,
+  sendHtml,
+  sendJson,
+  type Endpoint,
+} from "../shared/http";
+import { checkIdempotency, fingerprintBody } from "../shared/idempotency";
 
 export interface EmailFakeOptions {
   /** 0 picks a free port; read the real one back from the result. Default 4010. */
@@ -34,11 +50,8 @@ const MAX_IDEMPOTENCY_KEY_LENGTH = 256;
 const DEFAULT_PORT = 4010;
 const DEFAULT_HOST = "127.0.0.1";
 
-interface FailMode {
-  /** Sends left to fail, or null when failing by time. */
-  remaining: number | null;
-  /** Epoch milliseconds when a timed failure ends, or null when failing by count. */
-  untilMs: number | null;
+/** Failures armed through /_fake/fail, answered with `status`. */
+interface FailMode extends FailurePlan {
   status: number;
 }
 
@@ -62,65 +75,28 @@ const HTML_HEADERS = {
   "Cache-Control": "no-store",
 };
 
-function sendJson(res: ServerResponse, status: number, body: unknown, headers: Record<string, string> = {}): void {
-  const payload = JSON.stringify(body);
-  res.writeHead(status, {
-    "Content-Type": "application/json; charset=utf-8",
-    "Content-Length": Buffer.byteLength(payload),
-    "Cache-Control": "no-store",
-    ...headers,
-  });
-  res.end(payload);
-}
-
 function sendError(res: ServerResponse, error: ApiError, headers: Record<string, string> = {}): void {
   sendJson(res, error.statusCode, { statusCode: error.statusCode, name: error.name, message: error.message }, headers);
 }
 
-function sendHtml(res: ServerResponse, status: number, html: string): void {
-  res.writeHead(status, { ...HTML_HEADERS, "Content-Length": Buffer.byteLength(html) });
-  res.end(html);
-}
-
-async function readBody(req: IncomingMessage): Promise<string> {
-  const chunks: Buffer[] = [];
-  let total = 0;
-  for await (const chunk of req as AsyncIterable<Buffer>) {
-    total += chunk.length;
-    if (total > MAX_BODY_BYTES) {
-      throw apiError(413, "validation_error", "The request body is larger than 40 MB; send large files by `path` instead.");
-    }
-    chunks.push(chunk);
-  }
-  return Buffer.concat(chunks).toString("utf8");
+function sendPage(res: ServerResponse, status: number, html: string): void {
+  sendHtml(res, status, html, HTML_HEADERS);
 }
 
 async function readJson(req: IncomingMessage): Promise<unknown> {
-  const raw = await readBody(req);
-  if (raw.trim() === "") return undefined;
   try {
-    return JSON.parse(raw);
-  } catch {
-    throw apiError(400, "validation_error", "The request body is not valid JSON.");
+    return parseJsonBody(await readBody(req, MAX_BODY_BYTES));
+  } catch (error) {
+    if (error instanceof BodyTooLargeError) {
+      throw apiError(413, "validation_error", "The request body is larger than 40 MB; send large files by `path` instead.");
+    }
+    if (error instanceof InvalidJsonError) throw apiError(400, "validation_error", "The request body is not valid JSON.");
+    throw error;
   }
-}
-
-/** JSON with object keys sorted, so two bodies that differ only in key order hash the same. */
-function canonicalJson(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map(canonicalJson).join(",")}]`;
-  if (value && typeof value === "object") {
-    const entries = Object.entries(value as Record<string, unknown>)
-      .filter(([, item]) => item !== undefined)
-      .sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
-    return `{${entries.map(([key, item]) => `${JSON.stringify(key)}:${canonicalJson(item)}`).join(",")}}`;
-  }
-  return JSON.stringify(value) ?? "null";
 }
 
 function requireApiKey(req: IncomingMessage, expectedKey: string | undefined): void {
-  const header = req.headers.authorization?.trim() ?? "";
-  const match = /^Bearer\s+(\S+)$/i.exec(header);
-  const key = match?.[1];
+  const key = bearerKey(req);
   // "undefined" or "null" is a caller's stringified missing environment variable, not a key.
   if (!key || key === "undefined" || key === "null") {
     throw apiError(401, "missing_api_key", "Missing API key in the authorization header: send `Authorization: Bearer re_...`.");
@@ -171,10 +147,10 @@ function toRetrievedEmail(message: StoredMessage): Record<string, unknown> {
 }
 
 function parseFailMode(body: unknown, nowMs: number): FailMode {
-  if (!body || typeof body !== "object" || Array.isArray(body)) {
+  if (!isJsonObject(body)) {
     throw apiError(400, "validation_error", 'Send a JSON object: { "count": N } or { "forMs": N }, optionally with "status".');
   }
-  const { count, forMs, status = 503 } = body as Record<string, unknown>;
+  const { count, forMs, status = 503 } = body;
   if ((count === undefined) === (forMs === undefined)) {
     throw apiError(400, "validation_error", "Give exactly one of `count` (next N sends fail) or `forMs` (sends fail for N ms).");
   }
@@ -193,6 +169,58 @@ function parseFailMode(body: unknown, nowMs: number): FailMode {
   return { remaining: null, untilMs: nowMs + forMs, status };
 }
 
+type SendEndpoint = "emails" | "emails/batch";
+
+/** The messages one send makes and the service's answer to it. */
+type SendResult = { messages: StoredMessage[]; response: unknown };
+
+/** One send: validates the body and makes the messages it asks for (nothing is stored yet). */
+type MakeMessages = (body: unknown, req: IncomingMessage, build: (email: ParsedEmail) => StoredMessage) => SendResult;
+
+const makeOne: MakeMessages = (body, _req, build) => {
+  const parsed = parseEmailPayload(body, { isBatch: false });
+  if (!parsed.ok) throw new HttpError(parsed.error);
+  const message = build(parsed.email);
+  return { messages: [message], response: { id: message.id } };
+};
+
+const makeBatch: MakeMessages = (body, req, build) => {
+  const mode = String(req.headers["x-batch-validation"] ?? "strict");
+  if (mode !== "strict" && mode !== "permissive") {
+    throw apiError(422, "validation_error", "Invalid `x-batch-validation` header: use `strict` or `permissive`.");
+  }
+  if (!Array.isArray(body)) throw apiError(422, "validation_error", "The batch body must be a JSON array of e-mails.");
+  if (body.length < 1 || body.length > MAX_BATCH_SIZE) {
+    throw apiError(422, "validation_error", `A batch holds 1 to ${MAX_BATCH_SIZE} e-mails; ${body.length} given.`);
+  }
+  const messages: StoredMessage[] = [];
+  const errors: { index: number; message: string }[] = [];
+  for (const [index, item] of body.entries()) {
+    const parsed = parseEmailPayload(item, { isBatch: true });
+    if (parsed.ok) {
+      messages.push(build(parsed.email));
+    } else if (mode === "strict") {
+      throw apiError(parsed.error.statusCode, parsed.error.name, `E-mail at index ${index}: ${parsed.error.message}`);
+    } else {
+      errors.push({ index, message: parsed.error.message });
+    }
+  }
+  const data = messages.map((message) => ({ id: message.id }));
+  return { messages, response: mode === "permissive" ? { data, errors } : { data } };
+};
+
+interface RequestContext {
+  req: IncomingMessage;
+  res: ServerResponse;
+  url: URL;
+  /** The path's parameters, decoded. */
+  params: string[];
+}
+
+interface EmailEndpoint extends Endpoint {
+  handle: (ctx: RequestContext) => void | Promise<void>;
+}
+
 /**
  * Starts the local stand-in for the Resend API plus its web inbox. Resolves once listening;
  * `close()` stops it and drops open keep-alive connections.
@@ -204,15 +232,13 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
   let failMode: FailMode | null = null;
   let baseUrl = "";
 
-  function activeFailMode(nowMs: number): FailMode | null {
-    if (!failMode) return null;
-    if (failMode.remaining !== null && failMode.remaining <= 0) failMode = null;
-    else if (failMode.untilMs !== null && nowMs >= failMode.untilMs) failMode = null;
+  function currentFailMode(nowMs: number): FailMode | null {
+    failMode = activeFailure(failMode, nowMs);
     return failMode;
   }
 
   function describeFailMode(): Record<string, unknown> {
-    const mode = activeFailMode(now());
+    const mode = currentFailMode(now());
     if (!mode) return { failing: false };
     return {
       failing: true,
@@ -222,7 +248,7 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
   }
 
   function summariseFailMode(): FailureSummary {
-    const mode = activeFailMode(now());
+    const mode = currentFailMode(now());
     if (!mode) return { isActive: false, description: "" };
     const scope =
       mode.remaining !== null
@@ -233,75 +259,37 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
 
   /** Throws the simulated outage error when a failure is armed, using up one counted failure. */
   function maybeFailSend(): void {
-    const mode = activeFailMode(now());
-    if (!mode) return;
-    if (mode.remaining !== null) mode.remaining -= 1;
+    const nowMs = now();
+    const mode = currentFailMode(nowMs);
+    if (!mode || !takeFailure(mode, nowMs)) return;
     if (mode.status === 429) {
       throw apiError(429, "rate_limit_exceeded", "Too many requests (simulated by the local e-mail fake); retry later.");
     }
     throw apiError(mode.status, "application_error", "The e-mail service is unavailable (simulated by the local e-mail fake); retry later.");
   }
 
-  function buildMessage(email: ParsedEmail, idempotencyKey: string | null, endpoint: string, createdAt: string): StoredMessage {
-    return { id: randomUUID(), created_at: createdAt, ...email, idempotency_key: idempotencyKey, endpoint };
-  }
-
-  async function handleSend(req: IncomingMessage, res: ServerResponse, endpoint: "emails" | "emails/batch"): Promise<void> {
+  /** A send: body, injected failure, key, idempotency replay, then the messages `make` builds, stored together. */
+  async function handleSend(req: IncomingMessage, res: ServerResponse, endpoint: SendEndpoint, make: MakeMessages): Promise<void> {
     const body = await readJson(req);
     maybeFailSend();
     requireApiKey(req, options.apiKey);
     const idempotencyKey = readIdempotencyKey(req);
     const nowMs = now();
-    const bodyHash = createHash("sha256").update(canonicalJson(body)).digest("hex");
+    const bodyHash = fingerprintBody(body);
 
     if (idempotencyKey) {
       const previous = store.findIdempotency(idempotencyKey, nowMs);
-      if (previous) {
-        if (previous.endpoint !== endpoint || previous.bodyHash !== bodyHash) {
-          throw apiError(409, "invalid_idempotent_request", "Same idempotency key used with a different request payload.");
-        }
-        sendJson(res, 200, previous.response);
-        return;
+      const check = checkIdempotency(previous && { endpoint: previous.endpoint, fingerprint: previous.bodyHash }, { endpoint, fingerprint: bodyHash });
+      if (check === "conflict") {
+        throw apiError(409, "invalid_idempotent_request", "Same idempotency key used with a different request payload.");
       }
+      if (previous && check === "replay") return sendJson(res, 200, previous.response);
     }
 
     const createdAt = new Date(nowMs).toISOString();
-    let messages: StoredMessage[];
-    let response: unknown;
-    if (endpoint === "emails") {
-      const parsed = parseEmailPayload(body, { isBatch: false });
-      if (!parsed.ok) throw new HttpError(parsed.error);
-      messages = [buildMessage(parsed.email, idempotencyKey, endpoint, createdAt)];
-      response = { id: messages[0].id };
-    } else {
-      const mode = String(req.headers["x-batch-validation"] ?? "strict");
-      if (mode !== "strict" && mode !== "permissive") {
-        throw apiError(422, "validation_error", "Invalid `x-batch-validation` header: use `strict` or `permissive`.");
-      }
-      if (!Array.isArray(body)) throw apiError(422, "validation_error", "The batch body must be a JSON array of e-mails.");
-      if (body.length < 1 || body.length > MAX_BATCH_SIZE) {
-        throw apiError(422, "validation_error", `A batch holds 1 to ${MAX_BATCH_SIZE} e-mails; ${body.length} given.`);
-      }
-      messages = [];
-      const errors: { index: number; message: string }[] = [];
-      for (const [index, item] of body.entries()) {
-        const parsed = parseEmailPayload(item, { isBatch: true });
-        if (parsed.ok) {
-          messages.push(buildMessage(parsed.email, idempotencyKey, endpoint, createdAt));
-        } else if (mode === "strict") {
-          throw apiError(parsed.error.statusCode, parsed.error.name, `E-mail at index ${index}: ${parsed.error.message}`);
-        } else {
-          errors.push({ index, message: parsed.error.message });
-        }
-      }
-      const data = messages.map((message) => ({ id: message.id }));
-      response = mode === "permissive" ? { data, errors } : { data };
-    }
-
-    store.add(
-      messages,
-      idempotencyKey ? { key: idempotencyKey, endpoint, bodyHash, createdAtMs: nowMs, response } : undefined,
-    );
+    const build = (email: ParsedEmail): StoredMessage => ({ id: randomUUID(), created_at: createdAt, ...email, idempotency_key: idempotencyKey, endpoint });
+    const { messages, response } = make(body, req, build);
+    store.add(messages, idempotencyKey ? { key: idempotencyKey, endpoint, bodyHash, createdAtMs: nowMs, response } : undefined);
     sendJson(res, 200, response);
   }
 
@@ -323,79 +311,106 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
     return true;
   }
 
+  // The service's API: a known path with another method is a 405.
+  const api: EmailEndpoint[] = [
+    { method: "POST", pattern: /^\/emails$/, handle: ({ req, res }) => handleSend(req, res, "emails", makeOne) },
+    { method: "POST", pattern: /^\/emails\/batch$/, handle: ({ req, res }) => handleSend(req, res, "emails/batch", makeBatch) },
+    {
+      method: "GET",
+      pattern: /^\/emails\/(?!batch$)([^/]+)$/,
+      handle: ({ req, res, params: [id] }) => {
+        requireApiKey(req, options.apiKey);
+        const message = store.get(id!);
+        if (!message) throw apiError(404, "not_found", "Email not found.");
+        sendJson(res, 200, toRetrievedEmail(message));
+      },
+    },
+  ];
+
+  // Test controls (fakes/email/README.md).
+  const controls: EmailEndpoint[] = [
+    {
+      method: "GET",
+      pattern: /^\/_fake\/messages$/,
+      handle: ({ res, url }) => sendJson(res, 200, store.list({ to: url.searchParams.get("to") ?? undefined }).map((m) => toPublicMessage(m, false))),
+    },
+    { method: "DELETE", pattern: /^\/_fake\/messages$/, handle: ({ res }) => sendJson(res, 200, { deleted: store.clear() }) },
+    {
+      method: "GET",
+      pattern: /^\/_fake\/messages\/([^/]+)$/,
+      handle: ({ res, params: [id] }) => {
+        const message = store.get(id!);
+        if (!message) throw apiError(404, "not_found", "No message with that id.");
+        sendJson(res, 200, toPublicMessage(message, true));
+      },
+    },
+    {
+      method: "GET",
+      pattern: /^\/_fake\/messages\/([^/]+)\/attachments\/([^/]+)$/,
+      handle: ({ res, params: [id, index] }) => {
+        if (!sendAttachment(res, store.get(id!), index!)) throw apiError(404, "not_found", "No such attachment.");
+      },
+    },
+    {
+      method: "POST",
+      pattern: /^\/_fake\/fail$/,
+      handle: async ({ req, res }) => {
+        failMode = parseFailMode(await readJson(req), now());
+        sendJson(res, 200, describeFailMode());
+      },
+    },
+    { method: "GET", pattern: /^\/_fake\/fail$/, handle: ({ res }) => sendJson(res, 200, describeFailMode()) },
+    {
+      method: "POST",
+      pattern: /^\/_fake\/recover$/,
+      handle: ({ res }) => {
+        failMode = null;
+        sendJson(res, 200, describeFailMode());
+      },
+    },
+  ];
+
+  // The web inbox.
+  const pages: EmailEndpoint[] = [
+    { method: "GET", pattern: /^\/$/, handle: ({ res }) => sendPage(res, 200, renderInboxPage(store.list(), baseUrl, summariseFailMode())) },
+    {
+      method: "GET",
+      pattern: /^\/m\/([^/]+)$/,
+      handle: ({ res, params: [id] }) => {
+        const message = store.get(id!);
+        if (message) sendPage(res, 200, renderMessagePage(message, baseUrl));
+        else sendPage(res, 404, renderNotFoundPage(baseUrl));
+      },
+    },
+    {
+      method: "GET",
+      pattern: /^\/m\/([^/]+)\/attachments\/([^/]+)$/,
+      handle: ({ res, params: [id, index] }) => {
+        if (!sendAttachment(res, store.get(id!), index!)) sendPage(res, 404, renderNotFoundPage(baseUrl));
+      },
+    },
+  ];
+
   async function route(req: IncomingMessage, res: ServerResponse): Promise<void> {
     const url = new URL(req.url ?? "/", "http://fake.invalid");
     const path = url.pathname.replace(/\/+$/, "") || "/";
     const method = req.method ?? "GET";
-    const segments = path.split("/").filter(Boolean).map(decodeURIComponent);
+    const run = (found: { endpoint: EmailEndpoint; params: string[] }) =>
+      found.endpoint.handle({ req, res, url, params: found.params.map(decodeURIComponent) });
 
-    if (path === "/emails" || path === "/emails/batch") {
-      if (method !== "POST") throw apiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
-      await handleSend(req, res, path === "/emails" ? "emails" : "emails/batch");
-      return;
-    }
-    if (segments[0] === "emails" && segments.length === 2) {
-      if (method !== "GET") throw apiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
-      requireApiKey(req, options.apiKey);
-      const message = store.get(segments[1]);
-      if (!message) throw apiError(404, "not_found", "Email not found.");
-      sendJson(res, 200, toRetrievedEmail(message));
-      return;
-    }
+    // A path that does not decode is refused whatever it names (URIError, answered 400 below).
+    path.split("/").forEach((segment) => decodeURIComponent(segment));
 
-    if (segments[0] === "_fake") {
-      const resource = segments.slice(1).join("/");
-      if (resource === "messages" && method === "GET") {
-        const to = url.searchParams.get("to") ?? undefined;
-        sendJson(res, 200, store.list({ to }).map((message) => toPublicMessage(message, false)));
-        return;
-      }
-      if (resource === "messages" && method === "DELETE") {
-        sendJson(res, 200, { deleted: store.clear() });
-        return;
-      }
-      if (segments[1] === "messages" && segments.length === 3 && method === "GET") {
-        const message = store.get(segments[2]);
-        if (!message) throw apiError(404, "not_found", "No message with that id.");
-        sendJson(res, 200, toPublicMessage(message, true));
-        return;
-      }
-      if (segments[1] === "messages" && segments[3] === "attachments" && segments.length === 5 && method === "GET") {
-        if (!sendAttachment(res, store.get(segments[2]), segments[4])) throw apiError(404, "not_found", "No such attachment.");
-        return;
-      }
-      if (resource === "fail" && method === "POST") {
-        failMode = parseFailMode(await readJson(req), now());
-        sendJson(res, 200, describeFailMode());
-        return;
-      }
-      if (resource === "fail" && method === "GET") {
-        sendJson(res, 200, describeFailMode());
-        return;
-      }
-      if (resource === "recover" && method === "POST") {
-        failMode = null;
-        sendJson(res, 200, describeFailMode());
-        return;
-      }
+    const inApi = matchEndpoint(api, method, path);
+    if (inApi.kind === "found") return run(inApi);
+    if (inApi.kind === "wrong-method") throw apiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
+    if (path === "/_fake" || path.startsWith("/_fake/")) {
+      const control = matchEndpoint(controls, method, path);
+      if (control.kind === "found") return run(control);
       throw apiError(404, "not_found", "Unknown control endpoint; see fakes/email/README.md.");
     }
-
-    if (method === "GET" && path === "/") {
-      sendHtml(res, 200, renderInboxPage(store.list(), baseUrl, summariseFailMode()));
-      return;
-    }
-    if (method === "GET" && segments[0] === "m" && segments.length === 2) {
-      const message = store.get(segments[1]);
-      if (message) sendHtml(res, 200, renderMessagePage(message, baseUrl));
-      else sendHtml(res, 404, renderNotFoundPage(baseUrl));
-      return;
-    }
-    if (method === "GET" && segments[0] === "m" && segments[2] === "attachments" && segments.length === 4) {
-      if (!sendAttachment(res, store.get(segments[1]), segments[3])) sendHtml(res, 404, renderNotFoundPage(baseUrl));
-      return;
-    }
-
+    const page = matchEndpoint(pages, method, path);
+    if (page.kind === "found") return run(page);
     throw apiError(404, "not_found", "The requested endpoint does not exist.");
   }
 
@@ -421,43 +436,15 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
     });
   });
 
-  await new Promise<void>((resolveListen, rejectListen) => {
-    server.once("error", rejectListen);
-    server.listen(options.port ?? DEFAULT_PORT, host, () => {
-      server.off("error", rejectListen);
-      resolveListen();
-    });
-  });
-
-  const port = (server.address() as AddressInfo).port;
+  const { port } = await listen(server, options.port ?? DEFAULT_PORT, host);
   baseUrl = `http://${host.includes(":") ? `[${host}]` : host}:${port}`;
 
-  return {
-    url: baseUrl,
-    port,
-    store,
-    close: () =>
-      new Promise<void>((resolveClose, rejectClose) => {
-        server.close((error) => (error ? rejectClose(error) : resolveClose()));
-        // The SDK's fetch keeps connections alive; without this close() would wait for them to time out.
-        server.closeAllConnections();
-      }),
-  };
-}
-
-function readPortFromEnv(): number {
-  const raw = process.env.EMAIL_FAKE_PORT;
-  if (raw === undefined || raw === "") return DEFAULT_PORT;
-  const port = Number(raw);
-  if (!Number.isInteger(port) || port < 0 || port > 65535) {
-    throw new Error(`EMAIL_FAKE_PORT must be an integer from 0 to 65535, got ${JSON.stringify(raw)}`);
-  }
-  return port;
+  return { url: baseUrl, port, store, close: () => closeServer(server) };
 }
 
 async function main(): Promise<void> {
   const fake = await startEmailFake({
-    port: readPortFromEnv(),
+    port: envInt("EMAIL_FAKE_PORT", DEFAULT_PORT, 0, 65535),
     host: process.env.EMAIL_FAKE_HOST || DEFAULT_HOST,
     dataFile: process.env.EMAIL_FAKE_DATA_FILE || undefined,
     apiKey: process.env.EMAIL_FAKE_API_KEY || undefined,

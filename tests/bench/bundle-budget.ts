@@ -2,7 +2,9 @@
  * JavaScript budget of the production build: for every page route, the gzipped size of the JS a
  * first visit loads before hydration (the route manifest, entry.client, and the module and static
  * imports of root, each layout and the route itself). Fails when a route ships three.js in that
- * initial JS, or when a route that shows no 3D goes over 150 kB gzipped.
+ * initial JS, when a route that shows no 3D goes over 150 kB gzipped, or when any client chunk
+ * carries table definitions (the ORM's table builder, or a table's name with its column names):
+ * the browser must never download the data model.
  * Run after `npm run build`: npx tsx tests/bench/bundle-budget.ts  (exit 1 on a breach)
  */
 import { readdir, readFile } from "node:fs/promises";
@@ -10,6 +12,9 @@ import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { runInNewContext } from "node:vm";
 import { gzipSync } from "node:zlib";
+import { is } from "drizzle-orm";
+import { getTableConfig, SQLiteTable } from "drizzle-orm/sqlite-core";
+import * as schema from "../../app/db/schema";
 
 /** kB here are 1000 bytes, as Vite prints them. */
 export const NON_3D_ROUTE_BUDGET_KB = 150;
@@ -33,7 +38,54 @@ export type RouteBudget = {
   breach: string | null;
 };
 
-export type BundleReport = { routes: RouteBudget[]; skipped: string[]; breaches: string[] };
+export type BundleReport = { routes: RouteBudget[]; skipped: string[]; tableChunks: TableChunk[]; breaches: string[] };
+
+/** A client chunk that carries table definitions, and what gave it away. */
+export type TableChunk = { file: string; tables: string[]; hasTableBuilder: boolean };
+
+/** A table as SQL names it: what survives minification of its definition (string literals). */
+export type TableSignature = { table: string; columns: string[] };
+
+/** Every table of app/db/schema.ts with its column names. */
+export function schemaTableSignatures(): TableSignature[] {
+  return Object.values(schema)
+    .filter((value) => is(value, SQLiteTable))
+    .map((table) => {
+      const config = getTableConfig(table);
+      return { table: config.name, columns: config.columns.map((column) => column.name) };
+    });
+}
+
+// The entity kinds drizzle's SQLite table and column classes carry as plain strings.
+const TABLE_BUILDER_SIGNATURE = /["'`]SQLite(Table|Column|ColumnBuilder)["'`]/;
+// A table counts as defined in a chunk when its name and this many of its column names (those with
+// an underscore, so an ordinary word such as "name" or "email" is never the evidence) are quoted there.
+const COLUMNS_FOR_A_TABLE = 2;
+
+/** The tables whose definitions `text` (one chunk) carries, and whether it holds the table builder. */
+export function findTableDefinitions(text: string, signatures: TableSignature[]): Omit<TableChunk, "file"> {
+  const quoted = new Set([...text.matchAll(/["'`]([a-z][a-z0-9_]*)["'`]/g)].map((m) => m[1]!));
+  const tables = signatures
+    .filter(({ table, columns }) => {
+      const telling = columns.filter((c) => c.includes("_"));
+      const needed = Math.min(COLUMNS_FOR_A_TABLE, telling.length);
+      return quoted.has(table) && needed > 0 && telling.filter((c) => quoted.has(c)).length >= needed;
+    })
+    .map((s) => s.table);
+  return { tables, hasTableBuilder: TABLE_BUILDER_SIGNATURE.test(text) };
+}
+
+/** Every .js file under `clientDir` (the client build) that carries table definitions. */
+export async function findTableChunks(clientDir: string, signatures = schemaTableSignatures()): Promise<TableChunk[]> {
+  const found: TableChunk[] = [];
+  for (const entry of await readdir(clientDir, { recursive: true, withFileTypes: true })) {
+    if (!entry.isFile() || !/\.m?js$/.test(entry.name)) continue;
+    const full = path.join(entry.parentPath, entry.name);
+    const hit = findTableDefinitions(await readFile(full, "utf8"), signatures);
+    if (hit.tables.length || hit.hasTableBuilder) found.push({ file: path.relative(clientDir, full), ...hit });
+  }
+  return found.sort((a, b) => a.file.localeCompare(b.file));
+}
 
 // Strings that only three.js's renderer carries, so a renamed or merged chunk is still caught.
 const THREE_SIGNATURE = /WebGLRenderer|WebGLRenderTarget/;
@@ -127,7 +179,12 @@ export async function checkBundles(buildDir: string): Promise<BundleReport> {
     });
   }
   routes.sort((a, b) => b.initialKb - a.initialKb);
-  return { routes, skipped, breaches: routes.flatMap((r) => (r.breach ? [r.breach] : [])) };
+  const tableChunks = await findTableChunks(clientDir);
+  const breaches = [
+    ...routes.flatMap((r) => (r.breach ? [r.breach] : [])),
+    ...tableChunks.map((c) => `${c.file} carries table definitions (${[...(c.hasTableBuilder ? ["the ORM's table builder"] : []), ...c.tables].join(", ")})`),
+  ];
+  return { routes, skipped, tableChunks, breaches };
 }
 
 function routeUrl(route: ManifestRoute, manifest: ClientManifest): string {
@@ -147,6 +204,7 @@ async function main() {
     console.log(`  ${r.breach ? "FAIL" : "ok  "} ${r.initialKb.toFixed(1).padStart(6)} kB  ${r.url} (${r.id})${lazy}`);
   }
   if (report.skipped.length) console.log(`  (no client code: ${report.skipped.join(", ")})`);
+  console.log(report.tableChunks.length ? `Client chunks with table definitions: ${report.tableChunks.length}` : "No client chunk carries table definitions.");
   if (report.breaches.length) {
     console.error(`\nOver budget:\n  ${report.breaches.join("\n  ")}`);
     process.exit(1);

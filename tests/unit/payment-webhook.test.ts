@@ -79,7 +79,7 @@ test("a signed completed event confirms the booking, marks it paid and queues th
 });
 
 test.each([
-  ["a bad signature", (payload: string) => `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}`, (p: string) => p],
+  ["a bad signature", (_payload: string) => `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}`, (p: string) => p],
   ["a stale timestamp (over 300 s old)", (payload: string) => stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET, timestamp: Math.floor(Date.now() / 1000) - 600 }), (p: string) => p],
   ["a re-serialised body", (payload: string) => stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET }), (p: string) => JSON.stringify(JSON.parse(p), null, 2)],
 ])("%s answers 400 and changes nothing", async (_label, sign, alter) => {

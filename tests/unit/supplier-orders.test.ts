@@ -25,7 +25,6 @@ let owner = "";
 let otherOwner = "";
 let companyId = 0;
 let today = "";
-const byRef = async (ref: string) => (await db.select().from(leads).where(eq(leads.ref, ref)))[0]!;
 const byName = async (name: string) => (await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.customerName, name))))[0]!;
 
 const post = (url: string, cookie: string, fields: Record<string, string | string[]>) => {

@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from "react";
+import { useRef, useState } from "react";
 import { useFetcher } from "react-router";
 import type { CompanyFactors } from "~/domain/factors";
 import type { CatalogChoice, Design } from "~/lib/design/design";
@@ -31,25 +31,40 @@ export function useLivePlan(args: {
   const fetcher = useFetcher<PublicPlan | { errors: PlanFieldError[] }>();
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const pending = useRef<Design | null>(null);
-  const latestKey = useRef<string | null>(null);
-  const sentKey = useRef<string | null>(null);
+  // The last edit's key and the key of the last design sent: an answer counts only while they match.
+  const [latestKey, setLatestKey] = useState<string | null>(null);
+  const [sentKey, setSentKey] = useState<string | null>(null);
 
-  useEffect(() => {
+  // New loader data (a revalidation, another lead) replaces the design being edited. Adjusted while
+  // rendering rather than in an effect, so the stale design is never painted.
+  const [shownInitial, setShownInitial] = useState(initial);
+  if (
+    shownInitial.design !== initial.design ||
+    shownInitial.plan !== initial.plan ||
+    shownInitial.planErrors !== initial.planErrors
+  ) {
+    setShownInitial(initial);
     setDesign(initial.design);
     setPlan(initial.plan);
     setPlanErrors(initial.planErrors);
-  }, [initial.design, initial.plan, initial.planErrors]);
-  useEffect(() => {
-    if (!fetcher.data || sentKey.current !== latestKey.current) return;
-    if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
-    else {
-      setPlan(fetcher.data);
-      setPlanErrors([]);
+  }
+  // Each priced answer is taken once, when it arrives, unless a newer edit is still waiting to go.
+  const [seenAnswer, setSeenAnswer] = useState(fetcher.data);
+  if (fetcher.data !== seenAnswer) {
+    setSeenAnswer(fetcher.data);
+    if (fetcher.data && sentKey === latestKey) {
+      if ("errors" in fetcher.data) setPlanErrors(fetcher.data.errors);
+      else {
+        setPlan(fetcher.data);
+        setPlanErrors([]);
+      }
     }
-  }, [fetcher.data]);
+  }
 
   const send = (next: Design) => {
-    sentKey.current = designToSearchParams(next).toString();
+    setSentKey(designToSearchParams(next).toString());
+    // The body is a typed plan request; React Router's JSON type does not accept optional fields,
+    // hence the cast (the server parses it with planRequestSchema).
     fetcher.submit(designToPlanRequest(next, companySlug, catalog, factors) as never, { method: "post", action: "/api/plan", encType: "application/json" });
   };
   const flush = () => {
@@ -64,7 +79,7 @@ export function useLivePlan(args: {
     if (!design) return;
     const next = { ...design, ...patch };
     setDesign(next);
-    latestKey.current = designToSearchParams(next).toString();
+    setLatestKey(designToSearchParams(next).toString());
     const local = planLocally(next, catalog, factors);
     if (local) setPlan((previous) => ({ ...local, price: previous?.price ?? null }));
     onDesignChange?.(next);

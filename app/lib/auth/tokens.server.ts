@@ -84,6 +84,26 @@ export async function findLiveToken(token: string) {
 class LinkNotLive extends Error {}
 
 /**
+ * Spends a token of one of `purposes` if it is still unused and unexpired at `now`: one conditional
+ * UPDATE, so of two uses at the same moment only one gets the row back. Null for a dead link.
+ */
+async function consumeToken(tx: Tx, token: string, purposes: Purpose[], now: string): Promise<{ userId: number; leadId: number | null } | null> {
+  const [used] = await tx
+    .update(oneTimeTokens)
+    .set({ usedAt: now })
+    .where(
+      and(
+        eq(oneTimeTokens.tokenHash, hashToken(token)),
+        isNull(oneTimeTokens.usedAt),
+        gt(oneTimeTokens.expiresAt, now),
+        inArray(oneTimeTokens.purpose, purposes),
+      ),
+    )
+    .returning({ userId: oneTimeTokens.userId, leadId: oneTimeTokens.leadId });
+  return used ?? null;
+}
+
+/**
  * Uses a token and sets the account's password in one transaction: the token is marked used only
  * if it was still unused, unexpired and its account active, and only then is the password written.
  * A second use at the same moment finds it used and changes nothing. Returns null for a dead link.
@@ -92,18 +112,7 @@ export async function setPasswordWithToken(token: string, passwordHash: string):
   try {
     return await writeTransaction(async (tx) => {
       const now = new Date().toISOString();
-      const [used] = await tx
-        .update(oneTimeTokens)
-        .set({ usedAt: now })
-        .where(
-          and(
-            eq(oneTimeTokens.tokenHash, hashToken(token)),
-            isNull(oneTimeTokens.usedAt),
-            gt(oneTimeTokens.expiresAt, now),
-            inArray(oneTimeTokens.purpose, ["set-password", "invite"]),
-          ),
-        )
-        .returning({ userId: oneTimeTokens.userId, leadId: oneTimeTokens.leadId });
+      const used = await consumeToken(tx, token, ["set-password", "invite"], now);
       if (!used) throw new LinkNotLive();
       const [user] = await tx
         .update(users)
@@ -136,19 +145,7 @@ async function attachLead(tx: Tx, leadId: number, userId: number): Promise<void>
  */
 export async function confirmRequestWithToken(token: string): Promise<{ userId: number; hasPassword: boolean } | null> {
   return writeTransaction(async (tx) => {
-    const now = new Date().toISOString();
-    const [used] = await tx
-      .update(oneTimeTokens)
-      .set({ usedAt: now })
-      .where(
-        and(
-          eq(oneTimeTokens.tokenHash, hashToken(token)),
-          isNull(oneTimeTokens.usedAt),
-          gt(oneTimeTokens.expiresAt, now),
-          eq(oneTimeTokens.purpose, "confirm-request"),
-        ),
-      )
-      .returning({ userId: oneTimeTokens.userId, leadId: oneTimeTokens.leadId });
+    const used = await consumeToken(tx, token, ["confirm-request"], new Date().toISOString());
     if (!used || used.leadId === null) return null;
     await attachLead(tx, used.leadId, used.userId);
     const [user] = await tx.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, used.userId));

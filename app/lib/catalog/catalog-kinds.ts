@@ -20,7 +20,17 @@ export const KIND_INFO: Record<CatalogKind, { label: string; plural: string; pri
   "edge-spike": { label: "Edge spike", plural: "Edge spikes", priceUnit: "each" },
 };
 
-export type DimensionKey = "faceIn" | "backIn" | "depthIn" | "heightIn" | "lengthIn" | "widthIn" | "thicknessIn" | "diameterIn";
+/** Every size a catalog item can have (inches); which ones a kind needs is in KIND_DIMENSIONS. */
+export const DIMENSION_KEYS = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"] as const;
+export type DimensionKey = (typeof DIMENSION_KEYS)[number];
+
+/** An item's sizes, null where its kind has no such size. */
+export type CatalogSizes = Record<DimensionKey, number | null>;
+
+/** The sizes of `item`, and nothing else of it. */
+export function pickSizes({ faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn }: CatalogSizes): CatalogSizes {
+  return { faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn };
+}
 
 /** `short` names the size in a one-line summary ("face 11 in · back 7 1/2 in"), in the field's own words. */
 type DimensionRule = { key: DimensionKey; label: string; short: string; hint: string; min: number; max: number };

@@ -1,4 +1,5 @@
 import type { CapInput, LinerInput, PatioInput, WallUnitInput } from "~/domain/plan";
+import type { CatalogSizes } from "~/lib/catalog/catalog-kinds";
 
 /*
  * The one mapping from a catalog item to the part the engine takes: its sizes, its name, its price
@@ -7,18 +8,10 @@ import type { CapInput, LinerInput, PatioInput, WallUnitInput } from "~/domain/p
  */
 
 /** What the mapping reads of a catalog item: a full row, or the public choice without a price. */
-export type CatalogItemSizes = {
+export type CatalogItemSizes = CatalogSizes & {
   kind: string;
   name: string;
   colourHex: string;
-  faceIn: number | null;
-  backIn: number | null;
-  depthIn: number | null;
-  heightIn: number | null;
-  lengthIn: number | null;
-  widthIn: number | null;
-  thicknessIn: number | null;
-  diameterIn: number | null;
   priceCents?: number;
 };
 

@@ -1,13 +1,11 @@
 import { z } from "zod";
 import { toSingleLine } from "~/lib/format/clean-text";
-import { CATALOG_KINDS, ORDER_UNITS, type CatalogKind } from "~/db/enums";
+import { CATALOG_KINDS, isOneOf, ORDER_UNITS } from "~/db/enums";
 import { PACK_UNITS } from "~/domain/supplier-order";
-import { KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog/catalog-kinds";
+import { DIMENSION_KEYS, KIND_DIMENSIONS, type DimensionKey } from "~/lib/catalog/catalog-kinds";
 import { fieldErrors, formId, formLength, formNumber } from "~/lib/format/form-fields";
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { formatInches } from "~/domain/units";
-
-const ALL_DIMENSIONS: DimensionKey[] = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"];
 
 /** A form field that may be left blank (or left out): blank gives `blank`, anything else must pass `schema`, whose message is kept. */
 function blankOr<T, B>(schema: z.ZodType<T, string>, blank: B) {
@@ -54,14 +52,14 @@ export type CatalogItemInput = Omit<z.output<typeof baseSchema>, "price" | Order
 export function parseCatalogForm(form: FormData):
   | { ok: true; value: CatalogItemInput }
   | { ok: false; errors: Record<string, string> } {
-  const raw = Object.fromEntries([...form.entries()].filter(([, v]) => typeof v === "string")) as Record<string, string>;
+  const raw = Object.fromEntries([...form.entries()].filter((entry): entry is [string, string] => typeof entry[1] === "string"));
   const base = baseSchema.safeParse({ ...raw, isActive: raw.isActive === "on" || raw.isActive === "true" });
   const errors: Record<string, string> = {};
   if (!base.success) {
     Object.assign(errors, fieldErrors(base.error));
   }
-  const kind = (CATALOG_KINDS as readonly string[]).includes(raw.kind ?? "") ? (raw.kind as CatalogKind) : null;
-  const dims: Partial<Record<DimensionKey, number | null>> = Object.fromEntries(ALL_DIMENSIONS.map((k) => [k, null]));
+  const kind = isOneOf(CATALOG_KINDS, raw.kind) ? raw.kind : null;
+  const dims: Partial<Record<DimensionKey, number | null>> = Object.fromEntries(DIMENSION_KEYS.map((k) => [k, null]));
   for (const rule of kind ? KIND_DIMENSIONS[kind] : []) {
     const parsed = formLength(rule.label, rule.min, rule.max).safeParse(raw[rule.key] ?? "");
     if (parsed.success) dims[rule.key] = parsed.data;

@@ -412,7 +412,7 @@ function eventMismatch(event: Stripe.Event, booking: Booking): string | null {
   const problems: string[] = [];
   // Values from the event are quoted with JSON.stringify so they cannot forge log lines.
   if (event.type === "checkout.session.completed" || event.type === "checkout.session.expired") {
-    const session = event.data.object as Stripe.Checkout.Session;
+    const session = event.data.object;
     if (!booking.checkoutSessionId || session.id !== booking.checkoutSessionId) {
       problems.push(`checkout session ${JSON.stringify(session.id)} is not the booking's (${booking.checkoutSessionId ?? "none opened"})`);
     }
@@ -423,7 +423,7 @@ function eventMismatch(event: Stripe.Event, booking: Booking): string | null {
       }
     }
   } else if (event.type === "charge.refunded") {
-    const charge = event.data.object as Stripe.Charge;
+    const charge = event.data.object;
     const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
     if (!booking.paymentIntentId || paymentIntent !== booking.paymentIntentId) {
       problems.push(`payment ${JSON.stringify(paymentIntent)} is not the booking's (${booking.paymentIntentId ?? "none"})`);
@@ -466,7 +466,7 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
     if (!booking) return "ignored";
 
     if (event.type === "checkout.session.completed") {
-      const session = event.data.object as Stripe.Checkout.Session;
+      const session = event.data.object;
       if (session.payment_status !== "paid" || booking.isPaid) return "ignored";
       const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
       if (booking.status === "held" || booking.status === "expired") {
@@ -499,7 +499,7 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
       return "applied";
     }
     if (event.type === "charge.refunded") {
-      const charge = event.data.object as Stripe.Charge;
+      const charge = event.data.object;
       const refundId = charge.refunds?.data?.[0]?.id ?? booking.refundId ?? "refunded";
       await tx
         .update(bookings)

@@ -3,6 +3,7 @@
  * Pure (the clock is passed in); time zones through the platform's Intl data, so daylight-saving
  * changes fall where the IANA database says.
  */
+import { z } from "zod";
 import { zonedDay, zonedTimeToUtc } from "~/lib/format/zoned-time";
 
 /** ISO weekday (1 = Monday … 7 = Sunday) → list of [start, end) minutes after local midnight. */
@@ -72,7 +73,9 @@ export function formatSlot(iso: string, timeZone: string): string {
 /** Parses stored weekly hours, dropping anything malformed. */
 export function parseWeeklyHours(json: string): WeeklyHours {
   try {
-    const raw = JSON.parse(json) as Record<string, unknown>;
+    const stored = z.record(z.string(), z.unknown()).safeParse(JSON.parse(json));
+    if (!stored.success) return {};
+    const raw = stored.data;
     const hours: WeeklyHours = {};
     for (const key of ["1", "2", "3", "4", "5", "6", "7"] as const) {
       const ranges = raw[key];

@@ -4,6 +4,7 @@ import { layoutTemplateSheets, LETTER_PT, PAGE_MARGIN_PT, type DrawCommand } fro
 import type { CutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { drawCapFigure, drawRingFigure } from "~/lib/cut-sheet/cut-sheet-figures";
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
+import { BOTTOM, collectPdf, CONTENT_W, ensureRoom, heading, ruleAcross, type Doc } from "~/lib/platform/pdf-layout.server";
 
 /*
  * The printable cut sheet as a PDF, made with pdfkit's built-in Helvetica (Noto where a name needs it):
@@ -12,14 +13,10 @@ import { withWideText } from "~/lib/platform/pdf-fonts.server";
  * modules (cap-template-layout, cut-sheet-figures); this file only plays them back and sets text.
  */
 
-type Doc = InstanceType<typeof PDFDocument>;
-
 const INK = "#1f1b19";
 const SOFT = "#6f655d";
 const ACCENT = "#c0501a";
 const RULE = "#d6c9b7";
-const CONTENT_W = LETTER_PT.width - 2 * PAGE_MARGIN_PT;
-const BOTTOM = LETTER_PT.height - PAGE_MARGIN_PT - 18;
 
 /** Draws commands in page points. Text is set without line breaking so it never spills onto a new page. */
 export function playCommands(doc: Doc, commands: DrawCommand[]): void {
@@ -82,21 +79,9 @@ function cullText(commands: DrawCommand[], area: { x: number; y: number; w: numb
   });
 }
 
-function ensureRoom(doc: Doc, height: number): void {
-  if (doc.y + height > BOTTOM) doc.addPage();
-}
-
 // What heading() takes: room checked, a 0.6-line gap, 13 pt type, the rule and its gap (points).
 const HEADING_H = 40;
-
-function heading(doc: Doc, text: string): void {
-  ensureRoom(doc, 40);
-  doc.moveDown(0.6);
-  doc.font("Helvetica-Bold").fontSize(13).fillColor(INK).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
-  const y = doc.y + 2;
-  doc.save().moveTo(PAGE_MARGIN_PT, y).lineTo(PAGE_MARGIN_PT + CONTENT_W, y).lineWidth(0.8).stroke(ACCENT).restore();
-  doc.y = y + 5;
-}
+const HEADING = { room: HEADING_H, gapLines: 0.6, size: 13, ink: INK, accent: ACCENT };
 
 type TableRow = { label: string; value: string };
 
@@ -117,18 +102,18 @@ function headedTable(doc: Doc, title: string, rows: TableRow[], labelW = 140): v
   const heights = rows.map((row) => rowHeight(doc, row, labelW) + 3);
   const total = heights.reduce((sum, h) => sum + h, 0) + HEADING_H;
   if (doc.y + total > BOTTOM && total <= BOTTOM - PAGE_MARGIN_PT) doc.addPage();
-  heading(doc, title);
+  heading(doc, title, HEADING);
   rows.forEach((row, i) => {
     const h = heights[i]! - 3;
     if (doc.y + h + 5 > BOTTOM) {
       doc.addPage();
-      heading(doc, `${title} (continued)`);
+      heading(doc, `${title} (continued)`, HEADING);
     }
     const y = doc.y;
     doc.font("Helvetica-Bold").fontSize(9.5).fillColor(INK).text(row.label, PAGE_MARGIN_PT, y, { width: labelW });
     doc.font("Helvetica").fontSize(9.5).fillColor(INK).text(row.value, PAGE_MARGIN_PT + labelW + 8, y, { width: valueW });
     doc.y = y + h + 3;
-    doc.save().moveTo(PAGE_MARGIN_PT, doc.y - 1.5).lineTo(PAGE_MARGIN_PT + CONTENT_W, doc.y - 1.5).lineWidth(0.3).stroke(RULE).restore();
+    ruleAcross(doc, doc.y - 1.5, RULE, 0.3);
   });
 }
 
@@ -148,12 +133,7 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
       Subject: "Cut list, material order and full-size cap template",
     },
   }));
-  const chunks: Buffer[] = [];
-  doc.on("data", (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on("end", () => resolve(Buffer.concat(chunks)));
-    doc.on("error", reject);
-  });
+  const done = collectPdf(doc);
 
   doc.font("Helvetica-Bold").fontSize(9).fillColor(ACCENT).text("CUT SHEET", PAGE_MARGIN_PT, PAGE_MARGIN_PT, { characterSpacing: 1.5 });
   doc.font("Helvetica-Bold").fontSize(20).fillColor(INK).text(sheet.customerName, { width: CONTENT_W });
@@ -179,7 +159,7 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
     90,
   );
 
-  heading(doc, "Safety on site");
+  heading(doc, "Safety on site", HEADING);
   for (const caution of sheet.cautions) {
     doc.font("Helvetica").fontSize(9.5);
     const h = doc.heightOfString(caution.message, { width: CONTENT_W - 12 });

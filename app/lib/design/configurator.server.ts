@@ -1,6 +1,7 @@
 import type { CatalogItem } from "~/db/schema";
 import { resolveFactors, type CompanyFactors } from "~/domain/factors";
 import type { Plan } from "~/domain/plan";
+import { pickSizes } from "~/lib/catalog/catalog-kinds";
 import type { CatalogChoice, Design } from "~/lib/design/design";
 import { designToPlanRequest, type SummaryLine } from "~/lib/design/design-plan";
 import { formatPlanErrors, planRequestSchema, type PlanFieldError } from "~/lib/design/plan-schema";
@@ -9,8 +10,8 @@ import { STORED_PLAN_VERSION, type StoredPlanRecord } from "~/lib/design/stored-
 
 /** A catalog item as the public configurator sees it: sizes and colours, never prices. */
 export function toCatalogChoice(item: CatalogItem): CatalogChoice {
-  const { id, kind, name, colourName, colourHex, faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn } = item;
-  return { id, kind, name, colourName, colourHex, faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn };
+  const { id, kind, name, colourName, colourHex } = item;
+  return { id, kind, name, colourName, colourHex, ...pickSizes(item) };
 }
 
 export type DesignPlan =

@@ -1,3 +1,4 @@
+import type { CatalogSizes } from "~/lib/catalog/catalog-kinds";
 import { bowlDiameterForCount, MAX_COURSES, MIN_UNITS_PER_COURSE, type WallUnitSize } from "~/domain/ring";
 
 /*
@@ -34,20 +35,12 @@ export type Design = {
 };
 
 /** What the configurator needs to know of a catalog item (no prices). */
-export type CatalogChoice = {
+export type CatalogChoice = CatalogSizes & {
   id: number;
   kind: string;
   name: string;
   colourName: string;
   colourHex: string;
-  faceIn: number | null;
-  backIn: number | null;
-  depthIn: number | null;
-  heightIn: number | null;
-  lengthIn: number | null;
-  widthIn: number | null;
-  thicknessIn: number | null;
-  diameterIn: number | null;
 };
 
 export const OVERHANG_STEP_IN = 0.25;

@@ -2,7 +2,7 @@ import { and, asc, eq, inArray, isNull, lt, lte, or, sql } from "drizzle-orm";
 import { companies, emailOutbox } from "~/db/schema";
 import { senderHeaders } from "~/lib/platform/email-headers";
 import { db as defaultDb, type Db } from "~/lib/platform/db.server";
-import { resend, type OutboxAttachment } from "~/lib/platform/email.server";
+import { outboxAttachmentsSchema, resend } from "~/lib/platform/email.server";
 import { env } from "~/lib/platform/env.server";
 import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, WORKER_ID, type Backoff } from "~/lib/jobs/jobs.server";
 
@@ -58,7 +58,8 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
         // Its last worker stopped mid-send (the lease lapsed) and it has no tries left.
         failure = { status: null, message: "no tries left after the worker stopped mid-send" };
       } else {
-        const attachments = JSON.parse(row.attachmentsJson) as OutboxAttachment[];
+        // A row that does not parse fails like any other send (a ZodError, caught below), never as a half-read attachment.
+        const attachments = outboxAttachmentsSchema.parse(JSON.parse(row.attachmentsJson));
         const sender = senderHeaders({ sendingFrom: env.EMAIL_FROM, company: senders.find((c) => c.id === row.companyId) ?? null, to: row.toAddress });
         const { data, error } = await client.emails.send(
           {

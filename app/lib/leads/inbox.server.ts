@@ -1,6 +1,6 @@
 import { and, count, eq, gt, gte, inArray, isNull, lt, or, sql, type SQL, type SQLWrapper } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
-import { LEAD_STATUSES, bookings, leadRevisions, leads, users, type LeadStatus } from "~/db/schema";
+import { LEAD_STATUSES, bookings, leadRevisions, leads, users } from "~/db/schema";
 import { toCsv } from "~/lib/format/csv";
 import { db } from "~/lib/platform/db.server";
 import { INBOX_PAGE_SIZE, inboxSearchParams, type InboxFilters, type InboxPage, type InboxRow, type InboxSort } from "~/lib/leads/inbox-options";
@@ -156,7 +156,7 @@ export async function loadInboxPage(args: {
       .where(unseenSince ? and(eq(leads.companyId, companyId), gt(leads.createdAt, unseenSince)) : eq(leads.companyId, companyId)),
   ]);
   const consults = await findConsults(rows.map((r) => r.id));
-  const total = filters.status ? counts[filters.status as LeadStatus] : counts.all;
+  const total = filters.status ? counts[filters.status] : counts.all;
   return {
     query: inboxSearchParams(filters).toString(),
     filters,

@@ -1,4 +1,4 @@
-import { JOB_STEPS, SIGNED_STAGES, type BuildWindow, type JobStep, type LeadStatus } from "~/db/enums";
+import { isOneOf, JOB_STEPS, SIGNED_STAGES, type BuildWindow, type JobStep, type LeadStatus } from "~/db/enums";
 
 /*
  * The job's stages in words, for the office, the homeowner and the crew, and the moves the office
@@ -68,7 +68,7 @@ export function isSignedStage(stage: LeadStatus): boolean {
 /** Where a job stands on the line of steps: a stopped job shows the step it stopped at. */
 export function stepOf(stage: LeadStatus, pausedStage: LeadStatus | null): JobStep {
   if (stage === "on-hold" || stage === "not-going-ahead") {
-    return pausedStage && (JOB_STEPS as readonly string[]).includes(pausedStage) ? (pausedStage as JobStep) : "request";
+    return isOneOf(JOB_STEPS, pausedStage) ? pausedStage : "request";
   }
   return stage;
 }

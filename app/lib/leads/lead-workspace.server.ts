@@ -3,8 +3,6 @@ import { alias } from "drizzle-orm/sqlite-core";
 import { bookings, emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/platform/db.server";
-import type { Design } from "~/lib/design/design";
-import type { SummaryLine } from "~/lib/design/design-plan";
 import { allowedMoves, isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoneyWhole } from "~/lib/format/money";
 import type { SessionUser } from "~/lib/auth/session.server";

@@ -2,13 +2,16 @@ import { render } from "@react-email/components";
 import { toSingleLine } from "~/lib/format/clean-text";
 import type { ReactElement } from "react";
 import { Resend } from "resend";
+import { z } from "zod";
 import { emailOutbox } from "~/db/schema";
 import { env } from "~/lib/platform/env.server";
 
 // Points at fakes/email when RESEND_BASE_URL is set; at the real service otherwise.
 export const resend = new Resend(env.RESEND_API_KEY, env.RESEND_BASE_URL ? { baseUrl: env.RESEND_BASE_URL } : undefined);
 
-export type OutboxAttachment = { filename: string; content: string; contentType: string };
+/** An attachment as an outbox row keeps it (content in base64); rows are parsed with this on the way out. */
+export const outboxAttachmentsSchema = z.array(z.object({ filename: z.string(), content: z.string(), contentType: z.string() }));
+export type OutboxAttachment = z.infer<typeof outboxAttachmentsSchema>[number];
 
 export type OutboxMessage = {
   idempotencyKey: string;

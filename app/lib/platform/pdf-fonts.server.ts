@@ -131,7 +131,7 @@ export function withWideText(doc: Doc): Doc {
   const isBuiltIn = (name: string) => /^(Helvetica|Times|Courier|Symbol|ZapfDingbats)/.test(name);
   const loaded = new Set<string>();
   const families = (doc as unknown as { _fontFamilies: Record<string, unknown> })._fontFamilies;
-  const use = (face: Face) => {
+  const selectFace = (face: Face) => {
     if (loaded.has(face.key)) {
       doc.font(face.key);
       return;
@@ -154,7 +154,7 @@ export function withWideText(doc: Doc): Doc {
     const runs = splitRuns(String(text ?? ""), weightOf(builtIn));
     const face = runs.find((r) => r.face)?.face;
     if (!face) return work();
-    use(face);
+    selectFace(face);
     try {
       return work();
     } finally {
@@ -165,7 +165,7 @@ export function withWideText(doc: Doc): Doc {
   doc.heightOfString = ((text: string, options?: object) => measureWith(text, () => original.heightOfString(text, options))) as Doc["heightOfString"];
   doc.widthOfString = ((text: string, options?: object) => measureWith(text, () => original.widthOfString(text, options))) as Doc["widthOfString"];
   const withFace = <T>(face: Face | null, builtIn: string, work: () => T): T => {
-    if (face) use(face);
+    if (face) selectFace(face);
     else doc.font(builtIn);
     try {
       return work();

@@ -118,7 +118,7 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
     const document = parseProposalDocument(proposal.documentJson);
 
     if (event.type === "checkout.session.completed") {
-      const session = event.data.object as Stripe.Checkout.Session;
+      const session = event.data.object;
       if (session.payment_status !== "paid") return "ignored";
       if (session.id !== proposal.checkoutSessionId || session.amount_total !== proposal.depositCents || session.currency !== "usd") {
         console.error(`deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`);
@@ -158,7 +158,7 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
       return "applied";
     }
     if (event.type === "charge.refunded") {
-      const charge = event.data.object as Stripe.Charge;
+      const charge = event.data.object;
       await tx
         .update(proposals)
         .set({ refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded", refundedAt: proposal.refundedAt ?? at, updatedAt: at })

@@ -1,7 +1,8 @@
 import PDFDocument from "pdfkit";
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
+import { collectPdf, CONTENT_W, ensureRoom, heading, ruleAcross, type Doc } from "~/lib/platform/pdf-layout.server";
 import { basePriceCents, chooseAddOns, depositCents, proposalTotalCents } from "~/domain/proposal-money";
-import { LETTER_PT, PAGE_MARGIN_PT } from "~/lib/cut-sheet/cap-template-layout";
+import { PAGE_MARGIN_PT } from "~/lib/cut-sheet/cap-template-layout";
 import { formatMoney } from "~/lib/format/money";
 import { describeDeposit, type ProposalDocument } from "~/lib/proposals/proposal-document";
 
@@ -13,8 +14,6 @@ import { describeDeposit, type ProposalDocument } from "~/lib/proposals/proposal
  * accepted PDF can be checked again later by rendering it anew.
  */
 
-export type Doc = InstanceType<typeof PDFDocument>;
-
 export type SignatureFacts = {
   name: string;
   signedAtLabel: string;
@@ -24,25 +23,12 @@ export type SignatureFacts = {
   acceptedSha256: string;
 };
 
+// Also the supplier order's colours and headings, so the documents a company sends look alike.
 export const INK = "#1f1b19";
 export const SOFT = "#574e47";
 export const ACCENT = "#b14c12";
 export const RULE = "#d6c9b7";
-export const CONTENT_W = LETTER_PT.width - 2 * PAGE_MARGIN_PT;
-const BOTTOM = LETTER_PT.height - PAGE_MARGIN_PT - 18;
-
-export function ensureRoom(doc: Doc, height: number): void {
-  if (doc.y + height > BOTTOM) doc.addPage();
-}
-
-export function heading(doc: Doc, text: string): void {
-  ensureRoom(doc, 48);
-  doc.moveDown(0.7);
-  doc.font("Helvetica-Bold").fontSize(12.5).fillColor(INK).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
-  const y = doc.y + 2;
-  doc.save().moveTo(PAGE_MARGIN_PT, y).lineTo(PAGE_MARGIN_PT + CONTENT_W, y).lineWidth(0.8).stroke(ACCENT).restore();
-  doc.y = y + 5;
-}
+export const HEADING = { room: 48, gapLines: 0.7, size: 12.5, ink: INK, accent: ACCENT };
 
 export function paragraph(doc: Doc, text: string, options: { size?: number; colour?: string; bold?: boolean } = {}): void {
   doc.font(options.bold ? "Helvetica-Bold" : "Helvetica").fontSize(options.size ?? 10);
@@ -75,7 +61,7 @@ function moneyRows(doc: Doc, rows: { label: string; cents: number; bold?: boolea
     doc.fillColor(INK).text(row.label, PAGE_MARGIN_PT, y, { width: CONTENT_W - amountW - 8 });
     doc.font(font).text(formatMoney(row.cents), PAGE_MARGIN_PT + CONTENT_W - amountW, y, { width: amountW, align: "right" });
     doc.y = y + h + 4;
-    doc.save().moveTo(PAGE_MARGIN_PT, doc.y - 2).lineTo(PAGE_MARGIN_PT + CONTENT_W, doc.y - 2).lineWidth(0.3).stroke(RULE).restore();
+    ruleAcross(doc, doc.y - 2, RULE, 0.3);
   }
 }
 
@@ -107,12 +93,7 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
       ModDate: created,
     },
   }));
-  const chunks: Buffer[] = [];
-  doc.on("data", (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on("end", () => resolve(Buffer.concat(chunks)));
-    doc.on("error", reject);
-  });
+  const done = collectPdf(doc);
 
   const head = document.letterhead;
   doc.font("Helvetica-Bold").fontSize(16).fillColor(INK).text(head.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
@@ -129,7 +110,7 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
   const figures = proposalFigures(document, options.chosenKeys);
 
   if (document.change) {
-    heading(doc, "What changes");
+    heading(doc, "What changes", HEADING);
     if (document.change.added.length) {
       paragraph(doc, "Added or changed:", { bold: true });
       bullets(doc, document.change.added);
@@ -138,7 +119,7 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
       paragraph(doc, "No longer part of the job:", { bold: true });
       bullets(doc, document.change.removed);
     }
-    heading(doc, "Price");
+    heading(doc, "Price", HEADING);
     moneyRows(doc, [
       { label: "The job as signed so far", cents: document.change.previousContractCents },
       { label: document.change.deltaCents >= 0 ? "This change adds" : "This change credits", cents: document.change.deltaCents },
@@ -146,15 +127,15 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
     ]);
     paragraph(doc, "The difference is added to (or credited against) the balance due on completion; the deposit already paid stands.", { size: 9.5, colour: SOFT });
   } else {
-    heading(doc, "The design");
+    heading(doc, "The design", HEADING);
     for (const line of document.design) paragraph(doc, `${line.label}: ${line.value}`, { size: 10 });
-    heading(doc, "Scope of work");
+    heading(doc, "Scope of work", HEADING);
     bullets(doc, document.scope);
     if (document.siteFacts.length) {
-      heading(doc, "What we measured at the site visit");
+      heading(doc, "What we measured at the site visit", HEADING);
       bullets(doc, document.siteFacts);
     }
-    heading(doc, "Price");
+    heading(doc, "Price", HEADING);
     moneyRows(doc, [
       { label: "Fixed price for the work above", cents: document.fixedPriceCents },
       ...document.allowances.map((a) => ({ label: a.label, cents: a.cents })),
@@ -163,20 +144,20 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
     ]);
     const notChosen = document.addOns.filter((a) => !figures.chosen.includes(a));
     if (notChosen.length) paragraph(doc, `Add-ons not chosen: ${notChosen.map((a) => `${a.label} (${formatMoney(a.cents)})`).join("; ")}.`, { size: 9.5, colour: SOFT });
-    heading(doc, "Payment schedule");
+    heading(doc, "Payment schedule", HEADING);
     moneyRows(doc, [
       { label: `Deposit on signing (${describeDeposit(document.deposit)})`, cents: figures.deposit },
       { label: "Balance on completion", cents: figures.total - figures.deposit },
     ]);
-    heading(doc, "Included");
+    heading(doc, "Included", HEADING);
     bullets(doc, document.included);
-    heading(doc, "Not included");
+    heading(doc, "Not included", HEADING);
     bullets(doc, document.excluded);
   }
-  heading(doc, "Codes and cautions");
+  heading(doc, "Codes and cautions", HEADING);
   bullets(doc, document.cautions);
 
-  heading(doc, "Acceptance");
+  heading(doc, "Acceptance", HEADING);
   if (options.signature) {
     const s = options.signature;
     paragraph(doc, `Signed electronically by ${s.name} on ${s.signedAtLabel} (${s.signedAtIso}).`, { bold: true });

@@ -66,3 +66,6 @@ export const withdrawSchema = z.object({
   proposalId: z.string().regex(/^\d{1,9}$/, { error: "Choose a proposal to withdraw." }).transform(Number),
   reason: z.string().trim().min(3, "Say why it is withdrawn (3 to 200 characters).").max(200, "Say why it is withdrawn (3 to 200 characters)."),
 });
+
+/** The add-on keys a homeowner chose when signing, as stored with the proposal (JSON). */
+export const chosenAddOnsSchema = z.array(z.string());

@@ -2,7 +2,8 @@ import PDFDocument from "pdfkit";
 import { PAGE_MARGIN_PT } from "~/lib/cut-sheet/cap-template-layout";
 import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
-import { ACCENT, CONTENT_W, ensureRoom, heading, INK, paragraph, RULE, SOFT, type Doc } from "~/lib/proposals/proposal-pdf.server";
+import { collectPdf, CONTENT_W, ensureRoom, heading, ruleAcross, type Doc } from "~/lib/platform/pdf-layout.server";
+import { ACCENT, HEADING, INK, paragraph, RULE, SOFT } from "~/lib/proposals/proposal-pdf.server";
 import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-orders.server";
 
 /*
@@ -24,7 +25,7 @@ function lineRow(doc: Doc, cells: [string, string, string], bold = false): void 
   doc.text(cells[1], PAGE_MARGIN_PT + itemW + 8, y, { width: QTY_W });
   doc.text(cells[2], PAGE_MARGIN_PT + CONTENT_W - WEIGHT_W, y, { width: WEIGHT_W, align: "right" });
   doc.y = y + h + 4;
-  doc.save().moveTo(PAGE_MARGIN_PT, doc.y - 2).lineTo(PAGE_MARGIN_PT + CONTENT_W, doc.y - 2).lineWidth(0.3).stroke(RULE).restore();
+  ruleAcross(doc, doc.y - 2, RULE, 0.3);
 }
 
 /** Renders the order; the same document and creation time always give the same bytes. */
@@ -37,12 +38,7 @@ export function renderSupplierOrderPdf(document: SupplierOrderDocument, createdA
       info: { Title: `Order ${document.number}`, Author: document.company.name, Creator: "Emberwright", Subject: `Supplier order to ${document.supplier.name}`, CreationDate: created, ModDate: created },
     }),
   );
-  const chunks: Buffer[] = [];
-  doc.on("data", (chunk: Buffer) => chunks.push(chunk));
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on("end", () => resolve(Buffer.concat(chunks)));
-    doc.on("error", reject);
-  });
+  const done = collectPdf(doc);
 
   const c = document.company;
   doc.font("Helvetica-Bold").fontSize(16).fillColor(INK).text(c.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
@@ -54,7 +50,7 @@ export function renderSupplierOrderPdf(document: SupplierOrderDocument, createdA
   paragraph(doc, `Please confirm by replying to ${c.email}${c.phone ? ` or calling ${c.phone}` : ""}.`, { size: 9.5, colour: SOFT });
 
   for (const drop of document.drops) {
-    heading(doc, `Deliver ${formatDeliveryDay(drop.requestedOn)} to ${drop.siteAddress}`);
+    heading(doc, `Deliver ${formatDeliveryDay(drop.requestedOn)} to ${drop.siteAddress}`, HEADING);
     paragraph(doc, drop.job, { size: 9.5, colour: SOFT });
     if (drop.accessNotes) paragraph(doc, `Access: ${drop.accessNotes}`, { size: 9.5 });
     lineRow(doc, ["Item", "Quantity", "Weight"], true);

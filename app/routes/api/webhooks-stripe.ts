@@ -25,7 +25,7 @@ export async function action({ request }: Route.ActionArgs) {
   // Deposits on proposals carry metadata.kind = "deposit" and are applied by their own handler.
   if (isDepositEvent(event)) return Response.json({ received: true, outcome: await applyDepositEvent(event) });
   if (event.type === "charge.refunded") {
-    const charge = event.data.object as Stripe.Charge;
+    const charge = event.data.object;
     const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
     if (!charge.metadata?.booking_id && paymentIntent) {
       const bookingId = await bookingIdForPaymentIntent(paymentIntent);

@@ -15,7 +15,6 @@ import {
   drawPitPlan,
   frameCamera,
   measurePit,
-  outlineBorderClosure,
   outlineBorderUnit,
   outlineCap,
   outlineClosureUnit,

@@ -24,6 +24,8 @@ function validEmail(overrides: Record<string, unknown> = {}) {
   };
 }
 
+// The fake's JSON, read field by field in the assertions below.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 async function listMessages(query = ""): Promise<Array<Record<string, any>>> {
   const response = await fetch(`${fake.url}/_fake/messages${query}`);
   expect(response.status).toBe(200);

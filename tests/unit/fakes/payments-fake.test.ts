@@ -103,6 +103,8 @@ async function waitFor<T>(read: () => T | undefined | false | Promise<T | undefi
   }
 }
 
+// The fake's JSON, read field by field in the assertions below.
+// eslint-disable-next-line @typescript-eslint/no-explicit-any
 async function control(fake: PaymentsFake, path: string, body?: unknown): Promise<{ status: number; json: any }> {
   const response = await fetch(`${fake.url}/_fake/${path}`, {
     method: body === undefined ? "GET" : "POST",
