@@ -1,7 +1,7 @@
 import { Text } from "@react-email/components";
 import { EmailShell, emailText } from "~/emails/email-shell";
 import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
-import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-orders.server";
+import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-order-document";
 
 /** To the supplier: the order in words, with the PDF and CSV attached. */
 export function SupplierOrderEmail({ document }: { document: SupplierOrderDocument }) {

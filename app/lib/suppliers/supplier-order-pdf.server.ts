@@ -4,7 +4,7 @@ import { describeOrderQuantity, formatDeliveryDay, formatPounds } from "~/lib/su
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
 import { collectPdf, CONTENT_W, ensureRoom, heading, ruleAcross, type Doc } from "~/lib/platform/pdf-layout.server";
 import { ACCENT, HEADING, INK, paragraph, RULE, SOFT } from "~/lib/proposals/proposal-pdf.server";
-import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-orders.server";
+import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-order-document";
 
 /*
  * The supplier order as a PDF, set like the proposal (built-in Helvetica, embedded Noto for names

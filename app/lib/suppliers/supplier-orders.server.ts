@@ -38,6 +38,7 @@ import { findSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, UTILITY_LABEL } from "~/lib/leads/site-visit-schema";
 import { readStoredPlan } from "~/lib/design/stored-plan";
 import { renderSupplierOrderPdf } from "~/lib/suppliers/supplier-order-pdf.server";
+import type { SupplierOrderDocument } from "~/lib/suppliers/supplier-order-document";
 import { zonedDay } from "~/lib/format/zoned-time";
 
 /*
@@ -279,15 +280,7 @@ export async function requireOrder(companyId: number, raw: string | undefined): 
 
 // ---- The document: PDF, CSV and e-mail say the same ----
 
-export type SupplierOrderDocument = {
-  number: string;
-  preparedOn: string;
-  company: { name: string; email: string; phone: string; address: string };
-  supplier: { name: string; email: string; phone: string };
-  drops: { job: string; requestedOn: string; siteAddress: string; accessNotes: string; lines: RoundedLine[]; weightLb: number }[];
-  weightLb: number;
-  unknownWeights: string[];
-};
+export type { SupplierOrderDocument };
 
 export async function buildOrderDocument(order: OrderView, preparedOn: string): Promise<SupplierOrderDocument> {
   const [company, terms] = await Promise.all([getCompany(order.companyId), getProposalTerms(order.companyId)]);

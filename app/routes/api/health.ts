@@ -1,4 +1,4 @@
-import { pingDatabase } from "~/lib/platform/db.server";
+import { pingDatabase } from "~/lib/platform/health.server";
 
 export async function loader() {
   try {
