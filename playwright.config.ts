@@ -16,7 +16,15 @@ export default defineConfig({
     trace: "retain-on-failure",
     launchOptions: {
       executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-      args: ["--no-sandbox", "--disable-gpu", "--disable-quic", "--enable-unsafe-swiftshader", "--disable-background-networking", "--disable-component-update", "--no-first-run"],
+      args: [
+        "--no-sandbox",
+        "--disable-gpu",
+        "--disable-quic",
+        "--enable-unsafe-swiftshader",
+        "--disable-background-networking",
+        "--disable-component-update",
+        "--no-first-run",
+      ],
     },
   },
   projects: [{ name: "chromium", use: { ...devices["Desktop Chrome"], channel: undefined } }],

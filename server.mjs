@@ -182,12 +182,17 @@ app.use((req, res, next) => {
   const started = performance.now();
   res.on("finish", () => {
     if (process.env.ACCESS_LOG === "off") return;
-    console.log(`${req.method} ${loggedPath(req.originalUrl)} ${res.statusCode} ${(performance.now() - started).toFixed(1)} ms`);
+    console.log(
+      `${req.method} ${loggedPath(req.originalUrl)} ${res.statusCode} ${(performance.now() - started).toFixed(1)} ms`,
+    );
   });
   next();
 });
 const clientDir = path.resolve(path.dirname(buildPath), "..", "client");
-app.use("/assets", express.static(path.join(clientDir, "assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }));
+app.use(
+  "/assets",
+  express.static(path.join(clientDir, "assets"), { immutable: true, maxAge: "1y", setHeaders: staticHeaders }),
+);
 app.use(express.static(clientDir, { maxAge: "1h", setHeaders: staticHeaders }));
 app.all("*", (req, res) => {
   handleApp(req, res).catch((error) => {
@@ -204,7 +209,8 @@ server.on("checkContinue", (req, res) => {
   const limit = hooks.bodyLimitFor(pathnameOf(req.url));
   const declared = req.headers["content-length"];
   if (declared !== undefined && Number(declared) > limit.bytes) {
-    if (process.env.ACCESS_LOG !== "off") console.log(`${req.method} ${loggedPath(req.url)} 413 (refused before 100 Continue)`);
+    if (process.env.ACCESS_LOG !== "off")
+      console.log(`${req.method} ${loggedPath(req.url)} 413 (refused before 100 Continue)`);
     void send413(req, res, limit, { bodyInFlight: false });
     return;
   }
@@ -215,6 +221,9 @@ server.on("checkContinue", (req, res) => {
 const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST;
 server.listen(port, host, () => {
-  console.log(`Emberwright listening on http://${host ?? "localhost"}:${port} (links use ${hooks.appOrigin ?? "the request's origin"})`);
+  console.log(
+    `Emberwright listening on http://${host ?? "localhost"}:${port} (links use ${hooks.appOrigin ?? "the request's origin"})`,
+  );
 });
-for (const signal of ["SIGINT", "SIGTERM"]) process.on(signal, () => server.close(() => process.exit(0)) && setTimeout(() => process.exit(0), 2000).unref());
+for (const signal of ["SIGINT", "SIGTERM"])
+  process.on(signal, () => server.close(() => process.exit(0)) && setTimeout(() => process.exit(0), 2000).unref());

@@ -14,6 +14,15 @@ export default {
   concurrency: 1,
   timeoutMS: 20_000,
   tempDirName: ".stryker-tmp",
-  ignorePatterns: ["data", "build", "reports", ".react-router", "test-results", "playwright-report", "tests/e2e", "tests/bench"],
+  ignorePatterns: [
+    "data",
+    "build",
+    "reports",
+    ".react-router",
+    "test-results",
+    "playwright-report",
+    "tests/e2e",
+    "tests/bench",
+  ],
   cleanTempDir: "always",
 };

@@ -43,14 +43,27 @@ export default function App() {
 export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   if (isRouteErrorResponse(error)) {
     if (error.status === 404) {
-      return <ProblemPage status={404} title="We could not find that page" detail="The link may be old, or the page may belong to another account." />;
+      return (
+        <ProblemPage
+          status={404}
+          title="We could not find that page"
+          detail="The link may be old, or the page may belong to another account."
+        />
+      );
     }
     const detail = typeof error.data === "string" ? error.data : error.statusText;
-    if (error.status === 403) return <ProblemPage status={403} title="This page is not open to your role" detail={detail} />;
+    if (error.status === 403)
+      return <ProblemPage status={403} title="This page is not open to your role" detail={detail} />;
     return <ProblemPage status={error.status} title="That did not work" detail={detail} />;
   }
   if (import.meta.env.DEV && error instanceof Error) {
     return <ProblemPage status={500} title="Something broke" detail={error.message} stack={error.stack} />;
   }
-  return <ProblemPage status={500} title="Something broke on our side" detail="Please try again in a moment. If it keeps happening, tell us what you were doing." />;
+  return (
+    <ProblemPage
+      status={500}
+      title="Something broke on our side"
+      detail="Please try again in a moment. If it keeps happening, tell us what you were doing."
+    />
+  );
 }

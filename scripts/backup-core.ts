@@ -45,9 +45,16 @@ export function databaseFileOf(url: string): string {
   return path.resolve(url.slice("file:".length).replace(/^\/\/(?=\/)/, ""));
 }
 
-const sha256 = async (file: string) => createHash("sha256").update(await readFile(file)).digest("hex");
+const sha256 = async (file: string) =>
+  createHash("sha256")
+    .update(await readFile(file))
+    .digest("hex");
 const sqlString = (s: string) => `'${s.replace(/'/g, "''")}'`;
-const stampOf = (date: Date) => date.toISOString().replace(/\.\d+Z$/, "Z").replace(/:/g, "-");
+const stampOf = (date: Date) =>
+  date
+    .toISOString()
+    .replace(/\.\d+Z$/, "Z")
+    .replace(/:/g, "-");
 
 async function filesUnder(dir: string): Promise<{ files: number; bytes: number }> {
   if (!existsSync(dir)) return { files: 0, bytes: 0 };
@@ -62,13 +69,17 @@ async function filesUnder(dir: string): Promise<{ files: number; bytes: number }
 }
 
 /** Integrity, migrations and row counts of a database file (opened read-only in spirit: nothing is written). */
-export async function inspectDatabase(file: string): Promise<{ integrity: string[]; migrations: { hash: string; createdAt: number }[]; rows: Manifest["rows"] }> {
+export async function inspectDatabase(
+  file: string,
+): Promise<{ integrity: string[]; migrations: { hash: string; createdAt: number }[]; rows: Manifest["rows"] }> {
   const client = createClient({ url: `file:${file}`, timeout: 5_000 });
   try {
     const integrity = (await client.execute("PRAGMA integrity_check")).rows.map((r) => String(r[0]));
     let migrations: { hash: string; createdAt: number }[] = [];
     try {
-      migrations = (await client.execute("SELECT hash, created_at FROM __drizzle_migrations ORDER BY created_at")).rows.map((r) => ({ hash: String(r.hash), createdAt: Number(r.created_at) }));
+      migrations = (
+        await client.execute("SELECT hash, created_at FROM __drizzle_migrations ORDER BY created_at")
+      ).rows.map((r) => ({ hash: String(r.hash), createdAt: Number(r.created_at) }));
     } catch {
       migrations = [];
     }
@@ -79,20 +90,35 @@ export async function inspectDatabase(file: string): Promise<{ integrity: string
         return 0;
       }
     };
-    return { integrity, migrations, rows: { companies: await count("companies"), leads: await count("leads"), leadPhotos: await count("lead_photos"), bookings: await count("bookings") } };
+    return {
+      integrity,
+      migrations,
+      rows: {
+        companies: await count("companies"),
+        leads: await count("leads"),
+        leadPhotos: await count("lead_photos"),
+        bookings: await count("bookings"),
+      },
+    };
   } finally {
     client.close();
   }
 }
 
 /** Writes a backup folder under `backupsDir` and returns its path. */
-export async function createBackup(args: { databaseUrl: string; uploadsDir: string; backupsDir: string; now?: Date }): Promise<{ folder: string; manifest: Manifest }> {
+export async function createBackup(args: {
+  databaseUrl: string;
+  uploadsDir: string;
+  backupsDir: string;
+  now?: Date;
+}): Promise<{ folder: string; manifest: Manifest }> {
   const source = databaseFileOf(args.databaseUrl);
   if (!existsSync(source)) throw new BackupError(`There is no database at ${source}.`);
   await mkdir(args.backupsDir, { recursive: true });
   const now = args.now ?? new Date();
   let folder = path.join(path.resolve(args.backupsDir), `emberwright-${stampOf(now)}`);
-  for (let n = 2; existsSync(folder); n++) folder = path.join(path.resolve(args.backupsDir), `emberwright-${stampOf(now)}-${n}`);
+  for (let n = 2; existsSync(folder); n++)
+    folder = path.join(path.resolve(args.backupsDir), `emberwright-${stampOf(now)}-${n}`);
   const partial = `${folder}.partial`;
   await rm(partial, { recursive: true, force: true });
   await mkdir(partial, { recursive: true });
@@ -107,17 +133,23 @@ export async function createBackup(args: { databaseUrl: string; uploadsDir: stri
     }
     // After the snapshot, so every photo it names is already there.
     const uploadsCopy = path.join(partial, UPLOADS_FOLDER);
-    if (existsSync(args.uploadsDir)) await cp(args.uploadsDir, uploadsCopy, { recursive: true, errorOnExist: false, force: true });
+    if (existsSync(args.uploadsDir))
+      await cp(args.uploadsDir, uploadsCopy, { recursive: true, errorOnExist: false, force: true });
     else await mkdir(uploadsCopy);
 
     const inspected = await inspectDatabase(copy);
-    if (inspected.integrity.join() !== "ok") throw new BackupError(`The copy failed its integrity check: ${inspected.integrity.slice(0, 5).join("; ")}`);
+    if (inspected.integrity.join() !== "ok")
+      throw new BackupError(`The copy failed its integrity check: ${inspected.integrity.slice(0, 5).join("; ")}`);
     const last = inspected.migrations.at(-1) ?? null;
     const manifest: Manifest = {
       format: 1,
       createdAt: now.toISOString(),
       database: { file: DB_FILE, bytes: (await stat(copy)).size, sha256: await sha256(copy) },
-      migrations: { count: inspected.migrations.length, lastHash: last?.hash ?? null, lastCreatedAt: last?.createdAt ?? null },
+      migrations: {
+        count: inspected.migrations.length,
+        lastHash: last?.hash ?? null,
+        lastCreatedAt: last?.createdAt ?? null,
+      },
       rows: inspected.rows,
       uploads: await filesUnder(uploadsCopy),
     };
@@ -131,25 +163,32 @@ export async function createBackup(args: { databaseUrl: string; uploadsDir: stri
 }
 
 /** Everything a restore checks before it touches anything; throws BackupError naming the problem. */
-export async function checkBackup(folder: string, migrationsFolder: string): Promise<{ manifest: Manifest; pendingMigrations: number }> {
+export async function checkBackup(
+  folder: string,
+  migrationsFolder: string,
+): Promise<{ manifest: Manifest; pendingMigrations: number }> {
   const manifestPath = path.join(folder, MANIFEST_FILE);
   const copy = path.join(folder, DB_FILE);
-  if (!existsSync(manifestPath) || !existsSync(copy)) throw new BackupError(`${folder} is not a backup folder: it needs ${MANIFEST_FILE} and ${DB_FILE}.`);
+  if (!existsSync(manifestPath) || !existsSync(copy))
+    throw new BackupError(`${folder} is not a backup folder: it needs ${MANIFEST_FILE} and ${DB_FILE}.`);
   let manifest: Manifest;
   try {
     manifest = JSON.parse(await readFile(manifestPath, "utf8")) as Manifest;
   } catch {
     throw new BackupError(`${manifestPath} is not readable JSON.`);
   }
-  if (manifest.format !== 1) throw new BackupError(`${manifestPath} has format ${String(manifest.format)}; this code reads format 1.`);
-  if ((await sha256(copy)) !== manifest.database.sha256) throw new BackupError(`${copy} is not the file the backup wrote (its SHA-256 differs from the manifest's).`);
+  if (manifest.format !== 1)
+    throw new BackupError(`${manifestPath} has format ${String(manifest.format)}; this code reads format 1.`);
+  if ((await sha256(copy)) !== manifest.database.sha256)
+    throw new BackupError(`${copy} is not the file the backup wrote (its SHA-256 differs from the manifest's).`);
   let inspected: Awaited<ReturnType<typeof inspectDatabase>>;
   try {
     inspected = await inspectDatabase(copy);
   } catch (error) {
     throw new BackupError(`${copy} cannot be read as a database: ${(error as Error).message}`);
   }
-  if (inspected.integrity.join() !== "ok") throw new BackupError(`${copy} failed SQLite's integrity check: ${inspected.integrity.slice(0, 5).join("; ")}`);
+  if (inspected.integrity.join() !== "ok")
+    throw new BackupError(`${copy} failed SQLite's integrity check: ${inspected.integrity.slice(0, 5).join("; ")}`);
   const known = readMigrationFiles({ migrationsFolder });
   const knownHashes = new Set(known.map((m) => m.hash));
   const unknown = inspected.migrations.filter((m) => !knownHashes.has(m.hash));
@@ -158,7 +197,8 @@ export async function checkBackup(folder: string, migrationsFolder: string): Pro
       `${copy} records ${unknown.length} migration(s) this code does not have (a backup from newer code): restore it with the code it was taken with.`,
     );
   }
-  if (inspected.migrations.length === 0) throw new BackupError(`${copy} has no migrations journal: it is not an Emberwright database.`);
+  if (inspected.migrations.length === 0)
+    throw new BackupError(`${copy} has no migrations journal: it is not an Emberwright database.`);
   return { manifest, pendingMigrations: known.length - inspected.migrations.length };
 }
 
@@ -167,12 +207,22 @@ export async function checkBackup(folder: string, migrationsFolder: string): Pro
  * is refused unless `replace` is set; then it (and its WAL files) is moved aside, not deleted.
  * Stop every app process first.
  */
-export async function restoreBackup(args: { folder: string; databaseUrl: string; uploadsDir: string; migrationsFolder: string; replace?: boolean; now?: Date }) {
+export async function restoreBackup(args: {
+  folder: string;
+  databaseUrl: string;
+  uploadsDir: string;
+  migrationsFolder: string;
+  replace?: boolean;
+  now?: Date;
+}) {
   const { manifest, pendingMigrations } = await checkBackup(args.folder, args.migrationsFolder);
   const target = databaseFileOf(args.databaseUrl);
   const movedAside: string[] = [];
   if (existsSync(target)) {
-    if (!args.replace) throw new BackupError(`${target} exists. Stop every app process, then run the restore again with --replace (the current file is kept beside it).`);
+    if (!args.replace)
+      throw new BackupError(
+        `${target} exists. Stop every app process, then run the restore again with --replace (the current file is kept beside it).`,
+      );
     const stamp = stampOf(args.now ?? new Date());
     for (const suffix of ["", "-wal", "-shm"]) {
       if (!existsSync(target + suffix)) continue;
@@ -188,7 +238,8 @@ export async function restoreBackup(args: { folder: string; databaseUrl: string;
   // Photos have unique generated names: copy in what is missing, keep what is there.
   const uploadsCopy = path.join(args.folder, UPLOADS_FOLDER);
   await mkdir(args.uploadsDir, { recursive: true });
-  if (existsSync(uploadsCopy)) await cp(uploadsCopy, args.uploadsDir, { recursive: true, force: false, errorOnExist: false });
+  if (existsSync(uploadsCopy))
+    await cp(uploadsCopy, args.uploadsDir, { recursive: true, force: false, errorOnExist: false });
   const restored = await inspectDatabase(target);
   if (restored.integrity.join() !== "ok") throw new BackupError(`The restored ${target} failed its integrity check.`);
   return { manifest, pendingMigrations, target, movedAside, rows: restored.rows };

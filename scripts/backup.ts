@@ -6,7 +6,8 @@
 import path from "node:path";
 import { BackupError, createBackup } from "./backup-core";
 
-const shortPath = (p: string) => (path.relative(process.cwd(), p).startsWith("..") ? p : path.relative(process.cwd(), p));
+const shortPath = (p: string) =>
+  path.relative(process.cwd(), p).startsWith("..") ? p : path.relative(process.cwd(), p);
 const args = process.argv.slice(2);
 const toAt = args.indexOf("--to");
 const backupsDir = toAt >= 0 && args[toAt + 1] ? args[toAt + 1]! : (process.env.BACKUP_DIR ?? "./data/backups");

@@ -32,7 +32,8 @@ export type Balancer = {
   close: () => Promise<void>;
 };
 
-const isNotConnected = (error: NodeJS.ErrnoException) => error.code === "ECONNREFUSED" || error.code === "EHOSTUNREACH" || error.code === "ENOTFOUND";
+const isNotConnected = (error: NodeJS.ErrnoException) =>
+  error.code === "ECONNREFUSED" || error.code === "EHOSTUNREACH" || error.code === "ENOTFOUND";
 
 export async function startBalancer(options: { targets: string[]; port: number; host?: string }): Promise<Balancer> {
   const host = options.host ?? "127.0.0.1";

@@ -14,7 +14,10 @@ function walk(dir) {
   }
 }
 
-const importsOf = (source) => [...source.matchAll(/(?:import|export)[^"']*?from\s*["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g)].map((m) => m[1] ?? m[2]);
+const importsOf = (source) =>
+  [...source.matchAll(/(?:import|export)[^"']*?from\s*["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g)].map(
+    (m) => m[1] ?? m[2],
+  );
 
 function check(file) {
   const rel = path.relative(ROOT, file);
@@ -22,19 +25,25 @@ function check(file) {
   const imports = importsOf(source);
   if (rel.startsWith("domain/")) {
     for (const spec of imports) {
-      if (/^(react|react-dom|react-router|drizzle-orm|three|@react-three|zod|node:|fs|path)/.test(spec) || spec.includes(".server")) {
+      if (
+        /^(react|react-dom|react-router|drizzle-orm|three|@react-three|zod|node:|fs|path)/.test(spec) ||
+        spec.includes(".server")
+      ) {
         problems.push(`${rel}: the domain must stay pure, but imports "${spec}"`);
       }
     }
-    if (/Date\.now\(|new Date\(|process\.env/.test(source)) problems.push(`${rel}: the domain must not read the clock or the environment`);
+    if (/Date\.now\(|new Date\(|process\.env/.test(source))
+      problems.push(`${rel}: the domain must not read the clock or the environment`);
   }
   if (!rel.startsWith("scene/")) {
     for (const spec of imports) {
-      if (/^(three|@react-three)/.test(spec)) problems.push(`${rel}: three.js belongs in app/scene (loaded lazily), not here ("${spec}")`);
+      if (/^(three|@react-three)/.test(spec))
+        problems.push(`${rel}: three.js belongs in app/scene (loaded lazily), not here ("${spec}")`);
     }
   }
   if (rel.startsWith("components/") || rel.startsWith("scene/")) {
-    for (const spec of imports) if (spec.includes(".server")) problems.push(`${rel}: a client component imports server code ("${spec}")`);
+    for (const spec of imports)
+      if (spec.includes(".server")) problems.push(`${rel}: a client component imports server code ("${spec}")`);
   }
 }
 

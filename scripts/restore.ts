@@ -23,7 +23,9 @@ try {
   });
   console.log(
     `Restored the backup of ${result.manifest.createdAt} to ${result.target}: ${result.rows.leads} requests, ${result.rows.companies} companies (integrity ok).` +
-      (result.pendingMigrations > 0 ? ` ${result.pendingMigrations} newer migration(s) will be applied when the app starts.` : "") +
+      (result.pendingMigrations > 0
+        ? ` ${result.pendingMigrations} newer migration(s) will be applied when the app starts.`
+        : "") +
       (result.movedAside.length ? ` The previous database is kept as ${result.movedAside[0]}.` : ""),
   );
 } catch (error) {

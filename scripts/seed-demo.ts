@@ -1,5 +1,23 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { bookings, buildCrew, builds, catalogItems, companies, suppliers, supplierOrderDrops, supplierOrders, emailOutbox, leadEvents, leads, proposals, proposalTerms, siteVisits, users, type CatalogItem, type LeadStatus } from "~/db/schema";
+import {
+  bookings,
+  buildCrew,
+  builds,
+  catalogItems,
+  companies,
+  suppliers,
+  supplierOrderDrops,
+  supplierOrders,
+  emailOutbox,
+  leadEvents,
+  leads,
+  proposals,
+  proposalTerms,
+  siteVisits,
+  users,
+  type CatalogItem,
+  type LeadStatus,
+} from "~/db/schema";
 import { sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import type { CatalogChoice } from "~/lib/design/design";
 import { saveRevision } from "~/lib/leads/lead-workspace.server";
@@ -19,7 +37,15 @@ import { hashPassword } from "~/lib/auth/password.server";
 import { publicPlan } from "~/lib/design/plan.server";
 import { draftSupplierOrders, orderNumber } from "~/lib/suppliers/supplier-orders.server";
 import { nextDay, zonedDay } from "~/lib/format/zoned-time";
-import { DEMO_COMPANIES, DEMO_LEADS, DEMO_LETTERHEADS, DEMO_PASSWORD, type SeedDesign, type SeedLead, type SeedPapers } from "./seed-data";
+import {
+  DEMO_COMPANIES,
+  DEMO_LEADS,
+  DEMO_LETTERHEADS,
+  DEMO_PASSWORD,
+  type SeedDesign,
+  type SeedLead,
+  type SeedPapers,
+} from "./seed-data";
 import { addCalendarDays, buildDates, buildDaysNeeded } from "~/domain/build-schedule";
 import { jobLabourHours, workCalendarFor } from "~/lib/builds/builds.server";
 
@@ -37,7 +63,10 @@ export async function seedDemo() {
         .onConflictDoNothing({ target: users.email });
     }
     for (const supplier of supplierSeeds) {
-      await db.insert(suppliers).values({ ...supplier, companyId }).onConflictDoNothing();
+      await db
+        .insert(suppliers)
+        .values({ ...supplier, companyId })
+        .onConflictDoNothing();
     }
     const supplierRows = await db.select().from(suppliers).where(eq(suppliers.companyId, companyId));
     for (const { supplier, ...item } of catalog) {
@@ -51,7 +80,12 @@ export async function seedDemo() {
       else if (existing.supplierId === null && supplierId !== null) {
         await db
           .update(catalogItems)
-          .set({ supplierId, orderUnit: item.orderUnit ?? "each", unitsPerOrderUnit: item.unitsPerOrderUnit ?? 1, orderUnitWeightLb: item.orderUnitWeightLb ?? null })
+          .set({
+            supplierId,
+            orderUnit: item.orderUnit ?? "each",
+            unitsPerOrderUnit: item.unitsPerOrderUnit ?? 1,
+            orderUnitWeightLb: item.orderUnitWeightLb ?? null,
+          })
           .where(eq(catalogItems.id, existing.id));
       }
     }
@@ -60,7 +94,14 @@ export async function seedDemo() {
     if (letterhead) {
       await db
         .insert(proposalTerms)
-        .values({ companyId, includedText: DEFAULT_INCLUDED, excludedText: DEFAULT_EXCLUDED, ...letterhead, narrowAccessAllowanceCents: 35_000, steepSlopeAllowanceCents: 60_000 })
+        .values({
+          companyId,
+          includedText: DEFAULT_INCLUDED,
+          excludedText: DEFAULT_EXCLUDED,
+          ...letterhead,
+          narrowAccessAllowanceCents: 35_000,
+          steepSlopeAllowanceCents: 60_000,
+        })
         .onConflictDoNothing();
     }
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
@@ -81,24 +122,51 @@ export async function seedDemo() {
  */
 async function seedSupplierOrders(companyId: number) {
   const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
-  const [owner] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, "owner"))).limit(1);
+  const [owner] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, companyId), eq(users.role, "owner")))
+    .limit(1);
   if (!company || !owner) return;
   let day = zonedDay(new Date(), company.timeZone);
   for (let i = 0; i < 10; i += 1) day = nextDay(day);
   const states = { "stone-ordered": "sent", "build-booked": "confirmed" } as const;
-  const jobs = await db.select().from(leads).where(and(eq(leads.companyId, companyId), inArray(leads.status, ["stone-ordered", "build-booked"])));
+  const jobs = await db
+    .select()
+    .from(leads)
+    .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["stone-ordered", "build-booked"])));
   for (const job of jobs) {
-    if ((await db.select({ id: supplierOrderDrops.id }).from(supplierOrderDrops).where(eq(supplierOrderDrops.leadId, job.id)).limit(1)).length) continue;
+    if (
+      (
+        await db
+          .select({ id: supplierOrderDrops.id })
+          .from(supplierOrderDrops)
+          .where(eq(supplierOrderDrops.leadId, job.id))
+          .limit(1)
+      ).length
+    )
+      continue;
     const drafted = await draftSupplierOrders({ ...owner, sessionId: "seed" }, job, day);
     if (!drafted.ok) continue;
     const at = new Date().toISOString();
     const state = states[job.status as keyof typeof states];
     await db
       .update(supplierOrders)
-      .set({ status: state, sentAt: at, ...(state === "confirmed" ? { confirmedAt: at, confirmationNote: "Confirmed by phone" } : {}) })
+      .set({
+        status: state,
+        sentAt: at,
+        ...(state === "confirmed" ? { confirmedAt: at, confirmationNote: "Confirmed by phone" } : {}),
+      })
       .where(inArray(supplierOrders.id, drafted.orderIds));
     await db.insert(leadEvents).values(
-      drafted.orderIds.map((id) => ({ companyId, leadId: job.id, actorUserId: owner.id, kind: "supplier-order", detail: `${orderNumber(id)} ${state === "sent" ? "sent" : "sent and confirmed"} (demo data, no e-mail).`, createdAt: at })),
+      drafted.orderIds.map((id) => ({
+        companyId,
+        leadId: job.id,
+        actorUserId: owner.id,
+        kind: "supplier-order",
+        detail: `${orderNumber(id)} ${state === "sent" ? "sent" : "sent and confirmed"} (demo data, no e-mail).`,
+        createdAt: at,
+      })),
     );
   }
 }
@@ -109,11 +177,18 @@ async function seedSupplierOrders(companyId: number) {
  */
 async function seedBuilds(companyId: number) {
   const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
-  const [crew] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, "crew"), eq(users.isActive, true))).limit(1);
+  const [crew] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, companyId), eq(users.role, "crew"), eq(users.isActive, true)))
+    .limit(1);
   if (!company || !crew) return;
   const calendar = await workCalendarFor(company);
   const today = zonedDay(new Date(), company.timeZone);
-  const jobs = await db.select().from(leads).where(and(eq(leads.companyId, companyId), inArray(leads.status, ["build-booked", "built", "paid-in-full"])));
+  const jobs = await db
+    .select()
+    .from(leads)
+    .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["build-booked", "built", "paid-in-full"])));
   for (const [i, job] of jobs.entries()) {
     if ((await db.select({ id: builds.id }).from(builds).where(eq(builds.leadId, job.id)).limit(1)).length) continue;
     const labourHours = await jobLabourHours(job);
@@ -122,7 +197,16 @@ async function seedBuilds(companyId: number) {
     const dates = buildDates(start, days, calendar);
     const [row] = await db
       .insert(builds)
-      .values({ companyId, leadId: job.id, datesJson: JSON.stringify(dates), firstDay: dates[0]!, lastDay: dates.at(-1)!, labourHours, stageBefore: "stone-ordered", bookedByUserId: null })
+      .values({
+        companyId,
+        leadId: job.id,
+        datesJson: JSON.stringify(dates),
+        firstDay: dates[0]!,
+        lastDay: dates.at(-1)!,
+        labourHours,
+        stageBefore: "stone-ordered",
+        bookedByUserId: null,
+      })
       .returning();
     await db.insert(buildCrew).values({ buildId: row!.id, userId: job.crewUserId ?? crew.id, companyId });
   }
@@ -130,7 +214,10 @@ async function seedBuilds(companyId: number) {
 
 async function seedConsults(companyId: number) {
   const [company] = await db.select().from(companies).where(eq(companies.id, companyId));
-  const waiting = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.status, "consult-booked")));
+  const waiting = await db
+    .select()
+    .from(leads)
+    .where(and(eq(leads.companyId, companyId), eq(leads.status, "consult-booked")));
   let slots = await listCompanySlots(company!);
   for (const lead of waiting) {
     if (await findLiveBooking(lead.id)) continue;
@@ -158,7 +245,11 @@ function designParams(design: SeedDesign, catalog: CatalogItem[]): URLSearchPara
     if (!item) throw new Error(`The demo catalog has no item named "${name}".`);
     return String(item.id);
   };
-  const params = new URLSearchParams({ stone: idOf(design.stone), courses: String(design.courses), liner: design.liner });
+  const params = new URLSearchParams({
+    stone: idOf(design.stone),
+    courses: String(design.courses),
+    liner: design.liner,
+  });
   if (design.units !== undefined) params.set("units", String(design.units));
   params.set("fit", design.fit ? "ring" : "");
   params.set("cap", design.cap ? idOf(design.cap) : "none");
@@ -174,7 +265,18 @@ function designParams(design: SeedDesign, catalog: CatalogItem[]): URLSearchPara
 }
 
 // The steps a demo job walked to reach its stage (a stopped job stopped after the last one listed).
-const PIPELINE: LeadStatus[] = ["request", "called-back", "consult-booked", "measured", "proposal-out", "signed", "stone-ordered", "build-booked", "built", "paid-in-full"];
+const PIPELINE: LeadStatus[] = [
+  "request",
+  "called-back",
+  "consult-booked",
+  "measured",
+  "proposal-out",
+  "signed",
+  "stone-ordered",
+  "build-booked",
+  "built",
+  "paid-in-full",
+];
 const HOUR_MS = 3_600_000;
 
 /*
@@ -186,8 +288,12 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
   if (list.length === 0) return;
   const catalog = await db.select().from(catalogItems).where(eq(catalogItems.companyId, companyId));
   const choices = catalog.filter((i) => i.isActive).map(toCatalogChoice);
-  const staff = await db.select({ id: users.id, email: users.email, name: users.name }).from(users).where(eq(users.companyId, companyId));
-  const staffId = (email: string | null | undefined) => (email ? (staff.find((s) => s.email === email)?.id ?? null) : null);
+  const staff = await db
+    .select({ id: users.id, email: users.email, name: users.name })
+    .from(users)
+    .where(eq(users.companyId, companyId));
+  const staffId = (email: string | null | undefined) =>
+    email ? (staff.find((s) => s.email === email)?.id ?? null) : null;
   const now = Date.now();
 
   for (const [index, seed] of list.entries()) {
@@ -197,7 +303,10 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
     const design = parseDesign(designParams(seed.design, catalog), choices);
     if (!design) throw new Error(`The demo design of ${seed.customerName} has no wall stone.`);
     const { plan, resolved, errors } = await planForDesign(slug, design, choices);
-    if (!plan || !resolved) throw new Error(`The demo design of ${seed.customerName} cannot be built: ${errors.map((e) => e.message).join(" ")}`);
+    if (!plan || !resolved)
+      throw new Error(
+        `The demo design of ${seed.customerName} cannot be built: ${errors.map((e) => e.message).join(" ")}`,
+      );
     const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, choices, "in");
     const createdMs = now - seed.ageHours * HOUR_MS;
     const at = (hoursAfter: number) => new Date(Math.min(now - 60_000, createdMs + hoursAfter * HOUR_MS)).toISOString();
@@ -233,15 +342,31 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
     const leadId = lead!.id;
 
     const events: (typeof leadEvents.$inferInsert)[] = [
-      { companyId, leadId, kind: "received", detail: "Request sent from the configurator with 0 photos.", createdAt: at(0) },
+      {
+        companyId,
+        leadId,
+        kind: "received",
+        detail: "Request sent from the configurator with 0 photos.",
+        createdAt: at(0),
+      },
     ];
     // Steps spread over the lead's age so the newest step is still in the past.
-    const stoppedAt = seed.status === "on-hold" || seed.status === "not-going-ahead" ? (seed.pausedStage ?? "called-back") : null;
-    const steps = stoppedAt ? [...PIPELINE.slice(1, PIPELINE.indexOf(stoppedAt) + 1), seed.status] : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
+    const stoppedAt =
+      seed.status === "on-hold" || seed.status === "not-going-ahead" ? (seed.pausedStage ?? "called-back") : null;
+    const steps = stoppedAt
+      ? [...PIPELINE.slice(1, PIPELINE.indexOf(stoppedAt) + 1), seed.status]
+      : PIPELINE.slice(1, PIPELINE.indexOf(seed.status) + 1);
     const span = Math.max(1, seed.ageHours - 1);
     const actorId = assigneeId ?? staffId(staff[0]?.email);
     if (assigneeId !== null) {
-      events.push({ companyId, leadId, actorUserId: staffId(DEMO_COMPANIES.find((c) => c.slug === slug)?.staff[0]?.email), kind: "assigned", detail: `Assigned to ${staff.find((s) => s.id === assigneeId)?.name}`, createdAt: at(Math.min(2, span * 0.1)) });
+      events.push({
+        companyId,
+        leadId,
+        actorUserId: staffId(DEMO_COMPANIES.find((c) => c.slug === slug)?.staff[0]?.email),
+        kind: "assigned",
+        detail: `Assigned to ${staff.find((s) => s.id === assigneeId)?.name}`,
+        createdAt: at(Math.min(2, span * 0.1)),
+      });
     }
     let previous: LeadStatus = "request";
     steps.forEach((status, i) => {
@@ -257,10 +382,24 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
       previous = status;
     });
     (seed.staffNotes ?? []).forEach((note, i) => {
-      events.push({ companyId, leadId, actorUserId: staffId(note.by), kind: "note", detail: note.text, createdAt: at(span * 0.9 - i) });
+      events.push({
+        companyId,
+        leadId,
+        actorUserId: staffId(note.by),
+        kind: "note",
+        detail: note.text,
+        createdAt: at(span * 0.9 - i),
+      });
     });
     if (crewId !== null) {
-      events.push({ companyId, leadId, actorUserId: actorId, kind: "crew-assigned", detail: `Job given to ${staff.find((s) => s.id === crewId)?.name}`, createdAt: at(span * 0.95) });
+      events.push({
+        companyId,
+        leadId,
+        actorUserId: actorId,
+        kind: "crew-assigned",
+        detail: `Job given to ${staff.find((s) => s.id === crewId)?.name}`,
+        createdAt: at(span * 0.95),
+      });
     }
     await db.insert(leadEvents).values(events);
     const mail = (key: string, to: string, subject: string) => ({
@@ -282,7 +421,8 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
         mail("lead-new", companyEmail, `New fire-pit request: ${seed.customerName}, ${seed.town}`),
       ])
       .onConflictDoNothing();
-    if (seed.papers) await seedPapers({ leadId, seed, papers: seed.papers, companyId, staffId: actorId!, createdMs, choices, slug });
+    if (seed.papers)
+      await seedPapers({ leadId, seed, papers: seed.papers, companyId, staffId: actorId!, createdMs, choices, slug });
   }
 }
 
@@ -292,22 +432,55 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
  * service, so it is never refunded through it), and a signed change order after a staff revision.
  * E-mails these write are marked sent, and the job is put back at its seeded stage afterwards.
  */
-async function seedPapers(args: { leadId: number; seed: SeedLead; papers: SeedPapers; companyId: number; staffId: number; createdMs: number; choices: CatalogChoice[]; slug: string }) {
+async function seedPapers(args: {
+  leadId: number;
+  seed: SeedLead;
+  papers: SeedPapers;
+  companyId: number;
+  staffId: number;
+  createdMs: number;
+  choices: CatalogChoice[];
+  slug: string;
+}) {
   const { leadId, seed, papers, companyId } = args;
   const company = (await db.select().from(companies).where(eq(companies.id, companyId)))[0]!;
   const [staffRow] = await db.select().from(users).where(eq(users.id, args.staffId));
-  const user = { id: staffRow!.id, companyId, email: staffRow!.email, name: staffRow!.name, role: staffRow!.role, sessionId: "seed" };
-  const when = (fraction: number) => new Date(Math.min(Date.now() - 60_000, args.createdMs + (Date.now() - args.createdMs) * fraction));
+  const user = {
+    id: staffRow!.id,
+    companyId,
+    email: staffRow!.email,
+    name: staffRow!.name,
+    role: staffRow!.role,
+    sessionId: "seed",
+  };
+  const when = (fraction: number) =>
+    new Date(Math.min(Date.now() - 60_000, args.createdMs + (Date.now() - args.createdMs) * fraction));
   const lead = async () => (await db.select().from(leads).where(eq(leads.id, leadId)))[0]!;
 
-  await db.insert(siteVisits).values({ ...papers.visit, companyId, leadId, visitedByUserId: user.id, createdAt: when(0.4).toISOString(), updatedAt: when(0.4).toISOString() });
+  await db.insert(siteVisits).values({
+    ...papers.visit,
+    companyId,
+    leadId,
+    visitedByUserId: user.id,
+    createdAt: when(0.4).toISOString(),
+    updatedAt: when(0.4).toISOString(),
+  });
   // The papers are made along the way the job went; the seeded stage is put back at the end.
   await db.update(leads).set({ status: "measured" }).where(eq(leads.id, leadId));
-  await db.insert(leadEvents).values({ companyId, leadId, actorUserId: user.id, kind: "site-visit", detail: `Site visit recorded: ${papers.visit.structureFt} ft to the nearest structure, ${papers.visit.accessWidthIn} in access.`, createdAt: when(0.4).toISOString() });
+  await db.insert(leadEvents).values({
+    companyId,
+    leadId,
+    actorUserId: user.id,
+    kind: "site-visit",
+    detail: `Site visit recorded: ${papers.visit.structureFt} ft to the nearest structure, ${papers.visit.accessWidthIn} in access.`,
+    createdAt: when(0.4).toISOString(),
+  });
   const p = papers.proposal;
   if (p) {
     // An "expired" demo proposal ran out yesterday; the background sweep marks it when the server runs.
-    const validUntil = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date(Date.now() + (p.state === "expired" ? -2 : 21) * 86_400_000));
+    const validUntil = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(
+      new Date(Date.now() + (p.state === "expired" ? -2 : 21) * 86_400_000),
+    );
     const proposal = await sendProposal({
       user,
       lead: await lead(),
@@ -329,12 +502,28 @@ async function seedPapers(args: { leadId: number; seed: SeedLead; papers: SeedPa
         proposal,
         lead: await lead(),
         document,
-        input: { name: seed.customerName, chosenKeys: (p.chosen ?? []).map((i) => `a${i + 1}`), ip: "192.0.2.10", userAgent: "Demo seed", now: when(0.6) },
+        input: {
+          name: seed.customerName,
+          chosenKeys: (p.chosen ?? []).map((i) => `a${i + 1}`),
+          ip: "192.0.2.10",
+          userAgent: "Demo seed",
+          now: when(0.6),
+        },
       });
-      if (!accepted.ok) throw new Error(`The demo proposal of ${seed.customerName} could not be signed: ${accepted.message}`);
+      if (!accepted.ok)
+        throw new Error(`The demo proposal of ${seed.customerName} could not be signed: ${accepted.message}`);
       if (p.state === "signed") {
-        await db.update(proposals).set({ status: "signed", depositPaidAt: when(0.62).toISOString() }).where(eq(proposals.id, proposal.id));
-        await db.insert(leadEvents).values({ companyId, leadId, kind: "deposit-paid", detail: `Deposit of ${formatMoney(accepted.proposal.depositCents ?? 0)} paid on ${document.number}.`, createdAt: when(0.62).toISOString() });
+        await db
+          .update(proposals)
+          .set({ status: "signed", depositPaidAt: when(0.62).toISOString() })
+          .where(eq(proposals.id, proposal.id));
+        await db.insert(leadEvents).values({
+          companyId,
+          leadId,
+          kind: "deposit-paid",
+          detail: `Deposit of ${formatMoney(accepted.proposal.depositCents ?? 0)} paid on ${document.number}.`,
+          createdAt: when(0.62).toISOString(),
+        });
         await db.update(leads).set({ status: "signed" }).where(eq(leads.id, leadId));
       }
       if (p.changeOrder) {
@@ -345,17 +534,39 @@ async function seedPapers(args: { leadId: number; seed: SeedLead; papers: SeedPa
         if (!plan || !resolved) throw new Error(`The demo revision of ${seed.customerName} cannot be built.`);
         const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, args.choices, "in");
         await saveRevision(user, current, recordPlan({ design, summary, resolved, plan }));
-        const change = await sendChangeOrder({ user, lead: await lead(), company, deltaCents: p.changeOrder.delta * 100, validUntil, origin: "http://localhost:3000", now: when(0.8) });
+        const change = await sendChangeOrder({
+          user,
+          lead: await lead(),
+          company,
+          deltaCents: p.changeOrder.delta * 100,
+          validUntil,
+          origin: "http://localhost:3000",
+          now: when(0.8),
+        });
         if (typeof change === "string") throw new Error(change);
-        const signed = await acceptProposal({ proposal: change, lead: await lead(), document: parseProposalDocument(change.documentJson), input: { name: seed.customerName, chosenKeys: [], ip: "192.0.2.10", userAgent: "Demo seed", now: when(0.85) } });
+        const signed = await acceptProposal({
+          proposal: change,
+          lead: await lead(),
+          document: parseProposalDocument(change.documentJson),
+          input: { name: seed.customerName, chosenKeys: [], ip: "192.0.2.10", userAgent: "Demo seed", now: when(0.85) },
+        });
         if (!signed.ok) throw new Error(signed.message);
       }
     }
   }
   // Back to the seeded stage; nothing these papers queued goes out again.
-  await db.update(leads).set({ status: seed.status, stopReason: seed.stopReason ?? null, pausedStage: seed.pausedStage ?? null }).where(eq(leads.id, leadId));
+  await db
+    .update(leads)
+    .set({ status: seed.status, stopReason: seed.stopReason ?? null, pausedStage: seed.pausedStage ?? null })
+    .where(eq(leads.id, leadId));
   await db
     .update(emailOutbox)
     .set({ status: "sent", sentAt: when(0.9).toISOString(), attempts: 1 })
-    .where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "pending"), inArray(emailOutbox.toAddress, [seed.email, company.email])));
+    .where(
+      and(
+        eq(emailOutbox.companyId, companyId),
+        eq(emailOutbox.status, "pending"),
+        inArray(emailOutbox.toAddress, [seed.email, company.email]),
+      ),
+    );
 }

@@ -35,26 +35,69 @@ export function CapDrawingSvg({ caps, className }: Props) {
         <line x1={num(x1)} y1={num(y)} x2={num(x2)} y2={num(y)} stroke={tone} strokeWidth={stroke} />
         <path d={`M${num(x1)} ${num(y)}l${num(a)} ${num(-a / 3)}v${num((2 * a) / 3)}z`} fill={tone} />
         <path d={`M${num(x2)} ${num(y)}l${num(-a)} ${num(-a / 3)}v${num((2 * a) / 3)}z`} fill={tone} />
-        <text x={num((x1 + x2) / 2)} y={num(y - font * 0.35)} fontSize={num(font)} textAnchor="middle" fill={tone} fontWeight={700}>
+        <text
+          x={num((x1 + x2) / 2)}
+          y={num(y - font * 0.35)}
+          fontSize={num(font)}
+          textAnchor="middle"
+          fill={tone}
+          fontWeight={700}
+        >
           {label}
         </text>
       </g>
     );
   };
   const extension = (x: number, y1: number, y2: number) => (
-    <line x1={num(x)} y1={num(y1)} x2={num(x)} y2={num(y2)} stroke={SOFT} strokeWidth={stroke * 0.7} strokeDasharray={`${num(font / 4)} ${num(font / 5)}`} />
+    <line
+      x1={num(x)}
+      y1={num(y1)}
+      x2={num(x)}
+      y2={num(y2)}
+      stroke={SOFT}
+      strokeWidth={stroke * 0.7}
+      strokeDasharray={`${num(font / 4)} ${num(font / 5)}`}
+    />
   );
   const label = `One cap of ${caps.count}: blank ${formatInches(l)} by ${formatInches(w)}, inner mark ${formatInches(caps.innerMarkIn)} and outer mark ${formatInches(caps.outerMarkIn)} from each corner, cuts ${formatDegrees(caps.offSquareDeg)} off square.`;
 
   return (
-    <svg viewBox={viewBox} width="100%" role="img" aria-label={label} className={className} style={{ display: "block" }} fontFamily="inherit">
+    <svg
+      viewBox={viewBox}
+      width="100%"
+      role="img"
+      aria-label={label}
+      className={className}
+      style={{ display: "block" }}
+      fontFamily="inherit"
+    >
       <title>One cap, dimensioned</title>
       <rect x={0} y={0} width={num(l)} height={num(w)} fill="#f4eee5" stroke={SOFT} strokeWidth={stroke} />
-      <path d={`M${num(il[0])} ${num(il[1])}L${num(ir[0])} ${num(ir[1])}L${num(or[0])} ${num(or[1])}L${num(ol[0])} ${num(ol[1])}Z`} fill="#d6c9b7" stroke={INK} strokeWidth={stroke * 2} />
+      <path
+        d={`M${num(il[0])} ${num(il[1])}L${num(ir[0])} ${num(ir[1])}L${num(or[0])} ${num(or[1])}L${num(ol[0])} ${num(ol[1])}Z`}
+        fill="#d6c9b7"
+        stroke={INK}
+        strokeWidth={stroke * 2}
+      />
       {t.ripLineIn !== null ? (
         <g>
-          <line x1={0} y1={num(d)} x2={num(l)} y2={num(d)} stroke={ACCENT} strokeWidth={stroke * 1.2} strokeDasharray={`${num(font / 2)} ${num(font / 4)}`} />
-          <text x={num(l - font * 0.3)} y={num(d + (w - d) / 2 + font * 0.35)} fontSize={num(font * 0.8)} textAnchor="end" fill={ACCENT} fontWeight={700}>
+          <line
+            x1={0}
+            y1={num(d)}
+            x2={num(l)}
+            y2={num(d)}
+            stroke={ACCENT}
+            strokeWidth={stroke * 1.2}
+            strokeDasharray={`${num(font / 2)} ${num(font / 4)}`}
+          />
+          <text
+            x={num(l - font * 0.3)}
+            y={num(d + (w - d) / 2 + font * 0.35)}
+            fontSize={num(font * 0.8)}
+            textAnchor="end"
+            fill={ACCENT}
+            fontWeight={700}
+          >
             rip
           </text>
         </g>
@@ -88,7 +131,13 @@ export function CapDrawingSvg({ caps, className }: Props) {
           deep
         </text>
       </g>
-      <text x={num((il[0] + ol[0]) / 2 + font * 0.5)} y={num(d * 0.62)} fontSize={num(font * 0.85)} fill={INK} fontWeight={700}>
+      <text
+        x={num((il[0] + ol[0]) / 2 + font * 0.5)}
+        y={num(d * 0.62)}
+        fontSize={num(font * 0.85)}
+        fill={INK}
+        fontWeight={700}
+      >
         {formatDegrees(caps.offSquareDeg)}
       </text>
       <text x={num((il[0] + ol[0]) / 2 + font * 0.5)} y={num(d * 0.62 + font)} fontSize={num(font * 0.75)} fill={INK}>

@@ -5,16 +5,21 @@ export type PickerDay = { day: string; slots: { startsAt: string }[] };
 
 /** "Tuesday, December 8" for a local calendar day written YYYY-MM-DD. */
 export const longDay = (day: string) =>
-  new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(
+    new Date(`${day}T12:00:00Z`),
+  );
 
 const dayParts = (day: string) => {
   const date = new Date(`${day}T12:00:00Z`);
-  const part = (options: Intl.DateTimeFormatOptions) => new Intl.DateTimeFormat("en-US", { ...options, timeZone: "UTC" }).format(date);
+  const part = (options: Intl.DateTimeFormatOptions) =>
+    new Intl.DateTimeFormat("en-US", { ...options, timeZone: "UTC" }).format(date);
   return { weekday: part({ weekday: "short" }), date: part({ day: "numeric" }), month: part({ month: "short" }) };
 };
 
-const clock = (iso: string, timeZone: string) => new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
-const localHour = (iso: string, timeZone: string) => Number(new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", hourCycle: "h23" }).format(new Date(iso)));
+const clock = (iso: string, timeZone: string) =>
+  new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+const localHour = (iso: string, timeZone: string) =>
+  Number(new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", hourCycle: "h23" }).format(new Date(iso)));
 
 /** The day chosen in the address (`?day=`), or the first day with free times. */
 export function useChosenDay(days: PickerDay[]): PickerDay | null {
@@ -57,7 +62,12 @@ export function ConsultTimePicker(props: {
     <div className="flex flex-col gap-6">
       <section aria-labelledby="pick-day" className="flex flex-col gap-3">
         <h2 id="pick-day" className="flex items-baseline gap-2 text-lg font-extrabold">
-          <span aria-hidden="true" className="grid size-7 shrink-0 place-items-center rounded-full bg-char-800 text-sm text-white">1</span>
+          <span
+            aria-hidden="true"
+            className="grid size-7 shrink-0 place-items-center rounded-full bg-char-800 text-sm text-white"
+          >
+            1
+          </span>
           Pick a day
         </h2>
         <p className="-mt-1 text-sm text-char-600">
@@ -75,14 +85,20 @@ export function ConsultTimePicker(props: {
                   preventScrollReset
                   aria-current={isChosen ? "date" : undefined}
                   className={`flex flex-col items-center rounded-xl border-2 px-1 py-1.5 leading-tight transition-colors ${
-                    isChosen ? "border-char-800 bg-char-800 text-white" : "border-ash-200 bg-white text-char-800 hover:border-ember-500"
+                    isChosen
+                      ? "border-char-800 bg-char-800 text-white"
+                      : "border-ash-200 bg-white text-char-800 hover:border-ember-500"
                   }`}
                 >
                   {/* Read as "Thu, Dec 3: 6 free times"; the month is shown on the first day and each 1st. */}
                   <span className="text-xs font-bold tracking-wide uppercase">{parts.weekday}</span>
                   <span className="sr-only">, </span>
                   <span className="text-lg font-extrabold tabular-nums">
-                    <span className={parts.date === "1" || day === days[0]!.day ? "mr-0.5 text-xs font-bold" : "sr-only"}>{parts.month} </span>
+                    <span
+                      className={parts.date === "1" || day === days[0]!.day ? "mr-0.5 text-xs font-bold" : "sr-only"}
+                    >
+                      {parts.month}{" "}
+                    </span>
                     {parts.date}
                   </span>
                   <span className="sr-only">: </span>
@@ -98,7 +114,12 @@ export function ConsultTimePicker(props: {
 
       <fieldset className="flex min-w-0 flex-col gap-3" disabled={isBusy}>
         <legend className="flex items-baseline gap-2 text-lg font-extrabold">
-          <span aria-hidden="true" className="grid size-7 shrink-0 place-items-center rounded-full bg-char-800 text-sm text-white">2</span>
+          <span
+            aria-hidden="true"
+            className="grid size-7 shrink-0 place-items-center rounded-full bg-char-800 text-sm text-white"
+          >
+            2
+          </span>
           Pick a time on {longDay(chosenDay.day)}
         </legend>
         {[
@@ -112,7 +133,7 @@ export function ConsultTimePicker(props: {
                 {(list as PickerDay["slots"]).map((slot) => (
                   <label
                     key={slot.startsAt}
-                    className="cursor-pointer rounded-lg border-2 border-ash-300 bg-white px-3 py-2 text-sm font-bold tabular-nums text-char-800 hover:border-ember-500 has-checked:border-ember-600 has-checked:bg-ember-50 has-checked:text-ember-700 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ember-500"
+                    className="cursor-pointer rounded-lg border-2 border-ash-300 bg-white px-3 py-2 text-sm font-bold text-char-800 tabular-nums hover:border-ember-500 has-checked:border-ember-600 has-checked:bg-ember-50 has-checked:text-ember-700 has-focus-visible:outline-3 has-focus-visible:outline-offset-2 has-focus-visible:outline-ember-500"
                   >
                     <input
                       type="radio"
@@ -133,7 +154,12 @@ export function ConsultTimePicker(props: {
 
       <div className="flex flex-col gap-3 rounded-xl border border-ash-200 bg-ash-50 p-4 sm:flex-row sm:items-center sm:justify-between">
         <p className="flex items-baseline gap-2 text-sm" aria-live="polite">
-          <span aria-hidden="true" className="grid size-7 shrink-0 place-items-center self-center rounded-full bg-char-800 text-sm font-extrabold text-white">3</span>
+          <span
+            aria-hidden="true"
+            className="grid size-7 shrink-0 place-items-center self-center rounded-full bg-char-800 text-sm font-extrabold text-white"
+          >
+            3
+          </span>
           {time ? (
             <span>
               <strong>{longDay(chosenDay.day)}</strong>, {clock(time, timeZone)} – {clock(endOf(time), timeZone)}
@@ -152,7 +178,15 @@ export function ConsultTimePicker(props: {
 }
 
 /** The route's data only changes with the booking, never with the day shown: switching days skips the reload. */
-export function onlyDayChanged({ currentUrl, nextUrl, formMethod }: { currentUrl: URL; nextUrl: URL; formMethod?: string }): boolean {
+export function onlyDayChanged({
+  currentUrl,
+  nextUrl,
+  formMethod,
+}: {
+  currentUrl: URL;
+  nextUrl: URL;
+  formMethod?: string;
+}): boolean {
   if (formMethod && formMethod.toUpperCase() !== "GET") return false;
   if (currentUrl.pathname !== nextUrl.pathname) return false;
   const strip = (url: URL) => {

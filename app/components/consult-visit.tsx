@@ -32,7 +32,10 @@ export function VisitFacts(props: { minutes: number; address: string; fee: strin
  */
 export function VisitBrief(props: { companyName: string; phone: string; minutes: number }) {
   return (
-    <aside aria-labelledby="visit-title" className="flex flex-col gap-5 rounded-2xl bg-char-800 p-5 text-ash-100 sm:p-6">
+    <aside
+      aria-labelledby="visit-title"
+      className="flex flex-col gap-5 rounded-2xl bg-char-800 p-5 text-ash-100 sm:p-6"
+    >
       <h2 id="visit-title" className="text-lg font-extrabold text-white">
         At the visit
       </h2>
@@ -40,9 +43,13 @@ export function VisitBrief(props: { companyName: string; phone: string; minutes:
         <h3 className="text-sm font-extrabold tracking-wide text-ember-200 uppercase">What gets measured</h3>
         <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm">
           <li>The spot: how level it is, and what is underfoot (lawn, soil, gravel or an old patio).</li>
-          <li>How far the fire sits from the house, fences, trees and branches overhead, and from the property line.</li>
+          <li>
+            How far the fire sits from the house, fences, trees and branches overhead, and from the property line.
+          </li>
           <li>The way in for materials: gate width and the path a loaded wheelbarrow takes.</li>
-          <li>Your design on the ground: bowl size, seat height, stone and any patio, priced again from what is seen.</li>
+          <li>
+            Your design on the ground: bowl size, seat height, stone and any patio, priced again from what is seen.
+          </li>
         </ul>
       </div>
       <div>
@@ -55,8 +62,9 @@ export function VisitBrief(props: { companyName: string; phone: string; minutes:
         </ul>
       </div>
       <p className="rounded-lg bg-char-700 px-3 py-2 text-xs leading-relaxed">
-        Nothing is dug at the visit. Before any digging, buried lines are marked by your area's free call-before-you-dig service; a gas burner is
-        piped by a licensed gas fitter; your fire authority and local codes have the last word on where a fire may go.
+        Nothing is dug at the visit. Before any digging, buried lines are marked by your area's free call-before-you-dig
+        service; a gas burner is piped by a licensed gas fitter; your fire authority and local codes have the last word
+        on where a fire may go.
       </p>
       <p className="text-sm">
         About {visitLength(props.minutes)}. Questions first? Call {props.companyName}
@@ -64,7 +72,10 @@ export function VisitBrief(props: { companyName: string; phone: string; minutes:
           <>
             {" "}
             at{" "}
-            <a href={phoneHref(props.phone)} className="font-bold whitespace-nowrap text-white underline underline-offset-2">
+            <a
+              href={phoneHref(props.phone)}
+              className="font-bold whitespace-nowrap text-white underline underline-offset-2"
+            >
               {formatPhone(props.phone)}
             </a>
           </>

@@ -21,10 +21,18 @@ export function JobProgress({ stage, pausedStage }: Props) {
                 aria-hidden="true"
                 className={`h-1.5 rounded-full ${isDone ? "bg-char-700" : isHere ? (stopped ? "bg-ash-500" : "bg-ember-500") : "bg-ash-200"}`}
               />
-              <span className={`truncate text-xs ${isHere ? "font-extrabold text-char-900" : isDone ? "font-semibold text-char-700" : "text-char-600"}`}>
+              <span
+                className={`truncate text-xs ${isHere ? "font-extrabold text-char-900" : isDone ? "font-semibold text-char-700" : "text-char-600"}`}
+              >
                 {STEP_SHORT_LABEL[step]}
                 <span className="sr-only">
-                  {isHere ? (stopped ? `: ${STATUS_LABEL[stage]} here` : ": here now") : isDone ? ": done" : ": to come"}
+                  {isHere
+                    ? stopped
+                      ? `: ${STATUS_LABEL[stage]} here`
+                      : ": here now"
+                    : isDone
+                      ? ": done"
+                      : ": to come"}
                 </span>
               </span>
             </li>
@@ -43,11 +51,19 @@ export function JobProgressCompact({ stage, pausedStage }: Props) {
     <span className="flex min-w-28 flex-col gap-1">
       <span className="text-xs font-bold text-char-800">
         {STATUS_LABEL[stage]}
-        {stopped && pausedStage ? <span className="font-semibold text-char-600"> at {STATUS_LABEL[stepOf(stage, pausedStage)].toLowerCase()}</span> : null}
+        {stopped && pausedStage ? (
+          <span className="font-semibold text-char-600">
+            {" "}
+            at {STATUS_LABEL[stepOf(stage, pausedStage)].toLowerCase()}
+          </span>
+        ) : null}
       </span>
       <span aria-hidden="true" className="flex gap-0.5">
         {JOB_STEPS.map((step, i) => (
-          <span key={step} className={`h-1 flex-1 rounded-full ${i < at ? "bg-char-700" : i === at ? (stopped ? "bg-ash-500" : "bg-ember-500") : "bg-ash-200"}`} />
+          <span
+            key={step}
+            className={`h-1 flex-1 rounded-full ${i < at ? "bg-char-700" : i === at ? (stopped ? "bg-ash-500" : "bg-ember-500") : "bg-ash-200"}`}
+          />
         ))}
       </span>
       <span className="sr-only">

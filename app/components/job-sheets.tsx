@@ -54,9 +54,15 @@ export function MaterialsTable({ materials }: { materials: MaterialLine[] }) {
     <table className="w-full text-left text-sm">
       <thead className="text-xs text-char-500 uppercase">
         <tr>
-          <th scope="col" className="py-1.5 pr-3 font-bold">Item</th>
-          <th scope="col" className="py-1.5 pr-3 text-right font-bold">Order</th>
-          <th scope="col" className="hidden py-1.5 font-bold sm:table-cell print:table-cell">Note</th>
+          <th scope="col" className="py-1.5 pr-3 font-bold">
+            Item
+          </th>
+          <th scope="col" className="py-1.5 pr-3 text-right font-bold">
+            Order
+          </th>
+          <th scope="col" className="hidden py-1.5 font-bold sm:table-cell print:table-cell">
+            Note
+          </th>
         </tr>
       </thead>
       <tbody className="divide-y divide-ash-200">
@@ -64,9 +70,13 @@ export function MaterialsTable({ materials }: { materials: MaterialLine[] }) {
           <tr key={line.key} data-material={line.key}>
             <td className="py-1.5 pr-3 align-top font-bold">
               {line.item}
-              {line.note ? <span className="block text-xs font-normal text-char-500 sm:hidden print:hidden">{line.note}</span> : null}
+              {line.note ? (
+                <span className="block text-xs font-normal text-char-500 sm:hidden print:hidden">{line.note}</span>
+              ) : null}
             </td>
-            <td className="py-1.5 pr-3 text-right align-top whitespace-nowrap tabular-nums">{formatOrderQuantity(line)}</td>
+            <td className="py-1.5 pr-3 text-right align-top whitespace-nowrap tabular-nums">
+              {formatOrderQuantity(line)}
+            </td>
             <td className="hidden py-1.5 align-top text-char-600 sm:table-cell print:table-cell">{line.note ?? ""}</td>
           </tr>
         ))}
@@ -87,9 +97,9 @@ export function CrewCautions({ cautions }: { cautions: Caution[] }) {
         ))}
       </ul>
       <p className="mt-3 text-xs text-char-600">
-        These notes do not replace your local codes, your fire authority or licensed trades (gas, electrical): where they say more, they win.
+        These notes do not replace your local codes, your fire authority or licensed trades (gas, electrical): where
+        they say more, they win.
       </p>
     </div>
   );
 }
-

@@ -1,7 +1,15 @@
 import { useBrowserValue } from "~/components/use-browser-value";
 
 const format = (iso: string, timeZone: string) =>
-  new Intl.DateTimeFormat("en-US", { timeZone, weekday: "short", month: "short", day: "numeric", hour: "numeric", minute: "2-digit", timeZoneName: "short" }).format(new Date(iso));
+  new Intl.DateTimeFormat("en-US", {
+    timeZone,
+    weekday: "short",
+    month: "short",
+    day: "numeric",
+    hour: "numeric",
+    minute: "2-digit",
+    timeZoneName: "short",
+  }).format(new Date(iso));
 
 const readTimeZone = () => Intl.DateTimeFormat().resolvedOptions().timeZone;
 
@@ -13,7 +21,9 @@ export function LocalTime({ iso, companyTimeZone }: { iso: string; companyTimeZo
   return (
     <time dateTime={iso}>
       {companyText}
-      {viewerText && viewerText !== companyText ? <span className="text-char-500"> (your time: {viewerText})</span> : null}
+      {viewerText && viewerText !== companyText ? (
+        <span className="text-char-500"> (your time: {viewerText})</span>
+      ) : null}
     </time>
   );
 }

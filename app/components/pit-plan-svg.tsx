@@ -46,7 +46,21 @@ function arrowHead(x: number, y: number, dx: number, dy: number, size: number): 
 }
 
 /** A dimension line between two SVG points with arrowheads at both ends. */
-function DimensionLine({ x1, y1, x2, y2, size, stroke }: { x1: number; y1: number; x2: number; y2: number; size: number; stroke: number }) {
+function DimensionLine({
+  x1,
+  y1,
+  x2,
+  y2,
+  size,
+  stroke,
+}: {
+  x1: number;
+  y1: number;
+  x2: number;
+  y2: number;
+  size: number;
+  stroke: number;
+}) {
   return (
     <g>
       <line x1={num(x1)} y1={num(y1)} x2={num(x2)} y2={num(y2)} stroke={INK} strokeWidth={stroke} />
@@ -57,7 +71,19 @@ function DimensionLine({ x1, y1, x2, y2, size, stroke }: { x1: number; y1: numbe
 }
 
 /** Text with a pale halo so it stays readable over pavers and units. */
-function Label({ x, y, size, anchor = "middle", children }: { x: number; y: number; size: number; anchor?: "start" | "middle" | "end"; children: string }) {
+function Label({
+  x,
+  y,
+  size,
+  anchor = "middle",
+  children,
+}: {
+  x: number;
+  y: number;
+  size: number;
+  anchor?: "start" | "middle" | "end";
+  children: string;
+}) {
   return (
     <text
       x={num(x)}
@@ -146,7 +172,13 @@ export function PitPlanSvg({ input, unit, formatLength, className, tabIndex }: P
       {patio && m.fieldRadiusIn !== null && (
         <g>
           <circle r={num(patio.outsideRadiusIn)} fill="none" stroke={SOFT_INK} strokeWidth={stroke} />
-          <circle r={num(m.fieldRadiusIn)} fill={fieldColour} fillOpacity={0.55} stroke={SOFT_INK} strokeWidth={stroke} />
+          <circle
+            r={num(m.fieldRadiusIn)}
+            fill={fieldColour}
+            fillOpacity={0.55}
+            stroke={SOFT_INK}
+            strokeWidth={stroke}
+          />
           {plan.borderUnits.map((polygon, i) => (
             <path key={i} d={pathOf(polygon)} fill={borderColour} stroke={INK} strokeWidth={stroke * 0.7} />
           ))}
@@ -156,10 +188,24 @@ export function PitPlanSvg({ input, unit, formatLength, className, tabIndex }: P
       <circle r={num(m.gravelRadiusIn)} fill={BOWL_FILL} />
 
       {plan.wallUnits.map((polygon, i) => (
-        <path key={`w${i}`} d={pathOf(polygon)} fill={wallColour} stroke={INK} strokeWidth={stroke} strokeLinejoin="round" />
+        <path
+          key={`w${i}`}
+          d={pathOf(polygon)}
+          fill={wallColour}
+          stroke={INK}
+          strokeWidth={stroke}
+          strokeLinejoin="round"
+        />
       ))}
       {plan.closureUnits.map((polygon, i) => (
-        <path key={`c${i}`} d={pathOf(polygon)} fill={wallColour} stroke={ACCENT} strokeWidth={stroke * 1.6} strokeLinejoin="round" />
+        <path
+          key={`c${i}`}
+          d={pathOf(polygon)}
+          fill={wallColour}
+          stroke={ACCENT}
+          strokeWidth={stroke * 1.6}
+          strokeLinejoin="round"
+        />
       ))}
       {plan.firebrick.map((polygon, i) => (
         <path key={`f${i}`} d={pathOf(polygon)} fill={FIREBRICK_COLOUR} stroke={INK} strokeWidth={stroke * 0.7} />
@@ -184,8 +230,20 @@ export function PitPlanSvg({ input, unit, formatLength, className, tabIndex }: P
       <Label x={0} y={-font * 0.75} size={font}>{`Bowl ${format(m.bowlDiameterIn)}`}</Label>
 
       <g stroke={SOFT_INK} strokeWidth={stroke}>
-        <line x1={num(-outsideEdge)} y1={0} x2={num(-outsideEdge)} y2={num(odY - font * 0.4)} strokeDasharray={`${num(stroke * 4)} ${num(stroke * 4)}`} />
-        <line x1={num(outsideEdge)} y1={0} x2={num(outsideEdge)} y2={num(odY - font * 0.4)} strokeDasharray={`${num(stroke * 4)} ${num(stroke * 4)}`} />
+        <line
+          x1={num(-outsideEdge)}
+          y1={0}
+          x2={num(-outsideEdge)}
+          y2={num(odY - font * 0.4)}
+          strokeDasharray={`${num(stroke * 4)} ${num(stroke * 4)}`}
+        />
+        <line
+          x1={num(outsideEdge)}
+          y1={0}
+          x2={num(outsideEdge)}
+          y2={num(odY - font * 0.4)}
+          strokeDasharray={`${num(stroke * 4)} ${num(stroke * 4)}`}
+        />
       </g>
       <DimensionLine x1={-outsideEdge} y1={odY} x2={outsideEdge} y2={odY} size={arrow} stroke={stroke * 1.2} />
       <Label x={0} y={odY - font * 0.45} size={font}>{`Outside ${format(m.outsideDiameterIn)}`}</Label>
@@ -194,14 +252,32 @@ export function PitPlanSvg({ input, unit, formatLength, className, tabIndex }: P
         <g>
           <line x1={0} y1={0} x2={num(outer.x)} y2={num(outer.y)} stroke={ACCENT} strokeWidth={stroke * 1.2} />
           <path d={arrowHead(outer.x, outer.y, outer.dx, outer.dy, arrow)} fill={ACCENT} />
-          <Label x={outer.x + font * 0.3} y={outer.y + font * 1.05} size={font} anchor="start">{`Patio R ${format(patio.outsideRadiusIn)}`}</Label>
+          <Label
+            x={outer.x + font * 0.3}
+            y={outer.y + font * 1.05}
+            size={font}
+            anchor="start"
+          >{`Patio R ${format(patio.outsideRadiusIn)}`}</Label>
         </g>
       )}
       {field && m.fieldRadiusIn !== null && (
         <g>
-          <line x1={0} y1={0} x2={num(field.x)} y2={num(field.y)} stroke={ACCENT} strokeWidth={stroke} strokeDasharray={`${num(stroke * 5)} ${num(stroke * 3)}`} />
+          <line
+            x1={0}
+            y1={0}
+            x2={num(field.x)}
+            y2={num(field.y)}
+            stroke={ACCENT}
+            strokeWidth={stroke}
+            strokeDasharray={`${num(stroke * 5)} ${num(stroke * 3)}`}
+          />
           <path d={arrowHead(field.x, field.y, field.dx, field.dy, arrow * 0.8)} fill={ACCENT} />
-          <Label x={field.x - font * 0.4} y={field.y - font * 0.5} size={font * 0.8} anchor="end">{`Field R ${format(m.fieldRadiusIn)}`}</Label>
+          <Label
+            x={field.x - font * 0.4}
+            y={field.y - font * 0.5}
+            size={font * 0.8}
+            anchor="end"
+          >{`Field R ${format(m.fieldRadiusIn)}`}</Label>
         </g>
       )}
 

@@ -75,7 +75,14 @@ function detectSupport(): Support {
 }
 
 /** The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle. */
-export function PitPreview({ input, caption, unit, formatLength, frameClassName = "aspect-square sm:aspect-[4/3]", id }: PitPreviewProps) {
+export function PitPreview({
+  input,
+  caption,
+  unit,
+  formatLength,
+  frameClassName = "aspect-square sm:aspect-[4/3]",
+  id,
+}: PitPreviewProps) {
   const support = useBrowserValue<Support>(detectSupport, "checking");
   const [view, setView] = useState<"3d" | "plan">("3d");
   const [hasSceneFailed, setHasSceneFailed] = useState(false);
@@ -84,7 +91,9 @@ export function PitPreview({ input, caption, unit, formatLength, frameClassName 
   const can3d = support === "webgl" && !hasSceneFailed && PitScene !== null;
   const shows3d = can3d && view === "3d";
   const showsNote = support === "none" || hasSceneFailed;
-  const plan = <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" tabIndex={0} />;
+  const plan = (
+    <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" tabIndex={0} />
+  );
   const planWithNote = (
     <div className="flex h-full w-full flex-col">
       <div className="min-h-0 flex-1">{plan}</div>
@@ -95,7 +104,7 @@ export function PitPreview({ input, caption, unit, formatLength, frameClassName 
   );
 
   return (
-    <figure className="card overflow-hidden" id={id}>
+    <figure className="overflow-hidden card" id={id}>
       <div className={`relative w-full bg-ash-100 ${frameClassName}`} data-preview={shows3d ? "3d" : "plan"}>
         {shows3d && PitScene ? (
           <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>

@@ -24,8 +24,8 @@ export function PublicShell({ children, right }: { children: ReactNode; right?: 
       <footer className="border-t border-ash-200 bg-ash-100">
         <div className="mx-auto max-w-6xl px-4 py-6 text-sm text-char-600 sm:px-6">
           <p>
-            Emberwright prices and plans round masonry fire pits. Fire rules differ from town to town: check with
-            your local fire authority and building codes before you build.
+            Emberwright prices and plans round masonry fire pits. Fire rules differ from town to town: check with your
+            local fire authority and building codes before you build.
           </p>
         </div>
       </footer>

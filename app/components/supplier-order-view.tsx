@@ -14,16 +14,32 @@ export type OrderLineView = {
 };
 
 /** The lines of one delivery: what the plan needs (spares included), what is ordered, and its weight. */
-export function OrderLinesTable({ lines, weightLb, label }: { lines: OrderLineView[]; weightLb: number; label: string }) {
+export function OrderLinesTable({
+  lines,
+  weightLb,
+  label,
+}: {
+  lines: OrderLineView[];
+  weightLb: number;
+  label: string;
+}) {
   return (
     <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={label}>
       <table className="w-full text-left text-sm">
         <thead className="text-xs text-char-500 uppercase">
           <tr>
-            <th scope="col" className="py-2 pr-3 font-bold">Item</th>
-            <th scope="col" className="py-2 pr-3 font-bold">Order</th>
-            <th scope="col" className="hidden py-2 pr-3 font-bold sm:table-cell">Needed</th>
-            <th scope="col" className="py-2 text-right font-bold">Weight</th>
+            <th scope="col" className="py-2 pr-3 font-bold">
+              Item
+            </th>
+            <th scope="col" className="py-2 pr-3 font-bold">
+              Order
+            </th>
+            <th scope="col" className="hidden py-2 pr-3 font-bold sm:table-cell">
+              Needed
+            </th>
+            <th scope="col" className="py-2 text-right font-bold">
+              Weight
+            </th>
           </tr>
         </thead>
         <tbody className="divide-y divide-ash-200">
@@ -40,9 +56,13 @@ export function OrderLinesTable({ lines, weightLb, label }: { lines: OrderLineVi
               </td>
               <td className="hidden py-2 pr-3 text-char-700 sm:table-cell">
                 {describePlanQuantity(l.planQuantity, l.planUnit)}
-                {l.suppliedQuantity > l.planQuantity + 1e-9 ? `; ${describePlanQuantity(l.suppliedQuantity, l.planUnit)} arrive` : ""}
+                {l.suppliedQuantity > l.planQuantity + 1e-9
+                  ? `; ${describePlanQuantity(l.suppliedQuantity, l.planUnit)} arrive`
+                  : ""}
               </td>
-              <td className="py-2 text-right whitespace-nowrap tabular-nums">{l.weightLb === null ? "—" : formatPounds(l.weightLb)}</td>
+              <td className="py-2 text-right whitespace-nowrap tabular-nums">
+                {l.weightLb === null ? "—" : formatPounds(l.weightLb)}
+              </td>
             </tr>
           ))}
         </tbody>

@@ -35,13 +35,15 @@ export function WorkspaceShell({
   const items = WORKSPACE_NAV.filter((item) => item.roles.includes(user.role));
   return (
     <div className="flex min-h-dvh flex-col">
-      <header className="bg-char-900 text-ash-100 no-print">
+      <header className="no-print bg-char-900 text-ash-100">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-3 px-4 py-3 sm:px-6">
           <div className="flex items-center gap-4">
             <Link to="/app" aria-label="Emberwright workspace">
               <Wordmark tone="light" />
             </Link>
-            <span className="hidden rounded-full bg-char-700 px-3 py-1 text-xs font-bold text-ash-200 sm:inline">{companyName}</span>
+            <span className="hidden rounded-full bg-char-700 px-3 py-1 text-xs font-bold text-ash-200 sm:inline">
+              {companyName}
+            </span>
           </div>
           <div className="flex items-center gap-3 text-sm">
             <span className="text-right leading-tight">

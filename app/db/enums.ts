@@ -50,7 +50,13 @@ export const STOPPED_STAGES = ["on-hold", "not-going-ahead"] as const;
 export const LEAD_STATUSES = [...JOB_STEPS, ...STOPPED_STAGES] as const;
 export type LeadStatus = (typeof LEAD_STATUSES)[number];
 /** From the signed deposit on: the job is the crew's to build. */
-export const SIGNED_STAGES = ["signed", "stone-ordered", "build-booked", "built", "paid-in-full"] as const satisfies readonly JobStep[];
+export const SIGNED_STAGES = [
+  "signed",
+  "stone-ordered",
+  "build-booked",
+  "built",
+  "paid-in-full",
+] as const satisfies readonly JobStep[];
 
 export const BUILD_WINDOWS = ["within-a-month", "one-to-three-months", "this-season", "next-year", "not-sure"] as const;
 export type BuildWindow = (typeof BUILD_WINDOWS)[number];
@@ -66,7 +72,19 @@ export const SPOIL_PLANS = ["haul-away", "spread-on-site", "pile-for-homeowner"]
  * whole packs of `unitsPerOrderUnit` pieces (pallet, cube, bundle, case), by the bag, pail or
  * cartridge, or in bulk by weight (short ton) or volume (cubic yard).
  */
-export const ORDER_UNITS = ["each", "piece", "pallet", "cube", "bundle", "case", "bag", "pail", "cartridge", "ton", "cubic-yard"] as const;
+export const ORDER_UNITS = [
+  "each",
+  "piece",
+  "pallet",
+  "cube",
+  "bundle",
+  "case",
+  "bag",
+  "pail",
+  "cartridge",
+  "ton",
+  "cubic-yard",
+] as const;
 export type OrderUnit = (typeof ORDER_UNITS)[number];
 
 /** A supplier order: drafted → sent → confirmed → delivered; a draft may be discarded or combined into another. */

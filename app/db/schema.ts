@@ -1,6 +1,18 @@
 import { sql } from "drizzle-orm";
 import { blob, index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from "drizzle-orm/sqlite-core";
-import { BUILD_STATES, BUILD_WINDOWS, CATALOG_KINDS, LEAD_STATUSES, ORDER_UNITS, ROLES, SLOPES, SOILS, SPOIL_PLANS, SUPPLIER_ORDER_STATES, UTILITY_MARKS } from "~/db/enums";
+import {
+  BUILD_STATES,
+  BUILD_WINDOWS,
+  CATALOG_KINDS,
+  LEAD_STATUSES,
+  ORDER_UNITS,
+  ROLES,
+  SLOPES,
+  SOILS,
+  SPOIL_PLANS,
+  SUPPLIER_ORDER_STATES,
+  UTILITY_MARKS,
+} from "~/db/enums";
 
 export * from "~/db/enums";
 
@@ -36,7 +48,9 @@ export const companies = sqliteTable("companies", {
   priceSpreadPct: real("price_spread_pct").notNull().default(12),
   // Design consults: weekly hours as JSON {"1":[[540,1020]], …} (ISO weekday → [start, end) minutes
   // after local midnight), slot length, and how far ahead people may book.
-  consultHoursJson: text("consult_hours_json").notNull().default('{"1":[[540,1020]],"2":[[540,1020]],"3":[[540,1020]],"4":[[540,1020]],"5":[[540,960]]}'),
+  consultHoursJson: text("consult_hours_json")
+    .notNull()
+    .default('{"1":[[540,1020]],"2":[[540,1020]],"3":[[540,1020]],"4":[[540,1020]],"5":[[540,960]]}'),
   consultSlotMinutes: integer("consult_slot_minutes").notNull().default(60),
   consultHorizonDays: integer("consult_horizon_days").notNull().default(21),
   // Overrides of the estimating engine's factors (waste, base depth, labour minutes…), JSON.
@@ -50,7 +64,6 @@ export const companies = sqliteTable("companies", {
   cacheVersion: integer("cache_version").notNull().default(0),
   createdAt: createdAt(),
 });
-
 
 export const users = sqliteTable(
   "users",
@@ -103,7 +116,6 @@ export const rateLimits = sqliteTable(
   },
   (t) => [index("rate_limits_window_idx").on(t.windowEndsAt)],
 );
-
 
 // One table for the whole stock: each kind uses the dimension columns that describe it
 // (validated per kind in app/lib/catalog/catalog-schema.ts), the others stay null.
@@ -160,7 +172,6 @@ export type Supplier = typeof suppliers.$inferSelect;
 export type Company = typeof companies.$inferSelect;
 export type User = typeof users.$inferSelect;
 export type CatalogItem = typeof catalogItems.$inferSelect;
-
 
 // A homeowner's request. The design, the computed plan and the price are a snapshot taken when it
 // was sent, so later catalog or price changes never alter what the customer saw.
@@ -249,7 +260,9 @@ export const leadPhotos = sqliteTable(
     mimeType: text("mime_type").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
     // Sent by the homeowner with the request, or taken by the estimator at the site visit.
-    source: text("source", { enum: ["homeowner", "site-visit"] }).notNull().default("homeowner"),
+    source: text("source", { enum: ["homeowner", "site-visit"] })
+      .notNull()
+      .default("homeowner"),
     createdAt: createdAt(),
   },
   (t) => [index("lead_photos_lead_idx").on(t.leadId)],
@@ -633,7 +646,9 @@ export const builds = sqliteTable(
   },
   (t) => [
     index("builds_company_days_idx").on(t.companyId, t.firstDay, t.lastDay),
-    uniqueIndex("builds_one_booked_per_lead").on(t.leadId).where(sql`status = 'booked'`),
+    uniqueIndex("builds_one_booked_per_lead")
+      .on(t.leadId)
+      .where(sql`status = 'booked'`),
   ],
 );
 

@@ -127,7 +127,10 @@ export function listWarnings(args: {
             : `The caps overhang the wall by ${formatInches(caps.outerOverhangIn)} at their middle, but where a cap's middle passes a wall unit's outside corner the corner shows by up to ${formatInches(-range.outerMinIn)}. Use deeper caps or a smaller inner overhang.`,
       });
     }
-    if (caps.innerOverhangIn > ADVICE_LIMITS.innerOverhangLargeIn || range.innerMaxIn > ADVICE_LIMITS.innerOverhangLargeIn + 0.5) {
+    if (
+      caps.innerOverhangIn > ADVICE_LIMITS.innerOverhangLargeIn ||
+      range.innerMaxIn > ADVICE_LIMITS.innerOverhangLargeIn + 0.5
+    ) {
       warnings.push({
         code: "cap-inner-overhang-large",
         message: `The caps reach ${formatInches(caps.innerOverhangIn)} over the fire at the middle of the wall's back faces, up to ${formatInches(range.innerMaxIn)} where they pass a back corner. Cap edges in the flame crack and spall; keep the inner overhang to 2 in or less.`,
@@ -163,7 +166,10 @@ export function listWarnings(args: {
 
   const openingIn = fireOpeningOf(ring, liner);
   if (openingIn < ADVICE_LIMITS.bowlSmallIn) {
-    const inside = openingIn < ring.bowlDiameterIn - 1e-9 ? ` (${formatInches(openingIn)} inside the ${liner?.kind === "firebrick" ? "firebrick" : "ring"})` : "";
+    const inside =
+      openingIn < ring.bowlDiameterIn - 1e-9
+        ? ` (${formatInches(openingIn)} inside the ${liner?.kind === "firebrick" ? "firebrick" : "ring"})`
+        : "";
     warnings.push({
       code: "bowl-small",
       message: `The fire's opening${inside || ` of ${formatInches(openingIn)}`} is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.`,
@@ -196,7 +202,11 @@ const LOCAL_RULES = "Check with your local fire authority and codes.";
 /** Distances from the fire on this site, ft; each is checked against the company's own setting. */
 export type SiteDistances = { structureFt?: number; propertyLineFt?: number; branchesFt?: number };
 
-export type CautionLimits = { requiredSetbackFt: number; requiredPropertyLineFt: number; requiredBranchClearanceFt: number };
+export type CautionLimits = {
+  requiredSetbackFt: number;
+  requiredPropertyLineFt: number;
+  requiredBranchClearanceFt: number;
+};
 
 /** Lists the safety and code notes to show with the plan (distances in ft, weights in lb). */
 export function listCautions(args: {

@@ -79,7 +79,8 @@ export function isWorkingDay(date: CalendarDate, calendar: WorkCalendar): boolea
  */
 export function buildDaysNeeded(args: { labourHours: number; crewSize: number; dayHours: number }): number {
   const { labourHours, crewSize, dayHours } = args;
-  if (!(labourHours >= 0) || !Number.isFinite(labourHours)) throw new RangeError("labour hours must be a number of hours, 0 or more");
+  if (!(labourHours >= 0) || !Number.isFinite(labourHours))
+    throw new RangeError("labour hours must be a number of hours, 0 or more");
   if (!Number.isInteger(crewSize) || crewSize < 1) throw new RangeError("a crew is one person or more");
   if (!(dayHours > 0) || dayHours > 24) throw new RangeError("a working day is more than 0 and at most 24 hours");
   // A hair of tolerance so 32.000000001 h for 2 × 8 h is two days, not three.
@@ -109,7 +110,12 @@ export function buildDates(start: CalendarDate, days: number, calendar: WorkCale
 }
 
 /** A build on the calendar: who is on it and on which days. */
-export type ScheduledBuild = { id: number; label: string; crewUserIds: readonly number[]; dates: readonly CalendarDate[] };
+export type ScheduledBuild = {
+  id: number;
+  label: string;
+  crewUserIds: readonly number[];
+  dates: readonly CalendarDate[];
+};
 
 export type Clash =
   | { kind: "crew"; date: CalendarDate; userId: number; otherBuildId: number; otherLabel: string }
@@ -125,7 +131,8 @@ export function findClashes(build: ScheduledBuild, others: readonly ScheduledBui
     for (const other of others) {
       if (other.id === build.id || !other.dates.includes(date)) continue;
       for (const userId of build.crewUserIds) {
-        if (other.crewUserIds.includes(userId)) clashes.push({ kind: "crew", date, userId, otherBuildId: other.id, otherLabel: other.label });
+        if (other.crewUserIds.includes(userId))
+          clashes.push({ kind: "crew", date, userId, otherBuildId: other.id, otherLabel: other.label });
       }
     }
   }
@@ -136,6 +143,10 @@ export function findClashes(build: ScheduledBuild, others: readonly ScheduledBui
  * Moves a build to start on `newStart`, keeping its number of working days (dragging it on the
  * calendar): the days are laid out again from the new start, skipping weekdays not worked and days off.
  */
-export function moveBuild(dates: readonly CalendarDate[], newStart: CalendarDate, calendar: WorkCalendar): CalendarDate[] {
+export function moveBuild(
+  dates: readonly CalendarDate[],
+  newStart: CalendarDate,
+  calendar: WorkCalendar,
+): CalendarDate[] {
   return buildDates(newStart, Math.max(1, dates.length), calendar);
 }

@@ -31,7 +31,14 @@ export type LabourTaskKey =
 export type LabourTask = { task: LabourTaskKey; label: string; hours: number };
 
 /** One kind of saw cut: how many, how long and how deep each is, and the passes it takes. */
-export type SawCutGroup = { what: string; count: number; lengthIn: number; depthIn: number; passes: number; minutesEach: number };
+export type SawCutGroup = {
+  what: string;
+  count: number;
+  lengthIn: number;
+  depthIn: number;
+  passes: number;
+  minutesEach: number;
+};
 
 export type LabourEstimate = {
   hours: number;
@@ -48,9 +55,16 @@ export type LabourEstimate = {
 const roundHours = (hours: number) => Math.round(hours * 100) / 100;
 
 /** Minutes one cut takes: passes × handling + (length × depth) / rate; passes = ceil(depth / saw depth). */
-export function timeSawCut(lengthIn: number, depthIn: number, factors: CompanyFactors): { passes: number; minutes: number } {
+export function timeSawCut(
+  lengthIn: number,
+  depthIn: number,
+  factors: CompanyFactors,
+): { passes: number; minutes: number } {
   const passes = Math.max(1, Math.ceil(depthIn / factors.sawMaxCutDepthIn - 1e-9));
-  return { passes, minutes: passes * factors.sawHandlingMinutesPerPass + (lengthIn * depthIn) / factors.sawCutIn2PerMinute };
+  return {
+    passes,
+    minutes: passes * factors.sawHandlingMinutesPerPass + (lengthIn * depthIn) / factors.sawCutIn2PerMinute,
+  };
 }
 
 /**
@@ -105,14 +119,20 @@ export function estimateLabour(args: {
 }): LabourEstimate {
   const { ring, wallUnit, caps, liner, patio, base, materials, factors } = args;
   const ordered = (key: MaterialLine["key"]) => materials.find((m) => m.key === key)?.quantity ?? 0;
-  const wallUnitLb = weighConcrete(((wallUnit.faceIn + wallUnit.backIn) / 2) * wallUnit.depthIn * wallUnit.heightIn, factors.concreteLbPerFt3);
-  const capBlankLb = caps ? weighConcrete(caps.blankLengthIn * caps.blankDepthIn * caps.thicknessIn, factors.concreteLbPerFt3) : null;
+  const wallUnitLb = weighConcrete(
+    ((wallUnit.faceIn + wallUnit.backIn) / 2) * wallUnit.depthIn * wallUnit.heightIn,
+    factors.concreteLbPerFt3,
+  );
+  const capBlankLb = caps
+    ? weighConcrete(caps.blankLengthIn * caps.blankDepthIn * caps.thicknessIn, factors.concreteLbPerFt3)
+    : null;
   // Firebrick is weighed at the concrete figure too: a 9 in straight comes to about 8 lb (close to suppliers' figures, from memory).
   const brickLb =
     liner?.kind === "firebrick" && liner.fits
       ? weighConcrete(brickLength(liner) * liner.rowHeightIn * liner.thicknessIn, factors.concreteLbPerFt3)
       : 0;
-  const carriedLb = ordered("wall-unit") * wallUnitLb + ordered("cap") * (capBlankLb ?? 0) + ordered("firebrick") * brickLb;
+  const carriedLb =
+    ordered("wall-unit") * wallUnitLb + ordered("cap") * (capBlankLb ?? 0) + ordered("firebrick") * brickLb;
 
   const sawGroups = listSawCuts({ ring, wallUnit, caps, liner, factors });
   const sawCuts = sawGroups.reduce((sum, g) => sum + g.count, 0);
@@ -154,13 +174,24 @@ export function estimateLabour(args: {
     tasks.push({ task: "saw-cuts", label: `Wet-saw cuts (${sawCuts})`, hours: sawMinutes / 60 });
   }
   if (caps) {
-    tasks.push({ task: "mark-caps", label: `Mark the cap blanks (${caps.count})`, hours: (caps.count * factors.minutesPerCapMark) / 60 });
-    tasks.push({ task: "caps", label: `Glue and set the caps (${caps.count})`, hours: (caps.count * factors.minutesPerCapSet) / 60 });
+    tasks.push({
+      task: "mark-caps",
+      label: `Mark the cap blanks (${caps.count})`,
+      hours: (caps.count * factors.minutesPerCapMark) / 60,
+    });
+    tasks.push({
+      task: "caps",
+      label: `Glue and set the caps (${caps.count})`,
+      hours: (caps.count * factors.minutesPerCapSet) / 60,
+    });
   }
   if (liner?.kind === "steel-ring") {
     tasks.push({
       task: "liner",
-      label: liner.bedDepthIn > 0 ? "Lay the gravel bed, set the steel ring and backfill" : "Set the steel ring and backfill",
+      label:
+        liner.bedDepthIn > 0
+          ? "Lay the gravel bed, set the steel ring and backfill"
+          : "Set the steel ring and backfill",
       hours: factors.steelRingHours,
     });
   } else if (liner?.kind === "firebrick" && liner.fits) {

@@ -99,7 +99,11 @@ export type PatioPlan = {
  * the radii `innerIn` and `outerIn`: cells wholly inside are whole pavers, cells a circle crosses
  * are cut ones (nearest and farthest points of a cell from the centre decide; derived here).
  */
-export function countGridPavers(paver: { lengthIn: number; widthIn: number }, innerIn: number, outerIn: number): { whole: number; cut: number } {
+export function countGridPavers(
+  paver: { lengthIn: number; widthIn: number },
+  innerIn: number,
+  outerIn: number,
+): { whole: number; cut: number } {
   const { lengthIn: lx, widthIn: ly } = paver;
   let whole = 0;
   let cut = 0;
@@ -135,7 +139,8 @@ export function planPatio(args: {
     ["patio.paver.widthIn", paver.widthIn],
   ];
   for (const [path, value] of sizes) {
-    if (!Number.isFinite(value) || value <= 0) throw new PlanGeometryError(path, "This size must be a length above 0 in.");
+    if (!Number.isFinite(value) || value <= 0)
+      throw new PlanGeometryError(path, "This size must be a length above 0 in.");
   }
   const r = R - border.widthIn;
   // The border's inner edge must clear the pit's outside corners, or the field has no room at all.

@@ -95,7 +95,6 @@ export const FIREBRICK_COLOUR = "#d8b98a";
 export const GRAVEL_COLOUR = "#7d776f";
 export const STEEL_RING_COLOUR = "#4f4843";
 
-
 const DEG = Math.PI / 180;
 
 /** Returns `hex` when it is a #rrggbb colour, else `fallback` (inputs may come from stored catalogue rows). */
@@ -362,7 +361,8 @@ export function placeFirebrick(input: PitSceneInput): PartPlacement[] {
   for (let row = 0; row < rows; row++) {
     // Bricks are bonded like the wall: joints of one row land on the middles of the row below.
     const turn = row % 2 === 1 ? Math.PI / m : 0;
-    for (let i = 0; i < m; i++) placements.push(placeOnRadius(r, turn + (2 * Math.PI * i) / m, row * liner.widthIn, row));
+    for (let i = 0; i < m; i++)
+      placements.push(placeOnRadius(r, turn + (2 * Math.PI * i) / m, row * liner.widthIn, row));
   }
   return placements;
 }
@@ -482,7 +482,11 @@ export function drawPitPlan(input: PitSceneInput): PitPlanDrawing {
     wallUnits: walls.whole.filter(firstCourse).map((p) => toPlanPolygon(unit, p)),
     closureUnits: closure ? walls.closures.filter(firstCourse).map((p) => toPlanPolygon(closure, p)) : [],
     caps: cap ? placeCaps(input).map((p) => toPlanPolygon(cap, p)) : [],
-    firebrick: brick ? placeFirebrick(input).filter(firstCourse).map((p) => toPlanPolygon(brick, p)) : [],
+    firebrick: brick
+      ? placeFirebrick(input)
+          .filter(firstCourse)
+          .map((p) => toPlanPolygon(brick, p))
+      : [],
     borderUnits: [
       ...(border ? borderPlacements.whole.map((p) => toPlanPolygon(border, p)) : []),
       ...(borderClosure ? borderPlacements.closure.map((p) => toPlanPolygon(borderClosure, p)) : []),
@@ -504,7 +508,11 @@ type Vec3 = [x: number, y: number, z: number];
 
 const sub = (p: Vec3, q: Vec3): Vec3 => [p[0] - q[0], p[1] - q[1], p[2] - q[2]];
 const dot = (p: Vec3, q: Vec3) => p[0] * q[0] + p[1] * q[1] + p[2] * q[2];
-const cross = (p: Vec3, q: Vec3): Vec3 => [p[1] * q[2] - p[2] * q[1], p[2] * q[0] - p[0] * q[2], p[0] * q[1] - p[1] * q[0]];
+const cross = (p: Vec3, q: Vec3): Vec3 => [
+  p[1] * q[2] - p[2] * q[1],
+  p[2] * q[0] - p[0] * q[2],
+  p[0] * q[1] - p[1] * q[0],
+];
 function normalise(p: Vec3): Vec3 {
   const length = Math.hypot(...p) || 1;
   return [p[0] / length, p[1] / length, p[2] / length];
@@ -554,8 +562,16 @@ export function frameCamera(input: PitSceneInput, aspect: number, fovDeg: number
   // 40° east of south; scene +z is plan south.
   const azimuth = 40 * DEG;
   const target: Vec3 = [0, topIn * 0.3, 0];
-  const direction: Vec3 = [Math.cos(elevation) * Math.sin(azimuth), Math.sin(elevation), Math.cos(elevation) * Math.cos(azimuth)];
-  const positionAt = (d: number): Vec3 => [target[0] + d * direction[0], target[1] + d * direction[1], target[2] + d * direction[2]];
+  const direction: Vec3 = [
+    Math.cos(elevation) * Math.sin(azimuth),
+    Math.sin(elevation),
+    Math.cos(elevation) * Math.cos(azimuth),
+  ];
+  const positionAt = (d: number): Vec3 => [
+    target[0] + d * direction[0],
+    target[1] + d * direction[1],
+    target[2] + d * direction[2],
+  ];
   const outline = sampleSceneOutline(input);
   const fits = (d: number) => {
     const position = positionAt(d);

@@ -14,7 +14,13 @@ export type LabourTask = { task: LabourTaskKey; label: string; hours: number };
 
 export type LabourEstimate = { hours: number; tasks: LabourTask[]; sawCuts: number };
 
-export type PriceLine = { item: string; quantity: number; unit: MaterialUnit; unitPriceCents: number; totalCents: number };
+export type PriceLine = {
+  item: string;
+  quantity: number;
+  unit: MaterialUnit;
+  unitPriceCents: number;
+  totalCents: number;
+};
 
 export type SiteCostKey = "delivery" | "equipment" | "disposal";
 
@@ -66,18 +72,18 @@ export type PriceEstimate = { lowCents: number; highCents: number; breakdown: Pr
 /** Unit prices by material, integer cents; a missing or null price leaves the job unpriced. */
 export type UnitPrices = Partial<Record<MaterialKey, number | null | undefined>>;
 
-
 /** Rounds a cents amount down (or up) to a multiple of `stepCents`; steps below 1 cent leave it whole. */
 export function roundToStep(cents: number, stepCents: number, direction: "down" | "up"): number {
   const step = Math.max(1, Math.round(stepCents));
   return (direction === "down" ? Math.floor(cents / step) : Math.ceil(cents / step)) * step;
 }
 
-const SITE_COSTS: { key: SiteCostKey; label: string; factor: "deliveryCents" | "equipmentCents" | "disposalCents" }[] = [
-  { key: "delivery", label: "Delivery", factor: "deliveryCents" },
-  { key: "equipment", label: "Equipment hire", factor: "equipmentCents" },
-  { key: "disposal", label: "Disposal", factor: "disposalCents" },
-];
+const SITE_COSTS: { key: SiteCostKey; label: string; factor: "deliveryCents" | "equipmentCents" | "disposalCents" }[] =
+  [
+    { key: "delivery", label: "Delivery", factor: "deliveryCents" },
+    { key: "equipment", label: "Equipment hire", factor: "equipmentCents" },
+    { key: "disposal", label: "Disposal", factor: "disposalCents" },
+  ];
 
 const toHundredths = (value: number) => Math.round(value * 100) / 100;
 
@@ -151,7 +157,11 @@ export function priceJob(args: {
     0,
     roundToStep(Math.round(totalCents * (1 - factors.priceSpreadPct / 100)), factors.priceRoundCents, "down"),
   );
-  const highCents = roundToStep(Math.round(totalCents * (1 + factors.priceSpreadPct / 100)), factors.priceRoundCents, "up");
+  const highCents = roundToStep(
+    Math.round(totalCents * (1 + factors.priceSpreadPct / 100)),
+    factors.priceRoundCents,
+    "up",
+  );
   return {
     lowCents,
     highCents,

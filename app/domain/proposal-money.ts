@@ -46,7 +46,10 @@ export type JobTotals = {
 };
 
 /** The job's totals: always the signed proposal plus the signed change orders, cents. */
-export function jobTotals(signed: { totalCents: number; depositCents: number }, signedChangeOrderDeltas: number[]): JobTotals {
+export function jobTotals(
+  signed: { totalCents: number; depositCents: number },
+  signedChangeOrderDeltas: number[],
+): JobTotals {
   const contractCents = signedChangeOrderDeltas.reduce((sum, d) => sum + d, signed.totalCents);
   return { contractCents, depositCents: signed.depositCents, balanceCents: contractCents - signed.depositCents };
 }

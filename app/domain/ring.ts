@@ -266,7 +266,11 @@ export function measureBondOffset(pieces: number[], turn: number, faceDistanceIn
   return Math.max(0, Math.min(oneWay(turn), oneWay(-turn)));
 }
 
-function layBond(layout: Omit<CourseLayout, "runningBondDeg" | "bondOffsetIn" | "bondClosureShift">, depthIn: number, courses: number) {
+function layBond(
+  layout: Omit<CourseLayout, "runningBondDeg" | "bondOffsetIn" | "bondClosureShift">,
+  depthIn: number,
+  courses: number,
+) {
   const pieces = pieceAngles(layout.unitCount, layout.closure);
   const turn = layout.closure ? findBondTurn(pieces) : Math.PI / layout.unitCount;
   const faceDistanceIn = layout.edgeDistanceIn + depthIn;

@@ -24,7 +24,8 @@ export type SiteRules = {
   narrowAccessIn: number;
 };
 
-export type SiteCheckCode = "structure-too-close" | "property-line" | "branches-over" | "narrow-access" | "steep-slope" | "soft-soil";
+export type SiteCheckCode =
+  "structure-too-close" | "property-line" | "branches-over" | "narrow-access" | "steep-slope" | "soft-soil";
 export type SiteCheck = { code: SiteCheckCode; message: string };
 
 // A loaded wheelbarrow or a walk-behind loader needs about a standard gate's width; a skid steer
@@ -66,12 +67,19 @@ export function checkSite(m: SiteMeasures, rules: SiteRules): SiteCheck[] {
     });
   }
   if (m.slope === "steep") {
-    checks.push({ code: "steep-slope", message: "Steep ground: the pad is cut level into the slope and the low side built up, so the slope allowance applies." });
+    checks.push({
+      code: "steep-slope",
+      message:
+        "Steep ground: the pad is cut level into the slope and the low side built up, so the slope allowance applies.",
+    });
   }
   if (m.soil === "clay" || m.soil === "fill") {
     checks.push({
       code: "soft-soil",
-      message: m.soil === "clay" ? "Clay holds water: dig the base deeper and give it a way to drain (common practice, no source)." : "Fill settles: dig to firm ground or compact it in lifts before the base (common practice, no source).",
+      message:
+        m.soil === "clay"
+          ? "Clay holds water: dig the base deeper and give it a way to drain (common practice, no source)."
+          : "Fill settles: dig to firm ground or compact it in lifts before the base (common practice, no source).",
     });
   }
   return checks;
@@ -84,10 +92,18 @@ export function siteAllowances(
 ): { key: "narrow-access" | "steep-slope"; label: string; cents: number }[] {
   const lines: { key: "narrow-access" | "steep-slope"; label: string; cents: number }[] = [];
   if (m.accessWidthIn < rules.narrowAccessIn && rules.narrowAccessAllowanceCents > 0) {
-    lines.push({ key: "narrow-access", label: `Narrow access (${Math.round(m.accessWidthIn)} in): material carried in by hand`, cents: rules.narrowAccessAllowanceCents });
+    lines.push({
+      key: "narrow-access",
+      label: `Narrow access (${Math.round(m.accessWidthIn)} in): material carried in by hand`,
+      cents: rules.narrowAccessAllowanceCents,
+    });
   }
   if (m.slope === "steep" && rules.steepSlopeAllowanceCents > 0) {
-    lines.push({ key: "steep-slope", label: "Steep ground: pad cut level and built up", cents: rules.steepSlopeAllowanceCents });
+    lines.push({
+      key: "steep-slope",
+      label: "Steep ground: pad cut level and built up",
+      cents: rules.steepSlopeAllowanceCents,
+    });
   }
   return lines;
 }

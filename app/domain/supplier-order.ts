@@ -10,7 +10,8 @@ import { addCalendarDays, daysBetween, weekdayOf } from "~/domain/build-schedule
 
 export const LB_PER_SHORT_TON = 2000;
 
-export type OrderUnit = "each" | "piece" | "pallet" | "cube" | "bundle" | "case" | "bag" | "pail" | "cartridge" | "ton" | "cubic-yard";
+export type OrderUnit =
+  "each" | "piece" | "pallet" | "cube" | "bundle" | "case" | "bag" | "pail" | "cartridge" | "ton" | "cubic-yard";
 
 /** Order units that are whole packs of `unitsPerOrderUnit` pieces, bags, pails or cartridges. */
 export const PACK_UNITS: readonly OrderUnit[] = ["pallet", "cube", "bundle", "case"];
@@ -78,7 +79,10 @@ function weigh(orderQuantity: number, terms: OrderTerms): number | null {
  * Anything else (tons in pallets, bags in tons) is a problem for the owner to settle in the catalog.
  */
 export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: number | null): RoundingResult {
-  const problem = (message: string): RoundingResult => ({ ok: false, problem: { key: line.key, item: line.item, message } });
+  const problem = (message: string): RoundingResult => ({
+    ok: false,
+    problem: { key: line.key, item: line.item, message },
+  });
   const { orderUnit, unitsPerOrderUnit: per } = terms;
   if (!(per > 0) || !Number.isFinite(per)) return problem(`${line.item}: units per order unit must be more than 0.`);
   const base = { key: line.key, item: line.item, planQuantity: line.quantity, planUnit: line.unit, orderUnit };
@@ -86,7 +90,16 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
   if (COUNT_UNITS.includes(line.unit)) {
     if (SAME_COUNT[line.unit]?.includes(orderUnit)) {
       const q = Math.ceil(line.quantity - EPSILON);
-      return { ok: true, line: { ...base, orderQuantity: q, suppliedQuantity: q, weightLb: weigh(q, terms), working: `${line.quantity} ${line.unit}, as planned` } };
+      return {
+        ok: true,
+        line: {
+          ...base,
+          orderQuantity: q,
+          suppliedQuantity: q,
+          weightLb: weigh(q, terms),
+          working: `${line.quantity} ${line.unit}, as planned`,
+        },
+      };
     }
     if (PACK_UNITS.includes(orderUnit)) {
       if (!Number.isInteger(per)) return problem(`${line.item}: a ${orderUnit} holds a whole number of ${line.unit}s.`);
@@ -102,7 +115,9 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
         },
       };
     }
-    return problem(`${line.item} is counted (${line.unit}) but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ${line.unit}, pallet, cube, bundle or case.`);
+    return problem(
+      `${line.item} is counted (${line.unit}) but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ${line.unit}, pallet, cube, bundle or case.`,
+    );
   }
 
   // Bulk, planned in short tons.
@@ -110,11 +125,18 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
     const tons = tidy(ceilTo(line.quantity, per));
     return {
       ok: true,
-      line: { ...base, orderQuantity: tons, suppliedQuantity: tons, weightLb: tidy(tons * LB_PER_SHORT_TON), working: `${line.quantity} t rounded up to a step of ${per} t` },
+      line: {
+        ...base,
+        orderQuantity: tons,
+        suppliedQuantity: tons,
+        weightLb: tidy(tons * LB_PER_SHORT_TON),
+        working: `${line.quantity} t rounded up to a step of ${per} t`,
+      },
     };
   }
   if (orderUnit === "cubic-yard") {
-    if (tonsPerYd3 === null || !(tonsPerYd3 > 0)) return problem(`${line.item}: no density is known to turn tons into cubic yards; sell it by the ton.`);
+    if (tonsPerYd3 === null || !(tonsPerYd3 > 0))
+      return problem(`${line.item}: no density is known to turn tons into cubic yards; sell it by the ton.`);
     const yd3 = tidy(ceilTo(line.quantity / tonsPerYd3, per));
     const tons = yd3 * tonsPerYd3;
     return {
@@ -130,7 +152,8 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
   }
   if (orderUnit === "bag") {
     const bagLb = terms.orderUnitWeightLb;
-    if (bagLb === null || !(bagLb > 0)) return problem(`${line.item}: give the weight of one bag to order tons in bags.`);
+    if (bagLb === null || !(bagLb > 0))
+      return problem(`${line.item}: give the weight of one bag to order tons in bags.`);
     const bags = Math.ceil((line.quantity * LB_PER_SHORT_TON) / bagLb - EPSILON);
     return {
       ok: true,
@@ -143,7 +166,9 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
       },
     };
   }
-  return problem(`${line.item} is planned in tons but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ton, cubic yard or bag.`);
+  return problem(
+    `${line.item} is planned in tons but the catalog sells it by the ${orderUnit.replace("-", " ")}: choose ton, cubic yard or bag.`,
+  );
 }
 
 /** The delivered weight of some lines, lb, and the items whose weight is unknown. */
@@ -189,10 +214,16 @@ const MOVE_WORDS: Record<SupplierOrderMove, string> = {
 };
 
 /** The state a move leads to, or why it cannot be made from `state`. */
-export function moveSupplierOrder(state: SupplierOrderState, move: SupplierOrderMove): { ok: true; to: SupplierOrderState } | { ok: false; message: string } {
+export function moveSupplierOrder(
+  state: SupplierOrderState,
+  move: SupplierOrderMove,
+): { ok: true; to: SupplierOrderState } | { ok: false; message: string } {
   const rule = MOVES[move];
   if (rule.from === state) return { ok: true, to: rule.to };
-  return { ok: false, message: `This order is ${STATE_WORDS[state]}; only ${STATE_WORDS[rule.from] === "a draft" ? "a draft" : `an order ${STATE_WORDS[rule.from]}`} can be ${MOVE_WORDS[move]}.` };
+  return {
+    ok: false,
+    message: `This order is ${STATE_WORDS[state]}; only ${STATE_WORDS[rule.from] === "a draft" ? "a draft" : `an order ${STATE_WORDS[rule.from]}`} can be ${MOVE_WORDS[move]}.`,
+  };
 }
 
 // ---- Combining ----
@@ -211,13 +242,21 @@ export function isoWeekOf(day: string): string {
 }
 
 /** An order as combining sees it; `label` names it in messages ("SO-0012"), else "Order <id>". */
-export type CombinableOrder = { id: number; supplierId: number; state: SupplierOrderState; requestedOn: string[]; label?: string };
+export type CombinableOrder = {
+  id: number;
+  supplierId: number;
+  state: SupplierOrderState;
+  requestedOn: string[];
+  label?: string;
+};
 
 /**
  * Drafts that can go as one order: the same supplier, every delivery in the same ISO week. Groups of
  * two or more, keyed "supplierId/week", each listing order ids ascending.
  */
-export function findCombinable(orders: readonly CombinableOrder[]): { supplierId: number; week: string; orderIds: number[] }[] {
+export function findCombinable(
+  orders: readonly CombinableOrder[],
+): { supplierId: number; week: string; orderIds: number[] }[] {
   const groups = new Map<string, { supplierId: number; week: string; orderIds: number[] }>();
   for (const order of orders) {
     if (order.state !== "drafted" || order.requestedOn.length === 0) continue;
@@ -229,16 +268,20 @@ export function findCombinable(orders: readonly CombinableOrder[]): { supplierId
     group.orderIds.push(order.id);
     groups.set(key, group);
   }
-  return [...groups.values()].filter((g) => g.orderIds.length > 1).map((g) => ({ ...g, orderIds: [...g.orderIds].sort((a, b) => a - b) }));
+  return [...groups.values()]
+    .filter((g) => g.orderIds.length > 1)
+    .map((g) => ({ ...g, orderIds: [...g.orderIds].sort((a, b) => a - b) }));
 }
 
 /** Why these orders cannot be combined, or null when they can (same supplier, all drafts, one week). */
 export function checkCombine(orders: readonly CombinableOrder[]): string | null {
   if (orders.length < 2) return "Choose at least two draft orders to combine.";
   const notDraft = orders.find((o) => o.state !== "drafted");
-  if (notDraft) return `${notDraft.label ?? `Order ${notDraft.id}`} is ${STATE_WORDS[notDraft.state]}; only drafts can be combined.`;
+  if (notDraft)
+    return `${notDraft.label ?? `Order ${notDraft.id}`} is ${STATE_WORDS[notDraft.state]}; only drafts can be combined.`;
   if (new Set(orders.map((o) => o.supplierId)).size > 1) return "Only orders to the same supplier can be combined.";
   const weeks = new Set(orders.flatMap((o) => o.requestedOn.map(isoWeekOf)));
-  if (weeks.size > 1) return `Only deliveries in the same week can be combined; these fall in ${[...weeks].sort().join(", ")}.`;
+  if (weeks.size > 1)
+    return `Only deliveries in the same week can be combined; these fall in ${[...weeks].sort().join(", ")}.`;
   return null;
 }

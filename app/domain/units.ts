@@ -91,7 +91,10 @@ export function parseLength(text: string, bareUnit: TypedLengthUnit = "in"): num
     value = new Fraction(Number(bareNum), Number(bareDen));
   }
   const factor = UNIT_TO_IN[(unitText ?? bareUnit).toLowerCase()];
-  const lengthIn = value.mul(factor).mul(minus ? -1 : 1).valueOf();
+  const lengthIn = value
+    .mul(factor)
+    .mul(minus ? -1 : 1)
+    .valueOf();
   return Number.isFinite(lengthIn) ? lengthIn : null;
 }
 

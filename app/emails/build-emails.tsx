@@ -20,7 +20,8 @@ function GettingReady() {
         • leave a clear way in for a wheelbarrow and pallets (gates unlocked, vehicles moved);
         <br />• keep pets indoors while the crew works and the saw runs;
         <br />• turn off sprinklers near the spot the day before;
-        <br />• make sure the utility locate marks are done and still visible: nobody digs before buried lines are marked.
+        <br />• make sure the utility locate marks are done and still visible: nobody digs before buried lines are
+        marked.
       </Text>
     </>
   );
@@ -29,34 +30,66 @@ function GettingReady() {
 /** Build booked or moved (the .ics rides along: the same event, updated). */
 export function BuildBookedEmail(props: BuildEmailProps & { isMove: boolean }) {
   return (
-    <EmailShell companyName={props.companyName} preview={`${props.isMove ? "New build dates" : "Build dates"}: ${props.days}`}>
+    <EmailShell
+      companyName={props.companyName}
+      preview={`${props.isMove ? "New build dates" : "Build dates"}: ${props.days}`}
+    >
       <Text style={emailText}>Hello {props.recipientName},</Text>
       <Text style={emailText}>
-        {props.isMove ? `${props.companyName} moved the build of your fire pit. The new dates:` : `${props.companyName} has booked the build of your fire pit:`}
+        {props.isMove
+          ? `${props.companyName} moved the build of your fire pit. The new dates:`
+          : `${props.companyName} has booked the build of your fire pit:`}
       </Text>
       <Text style={{ ...emailText, fontSize: "18px", fontWeight: 800 }}>{props.days}</Text>
       <Text style={emailText}>At {props.address}.</Text>
       <GettingReady />
       <Text style={small}>
-        {props.isMove ? "The calendar file attached updates the event already in your calendar." : "The calendar file attached adds the build days to your calendar."} Weather can move a
-        build; we will tell you if it does.
+        {props.isMove
+          ? "The calendar file attached updates the event already in your calendar."
+          : "The calendar file attached adds the build days to your calendar."}{" "}
+        Weather can move a build; we will tell you if it does.
       </Text>
     </EmailShell>
   );
 }
 
 /** The crew member's copy: where and when, with the job's own calendar event. */
-export function BuildCrewEmail(props: BuildEmailProps & { customerName: string; kind: "booked" | "moved" | "cancelled"; jobLink: string }) {
-  const what = { booked: "You are on a build", moved: "A build you are on has moved", cancelled: "A build you were on is cancelled" }[props.kind];
+export function BuildCrewEmail(
+  props: BuildEmailProps & { customerName: string; kind: "booked" | "moved" | "cancelled"; jobLink: string },
+) {
+  const what = {
+    booked: "You are on a build",
+    moved: "A build you are on has moved",
+    cancelled: "A build you were on is cancelled",
+  }[props.kind];
   return (
     <EmailShell companyName={props.companyName} preview={`${what}: ${props.days}`}>
       <Text style={emailText}>Hello {props.recipientName},</Text>
       <Text style={emailText}>
         {what}: {props.customerName}, {props.address}.
       </Text>
-      <Text style={{ ...emailText, fontSize: "18px", fontWeight: 800, textDecoration: props.kind === "cancelled" ? "line-through" : undefined }}>{props.days}</Text>
-      {props.kind === "cancelled" ? null : <Text style={emailText}>The job page has the cut sheet, the site notes and the photos: {props.jobLink}</Text>}
-      <Text style={small}>The calendar file attached {props.kind === "cancelled" ? "removes the event from" : props.kind === "moved" ? "updates the event in" : "adds the days to"} your calendar.</Text>
+      <Text
+        style={{
+          ...emailText,
+          fontSize: "18px",
+          fontWeight: 800,
+          textDecoration: props.kind === "cancelled" ? "line-through" : undefined,
+        }}
+      >
+        {props.days}
+      </Text>
+      {props.kind === "cancelled" ? null : (
+        <Text style={emailText}>The job page has the cut sheet, the site notes and the photos: {props.jobLink}</Text>
+      )}
+      <Text style={small}>
+        The calendar file attached{" "}
+        {props.kind === "cancelled"
+          ? "removes the event from"
+          : props.kind === "moved"
+            ? "updates the event in"
+            : "adds the days to"}{" "}
+        your calendar.
+      </Text>
     </EmailShell>
   );
 }

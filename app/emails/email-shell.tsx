@@ -2,8 +2,20 @@ import { Body, Container, Head, Hr, Html, Preview, Section, Text } from "@react-
 import type { ReactNode } from "react";
 import { formatPhone, phoneHref } from "~/lib/format/phone";
 
-const page = { backgroundColor: "#f4eee5", fontFamily: "Nunito, Helvetica, Arial, sans-serif", color: "#2d2825", margin: 0, padding: "24px 0" };
-const card = { backgroundColor: "#ffffff", borderRadius: "12px", border: "1px solid #e8dfd2", padding: "28px", maxWidth: "560px" };
+const page = {
+  backgroundColor: "#f4eee5",
+  fontFamily: "Nunito, Helvetica, Arial, sans-serif",
+  color: "#2d2825",
+  margin: 0,
+  padding: "24px 0",
+};
+const card = {
+  backgroundColor: "#ffffff",
+  borderRadius: "12px",
+  border: "1px solid #e8dfd2",
+  padding: "28px",
+  maxWidth: "560px",
+};
 const brand = { fontSize: "18px", fontWeight: 800, color: "#1f1b19", margin: "0 0 16px" };
 const foot = { fontSize: "12px", color: "#6f655d", lineHeight: "18px" };
 
@@ -12,7 +24,17 @@ const foot = { fontSize: "12px", color: "#6f655d", lineHeight: "18px" };
  * homeowner passes the company's phone, so the footer says how to reach the contractor (replies go
  * to the company's address: the outbox worker sets Reply-To).
  */
-export function EmailShell({ preview, companyName, companyPhone, children }: { preview: string; companyName: string; companyPhone?: string; children: ReactNode }) {
+export function EmailShell({
+  preview,
+  companyName,
+  companyPhone,
+  children,
+}: {
+  preview: string;
+  companyName: string;
+  companyPhone?: string;
+  children: ReactNode;
+}) {
   return (
     <Html lang="en">
       <Head />
@@ -34,7 +56,10 @@ export function EmailShell({ preview, companyName, companyPhone, children }: { p
                 .
               </Text>
             ) : null}
-            <Text style={foot}>Sent by Emberwright for {companyName}. Fire rules differ from town to town: check with your local fire authority and codes before you build.</Text>
+            <Text style={foot}>
+              Sent by Emberwright for {companyName}. Fire rules differ from town to town: check with your local fire
+              authority and codes before you build.
+            </Text>
           </Section>
         </Container>
       </Body>
@@ -43,4 +68,13 @@ export function EmailShell({ preview, companyName, companyPhone, children }: { p
 }
 
 export const emailText = { fontSize: "15px", lineHeight: "22px", margin: "0 0 12px" };
-export const emailButton = { backgroundColor: "#b14c12", color: "#ffffff", borderRadius: "8px", padding: "12px 18px", fontWeight: 700, fontSize: "15px", textDecoration: "none", display: "inline-block" };
+export const emailButton = {
+  backgroundColor: "#b14c12",
+  color: "#ffffff",
+  borderRadius: "8px",
+  padding: "12px 18px",
+  fontWeight: 700,
+  fontSize: "15px",
+  textDecoration: "none",
+  display: "inline-block",
+};

@@ -2,9 +2,25 @@ import { Button, Text } from "@react-email/components";
 import { EmailShell, emailButton, emailText } from "~/emails/email-shell";
 
 /** To an estimator (or owner) given a request, or a crew member given a signed job: whose, where, and the link. */
-export function StaffAssignedEmail(props: { companyName: string; recipientName: string; assignedBy: string; customerName: string; town: string; asCrew: boolean; stage: string; link: string }) {
+export function StaffAssignedEmail(props: {
+  companyName: string;
+  recipientName: string;
+  assignedBy: string;
+  customerName: string;
+  town: string;
+  asCrew: boolean;
+  stage: string;
+  link: string;
+}) {
   return (
-    <EmailShell companyName={props.companyName} preview={props.asCrew ? `Job to build: ${props.customerName}, ${props.town}` : `Request assigned to you: ${props.customerName}, ${props.town}`}>
+    <EmailShell
+      companyName={props.companyName}
+      preview={
+        props.asCrew
+          ? `Job to build: ${props.customerName}, ${props.town}`
+          : `Request assigned to you: ${props.customerName}, ${props.town}`
+      }
+    >
       <Text style={emailText}>Hello {props.recipientName},</Text>
       <Text style={emailText}>
         {props.asCrew
@@ -30,17 +46,26 @@ export function RevisionSentEmail(props: {
   link: string;
 }) {
   return (
-    <EmailShell companyName={props.companyName} companyPhone={props.companyPhone} preview={`${props.companyName} sent you a revised fire-pit design`}>
+    <EmailShell
+      companyName={props.companyName}
+      companyPhone={props.companyPhone}
+      preview={`${props.companyName} sent you a revised fire-pit design`}
+    >
       <Text style={emailText}>Hello {props.recipientName},</Text>
       <Text style={emailText}>
-        {props.authorName} at {props.companyName} revised your fire-pit design and sent it to you. Your own request stays as you sent it; both are on your page.
+        {props.authorName} at {props.companyName} revised your fire-pit design and sent it to you. Your own request
+        stays as you sent it; both are on your page.
       </Text>
       {props.summary.map((line) => (
         <Text key={line.label} style={{ ...emailText, margin: "0 0 4px" }}>
           <strong>{line.label}:</strong> {line.value}
         </Text>
       ))}
-      {props.price ? <Text style={{ ...emailText, fontSize: "18px", fontWeight: 800, marginTop: "12px" }}>Estimated {props.price}</Text> : null}
+      {props.price ? (
+        <Text style={{ ...emailText, fontSize: "18px", fontWeight: 800, marginTop: "12px" }}>
+          Estimated {props.price}
+        </Text>
+      ) : null}
       <Button href={props.link} style={emailButton}>
         See the plan drawing
       </Button>

@@ -16,11 +16,15 @@ export function LeadReceivedEmail(props: {
   requestLink: string;
 }) {
   return (
-    <EmailShell companyName={props.companyName} companyPhone={props.companyPhone} preview={`${props.companyName} has your fire-pit request`}>
+    <EmailShell
+      companyName={props.companyName}
+      companyPhone={props.companyPhone}
+      preview={`${props.companyName} has your fire-pit request`}
+    >
       <Text style={emailText}>Hello {props.customerName},</Text>
       <Text style={emailText}>
-        Thank you for your fire-pit request. {props.companyName} will look at your design and your yard photos and get in
-        touch, usually within two working days.
+        Thank you for your fire-pit request. {props.companyName} will look at your design and your yard photos and get
+        in touch, usually within two working days.
       </Text>
       <DesignSummary lines={props.summary} />
       {props.accountLink ? (
@@ -29,7 +33,9 @@ export function LeadReceivedEmail(props: {
           <Button href={props.accountLink} style={emailButton}>
             Set my password
           </Button>
-          <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d", marginTop: "12px" }}>This link works once, for 7 days.</Text>
+          <Text style={{ ...emailText, fontSize: "13px", color: "#6f655d", marginTop: "12px" }}>
+            This link works once, for 7 days.
+          </Text>
         </>
       ) : props.confirmLink ? (
         <>

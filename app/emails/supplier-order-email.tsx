@@ -10,7 +10,8 @@ export function SupplierOrderEmail({ document }: { document: SupplierOrderDocume
     <EmailShell companyName={c.name} preview={`Order ${document.number} from ${c.name}`}>
       <Text style={emailText}>Hello {document.supplier.name},</Text>
       <Text style={emailText}>
-        {c.name} would like to order the following; the order is attached as a PDF and as a CSV. Please confirm by replying to {c.email}
+        {c.name} would like to order the following; the order is attached as a PDF and as a CSV. Please confirm by
+        replying to {c.email}
         {c.phone ? ` or calling ${c.phone}` : ""}.
       </Text>
       {document.drops.map((drop) => (
@@ -20,7 +21,8 @@ export function SupplierOrderEmail({ document }: { document: SupplierOrderDocume
           </strong>{" "}
           ({drop.job})
           <br />
-          {drop.lines.map((l) => `${describeOrderQuantity(l.orderQuantity, l.orderUnit)} ${l.item}`).join("; ")}. About {formatPounds(drop.weightLb)}.
+          {drop.lines.map((l) => `${describeOrderQuantity(l.orderQuantity, l.orderUnit)} ${l.item}`).join("; ")}. About{" "}
+          {formatPounds(drop.weightLb)}.
           {drop.accessNotes ? (
             <>
               <br />

@@ -45,7 +45,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   }
   // Another company's supplier is as good as none: named beside its field, nothing saved.
   if (parsed.value.supplierId != null && !(await findSupplier(user.companyId, parsed.value.supplierId))) {
-    return data({ errors: { supplierId: "Choose a supplier from the list." } as Record<string, string> }, { status: 400 });
+    return data(
+      { errors: { supplierId: "Choose a supplier from the list." } as Record<string, string> },
+      { status: 400 },
+    );
   }
   if (itemId === null) {
     const newId = await createCatalogItem(user.companyId, parsed.value);
@@ -73,12 +76,8 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
         </Link>
         <h1 className="mt-2 text-2xl font-extrabold">{item ? `Edit ${item.name}` : "Add a catalog item"}</h1>
       </div>
-      <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
-        {Object.keys(errors).length ? (
-          <FormAlert>
-            Nothing was saved. Fix the fields marked below.
-          </FormAlert>
-        ) : null}
+      <Form method="post" className="flex flex-col gap-5 card p-6" noValidate>
+        {Object.keys(errors).length ? <FormAlert>Nothing was saved. Fix the fields marked below.</FormAlert> : null}
         <SelectField
           label="Kind"
           name="kind"
@@ -95,14 +94,35 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
             </option>
           ))}
         </SelectField>
-        <TextField label="Name" name="name" defaultValue={item?.name ?? ""} error={errors.name} maxLength={80} required />
+        <TextField
+          label="Name"
+          name="name"
+          defaultValue={item?.name ?? ""}
+          error={errors.name}
+          maxLength={80}
+          required
+        />
         <div className="grid gap-4 sm:grid-cols-[1fr_10rem]">
-          <TextField label="Colour name" name="colourName" defaultValue={item?.colourName ?? ""} error={errors.colourName} />
-          <TextField label="Colour" name="colourHex" type="color" defaultValue={item?.colourHex ?? "#8a8178"} error={errors.colourHex} className="[&_input]:h-10 [&_input]:p-1" />
+          <TextField
+            label="Colour name"
+            name="colourName"
+            defaultValue={item?.colourName ?? ""}
+            error={errors.colourName}
+          />
+          <TextField
+            label="Colour"
+            name="colourHex"
+            type="color"
+            defaultValue={item?.colourHex ?? "#8a8178"}
+            error={errors.colourHex}
+            className="[&_input]:h-10 [&_input]:p-1"
+          />
         </div>
         {dims.length ? (
           <fieldset className="grid gap-4 sm:grid-cols-2">
-            <legend className="mb-2 text-sm font-extrabold text-char-700">Size in inches: type it as you read it, like {LENGTH_EXAMPLES}</legend>
+            <legend className="mb-2 text-sm font-extrabold text-char-700">
+              Size in inches: type it as you read it, like {LENGTH_EXAMPLES}
+            </legend>
             {dims.map((rule) => (
               <TextField
                 key={`${kind}-${rule.key}`}
@@ -127,7 +147,13 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
         />
         <fieldset className="grid gap-4 sm:grid-cols-2">
           <legend className="mb-2 text-sm font-extrabold text-char-700">Ordering</legend>
-          <SelectField label="Supplier" name="supplierId" defaultValue={item?.supplierId ?? ""} error={errors.supplierId} hint={suppliers.length ? undefined : "Add your yards and dealers on the Suppliers page first."}>
+          <SelectField
+            label="Supplier"
+            name="supplierId"
+            defaultValue={item?.supplierId ?? ""}
+            error={errors.supplierId}
+            hint={suppliers.length ? undefined : "Add your yards and dealers on the Suppliers page first."}
+          >
             <option value="">No supplier yet</option>
             {suppliers.map((s) => (
               <option key={s.id} value={s.id}>
@@ -135,10 +161,16 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
               </option>
             ))}
           </SelectField>
-          <SelectField label="Sold by the" name="orderUnit" value={orderUnit} onChange={(e) => {
+          <SelectField
+            label="Sold by the"
+            name="orderUnit"
+            value={orderUnit}
+            onChange={(e) => {
               const chosen = e.target.value;
               if (isOneOf(ORDER_UNITS, chosen)) setOrderUnit(chosen);
-            }} error={errors.orderUnit}>
+            }}
+            error={errors.orderUnit}
+          >
             {ORDER_UNITS.map((u) => (
               <option key={u} value={u}>
                 {ORDER_UNIT_LABEL[u].label}
@@ -161,13 +193,22 @@ export default function CatalogItemRoute({ loaderData, actionData }: Route.Compo
             name="orderUnitWeightLb"
             inputMode="decimal"
             suffix="lb"
-            hint={orderUnit === "ton" || orderUnit === "cubic-yard" ? "Not needed: bulk is weighed by the ton." : "As delivered (a full pallet with its pallet). Optional; gives the delivered weight."}
+            hint={
+              orderUnit === "ton" || orderUnit === "cubic-yard"
+                ? "Not needed: bulk is weighed by the ton."
+                : "As delivered (a full pallet with its pallet). Optional; gives the delivered weight."
+            }
             defaultValue={item?.orderUnitWeightLb ?? ""}
             error={errors.orderUnitWeightLb}
           />
         </fieldset>
         <label className="flex items-center gap-3 text-sm font-bold text-char-700">
-          <input type="checkbox" name="isActive" defaultChecked={item?.isActive ?? true} className="h-5 w-5 accent-ember-500" />
+          <input
+            type="checkbox"
+            name="isActive"
+            defaultChecked={item?.isActive ?? true}
+            className="h-5 w-5 accent-ember-500"
+          />
           Offered in the configurator
         </label>
         <div className="flex gap-3">

@@ -55,14 +55,17 @@ function StatusBadge({ isActive }: { isActive: boolean }) {
 
 export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
   const { items, canEdit, canSeeMoney, saved } = loaderData;
-  const groups = CATALOG_KINDS.map((kind) => ({ kind, items: items.filter((i) => i.kind === kind) })).filter((g) => g.items.length);
+  const groups = CATALOG_KINDS.map((kind) => ({ kind, items: items.filter((i) => i.kind === kind) })).filter(
+    (g) => g.items.length,
+  );
   return (
     <div className="flex flex-col gap-6">
       <div className="flex flex-wrap items-end justify-between gap-4">
         <div>
           <h1 className="text-2xl font-extrabold">Catalog</h1>
           <p className="text-char-600">
-            The units and supplies your configurator offers and your estimates price. Sizes in inches{canEdit ? "" : "; only the owner can change them"}. Costs are what you pay your supplier.
+            The units and supplies your configurator offers and your estimates price. Sizes in inches
+            {canEdit ? "" : "; only the owner can change them"}. Costs are what you pay your supplier.
           </p>
         </div>
         {canEdit ? (
@@ -77,24 +80,46 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
         ) : null}
       </div>
       {saved ? (
-        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">{saved}</p>
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          {saved}
+        </p>
       ) : null}
       {groups.length === 0 ? <p className="card p-6 text-char-600">No items yet.</p> : null}
       {groups.map((group) => (
-        <section key={group.kind} aria-labelledby={`kind-${group.kind}`} className="card overflow-hidden">
-          <h2 id={`kind-${group.kind}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase">
+        <section key={group.kind} aria-labelledby={`kind-${group.kind}`} className="overflow-hidden card">
+          <h2
+            id={`kind-${group.kind}`}
+            className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase"
+          >
             {KIND_INFO[group.kind].plural}
           </h2>
           {/* A wide table scrolls on a phone; the scroller takes focus so keyboards can scroll it too. */}
-          <div className="overflow-x-auto" tabIndex={0} role="region" aria-label={`${KIND_INFO[group.kind].plural} table`}>
-            <table className="w-full sm:min-w-[36rem] text-left text-sm">
+          <div
+            className="overflow-x-auto"
+            tabIndex={0}
+            role="region"
+            aria-label={`${KIND_INFO[group.kind].plural} table`}
+          >
+            <table className="w-full text-left text-sm sm:min-w-[36rem]">
               <thead className="text-xs text-char-500 uppercase">
                 <tr>
-                  <th scope="col" className="px-4 py-2 font-bold">Name</th>
-                  <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">Colour</th>
-                  <th scope="col" className="px-4 py-2 font-bold">Size</th>
-                  {canSeeMoney ? <th scope="col" className="px-4 py-2 text-right font-bold">Cost</th> : null}
-                  <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">Status</th>
+                  <th scope="col" className="px-4 py-2 font-bold">
+                    Name
+                  </th>
+                  <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">
+                    Colour
+                  </th>
+                  <th scope="col" className="px-4 py-2 font-bold">
+                    Size
+                  </th>
+                  {canSeeMoney ? (
+                    <th scope="col" className="px-4 py-2 text-right font-bold">
+                      Cost
+                    </th>
+                  ) : null}
+                  <th scope="col" className="hidden px-4 py-2 font-bold sm:table-cell">
+                    Status
+                  </th>
                 </tr>
               </thead>
               <tbody className="divide-y divide-ash-200">
@@ -102,7 +127,10 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
                   <tr key={item.id} className={item.isActive ? "" : "text-char-500"}>
                     <td className="px-4 py-2.5 font-bold">
                       {canEdit ? (
-                        <Link to={`/app/catalog/${item.id}`} className="text-ember-700 underline-offset-2 hover:underline">
+                        <Link
+                          to={`/app/catalog/${item.id}`}
+                          className="text-ember-700 underline-offset-2 hover:underline"
+                        >
                           {item.name}
                         </Link>
                       ) : (
@@ -115,11 +143,17 @@ export default function CatalogRoute({ loaderData }: Route.ComponentProps) {
                     </td>
                     <td className="hidden px-4 py-2.5 sm:table-cell">
                       <span className="inline-flex items-center gap-2">
-                        <span className="h-4 w-4 rounded border border-char-800/20" style={{ backgroundColor: item.colourHex }} aria-hidden="true" />
+                        <span
+                          className="h-4 w-4 rounded border border-char-800/20"
+                          style={{ backgroundColor: item.colourHex }}
+                          aria-hidden="true"
+                        />
                         {item.colourName || "—"}
                       </span>
                     </td>
-                    <td className="px-4 py-2.5 tabular-nums"><Sizes sizes={item.sizes} /></td>
+                    <td className="px-4 py-2.5 tabular-nums">
+                      <Sizes sizes={item.sizes} />
+                    </td>
                     {item.price !== null ? <td className="px-4 py-2.5 text-right tabular-nums">{item.price}</td> : null}
                     <td className="hidden px-4 py-2.5 sm:table-cell">
                       <StatusBadge isActive={item.isActive} />

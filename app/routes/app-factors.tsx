@@ -5,7 +5,13 @@ import { FormAlert, TextField } from "~/components/ui/field";
 import { DEFAULT_FACTORS } from "~/domain/factors";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { factorSettingsSchema } from "~/lib/settings/factor-schema";
-import { FACTOR_GROUPS, FACTOR_ROWS, readCompanyFactors, toFormValue, type FactorRow } from "~/lib/settings/factor-settings";
+import {
+  FACTOR_GROUPS,
+  FACTOR_ROWS,
+  readCompanyFactors,
+  toFormValue,
+  type FactorRow,
+} from "~/lib/settings/factor-settings";
 import { saveCompanyFactors } from "~/lib/settings/factor-settings.server";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
@@ -16,7 +22,12 @@ export const meta: Route.MetaFunction = () => [{ title: "Estimating factors · E
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const factors = readCompanyFactors(await getCompany(user.companyId));
-  return { values: Object.fromEntries(FACTOR_ROWS.map((row) => [row.key, toFormValue(row, factors[row.key])])) as Record<string, string> };
+  return {
+    values: Object.fromEntries(FACTOR_ROWS.map((row) => [row.key, toFormValue(row, factors[row.key])])) as Record<
+      string,
+      string
+    >,
+  };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -30,7 +41,8 @@ export async function action({ request }: Route.ActionArgs) {
   const resetAll = form.get("intent") === "reset-all";
   const reset = FACTOR_ROWS.find((row) => row.key === form.get("reset"));
   // A reset puts the default in that one field and saves the form as typed, like any other save.
-  for (const row of resetAll ? FACTOR_ROWS : reset ? [reset] : []) fields[row.key] = toFormValue(row, DEFAULT_FACTORS[row.key]);
+  for (const row of resetAll ? FACTOR_ROWS : reset ? [reset] : [])
+    fields[row.key] = toFormValue(row, DEFAULT_FACTORS[row.key]);
   const parsed = factorSettingsSchema.safeParse(fields);
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error), values: fields }, { status: 400 });
   await saveCompanyFactors(user.companyId, parsed.data);
@@ -56,37 +68,57 @@ export default function FactorsRoute({ loaderData, actionData }: Route.Component
   return (
     <div className="mx-auto flex max-w-3xl flex-col gap-6">
       <div>
-        <Link to="/app/settings" className="text-sm font-bold text-ember-700 hover:underline">← Company settings</Link>
+        <Link to="/app/settings" className="text-sm font-bold text-ember-700 hover:underline">
+          ← Company settings
+        </Link>
         <h1 className="mt-1 text-2xl font-extrabold">Estimating factors</h1>
         <p className="text-char-600">
-          Every number the plan uses beyond your catalog: prices and profit, production rates, spares, base, adhesive, liner and
-          patio. New designs in your configurator, the plan API and every revision you save use them at once; a request already
-          sent keeps the plan it was priced with until you save a revision.
+          Every number the plan uses beyond your catalog: prices and profit, production rates, spares, base, adhesive,
+          liner and patio. New designs in your configurator, the plan API and every revision you save use them at once;
+          a request already sent keeps the plan it was priced with until you save a revision.
         </p>
       </div>
       {saved && !actionData ? (
         <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
-          {saved === "all" ? "Every factor is back to its default." : savedRow ? `${savedRow.label} is back to its default.` : "Factors saved."}
+          {saved === "all"
+            ? "Every factor is back to its default."
+            : savedRow
+              ? `${savedRow.label} is back to its default.`
+              : "Factors saved."}
         </p>
       ) : null}
       <Form method="post" className="flex flex-col gap-6" noValidate>
         {/* Enter in a field saves the form: the first submit button is the one implicit submission presses. */}
-        <button type="submit" className="sr-only" tabIndex={-1} aria-hidden="true">Save factors</button>
+        <button type="submit" className="sr-only" tabIndex={-1} aria-hidden="true">
+          Save factors
+        </button>
         {Object.keys(errors).length ? <FormAlert>Nothing was saved. Fix the fields marked below.</FormAlert> : null}
         {FACTOR_GROUPS.map((group) => (
-          <section key={group.id} aria-labelledby={`group-${group.id}`} className="card flex flex-col gap-5 p-6">
+          <section key={group.id} aria-labelledby={`group-${group.id}`} className="flex flex-col gap-5 card p-6">
             <div>
-              <h2 id={`group-${group.id}`} className="text-lg font-extrabold">{group.title}</h2>
+              <h2 id={`group-${group.id}`} className="text-lg font-extrabold">
+                {group.title}
+              </h2>
               <p className="text-sm text-char-600">{group.intro}</p>
             </div>
             {FACTOR_ROWS.filter((row) => row.group === group.id).map((row) => (
-              <FactorField key={`${row.key}:${values[row.key]}`} row={row} value={values[row.key] ?? ""} error={errors[row.key]} disabled={busy} />
+              <FactorField
+                key={`${row.key}:${values[row.key]}`}
+                row={row}
+                value={values[row.key] ?? ""}
+                error={errors[row.key]}
+                disabled={busy}
+              />
             ))}
           </section>
         ))}
         <div className="flex flex-wrap gap-3">
-          <button type="submit" className="btn-primary" disabled={busy}>Save factors</button>
-          <button type="submit" name="intent" value="reset-all" className="btn-quiet" disabled={busy}>Reset every factor to its default</button>
+          <button type="submit" className="btn-primary" disabled={busy}>
+            Save factors
+          </button>
+          <button type="submit" name="intent" value="reset-all" className="btn-quiet" disabled={busy}>
+            Reset every factor to its default
+          </button>
         </div>
       </Form>
     </div>
@@ -94,7 +126,17 @@ export default function FactorsRoute({ loaderData, actionData }: Route.Component
 }
 
 /** One factor: its input in its unit, the default beside it and a reset that saves the default. */
-function FactorField({ row, value, error, disabled }: { row: FactorRow; value: string; error?: string; disabled: boolean }) {
+function FactorField({
+  row,
+  value,
+  error,
+  disabled,
+}: {
+  row: FactorRow;
+  value: string;
+  error?: string;
+  disabled: boolean;
+}) {
   const isDefault = value === toFormValue(row, row.default);
   const defaultText = `Default: ${formatDefault(row)}${isDefault ? " (in use)" : ""}.`;
   const reset = (
@@ -117,12 +159,20 @@ function FactorField({ row, value, error, disabled }: { row: FactorRow; value: s
           <div className="flex flex-col gap-1.5">
             {row.options.map((option) => (
               <label key={option.value} className="flex items-start gap-2 text-sm">
-                <input type="radio" name={row.key} value={option.value} defaultChecked={value === option.value} className="mt-0.5" />
+                <input
+                  type="radio"
+                  name={row.key}
+                  value={option.value}
+                  defaultChecked={value === option.value}
+                  className="mt-0.5"
+                />
                 <span>{option.label}</span>
               </label>
             ))}
           </div>
-          <p id={`${row.key}-hint`} className="field-hint">{defaultText} {row.help}</p>
+          <p id={`${row.key}-hint`} className="field-hint">
+            {defaultText} {row.help}
+          </p>
           {error ? <p className="field-error">{error}</p> : null}
         </fieldset>
         {reset}

@@ -3,7 +3,9 @@ import type { Route } from "./+types/app-inbox-seen";
 import { requireApiUser, OFFICE_ROLES } from "~/lib/auth/staff.server";
 import { markInboxSeen } from "~/lib/leads/inbox.server";
 
-const seenSchema = z.object({ at: z.iso.datetime({ error: "At must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." }) });
+const seenSchema = z.object({
+  at: z.iso.datetime({ error: "At must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." }),
+});
 
 /**
  * POST /app/inbox/seen: the inbox page, once shown, records the moment its list was read, so the
@@ -12,7 +14,8 @@ const seenSchema = z.object({ at: z.iso.datetime({ error: "At must be an ISO 860
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireApiUser(request, OFFICE_ROLES);
   const parsed = seenSchema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return Response.json({ errors: [{ path: "at", message: parsed.error.issues[0]!.message }] }, { status: 400 });
+  if (!parsed.success)
+    return Response.json({ errors: [{ path: "at", message: parsed.error.issues[0]!.message }] }, { status: 400 });
   const now = new Date();
   const at = new Date(parsed.data.at);
   await markInboxSeen(user.id, at > now ? now : at);

@@ -26,13 +26,26 @@ export const meta: Route.MetaFunction = () => [{ title: "Inbox · Emberwright" }
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
-  const [company, team, seenAt] = await Promise.all([getCompany(user.companyId), listTeam(user.companyId), inboxSeenAt(user.id)]);
-  const estimators = team.filter((m) => m.role === "owner" || m.role === "estimator").map((m) => ({ id: m.id, name: m.name, isActive: m.isActive }));
+  const [company, team, seenAt] = await Promise.all([
+    getCompany(user.companyId),
+    listTeam(user.companyId),
+    inboxSeenAt(user.id),
+  ]);
+  const estimators = team
+    .filter((m) => m.role === "owner" || m.role === "estimator")
+    .map((m) => ({ id: m.id, name: m.name, isActive: m.isActive }));
   const params = new URL(request.url).searchParams;
   const parsed = parseInboxQuery(params);
   // Refused filters are shown beside their fields as typed; the list stays, filtered by the rest.
   const errors = parsed.ok ? null : parsed.errors;
-  const typed = parsed.ok ? null : { q: params.get("q") ?? "", from: params.get("from") ?? "", to: params.get("to") ?? "", assignee: params.get("assignee") ?? "" };
+  const typed = parsed.ok
+    ? null
+    : {
+        q: params.get("q") ?? "",
+        from: params.get("from") ?? "",
+        to: params.get("to") ?? "",
+        assignee: params.get("assignee") ?? "",
+      };
   const now = new Date();
   const inbox = await loadInboxPage({
     companyId: company.id,
@@ -98,14 +111,20 @@ function useMarkSeen(viewedAt: string) {
   useEffect(() => {
     if (sent.current === viewedAt) return;
     sent.current = viewedAt;
-    void fetch("/app/inbox/seen", { method: "POST", body: new URLSearchParams({ at: viewedAt }), keepalive: true }).catch(() => {});
+    void fetch("/app/inbox/seen", {
+      method: "POST",
+      body: new URLSearchParams({ at: viewedAt }),
+      keepalive: true,
+    }).catch(() => {});
   }, [viewedAt]);
 }
 
 export default function InboxRoute({ loaderData }: Route.ComponentProps) {
   const { errors, typed, estimators, myId } = loaderData;
   useMarkSeen(loaderData.viewedAt);
-  return <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} errors={errors ?? {}} typed={typed} />;
+  return (
+    <InboxView initial={loaderData.inbox} estimators={estimators} myId={myId} errors={errors ?? {}} typed={typed} />
+  );
 }
 
 type TypedFilters = { q: string; from: string; to: string; assignee: string } | null;
@@ -159,7 +178,9 @@ function InboxView({
                   to={hrefFor(filters, { status, page: 1 })}
                   aria-current={isCurrent ? "page" : undefined}
                   className={`inline-flex items-center gap-1.5 border-b-3 px-2 py-1.5 text-sm font-bold whitespace-nowrap ${
-                    isCurrent ? "border-ember-500 text-char-900" : "border-transparent text-char-700 hover:border-ash-300"
+                    isCurrent
+                      ? "border-ember-500 text-char-900"
+                      : "border-transparent text-char-700 hover:border-ash-300"
                   }`}
                 >
                   {status ? STATUS_LABEL[status] : "All"}
@@ -171,12 +192,20 @@ function InboxView({
         </ul>
       </nav>
 
-      <FilterForm key={initial.query + JSON.stringify(errors)} filters={filters} estimators={estimators} myId={myId} errors={errors} typed={typed} />
+      <FilterForm
+        key={initial.query + JSON.stringify(errors)}
+        filters={filters}
+        estimators={estimators}
+        myId={myId}
+        errors={errors}
+        typed={typed}
+      />
 
-      <div className="card overflow-hidden">
+      <div className="overflow-hidden card">
         <table className="w-full text-left text-sm">
           <caption className="sr-only">
-            Requests, page {inbox.page} of {inbox.pageCount}, sorted by {filters.sort} {filters.dir === "asc" ? "ascending" : "descending"}
+            Requests, page {inbox.page} of {inbox.pageCount}, sorted by {filters.sort}{" "}
+            {filters.dir === "asc" ? "ascending" : "descending"}
           </caption>
           <thead className="border-b border-ash-200 bg-ash-100 text-xs text-char-600 uppercase">
             <tr>
@@ -190,7 +219,10 @@ function InboxView({
                     aria-sort={isSorted ? (filters.dir === "asc" ? "ascending" : "descending") : "none"}
                     className={`px-3 py-2 font-extrabold ${col.className ?? ""}`}
                   >
-                    <Link to={hrefFor(filters, { sort: col.sort, dir: nextDir, page: 1 })} className="inline-flex items-center gap-1 hover:text-char-900">
+                    <Link
+                      to={hrefFor(filters, { sort: col.sort, dir: nextDir, page: 1 })}
+                      className="inline-flex items-center gap-1 hover:text-char-900"
+                    >
                       {col.label}
                       <span aria-hidden="true" className={isSorted ? "text-ember-600" : "text-ash-400"}>
                         {isSorted ? (filters.dir === "asc" ? "▲" : "▼") : "↕"}
@@ -210,7 +242,10 @@ function InboxView({
                     <JobProgressCompact stage={row.status} pausedStage={row.pausedStage} />
                   </td>
                   <td className="px-3 py-2.5 align-top">
-                    <Link to={`/app/leads/${row.id}`} className={`text-char-900 underline-offset-2 hover:underline ${unseen ? "font-extrabold" : "font-bold"}`}>
+                    <Link
+                      to={`/app/leads/${row.id}`}
+                      className={`text-char-900 underline-offset-2 hover:underline ${unseen ? "font-extrabold" : "font-bold"}`}
+                    >
                       {row.customerName}
                     </Link>
                     {unseen ? (
@@ -246,7 +281,9 @@ function InboxView({
                       <span className="text-char-500">—</span>
                     )}
                   </td>
-                  <td className="hidden px-3 py-2.5 align-top lg:table-cell">{row.assignee?.name ?? <span className="text-char-500">Unassigned</span>}</td>
+                  <td className="hidden px-3 py-2.5 align-top lg:table-cell">
+                    {row.assignee?.name ?? <span className="text-char-500">Unassigned</span>}
+                  </td>
                   <td className="px-3 py-2.5 align-top whitespace-nowrap" title={row.receivedLabel}>
                     {row.ageLabel}
                     <span className="block text-xs text-char-500">{row.ageLabel === "just now" ? "" : "ago"}</span>
@@ -259,7 +296,9 @@ function InboxView({
         {rows.length === 0 ? (
           <p className="px-4 py-8 text-center text-char-600">
             {inbox.total === 0 ? "No requests match these filters." : "No requests on this page."}{" "}
-            <Link to="/app/inbox" className="font-bold text-ember-700 hover:underline">Show all requests</Link>
+            <Link to="/app/inbox" className="font-bold text-ember-700 hover:underline">
+              Show all requests
+            </Link>
           </p>
         ) : null}
       </div>
@@ -298,10 +337,20 @@ function FilterForm({
   errors: Record<string, string>;
   typed: TypedFilters;
 }) {
-  const errorOf = (field: string) => (errors[field] ? <p id={`filter-${field}-error`} className="field-error">{errors[field]}</p> : null);
+  const errorOf = (field: string) =>
+    errors[field] ? (
+      <p id={`filter-${field}-error`} className="field-error">
+        {errors[field]}
+      </p>
+    ) : null;
   const hasErrors = Object.keys(errors).length > 0;
   return (
-    <Form method="get" action="/app/inbox" className="card grid grid-cols-2 gap-3 p-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]" aria-label="Filter requests">
+    <Form
+      method="get"
+      action="/app/inbox"
+      className="grid grid-cols-2 gap-3 card p-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1.3fr)_auto_auto_auto]"
+      aria-label="Filter requests"
+    >
       {hasErrors ? (
         <FormAlert className="col-span-2 lg:col-span-5">
           Some filters could not be used, so the list below ignores them. Fix the fields marked below.
@@ -341,11 +390,29 @@ function FilterForm({
           </option>
         ))}
       </SelectField>
-      <TextField label="Received from" name="from" type="date" defaultValue={typed?.from ?? filters.from ?? ""} error={errors.from} className="min-w-0" />
-      <TextField label="to" name="to" type="date" defaultValue={typed?.to ?? filters.to ?? ""} error={errors.to} className="min-w-0" />
+      <TextField
+        label="Received from"
+        name="from"
+        type="date"
+        defaultValue={typed?.from ?? filters.from ?? ""}
+        error={errors.from}
+        className="min-w-0"
+      />
+      <TextField
+        label="to"
+        name="to"
+        type="date"
+        defaultValue={typed?.to ?? filters.to ?? ""}
+        error={errors.to}
+        className="min-w-0"
+      />
       <div className="col-span-2 flex items-end gap-2 lg:col-span-1">
-        <button type="submit" className="btn-primary">Apply</button>
-        <Link to="/app/inbox" className="btn-quiet">Clear</Link>
+        <button type="submit" className="btn-primary">
+          Apply
+        </button>
+        <Link to="/app/inbox" className="btn-quiet">
+          Clear
+        </Link>
       </div>
       {errors.sort || errors.dir || errors.page ? (
         <div className="col-span-2 lg:col-span-5">

@@ -38,27 +38,41 @@ export default function JobsRoute({ loaderData }: Route.ComponentProps) {
       <div>
         <h1 className="text-2xl font-extrabold">{isOffice ? "Won jobs" : "My jobs"}</h1>
         <p className="text-char-600">
-          {isOffice ? "Every signed job and the crew building it." : "The jobs you are building: the cut sheet, the cap template and the material order."}
+          {isOffice
+            ? "Every signed job and the crew building it."
+            : "The jobs you are building: the cut sheet, the cap template and the material order."}
         </p>
       </div>
       {jobs.length === 0 ? (
-        <p className="card p-6 text-char-600">{isOffice ? "No signed jobs yet." : "No jobs are assigned to you yet."}</p>
+        <p className="card p-6 text-char-600">
+          {isOffice ? "No signed jobs yet." : "No jobs are assigned to you yet."}
+        </p>
       ) : (
         <ul className="grid gap-4 md:grid-cols-2">
           {jobs.map((job) => (
-            <li key={job.id} className="card flex flex-col gap-3 p-5">
+            <li key={job.id} className="flex flex-col gap-3 card p-5">
               <div>
                 <h2 className="text-lg font-extrabold">
-                  <Link to={`/app/leads/${job.id}`} className="hover:underline">{job.customerName}</Link>
+                  <Link to={`/app/leads/${job.id}`} className="hover:underline">
+                    {job.customerName}
+                  </Link>
                 </h2>
-                <p className="text-sm text-char-700">{job.street}, {job.town}</p>
+                <p className="text-sm text-char-700">
+                  {job.street}, {job.town}
+                </p>
               </div>
               <p className="text-sm">{job.summary}</p>
               {isOffice ? <p className="text-sm text-char-600">Crew: {job.crewName ?? "not given yet"}</p> : null}
               <div className="mt-auto flex flex-wrap gap-2">
-                <Link to={`/app/leads/${job.id}/cut-sheet`} className="btn-primary">Cut sheet</Link>
-                <a href={`/app/leads/${job.id}/cut-sheet.pdf`} className="btn-quiet" download>PDF with cap template</a>
-                <Link to={`/app/leads/${job.id}`} className="btn-quiet">Job details</Link>
+                <Link to={`/app/leads/${job.id}/cut-sheet`} className="btn-primary">
+                  Cut sheet
+                </Link>
+                <a href={`/app/leads/${job.id}/cut-sheet.pdf`} className="btn-quiet" download>
+                  PDF with cap template
+                </a>
+                <Link to={`/app/leads/${job.id}`} className="btn-quiet">
+                  Job details
+                </Link>
               </div>
             </li>
           ))}

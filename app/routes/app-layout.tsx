@@ -19,9 +19,15 @@ export default function AppLayoutRoute({ loaderData }: Route.ComponentProps) {
   return (
     <WorkspaceShell user={loaderData.user} companyName={loaderData.companyName}>
       {loaderData.failedWork > 0 ? (
-        <p role="status" className="mb-4 rounded-lg border border-ember-300 bg-ember-50 px-4 py-3 text-sm font-semibold text-char-800">
-          {loaderData.failedWork === 1 ? "One e-mail or refund" : `${loaderData.failedWork} e-mails or refunds`} could not go through.{" "}
-          <Link to="/app/attention" className="text-ember-700 underline">See what needs attention</Link>
+        <p
+          role="status"
+          className="mb-4 rounded-lg border border-ember-300 bg-ember-50 px-4 py-3 text-sm font-semibold text-char-800"
+        >
+          {loaderData.failedWork === 1 ? "One e-mail or refund" : `${loaderData.failedWork} e-mails or refunds`} could
+          not go through.{" "}
+          <Link to="/app/attention" className="text-ember-700 underline">
+            See what needs attention
+          </Link>
         </p>
       ) : null}
       <Outlet />

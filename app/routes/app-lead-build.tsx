@@ -7,14 +7,24 @@ import { addCalendarDays, buildDates, buildDaysNeeded, isCalendarDate } from "~/
 import { requireUser } from "~/lib/auth/session.server";
 import { findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { listTeam } from "~/lib/auth/team.server";
-import { bookBuild, cancelBuild, describeBuildDays, findBookedBuild, jobLabourHours, moveBuild, workCalendarFor } from "~/lib/builds/builds.server";
+import {
+  bookBuild,
+  cancelBuild,
+  describeBuildDays,
+  findBookedBuild,
+  jobLabourHours,
+  moveBuild,
+  workCalendarFor,
+} from "~/lib/builds/builds.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { toCleanLines, toSingleLine } from "~/lib/format/clean-text";
 import { fieldErrors, formId } from "~/lib/format/form-fields";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { appOrigin } from "~/lib/platform/email.server";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Build dates: ${loaderData.customerName} · Emberwright` : "Build dates · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `Build dates: ${loaderData.customerName} · Emberwright` : "Build dates · Emberwright" },
+];
 
 const BUILD_ROLES = ["owner"] as const;
 
@@ -23,7 +33,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
-  const [build, team, labourHours, calendar] = await Promise.all([findBookedBuild(lead), listTeam(user.companyId), jobLabourHours(lead), workCalendarFor(company)]);
+  const [build, team, labourHours, calendar] = await Promise.all([
+    findBookedBuild(lead),
+    listTeam(user.companyId),
+    jobLabourHours(lead),
+    workCalendarFor(company),
+  ]);
   const crewSize = company.crewSize;
   const suggestedDays = buildDaysNeeded({ labourHours, crewSize, dayHours: company.crewDayHours });
   const today = zonedDay(new Date(), company.timeZone);
@@ -45,9 +60,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     suggestedDays,
     suggestedStart,
     today,
-    crew: team.filter((m) => m.isActive && (m.role === "crew" || m.role === "owner")).map((m) => ({ id: m.id, name: m.name, role: m.role })),
+    crew: team
+      .filter((m) => m.isActive && (m.role === "crew" || m.role === "owner"))
+      .map((m) => ({ id: m.id, name: m.name, role: m.role })),
     jobCrewId: lead.crewUserId,
-    build: build ? { id: build.id, sequence: build.sequence, dates: build.dates, daysText: describeBuildDays(build.dates), crew: build.crew } : null,
+    build: build
+      ? {
+          id: build.id,
+          sequence: build.sequence,
+          dates: build.dates,
+          daysText: describeBuildDays(build.dates),
+          crew: build.crew,
+        }
+      : null,
   };
 }
 
@@ -67,12 +92,39 @@ const daysField = z
     }
     return n;
   });
-const crewField = z.array(formId("Choose crew members from the list.")).min(1, { error: "Choose at least one crew member." }).max(12, { error: "Choose at most 12 crew members." });
+const crewField = z
+  .array(formId("Choose crew members from the list."))
+  .min(1, { error: "Choose at least one crew member." })
+  .max(12, { error: "Choose at most 12 crew members." });
 
 const actionSchema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("book"), start: dayField, days: daysField, crewUserIds: crewField, notes: z.string().max(2000, { error: "Notes must be at most 2,000 characters." }).transform(toCleanLines), allowClash: z.literal("on").optional() }),
-  z.object({ intent: z.literal("move"), buildId: formId("Choose a build."), sequence: z.coerce.number().int().min(0), start: dayField, days: daysField, allowClash: z.literal("on").optional() }),
-  z.object({ intent: z.literal("cancel"), buildId: formId("Choose a build."), sequence: z.coerce.number().int().min(0), reason: z.string().trim().min(3, { error: "Say why the build is cancelled (at least 3 characters)." }).max(500, { error: "The reason must be at most 500 characters." }).transform(toSingleLine) }),
+  z.object({
+    intent: z.literal("book"),
+    start: dayField,
+    days: daysField,
+    crewUserIds: crewField,
+    notes: z.string().max(2000, { error: "Notes must be at most 2,000 characters." }).transform(toCleanLines),
+    allowClash: z.literal("on").optional(),
+  }),
+  z.object({
+    intent: z.literal("move"),
+    buildId: formId("Choose a build."),
+    sequence: z.coerce.number().int().min(0),
+    start: dayField,
+    days: daysField,
+    allowClash: z.literal("on").optional(),
+  }),
+  z.object({
+    intent: z.literal("cancel"),
+    buildId: formId("Choose a build."),
+    sequence: z.coerce.number().int().min(0),
+    reason: z
+      .string()
+      .trim()
+      .min(3, { error: "Say why the build is cancelled (at least 3 characters)." })
+      .max(500, { error: "The reason must be at most 500 characters." })
+      .transform(toSingleLine),
+  }),
 ]);
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -83,17 +135,54 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
   const values = { ...Object.fromEntries(form), crewUserIds: form.getAll("crewUserIds") };
   const parsed = actionSchema.safeParse(values);
-  if (!parsed.success) return data({ errors: fieldErrors(parsed.error), clashes: [] as string[], done: null }, { status: 400 });
+  if (!parsed.success)
+    return data({ errors: fieldErrors(parsed.error), clashes: [] as string[], done: null }, { status: 400 });
   const input = parsed.data;
   const origin = appOrigin(request);
   const result =
     input.intent === "book"
-      ? await bookBuild(user, lead, company, { start: input.start, days: input.days, crewUserIds: input.crewUserIds, notes: input.notes, allowClash: input.allowClash === "on" }, origin)
+      ? await bookBuild(
+          user,
+          lead,
+          company,
+          {
+            start: input.start,
+            days: input.days,
+            crewUserIds: input.crewUserIds,
+            notes: input.notes,
+            allowClash: input.allowClash === "on",
+          },
+          origin,
+        )
       : input.intent === "move"
-        ? await moveBuild(user, lead, company, { buildId: input.buildId, sequence: input.sequence, start: input.start, days: input.days, crewUserIds: null, allowClash: input.allowClash === "on" }, origin)
-        : await cancelBuild(user, lead, company, { buildId: input.buildId, sequence: input.sequence, reason: input.reason }, origin);
-  if (!result.ok) return data({ errors: result.errors, clashes: result.clashes ?? [], done: null }, { status: result.status });
-  const done = { book: "Build booked: the homeowner and the crew are e-mailed the dates with a calendar file.", move: "Build moved: everyone gets the updated calendar event.", cancel: "Build cancelled: the homeowner and the crew are told, and the event leaves their calendars." }[input.intent];
+        ? await moveBuild(
+            user,
+            lead,
+            company,
+            {
+              buildId: input.buildId,
+              sequence: input.sequence,
+              start: input.start,
+              days: input.days,
+              crewUserIds: null,
+              allowClash: input.allowClash === "on",
+            },
+            origin,
+          )
+        : await cancelBuild(
+            user,
+            lead,
+            company,
+            { buildId: input.buildId, sequence: input.sequence, reason: input.reason },
+            origin,
+          );
+  if (!result.ok)
+    return data({ errors: result.errors, clashes: result.clashes ?? [], done: null }, { status: result.status });
+  const done = {
+    book: "Build booked: the homeowner and the crew are e-mailed the dates with a calendar file.",
+    move: "Build moved: everyone gets the updated calendar event.",
+    cancel: "Build cancelled: the homeowner and the crew are told, and the event leaves their calendars.",
+  }[input.intent];
   return data({ errors: {} as Record<string, string>, clashes: [] as string[], done });
 }
 
@@ -123,11 +212,18 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
           </ul>
         </div>
       ) : null}
-      {actionData?.done ? <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">{actionData.done}</p> : null}
+      {actionData?.done ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          {actionData.done}
+        </p>
+      ) : null}
       <section className="card p-4 text-sm text-char-700" aria-labelledby="build-estimate">
-        <h2 id="build-estimate" className="font-extrabold">How long it takes</h2>
+        <h2 id="build-estimate" className="font-extrabold">
+          How long it takes
+        </h2>
         <p>
-          {loaderData.labourHours.toFixed(1)} labour-hours ÷ ({loaderData.crewSize} people × {loaderData.dayHours} h a day) ={" "}
+          {loaderData.labourHours.toFixed(1)} labour-hours ÷ ({loaderData.crewSize} people × {loaderData.dayHours} h a
+          day) ={" "}
           <strong>
             {loaderData.suggestedDays} day{loaderData.suggestedDays === 1 ? "" : "s"} on site
           </strong>
@@ -137,18 +233,38 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
       {build ? (
         <>
           <section className="card p-4" aria-labelledby="build-booked">
-            <h2 id="build-booked" className="font-extrabold">Booked</h2>
+            <h2 id="build-booked" className="font-extrabold">
+              Booked
+            </h2>
             <p className="text-lg font-extrabold">{build.daysText}</p>
             <p className="text-sm text-char-600">Crew: {build.crew.map((c) => c.name).join(", ")}</p>
           </section>
-          <Form method="post" className="card flex flex-col gap-4 p-4" aria-labelledby="move-build">
-            <h2 id="move-build" className="font-extrabold">Move the build</h2>
+          <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="move-build">
+            <h2 id="move-build" className="font-extrabold">
+              Move the build
+            </h2>
             <input type="hidden" name="intent" value="move" />
             <input type="hidden" name="buildId" value={build.id} />
             <input type="hidden" name="sequence" value={build.sequence} />
             <div className="grid gap-4 sm:grid-cols-2">
-              <TextField label="New first day" name="start" type="date" min={loaderData.today} defaultValue={build.dates[0]} error={errors.start} required />
-              <TextField label="Days on site" name="days" type="number" min={1} max={30} defaultValue={build.dates.length} error={errors.days} />
+              <TextField
+                label="New first day"
+                name="start"
+                type="date"
+                min={loaderData.today}
+                defaultValue={build.dates[0]}
+                error={errors.start}
+                required
+              />
+              <TextField
+                label="Days on site"
+                name="days"
+                type="number"
+                min={1}
+                max={30}
+                defaultValue={build.dates.length}
+                error={errors.days}
+              />
             </div>
             {clashes.length ? (
               <label className="flex items-center gap-2 text-sm font-semibold">
@@ -159,32 +275,70 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
               Move and tell everyone
             </button>
           </Form>
-          <Form method="post" className="card flex flex-col gap-4 p-4" aria-labelledby="cancel-build">
-            <h2 id="cancel-build" className="font-extrabold">Cancel the build</h2>
+          <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="cancel-build">
+            <h2 id="cancel-build" className="font-extrabold">
+              Cancel the build
+            </h2>
             <input type="hidden" name="intent" value="cancel" />
             <input type="hidden" name="buildId" value={build.id} />
             <input type="hidden" name="sequence" value={build.sequence} />
-            <TextField label="Reason (sent to the homeowner)" name="reason" error={errors.reason} required maxLength={500} />
+            <TextField
+              label="Reason (sent to the homeowner)"
+              name="reason"
+              error={errors.reason}
+              required
+              maxLength={500}
+            />
             <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
               Cancel the build dates
             </button>
           </Form>
         </>
       ) : loaderData.canBook ? (
-        <Form method="post" className="card flex flex-col gap-4 p-4" aria-labelledby="book-build">
-          <h2 id="book-build" className="font-extrabold">Book the build</h2>
+        <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="book-build">
+          <h2 id="book-build" className="font-extrabold">
+            Book the build
+          </h2>
           <input type="hidden" name="intent" value="book" />
           <div className="grid gap-4 sm:grid-cols-2">
-            <TextField label="First day" name="start" type="date" min={loaderData.today} defaultValue={loaderData.suggestedStart} error={errors.start} required />
-            <TextField label="Days on site" name="days" type="number" min={1} max={30} defaultValue={loaderData.suggestedDays} error={errors.days} hint="Leave as suggested, or change it." />
+            <TextField
+              label="First day"
+              name="start"
+              type="date"
+              min={loaderData.today}
+              defaultValue={loaderData.suggestedStart}
+              error={errors.start}
+              required
+            />
+            <TextField
+              label="Days on site"
+              name="days"
+              type="number"
+              min={1}
+              max={30}
+              defaultValue={loaderData.suggestedDays}
+              error={errors.days}
+              hint="Leave as suggested, or change it."
+            />
           </div>
           <fieldset>
             <legend className="field-label">Crew</legend>
-            {crew.length === 0 ? <p className="text-sm text-char-600">No active crew yet: invite one from the team page.</p> : null}
+            {crew.length === 0 ? (
+              <p className="text-sm text-char-600">No active crew yet: invite one from the team page.</p>
+            ) : null}
             <div className="flex flex-wrap gap-3">
               {crew.map((c) => (
-                <label key={c.id} className="flex items-center gap-2 rounded-lg border border-ash-300 px-3 py-2 text-sm font-semibold">
-                  <input type="checkbox" name="crewUserIds" value={c.id} defaultChecked={c.id === loaderData.jobCrewId} /> {c.name}
+                <label
+                  key={c.id}
+                  className="flex items-center gap-2 rounded-lg border border-ash-300 px-3 py-2 text-sm font-semibold"
+                >
+                  <input
+                    type="checkbox"
+                    name="crewUserIds"
+                    value={c.id}
+                    defaultChecked={c.id === loaderData.jobCrewId}
+                  />{" "}
+                  {c.name}
                 </label>
               ))}
             </div>

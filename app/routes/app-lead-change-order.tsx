@@ -10,7 +10,9 @@ import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
@@ -29,7 +31,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
           removed: draft.removed,
           suggestedDelta: (draft.suggestedDeltaCents / 100).toFixed(2),
           validUntil: draft.validUntil,
-          revisionLabel: draft.version.revisionId === null ? "the homeowner's original design" : "the latest staff revision",
+          revisionLabel:
+            draft.version.revisionId === null ? "the homeowner's original design" : "the latest staff revision",
         }
       : null,
   };
@@ -40,14 +43,21 @@ const changeSchema = z.object({
   delta: z
     .string()
     .trim()
-    .regex(/^-?\$?[\d,]+(\.\d{1,2})?$/, { error: "Price difference must be an amount in dollars, like 450 or -120.50 for a credit." })
+    .regex(/^-?\$?[\d,]+(\.\d{1,2})?$/, {
+      error: "Price difference must be an amount in dollars, like 450 or -120.50 for a credit.",
+    })
     .transform((s) => {
       const negative = s.startsWith("-");
       const [whole, fraction = ""] = s.replace(/[-$,]/g, "").split(".");
       const cents = Number(whole) * 100 + Number(fraction.padEnd(2, "0"));
       return negative ? -cents : cents;
     })
-    .pipe(z.number().min(-10_000_000, "Price difference must be between −$100,000 and $100,000.").max(10_000_000, "Price difference must be between −$100,000 and $100,000.")),
+    .pipe(
+      z
+        .number()
+        .min(-10_000_000, "Price difference must be between −$100,000 and $100,000.")
+        .max(10_000_000, "Price difference must be between −$100,000 and $100,000."),
+    ),
   validUntil: z.iso.date({ error: "Valid until must be a date like 2026-12-31." }),
 });
 
@@ -55,7 +65,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const fields = Object.fromEntries(
+    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
+  );
   const parsed = changeSchema.safeParse(fields);
   const company = await getCompany(user.companyId);
   const today = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date());
@@ -63,7 +75,14 @@ export async function action({ request, params }: Route.ActionArgs) {
   if (!parsed.success) for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
   else if (parsed.data.validUntil <= today) errors.validUntil = "Valid until must be after today.";
   if (!parsed.success || Object.keys(errors).length) return data({ errors, fields }, { status: 400 });
-  const sent = await sendChangeOrder({ user, lead, company, deltaCents: parsed.data.delta, validUntil: parsed.data.validUntil, origin: appOrigin(request) });
+  const sent = await sendChangeOrder({
+    user,
+    lead,
+    company,
+    deltaCents: parsed.data.delta,
+    validUntil: parsed.data.validUntil,
+    origin: appOrigin(request),
+  });
   if (typeof sent === "string") return data({ errors: { form: sent }, fields }, { status: 409 });
   return redirect(`/app/leads/${lead.id}`);
 }
@@ -81,35 +100,55 @@ export default function ChangeOrderRoute({ loaderData, actionData }: Route.Compo
         <h1 className="mt-1 text-2xl font-extrabold">Change order</h1>
       </div>
       {!draft ? (
-        <p className="card p-5">This job has no signed proposal yet: send a proposal first. Change orders change a signed job.</p>
+        <p className="card p-5">
+          This job has no signed proposal yet: send a proposal first. Change orders change a signed job.
+        </p>
       ) : (
         <>
           <section aria-labelledby="diff-title" className="card p-5 text-sm">
-            <h2 id="diff-title" className="text-lg font-extrabold">What changes, from {draft.revisionLabel}</h2>
+            <h2 id="diff-title" className="text-lg font-extrabold">
+              What changes, from {draft.revisionLabel}
+            </h2>
             {draft.added.length || draft.removed.length ? (
               <>
                 {draft.added.length ? (
                   <>
                     <h3 className="mt-2 font-extrabold">Added or changed</h3>
-                    <ul className="list-disc pl-5">{draft.added.map((l) => <li key={l}>{l}</li>)}</ul>
+                    <ul className="list-disc pl-5">
+                      {draft.added.map((l) => (
+                        <li key={l}>{l}</li>
+                      ))}
+                    </ul>
                   </>
                 ) : null}
                 {draft.removed.length ? (
                   <>
                     <h3 className="mt-2 font-extrabold">No longer part of the job</h3>
-                    <ul className="list-disc pl-5">{draft.removed.map((l) => <li key={l}>{l}</li>)}</ul>
+                    <ul className="list-disc pl-5">
+                      {draft.removed.map((l) => (
+                        <li key={l}>{l}</li>
+                      ))}
+                    </ul>
                   </>
                 ) : null}
               </>
             ) : (
               <p className="mt-1 text-char-600">
-                The scope is the same as signed. <Link to={`/app/leads/${leadId}/design`} className="font-bold text-ember-700 underline">Revise the design</Link> first, or change only the price.
+                The scope is the same as signed.{" "}
+                <Link to={`/app/leads/${leadId}/design`} className="font-bold text-ember-700 underline">
+                  Revise the design
+                </Link>{" "}
+                first, or change only the price.
               </p>
             )}
-            <p className="mt-3">The job as signed: {draft.contract} (balance {draft.balance}).</p>
+            <p className="mt-3">
+              The job as signed: {draft.contract} (balance {draft.balance}).
+            </p>
           </section>
-          {Object.keys(errors).length ? <FormAlert>{errors.form ?? "Nothing was sent. Fix the fields marked below."}</FormAlert> : null}
-          <Form method="post" className="card flex flex-col gap-4 p-5" noValidate>
+          {Object.keys(errors).length ? (
+            <FormAlert>{errors.form ?? "Nothing was sent. Fix the fields marked below."}</FormAlert>
+          ) : null}
+          <Form method="post" className="flex flex-col gap-4 card p-5" noValidate>
             <TextField
               label="Price difference"
               name="delta"
@@ -118,7 +157,14 @@ export default function ChangeOrderRoute({ loaderData, actionData }: Route.Compo
               error={errors.delta}
               hint="Dollars added to the job; a minus sign for a credit. Suggested from the engine's estimate of both designs."
             />
-            <TextField label="Valid until" name="validUntil" type="date" defaultValue={actionData?.fields.validUntil ?? draft.validUntil} error={errors.validUntil} className="max-w-xs" />
+            <TextField
+              label="Valid until"
+              name="validUntil"
+              type="date"
+              defaultValue={actionData?.fields.validUntil ?? draft.validUntil}
+              error={errors.validUntil}
+              className="max-w-xs"
+            />
             <button type="submit" className="btn-primary self-start" disabled={navigation.state === "submitting"}>
               Send the change order
             </button>

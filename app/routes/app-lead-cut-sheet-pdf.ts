@@ -11,7 +11,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const sheet = await loadCutSheet(user, parseLeadId(params.leadId));
   if (!sheet) throw new Response("Not found", { status: 404 });
   const pdf = await renderCutSheetPdf(sheet);
-  const slug = sheet.customerName.toLowerCase().replace(/[^a-z0-9]+/g, "-").replace(/^-|-$/g, "") || "job";
+  const slug =
+    sheet.customerName
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, "-")
+      .replace(/^-|-$/g, "") || "job";
   return new Response(new Uint8Array(pdf), {
     headers: {
       "Content-Type": "application/pdf",

@@ -10,7 +10,9 @@ import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { isOfficeRole, parseLeadId } from "~/lib/auth/staff.server";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Cut sheet: ${loaderData.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `Cut sheet: ${loaderData.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: STAFF_ROLES });
@@ -46,7 +48,9 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
 
       <header className="flex flex-wrap items-start justify-between gap-4 border-b-2 border-char-800 pb-3">
         <div className="min-w-0">
-          <p className="text-xs font-extrabold tracking-widest text-ember-600 uppercase">Cut sheet · job #{sheet.leadId}</p>
+          <p className="text-xs font-extrabold tracking-widest text-ember-600 uppercase">
+            Cut sheet · job #{sheet.leadId}
+          </p>
           <h1 className="text-2xl font-extrabold">{sheet.customerName}</h1>
           <p className="font-bold">
             {sheet.street}, {sheet.town}
@@ -62,7 +66,9 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
       </header>
 
       <section aria-labelledby="sheet-design" className="mt-4 break-inside-avoid">
-        <h2 id="sheet-design" className="text-lg font-extrabold">The design</h2>
+        <h2 id="sheet-design" className="text-lg font-extrabold">
+          The design
+        </h2>
         <dl className="mt-1 grid gap-x-6 gap-y-0.5 text-sm sm:grid-cols-2 print:grid-cols-2">
           {sheet.summary.map((line) => (
             <div key={line.label} className="flex gap-2">
@@ -74,31 +80,46 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
       </section>
 
       <section aria-labelledby="sheet-cuts" className="mt-5">
-        <h2 id="sheet-cuts" className="mb-2 text-lg font-extrabold">Cut list</h2>
+        <h2 id="sheet-cuts" className="mb-2 text-lg font-extrabold">
+          Cut list
+        </h2>
         <CutListTables sections={sheet.cutList} />
       </section>
 
-      <section aria-labelledby="sheet-drawings" className="mt-5 grid gap-4 sm:grid-cols-2 print:grid-cols-2 print:break-before-page">
-        <h2 id="sheet-drawings" className="text-lg font-extrabold sm:col-span-2 print:col-span-2">Drawings</h2>
+      <section
+        aria-labelledby="sheet-drawings"
+        className="mt-5 grid gap-4 sm:grid-cols-2 print:break-before-page print:grid-cols-2"
+      >
+        <h2 id="sheet-drawings" className="text-lg font-extrabold sm:col-span-2 print:col-span-2">
+          Drawings
+        </h2>
         {sheet.caps ? (
-          <figure className="rounded-lg border border-ash-300 p-3 break-inside-avoid">
+          <figure className="break-inside-avoid rounded-lg border border-ash-300 p-3">
             <CapDrawingSvg caps={sheet.caps} />
-            <figcaption className="mt-2 text-xs text-char-600">One cap on its blank, marks from each corner. Not full size: the PDF has a full-size template.</figcaption>
+            <figcaption className="mt-2 text-xs text-char-600">
+              One cap on its blank, marks from each corner. Not full size: the PDF has a full-size template.
+            </figcaption>
           </figure>
         ) : null}
-        <figure className="rounded-lg border border-ash-300 p-3 break-inside-avoid">
+        <figure className="break-inside-avoid rounded-lg border border-ash-300 p-3">
           <PitPlanSvg input={sheet.sceneInput} unit="in" formatLength={f} />
-          <figcaption className="mt-2 text-xs text-char-600">The ring from above: first course, caps dashed.</figcaption>
+          <figcaption className="mt-2 text-xs text-char-600">
+            The ring from above: first course, caps dashed.
+          </figcaption>
         </figure>
       </section>
 
       <section aria-labelledby="sheet-materials" className="mt-5 break-inside-avoid">
-        <h2 id="sheet-materials" className="mb-1 text-lg font-extrabold">Material order</h2>
+        <h2 id="sheet-materials" className="mb-1 text-lg font-extrabold">
+          Material order
+        </h2>
         <MaterialsTable materials={sheet.materials} />
       </section>
 
       <section aria-labelledby="sheet-safety" className="mt-5 break-inside-avoid">
-        <h2 id="sheet-safety" className="mb-2 text-lg font-extrabold">Safety on site</h2>
+        <h2 id="sheet-safety" className="mb-2 text-lg font-extrabold">
+          Safety on site
+        </h2>
         <CrewCautions cautions={sheet.cautions} />
       </section>
     </main>

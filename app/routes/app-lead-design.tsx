@@ -21,7 +21,13 @@ import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server"
 import { speakLengths } from "~/lib/format/length-text";
 import { possessive } from "~/lib/format/wording";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Revise ${possessive(loaderData.lead.customerName)} design · Emberwright` : "Revise a design · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  {
+    title: loaderData
+      ? `Revise ${possessive(loaderData.lead.customerName)} design · Emberwright`
+      : "Revise a design · Emberwright",
+  },
+];
 
 async function loadContext(request: Request, rawLeadId: string | undefined) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
@@ -56,9 +62,18 @@ export async function action({ request, params }: Route.ActionArgs) {
   const errors = checkDesignParams(query, catalog);
   if (Object.keys(errors).length) return data({ errors }, { status: 400 });
   const design = parseDesign(new URLSearchParams(query), catalog);
-  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, resolved: null, errors: [] as PlanFieldError[] };
+  const result = design
+    ? await planForDesign(company.slug, design, catalog, factors)
+    : { plan: null, resolved: null, errors: [] as PlanFieldError[] };
   if (!design || !result.plan) {
-    return data({ errors: { design: `This design cannot be built: ${result.errors[0]?.message ?? "check the choices."}` } as Record<string, string> }, { status: 400 });
+    return data(
+      {
+        errors: {
+          design: `This design cannot be built: ${result.errors[0]?.message ?? "check the choices."}`,
+        } as Record<string, string>,
+      },
+      { status: 400 },
+    );
   }
   const summary = summarizeDesign(publicPlan(result.plan) as PublicPlan, design, catalog, "in");
   await saveRevision(user, lead, recordPlan({ design, summary, resolved: result.resolved, plan: result.plan }));
@@ -72,7 +87,12 @@ export function shouldRevalidate({ formAction, defaultShouldRevalidate }: Should
 
 export default function LeadDesignRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { lead, company, catalog, factors } = loaderData;
-  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({ initial: loaderData, companySlug: company.slug, catalog, factors });
+  const { design, plan, planErrors, changeDesign, isUpdating } = useLivePlan({
+    initial: loaderData,
+    companySlug: company.slug,
+    catalog,
+    factors,
+  });
   const navigation = useNavigation();
   const errors: Record<string, string> = actionData?.errors ?? {};
 
@@ -95,12 +115,22 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
       </div>
       {Object.keys(errors).length ? (
         <FormAlert>
-          Nothing was saved. {Object.entries(errors).map(([field, message]) => `${field}: ${message}`).join(" ")}
+          Nothing was saved.{" "}
+          {Object.entries(errors)
+            .map(([field, message]) => `${field}: ${message}`)
+            .join(" ")}
         </FormAlert>
       ) : null}
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_24rem]">
         <div className="flex min-w-0 flex-col gap-6">
-          {sceneInput && plan ? <PitPreview input={sceneInput} caption={describePreview(plan, design.unit)} unit={design.unit} formatLength={f} /> : null}
+          {sceneInput && plan ? (
+            <PitPreview
+              input={sceneInput}
+              caption={describePreview(plan, design.unit)}
+              unit={design.unit}
+              formatLength={f}
+            />
+          ) : null}
           {planErrors.length ? (
             <p role="alert" className="rounded-lg bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700">
               {planErrors.map((e) => speakLengths(e.message, design.unit)).join(" ")}
@@ -109,10 +139,20 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
           {plan ? <RevisionSummary plan={plan} unit={design.unit} isUpdating={isUpdating} /> : null}
         </div>
         <div className="card p-5 lg:sticky lg:top-4">
-          <DesignControls design={design} catalog={catalog} plannedUnitCount={plan?.ring.unitCount ?? null} outsideDiameterIn={plan?.ring.outsideDiameterIn ?? null} onChange={changeDesign} />
+          <DesignControls
+            design={design}
+            catalog={catalog}
+            plannedUnitCount={plan?.ring.unitCount ?? null}
+            outsideDiameterIn={plan?.ring.outsideDiameterIn ?? null}
+            onChange={changeDesign}
+          />
           <Form method="post" className="mt-5 border-t border-ash-200 pt-4">
             <input type="hidden" name="design" value={designToSearchParams(design).toString()} />
-            <button type="submit" className="btn-primary w-full" disabled={navigation.state === "submitting" || planErrors.length > 0}>
+            <button
+              type="submit"
+              className="btn-primary w-full"
+              disabled={navigation.state === "submitting" || planErrors.length > 0}
+            >
               Save this revision
             </button>
           </Form>
@@ -135,11 +175,17 @@ function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: L
   ];
   return (
     <section aria-labelledby="revision-summary" aria-busy={isUpdating} className="card p-5">
-      <h2 id="revision-summary" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">This revision</h2>
+      <h2 id="revision-summary" className="text-sm font-extrabold tracking-wide text-char-600 uppercase">
+        This revision
+      </h2>
       <p className="mt-1 text-3xl font-extrabold text-char-900" data-testid="price-range">
-        {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "No price: an item has no cost in the catalog"}
+        {plan.price
+          ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}`
+          : "No price: an item has no cost in the catalog"}
       </p>
-      <p className="text-sm text-char-600">At today's catalog costs and company rates. The full breakdown shows on the request once saved.</p>
+      <p className="text-sm text-char-600">
+        At today's catalog costs and company rates. The full breakdown shows on the request once saved.
+      </p>
       <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm sm:grid-cols-3">
         {facts.map(([label, value]) => (
           <div key={label}>

@@ -8,10 +8,18 @@ import { requireUser } from "~/lib/auth/session.server";
 import { findSiteVisit, saveSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/leads/site-visit-schema";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
-import { checkReceivedPhotos, discardReceivedPhotos, MAX_PHOTOS, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
+import {
+  checkReceivedPhotos,
+  discardReceivedPhotos,
+  MAX_PHOTOS,
+  readLeadForm,
+  storeReceivedPhotos,
+} from "~/lib/platform/uploads.server";
 import { formatLengthInput } from "~/domain/units";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `Site visit: ${loaderData.customerName} · Emberwright` : "Site visit · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `Site visit: ${loaderData.customerName} · Emberwright` : "Site visit · Emberwright" },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
@@ -47,7 +55,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   // The same rules as the homeowner's photos: streamed to disk under the same limits, checked by
   // their bytes, decoded and encoded again.
   const reading = await readLeadForm(request);
-  if (!reading.ok) return data({ errors: reading.errors, values: {} as Record<string, string> }, { status: reading.status });
+  if (!reading.ok)
+    return data({ errors: reading.errors, values: {} as Record<string, string> }, { status: reading.status });
   const { fields: values, photos: received } = reading;
   const parsed = siteVisitSchema.safeParse(values);
   if (!parsed.success) {
@@ -78,15 +87,36 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
         </Link>
         <h1 className="mt-1 text-2xl font-extrabold">Site visit</h1>
         <p className="text-sm text-char-600">{site}. Measure from where the centre of the pit will be.</p>
-        {homeownerNotes ? <p className="mt-2 border-l-3 border-ash-300 pl-3 text-sm text-char-700">The homeowner wrote: {homeownerNotes}</p> : null}
+        {homeownerNotes ? (
+          <p className="mt-2 border-l-3 border-ash-300 pl-3 text-sm text-char-700">
+            The homeowner wrote: {homeownerNotes}
+          </p>
+        ) : null}
       </div>
-      {count ? <FormAlert>{count === 1 ? "One field needs a look" : `${count} fields need a look`}: see the messages below.</FormAlert> : null}
+      {count ? (
+        <FormAlert>
+          {count === 1 ? "One field needs a look" : `${count} fields need a look`}: see the messages below.
+        </FormAlert>
+      ) : null}
       {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
-      <Form method="post" encType="multipart/form-data" className="card flex flex-col gap-4 p-5" noValidate>
+      <Form method="post" encType="multipart/form-data" className="flex flex-col gap-4 card p-5" noValidate>
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-1 text-lg font-extrabold">Distances from the centre</legend>
-          <TextField label="Nearest structure (house, shed, fence, deck)" name="structureFt" suffix="ft" hint="Feet, like 12 1/2, or with a unit: 3.8 m." defaultValue={values.structureFt ?? ""} error={errors.structureFt} />
-          <TextField label="Property line" name="propertyLineFt" suffix="ft" defaultValue={values.propertyLineFt ?? ""} error={errors.propertyLineFt} />
+          <TextField
+            label="Nearest structure (house, shed, fence, deck)"
+            name="structureFt"
+            suffix="ft"
+            hint="Feet, like 12 1/2, or with a unit: 3.8 m."
+            defaultValue={values.structureFt ?? ""}
+            error={errors.structureFt}
+          />
+          <TextField
+            label="Property line"
+            name="propertyLineFt"
+            suffix="ft"
+            defaultValue={values.propertyLineFt ?? ""}
+            error={errors.propertyLineFt}
+          />
           <TextField
             label="Overhanging branches"
             name="branchesFt"
@@ -99,15 +129,23 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
         <fieldset className="flex flex-col gap-3">
           <legend className="mb-1 text-lg font-extrabold">Ground and access</legend>
           <SelectField label="Slope" name="slope" defaultValue={values.slope ?? ""} error={errors.slope}>
-            <option value="" disabled>Choose…</option>
+            <option value="" disabled>
+              Choose…
+            </option>
             {SLOPES.map((s) => (
-              <option key={s} value={s}>{SLOPE_LABEL[s]}</option>
+              <option key={s} value={s}>
+                {SLOPE_LABEL[s]}
+              </option>
             ))}
           </SelectField>
           <SelectField label="Soil" name="soil" defaultValue={values.soil ?? ""} error={errors.soil}>
-            <option value="" disabled>Choose…</option>
+            <option value="" disabled>
+              Choose…
+            </option>
             {SOILS.map((s) => (
-              <option key={s} value={s}>{SOIL_LABEL[s]}</option>
+              <option key={s} value={s}>
+                {SOIL_LABEL[s]}
+              </option>
             ))}
           </SelectField>
           <TextField
@@ -118,21 +156,41 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
             defaultValue={values.accessWidthIn ?? ""}
             error={errors.accessWidthIn}
           />
-          <SelectField label="Utility marks" name="utilityMarks" defaultValue={values.utilityMarks ?? ""} error={errors.utilityMarks}>
-            <option value="" disabled>Choose…</option>
+          <SelectField
+            label="Utility marks"
+            name="utilityMarks"
+            defaultValue={values.utilityMarks ?? ""}
+            error={errors.utilityMarks}
+          >
+            <option value="" disabled>
+              Choose…
+            </option>
             {UTILITY_MARKS.map((s) => (
-              <option key={s} value={s}>{UTILITY_LABEL[s]}</option>
+              <option key={s} value={s}>
+                {UTILITY_LABEL[s]}
+              </option>
             ))}
           </SelectField>
-          <SelectField label="Where the dug soil goes" name="spoil" defaultValue={values.spoil ?? ""} error={errors.spoil}>
-            <option value="" disabled>Choose…</option>
+          <SelectField
+            label="Where the dug soil goes"
+            name="spoil"
+            defaultValue={values.spoil ?? ""}
+            error={errors.spoil}
+          >
+            <option value="" disabled>
+              Choose…
+            </option>
             {SPOIL_PLANS.map((s) => (
-              <option key={s} value={s}>{SPOIL_LABEL[s]}</option>
+              <option key={s} value={s}>
+                {SPOIL_LABEL[s]}
+              </option>
             ))}
           </SelectField>
         </fieldset>
         <div>
-          <label htmlFor="visit-photos" className="field-label">Photos of the spot and the way in</label>
+          <label htmlFor="visit-photos" className="field-label">
+            Photos of the spot and the way in
+          </label>
           <input
             id="visit-photos"
             name="photos"
@@ -145,13 +203,19 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
             className="field-input"
           />
           {errors.photos ? (
-            <p id="visit-photos-error" className="field-error">{errors.photos}</p>
+            <p id="visit-photos-error" className="field-error">
+              {errors.photos}
+            </p>
           ) : (
-            <p id="visit-photos-hint" className="field-hint">Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.</p>
+            <p id="visit-photos-hint" className="field-hint">
+              Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.
+            </p>
           )}
         </div>
         <div>
-          <label htmlFor="visit-notes" className="field-label">Notes</label>
+          <label htmlFor="visit-notes" className="field-label">
+            Notes
+          </label>
           <textarea
             id="visit-notes"
             name="notes"
@@ -162,7 +226,11 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
             aria-describedby={errors.notes ? "visit-notes-error" : undefined}
             className="field-input"
           />
-          {errors.notes ? <p id="visit-notes-error" className="field-error">{errors.notes}</p> : null}
+          {errors.notes ? (
+            <p id="visit-notes-error" className="field-error">
+              {errors.notes}
+            </p>
+          ) : null}
         </div>
         <button type="submit" className="btn-primary self-start" disabled={isSaving}>
           {isSaving ? "Saving…" : visit ? "Save the changes" : "Save the site visit"}

@@ -15,7 +15,13 @@ import { buildCutList, crewCautionsOf, legacyCutList } from "~/lib/cut-sheet/cut
 import { refreshStoredPlan } from "~/lib/design/plan-refresh.server";
 import { describePreview, planToSceneInput } from "~/lib/design/design-plan";
 import { leadActionErrors, leadActionSchema } from "~/lib/leads/lead-action-schema";
-import { allowedMoves, BUILD_WINDOW_LABEL, describeNextStep, isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
+import {
+  allowedMoves,
+  BUILD_WINDOW_LABEL,
+  describeNextStep,
+  isSignedStage,
+  STATUS_LABEL,
+} from "~/lib/leads/lead-status";
 import { findLiveBooking } from "~/lib/consults/booking.server";
 import { jobTotalsFor } from "~/lib/proposals/change-orders.server";
 import { parseProposalDocument, PROPOSAL_STATE_LABEL } from "~/lib/proposals/proposal-document";
@@ -46,7 +52,9 @@ import { listTeam } from "~/lib/auth/team.server";
 import { describeAge, formatZonedDateTime } from "~/lib/format/zoned-time";
 import { formatPhone, phoneHref } from "~/lib/format/phone";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  { title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" },
+];
 
 function versionLabel(version: DesignVersion, index: number): string {
   return version.revisionId === null ? "Homeowner's original" : `Revision ${index}`;
@@ -81,13 +89,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const [timeline, team] = isOffice ? await Promise.all([listTimeline(lead), listTeam(user.companyId)]) : [[], []];
 
   const allProposals = isOffice ? await listProposals(lead) : [];
-  const mainProposal = allProposals.find((p) => p.kind === "proposal" && (p.status === "sent" || p.status === "accepted" || p.status === "signed")) ?? null;
+  const mainProposal =
+    allProposals.find(
+      (p) => p.kind === "proposal" && (p.status === "sent" || p.status === "accepted" || p.status === "signed"),
+    ) ?? null;
   const signedProposal = allProposals.find((p) => p.kind === "proposal" && p.status === "signed") ?? null;
   const totals = signedProposal ? await jobTotalsFor(signedProposal) : null;
   const nextStep = describeNextStep(lead.status, lead.pausedStage, isOffice, {
     firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
     consultLabel: booking?.status === "confirmed" ? formatZonedDateTime(booking.startsAt, tz) : null,
-    proposal: mainProposal ? { state: mainProposal.status as "sent" | "accepted" | "signed", opened: mainProposal.firstOpenedAt !== null } : null,
+    proposal: mainProposal
+      ? { state: mainProposal.status as "sent" | "accepted" | "signed", opened: mainProposal.firstOpenedAt !== null }
+      : null,
     openChangeOrder: allProposals.some((p) => p.kind === "change-order" && p.status === "sent"),
     stopReason: lead.stopReason,
   });
@@ -108,17 +121,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         href: `/p/${p.token}`,
         amount: formatMoney(p.kind === "change-order" ? p.priceCents : (p.totalCents ?? p.priceCents)),
         sent: formatZonedDateTime(p.sentAt, tz),
-        opened: p.firstOpenedAt ? `opened ${p.openCount} time${p.openCount === 1 ? "" : "s"}, last ${formatZonedDateTime(p.lastOpenedAt!, tz)}` : "not opened yet",
+        opened: p.firstOpenedAt
+          ? `opened ${p.openCount} time${p.openCount === 1 ? "" : "s"}, last ${formatZonedDateTime(p.lastOpenedAt!, tz)}`
+          : "not opened yet",
         signed: p.signedAt ? `signed by ${p.signerName}, ${formatZonedDateTime(p.signedAt, tz)}` : null,
         deposit: p.depositPaidAt && p.depositCents ? `deposit ${formatMoney(p.depositCents)} paid` : null,
         refund: p.refundOwedAt ? `deposit refunded${p.refundedAt ? "" : " (on its way)"}: ${p.refundReason}` : null,
         canWithdraw: p.status === "sent" || p.status === "accepted",
-        canRefund: p.kind === "proposal" && p.status === "signed" && p.paymentIntentId !== null && p.refundOwedAt === null,
+        canRefund:
+          p.kind === "proposal" && p.status === "signed" && p.paymentIntentId !== null && p.refundOwedAt === null,
         expires: p.status === "sent" || p.status === "accepted" ? formatZonedDateTime(p.expiresAt, tz) : null,
       };
     }),
     totals: totals
-      ? { contract: formatMoney(totals.contractCents), deposit: formatMoney(totals.depositCents), balance: totals.balanceCents >= 0 ? formatMoney(totals.balanceCents) : `${formatMoney(-totals.balanceCents)} credit` }
+      ? {
+          contract: formatMoney(totals.contractCents),
+          deposit: formatMoney(totals.depositCents),
+          balance:
+            totals.balanceCents >= 0 ? formatMoney(totals.balanceCents) : `${formatMoney(-totals.balanceCents)} credit`,
+        }
       : null,
     lead: {
       id: lead.id,
@@ -154,14 +175,19 @@ export async function loader({ request, params }: Route.LoaderArgs) {
             ["Dug soil", SPOIL_LABEL[visit.spoil]],
           ] as [string, string][],
           notes: visit.notes,
-          checks: checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map((c) => c.message),
+          checks: checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map(
+            (c) => c.message,
+          ),
           when: formatZonedDateTime(visit.updatedAt, tz),
         }
       : null,
     versions: versions.map((v, i) => ({
       key: v.revisionId === null ? "original" : String(v.revisionId),
       label: versionLabel(v, i),
-      detail: v.revisionId === null ? `sent ${formatZonedDateTime(v.createdAt, tz)}` : `by ${v.authorName ?? "staff"}, ${formatZonedDateTime(v.createdAt, tz)}`,
+      detail:
+        v.revisionId === null
+          ? `sent ${formatZonedDateTime(v.createdAt, tz)}`
+          : `by ${v.authorName ?? "staff"}, ${formatZonedDateTime(v.createdAt, tz)}`,
       isShown: i === shownIndex,
       isLatest: i === versions.length - 1,
       revisionId: v.revisionId,
@@ -183,7 +209,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     timeline: timeline.map((t) => ({ ...t, when: formatZonedDateTime(t.createdAt, tz) })),
     team: isOffice
       ? {
-          estimators: team.filter((m) => (m.role === "owner" || m.role === "estimator") && (m.isActive || m.id === lead.assignedUserId)),
+          estimators: team.filter(
+            (m) => (m.role === "owner" || m.role === "estimator") && (m.isActive || m.id === lead.assignedUserId),
+          ),
           crew: team.filter((m) => m.role === "crew" && (m.isActive || m.id === lead.crewUserId)),
         }
       : null,
@@ -194,7 +222,9 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const fields = Object.fromEntries(
+    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
+  );
   const parsed = leadActionSchema.safeParse(fields);
   if (!parsed.success) {
     return data({ intent: fields.intent ?? null, fields, errors: leadActionErrors(parsed.error) }, { status: 400 });
@@ -222,12 +252,18 @@ export async function action({ request, params }: Route.ActionArgs) {
         result = { ok: false, status: 403, errors: { reason: "Only an owner can refund a deposit." } };
         break;
       }
-      const refused = await requestDepositRefund({ actorUserId: user.id, lead, proposalId: input.proposalId, reason: input.reason });
+      const refused = await requestDepositRefund({
+        actorUserId: user.id,
+        lead,
+        proposalId: input.proposalId,
+        reason: input.reason,
+      });
       result = refused ? { ok: false, status: 409, errors: { reason: refused } } : { ok: true };
       break;
     }
   }
-  if (!result.ok) return data({ intent: input.intent as string | null, fields, errors: result.errors }, { status: result.status });
+  if (!result.ok)
+    return data({ intent: input.intent as string | null, fields, errors: result.errors }, { status: result.status });
   return redirect(`/app/leads/${lead.id}`);
 }
 
@@ -250,14 +286,31 @@ const kindLabel: Record<string, string> = {
 };
 
 /** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
-const describeKind = (kind: string) => kindLabel[kind] ?? `${kind.charAt(0).toUpperCase()}${kind.slice(1).replace(/-/g, " ")}`;
+const describeKind = (kind: string) =>
+  kindLabel[kind] ?? `${kind.charAt(0).toUpperCase()}${kind.slice(1).replace(/-/g, " ")}`;
 
 export default function LeadRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { lead, isOffice, shown, versions, photos, timeline, team, nextStep, moves, visit, proposals, totals, isOwner } = loaderData;
-  const errorsFor = (intent: string): Record<string, string> => (actionData && actionData.intent === intent ? actionData.errors : {});
+  const {
+    lead,
+    isOffice,
+    shown,
+    versions,
+    photos,
+    timeline,
+    team,
+    nextStep,
+    moves,
+    visit,
+    proposals,
+    totals,
+    isOwner,
+  } = loaderData;
+  const errorsFor = (intent: string): Record<string, string> =>
+    actionData && actionData.intent === intent ? actionData.errors : {};
   const formErrors = actionData && !actionData.intent ? actionData.errors : {};
   // A refused form comes back with what was typed and chosen, not the saved values.
-  const typed = (intent: string): Record<string, string | undefined> => (actionData && actionData.intent === intent ? actionData.fields : {});
+  const typed = (intent: string): Record<string, string | undefined> =>
+    actionData && actionData.intent === intent ? actionData.fields : {};
   const navigation = useNavigation();
   // Each successful post redirects to a new location: keyed on it, the forms start again from the saved values.
   const { key: formKey } = useLocation();
@@ -274,7 +327,8 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           </Link>
           <h1 className="mt-1 text-2xl font-extrabold">{lead.customerName}</h1>
           <p className="text-sm text-char-600">
-            {lead.town} · request #{lead.id}, received {lead.receivedLabel} ({lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
+            {lead.town} · request #{lead.id}, received {lead.receivedLabel} (
+            {lead.ageLabel === "just now" ? "just now" : `${lead.ageLabel} ago`})
           </p>
         </div>
         <div className="flex flex-wrap gap-2">
@@ -292,30 +346,56 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
         </div>
       </div>
 
-      <section aria-labelledby="next-step-title" className="card flex flex-col gap-4 border-l-4 border-l-ember-500 p-5">
+      <section aria-labelledby="next-step-title" className="flex flex-col gap-4 card border-l-4 border-l-ember-500 p-5">
         <div>
           <p className="text-xs font-extrabold tracking-widest text-char-600 uppercase">
             Next step <span className="sr-only">· stage: {lead.stageLabel}</span>
           </p>
-          <h2 id="next-step-title" className="text-xl font-extrabold">{nextStep.title}</h2>
+          <h2 id="next-step-title" className="text-xl font-extrabold">
+            {nextStep.title}
+          </h2>
           {nextStep.detail ? <p className="mt-1 text-sm text-char-700">{nextStep.detail}</p> : null}
         </div>
         <JobProgress stage={lead.status} pausedStage={lead.pausedStage} />
         {isOffice ? (
           <div className="flex flex-wrap gap-2">
-            {!visit && !lead.isSigned ? <Link to={`/app/leads/${lead.id}/visit`} className={lead.status === "consult-booked" ? "btn-primary" : "btn-quiet"}>Record the site visit</Link> : null}
+            {!visit && !lead.isSigned ? (
+              <Link
+                to={`/app/leads/${lead.id}/visit`}
+                className={lead.status === "consult-booked" ? "btn-primary" : "btn-quiet"}
+              >
+                Record the site visit
+              </Link>
+            ) : null}
             {!lead.isSigned ? (
-              <Link to={`/app/leads/${lead.id}/proposal`} className={lead.status === "measured" ? "btn-primary" : "btn-quiet"}>
-                {proposals.some((p) => p.kind === "proposal" && p.canWithdraw) ? "Send a new proposal" : "Write the proposal"}
+              <Link
+                to={`/app/leads/${lead.id}/proposal`}
+                className={lead.status === "measured" ? "btn-primary" : "btn-quiet"}
+              >
+                {proposals.some((p) => p.kind === "proposal" && p.canWithdraw)
+                  ? "Send a new proposal"
+                  : "Write the proposal"}
               </Link>
             ) : (
-              <Link to={`/app/leads/${lead.id}/change-order`} className="btn-quiet">Send a change order</Link>
+              <Link to={`/app/leads/${lead.id}/change-order`} className="btn-quiet">
+                Send a change order
+              </Link>
             )}
             {lead.isSigned && isOwner ? (
-              <Link to={`/app/leads/${lead.id}/supplier-orders`} className={lead.status === "signed" ? "btn-primary" : "btn-quiet"}>Supplier orders</Link>
+              <Link
+                to={`/app/leads/${lead.id}/supplier-orders`}
+                className={lead.status === "signed" ? "btn-primary" : "btn-quiet"}
+              >
+                Supplier orders
+              </Link>
             ) : null}
             {lead.isSigned && isOwner ? (
-              <Link to={`/app/leads/${lead.id}/build`} className={lead.status === "stone-ordered" ? "btn-primary" : "btn-quiet"}>Build dates</Link>
+              <Link
+                to={`/app/leads/${lead.id}/build`}
+                className={lead.status === "stone-ordered" ? "btn-primary" : "btn-quiet"}
+              >
+                Build dates
+              </Link>
             ) : null}
           </div>
         ) : null}
@@ -365,20 +445,26 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 <button type="submit" className="btn-quiet" disabled={isBusy}>
                   Send {shownVersion.label.toLowerCase()} to {lead.customerName}
                 </button>
-                <span className="text-xs text-char-600">They get an e-mail, and the plan drawing shows on their page.</span>
-                {errorsFor("send-revision").revisionId ? <span className="field-error">{errorsFor("send-revision").revisionId}</span> : null}
+                <span className="text-xs text-char-600">
+                  They get an e-mail, and the plan drawing shows on their page.
+                </span>
+                {errorsFor("send-revision").revisionId ? (
+                  <span className="field-error">{errorsFor("send-revision").revisionId}</span>
+                ) : null}
               </Form>
             ) : null}
             <div className="grid gap-4 xl:grid-cols-2">
               <PitPreview input={shown.sceneInput} caption={shown.caption} unit="in" formatLength={f} />
-              <figure className="card overflow-hidden">
+              <figure className="overflow-hidden card">
                 <div className="aspect-square bg-white p-2 sm:aspect-[4/3]">
                   <PitPlanSvg input={shown.sceneInput} unit="in" formatLength={f} className="h-full w-full" />
                 </div>
-                <figcaption className="border-t border-ash-200 px-4 py-3 text-sm text-char-700">Plan, first course and caps (dashed), to scale.</figcaption>
+                <figcaption className="border-t border-ash-200 px-4 py-3 text-sm text-char-700">
+                  Plan, first course and caps (dashed), to scale.
+                </figcaption>
               </figure>
             </div>
-            <dl className="card grid gap-x-6 gap-y-1 p-4 text-sm sm:grid-cols-2">
+            <dl className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2">
               {shown.summary.map((line) => (
                 <div key={line.label} className="flex gap-2">
                   <dt className="font-bold text-char-700">{line.label}:</dt>
@@ -399,24 +485,32 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           </section>
 
           <section aria-labelledby="cut-title" className="card p-5">
-            <h2 id="cut-title" className="mb-3 text-xl font-extrabold">Cut list</h2>
+            <h2 id="cut-title" className="mb-3 text-xl font-extrabold">
+              Cut list
+            </h2>
             <CutListTables sections={shown.cutList} />
             {shown.caps ? (
               <figure className="mt-4 rounded-lg border border-ash-200 p-3">
                 <CapDrawingSvg caps={shown.caps} className="mx-auto max-h-96" />
-                <figcaption className="mt-2 text-center text-xs text-char-600">One cap on its blank. The PDF has it full size to tape on.</figcaption>
+                <figcaption className="mt-2 text-center text-xs text-char-600">
+                  One cap on its blank. The PDF has it full size to tape on.
+                </figcaption>
               </figure>
             ) : null}
           </section>
 
           <section aria-labelledby="materials-title" className="card p-5">
-            <h2 id="materials-title" className="mb-2 text-xl font-extrabold">Material order</h2>
+            <h2 id="materials-title" className="mb-2 text-xl font-extrabold">
+              Material order
+            </h2>
             <MaterialsTable materials={shown.materials} />
           </section>
 
           {shown.labour || shown.price ? (
-            <section aria-labelledby="job-title" className="card grid gap-6 p-5 md:grid-cols-2">
-              <h2 id="job-title" className="text-xl font-extrabold md:col-span-2">Labour and price</h2>
+            <section aria-labelledby="job-title" className="grid gap-6 card p-5 md:grid-cols-2">
+              <h2 id="job-title" className="text-xl font-extrabold md:col-span-2">
+                Labour and price
+              </h2>
               {shown.labour ? (
                 <div>
                   <h3 className="font-extrabold">Labour: {shown.labour.hours} h</h3>
@@ -432,7 +526,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   </table>
                   {shown.unpricedItems?.length ? (
                     <p className="mt-2 text-sm text-ember-700" data-testid="unpriced-items">
-                      Not in the price: {shown.unpricedItems.join(", ")}. Add {shown.unpricedItems.length === 1 ? "it" : "them"} to your catalog to price {shown.unpricedItems.length === 1 ? "it" : "them"}.
+                      Not in the price: {shown.unpricedItems.join(", ")}. Add{" "}
+                      {shown.unpricedItems.length === 1 ? "it" : "them"} to your catalog to price{" "}
+                      {shown.unpricedItems.length === 1 ? "it" : "them"}.
                     </p>
                   ) : null}
                 </div>
@@ -448,9 +544,13 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                         <tr key={row.label} className={row.kind === "line" ? undefined : "font-extrabold"}>
                           <td className="py-1 pr-2">
                             {row.label}
-                            {row.detail ? <span className="block text-xs font-normal text-char-600">{row.detail}</span> : null}
+                            {row.detail ? (
+                              <span className="block text-xs font-normal text-char-600">{row.detail}</span>
+                            ) : null}
                           </td>
-                          <td className="py-1 text-right align-top whitespace-nowrap tabular-nums">{formatMoney(row.cents)}</td>
+                          <td className="py-1 text-right align-top whitespace-nowrap tabular-nums">
+                            {formatMoney(row.cents)}
+                          </td>
                         </tr>
                       ))}
                     </tbody>
@@ -461,7 +561,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                       <tbody className="divide-y divide-ash-200">
                         {shown.price.lines.map((line) => (
                           <tr key={line.item}>
-                            <td className="py-1 pr-2">{line.item} <span className="text-char-500">× {line.quantity}</span></td>
+                            <td className="py-1 pr-2">
+                              {line.item} <span className="text-char-500">× {line.quantity}</span>
+                            </td>
                             <td className="py-1 text-right tabular-nums">{formatMoney(line.totalCents)}</td>
                           </tr>
                         ))}
@@ -470,55 +572,94 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   </details>
                 </div>
               ) : (
-                <p className="text-sm text-char-600">No price: some items of this design have no cost in the catalog.</p>
+                <p className="text-sm text-char-600">
+                  No price: some items of this design have no cost in the catalog.
+                </p>
               )}
             </section>
           ) : null}
 
           <section aria-labelledby="safety-title" className="card p-5">
-            <h2 id="safety-title" className="mb-2 text-xl font-extrabold">Safety on site</h2>
+            <h2 id="safety-title" className="mb-2 text-xl font-extrabold">
+              Safety on site
+            </h2>
             <CrewCautions cautions={shown.cautions} />
           </section>
         </div>
 
         <aside className="flex flex-col gap-6 lg:col-start-2 lg:row-start-2">
           {isOffice && team ? (
-            <section aria-labelledby="work-title" className="card flex flex-col gap-5 p-5">
-              <h2 id="work-title" className="text-lg font-extrabold">Work the request</h2>
-              <StageForm key={`${formKey}-status`} stageLabel={lead.stageLabel} moves={moves} errors={errorsFor("status")} submitted={actionData?.intent === "status" ? actionData.fields : null} isBusy={isBusy} />
+            <section aria-labelledby="work-title" className="flex flex-col gap-5 card p-5">
+              <h2 id="work-title" className="text-lg font-extrabold">
+                Work the request
+              </h2>
+              <StageForm
+                key={`${formKey}-status`}
+                stageLabel={lead.stageLabel}
+                moves={moves}
+                errors={errorsFor("status")}
+                submitted={actionData?.intent === "status" ? actionData.fields : null}
+                isBusy={isBusy}
+              />
 
               <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="assign" />
                 <NotSaved errors={errorsFor("assign")} />
-                <SelectField label="Estimator" name="assigneeId" defaultValue={typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))} error={errorsFor("assign").assigneeId}>
+                <SelectField
+                  label="Estimator"
+                  name="assigneeId"
+                  defaultValue={
+                    typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))
+                  }
+                  error={errorsFor("assign").assigneeId}
+                >
                   <option value="">Unassigned</option>
                   {team.estimators.map((m) => (
-                    <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
+                    <option key={m.id} value={m.id}>
+                      {m.name}
+                      {m.isActive ? "" : " (inactive)"}
+                    </option>
                   ))}
                 </SelectField>
-                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Assign</button>
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                  Assign
+                </button>
               </Form>
 
               {lead.isSigned ? (
                 <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
                   <input type="hidden" name="intent" value="crew" />
                   <NotSaved errors={errorsFor("crew")} />
-                  <SelectField label="Crew" name="crewUserId" defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))} error={errorsFor("crew").crewUserId}>
+                  <SelectField
+                    label="Crew"
+                    name="crewUserId"
+                    defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))}
+                    error={errorsFor("crew").crewUserId}
+                  >
                     <option value="">No crew yet</option>
                     {team.crew.map((m) => (
-                      <option key={m.id} value={m.id}>{m.name}{m.isActive ? "" : " (inactive)"}</option>
+                      <option key={m.id} value={m.id}>
+                        {m.name}
+                        {m.isActive ? "" : " (inactive)"}
+                      </option>
                     ))}
                   </SelectField>
-                  <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Give the job to the crew</button>
+                  <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                    Give the job to the crew
+                  </button>
                 </Form>
               ) : (
-                <p className="text-sm text-char-600">Once the job is signed and the deposit paid, give it to a crew here.</p>
+                <p className="text-sm text-char-600">
+                  Once the job is signed and the deposit paid, give it to a crew here.
+                </p>
               )}
 
               <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
                 <input type="hidden" name="intent" value="note" />
                 <NotSaved errors={errorsFor("note")} />
-                <label htmlFor="note" className="field-label">Add a note</label>
+                <label htmlFor="note" className="field-label">
+                  Add a note
+                </label>
                 <textarea
                   id="note"
                   name="note"
@@ -529,19 +670,34 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                   aria-describedby={errorsFor("note").note ? "note-error" : undefined}
                   className="field-input"
                 />
-                {errorsFor("note").note ? <p id="note-error" className="field-error">{errorsFor("note").note}</p> : null}
-                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>Add note</button>
+                {errorsFor("note").note ? (
+                  <p id="note-error" className="field-error">
+                    {errorsFor("note").note}
+                  </p>
+                ) : null}
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                  Add note
+                </button>
               </Form>
             </section>
           ) : null}
 
           {isOffice && (proposals.length || totals) ? (
-            <ProposalsCard leadId={lead.id} proposals={proposals} totals={totals} isOwner={isOwner} errors={errorsFor("refund")} isBusy={isBusy} />
+            <ProposalsCard
+              leadId={lead.id}
+              proposals={proposals}
+              totals={totals}
+              isOwner={isOwner}
+              errors={errorsFor("refund")}
+              isBusy={isBusy}
+            />
           ) : null}
 
           {isOffice ? (
             <section aria-labelledby="timeline-title" className="card p-5">
-              <h2 id="timeline-title" className="text-lg font-extrabold">Timeline</h2>
+              <h2 id="timeline-title" className="text-lg font-extrabold">
+                Timeline
+              </h2>
               <ol className="mt-2 flex flex-col gap-3 text-sm">
                 {timeline.map((t) => (
                   <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
@@ -562,15 +718,30 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
   );
 }
 
-
 type LeadView = Route.ComponentProps["loaderData"]["lead"];
 type ProposalView = Route.ComponentProps["loaderData"]["proposals"][number];
 
 /** The job's proposals and change orders: where each stands, and what the office can do with it. */
-function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: { leadId: number; proposals: ProposalView[]; totals: { contract: string; deposit: string; balance: string } | null; isOwner: boolean; errors: Record<string, string>; isBusy: boolean }) {
+function ProposalsCard({
+  leadId,
+  proposals,
+  totals,
+  isOwner,
+  errors,
+  isBusy,
+}: {
+  leadId: number;
+  proposals: ProposalView[];
+  totals: { contract: string; deposit: string; balance: string } | null;
+  isOwner: boolean;
+  errors: Record<string, string>;
+  isBusy: boolean;
+}) {
   return (
-    <section aria-labelledby="proposals-title" className="card flex flex-col gap-3 p-5 text-sm">
-      <h2 id="proposals-title" className="text-lg font-extrabold">Proposal and changes</h2>
+    <section aria-labelledby="proposals-title" className="flex flex-col gap-3 card p-5 text-sm">
+      <h2 id="proposals-title" className="text-lg font-extrabold">
+        Proposal and changes
+      </h2>
       {totals ? (
         <dl className="grid grid-cols-[auto_1fr] gap-x-3 rounded-lg bg-ash-100 p-3">
           <dt className="font-bold">Job total</dt>
@@ -585,7 +756,10 @@ function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: {
         {proposals.map((p) => (
           <li key={p.id} className="border-l-3 border-ash-300 pl-3">
             <p className="font-bold">
-              <a href={p.href} className="text-ember-700 underline">{p.number}</a>: {p.stateLabel}
+              <a href={p.href} className="text-ember-700 underline">
+                {p.number}
+              </a>
+              : {p.stateLabel}
             </p>
             <p>
               {p.amount} · sent {p.sent} · {p.opened}
@@ -595,17 +769,25 @@ function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: {
             {p.refund ? <p>{p.refund}</p> : null}
             {p.expires ? <p className="text-char-600">Open to sign until {p.expires}</p> : null}
             <p>
-              <a href={`${p.href}.pdf`} download className="font-bold text-ember-700 underline">PDF</a>
+              <a href={`${p.href}.pdf`} download className="font-bold text-ember-700 underline">
+                PDF
+              </a>
             </p>
             {p.canWithdraw ? (
-              <Form method="post" action={`/app/leads/${leadId}/proposal`} className="mt-1 flex flex-wrap items-end gap-2">
+              <Form
+                method="post"
+                action={`/app/leads/${leadId}/proposal`}
+                className="mt-1 flex flex-wrap items-end gap-2"
+              >
                 <input type="hidden" name="intent" value="withdraw" />
                 <input type="hidden" name="proposalId" value={p.id} />
                 <label className="flex flex-col text-xs font-bold">
                   Why withdraw {p.number}
                   <input name="reason" required minLength={3} maxLength={200} className="field-input text-sm" />
                 </label>
-                <button type="submit" className="btn-quiet" disabled={isBusy}>Withdraw</button>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>
+                  Withdraw
+                </button>
               </Form>
             ) : null}
             {p.canRefund && isOwner ? (
@@ -614,9 +796,16 @@ function ProposalsCard({ leadId, proposals, totals, isOwner, errors, isBusy }: {
                 <input type="hidden" name="proposalId" value={p.id} />
                 <label className="flex flex-col text-xs font-bold">
                   Reason for refunding the deposit
-                  <input name="reason" maxLength={200} aria-invalid={errors.reason ? true : undefined} className="field-input text-sm" />
+                  <input
+                    name="reason"
+                    maxLength={200}
+                    aria-invalid={errors.reason ? true : undefined}
+                    className="field-input text-sm"
+                  />
                 </label>
-                <button type="submit" className="btn-quiet" disabled={isBusy}>Refund the deposit</button>
+                <button type="submit" className="btn-quiet" disabled={isBusy}>
+                  Refund the deposit
+                </button>
                 {errors.reason ? <p className="field-error w-full">{errors.reason}</p> : null}
               </Form>
             ) : null}
@@ -647,17 +836,27 @@ function StageForm({
   submitted: Record<string, string> | null;
   isBusy: boolean;
 }) {
-  if (moves.length === 0) return <p className="text-sm text-char-600">Stage: {stageLabel}. It moves on with the next step above.</p>;
+  if (moves.length === 0)
+    return <p className="text-sm text-char-600">Stage: {stageLabel}. It moves on with the next step above.</p>;
   return (
     <Form method="post" className="flex flex-col gap-2" noValidate>
       <input type="hidden" name="intent" value="status" />
       <NotSaved errors={errors} />
-      <SelectField label={`Move the job (now: ${stageLabel})`} name="status" defaultValue={submitted?.status ?? moves[0]!.to} error={errors.status}>
+      <SelectField
+        label={`Move the job (now: ${stageLabel})`}
+        name="status"
+        defaultValue={submitted?.status ?? moves[0]!.to}
+        error={errors.status}
+      >
         {moves.map((m) => (
-          <option key={m.to} value={m.to}>{m.label}</option>
+          <option key={m.to} value={m.to}>
+            {m.label}
+          </option>
         ))}
       </SelectField>
-      <label htmlFor="stage-reason" className="field-label">Why (for on hold or not going ahead)</label>
+      <label htmlFor="stage-reason" className="field-label">
+        Why (for on hold or not going ahead)
+      </label>
       <input
         id="stage-reason"
         name="reason"
@@ -668,11 +867,17 @@ function StageForm({
         className="field-input"
       />
       {errors.reason ? (
-        <p id="stage-reason-error" className="field-error">{errors.reason}</p>
+        <p id="stage-reason-error" className="field-error">
+          {errors.reason}
+        </p>
       ) : (
-        <p id="stage-reason-hint" className="field-hint">Consult, visit, proposal and deposit move the job by themselves.</p>
+        <p id="stage-reason-hint" className="field-hint">
+          Consult, visit, proposal and deposit move the job by themselves.
+        </p>
       )}
-      <button type="submit" className="btn-primary self-start" disabled={isBusy}>Move the job</button>
+      <button type="submit" className="btn-primary self-start" disabled={isBusy}>
+        Move the job
+      </button>
     </Form>
   );
 }
@@ -680,7 +885,9 @@ function StageForm({
 function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean }) {
   return (
     <section aria-labelledby="customer-title" className="card p-5 text-sm">
-      <h2 id="customer-title" className="text-lg font-extrabold">{isOffice ? "Customer" : "Site"}</h2>
+      <h2 id="customer-title" className="text-lg font-extrabold">
+        {isOffice ? "Customer" : "Site"}
+      </h2>
       <p className="mt-2 font-bold">{lead.customerName}</p>
       <p>
         {lead.street}
@@ -689,26 +896,46 @@ function CustomerCard({ lead, isOffice }: { lead: LeadView; isOffice: boolean })
       </p>
       {lead.email ? (
         <p className="mt-2 break-all">
-          <a href={`mailto:${lead.email}`} className="font-bold text-ember-700 hover:underline">{lead.email}</a>
+          <a href={`mailto:${lead.email}`} className="font-bold text-ember-700 hover:underline">
+            {lead.email}
+          </a>
         </p>
       ) : null}
       {lead.phone ? (
         <p>
-          <a href={phoneHref(lead.phone)} className="font-bold text-ember-700 hover:underline">{formatPhone(lead.phone)}</a>
+          <a href={phoneHref(lead.phone)} className="font-bold text-ember-700 hover:underline">
+            {formatPhone(lead.phone)}
+          </a>
         </p>
       ) : null}
       <p className="mt-2 text-char-600">Hopes to build: {lead.buildWindow}</p>
-      {lead.notes ? <blockquote className="mt-3 border-l-3 border-ash-300 pl-3 text-char-700">{lead.notes}</blockquote> : null}
+      {lead.notes ? (
+        <blockquote className="mt-3 border-l-3 border-ash-300 pl-3 text-char-700">{lead.notes}</blockquote>
+      ) : null}
     </section>
   );
 }
 
-function SiteVisitCard({ visit, leadId, isOffice }: { visit: NonNullable<Route.ComponentProps["loaderData"]["visit"]>; leadId: number; isOffice: boolean }) {
+function SiteVisitCard({
+  visit,
+  leadId,
+  isOffice,
+}: {
+  visit: NonNullable<Route.ComponentProps["loaderData"]["visit"]>;
+  leadId: number;
+  isOffice: boolean;
+}) {
   return (
     <section aria-labelledby="visit-title" className="card p-5 text-sm">
       <div className="flex items-baseline justify-between gap-2">
-        <h2 id="visit-title" className="text-lg font-extrabold">Site visit</h2>
-        {isOffice ? <Link to={`/app/leads/${leadId}/visit`} className="font-bold text-ember-700 underline">Edit</Link> : null}
+        <h2 id="visit-title" className="text-lg font-extrabold">
+          Site visit
+        </h2>
+        {isOffice ? (
+          <Link to={`/app/leads/${leadId}/visit`} className="font-bold text-ember-700 underline">
+            Edit
+          </Link>
+        ) : null}
       </div>
       <p className="text-xs text-char-600">Measured {visit.when}; these replace the homeowner's guesses.</p>
       <dl className="mt-2 grid gap-1">
@@ -719,7 +946,9 @@ function SiteVisitCard({ visit, leadId, isOffice }: { visit: NonNullable<Route.C
           </div>
         ))}
       </dl>
-      {visit.notes ? <p className="mt-2 border-l-3 border-ash-300 pl-3 whitespace-pre-line text-char-700">{visit.notes}</p> : null}
+      {visit.notes ? (
+        <p className="mt-2 border-l-3 border-ash-300 pl-3 whitespace-pre-line text-char-700">{visit.notes}</p>
+      ) : null}
       {visit.checks.length ? (
         <ul className="mt-3 list-disc rounded-lg border border-ember-300 bg-ember-50 py-2 pr-3 pl-7">
           {visit.checks.map((c) => (
@@ -736,15 +965,29 @@ function SiteVisitCard({ visit, leadId, isOffice }: { visit: NonNullable<Route.C
 function PhotoList({ photos }: { photos: { id: number; originalName: string; source: "homeowner" | "site-visit" }[] }) {
   return (
     <section aria-labelledby="photos-title" className="card p-5">
-      <h2 id="photos-title" className="text-lg font-extrabold">Yard photos</h2>
+      <h2 id="photos-title" className="text-lg font-extrabold">
+        Yard photos
+      </h2>
       {photos.length ? (
         <ul className="mt-2 grid grid-cols-2 gap-2">
           {photos.map((p) => (
             <li key={p.id}>
-              <a href={`/photos/${p.id}`} target="_blank" rel="noreferrer" className="block overflow-hidden rounded-lg border border-ash-200">
-                <img src={`/photos/${p.id}`} alt={`${p.source === "site-visit" ? "Site visit" : "Homeowner's"} photo: ${p.originalName}`} loading="lazy" className="aspect-square w-full object-cover" />
+              <a
+                href={`/photos/${p.id}`}
+                target="_blank"
+                rel="noreferrer"
+                className="block overflow-hidden rounded-lg border border-ash-200"
+              >
+                <img
+                  src={`/photos/${p.id}`}
+                  alt={`${p.source === "site-visit" ? "Site visit" : "Homeowner's"} photo: ${p.originalName}`}
+                  loading="lazy"
+                  className="aspect-square w-full object-cover"
+                />
               </a>
-              <p className="mt-0.5 text-xs text-char-600">{p.source === "site-visit" ? "At the visit" : "From the homeowner"}</p>
+              <p className="mt-0.5 text-xs text-char-600">
+                {p.source === "site-visit" ? "At the visit" : "From the homeowner"}
+              </p>
             </li>
           ))}
         </ul>

@@ -23,7 +23,10 @@ export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });
   const company = await getCompany(user.companyId);
   const rows = await listUpcomingConsults(user.companyId);
-  const time = (iso: string) => new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+  const time = (iso: string) =>
+    new Intl.DateTimeFormat("en-US", { timeZone: company.timeZone, hour: "numeric", minute: "2-digit" }).format(
+      new Date(iso),
+    );
   const days = new Map<string, typeof items>();
   const items = rows.map((r) => ({
     id: r.booking.id,
@@ -49,7 +52,13 @@ export async function loader({ request }: Route.LoaderArgs) {
     place: b.place,
     crew: b.crew.map((c) => c.name).join(", "),
   }));
-  return { timeZone: company.timeZone, days: [...days.entries()].map(([day, list]) => ({ day, items: list })), builds, canEditHours: user.role === "owner", canBook: user.role === "owner" };
+  return {
+    timeZone: company.timeZone,
+    days: [...days.entries()].map(([day, list]) => ({ day, items: list })),
+    builds,
+    canEditHours: user.role === "owner",
+    canBook: user.role === "owner",
+  };
 }
 
 const cancelSchema = z.object({ bookingId: formId("Choose a consult to cancel.") });
@@ -58,7 +67,12 @@ export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });
   const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: false }, { status: 400 });
-  const cancelled = await cancelBooking({ bookingId: parsed.data.bookingId, companyId: user.companyId, by: "staff", actorUserId: user.id });
+  const cancelled = await cancelBooking({
+    bookingId: parsed.data.bookingId,
+    companyId: user.companyId,
+    by: "staff",
+    actorUserId: user.id,
+  });
   if (!cancelled.ok) return data({ error: cancelled.message, done: false }, { status: cancelRefusalStatus(cancelled) });
   return data({ error: null, done: true });
 }
@@ -66,7 +80,10 @@ export async function action({ request }: Route.ActionArgs) {
 export default function ScheduleRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { days, timeZone, canEditHours, builds, canBook } = loaderData;
   const navigation = useNavigation();
-  const dayLabel = (day: string) => new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  const dayLabel = (day: string) =>
+    new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(
+      new Date(`${day}T12:00:00Z`),
+    );
   return (
     <div className="flex flex-col gap-6">
       <div className="flex flex-wrap items-end justify-between gap-4">
@@ -74,21 +91,37 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
           <h1 className="text-2xl font-extrabold">Schedule</h1>
           <p className="text-char-600">Builds and booked design consults, in {timeZone.replace(/_/g, " ")} time.</p>
         </div>
-        {canEditHours ? <Link to="/app/consult-hours" className="btn-quiet">Consult hours</Link> : null}
+        {canEditHours ? (
+          <Link to="/app/consult-hours" className="btn-quiet">
+            Consult hours
+          </Link>
+        ) : null}
       </div>
       {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
       {actionData?.done ? (
-        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Consult cancelled; the fee is being refunded and both sides are e-mailed.</p>
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          Consult cancelled; the fee is being refunded and both sides are e-mailed.
+        </p>
       ) : null}
-      <section className="card overflow-hidden" aria-labelledby="builds-heading">
-        <h2 id="builds-heading" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">Builds</h2>
-        {builds.length === 0 ? <p className="px-4 py-3 text-char-600">No builds booked in the next three months.</p> : null}
+      <section className="overflow-hidden card" aria-labelledby="builds-heading">
+        <h2 id="builds-heading" className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">
+          Builds
+        </h2>
+        {builds.length === 0 ? (
+          <p className="px-4 py-3 text-char-600">No builds booked in the next three months.</p>
+        ) : null}
         <ul className="divide-y divide-ash-200">
           {builds.map((b) => (
             <li key={b.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
               <div className="min-w-0">
                 <p className="font-extrabold">
-                  <Link to={`/app/leads/${b.leadId}`} className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline">{b.customerName}</Link> · {b.dayCount} day{b.dayCount === 1 ? "" : "s"}
+                  <Link
+                    to={`/app/leads/${b.leadId}`}
+                    className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline"
+                  >
+                    {b.customerName}
+                  </Link>{" "}
+                  · {b.dayCount} day{b.dayCount === 1 ? "" : "s"}
                 </p>
                 <p className="text-sm break-words text-char-700">{b.daysText}</p>
                 <p className="text-sm text-char-600">
@@ -96,7 +129,11 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
                 </p>
               </div>
               {canBook ? (
-                <Link to={`/app/leads/${b.leadId}/build`} className="btn-quiet" aria-label={`Change the build dates of ${b.customerName}`}>
+                <Link
+                  to={`/app/leads/${b.leadId}/build`}
+                  className="btn-quiet"
+                  aria-label={`Change the build dates of ${b.customerName}`}
+                >
                   Change dates
                 </Link>
               ) : null}
@@ -107,15 +144,22 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
       <h2 className="text-lg font-extrabold">Design consults</h2>
       {days.length === 0 ? <p className="card p-6 text-char-600">No consults booked yet.</p> : null}
       {days.map(({ day, items }) => (
-        <section key={day} className="card overflow-hidden" aria-labelledby={`day-${day}`}>
-          <h3 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold"><time dateTime={day}>{dayLabel(day)}</time></h3>
+        <section key={day} className="overflow-hidden card" aria-labelledby={`day-${day}`}>
+          <h3 id={`day-${day}`} className="border-b border-ash-200 bg-ash-100 px-4 py-2 font-extrabold">
+            <time dateTime={day}>{dayLabel(day)}</time>
+          </h3>
           <ul className="divide-y divide-ash-200">
             {items.map((item) => (
               <li key={item.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3">
                 <div>
                   <p className="font-extrabold tabular-nums">
                     {item.from} – {item.to}{" "}
-                    <Link to={`/app/leads/${item.leadId}`} className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline">{item.customerName}</Link>
+                    <Link
+                      to={`/app/leads/${item.leadId}`}
+                      className="font-bold text-ember-700 underline underline-offset-2 hover:no-underline"
+                    >
+                      {item.customerName}
+                    </Link>
                   </p>
                   <p className="text-sm text-char-600">
                     {item.place} · {item.status === "confirmed" ? `paid ${item.fee}` : "payment in progress"}

@@ -14,9 +14,21 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const document = await buildOrderDocument(order, zonedDay(new Date(stamp), company.timeZone));
   const name = orderNumber(order.id).toLowerCase();
   if (params.file === "order.csv") {
-    return new Response(orderCsv(document), { headers: { "Content-Type": "text/csv; charset=utf-8", "Content-Disposition": `attachment; filename="${name}.csv"`, "Cache-Control": "private, no-store" } });
+    return new Response(orderCsv(document), {
+      headers: {
+        "Content-Type": "text/csv; charset=utf-8",
+        "Content-Disposition": `attachment; filename="${name}.csv"`,
+        "Cache-Control": "private, no-store",
+      },
+    });
   }
   if (params.file !== "order.pdf") throw new Response("Not found", { status: 404 });
   const pdf = await renderSupplierOrderPdf(document, stamp);
-  return new Response(new Uint8Array(pdf), { headers: { "Content-Type": "application/pdf", "Content-Disposition": `inline; filename="${name}.pdf"`, "Cache-Control": "private, no-store" } });
+  return new Response(new Uint8Array(pdf), {
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Disposition": `inline; filename="${name}.pdf"`,
+      "Cache-Control": "private, no-store",
+    },
+  });
 }

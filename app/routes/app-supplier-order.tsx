@@ -11,14 +11,17 @@ import { orderMoveSchema } from "~/lib/suppliers/supplier-order-schema";
 import { moveOrder, ORDER_STATE_LABEL, orderNumber, requireOrder } from "~/lib/suppliers/supplier-orders.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: data ? `${data.order.number} · Supplier orders · Emberwright` : "Supplier order · Emberwright" }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: data ? `${data.order.number} · Supplier orders · Emberwright` : "Supplier order · Emberwright" },
+];
 
 const ROLES = ["owner"] as const;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const order = await requireOrder(user.companyId, params.orderId);
-  if (order.status === "combined" && order.combinedIntoId) throw redirect(`/app/supplier-orders/${order.combinedIntoId}`);
+  if (order.status === "combined" && order.combinedIntoId)
+    throw redirect(`/app/supplier-orders/${order.combinedIntoId}`);
   const tz = (await getCompany(user.companyId)).timeZone;
   const when = (iso: string | null) => (iso ? formatZonedDateTime(iso, tz) : null);
   return {
@@ -27,13 +30,26 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       number: orderNumber(order.id),
       status: order.status,
       stateLabel: ORDER_STATE_LABEL[order.status],
-      supplier: { name: order.supplier.name, email: order.supplier.email, phone: order.supplier.phone ? formatPhone(order.supplier.phone) : "" },
+      supplier: {
+        name: order.supplier.name,
+        email: order.supplier.email,
+        phone: order.supplier.phone ? formatPhone(order.supplier.phone) : "",
+      },
       weight: formatPounds(order.weightLb),
       sentAt: when(order.sentAt),
       confirmedAt: when(order.confirmedAt),
       confirmationNote: order.confirmationNote,
       deliveredAt: when(order.deliveredAt),
-      drops: order.drops.map((d) => ({ id: d.id, leadId: d.leadId, customerName: d.customerName, requestedOn: d.requestedOn, siteAddress: d.siteAddress, accessNotes: d.accessNotes, lines: d.lines, weightLb: d.weightLb })),
+      drops: order.drops.map((d) => ({
+        id: d.id,
+        leadId: d.leadId,
+        customerName: d.customerName,
+        requestedOn: d.requestedOn,
+        siteAddress: d.siteAddress,
+        accessNotes: d.accessNotes,
+        lines: d.lines,
+        weightLb: d.weightLb,
+      })),
     },
   };
 }
@@ -48,7 +64,9 @@ const SAVED: Record<string, string> = {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const order = await requireOrder(user.companyId, params.orderId);
-  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const fields = Object.fromEntries(
+    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
+  );
   const parsed = orderMoveSchema.safeParse(fields);
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   const result = await moveOrder(user, order, parsed.data.intent, parsed.data.note);
@@ -65,7 +83,9 @@ export default function SupplierOrderRoute({ loaderData, actionData }: Route.Com
   const saved = !actionData ? SAVED[params.get("saved") ?? ""] : undefined;
   const history = [
     order.sentAt ? `Sent ${order.sentAt}` : null,
-    order.confirmedAt ? `Confirmed ${order.confirmedAt}${order.confirmationNote ? ` (${order.confirmationNote})` : ""}` : null,
+    order.confirmedAt
+      ? `Confirmed ${order.confirmedAt}${order.confirmationNote ? ` (${order.confirmationNote})` : ""}`
+      : null,
     order.deliveredAt ? `Delivered ${order.deliveredAt}` : null,
   ].filter(Boolean);
   return (
@@ -78,22 +98,36 @@ export default function SupplierOrderRoute({ loaderData, actionData }: Route.Com
           <h1 className="text-2xl font-extrabold">
             {order.number} to {order.supplier.name}
           </h1>
-          <span className={`rounded-full px-2 py-0.5 text-xs font-bold ${STATE_BADGE[order.status] ?? ""}`} data-testid="order-state">
+          <span
+            className={`rounded-full px-2 py-0.5 text-xs font-bold ${STATE_BADGE[order.status] ?? ""}`}
+            data-testid="order-state"
+          >
             {order.stateLabel}
           </span>
         </div>
         <p className="break-words text-char-600">
           {order.supplier.email}
-          {order.supplier.phone ? ` · ${order.supplier.phone}` : ""} · {order.drops.length === 1 ? "one delivery" : `${order.drops.length} deliveries`}, {order.weight}
+          {order.supplier.phone ? ` · ${order.supplier.phone}` : ""} ·{" "}
+          {order.drops.length === 1 ? "one delivery" : `${order.drops.length} deliveries`}, {order.weight}
         </p>
         {history.length ? <p className="text-sm text-char-600">{history.join(" · ")}</p> : null}
       </div>
-      {saved ? <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">{saved}</p> : null}
+      {saved ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          {saved}
+        </p>
+      ) : null}
       {Object.keys(errors).length ? <FormAlert>{Object.values(errors).join(" ")}</FormAlert> : null}
 
-      <section aria-labelledby="next-title" className="card flex flex-col gap-3 border-l-4 border-l-ember-500 p-5">
+      <section aria-labelledby="next-title" className="flex flex-col gap-3 card border-l-4 border-l-ember-500 p-5">
         <h2 id="next-title" className="text-lg font-extrabold">
-          {order.status === "drafted" ? "Send it to the supplier" : order.status === "sent" ? "Waiting for the supplier to confirm" : order.status === "confirmed" ? "Waiting for the delivery" : "Delivered"}
+          {order.status === "drafted"
+            ? "Send it to the supplier"
+            : order.status === "sent"
+              ? "Waiting for the supplier to confirm"
+              : order.status === "confirmed"
+                ? "Waiting for the delivery"
+                : "Delivered"}
         </h2>
         {order.status === "drafted" ? (
           <div className="flex flex-wrap gap-3">
@@ -114,7 +148,13 @@ export default function SupplierOrderRoute({ loaderData, actionData }: Route.Com
         {order.status === "sent" ? (
           <Form method="post" className="flex flex-wrap items-end gap-3" noValidate>
             <input type="hidden" name="intent" value="confirm" />
-            <TextField label="Their reference or who confirmed" name="note" maxLength={120} hint="Optional." error={errors.note} />
+            <TextField
+              label="Their reference or who confirmed"
+              name="note"
+              maxLength={120}
+              hint="Optional."
+              error={errors.note}
+            />
             <button type="submit" className="btn-primary" disabled={isBusy}>
               Mark confirmed
             </button>
@@ -140,7 +180,7 @@ export default function SupplierOrderRoute({ loaderData, actionData }: Route.Com
       </section>
 
       {order.drops.map((d) => (
-        <section key={d.id} aria-labelledby={`drop-${d.id}`} className="card flex flex-col gap-2 p-5">
+        <section key={d.id} aria-labelledby={`drop-${d.id}`} className="flex flex-col gap-2 card p-5">
           <h2 id={`drop-${d.id}`} className="text-lg font-extrabold">
             Deliver {formatDeliveryDay(d.requestedOn)} to {d.siteAddress}
           </h2>

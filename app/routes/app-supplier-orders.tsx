@@ -7,7 +7,12 @@ import { fieldErrors } from "~/lib/format/form-fields";
 import { formatDeliveryDay, formatPounds } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { combineSchema } from "~/lib/suppliers/supplier-order-schema";
-import { combineOrders, listSupplierOrders, ORDER_STATE_LABEL, orderNumber } from "~/lib/suppliers/supplier-orders.server";
+import {
+  combineOrders,
+  listSupplierOrders,
+  ORDER_STATE_LABEL,
+  orderNumber,
+} from "~/lib/suppliers/supplier-orders.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Supplier orders · Emberwright" }];
 
@@ -16,7 +21,14 @@ const ROLES = ["owner"] as const;
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const orders = await listSupplierOrders(user.companyId);
-  const combinable = findCombinable(orders.map((o) => ({ id: o.id, supplierId: o.supplierId, state: o.status, requestedOn: o.drops.map((d) => d.requestedOn) })));
+  const combinable = findCombinable(
+    orders.map((o) => ({
+      id: o.id,
+      supplierId: o.supplierId,
+      state: o.status,
+      requestedOn: o.drops.map((d) => d.requestedOn),
+    })),
+  );
   return {
     orders: orders.map((o) => ({
       id: o.id,
@@ -38,7 +50,9 @@ export async function loader({ request }: Route.LoaderArgs) {
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const form = await request.formData();
-  const parsed = combineSchema.safeParse({ orderIds: form.getAll("orderId").filter((v): v is string => typeof v === "string") });
+  const parsed = combineSchema.safeParse({
+    orderIds: form.getAll("orderId").filter((v): v is string => typeof v === "string"),
+  });
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   const result = await combineOrders(user, user.companyId, parsed.data.orderIds);
   if (!result.ok) return data({ errors: result.errors }, { status: result.status });
@@ -61,15 +75,28 @@ export default function SupplierOrdersRoute({ loaderData, actionData }: Route.Co
           Suppliers
         </Link>
       </div>
-      {params.get("saved") === "discarded" && !actionData ? <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">Draft discarded.</p> : null}
+      {params.get("saved") === "discarded" && !actionData ? (
+        <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+          Draft discarded.
+        </p>
+      ) : null}
       {Object.keys(errors).length ? <FormAlert>{Object.values(errors).join(" ")}</FormAlert> : null}
 
       {combinable.length ? (
-        <section aria-labelledby="combine-title" className="card flex flex-col gap-3 p-5">
-          <h2 id="combine-title" className="text-lg font-extrabold">Combine drafts</h2>
-          <p className="text-sm text-char-600">Drafts to the same supplier for deliveries in the same week can go as one order: one e-mail and one confirmation, a drop at each site.</p>
+        <section aria-labelledby="combine-title" className="flex flex-col gap-3 card p-5">
+          <h2 id="combine-title" className="text-lg font-extrabold">
+            Combine drafts
+          </h2>
+          <p className="text-sm text-char-600">
+            Drafts to the same supplier for deliveries in the same week can go as one order: one e-mail and one
+            confirmation, a drop at each site.
+          </p>
           {combinable.map((g) => (
-            <Form key={`${g.supplierId}-${g.week}`} method="post" className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-ash-200 p-3">
+            <Form
+              key={`${g.supplierId}-${g.week}`}
+              method="post"
+              className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-ash-200 p-3"
+            >
               {g.orderIds.map((id) => (
                 <input key={id} type="hidden" name="orderId" value={id} />
               ))}
@@ -84,8 +111,11 @@ export default function SupplierOrdersRoute({ loaderData, actionData }: Route.Co
         </section>
       ) : null}
 
-      <section aria-labelledby="list-title" className="card overflow-hidden">
-        <h2 id="list-title" className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase">
+      <section aria-labelledby="list-title" className="overflow-hidden card">
+        <h2
+          id="list-title"
+          className="border-b border-ash-200 bg-ash-100 px-4 py-2 text-sm font-extrabold tracking-wide text-char-700 uppercase"
+        >
           Orders
         </h2>
         {orders.length === 0 ? <p className="px-4 py-3 text-char-600">No orders yet.</p> : null}
@@ -93,14 +123,21 @@ export default function SupplierOrdersRoute({ loaderData, actionData }: Route.Co
           {orders.map((o) => (
             <li key={o.id} className="flex flex-col gap-1 px-4 py-3 sm:flex-row sm:items-center sm:justify-between">
               <div className="min-w-0">
-                <Link to={`/app/supplier-orders/${o.id}`} className="font-bold text-ember-700 underline underline-offset-2">
+                <Link
+                  to={`/app/supplier-orders/${o.id}`}
+                  className="font-bold text-ember-700 underline underline-offset-2"
+                >
                   {o.number} to {o.supplierName}
                 </Link>
                 <p className="text-sm text-char-600">
                   {o.jobs.map((j) => `${j.customerName} (${formatDeliveryDay(j.requestedOn)})`).join("; ")} · {o.weight}
                 </p>
               </div>
-              <span className={`self-start rounded-full px-2 py-0.5 text-xs font-bold sm:self-center ${STATE_BADGE[o.status] ?? ""}`}>{o.stateLabel}</span>
+              <span
+                className={`self-start rounded-full px-2 py-0.5 text-xs font-bold sm:self-center ${STATE_BADGE[o.status] ?? ""}`}
+              >
+                {o.stateLabel}
+              </span>
             </li>
           ))}
         </ul>

@@ -8,6 +8,16 @@ import { calendarFeedFor } from "~/lib/builds/builds.server";
  */
 export async function loader({ params }: Route.LoaderArgs) {
   const feed = await calendarFeedFor(params.token ?? "");
-  if (!feed) return new Response("Not found", { status: 404, headers: { "Content-Type": "text/plain; charset=utf-8", "Cache-Control": "no-store" } });
-  return new Response(feed, { headers: { "Content-Type": "text/calendar; charset=utf-8", "Cache-Control": "private, no-store", "X-Robots-Tag": "noindex" } });
+  if (!feed)
+    return new Response("Not found", {
+      status: 404,
+      headers: { "Content-Type": "text/plain; charset=utf-8", "Cache-Control": "no-store" },
+    });
+  return new Response(feed, {
+    headers: {
+      "Content-Type": "text/calendar; charset=utf-8",
+      "Cache-Control": "private, no-store",
+      "X-Robots-Tag": "noindex",
+    },
+  });
 }

@@ -25,9 +25,9 @@ export const meta: Route.MetaFunction = ({ loaderData }) => [
   { name: "description", content: "Size a round masonry fire pit, see it in 3D and get a price range." },
 ];
 
-
 // Document responses take their headers from here: pass an action's Retry-After through.
-export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) =>
+  actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { company, catalog, factors } = await loadCompanyCatalog(params.companySlug);
@@ -66,7 +66,11 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
     factors,
     // Keep the design in the address bar (bookmark, share, reload) without a navigation.
     onDesignChange: (next) =>
-      window.history.replaceState(window.history.state, "", `${window.location.pathname}?${designToSearchParams(next).toString()}`),
+      window.history.replaceState(
+        window.history.state,
+        "",
+        `${window.location.pathname}?${designToSearchParams(next).toString()}`,
+      ),
   });
 
   if (!design) {
@@ -89,9 +93,18 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
     return caution ? speakLengths(caution.message, design.unit) : null;
   };
   const siteNotes: SiteFieldNotes = {
-    setback: { requiredFt: factors.requiredSetbackFt ?? DEFAULT_FACTORS.requiredSetbackFt, note: cautionFor("setback-too-close") },
-    propertyLine: { requiredFt: factors.requiredPropertyLineFt ?? DEFAULT_FACTORS.requiredPropertyLineFt, note: cautionFor("property-line-too-close") },
-    branches: { requiredFt: factors.requiredBranchClearanceFt ?? DEFAULT_FACTORS.requiredBranchClearanceFt, note: cautionFor("branches-too-close") },
+    setback: {
+      requiredFt: factors.requiredSetbackFt ?? DEFAULT_FACTORS.requiredSetbackFt,
+      note: cautionFor("setback-too-close"),
+    },
+    propertyLine: {
+      requiredFt: factors.requiredPropertyLineFt ?? DEFAULT_FACTORS.requiredPropertyLineFt,
+      note: cautionFor("property-line-too-close"),
+    },
+    branches: {
+      requiredFt: factors.requiredBranchClearanceFt ?? DEFAULT_FACTORS.requiredBranchClearanceFt,
+      note: cautionFor("branches-too-close"),
+    },
   };
 
   return (
@@ -110,7 +123,11 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
               </p>
             ) : null}
           </div>
-          <div role="group" aria-label="Units" className="inline-flex rounded-lg border border-ash-300 bg-white p-0.5 text-sm font-bold">
+          <div
+            role="group"
+            aria-label="Units"
+            className="inline-flex rounded-lg border border-ash-300 bg-white p-0.5 text-sm font-bold"
+          >
             {(["in", "mm"] as const).map((u) => (
               <button
                 key={u}
@@ -129,7 +146,10 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
             request form as they scroll. Phones: preview and price come first, then the rest, with a slim strip keeping
             the price in sight. */}
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_28rem]">
-          <div className="flex min-w-0 flex-col gap-4 lg:sticky lg:top-4 lg:max-h-[calc(100dvh-2rem)] lg:overflow-y-auto [&>*]:shrink-0" data-testid="preview-column">
+          <div
+            className="flex min-w-0 flex-col gap-4 lg:sticky lg:top-4 lg:max-h-[calc(100dvh-2rem)] lg:overflow-y-auto [&>*]:shrink-0"
+            data-testid="preview-column"
+          >
             {sceneInput && plan ? (
               <PitPreview
                 id="preview"
@@ -152,9 +172,16 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
             ) : null}
             {plan ? <PlanWarnings plan={plan} unit={design.unit} /> : null}
           </div>
-          {plan && isHydrated ? <PreviewStrip watch={priceRef} plan={plan} sceneInput={sceneInput} unit={design.unit} previewId="preview" /> : null}
+          {plan && isHydrated ? (
+            <PreviewStrip watch={priceRef} plan={plan} sceneInput={sceneInput} unit={design.unit} previewId="preview" />
+          ) : null}
           <div className="flex min-w-0 flex-col gap-6">
-            <Form method="get" className="card p-5" aria-label="Design choices" onSubmit={(e) => isHydrated && e.preventDefault()}>
+            <Form
+              method="get"
+              className="card p-5"
+              aria-label="Design choices"
+              onSubmit={(e) => isHydrated && e.preventDefault()}
+            >
               <input type="hidden" name="unit" value={design.unit} />
               <DesignControls
                 design={design}
@@ -165,7 +192,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
                 onChange={changeDesign}
               />
               {isHydrated ? null : (
-                <button type="submit" className="btn-primary mt-4 w-full">
+                <button type="submit" className="mt-4 btn-primary w-full">
                   Update the design
                 </button>
               )}
@@ -187,7 +214,12 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
               </section>
             ) : null}
 
-            <RequestForm designQuery={designQuery} state={actionData} companyName={company.name} companySlug={company.slug} />
+            <RequestForm
+              designQuery={designQuery}
+              state={actionData}
+              companyName={company.name}
+              companySlug={company.slug}
+            />
           </div>
         </div>
       </main>

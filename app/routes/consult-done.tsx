@@ -17,8 +17,20 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const booking = company && lead ? await findBookingByCheckout(lead.id, sessionId) : null;
   if (!company || !lead || !booking) throw new Response("Not found", { status: 404 });
   const state =
-    booking.status === "confirmed" ? "confirmed" : booking.isPaid && booking.status === "cancelled" ? "refunded" : booking.status === "held" ? "waiting" : "not-paid";
-  return { state, startsAt: booking.startsAt, companyName: company.name, timeZone: company.timeZone, consultPath: `/c/${params.companySlug}/consult/${params.ref}` };
+    booking.status === "confirmed"
+      ? "confirmed"
+      : booking.isPaid && booking.status === "cancelled"
+        ? "refunded"
+        : booking.status === "held"
+          ? "waiting"
+          : "not-paid";
+  return {
+    state,
+    startsAt: booking.startsAt,
+    companyName: company.name,
+    timeZone: company.timeZone,
+    consultPath: `/c/${params.companySlug}/consult/${params.ref}`,
+  };
 }
 
 export default function ConsultDoneRoute({ loaderData }: Route.ComponentProps) {
@@ -36,25 +48,39 @@ export default function ConsultDoneRoute({ loaderData }: Route.ComponentProps) {
           <section className="card p-6" aria-live="polite">
             <p className="text-sm font-extrabold tracking-widest text-moss-600 uppercase">Paid and booked</p>
             <h1 className="mt-1 text-3xl font-extrabold">Your design consult is booked</h1>
-            <p className="mt-3 text-lg font-bold"><LocalTime iso={startsAt} companyTimeZone={timeZone} /></p>
-            <p className="mt-2 text-char-600">A confirmation with a calendar file is on its way to your inbox. {companyName} will see you then.</p>
-            <Link to="/my" className="btn-quiet mt-4">My requests</Link>
+            <p className="mt-3 text-lg font-bold">
+              <LocalTime iso={startsAt} companyTimeZone={timeZone} />
+            </p>
+            <p className="mt-2 text-char-600">
+              A confirmation with a calendar file is on its way to your inbox. {companyName} will see you then.
+            </p>
+            <Link to="/my" className="mt-4 btn-quiet">
+              My requests
+            </Link>
           </section>
         ) : state === "waiting" ? (
           <section className="card p-6" aria-live="polite">
             <h1 className="text-2xl font-extrabold">Confirming your payment…</h1>
-            <p className="mt-2 text-char-600">This takes a few seconds. You can close this page: we e-mail you as soon as it is confirmed.</p>
+            <p className="mt-2 text-char-600">
+              This takes a few seconds. You can close this page: we e-mail you as soon as it is confirmed.
+            </p>
           </section>
         ) : state === "refunded" ? (
           <section className="card p-6" aria-live="polite">
             <h1 className="text-2xl font-extrabold">That time was taken</h1>
-            <p className="mt-2 text-char-600">Someone else booked it while your payment went through. Your payment is refunded in full.</p>
-            <Link to={consultPath} className="btn-primary mt-4">Choose another time</Link>
+            <p className="mt-2 text-char-600">
+              Someone else booked it while your payment went through. Your payment is refunded in full.
+            </p>
+            <Link to={consultPath} className="mt-4 btn-primary">
+              Choose another time
+            </Link>
           </section>
         ) : (
           <section className="card p-6" aria-live="polite">
             <h1 className="text-2xl font-extrabold">No payment was taken</h1>
-            <Link to={consultPath} className="btn-primary mt-4">Choose a time</Link>
+            <Link to={consultPath} className="mt-4 btn-primary">
+              Choose a time
+            </Link>
           </section>
         )}
       </main>

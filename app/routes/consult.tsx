@@ -7,7 +7,15 @@ import { PublicShell } from "~/components/public-shell";
 import { FormAlert } from "~/components/ui/field";
 import { ConsultTimePicker, onlyDayChanged } from "~/components/consult-time-picker";
 import { VisitBrief, VisitFacts } from "~/components/consult-visit";
-import { abandonCheckout, designLine, findLiveBooking, holdSlot, listCompanySlots, SlotUnavailableError, startCheckout } from "~/lib/consults/booking.server";
+import {
+  abandonCheckout,
+  designLine,
+  findLiveBooking,
+  holdSlot,
+  listCompanySlots,
+  SlotUnavailableError,
+  startCheckout,
+} from "~/lib/consults/booking.server";
 import { findCompanyBySlug } from "~/lib/catalog/catalog.server";
 import { CONSULT_HOLD_MINUTES, groupSlotsByDay } from "~/lib/consults/consult-slots";
 import { appOrigin } from "~/lib/platform/email.server";
@@ -28,10 +36,16 @@ async function loadLead(params: { companySlug: string; ref: string }) {
 
 // Reached by the unguessable request reference (from the confirmation page, the e-mail or /my).
 // Document responses take their headers from here: pass an action's Retry-After through.
-export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) => (actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders);
+export const headers: Route.HeadersFunction = ({ actionHeaders, loaderHeaders }) =>
+  actionHeaders.has("Retry-After") ? actionHeaders : loaderHeaders;
 
 // Choosing a day only changes what is shown: the free times already came with the page.
-export function shouldRevalidate({ currentUrl, nextUrl, formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+export function shouldRevalidate({
+  currentUrl,
+  nextUrl,
+  formMethod,
+  defaultShouldRevalidate,
+}: ShouldRevalidateFunctionArgs) {
   return onlyDayChanged({ currentUrl, nextUrl, formMethod }) ? false : defaultShouldRevalidate;
 }
 
@@ -55,7 +69,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     address: `${lead.street}, ${lead.town}`,
     design: designLine(lead),
     booking: booking ? { status: booking.status, startsAt: booking.startsAt } : null,
-    days: groupSlotsByDay(slots, company.timeZone).map(({ day, slots: list }) => ({ day, slots: list.map((s) => ({ startsAt: s.startsAt })) })),
+    days: groupSlotsByDay(slots, company.timeZone).map(({ day, slots: list }) => ({
+      day,
+      slots: list.map((s) => ({ startsAt: s.startsAt })),
+    })),
     didLeave: left > 0,
     leftBookingId: Number.isSafeInteger(left) && left > 0 ? left : null,
   };
@@ -66,13 +83,20 @@ const bookSchema = z.object({
   timeZone: z.string().max(64).optional(),
 });
 
-const leaveSchema = z.object({ bookingId: z.coerce.number({ error: "Booking must be a consult id." }).int({ error: "Booking must be a whole number." }).positive({ error: "Booking must be a positive id." }) });
+const leaveSchema = z.object({
+  bookingId: z.coerce
+    .number({ error: "Booking must be a consult id." })
+    .int({ error: "Booking must be a whole number." })
+    .positive({ error: "Booking must be a positive id." }),
+});
 
 /** Back from the payment page without paying: frees the held time once the page is shown. */
 function useLeaveCheckout(bookingId: number | null) {
   const fetcher = useFetcher();
   const sent = useRef<number | null>(null);
-  const leave = useEffectEvent((id: number) => void fetcher.submit({ intent: "leave", bookingId: String(id) }, { method: "post" }));
+  const leave = useEffectEvent(
+    (id: number) => void fetcher.submit({ intent: "leave", bookingId: String(id) }, { method: "post" }),
+  );
   useEffect(() => {
     if (bookingId === null || sent.current === bookingId) return;
     sent.current = bookingId;
@@ -87,7 +111,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   const { company, lead } = await loadLead(params);
   const limit = await spendLimit(bookingLimiter, `${company.id}|${clientAddress(request, context)}`);
   if (!limit.ok) {
-    return data({ error: "Too many tries from this address. Please wait a few minutes." }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
+    return data(
+      { error: "Too many tries from this address. Please wait a few minutes." },
+      { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
+    );
   }
   const form = Object.fromEntries(await request.formData());
   if (form.intent === "leave") {
@@ -98,7 +125,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   }
   const parsed = bookSchema.safeParse(form);
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
-  const timeZone = parsed.data.timeZone && Intl.supportedValuesOf("timeZone").includes(parsed.data.timeZone) ? parsed.data.timeZone : null;
+  const timeZone =
+    parsed.data.timeZone && Intl.supportedValuesOf("timeZone").includes(parsed.data.timeZone)
+      ? parsed.data.timeZone
+      : null;
 
   let booking = await findLiveBooking(lead.id);
   if (booking?.status === "confirmed") return data({ error: "Your consult is already booked." }, { status: 409 });
@@ -107,20 +137,33 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     booking = null;
   }
   try {
-    booking ??= await holdSlot({ company, lead, startsAt: new Date(parsed.data.startsAt).toISOString(), customerTimeZone: timeZone });
+    booking ??= await holdSlot({
+      company,
+      lead,
+      startsAt: new Date(parsed.data.startsAt).toISOString(),
+      customerTimeZone: timeZone,
+    });
   } catch (error) {
     if (error instanceof SlotUnavailableError) return data({ error: error.message }, { status: 409 });
     throw error;
   }
   try {
-    const url = await startCheckout({ booking, company, lead, origin: appOrigin(request), basePath: `/c/${params.companySlug}/consult/${params.ref}` });
+    const url = await startCheckout({
+      booking,
+      company,
+      lead,
+      origin: appOrigin(request),
+      basePath: `/c/${params.companySlug}/consult/${params.ref}`,
+    });
     return redirect(url, 303);
   } catch (error) {
     if (error instanceof SlotUnavailableError) return data({ error: error.message }, { status: 409 });
     // Nothing was charged; the hold stands, and a retry reuses the same checkout key.
     console.error("checkout could not start", (error as Error).message);
     return data(
-      { error: `The payment service is not answering right now. Nothing was charged and your time is held for ${CONSULT_HOLD_MINUTES} minutes: try again in a moment.` },
+      {
+        error: `The payment service is not answering right now. Nothing was charged and your time is held for ${CONSULT_HOLD_MINUTES} minutes: try again in a moment.`,
+      },
       { status: 503 },
     );
   }
@@ -138,8 +181,8 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
           <p className="text-sm font-extrabold tracking-widest text-ember-700 uppercase">{company.name}</p>
           <h1 className="mt-1 text-3xl font-extrabold">Book a design consult</h1>
           <p className="mt-2 text-char-600">
-            Someone from {company.name} comes to your home, {firstName}, walks the spot with you, measures it and settles the design and price
-            before anything is built.
+            Someone from {company.name} comes to your home, {firstName}, walks the spot with you, measures it and
+            settles the design and price before anything is built.
           </p>
         </div>
         <VisitFacts minutes={company.visitMinutes} address={address} fee={company.fee} design={design} />
@@ -152,38 +195,64 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
         <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem]">
           {booking?.status === "confirmed" ? (
             <section className="card p-6" aria-labelledby="booked-title">
-              <h2 id="booked-title" className="text-xl font-extrabold">Your consult is booked</h2>
+              <h2 id="booked-title" className="text-xl font-extrabold">
+                Your consult is booked
+              </h2>
               <p className="mt-2 text-lg">
                 <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
               </p>
               <p className="mt-2 text-sm text-char-600">
-                To move it to another time (no second payment) or cancel it, sign in and open your requests, up to a day ahead.
+                To move it to another time (no second payment) or cancel it, sign in and open your requests, up to a day
+                ahead.
               </p>
-              <Link to="/my" className="btn-quiet mt-4">My requests</Link>
+              <Link to="/my" className="mt-4 btn-quiet">
+                My requests
+              </Link>
             </section>
           ) : days.length === 0 ? (
-            <p className="card p-6">No times are free in the coming weeks. {company.name} will contact you about your request.</p>
+            <p className="card p-6">
+              No times are free in the coming weeks. {company.name} will contact you about your request.
+            </p>
           ) : (
-            <Form method="post" className="card flex min-w-0 flex-col gap-5 p-4 sm:p-6" aria-label="Choose a time for the consult">
+            <Form
+              method="post"
+              className="flex min-w-0 flex-col gap-5 card p-4 sm:p-6"
+              aria-label="Choose a time for the consult"
+            >
               <TimeZoneField />
               {booking?.status === "held" ? (
                 <div className="flex flex-wrap items-center justify-between gap-3 rounded-xl border border-ember-300 bg-ember-50 p-4">
                   <p>
-                    <strong>Held for you:</strong> <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
+                    <strong>Held for you:</strong>{" "}
+                    <LocalTime iso={booking.startsAt} companyTimeZone={company.timeZone} />
                   </p>
-                  <button type="submit" name="startsAt" value={booking.startsAt} formNoValidate className="btn-primary" disabled={isPaying}>
+                  <button
+                    type="submit"
+                    name="startsAt"
+                    value={booking.startsAt}
+                    formNoValidate
+                    className="btn-primary"
+                    disabled={isPaying}
+                  >
                     Continue to payment
                   </button>
                 </div>
               ) : null}
-              <p className="text-sm text-char-600">Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).</p>
+              <p className="text-sm text-char-600">
+                Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).
+              </p>
               <ConsultTimePicker
                 days={days}
                 timeZone={company.timeZone}
                 visitMinutes={company.visitMinutes}
                 isBusy={isPaying}
                 submitLabel={() => `Hold this time and pay ${company.fee}`}
-                footnote={<p className="text-xs text-char-600">Holding a time keeps it yours for {CONSULT_HOLD_MINUTES} minutes while you pay on the secure payment page.</p>}
+                footnote={
+                  <p className="text-xs text-char-600">
+                    Holding a time keeps it yours for {CONSULT_HOLD_MINUTES} minutes while you pay on the secure payment
+                    page.
+                  </p>
+                }
               />
             </Form>
           )}

@@ -7,7 +7,8 @@ export const meta: Route.MetaFunction = () => [
   { title: "Emberwright · Fire-pit requests that arrive with the cut list done" },
   {
     name: "description",
-    content: "A configurator for your customers and a workspace for your crew: round masonry fire pits sized, priced and cut from your own stock.",
+    content:
+      "A configurator for your customers and a workspace for your crew: round masonry fire pits sized, priced and cut from your own stock.",
   },
 ];
 
@@ -38,8 +39,8 @@ export default function HomeRoute() {
             </h1>
             <p className="mt-5 max-w-xl text-lg text-char-600">
               Emberwright turns a homeowner's idea into an exact round masonry fire pit: real unit sizes, caps that
-              close the circle, a material order and a price, so your estimator answers serious leads and your crew
-              cuts once.
+              close the circle, a material order and a price, so your estimator answers serious leads and your crew cuts
+              once.
             </p>
             <div className="mt-8 flex flex-wrap gap-3">
               <Link to="/c/cinder-slate" className="btn-primary px-5 py-3 text-base">
@@ -66,8 +67,8 @@ export default function HomeRoute() {
           <h2 className="text-2xl font-extrabold">Built on the trade's geometry</h2>
           <p className="mt-3 max-w-3xl text-char-600">
             Straight units around a centre make a polygon, not a circle. Emberwright measures every diameter to the
-            middle of a unit's straight face, not its corners, tells you whether the face joints or the back joints close first, and cuts each
-            cap as an identical wedge so the joints stay even all the way round.
+            middle of a unit's straight face, not its corners, tells you whether the face joints or the back joints
+            close first, and cuts each cap as an identical wedge so the joints stay even all the way round.
           </p>
         </section>
       </main>

@@ -66,7 +66,7 @@ export default function LoginRoute({ actionData }: Route.ComponentProps) {
           <h1 className="text-3xl font-extrabold">Sign in</h1>
           <p className="mt-2 text-char-600">For contractor staff and homeowners with an Emberwright account.</p>
         </div>
-        <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
+        <Form method="post" className="flex flex-col gap-5 card p-6" noValidate>
           {actionData?.message ? <FormAlert>{actionData.message}</FormAlert> : null}
           {params.get("signedOut") ? (
             <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
@@ -74,7 +74,14 @@ export default function LoginRoute({ actionData }: Route.ComponentProps) {
             </p>
           ) : null}
           <input type="hidden" name="redirectTo" value={params.get("redirectTo") ?? ""} />
-          <TextField label="E-mail" name="email" type="email" autoComplete="username" required defaultValue={actionData?.email ?? ""} />
+          <TextField
+            label="E-mail"
+            name="email"
+            type="email"
+            autoComplete="username"
+            required
+            defaultValue={actionData?.email ?? ""}
+          />
           <TextField label="Password" name="password" type="password" autoComplete="current-password" required />
           <button type="submit" className="btn-primary py-2.5 text-base" disabled={isSubmitting}>
             {isSubmitting ? "Signing in…" : "Sign in"}

@@ -26,21 +26,35 @@ async function loadOwnBooking(request: Request, params: { bookingId: string }) {
   return { user, ...found };
 }
 
-export function shouldRevalidate({ currentUrl, nextUrl, formMethod, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
+export function shouldRevalidate({
+  currentUrl,
+  nextUrl,
+  formMethod,
+  defaultShouldRevalidate,
+}: ShouldRevalidateFunctionArgs) {
   return onlyDayChanged({ currentUrl, nextUrl, formMethod }) ? false : defaultShouldRevalidate;
 }
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { booking, company, lead } = await loadOwnBooking(request, params);
   const isBooked = booking.status === "confirmed";
-  const canMove = isBooked && new Date(booking.startsAt).getTime() - Date.now() >= HOMEOWNER_CHANGE_CUTOFF_HOURS * 3_600_000;
+  const canMove =
+    isBooked && new Date(booking.startsAt).getTime() - Date.now() >= HOMEOWNER_CHANGE_CUTOFF_HOURS * 3_600_000;
   const slots = canMove ? await listCompanySlots(company) : [];
   return {
-    company: { name: company.name, timeZone: company.timeZone, phone: company.phone, visitMinutes: company.consultSlotMinutes },
+    company: {
+      name: company.name,
+      timeZone: company.timeZone,
+      phone: company.phone,
+      visitMinutes: company.consultSlotMinutes,
+    },
     booking: { startsAt: booking.startsAt, fee: formatMoney(booking.amountCents), isBooked, canMove },
     address: `${lead.street}, ${lead.town}`,
     design: designLine(lead),
-    days: groupSlotsByDay(slots, company.timeZone).map(({ day, slots: list }) => ({ day, slots: list.map((s) => ({ startsAt: s.startsAt })) })),
+    days: groupSlotsByDay(slots, company.timeZone).map(({ day, slots: list }) => ({
+      day,
+      slots: list.map((s) => ({ startsAt: s.startsAt })),
+    })),
   };
 }
 
@@ -50,7 +64,13 @@ export async function action({ request, params }: Route.ActionArgs) {
   const { user, booking } = await loadOwnBooking(request, params);
   const parsed = moveSchema.safeParse(Object.fromEntries(await request.formData()));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
-  const moved = await rescheduleBooking({ bookingId: booking.id, companyId: booking.companyId, startsAt: parsed.data.startsAt, by: "homeowner", actorUserId: user.id });
+  const moved = await rescheduleBooking({
+    bookingId: booking.id,
+    companyId: booking.companyId,
+    startsAt: parsed.data.startsAt,
+    by: "homeowner",
+    actorUserId: user.id,
+  });
   if (!moved.ok) return data({ error: moved.message }, { status: moved.status });
   return redirect(`/my?moved=${booking.id}`, 303);
 }
@@ -63,7 +83,9 @@ export default function MoveConsultRoute({ loaderData, actionData }: Route.Compo
     <PublicShell
       right={
         <Form method="post" action="/logout">
-          <button type="submit" className="btn-quiet">Sign out</button>
+          <button type="submit" className="btn-quiet">
+            Sign out
+          </button>
         </Form>
       }
     >
@@ -94,15 +116,26 @@ export default function MoveConsultRoute({ loaderData, actionData }: Route.Compo
           ) : days.length === 0 ? (
             <p className="card p-6">No other times are free in the coming weeks. Call {company.name} to find one.</p>
           ) : (
-            <Form method="post" className="card flex min-w-0 flex-col gap-5 p-4 sm:p-6" aria-label="Choose the new time">
-              <p className="text-sm text-char-600">Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).</p>
+            <Form
+              method="post"
+              className="flex min-w-0 flex-col gap-5 card p-4 sm:p-6"
+              aria-label="Choose the new time"
+            >
+              <p className="text-sm text-char-600">
+                Times are in {possessive(company.name)} time zone ({company.timeZone.replace(/_/g, " ")}).
+              </p>
               <ConsultTimePicker
                 days={days}
                 timeZone={company.timeZone}
                 visitMinutes={company.visitMinutes}
                 isBusy={isBusy}
                 submitLabel={() => "Move my consult to this time"}
-                footnote={<p className="text-xs text-char-600">You and {company.name} each get an e-mail with the new time; the calendar file replaces the old event.</p>}
+                footnote={
+                  <p className="text-xs text-char-600">
+                    You and {company.name} each get an e-mail with the new time; the calendar file replaces the old
+                    event.
+                  </p>
+                }
               />
             </Form>
           )}

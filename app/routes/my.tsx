@@ -21,23 +21,38 @@ import { summaryInUnit } from "~/lib/format/length-text";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
-const HOMEOWNER_PROPOSAL_STATE = { sent: "ready to read and sign", accepted: "signed, deposit to pay", signed: "signed", withdrawn: "withdrawn", expired: "expired" } as const;
+const HOMEOWNER_PROPOSAL_STATE = {
+  sent: "ready to read and sign",
+  accepted: "signed, deposit to pay",
+  signed: "signed",
+  withdrawn: "withdrawn",
+  expired: "expired",
+} as const;
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
   const rows = await listHomeownerLeads(user.id);
   // Only rows of this homeowner's own requests (the leads come from their account).
-  const { photos, liveBookings, companies: companyRows, proposals: proposalRows, sentRevisions } = await loadHomeownerRequestDetails(rows);
+  const {
+    photos,
+    liveBookings,
+    companies: companyRows,
+    proposals: proposalRows,
+    sentRevisions,
+  } = await loadHomeownerRequestDetails(rows);
   const now = Date.now();
   const movedId = Number(new URL(request.url).searchParams.get("moved"));
   const moved = liveBookings.find((b) => b.id === movedId && b.status === "confirmed");
   return {
     name: user.name,
-    moved: moved ? { startsAt: moved.startsAt, timeZone: companyRows.find((c) => c.id === moved.companyId)!.timeZone } : null,
+    moved: moved
+      ? { startsAt: moved.startsAt, timeZone: companyRows.find((c) => c.id === moved.companyId)!.timeZone }
+      : null,
     requests: rows.map((lead) => {
       const original = readStoredPlan(lead);
       const company = companyRows.find((c) => c.id === lead.companyId)!;
-      const range = (low: number | null, high: number | null) => (low !== null && high !== null ? `${formatMoneyWhole(low)} – ${formatMoneyWhole(high)}` : null);
+      const range = (low: number | null, high: number | null) =>
+        low !== null && high !== null ? `${formatMoneyWhole(low)} – ${formatMoneyWhole(high)}` : null;
       const booking = liveBookings.find((b) => b.leadId === lead.id && b.status === "confirmed");
       return {
         id: lead.id,
@@ -48,8 +63,22 @@ export async function loader({ request }: Route.LoaderArgs) {
         designs: [
           ...sentRevisions
             .filter((r) => r.leadId === lead.id)
-            .map((r, i) => drawing(`revision-${r.id}`, i === 0 ? `Revised design from ${company.name}` : `Earlier revision from ${company.name}`, `sent ${dateOf(r.sentAt!)}`, readStoredPlan(r), range(r.priceLowCents, r.priceHighCents))),
-          drawing(`request-${lead.id}`, "Your design as you sent it", `sent ${dateOf(lead.createdAt)}`, original, range(lead.priceLowCents, lead.priceHighCents)),
+            .map((r, i) =>
+              drawing(
+                `revision-${r.id}`,
+                i === 0 ? `Revised design from ${company.name}` : `Earlier revision from ${company.name}`,
+                `sent ${dateOf(r.sentAt!)}`,
+                readStoredPlan(r),
+                range(r.priceLowCents, r.priceHighCents),
+              ),
+            ),
+          drawing(
+            `request-${lead.id}`,
+            "Your design as you sent it",
+            `sent ${dateOf(lead.createdAt)}`,
+            original,
+            range(lead.priceLowCents, lead.priceHighCents),
+          ),
         ],
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
@@ -57,7 +86,12 @@ export async function loader({ request }: Route.LoaderArgs) {
         photos: photos.filter((p) => p.leadId === lead.id),
         proposals: proposalRows
           .filter((p) => p.leadId === lead.id && p.status !== "withdrawn")
-          .map((p) => ({ href: `/p/${p.token}`, number: parseProposalDocument(p.documentJson).number, state: HOMEOWNER_PROPOSAL_STATE[p.status], isChange: p.kind === "change-order" })),
+          .map((p) => ({
+            href: `/p/${p.token}`,
+            number: parseProposalDocument(p.documentJson).number,
+            state: HOMEOWNER_PROPOSAL_STATE[p.status],
+            isChange: p.kind === "change-order",
+          })),
         consult: booking
           ? {
               bookingId: booking.id,
@@ -101,7 +135,12 @@ export async function action({ request }: Route.ActionArgs) {
   // Only a booking on one of this homeowner's own requests; anything else is "not found".
   const booking = await findHomeownerBooking(user.id, parsed.data.bookingId);
   if (!booking) return data({ error: "That consult was not found." }, { status: 404 });
-  const cancelled = await cancelBooking({ bookingId: booking.id, companyId: booking.companyId, by: "homeowner", actorUserId: user.id });
+  const cancelled = await cancelBooking({
+    bookingId: booking.id,
+    companyId: booking.companyId,
+    by: "homeowner",
+    actorUserId: user.id,
+  });
   if (!cancelled.ok) return data({ error: cancelled.message }, { status: cancelRefusalStatus(cancelled) });
   return data({ error: null, cancelled: true });
 }
@@ -111,7 +150,9 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
     <PublicShell
       right={
         <Form method="post" action="/logout">
-          <button type="submit" className="btn-quiet">Sign out</button>
+          <button type="submit" className="btn-quiet">
+            Sign out
+          </button>
         </Form>
       }
     >
@@ -128,13 +169,14 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
         ) : null}
         {loaderData.moved ? (
           <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
-            Your consult is moved to <LocalTime iso={loaderData.moved.startsAt} companyTimeZone={loaderData.moved.timeZone} />. The fee you paid
+            Your consult is moved to{" "}
+            <LocalTime iso={loaderData.moved.startsAt} companyTimeZone={loaderData.moved.timeZone} />. The fee you paid
             carries over; an e-mail with the new calendar file is on its way.
           </p>
         ) : null}
         {loaderData.requests.length === 0 ? <p className="card p-6">You have not sent a request yet.</p> : null}
         {loaderData.requests.map((req) => (
-          <article key={req.id} className="card flex flex-col gap-4 p-6" aria-labelledby={`req-${req.id}`}>
+          <article key={req.id} className="flex flex-col gap-4 card p-6" aria-labelledby={`req-${req.id}`}>
             <div className="flex flex-wrap items-baseline justify-between gap-2">
               <h2 id={`req-${req.id}`} className="text-xl font-extrabold">
                 Request sent {req.sentOn} <span className="font-semibold text-char-600">to {req.companyName}</span>
@@ -144,7 +186,10 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
             {req.companyPhone ? (
               <p className="-mt-2 text-sm text-char-700">
                 Questions about it? Call {req.companyName} at{" "}
-                <a href={phoneHref(req.companyPhone)} className="font-bold whitespace-nowrap text-ember-700 underline underline-offset-2">
+                <a
+                  href={phoneHref(req.companyPhone)}
+                  className="font-bold whitespace-nowrap text-ember-700 underline underline-offset-2"
+                >
                   {formatPhone(req.companyPhone)}
                 </a>{" "}
                 or reply to any of their e-mails.
@@ -152,18 +197,29 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
             ) : null}
             <section aria-label={`Designs for the request sent ${req.sentOn}`} className="grid gap-4 md:grid-cols-2">
               {req.designs.map((d, i) => (
-                <figure key={d.key} id={d.key} className={`flex min-w-0 flex-col overflow-hidden rounded-xl border ${i === 0 && req.designs.length > 1 ? "border-ember-300" : "border-ash-200"}`}>
+                <figure
+                  key={d.key}
+                  id={d.key}
+                  className={`flex min-w-0 flex-col overflow-hidden rounded-xl border ${i === 0 && req.designs.length > 1 ? "border-ember-300" : "border-ash-200"}`}
+                >
                   <figcaption className="border-b border-ash-200 bg-ash-50 px-4 py-3">
                     <h3 className="font-extrabold">{d.title}</h3>
                     <p className="text-sm text-char-600">
                       {d.when}
-                      {d.price ? <> · estimated <strong className="text-char-900">{d.price}</strong></> : null}
+                      {d.price ? (
+                        <>
+                          {" "}
+                          · estimated <strong className="text-char-900">{d.price}</strong>
+                        </>
+                      ) : null}
                     </p>
                   </figcaption>
                   <div className="aspect-square max-h-80 w-full self-center bg-white p-2">
                     <PitPlanSvg input={d.sceneInput} unit={d.unit} className="h-full w-full" />
                   </div>
-                  <p className="border-t border-ash-200 px-4 py-2 text-xs text-char-600">Plan, to scale. {d.caption}.</p>
+                  <p className="border-t border-ash-200 px-4 py-2 text-xs text-char-600">
+                    Plan, to scale. {d.caption}.
+                  </p>
                   <details className="border-t border-ash-200 px-4 py-3 text-sm">
                     <summary className="cursor-pointer font-bold text-char-700">Every choice in this design</summary>
                     <dl className="mt-2 grid gap-y-1">
@@ -181,19 +237,22 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
             {req.consult ? (
               <div className="flex flex-wrap items-center justify-between gap-3 rounded-lg bg-moss-100 px-4 py-3 text-sm">
                 <span>
-                  <strong>Design consult:</strong> <LocalTime iso={req.consult.startsAt} companyTimeZone={req.companyTimeZone} />
+                  <strong>Design consult:</strong>{" "}
+                  <LocalTime iso={req.consult.startsAt} companyTimeZone={req.companyTimeZone} />
                 </span>
                 {req.consult.canCancel ? (
                   <div className="flex flex-wrap items-center gap-2">
-                  <Link to={req.consult.movePath} className="btn-quiet">Move to another time</Link>
-                  <ConfirmAction
-                    label="Cancel the consult"
-                    question={`Cancel your design consult with ${req.companyName}? The fee of ${req.consult.fee} goes back to the card that paid it.`}
-                    confirmLabel="Yes, cancel it"
-                    keepLabel="Keep my consult"
-                  >
-                    <input type="hidden" name="bookingId" value={req.consult.bookingId} />
-                  </ConfirmAction>
+                    <Link to={req.consult.movePath} className="btn-quiet">
+                      Move to another time
+                    </Link>
+                    <ConfirmAction
+                      label="Cancel the consult"
+                      question={`Cancel your design consult with ${req.companyName}? The fee of ${req.consult.fee} goes back to the card that paid it.`}
+                      confirmLabel="Yes, cancel it"
+                      keepLabel="Keep my consult"
+                    >
+                      <input type="hidden" name="bookingId" value={req.consult.bookingId} />
+                    </ConfirmAction>
                   </div>
                 ) : (
                   <span className="text-char-600">
@@ -203,13 +262,18 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                 )}
               </div>
             ) : req.isOpen ? (
-              <Link to={req.consultPath} className="btn-quiet self-start">Book a design consult</Link>
+              <Link to={req.consultPath} className="btn-quiet self-start">
+                Book a design consult
+              </Link>
             ) : null}
             {req.proposals.length ? (
               <ul className="flex flex-col gap-1 text-sm" aria-label="Proposals">
                 {req.proposals.map((p) => (
                   <li key={p.href}>
-                    <Link to={p.href} className="font-bold text-ember-700 underline">{p.number}</Link>: {p.state}
+                    <Link to={p.href} className="font-bold text-ember-700 underline">
+                      {p.number}
+                    </Link>
+                    : {p.state}
                   </li>
                 ))}
               </ul>
@@ -218,7 +282,12 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
               <ul className="flex flex-wrap gap-3" aria-label="Your yard photos">
                 {req.photos.map((photo) => (
                   <li key={photo.id}>
-                    <img src={`/photos/${photo.id}`} alt={photo.originalName} className="h-24 w-32 rounded-lg object-cover" loading="lazy" />
+                    <img
+                      src={`/photos/${photo.id}`}
+                      alt={photo.originalName}
+                      className="h-24 w-32 rounded-lg object-cover"
+                      loading="lazy"
+                    />
                   </li>
                 ))}
               </ul>

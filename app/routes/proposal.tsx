@@ -26,7 +26,13 @@ import { getSessionUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 
-export const meta: Route.MetaFunction = ({ loaderData }) => [{ title: loaderData ? `${loaderData.document.number}: ${loaderData.document.title} · ${loaderData.document.letterhead.name}` : "Proposal · Emberwright" }];
+export const meta: Route.MetaFunction = ({ loaderData }) => [
+  {
+    title: loaderData
+      ? `${loaderData.document.number}: ${loaderData.document.title} · ${loaderData.document.letterhead.name}`
+      : "Proposal · Emberwright",
+  },
+];
 
 async function load(token: string) {
   const found = await findProposalByToken(token);
@@ -61,7 +67,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     base: basePriceCents(document.fixedPriceCents, document.allowances),
     chosen,
     signed: proposal.signedAt
-      ? { name: proposal.signerName, when: formatZonedDateTime(proposal.signedAt, company.timeZone), total: proposal.totalCents, deposit: proposal.depositCents, sha256: proposal.acceptedPdfSha256 }
+      ? {
+          name: proposal.signerName,
+          when: formatZonedDateTime(proposal.signedAt, company.timeZone),
+          total: proposal.totalCents,
+          deposit: proposal.depositCents,
+          sha256: proposal.acceptedPdfSha256,
+        }
       : null,
     totals,
     withdrawReason: proposal.withdrawReason,
@@ -91,7 +103,15 @@ const signLimiter = createLimiter("proposal-sign:address", env.PUBLIC_FORM_LIMIT
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const limit = await spendLimit(signLimiter, clientAddress(request, context));
-  if (!limit.ok) return data({ errors: { form: "Too many tries from this address. Please wait a few minutes." }, fields: {} as Record<string, string>, chosen: [] as string[] }, { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } });
+  if (!limit.ok)
+    return data(
+      {
+        errors: { form: "Too many tries from this address. Please wait a few minutes." },
+        fields: {} as Record<string, string>,
+        chosen: [] as string[],
+      },
+      { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
+    );
   const found = await load(params.token);
   const form = await request.formData();
   const fields = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
@@ -112,22 +132,40 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     proposal: found.proposal,
     lead: found.lead,
     document: found.document,
-    input: { name: parsed.data.signerName, chosenKeys: chosen, ip: signerAddress(request, context), userAgent: (request.headers.get("User-Agent") ?? "unknown").slice(0, 300) },
+    input: {
+      name: parsed.data.signerName,
+      chosenKeys: chosen,
+      ip: signerAddress(request, context),
+      userAgent: (request.headers.get("User-Agent") ?? "unknown").slice(0, 300),
+    },
   });
   if (!accepted.ok) return data({ errors: { form: accepted.message }, fields, chosen }, { status: accepted.status });
   if (accepted.proposal.status === "signed") return redirect(`/p/${params.token}`);
   return payDeposit({ ...found, proposal: accepted.proposal }, company, origin, fields, chosen);
 }
 
-async function payDeposit(found: Awaited<ReturnType<typeof load>>, company: Awaited<ReturnType<typeof getCompany>>, origin: string, fields: Record<string, string>, chosen: string[]) {
+async function payDeposit(
+  found: Awaited<ReturnType<typeof load>>,
+  company: Awaited<ReturnType<typeof getCompany>>,
+  origin: string,
+  fields: Record<string, string>,
+  chosen: string[],
+) {
   try {
     const url = await startDepositCheckout({ proposal: found.proposal, lead: found.lead, company, origin });
     return redirect(url, 303);
   } catch (error) {
-    if (error instanceof DepositCheckoutError) return data({ errors: { form: error.message }, fields, chosen }, { status: 409 });
+    if (error instanceof DepositCheckoutError)
+      return data({ errors: { form: error.message }, fields, chosen }, { status: 409 });
     console.error("deposit checkout could not start", (error as Error).message);
     return data(
-      { errors: { form: "Your signature is saved, but the payment service is not answering right now. Nothing was charged: try “Pay the deposit” again in a moment." }, fields, chosen },
+      {
+        errors: {
+          form: "Your signature is saved, but the payment service is not answering right now. Nothing was charged: try “Pay the deposit” again in a moment.",
+        },
+        fields,
+        chosen,
+      },
       { status: 503 },
     );
   }
@@ -164,48 +202,71 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
           <p className="text-sm font-extrabold tracking-widest text-ember-700 uppercase">{document.number}</p>
           <h1 className="text-3xl font-extrabold">{document.title}</h1>
           <p className="text-char-700">
-            For {document.customer.name}, {document.customer.street}, {document.customer.town}. From {document.letterhead.name}
+            For {document.customer.name}, {document.customer.street}, {document.customer.town}. From{" "}
+            {document.letterhead.name}
             {document.letterhead.phone ? ` (${document.letterhead.phone})` : ""}
-            {document.letterhead.licence ? `, licence ${document.letterhead.licence}` : ""}. Prepared {document.preparedOn}; open to sign until {document.validUntil}.
+            {document.letterhead.licence ? `, licence ${document.letterhead.licence}` : ""}. Prepared{" "}
+            {document.preparedOn}; open to sign until {document.validUntil}.
           </p>
-          {loaderData.isStaffPreview ? <p className="text-sm font-bold text-char-600">You are viewing this as staff: your visit is not counted as opened.</p> : null}
+          {loaderData.isStaffPreview ? (
+            <p className="text-sm font-bold text-char-600">
+              You are viewing this as staff: your visit is not counted as opened.
+            </p>
+          ) : null}
         </header>
 
         {state === "expired" ? (
           <StateNotice title={`This ${what} has expired`}>
-            It was open to sign until {document.validUntil} and can no longer be signed. Ask {document.letterhead.name} for a new one
+            It was open to sign until {document.validUntil} and can no longer be signed. Ask {document.letterhead.name}{" "}
+            for a new one
             {document.letterhead.phone ? ` at ${document.letterhead.phone}` : ""}.
           </StateNotice>
         ) : null}
         {state === "withdrawn" ? (
           <StateNotice title={`This ${what} was withdrawn`}>
-            {document.letterhead.name} withdrew it{loaderData.withdrawReason ? `: ${loaderData.withdrawReason}` : "."} It can no longer be signed.
+            {document.letterhead.name} withdrew it{loaderData.withdrawReason ? `: ${loaderData.withdrawReason}` : "."}{" "}
+            It can no longer be signed.
           </StateNotice>
         ) : null}
         {state === "accepted" && signed ? (
           <section aria-labelledby="deposit-title" className="card border-l-4 border-l-ember-500 p-5">
-            <h2 id="deposit-title" className="text-xl font-extrabold">Signed: one step left, the deposit</h2>
+            <h2 id="deposit-title" className="text-xl font-extrabold">
+              Signed: one step left, the deposit
+            </h2>
             <p className="mt-1">
-              {signed.name} signed on {signed.when}. The job is booked once the deposit of {formatMoney(signed.deposit ?? 0)} is paid
+              {signed.name} signed on {signed.when}. The job is booked once the deposit of{" "}
+              {formatMoney(signed.deposit ?? 0)} is paid
               {loaderData.didLeave ? ". You left the payment page, so nothing was charged." : "."}
             </p>
-            {errors.form ? <div className="mt-3"><FormAlert>{errors.form}</FormAlert></div> : null}
+            {errors.form ? (
+              <div className="mt-3">
+                <FormAlert>{errors.form}</FormAlert>
+              </div>
+            ) : null}
             <Form method="post" className="mt-3">
               <input type="hidden" name="intent" value="pay" />
-              <button type="submit" className="btn-primary" disabled={isBusy}>Pay the deposit of {formatMoney(signed.deposit ?? 0)}</button>
+              <button type="submit" className="btn-primary" disabled={isBusy}>
+                Pay the deposit of {formatMoney(signed.deposit ?? 0)}
+              </button>
             </Form>
           </section>
         ) : null}
         {state === "signed" && signed ? (
           <section aria-labelledby="signed-title" className="card border-l-4 border-l-moss-600 p-5">
-            <h2 id="signed-title" className="text-xl font-extrabold">{isChange ? "Change order signed" : "Signed and deposit paid"}</h2>
+            <h2 id="signed-title" className="text-xl font-extrabold">
+              {isChange ? "Change order signed" : "Signed and deposit paid"}
+            </h2>
             <p className="mt-1">
               {signed.name} signed on {signed.when}
               {isChange ? "." : `. Thank you, ${firstName}: the job is booked with ${document.letterhead.name}.`}
             </p>
             {totals ? (
               <p className="mt-1">
-                The job: {formatMoney(totals.contractCents)}; deposit paid {formatMoney(totals.depositCents)}; {totals.balanceCents >= 0 ? `balance on completion ${formatMoney(totals.balanceCents)}` : `credit due to you ${formatMoney(-totals.balanceCents)}`}.
+                The job: {formatMoney(totals.contractCents)}; deposit paid {formatMoney(totals.depositCents)};{" "}
+                {totals.balanceCents >= 0
+                  ? `balance on completion ${formatMoney(totals.balanceCents)}`
+                  : `credit due to you ${formatMoney(-totals.balanceCents)}`}
+                .
               </p>
             ) : null}
             <p className="mt-1 text-xs break-all text-char-600">SHA-256 of the PDF you accepted: {signed.sha256}</p>
@@ -214,17 +275,21 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
 
         {sceneInput ? (
           <section aria-labelledby="design-title" className="flex flex-col gap-3">
-            <h2 id="design-title" className="text-xl font-extrabold">The design</h2>
+            <h2 id="design-title" className="text-xl font-extrabold">
+              The design
+            </h2>
             <div className="grid gap-4 md:grid-cols-2">
               <PitPreview input={sceneInput} caption={caption} unit="in" formatLength={formatInches} />
-              <figure className="card overflow-hidden">
+              <figure className="overflow-hidden card">
                 <div className="aspect-square bg-white p-2 sm:aspect-[4/3]">
                   <PitPlanSvg input={sceneInput} unit="in" formatLength={formatInches} className="h-full w-full" />
                 </div>
-                <figcaption className="border-t border-ash-200 px-4 py-3 text-sm text-char-700">Plan, first course and caps (dashed), to scale.</figcaption>
+                <figcaption className="border-t border-ash-200 px-4 py-3 text-sm text-char-700">
+                  Plan, first course and caps (dashed), to scale.
+                </figcaption>
               </figure>
             </div>
-            <dl className="card grid gap-x-6 gap-y-1 p-4 text-sm sm:grid-cols-2">
+            <dl className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2">
               {document.design.map((line) => (
                 <div key={line.label} className="flex gap-2">
                   <dt className="font-bold text-char-700">{line.label}:</dt>
@@ -237,47 +302,90 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
 
         {document.change ? (
           <section aria-labelledby="change-title" className="card p-5">
-            <h2 id="change-title" className="text-xl font-extrabold">What changes</h2>
+            <h2 id="change-title" className="text-xl font-extrabold">
+              What changes
+            </h2>
             {document.change.added.length ? (
               <>
                 <h3 className="mt-2 font-extrabold">Added or changed</h3>
-                <ul className="list-disc pl-5">{document.change.added.map((l) => <li key={l}>{l}</li>)}</ul>
+                <ul className="list-disc pl-5">
+                  {document.change.added.map((l) => (
+                    <li key={l}>{l}</li>
+                  ))}
+                </ul>
               </>
             ) : null}
             {document.change.removed.length ? (
               <>
                 <h3 className="mt-2 font-extrabold">No longer part of the job</h3>
-                <ul className="list-disc pl-5">{document.change.removed.map((l) => <li key={l}>{l}</li>)}</ul>
+                <ul className="list-disc pl-5">
+                  {document.change.removed.map((l) => (
+                    <li key={l}>{l}</li>
+                  ))}
+                </ul>
               </>
             ) : null}
             <table className="mt-3 w-full text-sm">
               <tbody className="divide-y divide-ash-200">
-                <tr><td className="py-1">The job as signed so far</td><td className="py-1 text-right tabular-nums">{formatMoney(document.change.previousContractCents)}</td></tr>
-                <tr><td className="py-1">{document.change.deltaCents >= 0 ? "This change adds" : "This change credits"}</td><td className="py-1 text-right tabular-nums">{formatMoney(document.change.deltaCents)}</td></tr>
-                <tr className="font-extrabold"><td className="py-1">The job with this change</td><td className="py-1 text-right tabular-nums">{formatMoney(document.change.previousContractCents + document.change.deltaCents)}</td></tr>
+                <tr>
+                  <td className="py-1">The job as signed so far</td>
+                  <td className="py-1 text-right tabular-nums">{formatMoney(document.change.previousContractCents)}</td>
+                </tr>
+                <tr>
+                  <td className="py-1">
+                    {document.change.deltaCents >= 0 ? "This change adds" : "This change credits"}
+                  </td>
+                  <td className="py-1 text-right tabular-nums">{formatMoney(document.change.deltaCents)}</td>
+                </tr>
+                <tr className="font-extrabold">
+                  <td className="py-1">The job with this change</td>
+                  <td className="py-1 text-right tabular-nums">
+                    {formatMoney(document.change.previousContractCents + document.change.deltaCents)}
+                  </td>
+                </tr>
               </tbody>
             </table>
-            <p className="mt-2 text-sm text-char-600">The difference is added to (or credited against) the balance due on completion.</p>
+            <p className="mt-2 text-sm text-char-600">
+              The difference is added to (or credited against) the balance due on completion.
+            </p>
           </section>
         ) : (
           <>
             <section aria-labelledby="scope-title" className="card p-5">
-              <h2 id="scope-title" className="text-xl font-extrabold">Scope of work</h2>
-              <ul className="mt-2 list-disc pl-5">{document.scope.map((l) => <li key={l}>{l}</li>)}</ul>
+              <h2 id="scope-title" className="text-xl font-extrabold">
+                Scope of work
+              </h2>
+              <ul className="mt-2 list-disc pl-5">
+                {document.scope.map((l) => (
+                  <li key={l}>{l}</li>
+                ))}
+              </ul>
               {document.siteFacts.length ? (
                 <>
                   <h3 className="mt-4 font-extrabold">What we measured at the site visit</h3>
-                  <ul className="list-disc pl-5">{document.siteFacts.map((l) => <li key={l}>{l}</li>)}</ul>
+                  <ul className="list-disc pl-5">
+                    {document.siteFacts.map((l) => (
+                      <li key={l}>{l}</li>
+                    ))}
+                  </ul>
                 </>
               ) : null}
             </section>
             <section aria-labelledby="price-title" className="card p-5">
-              <h2 id="price-title" className="text-xl font-extrabold">Price</h2>
+              <h2 id="price-title" className="text-xl font-extrabold">
+                Price
+              </h2>
               <table className="mt-2 w-full text-sm">
                 <tbody className="divide-y divide-ash-200">
-                  <tr><td className="py-1.5">Fixed price for the work above</td><td className="py-1.5 text-right tabular-nums">{formatMoney(document.fixedPriceCents)}</td></tr>
+                  <tr>
+                    <td className="py-1.5">Fixed price for the work above</td>
+                    <td className="py-1.5 text-right tabular-nums">{formatMoney(document.fixedPriceCents)}</td>
+                  </tr>
                   {document.allowances.map((a) => (
-                    <tr key={a.key}><td className="py-1.5">{a.label}</td><td className="py-1.5 text-right tabular-nums">{formatMoney(a.cents)}</td></tr>
+                    <tr key={a.key}>
+                      <td className="py-1.5">{a.label}</td>
+                      <td className="py-1.5 text-right tabular-nums">{formatMoney(a.cents)}</td>
+                    </tr>
                   ))}
                 </tbody>
               </table>
@@ -294,7 +402,9 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
                             value={a.key}
                             form="sign-form"
                             checked={chosen.includes(a.key)}
-                            onChange={(e) => setChosen((now) => (e.target.checked ? [...now, a.key] : now.filter((k) => k !== a.key)))}
+                            onChange={(e) =>
+                              setChosen((now) => (e.target.checked ? [...now, a.key] : now.filter((k) => k !== a.key)))
+                            }
                             className="size-4 accent-ember-600"
                           />
                           <span className="flex-1">{a.label}</span>
@@ -305,33 +415,62 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
                   </ul>
                 </fieldset>
               ) : null}
-              <p className="mt-3 flex justify-between border-t-2 border-char-800 pt-2 text-lg font-extrabold" aria-live="polite">
+              <p
+                className="mt-3 flex justify-between border-t-2 border-char-800 pt-2 text-lg font-extrabold"
+                aria-live="polite"
+              >
                 <span>Total</span>
-                <span className="tabular-nums" data-testid="proposal-total">{formatMoney(signed?.total ?? total)}</span>
+                <span className="tabular-nums" data-testid="proposal-total">
+                  {formatMoney(signed?.total ?? total)}
+                </span>
               </p>
               <h3 className="mt-4 font-extrabold">Payment schedule</h3>
               <ul className="text-sm">
-                <li>Deposit on signing ({describeDeposit(document.deposit)}): <strong className="tabular-nums">{formatMoney(signed?.deposit ?? deposit)}</strong></li>
-                <li>Balance on completion: <strong className="tabular-nums">{formatMoney((signed?.total ?? total) - (signed?.deposit ?? deposit))}</strong></li>
+                <li>
+                  Deposit on signing ({describeDeposit(document.deposit)}):{" "}
+                  <strong className="tabular-nums">{formatMoney(signed?.deposit ?? deposit)}</strong>
+                </li>
+                <li>
+                  Balance on completion:{" "}
+                  <strong className="tabular-nums">
+                    {formatMoney((signed?.total ?? total) - (signed?.deposit ?? deposit))}
+                  </strong>
+                </li>
               </ul>
             </section>
-            <section aria-labelledby="terms-title" className="card grid gap-4 p-5 sm:grid-cols-2">
-              <h2 id="terms-title" className="text-xl font-extrabold sm:col-span-2">Terms</h2>
+            <section aria-labelledby="terms-title" className="grid gap-4 card p-5 sm:grid-cols-2">
+              <h2 id="terms-title" className="text-xl font-extrabold sm:col-span-2">
+                Terms
+              </h2>
               <div>
                 <h3 className="font-extrabold">Included</h3>
-                <ul className="list-disc pl-5 text-sm">{document.included.map((l) => <li key={l}>{l}</li>)}</ul>
+                <ul className="list-disc pl-5 text-sm">
+                  {document.included.map((l) => (
+                    <li key={l}>{l}</li>
+                  ))}
+                </ul>
               </div>
               <div>
                 <h3 className="font-extrabold">Not included</h3>
-                <ul className="list-disc pl-5 text-sm">{document.excluded.map((l) => <li key={l}>{l}</li>)}</ul>
+                <ul className="list-disc pl-5 text-sm">
+                  {document.excluded.map((l) => (
+                    <li key={l}>{l}</li>
+                  ))}
+                </ul>
               </div>
             </section>
           </>
         )}
 
         <section aria-labelledby="cautions-title" className="card p-5">
-          <h2 id="cautions-title" className="text-xl font-extrabold">Codes and cautions</h2>
-          <ul className="mt-2 list-disc pl-5 text-sm">{document.cautions.map((l) => <li key={l}>{l}</li>)}</ul>
+          <h2 id="cautions-title" className="text-xl font-extrabold">
+            Codes and cautions
+          </h2>
+          <ul className="mt-2 list-disc pl-5 text-sm">
+            {document.cautions.map((l) => (
+              <li key={l}>{l}</li>
+            ))}
+          </ul>
         </section>
 
         <p>
@@ -342,12 +481,20 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
 
         {state === "open" ? (
           <section aria-labelledby="sign-title" className="card border-l-4 border-l-ember-500 p-5">
-            <h2 id="sign-title" className="text-xl font-extrabold">Sign {isChange ? "the change order" : "the proposal"}</h2>
-            {errors.form ? <div className="mt-2"><FormAlert>{errors.form}</FormAlert></div> : null}
+            <h2 id="sign-title" className="text-xl font-extrabold">
+              Sign {isChange ? "the change order" : "the proposal"}
+            </h2>
+            {errors.form ? (
+              <div className="mt-2">
+                <FormAlert>{errors.form}</FormAlert>
+              </div>
+            ) : null}
             <Form id="sign-form" method="post" className="mt-3 flex flex-col gap-3" noValidate>
               <input type="hidden" name="intent" value="sign" />
               <div>
-                <label htmlFor="signer-name" className="field-label">Your full name, as your signature</label>
+                <label htmlFor="signer-name" className="field-label">
+                  Your full name, as your signature
+                </label>
                 <input
                   id="signer-name"
                   name="signerName"
@@ -357,22 +504,40 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
                   aria-describedby={errors.signerName ? "signer-name-error" : undefined}
                   className="field-input max-w-md"
                 />
-                {errors.signerName ? <p id="signer-name-error" className="field-error">{errors.signerName}</p> : null}
+                {errors.signerName ? (
+                  <p id="signer-name-error" className="field-error">
+                    {errors.signerName}
+                  </p>
+                ) : null}
               </div>
               <div>
                 <label className="flex items-start gap-2 text-sm">
-                  <input type="checkbox" name="consent" defaultChecked={actionData?.fields.consent === "on"} aria-invalid={errors.consent ? true : undefined} aria-describedby={errors.consent ? "consent-error" : undefined} className="mt-1 size-4 accent-ember-600" />
+                  <input
+                    type="checkbox"
+                    name="consent"
+                    defaultChecked={actionData?.fields.consent === "on"}
+                    aria-invalid={errors.consent ? true : undefined}
+                    aria-describedby={errors.consent ? "consent-error" : undefined}
+                    className="mt-1 size-4 accent-ember-600"
+                  />
                   <span>
-                    I agree to sign this {what} electronically, and that my typed name is my signature. I can download a copy to keep (the PDF above, and the signed
-                    copy by e-mail).
+                    I agree to sign this {what} electronically, and that my typed name is my signature. I can download a
+                    copy to keep (the PDF above, and the signed copy by e-mail).
                   </span>
                 </label>
-                {errors.consent ? <p id="consent-error" className="field-error">{errors.consent}</p> : null}
+                {errors.consent ? (
+                  <p id="consent-error" className="field-error">
+                    {errors.consent}
+                  </p>
+                ) : null}
               </div>
               <button type="submit" className="btn-primary self-start" disabled={isBusy}>
                 {isChange ? "Sign the change order" : `Sign and pay the deposit of ${formatMoney(deposit)}`}
               </button>
-              <p className="text-xs text-char-600">We record your name, the time, your address and browser, the add-ons you chose and a fingerprint (SHA-256) of the exact PDF you accept.</p>
+              <p className="text-xs text-char-600">
+                We record your name, the time, your address and browser, the add-ons you chose and a fingerprint
+                (SHA-256) of the exact PDF you accept.
+              </p>
             </Form>
           </section>
         ) : null}

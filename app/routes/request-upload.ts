@@ -9,11 +9,17 @@ import { receiveLeadRequest } from "~/lib/leads/lead-request.server";
  */
 
 export function loader() {
-  return Response.json({ errors: { form: "Send the request form from the contractor's page." } }, { status: 405, headers: { Allow: "POST" } });
+  return Response.json(
+    { errors: { form: "Send the request form from the contractor's page." } },
+    { status: 405, headers: { Allow: "POST" } },
+  );
 }
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const outcome = await receiveLeadRequest({ request, companySlug: params.companySlug, context });
   if (outcome.ok) return Response.json({ location: outcome.location });
-  return Response.json({ errors: outcome.errors, values: outcome.values }, { status: outcome.status, headers: outcome.headers });
+  return Response.json(
+    { errors: outcome.errors, values: outcome.values },
+    { status: outcome.status, headers: outcome.headers },
+  );
 }

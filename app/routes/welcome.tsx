@@ -38,7 +38,10 @@ const welcomeSchema = z.discriminatedUnion(
       .object({
         intent: z.literal("set"),
         token: tokenField,
-        password: z.string({ error: "Use at least 10 characters." }).min(10, "Use at least 10 characters.").max(200, "Use at most 200 characters."),
+        password: z
+          .string({ error: "Use at least 10 characters." })
+          .min(10, "Use at least 10 characters.")
+          .max(200, "Use at most 200 characters."),
         confirm: z.string({ error: "Type the password again." }),
       })
       .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords do not match." }),
@@ -46,7 +49,12 @@ const welcomeSchema = z.discriminatedUnion(
   { error: "Open the link from your e-mail again." },
 );
 
-type Person = { name: string; email: string; purpose: "set-password" | "invite" | "confirm-request"; hasPassword: boolean };
+type Person = {
+  name: string;
+  email: string;
+  purpose: "set-password" | "invite" | "confirm-request";
+  hasPassword: boolean;
+};
 type WelcomeAnswer = { errors?: Record<string, string>; person?: Person; confirmed?: { hasPassword: boolean } };
 
 // Links sent before tokens moved into the fragment: pass the token on as a fragment.
@@ -56,12 +64,15 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const fields = Object.fromEntries([...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const fields = Object.fromEntries(
+    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
+  );
   const parsed = welcomeSchema.safeParse(fields);
   if (!parsed.success) {
     const errors = fieldErrors(parsed.error);
     // Without a usable token there is nothing to fix on the page: say so once.
-    if (errors.token || errors.intent) return data<WelcomeAnswer>({ errors: { form: errors.token ?? errors.intent! } }, { status: 410 });
+    if (errors.token || errors.intent)
+      return data<WelcomeAnswer>({ errors: { form: errors.token ?? errors.intent! } }, { status: 410 });
     return data<WelcomeAnswer>({ errors }, { status: 400 });
   }
   const input = parsed.data;
@@ -70,7 +81,9 @@ export async function action({ request }: Route.ActionArgs) {
   if (input.intent === "check") {
     const found = await findLiveToken(input.token);
     if (!found) return dead();
-    return data<WelcomeAnswer>({ person: { name: found.name, email: found.email, purpose: found.purpose, hasPassword: found.hasPassword } });
+    return data<WelcomeAnswer>({
+      person: { name: found.name, email: found.email, purpose: found.purpose, hasPassword: found.hasPassword },
+    });
   }
   if (input.intent === "confirm") {
     const confirmed = await confirmRequestWithToken(input.token);
@@ -92,9 +105,12 @@ function DeadLink() {
     <div className="card p-6">
       <h1 className="text-2xl font-extrabold">This link no longer works</h1>
       <p className="mt-2 text-char-600">
-        It has been used already, a newer e-mail replaced it, or it is more than 7 days old. If you already set a password, sign in.
+        It has been used already, a newer e-mail replaced it, or it is more than 7 days old. If you already set a
+        password, sign in.
       </p>
-      <a href="/login" className="btn-primary mt-4">Sign in</a>
+      <a href="/login" className="mt-4 btn-primary">
+        Sign in
+      </a>
     </div>
   );
 }
@@ -105,7 +121,9 @@ export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
   const check = useFetcher<WelcomeAnswer>();
   const confirm = useFetcher<WelcomeAnswer>();
   const navigation = useNavigation();
-  const checkToken = useEffectEvent((value: string) => void check.submit({ intent: "check", token: value }, { method: "post" }));
+  const checkToken = useEffectEvent(
+    (value: string) => void check.submit({ intent: "check", token: value }, { method: "post" }),
+  );
   useEffect(() => {
     // Once, on arrival: the fragment is the link.
     if (token) checkToken(token);
@@ -129,8 +147,10 @@ export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
   } else if (person.purpose === "confirm-request") {
     const done = confirm.data?.confirmed;
     body = (
-      <div className="card flex flex-col gap-4 p-6">
-        <h1 className="text-2xl font-extrabold">{done ? "Added to your requests" : "Add this request to your account"}</h1>
+      <div className="flex flex-col gap-4 card p-6">
+        <h1 className="text-2xl font-extrabold">
+          {done ? "Added to your requests" : "Add this request to your account"}
+        </h1>
         {confirm.data?.errors?.form ? <FormAlert>{confirm.data.errors.form}</FormAlert> : null}
         {done ? (
           <>
@@ -139,12 +159,17 @@ export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
                 ? "Sign in with your e-mail address to follow it and book a design consult."
                 : "To follow it, set your password with the link in the newest e-mail we sent you."}
             </p>
-            {done.hasPassword ? <a href="/login?redirectTo=/my" className="btn-primary self-start">Sign in</a> : null}
+            {done.hasPassword ? (
+              <a href="/login?redirectTo=/my" className="btn-primary self-start">
+                Sign in
+              </a>
+            ) : null}
           </>
         ) : (
           <>
             <p className="text-char-600">
-              A fire-pit request was sent with {person.email}. If it was you, add it to the requests you follow; if not, close this page and nothing changes.
+              A fire-pit request was sent with {person.email}. If it was you, add it to the requests you follow; if not,
+              close this page and nothing changes.
             </p>
             <confirm.Form method="post">
               <input type="hidden" name="intent" value="confirm" />
@@ -166,12 +191,25 @@ export default function WelcomeRoute({ actionData }: Route.ComponentProps) {
             For {person.name} ({person.email}). You will sign in with this e-mail address.
           </p>
         </div>
-        <Form method="post" className="card flex flex-col gap-5 p-6" noValidate>
+        <Form method="post" className="flex flex-col gap-5 card p-6" noValidate>
           {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
           <input type="hidden" name="intent" value="set" />
           <input type="hidden" name="token" value={token ?? ""} />
-          <TextField label="New password" name="password" type="password" autoComplete="new-password" hint="At least 10 characters." error={errors.password} />
-          <TextField label="Type it again" name="confirm" type="password" autoComplete="new-password" error={errors.confirm} />
+          <TextField
+            label="New password"
+            name="password"
+            type="password"
+            autoComplete="new-password"
+            hint="At least 10 characters."
+            error={errors.password}
+          />
+          <TextField
+            label="Type it again"
+            name="confirm"
+            type="password"
+            autoComplete="new-password"
+            error={errors.confirm}
+          />
           <button type="submit" className="btn-primary py-2.5" disabled={navigation.state === "submitting"}>
             Save password and continue
           </button>

@@ -173,7 +173,9 @@ function InstancedPart({
   salt: number;
 }) {
   const outlineKey = JSON.stringify(outline);
-  const geometry = useDisposable(useMemo(() => extrudeOutline(JSON.parse(outlineKey) as PlanPolygon, heightIn), [outlineKey, heightIn]));
+  const geometry = useDisposable(
+    useMemo(() => extrudeOutline(JSON.parse(outlineKey) as PlanPolygon, heightIn), [outlineKey, heightIn]),
+  );
   const meshRef = useRef<InstancedMesh>(null);
   const invalidate = useThree((state) => state.invalidate);
   const count = placements.length;
@@ -233,17 +235,24 @@ function PitParts({ input }: { input: PitSceneInput }) {
   // The ground is unlit and the colour of the background, so it has no visible edge; it hides
   // whatever lies below grade (the border's bedding depth).
   const groundRadiusIn = m.extentRadiusIn * 12;
-  const ground = useDisposable(useMemo(() => new CircleGeometry(groundRadiusIn, 64).rotateX(-Math.PI / 2), [groundRadiusIn]));
+  const ground = useDisposable(
+    useMemo(() => new CircleGeometry(groundRadiusIn, 64).rotateX(-Math.PI / 2), [groundRadiusIn]),
+  );
   const padRadiusIn = m.basePadRadiusIn;
   const pad = useDisposable(useMemo(() => new CircleGeometry(padRadiusIn, 96).rotateX(-Math.PI / 2), [padRadiusIn]));
-  const gravel = useDisposable(useMemo(() => new CircleGeometry(m.gravelRadiusIn, 96).rotateX(-Math.PI / 2), [m.gravelRadiusIn]));
+  const gravel = useDisposable(
+    useMemo(() => new CircleGeometry(m.gravelRadiusIn, 96).rotateX(-Math.PI / 2), [m.gravelRadiusIn]),
+  );
   const gravelTexture = useDisposable(useMemo(() => paintGravelTexture(), []));
   gravelTexture.repeat.setScalar((2 * m.gravelRadiusIn) / GRAVEL_TILE_IN);
   // The field: the circle inside the border less the pit's footprint (the circle through the middles
   // of the wall's faces, which the wall covers entirely), one flat ring, not one mesh per paver.
   const field = useDisposable(
     useMemo(
-      () => new RingGeometry(Math.min(outsideEdgeIn, fieldRadiusIn), Math.max(fieldRadiusIn, 1), 160, 1).rotateX(-Math.PI / 2),
+      () =>
+        new RingGeometry(Math.min(outsideEdgeIn, fieldRadiusIn), Math.max(fieldRadiusIn, 1), 160, 1).rotateX(
+          -Math.PI / 2,
+        ),
       [outsideEdgeIn, fieldRadiusIn],
     ),
   );
@@ -264,7 +273,13 @@ function PitParts({ input }: { input: PitSceneInput }) {
   return (
     <group>
       <mesh geometry={ground}>
-        <meshBasicMaterial color={BACKGROUND} toneMapped={false} polygonOffset polygonOffsetFactor={2} polygonOffsetUnits={2} />
+        <meshBasicMaterial
+          color={BACKGROUND}
+          toneMapped={false}
+          polygonOffset
+          polygonOffsetFactor={2}
+          polygonOffsetUnits={2}
+        />
       </mesh>
       {!hasField && (
         <mesh geometry={pad} position={[0, FIELD_Y_IN, 0]}>
@@ -299,9 +314,21 @@ function PitParts({ input }: { input: PitSceneInput }) {
           )}
         </group>
       )}
-      <InstancedPart outline={wallOutline} heightIn={input.wallUnit.heightIn} placements={walls.whole} colourHex={wallColour} salt={1} />
+      <InstancedPart
+        outline={wallOutline}
+        heightIn={input.wallUnit.heightIn}
+        placements={walls.whole}
+        colourHex={wallColour}
+        salt={1}
+      />
       {closureOutline && (
-        <InstancedPart outline={closureOutline} heightIn={input.wallUnit.heightIn} placements={walls.closures} colourHex={wallColour} salt={2} />
+        <InstancedPart
+          outline={closureOutline}
+          heightIn={input.wallUnit.heightIn}
+          placements={walls.closures}
+          colourHex={wallColour}
+          salt={2}
+        />
       )}
       {capOutline && input.caps && (
         <InstancedPart
@@ -313,7 +340,13 @@ function PitParts({ input }: { input: PitSceneInput }) {
         />
       )}
       {brickOutline && input.liner.kind === "firebrick" && (
-        <InstancedPart outline={brickOutline} heightIn={input.liner.widthIn} placements={bricks} colourHex={FIREBRICK_COLOUR} salt={5} />
+        <InstancedPart
+          outline={brickOutline}
+          heightIn={input.liner.widthIn}
+          placements={bricks}
+          colourHex={FIREBRICK_COLOUR}
+          salt={5}
+        />
       )}
       {steel && (
         <mesh geometry={steelGeometry} position={[0, LAYER_Y_IN + steel.heightIn / 2, 0]}>

@@ -148,7 +148,10 @@ export function renderMessagePage(message: StoredMessage, apiUrl: string): strin
     definition("Scheduled for", message.scheduled_at ? [message.scheduled_at] : []),
     definition("Message id", [message.id]),
     definition("Idempotency key", message.idempotency_key ? [message.idempotency_key] : []),
-    definition("Tags", message.tags.map((tag) => `${tag.name}=${tag.value}`)),
+    definition(
+      "Tags",
+      message.tags.map((tag) => `${tag.name}=${tag.value}`),
+    ),
     ...Object.entries(message.headers).map(([name, value]) => definition(name, [value])),
   ].join("\n");
 
@@ -168,7 +171,9 @@ export function renderMessagePage(message: StoredMessage, apiUrl: string): strin
 ${message.attachments
   .map((attachment, index) => {
     const label = `${escapeHtml(attachment.filename)}</a> <span class="muted">${escapeHtml(attachment.contentType)}, ${formatBytes(attachment.size)}</span>`;
-    const remote = attachment.path ? ` <span class="muted">(remote path, not fetched: ${escapeHtml(attachment.path)})</span>` : "";
+    const remote = attachment.path
+      ? ` <span class="muted">(remote path, not fetched: ${escapeHtml(attachment.path)})</span>`
+      : "";
     return `<li><a href="/m/${encodeURIComponent(message.id)}/attachments/${index}" download>${label}${remote}</li>`;
   })
   .join("\n")}

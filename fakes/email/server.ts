@@ -88,9 +88,14 @@ async function readJson(req: IncomingMessage): Promise<unknown> {
     return parseJsonBody(await readBody(req, MAX_BODY_BYTES));
   } catch (error) {
     if (error instanceof BodyTooLargeError) {
-      throw apiError(413, "validation_error", "The request body is larger than 40 MB; send large files by `path` instead.");
+      throw apiError(
+        413,
+        "validation_error",
+        "The request body is larger than 40 MB; send large files by `path` instead.",
+      );
     }
-    if (error instanceof InvalidJsonError) throw apiError(400, "validation_error", "The request body is not valid JSON.");
+    if (error instanceof InvalidJsonError)
+      throw apiError(400, "validation_error", "The request body is not valid JSON.");
     throw error;
   }
 }
@@ -99,7 +104,11 @@ function requireApiKey(req: IncomingMessage, expectedKey: string | undefined): v
   const key = bearerKey(req);
   // "undefined" or "null" is a caller's stringified missing environment variable, not a key.
   if (!key || key === "undefined" || key === "null") {
-    throw apiError(401, "missing_api_key", "Missing API key in the authorization header: send `Authorization: Bearer re_...`.");
+    throw apiError(
+      401,
+      "missing_api_key",
+      "Missing API key in the authorization header: send `Authorization: Bearer re_...`.",
+    );
   }
   if (expectedKey !== undefined && key !== expectedKey) {
     throw apiError(403, "invalid_api_key", "API key is invalid.");
@@ -111,7 +120,11 @@ function readIdempotencyKey(req: IncomingMessage): string | null {
   if (raw === undefined) return null;
   const key = Array.isArray(raw) ? raw[0] : raw;
   if (key.length < 1 || key.length > MAX_IDEMPOTENCY_KEY_LENGTH) {
-    throw apiError(400, "invalid_idempotency_key", `The Idempotency-Key header must be 1–${MAX_IDEMPOTENCY_KEY_LENGTH} characters long.`);
+    throw apiError(
+      400,
+      "invalid_idempotency_key",
+      `The Idempotency-Key header must be 1–${MAX_IDEMPOTENCY_KEY_LENGTH} characters long.`,
+    );
   }
   return key;
 }
@@ -148,13 +161,25 @@ function toRetrievedEmail(message: StoredMessage): Record<string, unknown> {
 
 function parseFailMode(body: unknown, nowMs: number): FailMode {
   if (!isJsonObject(body)) {
-    throw apiError(400, "validation_error", 'Send a JSON object: { "count": N } or { "forMs": N }, optionally with "status".');
+    throw apiError(
+      400,
+      "validation_error",
+      'Send a JSON object: { "count": N } or { "forMs": N }, optionally with "status".',
+    );
   }
   const { count, forMs, status = 503 } = body;
   if ((count === undefined) === (forMs === undefined)) {
-    throw apiError(400, "validation_error", "Give exactly one of `count` (next N sends fail) or `forMs` (sends fail for N ms).");
+    throw apiError(
+      400,
+      "validation_error",
+      "Give exactly one of `count` (next N sends fail) or `forMs` (sends fail for N ms).",
+    );
   }
-  if (typeof status !== "number" || !Number.isInteger(status) || !(status === 429 || (status >= 500 && status <= 599))) {
+  if (
+    typeof status !== "number" ||
+    !Number.isInteger(status) ||
+    !(status === 429 || (status >= 500 && status <= 599))
+  ) {
     throw apiError(400, "validation_error", "`status` must be an integer from 500 to 599, or 429.");
   }
   if (count !== undefined) {
@@ -263,13 +288,26 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
     const mode = currentFailMode(nowMs);
     if (!mode || !takeFailure(mode, nowMs)) return;
     if (mode.status === 429) {
-      throw apiError(429, "rate_limit_exceeded", "Too many requests (simulated by the local e-mail fake); retry later.");
+      throw apiError(
+        429,
+        "rate_limit_exceeded",
+        "Too many requests (simulated by the local e-mail fake); retry later.",
+      );
     }
-    throw apiError(mode.status, "application_error", "The e-mail service is unavailable (simulated by the local e-mail fake); retry later.");
+    throw apiError(
+      mode.status,
+      "application_error",
+      "The e-mail service is unavailable (simulated by the local e-mail fake); retry later.",
+    );
   }
 
   /** A send: body, injected failure, key, idempotency replay, then the messages `make` builds, stored together. */
-  async function handleSend(req: IncomingMessage, res: ServerResponse, endpoint: SendEndpoint, make: MakeMessages): Promise<void> {
+  async function handleSend(
+    req: IncomingMessage,
+    res: ServerResponse,
+    endpoint: SendEndpoint,
+    make: MakeMessages,
+  ): Promise<void> {
     const body = await readJson(req);
     maybeFailSend();
     requireApiKey(req, options.apiKey);
@@ -279,17 +317,33 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
 
     if (idempotencyKey) {
       const previous = store.findIdempotency(idempotencyKey, nowMs);
-      const check = checkIdempotency(previous && { endpoint: previous.endpoint, fingerprint: previous.bodyHash }, { endpoint, fingerprint: bodyHash });
+      const check = checkIdempotency(previous && { endpoint: previous.endpoint, fingerprint: previous.bodyHash }, {
+        endpoint,
+        fingerprint: bodyHash,
+      });
       if (check === "conflict") {
-        throw apiError(409, "invalid_idempotent_request", "Same idempotency key used with a different request payload.");
+        throw apiError(
+          409,
+          "invalid_idempotent_request",
+          "Same idempotency key used with a different request payload.",
+        );
       }
       if (previous && check === "replay") return sendJson(res, 200, previous.response);
     }
 
     const createdAt = new Date(nowMs).toISOString();
-    const build = (email: ParsedEmail): StoredMessage => ({ id: randomUUID(), created_at: createdAt, ...email, idempotency_key: idempotencyKey, endpoint });
+    const build = (email: ParsedEmail): StoredMessage => ({
+      id: randomUUID(),
+      created_at: createdAt,
+      ...email,
+      idempotency_key: idempotencyKey,
+      endpoint,
+    });
     const { messages, response } = make(body, req, build);
-    store.add(messages, idempotencyKey ? { key: idempotencyKey, endpoint, bodyHash, createdAtMs: nowMs, response } : undefined);
+    store.add(
+      messages,
+      idempotencyKey ? { key: idempotencyKey, endpoint, bodyHash, createdAtMs: nowMs, response } : undefined,
+    );
     sendJson(res, 200, response);
   }
 
@@ -298,7 +352,9 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
     if (!message || !/^\d+$/.test(indexText) || !attachment) return false;
     const bytes = Buffer.from(attachment.contentBase64, "base64");
     const asciiName = attachment.filename.replace(/[^\x20-\x7e]|["\\]/g, "_");
-    const contentType = /^[\w.+-]+\/[\w.+-]+$/.test(attachment.contentType) ? attachment.contentType : "application/octet-stream";
+    const contentType = /^[\w.+-]+\/[\w.+-]+$/.test(attachment.contentType)
+      ? attachment.contentType
+      : "application/octet-stream";
     res.writeHead(200, {
       "Content-Type": contentType,
       "Content-Length": bytes.length,
@@ -314,7 +370,11 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
   // The service's API: a known path with another method is a 405.
   const api: EmailEndpoint[] = [
     { method: "POST", pattern: /^\/emails$/, handle: ({ req, res }) => handleSend(req, res, "emails", makeOne) },
-    { method: "POST", pattern: /^\/emails\/batch$/, handle: ({ req, res }) => handleSend(req, res, "emails/batch", makeBatch) },
+    {
+      method: "POST",
+      pattern: /^\/emails\/batch$/,
+      handle: ({ req, res }) => handleSend(req, res, "emails/batch", makeBatch),
+    },
     {
       method: "GET",
       pattern: /^\/emails\/(?!batch$)([^/]+)$/,
@@ -332,9 +392,18 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
     {
       method: "GET",
       pattern: /^\/_fake\/messages$/,
-      handle: ({ res, url }) => sendJson(res, 200, store.list({ to: url.searchParams.get("to") ?? undefined }).map((m) => toPublicMessage(m, false))),
+      handle: ({ res, url }) =>
+        sendJson(
+          res,
+          200,
+          store.list({ to: url.searchParams.get("to") ?? undefined }).map((m) => toPublicMessage(m, false)),
+        ),
     },
-    { method: "DELETE", pattern: /^\/_fake\/messages$/, handle: ({ res }) => sendJson(res, 200, { deleted: store.clear() }) },
+    {
+      method: "DELETE",
+      pattern: /^\/_fake\/messages$/,
+      handle: ({ res }) => sendJson(res, 200, { deleted: store.clear() }),
+    },
     {
       method: "GET",
       pattern: /^\/_fake\/messages\/([^/]+)$/,
@@ -372,7 +441,11 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
 
   // The web inbox.
   const pages: EmailEndpoint[] = [
-    { method: "GET", pattern: /^\/$/, handle: ({ res }) => sendPage(res, 200, renderInboxPage(store.list(), baseUrl, summariseFailMode())) },
+    {
+      method: "GET",
+      pattern: /^\/$/,
+      handle: ({ res }) => sendPage(res, 200, renderInboxPage(store.list(), baseUrl, summariseFailMode())),
+    },
     {
       method: "GET",
       pattern: /^\/m\/([^/]+)$/,
@@ -403,7 +476,8 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
 
     const inApi = matchEndpoint(api, method, path);
     if (inApi.kind === "found") return run(inApi);
-    if (inApi.kind === "wrong-method") throw apiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
+    if (inApi.kind === "wrong-method")
+      throw apiError(405, "method_not_allowed", "Method is not allowed for the requested path.");
     if (path === "/_fake" || path.startsWith("/_fake/")) {
       const control = matchEndpoint(controls, method, path);
       if (control.kind === "found") return run(control);
@@ -432,7 +506,11 @@ export async function startEmailFake(options: EmailFakeOptions = {}): Promise<Em
         return;
       }
       console.error("email fake: unexpected error", error);
-      sendError(res, { statusCode: 500, name: "application_error", message: "Unexpected error in the local e-mail fake." });
+      sendError(res, {
+        statusCode: 500,
+        name: "application_error",
+        message: "Unexpected error in the local e-mail fake.",
+      });
     });
   });
 
@@ -449,7 +527,9 @@ async function main(): Promise<void> {
     dataFile: process.env.EMAIL_FAKE_DATA_FILE || undefined,
     apiKey: process.env.EMAIL_FAKE_API_KEY || undefined,
   });
-  const persistence = process.env.EMAIL_FAKE_DATA_FILE ? `, saving to ${process.env.EMAIL_FAKE_DATA_FILE}` : ", in memory only";
+  const persistence = process.env.EMAIL_FAKE_DATA_FILE
+    ? `, saving to ${process.env.EMAIL_FAKE_DATA_FILE}`
+    : ", in memory only";
   console.log(`email fake listening on ${fake.url} (inbox at ${fake.url}/, RESEND_BASE_URL=${fake.url}${persistence})`);
 
   let isClosing = false;

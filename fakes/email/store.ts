@@ -74,10 +74,14 @@ export class MessageStore {
       state = JSON.parse(raw) as PersistedState;
     } catch (error) {
       // Refuse to start rather than overwrite a file someone may want to inspect.
-      throw new Error(`email fake: ${dataFile} is not valid JSON (${(error as Error).message}); move it away to start empty`);
+      throw new Error(
+        `email fake: ${dataFile} is not valid JSON (${(error as Error).message}); move it away to start empty`,
+      );
     }
     if (state?.version !== 1 || !Array.isArray(state.messages) || !Array.isArray(state.idempotency)) {
-      throw new Error(`email fake: ${dataFile} is not an e-mail fake data file (version 1); move it away to start empty`);
+      throw new Error(
+        `email fake: ${dataFile} is not an e-mail fake data file (version 1); move it away to start empty`,
+      );
     }
     this.messages = state.messages;
     for (const record of state.idempotency) this.idempotency.set(record.key, record);

@@ -66,7 +66,8 @@ export function parseMailbox(value: string): { name: string | null; address: str
     const address = named[2].trim();
     if (!BARE_ADDRESS.test(address)) return null;
     const rawName = named[1].trim();
-    const name = rawName.startsWith('"') && rawName.endsWith('"') && rawName.length >= 2 ? rawName.slice(1, -1) : rawName;
+    const name =
+      rawName.startsWith('"') && rawName.endsWith('"') && rawName.length >= 2 ? rawName.slice(1, -1) : rawName;
     if (/[<>\r\n]/.test(name)) return null;
     return { name: name.length > 0 ? name : null, address };
   }
@@ -110,13 +111,19 @@ function parseAddressList(
   }
   for (const item of items) {
     if (!parseMailbox(item)) {
-      return fail("validation_error", `Invalid \`${field}\` field: ${JSON.stringify(item)} is not an address; ${ADDRESS_HINT}.`);
+      return fail(
+        "validation_error",
+        `Invalid \`${field}\` field: ${JSON.stringify(item)} is not an address; ${ADDRESS_HINT}.`,
+      );
     }
   }
   return { ok: true, list: items.map((item) => item.trim()) };
 }
 
-function parseOptionalString(field: string, value: unknown): { ok: true; value: string | null } | { ok: false; error: ApiError } {
+function parseOptionalString(
+  field: string,
+  value: unknown,
+): { ok: true; value: string | null } | { ok: false; error: ApiError } {
   if (isAbsent(value)) return { ok: true, value: null };
   if (typeof value !== "string") return fail("validation_error", `Invalid \`${field}\` field: it must be a string.`);
   return { ok: true, value };
@@ -151,13 +158,17 @@ function parseAttachments(value: unknown): { ok: true; list: StoredAttachment[] 
   const list: StoredAttachment[] = [];
   for (const [index, item] of value.entries()) {
     const field = `attachments[${index}]`;
-    if (!isPlainObject(item)) return fail("invalid_attachment", `Invalid \`${field}\`: each attachment must be an object.`);
+    if (!isPlainObject(item))
+      return fail("invalid_attachment", `Invalid \`${field}\`: each attachment must be an object.`);
     const { content, path, filename, content_type: contentType, content_id: contentId } = item;
     if (!isAbsent(filename) && (typeof filename !== "string" || filename.trim() === "")) {
       return fail("invalid_attachment", `Invalid \`${field}.filename\`: it must be a non-empty string.`);
     }
     if (!isAbsent(contentType) && (typeof contentType !== "string" || !/^[\w.+-]+\/[\w.+-]+/.test(contentType))) {
-      return fail("invalid_attachment", `Invalid \`${field}.content_type\`: expected a MIME type such as text/calendar.`);
+      return fail(
+        "invalid_attachment",
+        `Invalid \`${field}.content_type\`: expected a MIME type such as text/calendar.`,
+      );
     }
     if (!isAbsent(contentId) && typeof contentId !== "string") {
       return fail("invalid_attachment", `Invalid \`${field}.content_id\`: it must be a string.`);
@@ -177,7 +188,10 @@ function parseAttachments(value: unknown): { ok: true; list: StoredAttachment[] 
       bytes = Buffer.alloc(0);
       remotePath = path;
     } else {
-      return fail("invalid_attachment", `Invalid \`${field}\`: an attachment needs either \`content\` (base64) or \`path\`.`);
+      return fail(
+        "invalid_attachment",
+        `Invalid \`${field}\`: an attachment needs either \`content\` (base64) or \`path\`.`,
+      );
     }
     const name = typeof filename === "string" ? filename.trim() : `attachment-${index + 1}`;
     list.push({
@@ -198,10 +212,14 @@ function parseAttachments(value: unknown): { ok: true; list: StoredAttachment[] 
  * attachments or scheduled_at, as on the service.
  */
 export function parseEmailPayload(body: unknown, options: { isBatch: boolean }): ParseResult {
-  if (!isPlainObject(body)) return fail("validation_error", "The request body must be a JSON object describing one e-mail.");
+  if (!isPlainObject(body))
+    return fail("validation_error", "The request body must be a JSON object describing one e-mail.");
 
   if (!isAbsent(body.template)) {
-    return fail("validation_error", "Invalid `template` field: this local fake does not render hosted templates; send `html` or `text`.");
+    return fail(
+      "validation_error",
+      "Invalid `template` field: this local fake does not render hosted templates; send `html` or `text`.",
+    );
   }
 
   if (isAbsent(body.from) || body.from === "") return fail("missing_required_field", "Missing `from` field.");
@@ -246,9 +264,11 @@ export function parseEmailPayload(body: unknown, options: { isBatch: boolean }):
 
   const tags: EmailTag[] = [];
   if (!isAbsent(body.tags)) {
-    if (!Array.isArray(body.tags)) return fail("validation_error", "Invalid `tags` field: it must be an array of { name, value }.");
+    if (!Array.isArray(body.tags))
+      return fail("validation_error", "Invalid `tags` field: it must be an array of { name, value }.");
     for (const [index, tag] of body.tags.entries()) {
-      if (!isPlainObject(tag)) return fail("validation_error", `Invalid \`tags[${index}]\`: it must be an object { name, value }.`);
+      if (!isPlainObject(tag))
+        return fail("validation_error", `Invalid \`tags[${index}]\`: it must be an object { name, value }.`);
       for (const part of ["name", "value"] as const) {
         const value = tag[part];
         if (typeof value !== "string" || !TAG_PART.test(value)) {
@@ -263,7 +283,10 @@ export function parseEmailPayload(body: unknown, options: { isBatch: boolean }):
   }
 
   if (options.isBatch && !isAbsent(body.attachments)) {
-    return fail("validation_error", "Invalid `attachments` field: attachments are not supported on the batch endpoint.");
+    return fail(
+      "validation_error",
+      "Invalid `attachments` field: attachments are not supported on the batch endpoint.",
+    );
   }
   if (options.isBatch && !isAbsent(body.scheduled_at)) {
     return fail("validation_error", "Invalid `scheduled_at` field: scheduling is not supported on the batch endpoint.");

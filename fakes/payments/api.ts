@@ -5,7 +5,15 @@
  */
 import type { IncomingMessage, ServerResponse } from "node:http";
 import { takeFailure } from "../shared/failures";
-import { BodyTooLargeError, bearerKey, matchEndpoint, readBody, sendJson, sendJsonText, type Endpoint } from "../shared/http";
+import {
+  BodyTooLargeError,
+  bearerKey,
+  matchEndpoint,
+  readBody,
+  sendJson,
+  sendJsonText,
+  type Endpoint,
+} from "../shared/http";
 import { checkIdempotency } from "../shared/idempotency";
 import { FormDecodeError, fingerprintParams, parseFormBody, type FormObject } from "./form-encoding";
 import { getOwn, makeId } from "./ids";
@@ -67,7 +75,8 @@ export function apiEndpoints(ledger: PaymentsLedger, store: StateStore): ApiEndp
     {
       method: "POST",
       pattern: /^\/v1\/refunds$/,
-      handle: ({ params, cause }) => ok(ledger.presentRefund(ledger.createRefund(params, cause), ledger.readRefundExpand(params))),
+      handle: ({ params, cause }) =>
+        ok(ledger.presentRefund(ledger.createRefund(params, cause), ledger.readRefundExpand(params))),
     },
     {
       method: "GET",
@@ -111,13 +120,16 @@ export function apiEndpoints(ledger: PaymentsLedger, store: StateStore): ApiEndp
 
 function summariseParams(params: FormObject): unknown {
   const text = JSON.stringify(params);
-  return text.length <= MAX_LOGGED_PARAMS_CHARS ? params : { omitted: `parameters of ${text.length} characters not logged` };
+  return text.length <= MAX_LOGGED_PARAMS_CHARS
+    ? params
+    : { omitted: `parameters of ${text.length} characters not logged` };
 }
 
 /** The failure the fake was told to give, if any; a counted one is used up. */
 function injectedFailure(store: StateStore): ApiError | null {
   const { controls } = store.state;
-  if (controls.down) return new ApiError(503, "api_error", "The payments service is unavailable (the local fake was told to go down).");
+  if (controls.down)
+    return new ApiError(503, "api_error", "The payments service is unavailable (the local fake was told to go down).");
   const counted = { remaining: controls.failNext, untilMs: null };
   if (!takeFailure(counted, Date.now())) return null;
   controls.failNext = counted.remaining;
@@ -130,11 +142,23 @@ function injectedFailure(store: StateStore): ApiError | null {
 function checkSecretKey(req: IncomingMessage): ApiError | null {
   const key = bearerKey(req);
   if (key === null) {
-    return new ApiError(401, "invalid_request_error", "No API key provided. Send your secret key as 'Authorization: Bearer sk_…'.", null, null);
+    return new ApiError(
+      401,
+      "invalid_request_error",
+      "No API key provided. Send your secret key as 'Authorization: Bearer sk_…'.",
+      null,
+      null,
+    );
   }
   if (/^(sk|rk)_\S+$/.test(key)) return null;
   const shown = key.length > 8 ? `${key.slice(0, 4)}…${key.slice(-4)}` : "****";
-  return new ApiError(401, "invalid_request_error", `Invalid API key provided: ${shown}. Keys start with sk_.`, "api_key_invalid", null);
+  return new ApiError(
+    401,
+    "invalid_request_error",
+    `Invalid API key provided: ${shown}. Keys start with sk_.`,
+    "api_key_invalid",
+    null,
+  );
 }
 
 /** The call's parameters: the query of a GET, the form-encoded body of a POST. */
@@ -169,7 +193,16 @@ export async function handleApi(
   let params: FormObject = {};
 
   const record = (status: number, replayed: boolean) => {
-    store.state.requests.push({ at: Date.now(), requestId, method, path: url.pathname, idempotencyKey, params: summariseParams(params), status, replayed });
+    store.state.requests.push({
+      at: Date.now(),
+      requestId,
+      method,
+      path: url.pathname,
+      idempotencyKey,
+      params: summariseParams(params),
+      status,
+      replayed,
+    });
     store.save();
   };
   const fail = (error: ApiError) => {
@@ -182,7 +215,9 @@ export async function handleApi(
 
   const match = matchEndpoint(endpoints, method, url.pathname);
   if (match.kind !== "found") {
-    return fail(new ApiError(404, "invalid_request_error", `Unrecognized request URL (${method}: ${url.pathname}).`, null, null));
+    return fail(
+      new ApiError(404, "invalid_request_error", `Unrecognized request URL (${method}: ${url.pathname}).`, null, null),
+    );
   }
 
   try {
@@ -201,11 +236,15 @@ export async function handleApi(
   const fingerprint = fingerprintParams(params);
   let idempotencySlot: string | null = null;
   if (method === "POST" && idempotencyKey) {
-    if (idempotencyKey.length > 255) return fail(invalidRequest("Idempotency-Key may be at most 255 characters.", "idempotency_key"));
+    if (idempotencyKey.length > 255)
+      return fail(invalidRequest("Idempotency-Key may be at most 255 characters.", "idempotency_key"));
     // Prefixed so a key such as "__proto__" is just data.
     idempotencySlot = `key:${idempotencyKey}`;
     const previous = getOwn(store.state.idempotency, idempotencySlot);
-    const check = checkIdempotency(previous && { endpoint: `${previous.method} ${previous.path}`, fingerprint: previous.fingerprint }, { endpoint, fingerprint });
+    const check = checkIdempotency(
+      previous && { endpoint: `${previous.method} ${previous.path}`, fingerprint: previous.fingerprint },
+      { endpoint, fingerprint },
+    );
     if (previous && check === "conflict") {
       return fail(
         new ApiError(
@@ -235,7 +274,14 @@ export async function handleApi(
     const text = JSON.stringify(result.body, null, 2);
     // Only a request that ran is remembered; validation errors are not, as with the real service.
     if (idempotencySlot && result.status < 300) {
-      store.state.idempotency[idempotencySlot] = { method, path: url.pathname, fingerprint, status: result.status, body: text, createdAt: Date.now() };
+      store.state.idempotency[idempotencySlot] = {
+        method,
+        path: url.pathname,
+        fingerprint,
+        status: result.status,
+        body: text,
+        createdAt: Date.now(),
+      };
     }
     record(result.status, false);
     sendJsonText(res, result.status, text, headers);

@@ -90,10 +90,38 @@ interface FieldSpec {
 }
 
 const FIELDS: Record<keyof CardForm, FieldSpec> = {
-  number: { key: "number", id: "card-number", label: "Card number", autocomplete: "cc-number", inputmode: "numeric", placeholder: "4242 4242 4242 4242" },
-  expiry: { key: "expiry", id: "card-expiry", label: "Expiry (MM / YY)", autocomplete: "cc-exp", inputmode: "numeric", placeholder: "MM / YY" },
-  cvc: { key: "cvc", id: "card-cvc", label: "Security code (CVC)", autocomplete: "cc-csc", inputmode: "numeric", placeholder: "123" },
-  name: { key: "name", id: "card-name", label: "Name on card", autocomplete: "cc-name", inputmode: "text", placeholder: "" },
+  number: {
+    key: "number",
+    id: "card-number",
+    label: "Card number",
+    autocomplete: "cc-number",
+    inputmode: "numeric",
+    placeholder: "4242 4242 4242 4242",
+  },
+  expiry: {
+    key: "expiry",
+    id: "card-expiry",
+    label: "Expiry (MM / YY)",
+    autocomplete: "cc-exp",
+    inputmode: "numeric",
+    placeholder: "MM / YY",
+  },
+  cvc: {
+    key: "cvc",
+    id: "card-cvc",
+    label: "Security code (CVC)",
+    autocomplete: "cc-csc",
+    inputmode: "numeric",
+    placeholder: "123",
+  },
+  name: {
+    key: "name",
+    id: "card-name",
+    label: "Name on card",
+    autocomplete: "cc-name",
+    inputmode: "text",
+    placeholder: "",
+  },
 };
 
 // Form field names posted by the page; the server reads the same names back.

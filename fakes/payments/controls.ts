@@ -3,7 +3,15 @@
  * fake's records; POSTs take a JSON object (an empty body counts as {}).
  */
 import type { IncomingMessage, ServerResponse } from "node:http";
-import { InvalidJsonError, isJsonObject, matchEndpoint, parseJsonBody, readBody, sendJson, type Endpoint } from "../shared/http";
+import {
+  InvalidJsonError,
+  isJsonObject,
+  matchEndpoint,
+  parseJsonBody,
+  readBody,
+  sendJson,
+  type Endpoint,
+} from "../shared/http";
 import { MAX_BODY_BYTES } from "./api";
 import { nowSeconds } from "./ids";
 import type { CardForm, PaymentsLedger } from "./ledger";
@@ -83,7 +91,11 @@ function controlEndpoints({ store, ledger, dispatcher, webhookUrl, baseUrl }: Co
   };
 
   return [
-    { method: "GET", pattern: /^\/health$/, handle: () => ok({ ok: true, url: baseUrl(), webhookUrl, stateFile: store.file }) },
+    {
+      method: "GET",
+      pattern: /^\/health$/,
+      handle: () => ok({ ok: true, url: baseUrl(), webhookUrl, stateFile: store.file }),
+    },
     {
       method: "GET",
       pattern: /^\/events$/,
@@ -92,9 +104,17 @@ function controlEndpoints({ store, ledger, dispatcher, webhookUrl, baseUrl }: Co
         return ok({ data: type ? state().events.filter((e) => e.type === type) : state().events });
       },
     },
-    { method: "GET", pattern: /^\/sessions$/, handle: () => ok({ data: Object.keys(state().sessions).map(presentRecord) }) },
+    {
+      method: "GET",
+      pattern: /^\/sessions$/,
+      handle: () => ok({ data: Object.keys(state().sessions).map(presentRecord) }),
+    },
     { method: "GET", pattern: /^\/refunds$/, handle: () => ok({ data: Object.values(state().refunds) }) },
-    { method: "GET", pattern: /^\/deliveries$/, handle: () => ok({ data: state().deliveries, pending: state().queue }) },
+    {
+      method: "GET",
+      pattern: /^\/deliveries$/,
+      handle: () => ok({ data: state().deliveries, pending: state().queue }),
+    },
     { method: "GET", pattern: /^\/requests$/, handle: () => ok({ data: state().requests }) },
     { method: "GET", pattern: /^\/controls$/, handle: () => ok(state().controls) },
     {
@@ -102,7 +122,8 @@ function controlEndpoints({ store, ledger, dispatcher, webhookUrl, baseUrl }: Co
       pattern: /^\/sessions\/([^/]+)\/expire-now$/,
       handle: ({ params: [id] }) => {
         const record = openSession(id!);
-        if (record.session.status !== "open") throw new ControlError(409, `Session ${id} is ${record.session.status}, not open.`);
+        if (record.session.status !== "open")
+          throw new ControlError(409, `Session ${id} is ${record.session.status}, not open.`);
         // Moves the deadline and lets the regular sweep do the expiring, as the timer would.
         record.session.expires_at = nowSeconds();
         ledger.sweepExpired();
@@ -161,7 +182,8 @@ function controlEndpoints({ store, ledger, dispatcher, webhookUrl, baseUrl }: Co
           }
           controls.failNext = body.count;
         }
-        if (body.down === undefined && body.count === undefined) throw new ControlError(400, 'Send {"count": N} or {"down": true|false}.');
+        if (body.down === undefined && body.count === undefined)
+          throw new ControlError(400, 'Send {"count": N} or {"down": true|false}.');
         store.save();
         return ok(controls);
       },
@@ -173,7 +195,8 @@ function controlEndpoints({ store, ledger, dispatcher, webhookUrl, baseUrl }: Co
       pattern: /^\/release-events$/,
       handle: ({ body }) => {
         const order = body.order ?? "created";
-        if (order !== "created" && order !== "reverse") throw new ControlError(400, 'order must be "created" or "reverse".');
+        if (order !== "created" && order !== "reverse")
+          throw new ControlError(400, 'order must be "created" or "reverse".');
         const released = dispatcher.release(order);
         store.save();
         dispatcher.kick();

@@ -56,7 +56,13 @@ export function splitFormKey(key: string): string[] {
 
 /** Joins segments back into the bracketed name used in error messages: `line_items[0][quantity]`. */
 export function formatFormKey(segments: readonly string[]): string {
-  return segments[0] + segments.slice(1).map((s) => `[${s}]`).join("");
+  return (
+    segments[0] +
+    segments
+      .slice(1)
+      .map((s) => `[${s}]`)
+      .join("")
+  );
 }
 
 /** Parses an `application/x-www-form-urlencoded` body (or query string) into nested objects and arrays. */

@@ -64,34 +64,122 @@ export const DECLINED_CARD = "4000000000000002";
 // Top-level parameters the real endpoint accepts (stripe-node 23.1.0's SessionCreateParams).
 // Those this fake acts on are read below; the rest are accepted and noted as ignored.
 const SESSION_CREATE_PARAMS = new Set([
-  "adaptive_pricing", "after_expiration", "allow_promotion_codes", "allowed_payment_method_types",
-  "automatic_tax", "billing_address_collection", "branding_settings", "cancel_url", "client_reference_id",
-  "consent_collection", "currency", "custom_fields", "custom_text", "customer", "customer_account",
-  "customer_creation", "customer_email", "customer_update", "discounts", "excluded_payment_method_types",
-  "expand", "expires_at", "integration_identifier", "invoice_creation", "line_items", "locale",
-  "managed_payments", "metadata", "mode", "name_collection", "optional_items", "origin_context",
-  "payment_intent_data", "payment_method_collection", "payment_method_configuration", "payment_method_data",
-  "payment_method_options", "payment_method_types", "permissions", "phone_number_collection",
-  "redirect_on_completion", "return_url", "saved_payment_method_options", "setup_intent_data",
-  "shipping_address_collection", "shipping_options", "submit_type", "subscription_data", "success_url",
-  "tax_id_collection", "ui_mode", "wallet_options",
+  "adaptive_pricing",
+  "after_expiration",
+  "allow_promotion_codes",
+  "allowed_payment_method_types",
+  "automatic_tax",
+  "billing_address_collection",
+  "branding_settings",
+  "cancel_url",
+  "client_reference_id",
+  "consent_collection",
+  "currency",
+  "custom_fields",
+  "custom_text",
+  "customer",
+  "customer_account",
+  "customer_creation",
+  "customer_email",
+  "customer_update",
+  "discounts",
+  "excluded_payment_method_types",
+  "expand",
+  "expires_at",
+  "integration_identifier",
+  "invoice_creation",
+  "line_items",
+  "locale",
+  "managed_payments",
+  "metadata",
+  "mode",
+  "name_collection",
+  "optional_items",
+  "origin_context",
+  "payment_intent_data",
+  "payment_method_collection",
+  "payment_method_configuration",
+  "payment_method_data",
+  "payment_method_options",
+  "payment_method_types",
+  "permissions",
+  "phone_number_collection",
+  "redirect_on_completion",
+  "return_url",
+  "saved_payment_method_options",
+  "setup_intent_data",
+  "shipping_address_collection",
+  "shipping_options",
+  "submit_type",
+  "subscription_data",
+  "success_url",
+  "tax_id_collection",
+  "ui_mode",
+  "wallet_options",
 ]);
 const SESSION_MODELLED_PARAMS = new Set([
-  "cancel_url", "client_reference_id", "currency", "customer_email", "expand", "expires_at", "line_items",
-  "locale", "metadata", "mode", "payment_intent_data", "payment_method_types", "submit_type", "success_url",
+  "cancel_url",
+  "client_reference_id",
+  "currency",
+  "customer_email",
+  "expand",
+  "expires_at",
+  "line_items",
+  "locale",
+  "metadata",
+  "mode",
+  "payment_intent_data",
+  "payment_method_types",
+  "submit_type",
+  "success_url",
   "ui_mode",
 ]);
-const LINE_ITEM_PARAMS = new Set(["adjustable_quantity", "dynamic_tax_rates", "metadata", "price", "price_data", "quantity", "tax_rates"]);
-const PRICE_DATA_PARAMS = new Set(["currency", "product", "product_data", "recurring", "tax_behavior", "unit_amount", "unit_amount_decimal"]);
+const LINE_ITEM_PARAMS = new Set([
+  "adjustable_quantity",
+  "dynamic_tax_rates",
+  "metadata",
+  "price",
+  "price_data",
+  "quantity",
+  "tax_rates",
+]);
+const PRICE_DATA_PARAMS = new Set([
+  "currency",
+  "product",
+  "product_data",
+  "recurring",
+  "tax_behavior",
+  "unit_amount",
+  "unit_amount_decimal",
+]);
 const PRODUCT_DATA_PARAMS = new Set(["description", "images", "metadata", "name", "tax_code", "unit_label"]);
 const PAYMENT_INTENT_DATA_PARAMS = new Set([
-  "application_fee_amount", "capture_method", "description", "metadata", "on_behalf_of", "receipt_email",
-  "setup_future_usage", "shipping", "statement_descriptor", "statement_descriptor_suffix", "transfer_data",
+  "application_fee_amount",
+  "capture_method",
+  "description",
+  "metadata",
+  "on_behalf_of",
+  "receipt_email",
+  "setup_future_usage",
+  "shipping",
+  "statement_descriptor",
+  "statement_descriptor_suffix",
+  "transfer_data",
   "transfer_group",
 ]);
 const REFUND_CREATE_PARAMS = new Set([
-  "amount", "charge", "currency", "customer", "expand", "instructions_email", "metadata", "origin",
-  "payment_intent", "reason", "refund_application_fee", "reverse_transfer",
+  "amount",
+  "charge",
+  "currency",
+  "customer",
+  "expand",
+  "instructions_email",
+  "metadata",
+  "origin",
+  "payment_intent",
+  "reason",
+  "refund_application_fee",
+  "reverse_transfer",
 ]);
 const REFUND_REASONS = ["duplicate", "fraudulent", "requested_by_customer"];
 // Checkout allows a session to stay open between 30 minutes and 24 hours.
@@ -117,7 +205,11 @@ function rejectUnknown(value: FormObject, allowed: Set<string>, path: string[]):
 function asObject(value: FormValue | undefined, param: string): FormObject | undefined {
   if (value === undefined || value === "") return undefined;
   if (typeof value === "string" || Array.isArray(value)) {
-    throw invalidRequest(`Invalid object for ${param}: pass it as ${param}[key]=value.`, param, "parameter_invalid_object");
+    throw invalidRequest(
+      `Invalid object for ${param}: pass it as ${param}[key]=value.`,
+      param,
+      "parameter_invalid_object",
+    );
   }
   return value;
 }
@@ -136,7 +228,11 @@ function asString(value: FormValue | undefined, param: string, maxLength = 5000)
     throw invalidRequest(`Invalid string for ${param}: a single value is expected.`, param, "parameter_invalid_string");
   }
   if (value.length > maxLength) {
-    throw invalidRequest(`Invalid ${param}: must be at most ${maxLength} characters.`, param, "parameter_invalid_string");
+    throw invalidRequest(
+      `Invalid ${param}: must be at most ${maxLength} characters.`,
+      param,
+      "parameter_invalid_string",
+    );
   }
   return value;
 }
@@ -145,7 +241,11 @@ function asInteger(value: FormValue | undefined, param: string, min: number, max
   const text = asString(value, param);
   if (text === undefined || text === "") return undefined;
   if (!/^-?\d+$/.test(text)) {
-    throw invalidRequest(`Invalid integer: ${text}. ${param} must be a whole number.`, param, "parameter_invalid_integer");
+    throw invalidRequest(
+      `Invalid integer: ${text}. ${param} must be a whole number.`,
+      param,
+      "parameter_invalid_integer",
+    );
   }
   const n = Number(text);
   if (!Number.isSafeInteger(n) || n < min || n > max) {
@@ -202,7 +302,10 @@ function readExpand(value: FormValue | undefined, allowed: string[]): string[] {
   return list.map((item, i) => {
     const field = asString(item, `expand[${i}]`) ?? "";
     if (!allowed.includes(field)) {
-      throw invalidRequest(`This property cannot be expanded (${field}). Expandable here: ${allowed.join(", ")}.`, `expand[${i}]`);
+      throw invalidRequest(
+        `This property cannot be expanded (${field}). Expandable here: ${allowed.join(", ")}.`,
+        `expand[${i}]`,
+      );
     }
     return field;
   });
@@ -251,7 +354,8 @@ export function checkCardForm(form: CardForm, now: Date): { errors: CardFieldErr
     if (expYear * 12 + expMonth < current) errors.expiry = "The expiry date is in the past.";
   }
 
-  if (!/^\d{3,4}$/.test(form.cvc.trim())) errors.cvc = "Enter the 3- or 4-digit security code from the back of the card.";
+  if (!/^\d{3,4}$/.test(form.cvc.trim()))
+    errors.cvc = "Enter the 3- or 4-digit security code from the back of the card.";
   const name = form.name.trim();
   if (name === "") errors.name = "Enter the name on the card.";
   else if (name.length > 200) errors.name = "The name on the card can be at most 200 characters.";
@@ -328,9 +432,17 @@ export class PaymentsLedger {
     const mode = required(asString(params.mode, "mode"), "mode");
     if (mode !== "payment") {
       if (mode === "subscription" || mode === "setup") {
-        throw invalidRequest(`This local fake only supports mode=payment, not ${mode}.`, "mode", "parameter_invalid_string");
+        throw invalidRequest(
+          `This local fake only supports mode=payment, not ${mode}.`,
+          "mode",
+          "parameter_invalid_string",
+        );
       }
-      throw invalidRequest(`Invalid mode: must be one of payment, setup or subscription.`, "mode", "parameter_invalid_string");
+      throw invalidRequest(
+        `Invalid mode: must be one of payment, setup or subscription.`,
+        "mode",
+        "parameter_invalid_string",
+      );
     }
     const uiMode = asString(params.ui_mode, "ui_mode");
     if (uiMode !== undefined && uiMode !== "hosted") {
@@ -345,7 +457,8 @@ export class PaymentsLedger {
     }
     const metadata = readMetadata(params.metadata, "metadata");
     const created = nowSeconds();
-    const expiresAt = asInteger(params.expires_at, "expires_at", 0, Number.MAX_SAFE_INTEGER) ?? created + DEFAULT_EXPIRY_SECONDS;
+    const expiresAt =
+      asInteger(params.expires_at, "expires_at", 0, Number.MAX_SAFE_INTEGER) ?? created + DEFAULT_EXPIRY_SECONDS;
     if (expiresAt < created + MIN_EXPIRY_SECONDS - EXPIRY_GRACE_SECONDS || expiresAt > created + MAX_EXPIRY_SECONDS) {
       throw invalidRequest(
         `expires_at must be a Unix time in seconds between 30 minutes and 24 hours from now (now is ${created}).`,
@@ -355,7 +468,8 @@ export class PaymentsLedger {
     }
 
     const lineItemsParam = required(asArray(params.line_items, "line_items"), "line_items");
-    if (lineItemsParam.length === 0) throw invalidRequest("Missing required param: line_items.", "line_items", "parameter_missing");
+    if (lineItemsParam.length === 0)
+      throw invalidRequest("Missing required param: line_items.", "line_items", "parameter_missing");
     if (lineItemsParam.length > 100) throw invalidRequest("Invalid line_items: at most 100 items.", "line_items");
     const lineItems = lineItemsParam.map((raw, i) => this.readLineItem(raw, i));
     const currency = lineItems[0].currency;
@@ -369,10 +483,14 @@ export class PaymentsLedger {
     }
     const topCurrency = asString(params.currency, "currency");
     if (topCurrency && topCurrency.toLowerCase() !== currency) {
-      throw invalidRequest(`currency (${topCurrency}) does not match the line items' currency (${currency}).`, "currency");
+      throw invalidRequest(
+        `currency (${topCurrency}) does not match the line items' currency (${currency}).`,
+        "currency",
+      );
     }
     const amountTotal = lineItems.reduce((sum, item) => sum + item.unitAmount * item.quantity, 0);
-    if (amountTotal > MAX_AMOUNT) throw invalidRequest(`The total may be at most ${MAX_AMOUNT} in minor units.`, "line_items", "amount_too_large");
+    if (amountTotal > MAX_AMOUNT)
+      throw invalidRequest(`The total may be at most ${MAX_AMOUNT} in minor units.`, "line_items", "amount_too_large");
     if (amountTotal < MIN_CHARGE_AMOUNT) {
       throw invalidRequest(
         `The total due must be at least ${MIN_CHARGE_AMOUNT} minor units of ${currency} (0.50 USD).`,
@@ -387,12 +505,16 @@ export class PaymentsLedger {
       (t, i) => asString(t, `payment_method_types[${i}]`) ?? "card",
     );
     if (!paymentMethodTypes.includes("card")) {
-      throw invalidRequest("This local fake takes cards only: include card in payment_method_types.", "payment_method_types");
+      throw invalidRequest(
+        "This local fake takes cards only: include card in payment_method_types.",
+        "payment_method_types",
+      );
     }
     this.readSessionExpand(params);
 
     const ignoredParams = Object.keys(params).filter((k) => !SESSION_MODELLED_PARAMS.has(k));
-    for (const key of Object.keys(pid)) if (key !== "description" && key !== "metadata") ignoredParams.push(`payment_intent_data[${key}]`);
+    for (const key of Object.keys(pid))
+      if (key !== "description" && key !== "metadata") ignoredParams.push(`payment_intent_data[${key}]`);
 
     const session: CheckoutSessionObject = {
       id: makeId("cs_test_", 58),
@@ -446,17 +568,30 @@ export class PaymentsLedger {
     const priceData = required(asObject(item.price_data, `${base}[price_data]`), `${base}[price_data]`);
     rejectUnknown(priceData, PRICE_DATA_PARAMS, ["line_items", String(index), "price_data"]);
     if (priceData.recurring !== undefined) {
-      throw invalidRequest("Recurring prices need mode=subscription, which this local fake does not offer.", `${base}[price_data][recurring]`);
+      throw invalidRequest(
+        "Recurring prices need mode=subscription, which this local fake does not offer.",
+        `${base}[price_data][recurring]`,
+      );
     }
-    const currency = required(asString(priceData.currency, `${base}[price_data][currency]`), `${base}[price_data][currency]`).toLowerCase();
+    const currency = required(
+      asString(priceData.currency, `${base}[price_data][currency]`),
+      `${base}[price_data][currency]`,
+    ).toLowerCase();
     if (!/^[a-z]{3}$/.test(currency) || !isKnownCurrency(currency)) {
-      throw invalidRequest(`Invalid currency: ${currency}. Use a three-letter ISO code such as usd.`, `${base}[price_data][currency]`, "parameter_invalid_string");
+      throw invalidRequest(
+        `Invalid currency: ${currency}. Use a three-letter ISO code such as usd.`,
+        `${base}[price_data][currency]`,
+        "parameter_invalid_string",
+      );
     }
     let unitAmount = asInteger(priceData.unit_amount, `${base}[price_data][unit_amount]`, 0, MAX_AMOUNT);
     if (unitAmount === undefined && priceData.unit_amount_decimal !== undefined) {
       const decimal = asString(priceData.unit_amount_decimal, `${base}[price_data][unit_amount_decimal]`) ?? "";
       if (!/^\d+$/.test(decimal)) {
-        throw invalidRequest("This local fake takes whole minor units only: use unit_amount.", `${base}[price_data][unit_amount_decimal]`);
+        throw invalidRequest(
+          "This local fake takes whole minor units only: use unit_amount.",
+          `${base}[price_data][unit_amount_decimal]`,
+        );
       }
       unitAmount = Number(decimal);
     }
@@ -465,10 +600,17 @@ export class PaymentsLedger {
       const productId = asString(priceData.product, `${base}[price_data][product]`) ?? "";
       throw noSuch("product", productId, `${base}[price_data][product]`).withStatus(400);
     }
-    const productData = required(asObject(priceData.product_data, `${base}[price_data][product_data]`), `${base}[price_data][product_data]`);
+    const productData = required(
+      asObject(priceData.product_data, `${base}[price_data][product_data]`),
+      `${base}[price_data][product_data]`,
+    );
     rejectUnknown(productData, PRODUCT_DATA_PARAMS, ["line_items", String(index), "price_data", "product_data"]);
-    const name = required(asString(productData.name, `${base}[price_data][product_data][name]`, 250)?.trim(), `${base}[price_data][product_data][name]`);
-    const description = asString(productData.description, `${base}[price_data][product_data][description]`, 5000) || null;
+    const name = required(
+      asString(productData.name, `${base}[price_data][product_data][name]`, 250)?.trim(),
+      `${base}[price_data][product_data][name]`,
+    );
+    const description =
+      asString(productData.description, `${base}[price_data][product_data][description]`, 5000) || null;
     const quantity = required(asInteger(item.quantity, `${base}[quantity]`, 1, 999_999), `${base}[quantity]`);
     return {
       id: makeId("li_"),
@@ -598,7 +740,11 @@ export class PaymentsLedger {
     const intentId = asString(params.payment_intent, "payment_intent") || undefined;
     const chargeId = asString(params.charge, "charge") || undefined;
     if (!intentId && !chargeId) {
-      throw invalidRequest("One of payment_intent or charge is required to create a refund.", "payment_intent", "parameter_missing");
+      throw invalidRequest(
+        "One of payment_intent or charge is required to create a refund.",
+        "payment_intent",
+        "parameter_missing",
+      );
     }
     if (intentId && chargeId) {
       throw invalidRequest("Give only one of payment_intent or charge.", "charge");
@@ -629,11 +775,18 @@ export class PaymentsLedger {
     }
     const currency = asString(params.currency, "currency");
     if (currency && currency.toLowerCase() !== charge.currency) {
-      throw invalidRequest(`currency (${currency}) does not match the charge's currency (${charge.currency}).`, "currency");
+      throw invalidRequest(
+        `currency (${currency}) does not match the charge's currency (${charge.currency}).`,
+        "currency",
+      );
     }
     const reason = asString(params.reason, "reason") || null;
     if (reason !== null && !REFUND_REASONS.includes(reason)) {
-      throw invalidRequest(`Invalid reason: must be one of ${REFUND_REASONS.join(", ")}.`, "reason", "parameter_invalid_string");
+      throw invalidRequest(
+        `Invalid reason: must be one of ${REFUND_REASONS.join(", ")}.`,
+        "reason",
+        "parameter_invalid_string",
+      );
     }
     const metadata = readMetadata(params.metadata, "metadata");
     readExpand(params.expand, ["charge", "payment_intent"]);
@@ -666,7 +819,8 @@ export class PaymentsLedger {
   presentRefund(refund: RefundObject, expand: string[]): Record<string, unknown> {
     const shown: Record<string, unknown> = { ...refund };
     if (expand.includes("charge")) shown.charge = getOwn(this.state.charges, refund.charge) ?? refund.charge;
-    if (expand.includes("payment_intent")) shown.payment_intent = getOwn(this.state.paymentIntents, refund.payment_intent) ?? refund.payment_intent;
+    if (expand.includes("payment_intent"))
+      shown.payment_intent = getOwn(this.state.paymentIntents, refund.payment_intent) ?? refund.payment_intent;
     return structuredClone(shown);
   }
 }

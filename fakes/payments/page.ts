@@ -42,14 +42,20 @@ function sessionIdOf(url: URL): string {
 }
 
 /** Answers one /pay/… request. */
-export async function handlePage(ledger: PaymentsLedger, req: IncomingMessage, res: ServerResponse, url: URL): Promise<void> {
+export async function handlePage(
+  ledger: PaymentsLedger,
+  req: IncomingMessage,
+  res: ServerResponse,
+  url: URL,
+): Promise<void> {
   const id = sessionIdOf(url);
   const record = id ? ledger.getSession(id) : undefined;
   if (!record) return sendPage(res, 404, renderNotFoundPage());
 
   if (req.method === "GET" || req.method === "HEAD") {
     ledger.expireIfDue(record);
-    if (record.session.status !== "open") return sendPage(res, 200, renderClosedPage(record, ledger.successRedirect(record)));
+    if (record.session.status !== "open")
+      return sendPage(res, 200, renderClosedPage(record, ledger.successRedirect(record)));
     return sendPage(res, 200, renderCheckoutPage({ record }));
   }
   if (req.method !== "POST") {
@@ -73,7 +79,10 @@ export async function handlePage(ledger: PaymentsLedger, req: IncomingMessage, r
     case "declined":
       return sendPage(res, 402, renderCheckoutPage({ record, form, alert: `${result.message} Try another card.` }));
     case "invalid": {
-      const alert = result.errors.number === TEST_CARD_MESSAGE && Object.keys(result.errors).length === 1 ? TEST_CARD_MESSAGE : undefined;
+      const alert =
+        result.errors.number === TEST_CARD_MESSAGE && Object.keys(result.errors).length === 1
+          ? TEST_CARD_MESSAGE
+          : undefined;
       return sendPage(res, 400, renderCheckoutPage({ record, form, errors: result.errors, alert }));
     }
     case "not_open":

@@ -107,9 +107,17 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
           : handleOther(req, res, path);
     work.catch((error: unknown) => {
       if (error instanceof ControlError) return sendJson(res, error.status, { error: error.message }, {}, 2);
-      if (error instanceof BodyTooLargeError) return sendJson(res, 413, { error: "Request body is larger than 1 MB." }, {}, 2);
+      if (error instanceof BodyTooLargeError)
+        return sendJson(res, 413, { error: "Request body is larger than 1 MB." }, {}, 2);
       log(`payments fake: ${req.method} ${path} failed: ${error instanceof Error ? error.stack : String(error)}`);
-      if (!res.headersSent) sendJson(res, 500, new ApiError(500, "api_error", "The local payments fake hit an unexpected error.").toBody(), {}, 2);
+      if (!res.headersSent)
+        sendJson(
+          res,
+          500,
+          new ApiError(500, "api_error", "The local payments fake hit an unexpected error.").toBody(),
+          {},
+          2,
+        );
       else res.destroy();
     });
   });
@@ -121,7 +129,13 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
       return;
     }
     if (path === "/") {
-      return sendJson(res, 200, { name: "Emberwright local payments fake", api: `${baseUrl}/v1`, controls: `${baseUrl}/_fake/health` }, {}, 2);
+      return sendJson(
+        res,
+        200,
+        { name: "Emberwright local payments fake", api: `${baseUrl}/v1`, controls: `${baseUrl}/_fake/health` },
+        {},
+        2,
+      );
     }
     sendJson(res, 404, { error: `Nothing at ${req.method} ${path}.` }, {}, 2);
   }

@@ -107,7 +107,11 @@ export class WebhookDispatcher {
     let best: QueuedDelivery | undefined;
     for (const d of this.store.state.queue) {
       if (d.held) continue;
-      if (!best || d.nextAttemptAt < best.nextAttemptAt || (d.nextAttemptAt === best.nextAttemptAt && d.seq < best.seq)) {
+      if (
+        !best ||
+        d.nextAttemptAt < best.nextAttemptAt ||
+        (d.nextAttemptAt === best.nextAttemptAt && d.seq < best.seq)
+      ) {
         best = d;
       }
     }
@@ -151,7 +155,10 @@ export class WebhookDispatcher {
     current.attempts += 1;
     const ok = result.status !== null && result.status >= 200 && result.status < 300;
     const gaveUp = !ok && current.attempts >= this.options.maxAttempts;
-    const nextAttemptAt = ok || gaveUp ? null : Date.now() + retryDelayMs(current.attempts, this.options.retryBaseMs, this.options.retryMaxMs);
+    const nextAttemptAt =
+      ok || gaveUp
+        ? null
+        : Date.now() + retryDelayMs(current.attempts, this.options.retryBaseMs, this.options.retryMaxMs);
     this.store.state.deliveries.push({
       deliveryId: current.id,
       eventId: event.id,
@@ -167,7 +174,9 @@ export class WebhookDispatcher {
     if (!ok) {
       const answer = result.status !== null ? `answered ${result.status}` : `failed (${result.error})`;
       const next = gaveUp ? "giving up" : `retry in ${nextAttemptAt! - Date.now()} ms`;
-      this.options.log(`payments fake: webhook ${event.type} ${event.id} attempt ${current.attempts} ${answer}; ${next}`);
+      this.options.log(
+        `payments fake: webhook ${event.type} ${event.id} attempt ${current.attempts} ${answer}; ${next}`,
+      );
     }
     if (nextAttemptAt === null) {
       this.store.state.queue = this.store.state.queue.filter((d) => d.id !== current.id);
@@ -211,7 +220,9 @@ export class WebhookDispatcher {
       );
       this.inFlight = request;
       request.on("timeout", () => request.destroy(new Error(`no answer within ${this.options.timeoutMs} ms`)));
-      request.on("error", (error: NodeJS.ErrnoException) => finish({ status: null, error: error.code ?? error.message }));
+      request.on("error", (error: NodeJS.ErrnoException) =>
+        finish({ status: null, error: error.code ?? error.message }),
+      );
       request.end(payload);
     });
   }

@@ -60,13 +60,24 @@ export function canonicalJson(value: unknown): string {
 const JSON_HEADERS = { "Content-Type": "application/json; charset=utf-8", "Cache-Control": "no-store" };
 
 /** Answers already-serialised JSON. */
-export function sendJsonText(res: ServerResponse, status: number, text: string, headers: Record<string, string> = {}): void {
+export function sendJsonText(
+  res: ServerResponse,
+  status: number,
+  text: string,
+  headers: Record<string, string> = {},
+): void {
   res.writeHead(status, { ...JSON_HEADERS, "Content-Length": Buffer.byteLength(text), ...headers });
   res.end(text);
 }
 
 /** Answers `body` as JSON; `indent` pretty-prints it (the payments service answers indented). */
-export function sendJson(res: ServerResponse, status: number, body: unknown, headers: Record<string, string> = {}, indent?: number): void {
+export function sendJson(
+  res: ServerResponse,
+  status: number,
+  body: unknown,
+  headers: Record<string, string> = {},
+  indent?: number,
+): void {
   sendJsonText(res, status, JSON.stringify(body, null, indent), headers);
 }
 
@@ -89,12 +100,14 @@ export interface Endpoint {
 }
 
 export type EndpointMatch<E extends Endpoint> =
-  | { kind: "found"; endpoint: E; params: string[] }
-  | { kind: "wrong-method"; allowed: string[] }
-  | { kind: "none" };
+  { kind: "found"; endpoint: E; params: string[] } | { kind: "wrong-method"; allowed: string[] } | { kind: "none" };
 
 /** The endpoint for `method` and `path`; "wrong-method" when the path exists for other methods. */
-export function matchEndpoint<E extends Endpoint>(endpoints: readonly E[], method: string, path: string): EndpointMatch<E> {
+export function matchEndpoint<E extends Endpoint>(
+  endpoints: readonly E[],
+  method: string,
+  path: string,
+): EndpointMatch<E> {
   const onPath = endpoints.filter((e) => e.pattern.test(path));
   const endpoint = onPath.find((e) => e.method === method);
   if (endpoint) return { kind: "found", endpoint, params: endpoint.pattern.exec(path)!.slice(1) };

@@ -15,7 +15,10 @@ export interface FirstRequest {
 }
 
 /** Compares a request with what its key was first used for: run it, replay the first answer, or refuse. */
-export function checkIdempotency(previous: FirstRequest | undefined, request: FirstRequest): "new" | "replay" | "conflict" {
+export function checkIdempotency(
+  previous: FirstRequest | undefined,
+  request: FirstRequest,
+): "new" | "replay" | "conflict" {
   if (!previous) return "new";
   return previous.endpoint === request.endpoint && previous.fingerprint === request.fingerprint ? "replay" : "conflict";
 }

@@ -127,7 +127,8 @@ export async function checkBundles(buildDir: string): Promise<BundleReport> {
     }
     return seen;
   };
-  const carriesThree = async (urlPath: string) => /three/i.test(path.posix.basename(urlPath)) || THREE_SIGNATURE.test((await file(urlPath)).text);
+  const carriesThree = async (urlPath: string) =>
+    /three/i.test(path.posix.basename(urlPath)) || THREE_SIGNATURE.test((await file(urlPath)).text);
   const gzipKb = async (files: Iterable<string>) => {
     let bytes = 0;
     for (const f of files) bytes += (await file(f)).gzipBytes;
@@ -144,8 +145,14 @@ export async function checkBundles(buildDir: string): Promise<BundleReport> {
       continue;
     }
     const chain: ManifestRoute[] = [];
-    for (let r: ManifestRoute | undefined = route; r; r = r.parentId ? manifest.routes[r.parentId] : undefined) chain.unshift(r);
-    const roots = [manifest.url, manifest.entry.module, ...(manifest.entry.imports ?? []), ...chain.flatMap((r) => [r.module, ...(r.imports ?? [])])];
+    for (let r: ManifestRoute | undefined = route; r; r = r.parentId ? manifest.routes[r.parentId] : undefined)
+      chain.unshift(r);
+    const roots = [
+      manifest.url,
+      manifest.entry.module,
+      ...(manifest.entry.imports ?? []),
+      ...chain.flatMap((r) => [r.module, ...(r.imports ?? [])]),
+    ];
     const initial = await staticClosure(roots);
     const threeFiles: string[] = [];
     for (const f of initial) if (await carriesThree(f)) threeFiles.push(f);
@@ -182,7 +189,10 @@ export async function checkBundles(buildDir: string): Promise<BundleReport> {
   const tableChunks = await findTableChunks(clientDir);
   const breaches = [
     ...routes.flatMap((r) => (r.breach ? [r.breach] : [])),
-    ...tableChunks.map((c) => `${c.file} carries table definitions (${[...(c.hasTableBuilder ? ["the ORM's table builder"] : []), ...c.tables].join(", ")})`),
+    ...tableChunks.map(
+      (c) =>
+        `${c.file} carries table definitions (${[...(c.hasTableBuilder ? ["the ORM's table builder"] : []), ...c.tables].join(", ")})`,
+    ),
   ];
   return { routes, skipped, tableChunks, breaches };
 }
@@ -204,7 +214,11 @@ async function main() {
     console.log(`  ${r.breach ? "FAIL" : "ok  "} ${r.initialKb.toFixed(1).padStart(6)} kB  ${r.url} (${r.id})${lazy}`);
   }
   if (report.skipped.length) console.log(`  (no client code: ${report.skipped.join(", ")})`);
-  console.log(report.tableChunks.length ? `Client chunks with table definitions: ${report.tableChunks.length}` : "No client chunk carries table definitions.");
+  console.log(
+    report.tableChunks.length
+      ? `Client chunks with table definitions: ${report.tableChunks.length}`
+      : "No client chunk carries table definitions.",
+  );
   if (report.breaches.length) {
     console.error(`\nOver budget:\n  ${report.breaches.join("\n  ")}`);
     process.exit(1);

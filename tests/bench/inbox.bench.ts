@@ -37,12 +37,68 @@ const [template] = await db.select().from(leads).where(eq(leads.companyId, compa
 
 // A seeded random sequence, so every run fills the same rows.
 let seed = 20261202;
-const random = () => ((seed = (seed * 1_103_515_245 + 12_345) % 2 ** 31) / 2 ** 31);
-const pick = <T,>(items: readonly T[]) => items[Math.floor(random() * items.length)]!;
-const FIRST = ["Ada", "Bram", "Cleo", "Dov", "Esme", "Fitz", "Greta", "Hugo", "Iris", "Jonah", "Kaia", "Lev", "Mira", "Nils", "Opal", "Pavel", "Quinn", "Rhea", "Soren", "Tova"];
-const LAST = ["Ashdown", "Brisco", "Calloway", "Drummond", "Everly", "Fairweather", "Galloway", "Hartwell", "Ingram", "Jessop", "Kettering", "Lockridge", "Marlow", "Northcott", "Oakhurst", "Penrose"];
-const TOWNS = ["Millbrook Falls", "Harrow Bend", "Quillan Park", "Stoneleigh", "Copperfield Mills", "Fernwick", "Ashby Cross", "Tallow Creek"];
-const STATUSES = ["request", "called-back", "consult-booked", "measured", "proposal-out", "signed", "on-hold", "not-going-ahead"] as const;
+const random = () => (seed = (seed * 1_103_515_245 + 12_345) % 2 ** 31) / 2 ** 31;
+const pick = <T>(items: readonly T[]) => items[Math.floor(random() * items.length)]!;
+const FIRST = [
+  "Ada",
+  "Bram",
+  "Cleo",
+  "Dov",
+  "Esme",
+  "Fitz",
+  "Greta",
+  "Hugo",
+  "Iris",
+  "Jonah",
+  "Kaia",
+  "Lev",
+  "Mira",
+  "Nils",
+  "Opal",
+  "Pavel",
+  "Quinn",
+  "Rhea",
+  "Soren",
+  "Tova",
+];
+const LAST = [
+  "Ashdown",
+  "Brisco",
+  "Calloway",
+  "Drummond",
+  "Everly",
+  "Fairweather",
+  "Galloway",
+  "Hartwell",
+  "Ingram",
+  "Jessop",
+  "Kettering",
+  "Lockridge",
+  "Marlow",
+  "Northcott",
+  "Oakhurst",
+  "Penrose",
+];
+const TOWNS = [
+  "Millbrook Falls",
+  "Harrow Bend",
+  "Quillan Park",
+  "Stoneleigh",
+  "Copperfield Mills",
+  "Fernwick",
+  "Ashby Cross",
+  "Tallow Creek",
+];
+const STATUSES = [
+  "request",
+  "called-back",
+  "consult-booked",
+  "measured",
+  "proposal-out",
+  "signed",
+  "on-hold",
+  "not-going-ahead",
+] as const;
 const started = Date.now();
 const now = Date.now();
 for (let offset = 0; offset < LEADS; offset += 500) {
@@ -87,7 +143,11 @@ function percentile(sorted: number[], p: number): number {
 async function time(query: string) {
   const url = `http://localhost/app/inbox${query}`;
   const call = async () => {
-    const result = (await loader({ request: new Request(url, { headers: { Cookie: cookie } }), params: {}, context: {} } as never)) as { inbox: { rows: unknown[] } | null };
+    const result = (await loader({
+      request: new Request(url, { headers: { Cookie: cookie } }),
+      params: {},
+      context: {},
+    } as never)) as { inbox: { rows: unknown[] } | null };
     if (!result.inbox) throw new Error(`the inbox refused ${query}`);
     return result.inbox.rows.length;
   };

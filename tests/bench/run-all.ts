@@ -46,10 +46,12 @@ type Row = { measure: string; result: string; budget: string; verdict: Verdict; 
 const rows: Row[] = [];
 const notes: string[] = [];
 /** Each row carries the one-minute load average when it was measured: the machine is shared. */
-const add = (measure: string, result: string, budget: string, verdict: Verdict) => rows.push({ measure, result, budget, verdict, load: loadAverage() });
+const add = (measure: string, result: string, budget: string, verdict: Verdict) =>
+  rows.push({ measure, result, budget, verdict, load: loadAverage() });
 const check = (isWithin: boolean): Verdict => (isWithin ? "pass" : "MISS");
 
-const fmt = (n: number, digits = 0) => n.toLocaleString("en-US", { minimumFractionDigits: digits, maximumFractionDigits: digits });
+const fmt = (n: number, digits = 0) =>
+  n.toLocaleString("en-US", { minimumFractionDigits: digits, maximumFractionDigits: digits });
 const ms = (n: number) => (n >= 100 ? fmt(n) : fmt(n, 1));
 
 /** Runs one step with a time limit; a failure becomes an "error" row and the run goes on. */
@@ -85,9 +87,17 @@ function lastJson(stdout: string): Record<string, unknown> | null {
 async function benchEngine() {
   const run = await runToEnd(TSX, ["tests/bench/plan-engine.bench.ts"], { cwd: ROOT, timeoutMs: 60_000 });
   const out = lastJson(run.stdout);
-  if (run.code !== 0 || !out) throw new Error(`plan-engine.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${run.stderr.slice(0, 300)}`);
+  if (run.code !== 0 || !out)
+    throw new Error(
+      `plan-engine.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${run.stderr.slice(0, 300)}`,
+    );
   add("Plan engine, whole plans per second (one core)", `${fmt(Number(out.plansPerSecond))} plans/s`, "", "info");
-  add("Plan engine, p99 per whole plan", `${fmt(Number(out.p99Us), 1)} µs (p50 ${fmt(Number(out.p50Us), 1)} µs)`, "< 1 ms", check(Number(out.p99Us) < 1000));
+  add(
+    "Plan engine, p99 per whole plan",
+    `${fmt(Number(out.p99Us), 1)} µs (p50 ${fmt(Number(out.p50Us), 1)} µs)`,
+    "< 1 ms",
+    check(Number(out.p99Us) < 1000),
+  );
 }
 
 async function benchInbox() {
@@ -99,15 +109,24 @@ async function benchInbox() {
     return;
   }
   if (!existsSync(path.join(ROOT, "app/routes/app-inbox.tsx"))) {
-    add(measure, "not measured: the inbox route (app/routes/app-inbox.tsx) is not in this tree yet", "< 50 ms", "skipped");
+    add(
+      measure,
+      "not measured: the inbox route (app/routes/app-inbox.tsx) is not in this tree yet",
+      "< 50 ms",
+      "skipped",
+    );
     return;
   }
   const run = await runToEnd(TSX, ["tests/bench/inbox.bench.ts"], { cwd: ROOT, timeoutMs: 120_000 });
   const out = lastJson(run.stdout);
-  if (run.code !== 0 || !out) throw new Error(`inbox.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${(run.stderr || run.stdout).slice(-300)}`);
+  if (run.code !== 0 || !out)
+    throw new Error(
+      `inbox.bench.ts ${run.timedOut ? "timed out" : `exited ${run.code}`}: ${(run.stderr || run.stdout).slice(-300)}`,
+    );
   const num = (key: string) => (typeof out[key] === "number" ? (out[key] as number) : null);
   const p95Key = "firstPageP95Ms" in out ? "firstPageP95Ms" : Object.keys(out).find((k) => /p95/i.test(k));
-  if (!p95Key || num(p95Key) === null) throw new Error(`inbox.bench.ts printed no p95 figure: ${JSON.stringify(out).slice(0, 200)}`);
+  if (!p95Key || num(p95Key) === null)
+    throw new Error(`inbox.bench.ts printed no p95 figure: ${JSON.stringify(out).slice(0, 200)}`);
   const p95 = num(p95Key)!;
   const p50 = num("firstPageP50Ms");
   add(
@@ -129,7 +148,12 @@ async function benchInbox() {
 
 function loadRow(measure: string, r: LoadResult, budget = "", verdict: Verdict = "info") {
   const errors = r.failed ? `, **${fmt(r.failed)} errors** (${JSON.stringify(r.statusCounts)})` : ", 0 errors";
-  add(measure, `${fmt(r.rps)} req/s, p50 ${ms(r.p50Ms)} ms, p99 ${ms(r.p99Ms)} ms${errors}`, budget, r.failed ? "MISS" : verdict);
+  add(
+    measure,
+    `${fmt(r.rps)} req/s, p50 ${ms(r.p50Ms)} ms, p99 ${ms(r.p99Ms)} ms${errors}`,
+    budget,
+    r.failed ? "MISS" : verdict,
+  );
 }
 
 async function countLeads(databaseFile: string): Promise<number> {
@@ -151,7 +175,9 @@ type Session = { cookie: string | null; inboxBuilt: boolean };
 async function planBodyFor(origin: string): Promise<string> {
   const catalogRes = await fetch(`${origin}/api/catalog/${COMPANY}`);
   if (!catalogRes.ok) throw new Error(`GET /api/catalog/${COMPANY} answered ${catalogRes.status}`);
-  const { items } = (await catalogRes.json()) as { items: { id: number; kind: string; faceIn?: number; backIn?: number }[] };
+  const { items } = (await catalogRes.json()) as {
+    items: { id: number; kind: string; faceIn?: number; backIn?: number }[];
+  };
   const first = (kind: string, ok: (i: (typeof items)[number]) => boolean = () => true) => {
     const item = items.find((i) => i.kind === kind && ok(i));
     if (!item) throw new Error(`The ${COMPANY} catalog has no ${kind}.`);
@@ -180,18 +206,35 @@ async function benchHttp(server: BenchServer, session: Session) {
     courses: 3,
     cap: { lengthIn: 16, depthIn: 12, thicknessIn: 2.5, innerOverhangIn: 1, priceCents: 950 },
     liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310 },
-    patio: { outsideRadiusIn: 96, border: { widthIn: 4, lengthIn: 8, priceCents: 80 }, paver: { lengthIn: 9, widthIn: 6, priceCents: 95 } },
+    patio: {
+      outsideRadiusIn: 96,
+      border: { widthIn: 4, lengthIn: 8, priceCents: 80 },
+      paver: { lengthIn: 9, widthIn: 6, priceCents: 95 },
+    },
   });
-  const postJson = (body: string) => ({ url: `${origin}/api/plan`, method: "POST", headers: { "Content-Type": "application/json", Origin: origin }, body });
+  const postJson = (body: string) => ({
+    url: `${origin}/api/plan`,
+    method: "POST",
+    headers: { "Content-Type": "application/json", Origin: origin },
+    body,
+  });
   for (const body of [planBody, inlineBody]) {
     const probe = await fetch(`${origin}/api/plan`, { method: "POST", headers: postJson(body).headers, body });
     if (!probe.ok) throw new Error(`POST /api/plan answered ${probe.status}: ${(await probe.text()).slice(0, 200)}`);
   }
-  const [health, plan, inline] = await loadInterleaved([{ url: `${origin}/api/health` }, postJson(planBody), postJson(inlineBody)], LOAD_SECONDS);
+  const [health, plan, inline] = await loadInterleaved(
+    [{ url: `${origin}/api/health` }, postJson(planBody), postJson(inlineBody)],
+    LOAD_SECONDS,
+  );
   loadRow("GET /api/health through the full app", health);
   loadRow("POST /api/plan, parts as catalog ids (liner, patio)", plan);
   const ratio = plan.rps / health.rps;
-  add("Plan API ÷ the app's /api/health, requests/s (alternating 2 s slices)", fmt(ratio, 2), "≥ 0.5", check(ratio >= 0.5));
+  add(
+    "Plan API ÷ the app's /api/health, requests/s (alternating 2 s slices)",
+    fmt(ratio, 2),
+    "≥ 0.5",
+    check(ratio >= 0.5),
+  );
   loadRow("POST /api/plan, the same job with inline sizes (no catalog reads)", inline);
   add("Plan API with inline sizes ÷ the app's /api/health", fmt(inline.rps / health.rps, 2), "", "info");
 
@@ -202,7 +245,12 @@ async function benchHttp(server: BenchServer, session: Session) {
     const inbox = await loadTest({ url: `${origin}/app/inbox`, headers: { Cookie: session.cookie } }, LOAD_SECONDS);
     loadRow("GET /app/inbox (owner signed in, demo data)", inbox);
   } else {
-    add("GET /app/inbox (owner signed in)", session.cookie ? "skipped: /app/inbox answers 404 in this build" : "skipped: sign-in failed", "", "skipped");
+    add(
+      "GET /app/inbox (owner signed in)",
+      session.cookie ? "skipped: /app/inbox answers 404 in this build" : "skipped: sign-in failed",
+      "",
+      "skipped",
+    );
   }
 
   const before = await countLeads(server.databaseFile);
@@ -223,7 +271,13 @@ async function benchHttp(server: BenchServer, session: Session) {
   const leads = await loadTest(
     {
       url: `${origin}/c/${COMPANY}`,
-      requests: [{ method: "POST", headers: { "Content-Type": contentType, Origin: origin }, setupRequest: (request) => ({ ...request, body: leadForm().body }) }],
+      requests: [
+        {
+          method: "POST",
+          headers: { "Content-Type": contentType, Origin: origin },
+          setupRequest: (request) => ({ ...request, body: leadForm().body }),
+        },
+      ],
     },
     LEAD_LOAD_SECONDS,
     0,
@@ -256,15 +310,27 @@ async function benchBundles() {
   const withThree = report.routes.filter((r) => r.threeFiles.length);
   add(
     "Routes whose initial JS carries three.js",
-    withThree.length ? withThree.map((r) => `${r.url}: ${r.threeFiles.join(", ")}`).join("; ") : `none of ${report.routes.length}`,
+    withThree.length
+      ? withThree.map((r) => `${r.url}: ${r.threeFiles.join(", ")}`).join("; ")
+      : `none of ${report.routes.length}`,
     "none",
     check(withThree.length === 0),
   );
   const with3d = report.routes.filter((x) => x.shows3d);
   const configurator = with3d.find((r) => r.id === "routes/configurator");
   if (configurator) {
-    add("Initial JS of the configurator /c/:companySlug (gzipped)", `${fmt(configurator.initialKb, 1)} kB`, "no three.js before hydration", check(configurator.threeFiles.length === 0));
-    add("Lazy 3D preview chunk (gzipped, after hydration)", `${fmt(configurator.lazy3dKb, 1)} kB (${configurator.lazy3dFiles.join(", ")})`, "not in initial JS", check(configurator.threeFiles.length === 0));
+    add(
+      "Initial JS of the configurator /c/:companySlug (gzipped)",
+      `${fmt(configurator.initialKb, 1)} kB`,
+      "no three.js before hydration",
+      check(configurator.threeFiles.length === 0),
+    );
+    add(
+      "Lazy 3D preview chunk (gzipped, after hydration)",
+      `${fmt(configurator.lazy3dKb, 1)} kB (${configurator.lazy3dFiles.join(", ")})`,
+      "not in initial JS",
+      check(configurator.threeFiles.length === 0),
+    );
   }
   const others = with3d.filter((r) => r !== configurator);
   if (others.length) {
@@ -320,7 +386,15 @@ async function startBareServer(): Promise<BareServer> {
   const origin = `http://127.0.0.1:${port}`;
   const child = startProcess("node", ["server.mjs", bare.serverEntry], {
     cwd: ROOT,
-    env: { ...process.env, NODE_ENV: "production", PORT: String(port), HOST: "127.0.0.1", APP_ORIGIN: origin, ACCESS_LOG: "off", BARE_DATABASE_FILE: bare.databaseFile },
+    env: {
+      ...process.env,
+      NODE_ENV: "production",
+      PORT: String(port),
+      HOST: "127.0.0.1",
+      APP_ORIGIN: origin,
+      ACCESS_LOG: "off",
+      BARE_DATABASE_FILE: bare.databaseFile,
+    },
   });
   const stop = async () => {
     await stopProcess(child);
@@ -346,7 +420,12 @@ async function benchHealthVsBare(app: BenchServer, bare: BareServer) {
   loadRow("GET /api/health, bare React Router 7 resource route (JSON only)", bareJson);
   loadRow("GET /api/health-db, bare React Router 7 resource route with libSQL `select 1`", bareDb);
   const ratio = full.rps / bareJson.rps;
-  add("/api/health requests/s, full app ÷ bare route (alternating 2 s slices)", fmt(ratio, 2), "≥ 0.8", check(ratio >= 0.8));
+  add(
+    "/api/health requests/s, full app ÷ bare route (alternating 2 s slices)",
+    fmt(ratio, 2),
+    "≥ 0.8",
+    check(ratio >= 0.8),
+  );
   add("/api/health requests/s, full app ÷ bare route with `select 1`", fmt(full.rps / bareDb.rps, 2), "", "info");
   const perRequestMs = (rps: number) => 1000 / rps;
   const dbMs = perRequestMs(bareDb.rps) - perRequestMs(bareJson.rps);
@@ -376,12 +455,17 @@ const CLUSTER_CONNECTIONS = 20;
 async function benchCluster() {
   const [onePort, twoPort] = [await freePort(), await freePort()];
   const appOrigin = `http://127.0.0.1:${twoPort}`;
-  const first = await startBenchServer(ROOT, { name: "bench-cluster", env: { TRUST_PROXY: "loopback", APP_ORIGIN: appOrigin } });
+  const first = await startBenchServer(ROOT, {
+    name: "bench-cluster",
+    env: { TRUST_PROXY: "loopback", APP_ORIGIN: appOrigin },
+  });
   try {
     const second = await startBenchServer(ROOT, { joins: first });
     try {
       const lbOne = startProcess(TSX, ["scripts/balancer.ts", "--port", String(onePort), first.origin], { cwd: ROOT });
-      const lbTwo = startProcess(TSX, ["scripts/balancer.ts", "--port", String(twoPort), first.origin, second.origin], { cwd: ROOT });
+      const lbTwo = startProcess(TSX, ["scripts/balancer.ts", "--port", String(twoPort), first.origin, second.origin], {
+        cwd: ROOT,
+      });
       try {
         await waitForHealth(`http://127.0.0.1:${onePort}`, lbOne);
         await waitForHealth(appOrigin, lbTwo);
@@ -395,8 +479,15 @@ async function benchCluster() {
           connections: CLUSTER_CONNECTIONS,
         });
         for (const port of [onePort, twoPort]) {
-          const probe = await fetch(`http://127.0.0.1:${port}/api/plan`, { method: "POST", headers: target(port).headers, body });
-          if (!probe.ok) throw new Error(`POST /api/plan through the balancer on ${port} answered ${probe.status}: ${(await probe.text()).slice(0, 200)}`);
+          const probe = await fetch(`http://127.0.0.1:${port}/api/plan`, {
+            method: "POST",
+            headers: target(port).headers,
+            body,
+          });
+          if (!probe.ok)
+            throw new Error(
+              `POST /api/plan through the balancer on ${port} answered ${probe.status}: ${(await probe.text()).slice(0, 200)}`,
+            );
         }
         const cores = os.availableParallelism();
         const meter = async () => {
@@ -461,7 +552,12 @@ async function benchSoak() {
     "info",
   );
   if (soak.readings.length < 2) {
-    add("Soak: memory at the end ÷ after warm-up", "the soak was shorter than 2 minutes: nothing to compare", "≤ 1.2", "skipped");
+    add(
+      "Soak: memory at the end ÷ after warm-up",
+      "the soak was shorter than 2 minutes: nothing to compare",
+      "≤ 1.2",
+      "skipped",
+    );
     return;
   }
   const heapRatio = end.heapUsed / warm.heapUsed;
@@ -472,7 +568,12 @@ async function benchSoak() {
     "≤ 1.2",
     check(heapRatio <= 1.2),
   );
-  add(`Soak: RSS after gc, minute ${end.minute} ÷ minute 1`, `${fmt(rssRatio, 2)} (${mib(warm.rss)} → ${mib(end.rss)})`, "≤ 1.2", check(rssRatio <= 1.2));
+  add(
+    `Soak: RSS after gc, minute ${end.minute} ÷ minute 1`,
+    `${fmt(rssRatio, 2)} (${mib(warm.rss)} → ${mib(end.rss)})`,
+    "≤ 1.2",
+    check(rssRatio <= 1.2),
+  );
 }
 
 const LIGHTHOUSE_RUNS = Number(process.env.LIGHTHOUSE_RUNS ?? 3);
@@ -491,14 +592,26 @@ const median = (values: number[]) => {
 async function benchLighthouse(origin: string, session: Session, bare: BareServer | null) {
   type Page = { name: string; label: string; url: string; headers?: Record<string, string> };
   const pages: Page[] = [
-    ...(bare ? [{ name: "bare", label: "bare React Router 7 page (the machine's floor)", url: `${bare.origin}/` }] : []),
+    ...(bare
+      ? [{ name: "bare", label: "bare React Router 7 page (the machine's floor)", url: `${bare.origin}/` }]
+      : []),
     { name: "landing", label: "landing page /", url: `${origin}/` },
     { name: "configurator", label: `configurator /c/${COMPANY}`, url: `${origin}/c/${COMPANY}` },
   ];
   if (session.cookie && session.inboxBuilt) {
-    pages.push({ name: "inbox", label: "inbox /app/inbox (owner signed in)", url: `${origin}/app/inbox`, headers: { Cookie: session.cookie } });
+    pages.push({
+      name: "inbox",
+      label: "inbox /app/inbox (owner signed in)",
+      url: `${origin}/app/inbox`,
+      headers: { Cookie: session.cookie },
+    });
   } else {
-    add("Lighthouse mobile, inbox /app/inbox", session.cookie ? "skipped: /app/inbox answers 404 in this build" : "skipped: sign-in failed", "CLS < 0.1", "skipped");
+    add(
+      "Lighthouse mobile, inbox /app/inbox",
+      session.cookie ? "skipped: /app/inbox answers 404 in this build" : "skipped: sign-in failed",
+      "CLS < 0.1",
+      "skipped",
+    );
   }
   await mkdir(path.dirname(RESULTS_FILE), { recursive: true });
   const runs = new Map<string, LighthouseFigures[]>(pages.map((p) => [p.name, []]));
@@ -539,16 +652,37 @@ async function benchLighthouse(origin: string, session: Session, bare: BareServe
     );
     if (page.name === "configurator") {
       add(`${label}: LCP, median`, `${s(m.lcp)} (runs: ${each((f) => s(f.lcpMs))})`, "< 1.5 s", check(m.lcp < 1500));
-      add(`${label}: total blocking time, median`, `${fmt(m.tbt)} ms (runs: ${each((f) => `${fmt(f.tbtMs)} ms`)})`, "< 300 ms", check(m.tbt < 300));
-      add(`${label}: performance score, median`, `${fmt(m.score)} (runs: ${each((f) => String(f.score))})`, "≥ 90", check(m.score >= 90));
+      add(
+        `${label}: total blocking time, median`,
+        `${fmt(m.tbt)} ms (runs: ${each((f) => `${fmt(f.tbtMs)} ms`)})`,
+        "< 300 ms",
+        check(m.tbt < 300),
+      );
+      add(
+        `${label}: performance score, median`,
+        `${fmt(m.score)} (runs: ${each((f) => String(f.score))})`,
+        "≥ 90",
+        check(m.score >= 90),
+      );
     }
     if (page.name === "landing") {
       add(`${label}: LCP, median`, `${s(m.lcp)} (runs: ${each((f) => s(f.lcpMs))})`, "< 1.2 s", check(m.lcp < 1200));
       const floor = runs.get("bare");
-      if (floor?.length) add(`${label}: LCP ÷ the bare page's LCP (medians)`, fmt(m.lcp / median(floor.map((f) => f.lcpMs)), 2), "", "info");
+      if (floor?.length)
+        add(
+          `${label}: LCP ÷ the bare page's LCP (medians)`,
+          fmt(m.lcp / median(floor.map((f) => f.lcpMs)), 2),
+          "",
+          "info",
+        );
     }
     if (page.name === "landing" || page.name === "inbox") {
-      add(`${label}: CLS, every run`, `worst ${fmt(m.clsWorst, 3)} (runs: ${each((f) => fmt(f.cls, 3))})`, "< 0.1", check(m.clsWorst < 0.1));
+      add(
+        `${label}: CLS, every run`,
+        `worst ${fmt(m.clsWorst, 3)} (runs: ${each((f) => fmt(f.cls, 3))})`,
+        "< 0.1",
+        check(m.clsWorst < 0.1),
+      );
     }
   }
   for (const failure of failures) notes.push(`Lighthouse run failed: ${failure}`);
@@ -581,7 +715,9 @@ function renderTable(info: Awaited<ReturnType<typeof describeMachine>>): string 
     "",
     "| measure | result | budget | verdict | load avg |",
     "| --- | --- | --- | --- | --- |",
-    ...rows.map((r) => `| ${cell(r.measure)} | ${cell(r.result)} | ${cell(r.budget || "—")} | ${r.verdict} | ${r.load} |`),
+    ...rows.map(
+      (r) => `| ${cell(r.measure)} | ${cell(r.result)} | ${cell(r.budget || "—")} | ${r.verdict} | ${r.load} |`,
+    ),
   ];
   if (notes.length) lines.push("", ...notes.map((n) => `- ${n}`));
   return `${lines.join("\n")}\n`;
@@ -591,7 +727,10 @@ function renderTable(info: Awaited<ReturnType<typeof describeMachine>>): string 
  * `--only=cluster,soak` runs just those parts (engine, inbox, bundles, http, health, browser,
  * lighthouse, cluster, soak), for working on one of them; a full run is what the README reports.
  */
-const only = process.argv.find((a) => a.startsWith("--only="))?.slice("--only=".length).split(",");
+const only = process.argv
+  .find((a) => a.startsWith("--only="))
+  ?.slice("--only=".length)
+  .split(",");
 const wanted = (part: string) => !only || only.includes(part);
 
 async function main() {
@@ -628,7 +767,8 @@ async function benchOnOneServer() {
       session.cookie = await signIn(s.origin, OWNER.email, OWNER.password);
       const inbox = await fetch(`${s.origin}/app/inbox`, { headers: { Cookie: session.cookie }, redirect: "manual" });
       session.inboxBuilt = inbox.status !== 404;
-      if (session.inboxBuilt && inbox.status !== 200) throw new Error(`GET /app/inbox as the owner answered ${inbox.status}`);
+      if (session.inboxBuilt && inbox.status !== 200)
+        throw new Error(`GET /app/inbox as the owner answered ${inbox.status}`);
     });
 
     if (wanted("http")) await step("HTTP load", 120_000, () => benchHttp(s, session));
@@ -638,15 +778,32 @@ async function benchOnOneServer() {
       });
     }
     const b = bare as BareServer | null;
-    if (wanted("health") && b) await step("/api/health against a bare React Router 7 app", 120_000, () => benchHealthVsBare(s, b));
+    if (wanted("health") && b)
+      await step("/api/health against a bare React Router 7 app", 120_000, () => benchHealthVsBare(s, b));
     const loadedMiB = await residentMiB(s.pid);
-    add("Server resident memory (VmRSS), idle after start", idleMiB === null ? "unreadable" : `${fmt(idleMiB, 1)} MiB`, "", "info");
-    add("Server resident memory (VmRSS), after the HTTP load", loadedMiB === null ? "unreadable" : `${fmt(loadedMiB, 1)} MiB`, "", "info");
+    add(
+      "Server resident memory (VmRSS), idle after start",
+      idleMiB === null ? "unreadable" : `${fmt(idleMiB, 1)} MiB`,
+      "",
+      "info",
+    );
+    add(
+      "Server resident memory (VmRSS), after the HTTP load",
+      loadedMiB === null ? "unreadable" : `${fmt(loadedMiB, 1)} MiB`,
+      "",
+      "info",
+    );
 
     if (wanted("browser")) await step("3D preview in Chromium", 90_000, () => benchBrowser(s.origin));
-    if (wanted("lighthouse")) await step(`Lighthouse, ${LIGHTHOUSE_RUNS} runs`, 600_000, () => benchLighthouse(s.origin, session, b));
+    if (wanted("lighthouse"))
+      await step(`Lighthouse, ${LIGHTHOUSE_RUNS} runs`, 600_000, () => benchLighthouse(s.origin, session, b));
     const endMiB = await residentMiB(s.pid);
-    add("Server resident memory (VmRSS), at the end of the run", endMiB === null ? "unreadable" : `${fmt(endMiB, 1)} MiB`, "", "info");
+    add(
+      "Server resident memory (VmRSS), at the end of the run",
+      endMiB === null ? "unreadable" : `${fmt(endMiB, 1)} MiB`,
+      "",
+      "info",
+    );
   } finally {
     if (server) await (server as BenchServer).stop();
     if (bare) await (bare as BareServer).stop();
@@ -688,7 +845,9 @@ try {
   await report();
   const failed = rows.filter((r) => r.verdict === "error" || r.verdict === "MISS");
   if (failed.length) {
-    console.error(`bench: ${failed.length} budget(s) missed or not measured: ${failed.map((r) => r.measure).join("; ")}`);
+    console.error(
+      `bench: ${failed.length} budget(s) missed or not measured: ${failed.map((r) => r.measure).join("; ")}`,
+    );
     exitCode = 1;
   }
 } catch (error) {

@@ -28,7 +28,13 @@ async function auditPaths(page: Page, paths: string[]): Promise<{ violations: Fi
       }
       const result = await new AxeBuilder({ page }).analyze();
       for (const v of result.violations) {
-        violations.push({ url: path, width, rule: v.id, help: v.help, targets: v.nodes.slice(0, 4).map((n) => n.target.join(" ")) });
+        violations.push({
+          url: path,
+          width,
+          rule: v.id,
+          help: v.help,
+          targets: v.nodes.slice(0, 4).map((n) => n.target.join(" ")),
+        });
       }
     }
   }
@@ -36,7 +42,10 @@ async function auditPaths(page: Page, paths: string[]): Promise<{ violations: Fi
 }
 
 function expectClean({ violations, overflows }: { violations: Finding[]; overflows: string[] }) {
-  expect([...violations.map((v) => `${v.url} @${v.width}px ${v.rule}: ${v.help} → ${v.targets.join(" | ")}`), ...overflows]).toEqual([]);
+  expect([
+    ...violations.map((v) => `${v.url} @${v.width}px ${v.rule}: ${v.help} → ${v.targets.join(" | ")}`),
+    ...overflows,
+  ]).toEqual([]);
 }
 
 /** The first lead links of the signed-in person's inbox or jobs list. */
@@ -67,8 +76,12 @@ test("every page a homeowner sees has no accessibility violations and fits a 360
   await sendRequest(page, { name: "Ada Penrose", email });
   const sentPath = new URL(page.url()).pathname;
   const consultPath = sentPath.replace("/sent/", "/consult/");
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 }).toBe(1);
-  const link = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec((await listMail()).find((m) => m.to.includes(email))!.text)![0];
+  await expect
+    .poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 })
+    .toBe(1);
+  const link = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec(
+    (await listMail()).find((m) => m.to.includes(email))!.text,
+  )![0];
   const welcomePath = `${new URL(link).pathname}${new URL(link).hash}`;
   const before = await auditPaths(page, [welcomePath]);
   await page.goto(welcomePath);
@@ -92,7 +105,10 @@ test("every page a homeowner sees has no accessibility violations and fits a 360
   await page.goto("/my");
   const movePath = await page.getByRole("link", { name: "Move to another time" }).getAttribute("href");
   const after = await auditPaths(page, ["/my", movePath!, sentPath, consultPath, donePath, "/c/cinder-slate"]);
-  expectClean({ violations: [...before.violations, ...after.violations], overflows: [...before.overflows, ...after.overflows] });
+  expectClean({
+    violations: [...before.violations, ...after.violations],
+    overflows: [...before.overflows, ...after.overflows],
+  });
 });
 
 test("every page the owner sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
@@ -126,13 +142,30 @@ test("every supplier page the owner sees has no accessibility violations and fit
   await signIn(page, "owner@cinder-slate.test");
   const job = await leadPathFrom(page, "/app/jobs");
   // The seed sends the stone-ordered job's orders, so the first one exists.
-  expectClean(await auditPaths(page, ["/app/suppliers", "/app/supplier-orders", "/app/supplier-orders/1", `${job}/supplier-orders`]));
+  expectClean(
+    await auditPaths(page, [
+      "/app/suppliers",
+      "/app/supplier-orders",
+      "/app/supplier-orders/1",
+      `${job}/supplier-orders`,
+    ]),
+  );
 });
 
 test("every page the estimator sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
   await signIn(page, "estimator@cinder-slate.test");
   const lead = await leadPathFrom(page, "/app/inbox");
-  expectClean(await auditPaths(page, ["/app/inbox", lead, `${lead}/design`, "/app/schedule", "/app/consult-hours", "/app/catalog", "/app/jobs"]));
+  expectClean(
+    await auditPaths(page, [
+      "/app/inbox",
+      lead,
+      `${lead}/design`,
+      "/app/schedule",
+      "/app/consult-hours",
+      "/app/catalog",
+      "/app/jobs",
+    ]),
+  );
 });
 
 test("every page the crew sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {

@@ -24,7 +24,9 @@ async function waitForHydration(page: Page) {
   await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
 }
 
-test("changing the bowl size updates the price and summary without a navigation, and a reload keeps the design", async ({ page }) => {
+test("changing the bowl size updates the price and summary without a navigation, and a reload keeps the design", async ({
+  page,
+}) => {
   await page.goto("/c/cinder-slate?stone=&liner=none&units=14");
   await waitForHydration(page);
   await page.evaluate(() => ((window as unknown as { __marker: string }).__marker = "still-here"));
@@ -49,8 +51,19 @@ test("changing the bowl size updates the price and summary without a navigation,
 
 test("the 3D preview draws the pit from the plan (its pixels are not blank)", async ({ page }) => {
   await page.goto("/c/cinder-slate?patio=8&liner=firebrick");
-  await expect.poll(() => page.evaluate(() => (window as unknown as { __emberwrightScene?: { drawCalls: number } }).__emberwrightScene?.drawCalls ?? 0), { timeout: 20_000 }).toBeGreaterThan(0);
-  const calls = await page.evaluate(() => (window as unknown as { __emberwrightScene: { drawCalls: number } }).__emberwrightScene.drawCalls);
+  await expect
+    .poll(
+      () =>
+        page.evaluate(
+          () =>
+            (window as unknown as { __emberwrightScene?: { drawCalls: number } }).__emberwrightScene?.drawCalls ?? 0,
+        ),
+      { timeout: 20_000 },
+    )
+    .toBeGreaterThan(0);
+  const calls = await page.evaluate(
+    () => (window as unknown as { __emberwrightScene: { drawCalls: number } }).__emberwrightScene.drawCalls,
+  );
   expect(calls).toBeLessThan(30);
   expect(await countColours(page, "canvas")).toBeGreaterThan(20);
   await screenshotBothWidths(page, "configurator");
@@ -73,7 +86,10 @@ test("without WebGL the preview shows a dimensioned plan and the rest of the pag
   await expect(page.getByTestId("price-range")).not.toHaveText(before!);
 });
 
-test("a homeowner sends a request with two photos, both e-mails arrive, the link sets a password and /my shows it; another homeowner cannot see it", async ({ page, browser }) => {
+test("a homeowner sends a request with two photos, both e-mails arrive, the link sets a password and /my shows it; another homeowner cannot see it", async ({
+  page,
+  browser,
+}) => {
   const stamp = Date.now();
   const email = `hazel.${stamp}@example.test`;
   await page.goto("/c/cinder-slate?units=15&courses=4");
@@ -84,8 +100,22 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
   await page.getByLabel("Street address").fill("7 Birchwood Court");
   await page.getByLabel("Town").fill("Millbrook Falls");
   await page.getByLabel(/Photos of the spot/).setInputFiles([
-    { name: "yard.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082", "hex") },
-    { name: "corner.png", mimeType: "image/png", buffer: Buffer.from("89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082", "hex") },
+    {
+      name: "yard.png",
+      mimeType: "image/png",
+      buffer: Buffer.from(
+        "89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082",
+        "hex",
+      ),
+    },
+    {
+      name: "corner.png",
+      mimeType: "image/png",
+      buffer: Buffer.from(
+        "89504e470d0a1a0a0000000d494844520000000200000002080600000072b60d240000000970485973000003e8000003e801b57b526b0000001149444154089963385161f31f8419600c00588c09edd7703b820000000049454e44ae426082",
+        "hex",
+      ),
+    },
   ]);
   await page.getByLabel(/may contact me/).check();
   await page.getByRole("button", { name: "Send my request" }).click();
@@ -95,8 +125,16 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
 
   type Message = { id: string; to: string[]; subject: string; text: string };
   const findMail = async () => (await (await fetch(`${MAIL}/_fake/messages`)).json()) as Message[];
-  await expect.poll(async () => (await findMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 }).toBe(1);
-  await expect.poll(async () => (await findMail()).filter((m) => m.subject === "New fire-pit request: Hazel Quinlan, Millbrook Falls").length, { timeout: 15_000 }).toBe(1);
+  await expect
+    .poll(async () => (await findMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 })
+    .toBe(1);
+  await expect
+    .poll(
+      async () =>
+        (await findMail()).filter((m) => m.subject === "New fire-pit request: Hazel Quinlan, Millbrook Falls").length,
+      { timeout: 15_000 },
+    )
+    .toBe(1);
   const welcome = (await findMail()).find((m) => m.to.includes(email))!;
   // The token rides in the fragment: no request line (and so no access log) ever carries it.
   const link = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec(welcome.text)![0];
@@ -135,8 +173,12 @@ test("a homeowner sends a request with two photos, both e-mails arrive, the link
   await otherPage.getByLabel(/may contact me/).check();
   await otherPage.getByRole("button", { name: "Send my request" }).click();
   await expect(otherPage.getByRole("heading", { name: /Thank you, Ivo/ })).toBeVisible();
-  await expect.poll(async () => (await findMail()).filter((m) => m.to.includes(otherEmail)).length, { timeout: 15_000 }).toBe(1);
-  const otherLink = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec((await findMail()).find((m) => m.to.includes(otherEmail))!.text)![0];
+  await expect
+    .poll(async () => (await findMail()).filter((m) => m.to.includes(otherEmail)).length, { timeout: 15_000 })
+    .toBe(1);
+  const otherLink = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec(
+    (await findMail()).find((m) => m.to.includes(otherEmail))!.text,
+  )![0];
   await otherPage.goto(linkPath(otherLink));
   await otherPage.getByLabel("New password").fill("another-long-password");
   await otherPage.getByLabel("Type it again").fill("another-long-password");

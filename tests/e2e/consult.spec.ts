@@ -1,5 +1,17 @@
 import { expect, test, type Page } from "@playwright/test";
-import { chooseConsultTime, freeTimesOn, holdConsultTime, longDayOf, listMail, PAYMENTS_FAKE, screenshotBothWidths, screenshotThreeWidths, sendRequest, signIn, MAIL_FAKE } from "./helpers";
+import {
+  chooseConsultTime,
+  freeTimesOn,
+  holdConsultTime,
+  longDayOf,
+  listMail,
+  PAYMENTS_FAKE,
+  screenshotBothWidths,
+  screenshotThreeWidths,
+  sendRequest,
+  signIn,
+  MAIL_FAKE,
+} from "./helpers";
 
 async function payWith(page: Page, card: string) {
   await page.getByLabel("Card number").fill(card);
@@ -9,7 +21,10 @@ async function payWith(page: Page, card: string) {
   await page.getByRole("button", { name: /^Pay / }).click();
 }
 
-test("a homeowner books a consult: the declined card leaves the slot free, the good card books it, the e-mail carries a calendar file, staff see it and cancel with a refund", async ({ page, browser }) => {
+test("a homeowner books a consult: the declined card leaves the slot free, the good card books it, the e-mail carries a calendar file, staff see it and cancel with a refund", async ({
+  page,
+  browser,
+}) => {
   const email = `juno.${Date.now()}@example.test`;
   await sendRequest(page, { name: "Juno Marsh", email });
   await page.getByRole("link", { name: "Book a design consult" }).click();
@@ -21,15 +36,25 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
   await payWith(page, "4000 0000 0000 0002");
   await expect(page.getByText("Your card was declined.")).toBeVisible();
   await page.getByRole("link", { name: "Cancel and go back" }).click();
-  await expect(page.getByText("You left the payment page, so nothing was charged and that time is free again.")).toBeVisible();
+  await expect(
+    page.getByText("You left the payment page, so nothing was charged and that time is free again."),
+  ).toBeVisible();
   // The same time is offered again, first on its day.
   expect(await holdConsultTime(page, 0)).toEqual(slot);
   await payWith(page, "4242 4242 4242 4242");
   await expect(page.getByRole("heading", { name: "Your design consult is booked" })).toBeVisible({ timeout: 20_000 });
   await screenshotBothWidths(page, "consult-booked");
 
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked")).length, { timeout: 15_000 }).toBe(1);
-  const confirmation = (await listMail()).find((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"))!;
+  await expect
+    .poll(
+      async () =>
+        (await listMail()).filter((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked")).length,
+      { timeout: 15_000 },
+    )
+    .toBe(1);
+  const confirmation = (await listMail()).find(
+    (m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"),
+  )!;
   const full = await (await fetch(`${MAIL_FAKE}/_fake/messages/${confirmation.id}`)).json();
   expect(full.attachments.map((a: { filename: string }) => a.filename)).toEqual(["design-consult.ics"]);
   expect(Buffer.from(full.attachments[0].content, "base64").toString()).toContain("BEGIN:VEVENT");
@@ -41,12 +66,24 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
   await staffPage.goto("/app/schedule");
   await expect(staffPage.getByRole("link", { name: "Juno Marsh" })).toBeVisible();
   await screenshotBothWidths(staffPage, "schedule");
-  const refundsBefore = ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length;
+  const refundsBefore = ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data
+    .length;
   await staffPage.getByRole("button", { name: "Cancel and refund the consult with Juno Marsh" }).click();
   await staffPage.getByRole("button", { name: "Yes, cancel and refund" }).click();
   await expect(staffPage.getByText(/Consult cancelled/)).toBeVisible();
-  await expect.poll(async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length, { timeout: 15_000 }).toBe(refundsBefore + 1);
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email) && /cancelled and refunded/.test(m.subject)).length, { timeout: 15_000 }).toBe(1);
+  await expect
+    .poll(
+      async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data.length,
+      { timeout: 15_000 },
+    )
+    .toBe(refundsBefore + 1);
+  await expect
+    .poll(
+      async () =>
+        (await listMail()).filter((m) => m.to.includes(email) && /cancelled and refunded/.test(m.subject)).length,
+      { timeout: 15_000 },
+    )
+    .toBe(1);
   // The request's stage follows the cancelled booking: no longer "consult booked" in the inbox.
   await staffPage.goto(`/app/inbox?q=${encodeURIComponent(email)}`);
   await expect(staffPage.getByRole("row", { name: /Juno Marsh/ })).toContainText("Request in");
@@ -57,11 +94,19 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
 test("with the payment service down, pressing pay says so, nothing is charged, and a retry works", async ({ page }) => {
   await sendRequest(page, { name: "Otto Varga", email: `otto.${Date.now()}@example.test` });
   await page.getByRole("link", { name: "Book a design consult" }).click();
-  await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, { method: "POST", body: JSON.stringify({ down: true }), headers: { "Content-Type": "application/json" } });
+  await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, {
+    method: "POST",
+    body: JSON.stringify({ down: true }),
+    headers: { "Content-Type": "application/json" },
+  });
   try {
     const slot = await holdConsultTime(page, 2);
     await expect(page.getByRole("alert")).toContainText("Nothing was charged");
-    await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, { method: "POST", body: JSON.stringify({ down: false }), headers: { "Content-Type": "application/json" } });
+    await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, {
+      method: "POST",
+      body: JSON.stringify({ down: false }),
+      headers: { "Content-Type": "application/json" },
+    });
     // The time stays held for this homeowner (offered to nobody else); continuing opens the checkout.
     await page.goto(page.url());
     await expect(page.getByRole("radio").and(page.locator(`[value="${slot.time}"]`))).toHaveCount(0);
@@ -69,11 +114,17 @@ test("with the payment service down, pressing pay says so, nothing is charged, a
     await expect(page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));
     await expect(page.getByRole("button", { name: /^Pay / })).toBeVisible();
   } finally {
-    await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, { method: "POST", body: JSON.stringify({ down: false }), headers: { "Content-Type": "application/json" } });
+    await fetch(`${PAYMENTS_FAKE}/_fake/fail-next`, {
+      method: "POST",
+      body: JSON.stringify({ down: false }),
+      headers: { "Content-Type": "application/json" },
+    });
   }
 });
 
-test("a homeowner on a phone picks a day, then a time: the page says how long the visit is and what to have ready, and the payment page names the contractor", async ({ page }) => {
+test("a homeowner on a phone picks a day, then a time: the page says how long the visit is and what to have ready, and the payment page names the contractor", async ({
+  page,
+}) => {
   await sendRequest(page, { name: "Ines Aldana", email: `ines.${Date.now()}@example.test` });
   await page.setViewportSize({ width: 390, height: 844 });
   await page.getByRole("link", { name: "Book a design consult" }).click();
@@ -112,5 +163,7 @@ test("a homeowner on a phone picks a day, then a time: the page says how long th
   await page.getByRole("button", { name: "Hold this time and pay $150.00" }).click();
   await expect(page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));
   await expect(page.getByText("Fire pit design consult with Cinder & Slate Outdoor Works")).toBeVisible();
-  await expect(page.getByText(/Paid to Cinder & Slate Outdoor Works for a visit to 21 Juniper Row, Millbrook Falls/)).toBeVisible();
+  await expect(
+    page.getByText(/Paid to Cinder & Slate Outdoor Works for a visit to 21 Juniper Row, Millbrook Falls/),
+  ).toBeVisible();
 });

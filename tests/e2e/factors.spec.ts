@@ -4,7 +4,10 @@ import { screenshotBothWidths, signIn } from "./helpers";
 async function openConfigurator(page: Page) {
   await page.goto("/c/cinder-slate?units=14&liner=none");
   await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
-  return page.getByTestId("plan-summary").getByText(/spare$/).last();
+  return page
+    .getByTestId("plan-summary")
+    .getByText(/spare$/)
+    .last();
 }
 
 async function saveFactors(page: Page) {
@@ -12,7 +15,9 @@ async function saveFactors(page: Page) {
   await expect(page.getByRole("status")).toHaveText("Factors saved.");
 }
 
-test("an owner changes estimating factors and the configurator, a revision and its breakdown follow them", async ({ page }) => {
+test("an owner changes estimating factors and the configurator, a revision and its breakdown follow them", async ({
+  page,
+}) => {
   // Many page loads on a shared machine: more than the default 30 s.
   test.setTimeout(120_000);
   await signIn(page, "owner@cinder-slate.test");

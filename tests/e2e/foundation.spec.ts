@@ -18,13 +18,25 @@ test("the sign-in page shows one generic message for a wrong password", async ({
 
 // Each role lands where its work is: the office in the inbox, the crew at their jobs.
 const NAV_BY_ROLE = [
-  { email: "owner@cinder-slate.test", role: "Owner", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Orders", "Catalog", "Team", "Company settings"] },
-  { email: "estimator@cinder-slate.test", role: "Estimator", home: /\/app\/inbox$/, links: ["Inbox", "Schedule", "Catalog"] },
+  {
+    email: "owner@cinder-slate.test",
+    role: "Owner",
+    home: /\/app\/inbox$/,
+    links: ["Inbox", "Schedule", "Orders", "Catalog", "Team", "Company settings"],
+  },
+  {
+    email: "estimator@cinder-slate.test",
+    role: "Estimator",
+    home: /\/app\/inbox$/,
+    links: ["Inbox", "Schedule", "Catalog"],
+  },
   { email: "crew@cinder-slate.test", role: "Crew", home: /\/app\/jobs$/, links: ["Jobs", "Catalog"] },
 ];
 
 for (const person of NAV_BY_ROLE) {
-  test(`the ${person.role.toLowerCase()} signs in and sees the ${person.role.toLowerCase()}'s navigation`, async ({ page }) => {
+  test(`the ${person.role.toLowerCase()} signs in and sees the ${person.role.toLowerCase()}'s navigation`, async ({
+    page,
+  }) => {
     await signIn(page, person.email);
     await expect(page).toHaveURL(person.home);
     const nav = page.getByRole("navigation", { name: "Workspace" });
@@ -43,7 +55,9 @@ test("the estimator cannot open company settings", async ({ page }) => {
 for (const url of ["/app", "/app/catalog", "/app/catalog/1", "/app/settings", "/app/catalog/new"]) {
   test(`an anonymous visitor asking for ${url} is sent to sign-in`, async ({ page }) => {
     await page.goto(url);
-    await expect(page).toHaveURL(new RegExp(`/login\\?redirectTo=${encodeURIComponent(url).replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}$`));
+    await expect(page).toHaveURL(
+      new RegExp(`/login\\?redirectTo=${encodeURIComponent(url).replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}$`),
+    );
     await expect(page.getByRole("heading", { name: "Sign in" })).toBeVisible();
   });
 }

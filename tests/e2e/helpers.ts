@@ -13,7 +13,10 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
 
 /** Saves a full-page screenshot at desktop and phone width under data/screens (kept between runs, unlike test-results/). */
 export async function screenshotBothWidths(page: Page, name: string) {
-  for (const [label, width, height] of [["desktop", 1280, 900], ["phone", 375, 812]] as const) {
+  for (const [label, width, height] of [
+    ["desktop", 1280, 900],
+    ["phone", 375, 812],
+  ] as const) {
     await page.setViewportSize({ width, height });
     await page.screenshot({ path: `data/screens/${name}-${label}.png`, fullPage: true });
     // The page must not scroll sideways on a phone: that is what "looks broken" usually is.
@@ -34,13 +37,21 @@ export async function sendRequest(page: Page, person: { name: string; email: str
   await page.getByLabel("Town").fill(person.town ?? "Millbrook Falls");
   await page.getByLabel(/may contact me/).check();
   await page.getByRole("button", { name: "Send my request" }).click();
-  await expect(page.getByRole("heading", { name: new RegExp(`Thank you, ${person.name.split(" ")[0]}`) })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: new RegExp(`Thank you, ${person.name.split(" ")[0]}`) }),
+  ).toBeVisible();
 }
 
 export const MAIL_FAKE = `http://127.0.0.1:${process.env.E2E_EMAIL_PORT ?? 4110}`;
 export const PAYMENTS_FAKE = `http://127.0.0.1:${process.env.E2E_PAYMENTS_PORT ?? 4120}`;
 
-export type FakeMessage = { id: string; to: string[]; subject: string; text: string; attachments?: { filename: string }[] };
+export type FakeMessage = {
+  id: string;
+  to: string[];
+  subject: string;
+  text: string;
+  attachments?: { filename: string }[];
+};
 
 export async function listMail(): Promise<FakeMessage[]> {
   return (await (await fetch(`${MAIL_FAKE}/_fake/messages`)).json()) as FakeMessage[];
@@ -84,7 +95,9 @@ export async function freeTimesOn(dayLink: Locator): Promise<number> {
 /** "Thursday, December 3" for a day link, from its `?day=YYYY-MM-DD`. */
 export async function longDayOf(dayLink: Locator): Promise<string> {
   const day = /[?&]day=(\d{4}-\d{2}-\d{2})/.exec((await dayLink.getAttribute("href"))!)![1];
-  return new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  return new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", timeZone: "UTC" }).format(
+    new Date(`${day}T12:00:00Z`),
+  );
 }
 
 /** Picks the nth free time and presses the pay button: the browser goes to the payment page. */

@@ -26,7 +26,9 @@ async function isWhollyInView(page: Page, selector: string) {
   }, selector);
 }
 
-test("a homeowner on a desktop scrolls down to the distances: the preview and the price stay in view and follow the changes", async ({ page }) => {
+test("a homeowner on a desktop scrolls down to the distances: the preview and the price stay in view and follow the changes", async ({
+  page,
+}) => {
   await page.setViewportSize({ width: 1366, height: 768 });
   await openConfigurator(page);
   const setback = page.getByLabel("Distance to the nearest building, deck or fence");
@@ -41,7 +43,9 @@ test("a homeowner on a desktop scrolls down to the distances: the preview and th
   expect(await isWhollyInView(page, "[data-testid=price-range]")).toBe(true);
 });
 
-test("a homeowner on a phone moves the bowl slider far below the preview: a price strip stays at the top and shows the new size", async ({ page }) => {
+test("a homeowner on a phone moves the bowl slider far below the preview: a price strip stays at the top and shows the new size", async ({
+  page,
+}) => {
   await page.setViewportSize({ width: 390, height: 844 });
   await openConfigurator(page, "?units=14");
   await expect(page.getByTestId("preview-strip")).toHaveCount(0);
@@ -64,12 +68,16 @@ test("a homeowner on a phone moves the bowl slider far below the preview: a pric
   await expect(strip).toHaveCount(0);
 });
 
-test("a homeowner types a setback closer than the contractor works to: the note appears beside the field and stays in the safety list", async ({ page }) => {
+test("a homeowner types a setback closer than the contractor works to: the note appears beside the field and stays in the safety list", async ({
+  page,
+}) => {
   await openConfigurator(page);
   const setback = page.getByLabel("Distance to the nearest building, deck or fence");
   await expect(setback).toHaveAccessibleDescription(/Your contractor works to at least \d+ ft/);
   await setback.fill("10");
-  await expect(setback).toHaveAccessibleDescription(/10 ft from the nearest building or combustible, closer than the \d+ ft required/);
+  await expect(setback).toHaveAccessibleDescription(
+    /10 ft from the nearest building or combustible, closer than the \d+ ft required/,
+  );
   await expect(setback).toHaveAttribute("aria-invalid", "true");
   // Beside the field: the note is the field's next sibling block, not somewhere down the page.
   const note = page.getByText(/The spot chosen is 10 ft from the nearest building/).first();
@@ -82,13 +90,17 @@ test("a homeowner types a setback closer than the contractor works to: the note 
   await expect(page.locator('li[data-code="setback-too-close"]')).toHaveCount(0);
 });
 
-test("a homeowner with the bowl sized to the steel ring tabs to the bowl slider and moves it: the box unticks and the page says why", async ({ page }) => {
+test("a homeowner with the bowl sized to the steel ring tabs to the bowl slider and moves it: the box unticks and the page says why", async ({
+  page,
+}) => {
   await openConfigurator(page);
   const fit = page.getByLabel("Size the bowl to fit my steel ring insert");
   await expect(fit).toBeChecked();
   const slider = bowlSlider(page);
   await expect(slider).toBeEnabled();
-  await expect(slider).toHaveAccessibleDescription(/The bowl follows the .+ Moving the slider picks your own size instead/);
+  await expect(slider).toHaveAccessibleDescription(
+    /The bowl follows the .+ Moving the slider picks your own size instead/,
+  );
   // The keyboard reaches it: one Shift+Tab back from the box.
   await fit.focus();
   await page.keyboard.press("Shift+Tab");
@@ -97,12 +109,16 @@ test("a homeowner with the bowl sized to the steel ring tabs to the bowl slider 
   await page.keyboard.press("ArrowRight");
   await expect(fit).not.toBeChecked();
   await expect(slider).not.toHaveAttribute("aria-valuetext", bowlBefore!);
-  await expect(page.getByText(/The bowl is the size you picked\. Tick the box to size it to the .+ again\./)).toBeVisible();
+  await expect(
+    page.getByText(/The bowl is the size you picked\. Tick the box to size it to the .+ again\./),
+  ).toBeVisible();
   await fit.check();
   await expect(slider).toHaveAttribute("aria-valuetext", bowlBefore!);
 });
 
-test("a homeowner ticks the patio: asked for its size first with a suggestion, and the price changes only once they add it", async ({ page }) => {
+test("a homeowner ticks the patio: asked for its size first with a suggestion, and the price changes only once they add it", async ({
+  page,
+}) => {
   await openConfigurator(page);
   await expect(price(page)).toContainText("$");
   const before = await price(page).textContent();
@@ -128,12 +144,32 @@ test("a homeowner ticks the patio: asked for its size first with a suggestion, a
   await expect(price(page)).toHaveText(before!);
 });
 
-test("a homeowner sends a big phone photo: it goes up upright, at most 2560 px, without its location, with a progress bar", async ({ page }) => {
+test("a homeowner sends a big phone photo: it goes up upright, at most 2560 px, without its location, with a progress bar", async ({
+  page,
+}) => {
   // A 4032 × 3024 landscape JPEG marked "rotate 90° clockwise to view" (EXIF Orientation 6, as phones
   // write a portrait shot) with a GPS position, as a phone camera would save it.
-  const photo = await sharp({ create: { width: 4032, height: 3024, channels: 3, background: { r: 120, g: 140, b: 90 }, noise: { type: "gaussian", mean: 128, sigma: 30 } } })
+  const photo = await sharp({
+    create: {
+      width: 4032,
+      height: 3024,
+      channels: 3,
+      background: { r: 120, g: 140, b: 90 },
+      noise: { type: "gaussian", mean: 128, sigma: 30 },
+    },
+  })
     .jpeg({ quality: 92 })
-    .withMetadata({ orientation: 6, exif: { IFD3: { GPSLatitudeRef: "N", GPSLatitude: "44/1 30/1 0/1", GPSLongitudeRef: "W", GPSLongitude: "93/1 10/1 0/1" } } })
+    .withMetadata({
+      orientation: 6,
+      exif: {
+        IFD3: {
+          GPSLatitudeRef: "N",
+          GPSLatitude: "44/1 30/1 0/1",
+          GPSLongitudeRef: "W",
+          GPSLongitude: "93/1 10/1 0/1",
+        },
+      },
+    })
     .toBuffer();
   const original = await sharp(photo).metadata();
   expect(original.orientation).toBe(6);
@@ -146,7 +182,9 @@ test("a homeowner sends a big phone photo: it goes up upright, at most 2560 px, 
   await page.getByLabel("Phone", { exact: true }).fill("(970) 555-0164");
   await page.getByLabel("Street address").fill("3 Ferncliff Row");
   await page.getByLabel("Town").fill("Millbrook Falls");
-  await page.getByLabel(/Photos of the spot/).setInputFiles({ name: "IMG_4410.jpg", mimeType: "image/jpeg", buffer: photo });
+  await page
+    .getByLabel(/Photos of the spot/)
+    .setInputFiles({ name: "IMG_4410.jpg", mimeType: "image/jpeg", buffer: photo });
   await page.getByLabel(/may contact me/).check();
   // Notes whether the progress bar ever showed (a loopback upload is over in moments), and keeps the
   // photo exactly as the page hands it to XMLHttpRequest (the page moves on without a reload).
@@ -189,10 +227,14 @@ test("a homeowner sends a big phone photo: it goes up upright, at most 2560 px, 
   expect(shrunk.orientation).toBeUndefined();
   expect(shrunk.exif).toBeUndefined();
   expect(data.length).toBeLessThan(photo.length / 2);
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 }).toBe(1);
+  await expect
+    .poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 })
+    .toBe(1);
 });
 
-test("a homeowner designing in millimetres sends a request: the sent page and /my say the design in millimetres and metres", async ({ page }) => {
+test("a homeowner designing in millimetres sends a request: the sent page and /my say the design in millimetres and metres", async ({
+  page,
+}) => {
   const email = `tomasz.${Date.now()}@example.test`;
   await sendRequest(page, { name: "Tomasz Weller", email }, "?unit=mm&units=15&setback=30");
   const design = page.getByRole("region", { name: "Your design" });
@@ -201,7 +243,9 @@ test("a homeowner designing in millimetres sends a request: the sent page and /m
   await expect(design).not.toContainText(/\d in\b/);
   await expect(design).not.toContainText(/\d ft\b/);
 
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 }).toBe(1);
+  await expect
+    .poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 })
+    .toBe(1);
   const welcome = (await listMail()).find((m) => m.to.includes(email))!;
   expect(welcome.text).toMatch(/\d+ mm across inside/);
   const link = /http:\/\/[^\s)\]]+\/welcome#[\w-]+/.exec(welcome.text)![0];
@@ -215,7 +259,9 @@ test("a homeowner designing in millimetres sends a request: the sent page and /m
   await expect(request).not.toContainText(/\d in\b/);
 });
 
-test("a homeowner types 'call me' as their phone: told beside the field; a real number reaches the office in E.164 and reads formatted", async ({ page }) => {
+test("a homeowner types 'call me' as their phone: told beside the field; a real number reaches the office in E.164 and reads formatted", async ({
+  page,
+}) => {
   await openConfigurator(page);
   const email = `odette.${Date.now()}@example.test`;
   await page.getByLabel("Your name").fill("Odette Vasquez-Lind");
@@ -238,24 +284,35 @@ test("a homeowner types 'call me' as their phone: told beside the field; a real 
 
   await signIn(page, "owner@cinder-slate.test");
   await page.goto(`/app/inbox?q=${encodeURIComponent("Odette Vasquez-Lind")}`);
-  await page.getByRole("link", { name: /Odette Vasquez-Lind/ }).first().click();
+  await page
+    .getByRole("link", { name: /Odette Vasquez-Lind/ })
+    .first()
+    .click();
   // NANP number typed with dots; stored as +19705550188 (ITU-T E.164), shown the North American way.
   const call = page.getByRole("link", { name: "(970) 555-0188" });
   await expect(call).toBeVisible();
   await expect(call).toHaveAttribute("href", "tel:+19705550188");
 });
 
-test("a keyboard user tabs to the chosen stone, the 3D view and the plan: each says what it is, and focus looks unlike the chosen border", async ({ page }) => {
+test("a keyboard user tabs to the chosen stone, the 3D view and the plan: each says what it is, and focus looks unlike the chosen border", async ({
+  page,
+}) => {
   await openConfigurator(page);
   const chosen = page.locator("label:has(input[name=stone]:checked)");
   const radio = chosen.locator("input[name=stone]");
   // Reach the stone cards with the keyboard, from the units switch just before the form.
   await page.getByRole("button", { name: "Millimetres" }).focus();
-  for (let i = 0; i < 30 && !(await radio.evaluate((el) => el === document.activeElement)); i++) await page.keyboard.press("Tab");
+  for (let i = 0; i < 30 && !(await radio.evaluate((el) => el === document.activeElement)); i++)
+    await page.keyboard.press("Tab");
   await expect(radio).toBeFocused();
   const look = await chosen.evaluate((el) => {
     const s = getComputedStyle(el);
-    return { outlineStyle: s.outlineStyle, outlineColor: s.outlineColor, outlineWidth: s.outlineWidth, borderColor: s.borderTopColor };
+    return {
+      outlineStyle: s.outlineStyle,
+      outlineColor: s.outlineColor,
+      outlineWidth: s.outlineWidth,
+      borderColor: s.borderTopColor,
+    };
   });
   expect(look.outlineStyle).toBe("dashed");
   expect(look.outlineWidth).toBe("3px");
@@ -264,7 +321,9 @@ test("a keyboard user tabs to the chosen stone, the 3D view and the plan: each s
 
   // The 3D view: a text alternative with the design's sizes, and reachable by Tab.
   const scene = page.locator('[data-preview="3d"] [role="img"]');
-  await expect(scene).toHaveAttribute("aria-label", /3D view of the fire pit: Bowl .+ across inside/, { timeout: 20_000 });
+  await expect(scene).toHaveAttribute("aria-label", /3D view of the fire pit: Bowl .+ across inside/, {
+    timeout: 20_000,
+  });
   await expect(scene).toHaveAttribute("tabindex", "0");
   // The plan view: chosen from the keyboard, then reachable by Tab with its own description.
   await page.getByRole("button", { name: "Plan view" }).focus();
@@ -277,7 +336,9 @@ test("a keyboard user tabs to the chosen stone, the 3D view and the plan: each s
   await expect(plan).toHaveAttribute("aria-label", /bowl/i);
 });
 
-test("a homeowner mid-design (price strip showing, a patio being sized, a setback note) meets axe-core at desktop and phone widths", async ({ page }) => {
+test("a homeowner mid-design (price strip showing, a patio being sized, a setback note) meets axe-core at desktop and phone widths", async ({
+  page,
+}) => {
   for (const width of [1366, 390]) {
     await page.setViewportSize({ width, height: width > 400 ? 768 : 844 });
     await openConfigurator(page, "?setback=10");
@@ -286,7 +347,11 @@ test("a homeowner mid-design (price strip showing, a patio being sized, a setbac
     await page.getByLabel("Distance to the nearest building, deck or fence").scrollIntoViewIfNeeded();
     if (width < 1024) await expect(page.getByTestId("preview-strip")).toBeVisible();
     const result = await new AxeBuilder({ page }).analyze();
-    expect(result.violations.map((v) => `@${width}px ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`)).toEqual([]);
+    expect(
+      result.violations.map(
+        (v) => `@${width}px ${v.id}: ${v.help} → ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`,
+      ),
+    ).toEqual([]);
     expect(await page.evaluate(() => document.documentElement.scrollWidth - window.innerWidth)).toBeLessThanOrEqual(0);
   }
 });

@@ -3,9 +3,25 @@
  * person did. Mail and payments go through the local fakes.
  */
 import { expect, test, type Page } from "@playwright/test";
-import { chooseConsultTime, holdConsultTime, listMail, MAIL_FAKE, PAYMENTS_FAKE, screenshotBothWidths, screenshotThreeWidths, sendRequest, signIn, type FakeMessage } from "./helpers";
+import {
+  chooseConsultTime,
+  holdConsultTime,
+  listMail,
+  MAIL_FAKE,
+  PAYMENTS_FAKE,
+  screenshotBothWidths,
+  screenshotThreeWidths,
+  sendRequest,
+  signIn,
+  type FakeMessage,
+} from "./helpers";
 
-type FullMessage = Omit<FakeMessage, "attachments"> & { html: string; from: string; reply_to: string[]; attachments: { filename: string; content: string; content_type?: string; contentType?: string }[] };
+type FullMessage = Omit<FakeMessage, "attachments"> & {
+  html: string;
+  from: string;
+  reply_to: string[];
+  attachments: { filename: string; content: string; content_type?: string; contentType?: string }[];
+};
 
 async function readMail(id: string): Promise<FullMessage> {
   return (await (await fetch(`${MAIL_FAKE}/_fake/messages/${id}`)).json()) as FullMessage;
@@ -16,9 +32,11 @@ async function waitForMail(match: (m: FakeMessage) => boolean): Promise<FullMess
   return readMail((await listMail()).find(match)!.id);
 }
 
-const icsText = (m: FullMessage, name: string) => Buffer.from(m.attachments.find((a) => a.filename === name)!.content, "base64").toString();
+const icsText = (m: FullMessage, name: string) =>
+  Buffer.from(m.attachments.find((a) => a.filename === name)!.content, "base64").toString();
 /** An iCalendar property's value, with folded lines joined (RFC 5545 3.1). */
-const icsValue = (ics: string, name: string) => new RegExp(`^${name}(?:;[^:]*)?:(.*)$`, "m").exec(ics.replace(/\r?\n[ \t]/g, ""))?.[1]?.trim();
+const icsValue = (ics: string, name: string) =>
+  new RegExp(`^${name}(?:;[^:]*)?:(.*)$`, "m").exec(ics.replace(/\r?\n[ \t]/g, ""))?.[1]?.trim();
 
 /** A new homeowner sends a request and sets a password from the welcome e-mail; returns where to book its consult. */
 async function homeownerWithAccount(page: Page, name: string): Promise<{ email: string; consultPath: string }> {
@@ -52,12 +70,16 @@ async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ ema
   return { email };
 }
 
-test("a homeowner who cancels a paid consult is asked to confirm, and the calendar event is withdrawn with the same UID", async ({ page }) => {
+test("a homeowner who cancels a paid consult is asked to confirm, and the calendar event is withdrawn with the same UID", async ({
+  page,
+}) => {
   const { email } = await homeownerWithPaidConsult(page, "Noor Castellane");
   await page.goto("/my");
   await page.getByRole("button", { name: "Cancel the consult" }).click();
   // One click does nothing yet: the question names the fee and offers a way back.
-  await expect(page.getByText(/Cancel your design consult with Cinder & Slate Outdoor Works\? The fee of \$150\.00 goes back/)).toBeVisible();
+  await expect(
+    page.getByText(/Cancel your design consult with Cinder & Slate Outdoor Works\? The fee of \$150\.00 goes back/),
+  ).toBeVisible();
   await page.getByRole("button", { name: "Keep my consult" }).click();
   await expect(page.getByRole("button", { name: "Cancel the consult" })).toBeFocused();
   await page.getByRole("button", { name: "Cancel the consult" }).click();
@@ -79,7 +101,9 @@ test("a homeowner who cancels a paid consult is asked to confirm, and the calend
   expect(icsValue(withdrawal, "DTSTART")).toBe(icsValue(original, "DTSTART"));
 });
 
-test("a homeowner cancels a consult: the office's e-mail speaks to the office, the homeowner's to the homeowner", async ({ page }) => {
+test("a homeowner cancels a consult: the office's e-mail speaks to the office, the homeowner's to the homeowner", async ({
+  page,
+}) => {
   const { email } = await homeownerWithPaidConsult(page, "Ilka Brennan");
   await page.goto("/my");
   await page.getByRole("button", { name: "Cancel the consult" }).click();
@@ -91,7 +115,9 @@ test("a homeowner cancels a consult: the office's e-mail speaks to the office, t
   expect(homeowner.text).toContain("You cancelled it.");
   expect(homeowner.text).toContain("refunded to the card that paid it");
 
-  const office = await waitForMail((m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult cancelled: Ilka Brennan"));
+  const office = await waitForMail(
+    (m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult cancelled: Ilka Brennan"),
+  );
   expect(office.text).toContain("Ilka Brennan cancelled it online.");
   expect(office.text).toContain("refunded to Ilka Brennan");
   expect(office.text).not.toMatch(/Hello Cinder/);
@@ -109,13 +135,25 @@ test("the owner tries to block a day that has passed and is told so, with nothin
   await expect(page.getByText("No days blocked.")).toBeVisible();
 });
 
-test("the owner blocks a day with a paid consult: warned at once, cancels and refunds it from there after confirming", async ({ page }) => {
+test("the owner blocks a day with a paid consult: warned at once, cancels and refunds it from there after confirming", async ({
+  page,
+}) => {
   await signIn(page, "owner@north-ridge.test");
   await page.goto("/app/schedule");
   const firstDay = page.getByRole("main").getByRole("heading", { level: 2 }).first();
   const day = (await firstDay.locator("time").getAttribute("datetime"))!;
-  const dayLabel = new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
-  const customer = (await page.getByRole("region", { name: (await firstDay.textContent())! }).getByRole("link").first().textContent())!;
+  const dayLabel = new Intl.DateTimeFormat("en-US", {
+    weekday: "long",
+    month: "long",
+    day: "numeric",
+    year: "numeric",
+    timeZone: "UTC",
+  }).format(new Date(`${day}T12:00:00Z`));
+  const customer = (await page
+    .getByRole("region", { name: (await firstDay.textContent())! })
+    .getByRole("link")
+    .first()
+    .textContent())!;
 
   await page.goto("/app/consult-hours");
   await page.getByLabel("Block a day").fill(day);
@@ -159,7 +197,9 @@ test("the owner opens consult hours on a phone and every time field fits the scr
   await screenshotBothWidths(page, "consult-hours");
 });
 
-test("the estimator revises a design: the inbox price, its price sort and the CSV show the revision's price", async ({ page }) => {
+test("the estimator revises a design: the inbox price, its price sort and the CSV show the revision's price", async ({
+  page,
+}) => {
   await signIn(page, "estimator@cinder-slate.test");
   await page.goto("/app/inbox?q=Hattie");
   const row = page.getByRole("row", { name: /Hattie Lindqvist/ });
@@ -173,7 +213,8 @@ test("the estimator revises a design: the inbox price, its price sort and the CS
   const start = Number(await courses.inputValue());
   // Clicks before hydration do nothing; click until the count moves once.
   await expect(async () => {
-    if (Number(await courses.inputValue()) === start) await page.getByRole("button", { name: "One course more" }).click();
+    if (Number(await courses.inputValue()) === start)
+      await page.getByRole("button", { name: "One course more" }).click();
     await expect(courses).toHaveValue(String(start + 1), { timeout: 1_000 });
   }).toPass({ timeout: 10_000 });
   await expect(page.getByRole("region", { name: "This revision" })).toHaveAttribute("aria-busy", "false");
@@ -182,21 +223,32 @@ test("the estimator revises a design: the inbox price, its price sort and the CS
   await expect(page).toHaveURL(new RegExp(`${leadPath}$`));
 
   await page.goto("/app/inbox?q=Hattie");
-  const after = (await page.getByRole("row", { name: /Hattie Lindqvist/ }).getByRole("cell").nth(4).textContent())!.trim();
+  const after = (await page
+    .getByRole("row", { name: /Hattie Lindqvist/ })
+    .getByRole("cell")
+    .nth(4)
+    .textContent())!.trim();
   expect(after).not.toBe(before);
   expect(after.replace(/\s/g, "")).toBe(revised);
 
   // Sorted by price, the revised request sits where its new price puts it.
   await page.goto("/app/inbox?sort=price&dir=desc");
-  const prices = await page.getByRole("row").evaluateAll((rows) =>
-    rows.slice(1).map((r) => Number((r.querySelectorAll("td")[4]?.textContent ?? "").split("–")[0]!.replace(/[^\d]/g, "")) || null),
-  );
+  const prices = await page
+    .getByRole("row")
+    .evaluateAll((rows) =>
+      rows
+        .slice(1)
+        .map(
+          (r) => Number((r.querySelectorAll("td")[4]?.textContent ?? "").split("–")[0]!.replace(/[^\d]/g, "")) || null,
+        ),
+    );
   const priced = prices.filter((p): p is number => p !== null);
   expect(priced).toEqual([...priced].sort((a, b) => b - a));
 
   const csv = await (await page.request.get("/app/inbox.csv?q=Hattie")).text();
   // RFC 4180 fields: quoted ones may hold commas.
-  const fields = (line: string) => [...line.matchAll(/("(?:[^"]|"")*"|[^,]*)(?:,|$)/g)].map((m) => m[1]!.replace(/^"|"$/g, "").replace(/""/g, '"'));
+  const fields = (line: string) =>
+    [...line.matchAll(/("(?:[^"]|"")*"|[^,]*)(?:,|$)/g)].map((m) => m[1]!.replace(/^"|"$/g, "").replace(/""/g, '"'));
   const header = fields(csv.split(/\r?\n/)[0]!);
   const line = csv.split(/\r?\n/).find((l) => l.includes("Hattie Lindqvist"))!;
   const csvLow = Number(fields(line)[header.indexOf("Price low (USD)")]);
@@ -204,7 +256,9 @@ test("the estimator revises a design: the inbox price, its price sort and the CS
   expect(Math.abs(csvLow - shownLow)).toBeLessThanOrEqual(1);
 });
 
-test("the owner puts a request on hold without a reason: the error shows, the choice stays, and adding the reason saves it", async ({ page }) => {
+test("the owner puts a request on hold without a reason: the error shows, the choice stays, and adding the reason saves it", async ({
+  page,
+}) => {
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/inbox?q=Wendell");
   await page.getByRole("link", { name: "Wendell Ashgrove" }).click();
@@ -219,10 +273,15 @@ test("the owner puts a request on hold without a reason: the error shows, the ch
   await expect(page.getByLabel(/^Move the job/)).toHaveAccessibleName(/now: On hold/);
 });
 
-test("the estimator picks an end date before the start date: the error shows beside the dates and the list stays", async ({ page }) => {
+test("the estimator picks an end date before the start date: the error shows beside the dates and the list stays", async ({
+  page,
+}) => {
   await signIn(page, "estimator@cinder-slate.test");
   await page.goto("/app/inbox");
-  const total = (await page.getByRole("navigation", { name: "Pages" }).getByText(/requests? ·/).textContent())!;
+  const total = (await page
+    .getByRole("navigation", { name: "Pages" })
+    .getByText(/requests? ·/)
+    .textContent())!;
   await page.getByLabel("Received from").fill("2026-06-10");
   await page.getByLabel("to", { exact: true }).fill("2026-06-01");
   await page.getByRole("button", { name: "Apply" }).click();
@@ -235,7 +294,9 @@ test("the estimator picks an end date before the start date: the error shows bes
   await expect(page.getByRole("alert")).toBeFocused();
 });
 
-test("a homeowner in millimetres designs a tall wall: the notes speak millimetres and the wall is called too tall to sit on", async ({ page }) => {
+test("a homeowner in millimetres designs a tall wall: the notes speak millimetres and the wall is called too tall to sit on", async ({
+  page,
+}) => {
   await page.goto("/c/cinder-slate?unit=mm&courses=8");
   await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
   const notes = page.getByRole("status").filter({ has: page.getByRole("heading", { name: "Worth a second look" }) });
@@ -254,7 +315,9 @@ test("a homeowner in millimetres designs a tall wall: the notes speak millimetre
   await screenshotBothWidths(page, "configurator-mm-tall");
 });
 
-test("the owner types 'call me' as the company phone: refused with a message, nothing saved; a real number is stored in E.164 and shown formatted", async ({ page }) => {
+test("the owner types 'call me' as the company phone: refused with a message, nothing saved; a real number is stored in E.164 and shown formatted", async ({
+  page,
+}) => {
   await signIn(page, "owner@north-ridge.test");
   await page.goto("/app/settings");
   const phone = page.getByLabel("Phone", { exact: true });
@@ -276,7 +339,10 @@ test("the owner types 'call me' as the company phone: refused with a message, no
   await expect(call).toHaveAttribute("href", "tel:+19705550123");
 });
 
-test("the estimator opens a request whose homeowner booked a consult: the timeline reads in words and lists the consult e-mails", async ({ page, browser }) => {
+test("the estimator opens a request whose homeowner booked a consult: the timeline reads in words and lists the consult e-mails", async ({
+  page,
+  browser,
+}) => {
   const { email } = await homeownerWithPaidConsult(page, "Oskar Leclerc");
   const staff = await browser.newContext();
   const office = await staff.newPage();
@@ -286,16 +352,31 @@ test("the estimator opens a request whose homeowner booked a consult: the timeli
   const timeline = office.getByRole("region", { name: "Timeline" });
   await expect(timeline).toContainText("Consult booked");
   await expect(timeline).not.toContainText("consult-booked");
-  await expect(timeline.getByRole("listitem").filter({ hasText: `to ${email}` }).filter({ hasText: "Design consult booked" })).toContainText("sent");
-  await expect(timeline.getByRole("listitem").filter({ hasText: "to office@cinder-slate.test" }).filter({ hasText: "Consult booked: Oskar Leclerc" })).toBeVisible();
-  await expect(timeline.getByRole("listitem").filter({ hasText: "Tomorrow: your design consult" })).toContainText("waiting to be sent");
+  await expect(
+    timeline
+      .getByRole("listitem")
+      .filter({ hasText: `to ${email}` })
+      .filter({ hasText: "Design consult booked" }),
+  ).toContainText("sent");
+  await expect(
+    timeline
+      .getByRole("listitem")
+      .filter({ hasText: "to office@cinder-slate.test" })
+      .filter({ hasText: "Consult booked: Oskar Leclerc" }),
+  ).toBeVisible();
+  await expect(timeline.getByRole("listitem").filter({ hasText: "Tomorrow: your design consult" })).toContainText(
+    "waiting to be sent",
+  );
   // Every heading is words, not a code.
-  for (const heading of await timeline.getByRole("listitem").locator("p:first-child").allTextContents()) expect(heading).not.toMatch(/^[a-z]+(-[a-z]+)+$/);
+  for (const heading of await timeline.getByRole("listitem").locator("p:first-child").allTextContents())
+    expect(heading).not.toMatch(/^[a-z]+(-[a-z]+)+$/);
   await screenshotBothWidths(office, "lead-timeline");
   await staff.close();
 });
 
-test("the owner downloads cut-sheet PDFs: no page of the material order or a cut list goes without its heading", async ({ page }) => {
+test("the owner downloads cut-sheet PDFs: no page of the material order or a cut list goes without its heading", async ({
+  page,
+}) => {
   const { PDFParse } = await import("pdf-parse");
   await signIn(page, "owner@cinder-slate.test");
   // Requests whose tables used to run over a page break (their material orders are long enough).
@@ -312,8 +393,17 @@ test("the owner downloads cut-sheet PDFs: no page of the material order or a cut
     const titles = /^(The design|Cut list: .*|Material order|Safety on site)( \(continued\))?$/;
     let inTable: string | null = null;
     for (const [index, text] of pages.entries()) {
-      const lines = text.split("\n").map((l) => l.trim()).filter(Boolean);
-      if (index > 0 && inTable && lines.length && !titles.test(lines[0]!) && !/^(CUT SHEET|Cap template|Full-size)/i.test(lines[0]!)) {
+      const lines = text
+        .split("\n")
+        .map((l) => l.trim())
+        .filter(Boolean);
+      if (
+        index > 0 &&
+        inTable &&
+        lines.length &&
+        !titles.test(lines[0]!) &&
+        !/^(CUT SHEET|Cap template|Full-size)/i.test(lines[0]!)
+      ) {
         throw new Error(`${name}: page ${index + 1} continues "${inTable}" without a heading; it starts "${lines[0]}"`);
       }
       for (const line of lines) {
@@ -325,9 +415,12 @@ test("the owner downloads cut-sheet PDFs: no page of the material order or a cut
   }
 });
 
-const sessionCount = async () => ((await (await fetch(`${PAYMENTS_FAKE}/_fake/sessions`)).json()) as { data: unknown[] }).data.length;
+const sessionCount = async () =>
+  ((await (await fetch(`${PAYMENTS_FAKE}/_fake/sessions`)).json()) as { data: unknown[] }).data.length;
 
-test("a homeowner moves a paid consult to another time: nothing more is charged, the calendar file replaces the event, and the office is told", async ({ page }) => {
+test("a homeowner moves a paid consult to another time: nothing more is charged, the calendar file replaces the event, and the office is told", async ({
+  page,
+}) => {
   const { email } = await homeownerWithPaidConsult(page, "Tamsin Oakes");
   const booked = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult booked"));
   const uid = icsValue(icsText(booked, "design-consult.ics"), "UID");
@@ -356,12 +449,17 @@ test("a homeowner moves a paid consult to another time: nothing more is charged,
   expect(moved.from).toMatch(/^Cinder & Slate Outdoor Works <[^>]+>$/);
   expect(moved.reply_to).toEqual(["office@cinder-slate.test"]);
   expect(moved.text).toContain("(217) 555-0142");
-  const office = await waitForMail((m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult moved: Tamsin Oakes"));
+  const office = await waitForMail(
+    (m) => m.to.includes("office@cinder-slate.test") && m.subject.startsWith("Consult moved: Tamsin Oakes"),
+  );
   expect(office.text).toContain("Tamsin Oakes moved their design consult online");
   expect(office.reply_to).toEqual([]);
 });
 
-test("the estimator sends a revised design: the homeowner hears from the company and sees both plan drawings on their page", async ({ page, browser }) => {
+test("the estimator sends a revised design: the homeowner hears from the company and sees both plan drawings on their page", async ({
+  page,
+  browser,
+}) => {
   const { email } = await homeownerWithAccount(page, "Mira Solberg");
   const staff = await browser.newContext();
   const staffPage = await staff.newPage();
@@ -374,7 +472,8 @@ test("the estimator sends a revised design: the homeowner hears from the company
   const courses = staffPage.getByRole("spinbutton", { name: "Courses" });
   const start = Number(await courses.inputValue());
   await expect(async () => {
-    if (Number(await courses.inputValue()) === start) await staffPage.getByRole("button", { name: "One course more" }).click();
+    if (Number(await courses.inputValue()) === start)
+      await staffPage.getByRole("button", { name: "One course more" }).click();
     await expect(courses).toHaveValue(String(start + 1), { timeout: 1_000 });
   }).toPass({ timeout: 10_000 });
   await expect(staffPage.getByRole("region", { name: "This revision" })).toHaveAttribute("aria-busy", "false");
@@ -385,7 +484,9 @@ test("the estimator sends a revised design: the homeowner hears from the company
   await expect(staffPage.getByRole("button", { name: "Send revision 1 to Mira Solberg" })).toHaveCount(0);
   await staff.close();
 
-  const note = await waitForMail((m) => m.to.includes(email) && m.subject === "Your revised fire-pit design from Cinder & Slate Outdoor Works");
+  const note = await waitForMail(
+    (m) => m.to.includes(email) && m.subject === "Your revised fire-pit design from Cinder & Slate Outdoor Works",
+  );
   expect(note.from).toMatch(/^Cinder & Slate Outdoor Works <[^>]+>$/);
   expect(note.reply_to).toEqual(["office@cinder-slate.test"]);
   expect(note.text).toContain("(217) 555-0142");
@@ -400,7 +501,10 @@ test("the estimator sends a revised design: the homeowner hears from the company
   await screenshotThreeWidths(page, "my-requests");
 });
 
-test("the owner assigns a new request to the estimator: the estimator gets an e-mail with a link to it", async ({ page, browser }) => {
+test("the owner assigns a new request to the estimator: the estimator gets an e-mail with a link to it", async ({
+  page,
+  browser,
+}) => {
   const email = `pavla.${Date.now()}@example.test`;
   await sendRequest(page, { name: "Pavla Hruska", email });
   const staff = await browser.newContext();
@@ -416,7 +520,11 @@ test("the owner assigns a new request to the estimator: the estimator gets an e-
     await owner.getByRole("button", { name: "Assign", exact: true }).click();
     await expect(owner.getByText("Assigned to Theo Brandvold")).toBeVisible({ timeout: 2_000 });
   }).toPass({ timeout: 15_000 });
-  const mail = await waitForMail((m) => m.to.includes("estimator@cinder-slate.test") && m.subject === "Request assigned to you: Pavla Hruska, Millbrook Falls");
+  const mail = await waitForMail(
+    (m) =>
+      m.to.includes("estimator@cinder-slate.test") &&
+      m.subject === "Request assigned to you: Pavla Hruska, Millbrook Falls",
+  );
   expect(mail.text).toContain("Maren Okafor assigned you the fire-pit request from Pavla Hruska in Millbrook Falls");
   expect(mail.text).toContain(leadPath);
   expect(mail.from).toMatch(/^Cinder & Slate Outdoor Works </);

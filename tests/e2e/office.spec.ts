@@ -25,7 +25,9 @@ async function screenshotThreeWidths(page: Page, name: string, { reload = true }
   await page.setViewportSize({ width: 1366, height: 900 });
 }
 
-test("the owner adds a wall unit typing its sizes as 12 1/4, 7-1/2, 49/8 and 89 mm, and the catalog confirms it with each size named", async ({ page }) => {
+test("the owner adds a wall unit typing its sizes as 12 1/4, 7-1/2, 49/8 and 89 mm, and the catalog confirms it with each size named", async ({
+  page,
+}) => {
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/catalog/new");
   await expect(page.getByRole("button", { name: "Add item" })).toBeEnabled();
@@ -42,7 +44,9 @@ test("the owner adds a wall unit typing its sizes as 12 1/4, 7-1/2, 49/8 and 89 
   await page.getByRole("button", { name: "Add item" }).click();
 
   await expect(page).toHaveURL(/\/app\/catalog\?saved=\d+&added=1$/);
-  await expect(page.getByRole("status")).toHaveText("Added Office test taper: face 12 1/4 in · back 7 1/2 in · depth 6 1/8 in · height 3 1/2 in, cost $4.10 each.");
+  await expect(page.getByRole("status")).toHaveText(
+    "Added Office test taper: face 12 1/4 in · back 7 1/2 in · depth 6 1/8 in · height 3 1/2 in, cost $4.10 each.",
+  );
   const row = page.getByRole("row", { name: /Office test taper/ });
   await expect(row).toContainText("face 12 1/4 in");
   await expect(row).toContainText("height 3 1/2 in");
@@ -58,13 +62,18 @@ test("the owner adds a wall unit typing its sizes as 12 1/4, 7-1/2, 49/8 and 89 
   await expect(page.getByRole("status")).toHaveText(/^Saved Office test taper: face 12 1\/4 in · back 7 1\/2 in/);
 });
 
-test("the owner types a size the form cannot read and is taken to the message, which names the field and the ways to type it", async ({ page }) => {
+test("the owner types a size the form cannot read and is taken to the message, which names the field and the ways to type it", async ({
+  page,
+}) => {
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/catalog/1");
   const save = page.getByRole("button", { name: "Save changes" });
   await expect(save).toBeEnabled();
   // The first size field of the item, whatever its kind (a wall unit's face, a cap's length…).
-  const size = page.getByRole("group", { name: /^Size in inches/ }).getByRole("textbox").first();
+  const size = page
+    .getByRole("group", { name: /^Size in inches/ })
+    .getByRole("textbox")
+    .first();
   await size.fill("twelve and a bit");
   await save.click();
   await expect(page.getByRole("alert")).toBeFocused();
@@ -77,7 +86,9 @@ test("the owner types a size the form cannot read and is taken to the message, w
   await expect(page.getByRole("alert")).toBeFocused();
 });
 
-test("the owner sets a factor length as 1-1/4 and as 32 mm, and a refused factor brings focus to the summary", async ({ page }) => {
+test("the owner sets a factor length as 1-1/4 and as 32 mm, and a refused factor brings focus to the summary", async ({
+  page,
+}) => {
   await signIn(page, "owner@north-ridge.test");
   await page.goto("/app/settings/factors");
   const gap = page.getByRole("textbox", { name: "Gap around a steel ring" });
@@ -91,7 +102,9 @@ test("the owner sets a factor length as 1-1/4 and as 32 mm, and a refused factor
   await gap.fill("wide");
   await page.getByRole("button", { name: "Save factors" }).last().click();
   await expect(page.getByRole("alert")).toBeFocused();
-  await expect(page.getByText("Gap around a steel ring must be a length, like 12 1/4, 12-1/4, 49/4, 12.25 or 311 mm.")).toBeVisible();
+  await expect(
+    page.getByText("Gap around a steel ring must be a length, like 12 1/4, 12-1/4, 49/4, 12.25 or 311 mm."),
+  ).toBeVisible();
 
   // 31.75 mm is exactly 1 1/4 in (25.4 mm per inch, NIST SP 811).
   await gap.fill("31.75 mm");
@@ -102,7 +115,9 @@ test("the owner sets a factor length as 1-1/4 and as 32 mm, and a refused factor
   await expect(gap).toHaveValue(before);
 });
 
-test("the owner reads what a catalog item costs the company as cost, the same word the lead page's breakdown uses", async ({ page }) => {
+test("the owner reads what a catalog item costs the company as cost, the same word the lead page's breakdown uses", async ({
+  page,
+}) => {
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/catalog/1");
   await expect(page.getByLabel(/^Cost (each|per )/)).toBeVisible();
@@ -111,12 +126,16 @@ test("the owner reads what a catalog item costs the company as cost, the same wo
   await page.goto("/app/catalog");
   await expect(page.getByRole("columnheader", { name: /^Cost/ }).first()).toBeVisible();
   await expect(page.getByRole("columnheader", { name: /^Price/ })).toHaveCount(0);
-  const lead = await page.goto("/app/inbox").then(() => page.getByRole("main").locator('a[href^="/app/leads/"]').first().getAttribute("href"));
+  const lead = await page
+    .goto("/app/inbox")
+    .then(() => page.getByRole("main").locator('a[href^="/app/leads/"]').first().getAttribute("href"));
   await page.goto(lead!);
   await expect(page.getByRole("table", { name: "Price breakdown" }).getByText("Materials at cost")).toBeVisible();
 });
 
-test("the owner finds their time zone by typing a city, sees its local time, and saves it under its current name", async ({ page }) => {
+test("the owner finds their time zone by typing a city, sees its local time, and saves it under its current name", async ({
+  page,
+}) => {
   await signIn(page, "owner@north-ridge.test");
   await page.goto("/app/settings");
   const zone = page.getByLabel("Time zone", { exact: true });
@@ -144,7 +163,11 @@ test("the owner finds their time zone by typing a city, sees its local time, and
   await expect(zone).toHaveValue(before);
 });
 
-test("the owner copies the public page's full link and downloads its QR code for the truck", async ({ page, context, baseURL }) => {
+test("the owner copies the public page's full link and downloads its QR code for the truck", async ({
+  page,
+  context,
+  baseURL,
+}) => {
   await context.grantPermissions(["clipboard-read", "clipboard-write"]);
   await signIn(page, "owner@cinder-slate.test");
   await page.goto("/app/settings");
@@ -158,14 +181,27 @@ test("the owner copies the public page's full link and downloads its QR code for
   expect(await page.evaluate(() => navigator.clipboard.readText())).toBe(url);
   await expect(page.getByRole("img", { name: `QR code that opens ${url}` })).toBeVisible();
 
-  const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download the QR code (SVG)" }).click()]);
+  const [download] = await Promise.all([
+    page.waitForEvent("download"),
+    page.getByRole("link", { name: "Download the QR code (SVG)" }).click(),
+  ]);
   expect(download.suggestedFilename()).toBe("cinder-slate-qr-code.svg");
   const svg = readFileSync((await download.path())!, "utf8");
   // The qrcode library (the reference) encodes the full link, not a bare path, at error correction level M.
-  expect(svg).toBe(await QRCode.toString(url, { type: "svg", errorCorrectionLevel: "M", margin: 4, color: { dark: "#1c1917", light: "#ffffff" } }));
+  expect(svg).toBe(
+    await QRCode.toString(url, {
+      type: "svg",
+      errorCorrectionLevel: "M",
+      margin: 4,
+      color: { dark: "#1c1917", light: "#ffffff" },
+    }),
+  );
 });
 
-test("the owner reads the inbox on a 390 and a 360 px phone: every section, stage tab and filter is on screen, and a request sent since the last visit is marked unread in other words than its stage", async ({ page, browser }) => {
+test("the owner reads the inbox on a 390 and a 360 px phone: every section, stage tab and filter is on screen, and a request sent since the last visit is marked unread in other words than its stage", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(120_000);
   await signIn(page, "owner@cinder-slate.test");
   for (const width of [390, 360]) {

@@ -36,7 +36,10 @@ async function asHomeowner(browser: Browser) {
   return { context, page: await context.newPage() };
 }
 
-test("visit, proposal, signature and deposit: the estimator measures the yard and sends the proposal; the homeowner opens it, ticks an add-on, signs and pays with 4242…; staff see the job signed", async ({ page, browser }) => {
+test("visit, proposal, signature and deposit: the estimator measures the yard and sends the proposal; the homeowner opens it, ticks an add-on, signs and pays with 4242…; staff see the job signed", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(120_000);
   const customer = "Benedikt Farrow";
   await signIn(page, "estimator@cinder-slate.test");
@@ -58,7 +61,9 @@ test("visit, proposal, signature and deposit: the estimator measures the yard an
   await expect(page.getByRole("region", { name: "Timeline" })).toContainText("Consult booked → Yard measured");
 
   await page.getByRole("link", { name: "Write the proposal" }).click();
-  await expect(page.getByRole("region", { name: "Scope of work (from the plan)" })).toContainText("compact a base of crushed stone");
+  await expect(page.getByRole("region", { name: "Scope of work (from the plan)" })).toContainText(
+    "compact a base of crushed stone",
+  );
   await page.getByLabel("Fixed price").fill("4,850");
   await page.getByLabel("Add-on 1", { exact: true }).fill("Firebrick lining");
   await page.getByLabel("Add-on 1 price").fill("640");
@@ -102,9 +107,21 @@ test("visit, proposal, signature and deposit: the estimator measures the yard an
   await home.context.close();
 
   // Both sides got the signed PDF.
-  await expect.poll(async () => (await listMail()).filter((m) => /^Signed: Proposal/.test(m.subject) || /signed Proposal/.test(m.subject)).filter((m) => m.text.includes("Benedikt")).length, { timeout: 15_000 }).toBeGreaterThanOrEqual(2);
-  const signedMail = (await listMail()).find((m) => m.to.includes("benedikt.farrow@example.test") && /^Signed:/.test(m.subject))!;
-  const full = (await (await fetch(`${MAIL_FAKE}/_fake/messages/${signedMail.id}`)).json()) as { attachments: { filename: string; content: string }[] };
+  await expect
+    .poll(
+      async () =>
+        (await listMail())
+          .filter((m) => /^Signed: Proposal/.test(m.subject) || /signed Proposal/.test(m.subject))
+          .filter((m) => m.text.includes("Benedikt")).length,
+      { timeout: 15_000 },
+    )
+    .toBeGreaterThanOrEqual(2);
+  const signedMail = (await listMail()).find(
+    (m) => m.to.includes("benedikt.farrow@example.test") && /^Signed:/.test(m.subject),
+  )!;
+  const full = (await (await fetch(`${MAIL_FAKE}/_fake/messages/${signedMail.id}`)).json()) as {
+    attachments: { filename: string; content: string }[];
+  };
   expect(full.attachments[0]!.filename).toMatch(/-signed\.pdf$/);
   expect(Buffer.from(full.attachments[0]!.content, "base64").subarray(0, 5).toString()).toBe("%PDF-");
 
@@ -118,11 +135,17 @@ test("visit, proposal, signature and deposit: the estimator measures the yard an
   await expect(page.getByRole("link", { name: customer })).toBeVisible();
 });
 
-test("a declined card leaves the proposal signed but unpaid: nothing is charged, the homeowner can pay again, staff see it waiting for the deposit", async ({ page, browser }) => {
+test("a declined card leaves the proposal signed but unpaid: nothing is charged, the homeowner can pay again, staff see it waiting for the deposit", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(90_000);
   await signIn(page, "estimator@cinder-slate.test");
   await openLead(page, "Rafael Okonkwo-Reyes");
-  const link = await page.getByRole("region", { name: "Proposal and changes" }).getByRole("link", { name: /^Proposal \d+-1$/ }).getAttribute("href");
+  const link = await page
+    .getByRole("region", { name: "Proposal and changes" })
+    .getByRole("link", { name: /^Proposal \d+-1$/ })
+    .getAttribute("href");
 
   const home = await asHomeowner(browser);
   await home.page.goto(link!);
@@ -142,7 +165,9 @@ test("a declined card leaves the proposal signed but unpaid: nothing is charged,
 
   await page.reload();
   await expect(page.getByRole("heading", { name: "Waiting for the deposit" })).toBeVisible();
-  await expect(page.getByRole("region", { name: "Proposal and changes" })).toContainText("signed, waiting for the deposit");
+  await expect(page.getByRole("region", { name: "Proposal and changes" })).toContainText(
+    "signed, waiting for the deposit",
+  );
 });
 
 test("an expired proposal says so plainly to the homeowner and can no longer be signed", async ({ page, browser }) => {
@@ -159,12 +184,18 @@ test("an expired proposal says so plainly to the homeowner and can no longer be 
   await expect(home.page.getByRole("button", { name: /^Sign/ })).toHaveCount(0);
   await screenshotBothWidths(home.page, "proposal-expired");
   // Posting a signature anyway is refused.
-  const refused = await home.page.request.post(link!, { form: { intent: "sign", signerName: "Ferdinand Lisle", consent: "on" }, headers: { Origin: new URL(home.page.url()).origin } });
+  const refused = await home.page.request.post(link!, {
+    form: { intent: "sign", signerName: "Ferdinand Lisle", consent: "on" },
+    headers: { Origin: new URL(home.page.url()).origin },
+  });
   expect(refused.status()).toBe(409);
   await home.context.close();
 });
 
-test("a change order signed: staff revise a signed job's design and send the difference; the homeowner signs it and the job's total follows", async ({ page, browser }) => {
+test("a change order signed: staff revise a signed job's design and send the difference; the homeowner signs it and the job's total follows", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(120_000);
   const customer = "Mirela Castellanos";
   await signIn(page, "owner@cinder-slate.test");

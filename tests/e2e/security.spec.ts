@@ -13,7 +13,9 @@ function expectSecurityHeaders(response: APIResponse, label: string) {
   expect(h["referrer-policy"], `${label}: referrer policy`).toBe("strict-origin-when-cross-origin");
 }
 
-test("every kind of response carries the security headers: page, data request, resource route, redirect, 404, photo route", async ({ request }) => {
+test("every kind of response carries the security headers: page, data request, resource route, redirect, 404, photo route", async ({
+  request,
+}) => {
   const cases: [string, string][] = [
     ["page", "/"],
     ["configurator page", "/c/cinder-slate"],
@@ -37,28 +39,55 @@ test("the page's scripts carry the same nonce as its policy", async ({ request }
   expect(html).not.toMatch(/<script(?![^>]*nonce=)[^>]*>/);
 });
 
-const ACTIONS = ["/login", "/logout", "/c/cinder-slate", "/app/catalog/new", "/app/settings", "/app/schedule", "/app/consult-hours", "/api/plan", "/my", "/welcome/abc"];
+const ACTIONS = [
+  "/login",
+  "/logout",
+  "/c/cinder-slate",
+  "/app/catalog/new",
+  "/app/settings",
+  "/app/schedule",
+  "/app/consult-hours",
+  "/api/plan",
+  "/my",
+  "/welcome/abc",
+];
 
 for (const url of ACTIONS) {
   test(`a cross-origin POST to ${url} is refused with 403 (ASVS 4.2.2)`, async ({ request }) => {
-    const response = await request.post(url, { headers: { Origin: "https://elsewhere.example" }, form: { a: "b" }, maxRedirects: 0 });
+    const response = await request.post(url, {
+      headers: { Origin: "https://elsewhere.example" },
+      form: { a: "b" },
+      maxRedirects: 0,
+    });
     expect(response.status()).toBe(403);
   });
 }
 
-test("the webhook is the one exception: a cross-origin POST gets past the origin check and fails on its missing signature (400)", async ({ request }) => {
-  const response = await request.post("/api/webhooks/stripe", { headers: { Origin: "https://elsewhere.example" }, data: "{}" });
+test("the webhook is the one exception: a cross-origin POST gets past the origin check and fails on its missing signature (400)", async ({
+  request,
+}) => {
+  const response = await request.post("/api/webhooks/stripe", {
+    headers: { Origin: "https://elsewhere.example" },
+    data: "{}",
+  });
   expect(response.status()).toBe(400);
 });
 
-test("sign-in: the 11th failure within a minute on one account from one address answers 429 with Retry-After, whatever X-Forwarded-For claims", async ({ request, baseURL }) => {
+test("sign-in: the 11th failure within a minute on one account from one address answers 429 with Retry-After, whatever X-Forwarded-For claims", async ({
+  request,
+  baseURL,
+}) => {
   // An account no other journey fails to sign in to. No proxy is trusted here, so the made-up
   // X-Forwarded-For addresses are ignored and every try counts against this one address.
   const email = `owner@north-ridge.test`;
   const statuses: number[] = [];
   let retryAfter: string | undefined;
   for (let i = 0; i < 11; i++) {
-    const response = await request.post("/login", { headers: { Origin: baseURL!, "X-Forwarded-For": `198.51.100.${i}` }, form: { email, password: `wrong-${i}` }, maxRedirects: 0 });
+    const response = await request.post("/login", {
+      headers: { Origin: baseURL!, "X-Forwarded-For": `198.51.100.${i}` },
+      form: { email, password: `wrong-${i}` },
+      maxRedirects: 0,
+    });
     statuses.push(response.status());
     retryAfter = response.headers()["retry-after"];
   }
@@ -67,11 +96,18 @@ test("sign-in: the 11th failure within a minute on one account from one address 
   expect(Number(retryAfter)).toBeGreaterThan(0);
 });
 
-test("sign-in gives no hint whether an account exists: same status, same words, similar time", async ({ request, baseURL }) => {
+test("sign-in gives no hint whether an account exists: same status, same words, similar time", async ({
+  request,
+  baseURL,
+}) => {
   const attempt = async (email: string) => {
     const started = performance.now();
     const headers = { Origin: baseURL! };
-    const response = await request.post("/login", { headers, form: { email, password: "definitely-wrong" }, maxRedirects: 0 });
+    const response = await request.post("/login", {
+      headers,
+      form: { email, password: "definitely-wrong" },
+      maxRedirects: 0,
+    });
     return { ms: performance.now() - started, status: response.status(), text: await response.text() };
   };
   const known: number[] = [];
@@ -121,14 +157,21 @@ function rawPost(
   const started = performance.now();
   return new Promise((resolve, reject) => {
     let answered = false;
-    const req = httpRequest({ host: "127.0.0.1", port: url.port, path: url.pathname + url.search, method: "POST", headers: options.headers }, (res) => {
-      answered = true;
-      let body = "";
-      res.setEncoding("utf8");
-      res.on("data", (c) => (body += c));
-      res.on("end", () => resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }));
-      res.on("error", () => resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }));
-    });
+    const req = httpRequest(
+      { host: "127.0.0.1", port: url.port, path: url.pathname + url.search, method: "POST", headers: options.headers },
+      (res) => {
+        answered = true;
+        let body = "";
+        res.setEncoding("utf8");
+        res.on("data", (c) => (body += c));
+        res.on("end", () =>
+          resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }),
+        );
+        res.on("error", () =>
+          resolve({ status: res.statusCode!, headers: res.headers, body, ms: performance.now() - started }),
+        );
+      },
+    );
     req.on("error", (error) => setTimeout(() => answered || reject(error), 2_000));
     if (options.headers?.Expect) return void req.flushHeaders();
     const piece = Buffer.alloc(64 * 1024, 0x61);
@@ -146,9 +189,20 @@ function rawPost(
   });
 }
 
-test("host-header link poisoning: a request posted with Host attacker.example mails the set-password link on the configured origin only", async ({ baseURL }) => {
+test("host-header link poisoning: a request posted with Host attacker.example mails the set-password link on the configured origin only", async ({
+  baseURL,
+}) => {
   const email = `host-attack-${Date.now()}@example.test`;
-  const fields = { customerName: "Hostile Host", email, phone: "(970) 555-0191", street: "9 Elm Row", town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14" };
+  const fields = {
+    customerName: "Hostile Host",
+    email,
+    phone: "(970) 555-0191",
+    street: "9 Elm Row",
+    town: "Millbrook Falls",
+    buildWindow: "not-sure",
+    consent: "on",
+    design: "units=14",
+  };
   const boundary = "----emberwright-e2e";
   const body = Buffer.from(
     Object.entries(fields)
@@ -156,57 +210,109 @@ test("host-header link poisoning: a request posted with Host attacker.example ma
       .join("") + `--${boundary}--\r\n`,
   );
   const response = await rawPost(baseURL!, "/c/cinder-slate", {
-    headers: { Host: "attacker.example", "Content-Type": `multipart/form-data; boundary=${boundary}`, "Content-Length": String(body.length) },
+    headers: {
+      Host: "attacker.example",
+      "Content-Type": `multipart/form-data; boundary=${boundary}`,
+      "Content-Length": String(body.length),
+    },
     body,
   });
   expect(response.status).toBe(302);
-  await expect.poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 }).toBeGreaterThan(0);
-  const links = (await listMail()).filter((m) => m.to.includes(email)).flatMap((m) => m.text.match(/https?:\/\/[^\s)>\]"]+/g) ?? []);
+  await expect
+    .poll(async () => (await listMail()).filter((m) => m.to.includes(email)).length, { timeout: 15_000 })
+    .toBeGreaterThan(0);
+  const links = (await listMail())
+    .filter((m) => m.to.includes(email))
+    .flatMap((m) => m.text.match(/https?:\/\/[^\s)>\]"]+/g) ?? []);
   expect(links.length).toBeGreaterThan(0);
   for (const link of links) expect(new URL(link).origin, link).toBe(new URL(baseURL!).origin);
 });
 
-test("unbounded request bodies: a 10 MB sign-in post and a 10 MB chunked JSON post answer 413 at once, before the body is read", async ({ baseURL }) => {
+test("unbounded request bodies: a 10 MB sign-in post and a 10 MB chunked JSON post answer 413 at once, before the body is read", async ({
+  baseURL,
+}) => {
   const tenMb = Buffer.alloc(10 * 1024 * 1024, 0x61);
-  const login = await rawPost(baseURL!, "/login", { headers: { "Content-Type": "application/x-www-form-urlencoded", "Content-Length": String(tenMb.length), Origin: baseURL! }, body: tenMb });
+  const login = await rawPost(baseURL!, "/login", {
+    headers: {
+      "Content-Type": "application/x-www-form-urlencoded",
+      "Content-Length": String(tenMb.length),
+      Origin: baseURL!,
+    },
+    body: tenMb,
+  });
   expect(login.status).toBe(413);
   expect(login.headers["x-content-type-options"]).toBe("nosniff");
   // Chunked: no Content-Length to refuse up front, so the server stops reading at the cap.
-  const chunked = await rawPost(baseURL!, "/api/plan", { headers: { "Content-Type": "application/json", "Transfer-Encoding": "chunked" }, chunks: 160 });
+  const chunked = await rawPost(baseURL!, "/api/plan", {
+    headers: { "Content-Type": "application/json", "Transfer-Encoding": "chunked" },
+    chunks: 160,
+  });
   expect(chunked.status).toBe(413);
   expect(chunked.body).toContain("at most 64 kB");
   // A client that asks first (Expect: 100-continue) is refused before it sends anything.
-  const asked = await rawPost(baseURL!, "/api/webhooks/stripe", { headers: { "Content-Type": "application/json", "Content-Length": String(tenMb.length), Expect: "100-continue" } });
+  const asked = await rawPost(baseURL!, "/api/webhooks/stripe", {
+    headers: { "Content-Type": "application/json", "Content-Length": String(tenMb.length), Expect: "100-continue" },
+  });
   expect(asked.status).toBe(413);
 });
 
-test("open redirect after sign-in: redirectTo=/%09/evil.example, %0a and %0d stay on this site, with no 500", async ({ request, baseURL }) => {
-  const signIn = await request.post("/login", { headers: { Origin: baseURL! }, form: { email: "estimator@cinder-slate.test", password: DEMO_PASSWORD, redirectTo: "/app/inbox\n/x" }, maxRedirects: 0 });
+test("open redirect after sign-in: redirectTo=/%09/evil.example, %0a and %0d stay on this site, with no 500", async ({
+  request,
+  baseURL,
+}) => {
+  const signIn = await request.post("/login", {
+    headers: { Origin: baseURL! },
+    form: { email: "estimator@cinder-slate.test", password: DEMO_PASSWORD, redirectTo: "/app/inbox\n/x" },
+    maxRedirects: 0,
+  });
   expect(signIn.status()).toBe(302);
   expect(signIn.headers()["location"]).toBe("/app");
-  for (const target of ["/%09/evil.example", "/%0a/evil.example", "/%0d%0aSet-Cookie:%20a=b", "/%5C/evil.example", "//evil.example"]) {
+  for (const target of [
+    "/%09/evil.example",
+    "/%0a/evil.example",
+    "/%0d%0aSet-Cookie:%20a=b",
+    "/%5C/evil.example",
+    "//evil.example",
+  ]) {
     const response = await request.get(`/login?redirectTo=${target}`, { maxRedirects: 0 });
     expect(response.status(), target).toBe(302);
     expect(response.headers()["location"], target).toBe("/app");
   }
 });
 
-test("headers: built files and the favicon carry nosniff; the framework's 400 for a malformed Origin carries the security headers", async ({ request, baseURL }) => {
+test("headers: built files and the favicon carry nosniff; the framework's 400 for a malformed Origin carries the security headers", async ({
+  request,
+  baseURL,
+}) => {
   const asset = readdirSync("build/client/assets").find((f) => f.endsWith(".js"))!;
   for (const path of ["/favicon.svg", `/assets/${asset}`]) {
     const response = await request.get(path);
     expect(response.status(), path).toBe(200);
     expect(response.headers()["x-content-type-options"], path).toBe("nosniff");
   }
-  const malformed = await rawPost(baseURL!, "/login", { headers: { Origin: "http://[not-a-host", "Content-Type": "application/x-www-form-urlencoded", "Content-Length": "3" }, body: Buffer.from("a=b") });
+  const malformed = await rawPost(baseURL!, "/login", {
+    headers: {
+      Origin: "http://[not-a-host",
+      "Content-Type": "application/x-www-form-urlencoded",
+      "Content-Length": "3",
+    },
+    body: Buffer.from("a=b"),
+  });
   expect(malformed.status).toBe(400);
   expect(malformed.headers["x-content-type-options"]).toBe("nosniff");
   expect(String(malformed.headers["content-security-policy"])).toContain("frame-ancestors 'none'");
   expect(malformed.headers["referrer-policy"]).toBe("strict-origin-when-cross-origin");
 });
 
-test("cached customer details: signed-in pages and their data requests answer Cache-Control: private, no-store", async ({ request, baseURL }) => {
-  await request.post("/login", { headers: { Origin: baseURL! }, form: { email: "owner@cinder-slate.test", password: DEMO_PASSWORD }, maxRedirects: 0 });
+test("cached customer details: signed-in pages and their data requests answer Cache-Control: private, no-store", async ({
+  request,
+  baseURL,
+}) => {
+  await request.post("/login", {
+    headers: { Origin: baseURL! },
+    form: { email: "owner@cinder-slate.test", password: DEMO_PASSWORD },
+    maxRedirects: 0,
+  });
   for (const path of ["/app/inbox", "/app/inbox.data", "/api/leads", "/my"]) {
     const response = await request.get(path, { maxRedirects: 0 });
     expect(response.headers()["cache-control"], path).toBe("private, no-store");

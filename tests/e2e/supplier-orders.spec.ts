@@ -17,13 +17,19 @@ async function checkPage(page: Page, name: string) {
     expect(overflow, `${name} at ${width} px scrolls sideways`).toBeLessThanOrEqual(0);
     if (width !== 360) {
       const result = await new AxeBuilder({ page }).analyze();
-      expect(result.violations.map((v) => `${name} @${width}px ${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`)).toEqual([]);
+      expect(
+        result.violations.map(
+          (v) => `${name} @${width}px ${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(" | ")}`,
+        ),
+      ).toEqual([]);
     }
   }
   await page.setViewportSize({ width: 1366, height: 900 });
 }
 
-test("signed job → supplier orders drafted → the yard's order sent (PDF and CSV arrive) → marked confirmed → delivered; two jobs' same-week drafts combined", async ({ page }) => {
+test("signed job → supplier orders drafted → the yard's order sent (PDF and CSV arrive) → marked confirmed → delivered; two jobs' same-week drafts combined", async ({
+  page,
+}) => {
   test.setTimeout(120_000);
   const customer = "Mirela Castellanos";
   await signIn(page, "owner@cinder-slate.test");
@@ -44,14 +50,22 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await expect(page.getByText("Delivery date must be within a year.")).toBeVisible();
   const inAWeek = await page.evaluate(() => new Date(Date.now() + 7 * 86_400_000).toISOString().slice(0, 10));
   // As the pages say it: "Wed, Dec 9, 2026".
-  const shown = new Intl.DateTimeFormat("en-US", { weekday: "short", month: "short", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${inAWeek}T12:00:00Z`));
+  const shown = new Intl.DateTimeFormat("en-US", {
+    weekday: "short",
+    month: "short",
+    day: "numeric",
+    year: "numeric",
+    timeZone: "UTC",
+  }).format(new Date(`${inAWeek}T12:00:00Z`));
   await page.getByLabel("Requested delivery date").fill(inAWeek);
   await page.getByRole("button", { name: /^Draft 2 orders$/ }).click();
   await expect(page.getByRole("status")).toHaveText("2 orders drafted. Open each to send it.");
   await page.getByRole("link", { name: /to Millbrook Stone Yard$/ }).click();
 
   await expect(page.getByTestId("order-state")).toHaveText("Draft");
-  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` }),
+  ).toBeVisible();
   await expect(page.getByText(/^Access: Narrowest way in from where the truck parks/)).toBeVisible();
   const number = (await page.getByRole("heading", { level: 1 }).textContent())!.match(/SO-\d{4}/)![0];
   await checkPage(page, "supplier-order-draft");
@@ -63,17 +77,28 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   // The yard received the order with both files.
   let mailId = "";
   await expect
-    .poll(async () => {
-      mailId = (await listMail()).find((m) => m.to.includes("orders@millbrook-stone.test") && m.subject.startsWith(`Order ${number} `))?.id ?? "";
-      return mailId;
-    }, { timeout: 20_000 })
+    .poll(
+      async () => {
+        mailId =
+          (await listMail()).find(
+            (m) => m.to.includes("orders@millbrook-stone.test") && m.subject.startsWith(`Order ${number} `),
+          )?.id ?? "";
+        return mailId;
+      },
+      { timeout: 20_000 },
+    )
     .not.toBe("");
-  const full = (await (await fetch(`${MAIL_FAKE}/_fake/messages/${mailId}`)).json()) as { text: string; attachments: { filename: string; content: string }[] };
+  const full = (await (await fetch(`${MAIL_FAKE}/_fake/messages/${mailId}`)).json()) as {
+    text: string;
+    attachments: { filename: string; content: string }[];
+  };
   const lower = number.toLowerCase();
   expect(full.attachments.map((a) => a.filename)).toEqual([`${lower}.pdf`, `${lower}.csv`]);
   expect(Buffer.from(full.attachments[0]!.content, "base64").subarray(0, 5).toString()).toBe("%PDF-");
   const csv = Buffer.from(full.attachments[1]!.content, "base64").toString();
-  expect(csv.split("\r\n")[0]).toBe("order,job,delivery_date,site_address,item,order_quantity,order_unit,planned_quantity,planned_unit,weight_lb");
+  expect(csv.split("\r\n")[0]).toBe(
+    "order,job,delivery_date,site_address,item,order_quantity,order_unit,planned_quantity,planned_unit,weight_lb",
+  );
   expect(csv).toContain(`${number},`);
   expect(csv).toContain(",Ridgeback Taper,");
   expect(full.text).toContain("305 Kestrel Avenue, Copperfield Mills");
@@ -89,7 +114,9 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await page.getByRole("link", { name: customer }).click();
   const timeline = page.getByRole("region", { name: "Timeline" });
   await expect(timeline).toContainText(`${number} to Millbrook Stone Yard drafted for delivery ${shown}`);
-  await expect(timeline).toContainText(`${number} sent to Millbrook Stone Yard (orders@millbrook-stone.test) with the PDF and CSV`);
+  await expect(timeline).toContainText(
+    `${number} sent to Millbrook Stone Yard (orders@millbrook-stone.test) with the PDF and CSV`,
+  );
   await expect(timeline).toContainText(`${number} confirmed by Millbrook Stone Yard: Ref 4471, Dana at the desk`);
   await expect(timeline).toContainText(`${number} delivered.`);
   await expect(page.getByRole("heading", { name: "Book the build" })).toBeVisible();
@@ -107,8 +134,12 @@ test("signed job → supplier orders drafted → the yard's order sent (PDF and 
   await checkPage(page, "supplier-orders-list");
   await combine.getByRole("button", { name: /^Combine SO-\d{4} and SO-\d{4}$/ }).click();
   await expect(page.getByRole("status")).toHaveText("Combined: one order for every delivery below.");
-  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` })).toBeVisible();
-  await expect(page.getByRole("heading", { name: `Deliver ${shown} to 11 Cinderbrook Lane, Millbrook Falls` })).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: `Deliver ${shown} to 305 Kestrel Avenue, Copperfield Mills` }),
+  ).toBeVisible();
+  await expect(
+    page.getByRole("heading", { name: `Deliver ${shown} to 11 Cinderbrook Lane, Millbrook Falls` }),
+  ).toBeVisible();
   await checkPage(page, "supplier-order-combined");
 
   await page.goto("/app/suppliers");

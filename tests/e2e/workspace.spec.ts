@@ -9,7 +9,10 @@ async function moveJob(page: Page, to: string, reason = "") {
   await page.getByRole("button", { name: "Move the job" }).click();
 }
 
-test("an estimator sees a new request arrive, takes it on, calls back, holds it and picks it up again; then gives a signed job to the crew and opens its cut sheet", async ({ page, browser }) => {
+test("an estimator sees a new request arrive, takes it on, calls back, holds it and picks it up again; then gives a signed job to the crew and opens its cut sheet", async ({
+  page,
+  browser,
+}) => {
   test.setTimeout(90_000);
   await signIn(page, "estimator@cinder-slate.test");
   await expect(page).toHaveURL(/\/app\/inbox$/);
@@ -17,7 +20,11 @@ test("an estimator sees a new request arrive, takes it on, calls back, holds it 
 
   // A homeowner sends a request while the inbox is open; the inbox picks it up when it regains focus.
   const homeowner = await browser.newContext();
-  await sendRequest(await homeowner.newPage(), { name: CUSTOMER, email: `yusuf.${Date.now()}@example.test`, town: "Quillan Park" });
+  await sendRequest(await homeowner.newPage(), {
+    name: CUSTOMER,
+    email: `yusuf.${Date.now()}@example.test`,
+    town: "Quillan Park",
+  });
   await homeowner.close();
   await expect(async () => {
     await page.evaluate(() => window.dispatchEvent(new Event("focus")));
@@ -31,7 +38,10 @@ test("an estimator sees a new request arrive, takes it on, calls back, holds it 
   await page.getByLabel("Search").fill("abernethy");
   await page.getByRole("button", { name: "Apply" }).click();
   await expect(page).toHaveURL(/q=abernethy/);
-  await page.getByRole("navigation", { name: "Filter by stage" }).getByRole("link", { name: /^Request in/ }).click();
+  await page
+    .getByRole("navigation", { name: "Filter by stage" })
+    .getByRole("link", { name: /^Request in/ })
+    .click();
   await expect(page).toHaveURL(/status=request/);
   await expect(page).toHaveURL(/q=abernethy/);
   await expect(page.getByRole("row")).toHaveCount(2);
@@ -45,7 +55,9 @@ test("an estimator sees a new request arrive, takes it on, calls back, holds it 
 
   // The page leads with the next step, and the job's steps as one line.
   await expect(page.getByRole("heading", { name: "Call Yusuf back" })).toBeVisible();
-  await expect(page.getByRole("list", { name: "Job progress" }).locator("[aria-current=step]")).toContainText("Request");
+  await expect(page.getByRole("list", { name: "Job progress" }).locator("[aria-current=step]")).toContainText(
+    "Request",
+  );
   await moveJob(page, "Called back");
   await expect(timeline).toContainText("Request in → Called back");
   await expect(page.getByRole("heading", { name: "Get the design consult booked" })).toBeVisible();
@@ -87,7 +99,10 @@ test("an estimator sees a new request arrive, takes it on, calls back, holds it 
   expect((await pdf.body()).subarray(0, 5).toString()).toBe("%PDF-");
 });
 
-test("the crew member sees only the jobs given to them, with no prices or customer contact, and nothing else", async ({ page, browser }) => {
+test("the crew member sees only the jobs given to them, with no prices or customer contact, and nothing else", async ({
+  page,
+  browser,
+}) => {
   // The owner knows a request that is not the crew's.
   const office = await browser.newContext();
   const ownerPage = await office.newPage();
@@ -126,20 +141,26 @@ test("the owner invites a crew member and sees the invitation waiting", async ({
   await page.getByLabel("Role", { exact: true }).selectOption({ label: "Crew" });
   await page.getByRole("button", { name: "Send invitation" }).click();
   await expect(page.getByRole("status")).toHaveText("Invitation sent. It works once, for 7 days.");
-  await expect(page.getByRole("listitem").filter({ hasText: "Ilka Brandt" })).toContainText("Invited, has not set a password yet");
+  await expect(page.getByRole("listitem").filter({ hasText: "Ilka Brandt" })).toContainText(
+    "Invited, has not set a password yet",
+  );
   await page.getByRole("button", { name: "Send invitation" }).click();
   await expect(page.getByText("Name must be 2 to 80 characters.")).toBeVisible();
   await screenshotBothWidths(page, "team");
 });
 
-test("a lead that does not exist, or a malformed id, shows a 404 inside the workspace with its navigation kept", async ({ page }) => {
+test("a lead that does not exist, or a malformed id, shows a 404 inside the workspace with its navigation kept", async ({
+  page,
+}) => {
   await signIn(page, "estimator@cinder-slate.test");
   for (const path of ["/app/leads/987654321", "/app/leads/not-a-number", "/app/leads/987654321/proposal"]) {
     const response = await page.goto(path);
     expect(response?.status(), path).toBe(404);
     await expect(page.getByRole("heading", { level: 1 })).toHaveText("We could not find that");
     // The workspace layout is still there: its navigation, the signed-in person, a way back.
-    await expect(page.getByRole("navigation", { name: "Workspace" }).getByRole("link", { name: "Inbox" })).toBeVisible();
+    await expect(
+      page.getByRole("navigation", { name: "Workspace" }).getByRole("link", { name: "Inbox" }),
+    ).toBeVisible();
     await expect(page.getByRole("button", { name: "Sign out" })).toBeVisible();
     await expect(page).toHaveTitle("We could not find that · Emberwright");
   }

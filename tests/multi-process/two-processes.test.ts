@@ -20,7 +20,14 @@ afterAll(async () => {
   await cluster?.stop();
 });
 
-type Sent = { ref: string | null; status: number; startedAt: number; answeredAt: number; backend: string | null; withPhoto: boolean };
+type Sent = {
+  ref: string | null;
+  status: number;
+  startedAt: number;
+  answeredAt: number;
+  backend: string | null;
+  withPhoto: boolean;
+};
 
 /** Workers that send requests through the balancer one after another until `stop()`; every answer is kept. */
 function streamLeads(workers: number, label: string, photoEvery = 0) {
@@ -34,8 +41,19 @@ function streamLeads(workers: number, label: string, photoEvery = 0) {
       const withPhoto = photoEvery > 0 && i % photoEvery === 0;
       const startedAt = Date.now();
       try {
-        const answer = await sendLead(cluster.origin, cluster.origin, { email: `${label}.${i}@example.test`, name: `Stream ${label} ${i}`, photo: withPhoto ? await photo : undefined });
-        sent.push({ ref: answer.ref, status: answer.status, startedAt, answeredAt: Date.now(), backend: answer.backend, withPhoto });
+        const answer = await sendLead(cluster.origin, cluster.origin, {
+          email: `${label}.${i}@example.test`,
+          name: `Stream ${label} ${i}`,
+          photo: withPhoto ? await photo : undefined,
+        });
+        sent.push({
+          ref: answer.ref,
+          status: answer.status,
+          startedAt,
+          answeredAt: Date.now(),
+          backend: answer.backend,
+          withPhoto,
+        });
       } catch {
         sent.push({ ref: null, status: 0, startedAt, answeredAt: Date.now(), backend: null, withPhoto });
       }
@@ -57,7 +75,8 @@ const pause = (ms: number) => new Promise((r) => setTimeout(r, ms));
 async function untilAnswers(sent: Sent[], count: number, match: (s: Sent) => boolean, timeoutMs = 30_000) {
   const deadline = Date.now() + timeoutMs;
   while (sent.filter(match).length < count) {
-    if (Date.now() > deadline) throw new Error(`Only ${sent.filter(match).length} of ${count} expected answers within ${timeoutMs / 1000} s.`);
+    if (Date.now() > deadline)
+      throw new Error(`Only ${sent.filter(match).length} of ${count} expected answers within ${timeoutMs / 1000} s.`);
     await pause(50);
   }
 }
@@ -66,7 +85,10 @@ async function storedRefs(db: { execute: Cluster["db"]["execute"] }, refs: strin
   const found = new Set<string>();
   for (let i = 0; i < refs.length; i += 200) {
     const chunk = refs.slice(i, i + 200);
-    const { rows } = await db.execute({ sql: `SELECT ref FROM leads WHERE ref IN (${chunk.map(() => "?").join(",")})`, args: chunk });
+    const { rows } = await db.execute({
+      sql: `SELECT ref FROM leads WHERE ref IN (${chunk.map(() => "?").join(",")})`,
+      args: chunk,
+    });
     for (const r of rows) found.add(String(r.ref));
   }
   return found;
@@ -84,7 +106,9 @@ describe("two processes under a stream of requests", () => {
     const sent = await stream.stop();
 
     const ackedBefore = sent.filter((s) => s.status === 302 && s.answeredAt < backupStartedAt);
-    const ackedDuring = sent.filter((s) => s.status === 302 && s.answeredAt >= backupStartedAt && s.answeredAt <= backupEndedAt);
+    const ackedDuring = sent.filter(
+      (s) => s.status === 302 && s.answeredAt >= backupStartedAt && s.answeredAt <= backupEndedAt,
+    );
     expect(ackedBefore.length).toBeGreaterThanOrEqual(8);
     // Writes really went on while the backup ran.
     expect(ackedDuring.length).toBeGreaterThan(0);
@@ -98,7 +122,10 @@ describe("two processes under a stream of requests", () => {
     });
     const restored = createClient({ url: `file:${path.join(fresh, "emberwright.db")}` });
     try {
-      const found = await storedRefs(restored, ackedBefore.map((s) => s.ref!));
+      const found = await storedRefs(
+        restored,
+        ackedBefore.map((s) => s.ref!),
+      );
       expect(ackedBefore.filter((s) => !found.has(s.ref!)).map((s) => s.ref)).toEqual([]);
       // Every photo of those requests came back with them.
       const withPhotos = ackedBefore.filter((s) => s.withPhoto).map((s) => s.ref!);
@@ -108,7 +135,8 @@ describe("two processes under a stream of requests", () => {
         args: withPhotos,
       });
       expect(rows.length).toBe(withPhotos.length);
-      for (const r of rows) expect(existsSync(path.join(fresh, "uploads", String(r.stored_name))), String(r.stored_name)).toBe(true);
+      for (const r of rows)
+        expect(existsSync(path.join(fresh, "uploads", String(r.stored_name))), String(r.stored_name)).toBe(true);
       expect((await restored.execute("PRAGMA integrity_check")).rows.map((r) => r[0])).toEqual(["ok"]);
     } finally {
       restored.close();
@@ -118,7 +146,8 @@ describe("two processes under a stream of requests", () => {
   test("kill -9 of one process mid-stream: every acknowledged request is stored, the other process carries on, and the killed one comes back", async () => {
     const [victim, survivor] = cluster.apps;
     const stream = streamLeads(6, `kill-${Date.now()}`);
-    for (const app of [victim!, survivor!]) await untilAnswers(stream.sent, 3, (s) => s.status === 302 && s.backend === app.origin);
+    for (const app of [victim!, survivor!])
+      await untilAnswers(stream.sent, 3, (s) => s.status === 302 && s.backend === app.origin);
     const killedAt = Date.now();
     victim!.kill9();
     await untilAnswers(stream.sent, 8, (s) => s.status === 302 && s.startedAt > killedAt + 1_000);
@@ -137,7 +166,10 @@ describe("two processes under a stream of requests", () => {
     for (const f of failed) expect(f.startedAt).toBeLessThanOrEqual(killedAt + 1_000);
 
     // Nothing acknowledged is lost.
-    const found = await storedRefs(cluster.db, acked.map((s) => s.ref!));
+    const found = await storedRefs(
+      cluster.db,
+      acked.map((s) => s.ref!),
+    );
     expect(acked.filter((s) => !found.has(s.ref!)).map((s) => s.ref)).toEqual([]);
     expect((await cluster.db.execute("PRAGMA integrity_check")).rows.map((r) => r[0])).toEqual(["ok"]);
 
@@ -166,7 +198,11 @@ describe("two processes under a stream of requests", () => {
     // The killed process starts again on the same file (SQLite recovers the WAL) and takes its share.
     await cluster.restart(0);
     await expect.poll(() => cluster.balancer.liveTargets().length, { timeout: 10_000 }).toBe(2);
-    const again = await Promise.all([1, 2, 3, 4].map((i) => sendLead(cluster.origin, cluster.origin, { email: `back.${Date.now()}.${i}@example.test` })));
+    const again = await Promise.all(
+      [1, 2, 3, 4].map((i) =>
+        sendLead(cluster.origin, cluster.origin, { email: `back.${Date.now()}.${i}@example.test` }),
+      ),
+    );
     expect(again.map((a) => a.status)).toEqual([302, 302, 302, 302]);
     expect(new Set(again.map((a) => a.backend)).size).toBe(2);
   });

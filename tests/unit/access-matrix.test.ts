@@ -60,13 +60,30 @@ type Who = "owner" | "estimator" | "crew" | "homeowner" | "anonymous" | "other c
 const WHO: Who[] = ["owner", "estimator", "crew", "homeowner", "anonymous", "other company's owner"];
 
 const cookies = {} as Record<Who, string | undefined>;
-const ids = { wonLead: 0, otherLead: 0, item: 0, wonPhoto: 0, otherPhoto: 0, estimator: 0, token: "", order: 0, booking: 0 };
+const ids = {
+  wonLead: 0,
+  otherLead: 0,
+  item: 0,
+  wonPhoto: 0,
+  otherPhoto: 0,
+  estimator: 0,
+  token: "",
+  order: 0,
+  booking: 0,
+};
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
   const { storedName } = await storePhotoBytes(TINY_PNG, "yard.png");
   const [row] = await db
     .insert(leadPhotos)
-    .values({ companyId, leadId, storedName, originalName: "yard.png", mimeType: "image/png", sizeBytes: TINY_PNG.byteLength })
+    .values({
+      companyId,
+      leadId,
+      storedName,
+      originalName: "yard.png",
+      mimeType: "image/png",
+      sizeBytes: TINY_PNG.byteLength,
+    })
     .returning({ id: leadPhotos.id });
   return row!.id;
 }
@@ -74,11 +91,17 @@ async function addPhoto(companyId: number, leadId: number): Promise<number> {
 beforeAll(async () => {
   const { company, catalog } = await demoCompany();
   const other = await demoCompany("north-ridge");
-  for (const role of ["owner", "estimator", "crew"] as const satisfies Role[]) cookies[role] = await loginAs(company.id, role);
+  for (const role of ["owner", "estimator", "crew"] as const satisfies Role[])
+    cookies[role] = await loginAs(company.id, role);
   cookies["other company's owner"] = await loginAs(other.company.id, "owner");
   const [homeowner] = await db
     .insert(users)
-    .values({ companyId: company.id, email: "matrix.homeowner@example.test", name: "Matrix Homeowner", role: "homeowner" })
+    .values({
+      companyId: company.id,
+      email: "matrix.homeowner@example.test",
+      name: "Matrix Homeowner",
+      role: "homeowner",
+    })
     .returning();
   cookies.homeowner = (await startSession(homeowner!.id)).split(";")[0];
   cookies.anonymous = undefined;
@@ -106,7 +129,11 @@ beforeAll(async () => {
   ids.token = proposal.token;
   // A drafted supplier order for the signed job (the owner drafts; the routes below read and move it).
   const [owner] = await db.select().from(users).where(eq(users.email, "owner@cinder-slate.test"));
-  const drafted = await draftSupplierOrders({ ...owner!, sessionId: "matrix" }, won, nextDay(nextDay(zonedDay(new Date(), company.timeZone))));
+  const drafted = await draftSupplierOrders(
+    { ...owner!, sessionId: "matrix" },
+    won,
+    nextDay(nextDay(zonedDay(new Date(), company.timeZone))),
+  );
   if (!drafted.ok) throw new Error(JSON.stringify(drafted.errors));
   ids.order = drafted.orderIds[0]!;
   // A seeded consult, on a request that is not the matrix homeowner's.
@@ -132,7 +159,8 @@ async function answer(run: () => Promise<unknown>): Promise<string> {
   try {
     return describeAnswer(await run());
   } catch (thrown) {
-    if (thrown instanceof Response || (thrown && typeof thrown === "object" && "init" in thrown)) return describeAnswer(thrown);
+    if (thrown instanceof Response || (thrown && typeof thrown === "object" && "init" in thrown))
+      return describeAnswer(thrown);
     throw thrown;
   }
 }
@@ -148,7 +176,11 @@ type Case = {
 const get = (url: string, cookie: string | undefined) => requestWithCookie(url, cookie);
 const post = (url: string, cookie: string | undefined, fields: Record<string, string>) => {
   const body = new URLSearchParams(fields);
-  return requestWithCookie(url, cookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded", "Content-Length": String(body.toString().length) } });
+  return requestWithCookie(url, cookie, {
+    method: "POST",
+    body,
+    headers: { "Content-Type": "application/x-www-form-urlencoded", "Content-Length": String(body.toString().length) },
+  });
 };
 const lead = () => String(ids.wonLead);
 
@@ -159,297 +191,764 @@ const CASES: Case[] = [
   {
     name: "GET /app",
     call: (c) => indexLoader(routeArgs(get("/app", c))),
-    expected: { owner: "redirect /app/inbox", estimator: "redirect /app/inbox", crew: "redirect /app/jobs", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "redirect /app/inbox" },
+    expected: {
+      owner: "redirect /app/inbox",
+      estimator: "redirect /app/inbox",
+      crew: "redirect /app/jobs",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "redirect /app/inbox",
+    },
   },
   {
     name: "GET /app (the workspace shell)",
     call: (c) => layoutLoader(routeArgs(get("/app", c))),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/schedule",
     call: (c) => scheduleLoader(routeArgs(get("/app/schedule", c))),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/consult-hours",
     call: (c) => consultHoursLoader(routeArgs(get("/app/consult-hours", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/catalog",
     call: (c) => catalogLoader(routeArgs(get("/app/catalog", c))),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/catalog/:id",
     call: (c) => catalogItemLoader(routeArgs(get(`/app/catalog/${ids.item}`, c), { itemId: String(ids.item) })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/settings",
     call: (c) => settingsLoader(routeArgs(get("/app/settings", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/settings/factors",
     call: (c) => factorsLoader(routeArgs(get("/app/settings/factors", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     // A reset of every factor: an owner's own company only (the other owner's reset touches their own).
     name: "POST /app/settings/factors (reset every factor)",
     call: (c) => factorsAction(routeArgs(post("/app/settings/factors", c, { intent: "reset-all" }))),
-    expected: { owner: "redirect /app/settings/factors", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "redirect /app/settings/factors" },
+    expected: {
+      owner: "redirect /app/settings/factors",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "redirect /app/settings/factors",
+    },
   },
   {
     name: "GET /app/inbox",
     call: (c) => inboxLoader(routeArgs(get("/app/inbox", c))),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/inbox.csv",
     call: (c) => inboxCsvLoader(routeArgs(get("/app/inbox.csv", c))),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /api/leads",
     call: (c) => apiLeadsLoader(routeArgs(get("/api/leads", c))),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: "403",
+      anonymous: "401",
+      "other company's owner": "200",
+    },
   },
   {
     // Marks only the caller's own inbox as seen; nobody else's data is touched or shown.
     name: "POST /app/inbox/seen",
     call: (c) => inboxSeenAction(routeArgs(post("/app/inbox/seen", c, { at: "2026-01-01T00:00:00.000Z" }))),
-    expected: { owner: "204", estimator: "204", crew: "403", homeowner: "403", anonymous: "401", "other company's owner": "204" },
+    expected: {
+      owner: "204",
+      estimator: "204",
+      crew: "403",
+      homeowner: "403",
+      anonymous: "401",
+      "other company's owner": "204",
+    },
   },
   {
     name: "GET /app/leads/:id (the crew's signed job)",
     call: (c) => leadLoader(routeArgs(get(`/app/leads/${lead()}`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id (a new request, not the crew's)",
     call: (c) => leadLoader(routeArgs(get(`/app/leads/${ids.otherLead}`, c), { leadId: String(ids.otherLead) })),
-    expected: { owner: "200", estimator: "200", crew: "404", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "404",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/cut-sheet",
     call: (c) => cutSheetLoader(routeArgs(get(`/app/leads/${lead()}/cut-sheet`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/cut-sheet (not the crew's)",
-    call: (c) => cutSheetLoader(routeArgs(get(`/app/leads/${ids.otherLead}/cut-sheet`, c), { leadId: String(ids.otherLead) })),
-    expected: { owner: "200", estimator: "200", crew: "404", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      cutSheetLoader(routeArgs(get(`/app/leads/${ids.otherLead}/cut-sheet`, c), { leadId: String(ids.otherLead) })),
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "404",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/cut-sheet.pdf",
     call: (c) => cutSheetPdfLoader(routeArgs(get(`/app/leads/${lead()}/cut-sheet.pdf`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/cut-sheet.pdf (not the crew's)",
-    call: (c) => cutSheetPdfLoader(routeArgs(get(`/app/leads/${ids.otherLead}/cut-sheet.pdf`, c), { leadId: String(ids.otherLead) })),
-    expected: { owner: "200", estimator: "200", crew: "404", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      cutSheetPdfLoader(
+        routeArgs(get(`/app/leads/${ids.otherLead}/cut-sheet.pdf`, c), { leadId: String(ids.otherLead) }),
+      ),
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "404",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/design",
     call: (c) => designLoader(routeArgs(get(`/app/leads/${lead()}/design`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/visit",
     call: (c) => visitLoader(routeArgs(get(`/app/leads/${lead()}/visit`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/leads/:id/visit (an empty form)",
     call: (c) => visitAction(routeArgs(post(`/app/leads/${lead()}/visit`, c, {}), { leadId: lead() })),
-    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "400",
+      estimator: "400",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/proposal",
-    call: (c) => composeLoader(routeArgs(get(`/app/leads/${ids.otherLead}/proposal`, c), { leadId: String(ids.otherLead) })),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      composeLoader(routeArgs(get(`/app/leads/${ids.otherLead}/proposal`, c), { leadId: String(ids.otherLead) })),
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/leads/:id/proposal (an empty form)",
-    call: (c) => composeAction(routeArgs(post(`/app/leads/${ids.otherLead}/proposal`, c, {}), { leadId: String(ids.otherLead) })),
-    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      composeAction(routeArgs(post(`/app/leads/${ids.otherLead}/proposal`, c, {}), { leadId: String(ids.otherLead) })),
+    expected: {
+      owner: "400",
+      estimator: "400",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/change-order",
     call: (c) => changeOrderLoader(routeArgs(get(`/app/leads/${lead()}/change-order`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "200", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/leads/:id/change-order (an empty form)",
     call: (c) => changeOrderAction(routeArgs(post(`/app/leads/${lead()}/change-order`, c, {}), { leadId: lead() })),
-    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "400",
+      estimator: "400",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/settings/proposals",
     call: (c) => termsLoader(routeArgs(get("/app/settings/proposals", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     // The unguessable link is the credential, as with a shared document: whoever holds it may read it.
     name: "GET /p/:token",
     isHomeownersLink: true,
     call: (c) => proposalPageLoader(routeArgs(get(`/p/${ids.token}`, c), { token: ids.token })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: "200",
+      anonymous: "200",
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /p/:token.pdf",
     isHomeownersLink: true,
     call: (c) => proposalPdfLoader(routeArgs(get(`/p/${ids.token}.pdf`, c), { token: ids.token })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "200", anonymous: "200", "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: "200",
+      anonymous: "200",
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /p/:token (a guessed token)",
-    call: (c) => proposalPageLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
-    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
+    call: (c) =>
+      proposalPageLoader(
+        routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA", c), {
+          token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA",
+        }),
+      ),
+    expected: {
+      owner: "404",
+      estimator: "404",
+      crew: "404",
+      homeowner: "404",
+      anonymous: "404",
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /p/:token.pdf (a guessed token)",
-    call: (c) => proposalPdfLoader(routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.pdf", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
-    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
+    call: (c) =>
+      proposalPdfLoader(
+        routeArgs(get("/p/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.pdf", c), {
+          token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA",
+        }),
+      ),
+    expected: {
+      owner: "404",
+      estimator: "404",
+      crew: "404",
+      homeowner: "404",
+      anonymous: "404",
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/jobs",
     call: (c) => jobsLoader(routeArgs(get("/app/jobs", c))),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /app/attention",
     call: (c) => attentionLoader(routeArgs(get("/app/attention", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "POST /app/attention (an e-mail that has not failed)",
     call: (c) => attentionAction(routeArgs(post("/app/attention", c, { intent: "retry-email", id: "1" }))),
-    expected: { owner: "404", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "404",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/suppliers",
     call: (c) => suppliersLoader(routeArgs(get("/app/suppliers", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "POST /app/suppliers (a form without a name)",
     call: (c) => suppliersAction(routeArgs(post("/app/suppliers", c, { supplierId: "", name: "", email: "x" }))),
-    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "400",
+    },
   },
   {
     name: "GET /app/supplier-orders",
     call: (c) => supplierOrdersLoader(routeArgs(get("/app/supplier-orders", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     // Combining one order alone is refused before anything is looked up; the other company's owner gets the same words.
     name: "POST /app/supplier-orders (combine one order)",
     call: (c) => supplierOrdersAction(routeArgs(post("/app/supplier-orders", c, { orderId: String(ids.order) }))),
-    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "400",
+    },
   },
   {
     name: "GET /app/supplier-orders/:id",
-    call: (c) => supplierOrderLoader(routeArgs(get(`/app/supplier-orders/${ids.order}`, c), { orderId: String(ids.order) })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      supplierOrderLoader(routeArgs(get(`/app/supplier-orders/${ids.order}`, c), { orderId: String(ids.order) })),
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/supplier-orders/:id (mark a draft delivered)",
-    call: (c) => supplierOrderAction(routeArgs(post(`/app/supplier-orders/${ids.order}`, c, { intent: "deliver" }), { orderId: String(ids.order) })),
-    expected: { owner: "409", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      supplierOrderAction(
+        routeArgs(post(`/app/supplier-orders/${ids.order}`, c, { intent: "deliver" }), { orderId: String(ids.order) }),
+      ),
+    expected: {
+      owner: "409",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/supplier-orders/:id/order.pdf",
-    call: (c) => supplierOrderFileLoader(routeArgs(get(`/app/supplier-orders/${ids.order}/order.pdf`, c), { orderId: String(ids.order), file: "order.pdf" })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      supplierOrderFileLoader(
+        routeArgs(get(`/app/supplier-orders/${ids.order}/order.pdf`, c), {
+          orderId: String(ids.order),
+          file: "order.pdf",
+        }),
+      ),
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/supplier-orders/:id/order.csv",
-    call: (c) => supplierOrderFileLoader(routeArgs(get(`/app/supplier-orders/${ids.order}/order.csv`, c), { orderId: String(ids.order), file: "order.csv" })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      supplierOrderFileLoader(
+        routeArgs(get(`/app/supplier-orders/${ids.order}/order.csv`, c), {
+          orderId: String(ids.order),
+          file: "order.csv",
+        }),
+      ),
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/supplier-orders",
     call: (c) => jobOrdersLoader(routeArgs(get(`/app/leads/${lead()}/supplier-orders`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     // Drafted already (above): the owner is told so.
     name: "POST /app/leads/:id/supplier-orders (draft again)",
-    call: (c) => jobOrdersAction(routeArgs(post(`/app/leads/${lead()}/supplier-orders`, c, { requestedOn: nextDay(nextDay(zonedDay(new Date(), "America/Chicago"))) }), { leadId: lead() })),
-    expected: { owner: "409", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      jobOrdersAction(
+        routeArgs(
+          post(`/app/leads/${lead()}/supplier-orders`, c, {
+            requestedOn: nextDay(nextDay(zonedDay(new Date(), "America/Chicago"))),
+          }),
+          { leadId: lead() },
+        ),
+      ),
+    expected: {
+      owner: "409",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/leads/:id/build",
     call: (c) => buildLoader(routeArgs(get(`/app/leads/${lead()}/build`, c), { leadId: lead() })),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     // A day that is not a date is refused by field before anything is booked.
     name: "POST /app/leads/:id/build (a day that is not a date)",
-    call: (c) => buildAction(routeArgs(post(`/app/leads/${lead()}/build`, c, { intent: "book", start: "someday", days: "", crewUserIds: "1", notes: "" }), { leadId: lead() })),
-    expected: { owner: "400", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      buildAction(
+        routeArgs(
+          post(`/app/leads/${lead()}/build`, c, {
+            intent: "book",
+            start: "someday",
+            days: "",
+            crewUserIds: "1",
+            notes: "",
+          }),
+          { leadId: lead() },
+        ),
+      ),
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/calendar",
     call: (c) => calendarLoader(routeArgs(get("/app/calendar", c))),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "POST /app/calendar (an unknown choice)",
     call: (c) => calendarAction(routeArgs(post("/app/calendar", c, { intent: "share-with-everyone" }))),
-    expected: { owner: "400", estimator: "400", crew: "400", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "400" },
+    expected: {
+      owner: "400",
+      estimator: "400",
+      crew: "400",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "400",
+    },
   },
   {
     // The link's secret is the credential; a made-up one is the same 404 for everybody.
     name: "GET /calendar/:token.ics (a made-up link)",
-    call: (c) => calendarFeedLoader(routeArgs(get("/calendar/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.ics", c), { token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA" })),
-    expected: { owner: "404", estimator: "404", crew: "404", homeowner: "404", anonymous: "404", "other company's owner": "404" },
+    call: (c) =>
+      calendarFeedLoader(
+        routeArgs(get("/calendar/AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA.ics", c), {
+          token: "AAAAAAAAAAAAAAAAAAAAAAAAAAAAAAAA",
+        }),
+      ),
+    expected: {
+      owner: "404",
+      estimator: "404",
+      crew: "404",
+      homeowner: "404",
+      anonymous: "404",
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /app/team",
     call: (c) => teamLoader(routeArgs(get("/app/team", c))),
-    expected: { owner: "200", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "200" },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
   },
   {
     name: "GET /photos/:id (the crew's job)",
     call: (c) => photoLoader(routeArgs(get(`/photos/${ids.wonPhoto}`, c), { photoId: String(ids.wonPhoto) })),
-    expected: { owner: "200", estimator: "200", crew: "200", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: "404",
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /photos/:id (not the crew's)",
     call: (c) => photoLoader(routeArgs(get(`/photos/${ids.otherPhoto}`, c), { photoId: String(ids.otherPhoto) })),
-    expected: { owner: "200", estimator: "200", crew: "404", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "404",
+      homeowner: "404",
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/leads/:id (a note)",
-    call: (c) => leadAction(routeArgs(post(`/app/leads/${lead()}`, c, { intent: "note", note: "Checked the gate width." }), { leadId: lead() })),
-    expected: { owner: BACK_TO_LEAD, estimator: BACK_TO_LEAD, crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      leadAction(
+        routeArgs(post(`/app/leads/${lead()}`, c, { intent: "note", note: "Checked the gate width." }), {
+          leadId: lead(),
+        }),
+      ),
+    expected: {
+      owner: BACK_TO_LEAD,
+      estimator: BACK_TO_LEAD,
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/leads/:id/design",
-    call: (c) => designAction(routeArgs(post(`/app/leads/${lead()}/design`, c, { design: "stone=x" }), { leadId: lead() })),
-    expected: { owner: "400", estimator: "400", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    call: (c) =>
+      designAction(routeArgs(post(`/app/leads/${lead()}/design`, c, { design: "stone=x" }), { leadId: lead() })),
+    expected: {
+      owner: "400",
+      estimator: "400",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "POST /app/team (deactivate the estimator)",
     call: (c) => teamAction(routeArgs(post("/app/team", c, { intent: "deactivate", userId: String(ids.estimator) }))),
     // The owner's own deactivation of the estimator is tested with the team; here only who may ask.
-    expected: { owner: "skip", estimator: "403", crew: "403", homeowner: SIGN_IN, anonymous: SIGN_IN, "other company's owner": "404" },
+    expected: {
+      owner: "skip",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
   },
   {
     name: "GET /my/consult/:id (someone else's consult)",
     call: (c) => moveConsultLoader(routeArgs(get(`/my/consult/${ids.booking}`, c), { bookingId: String(ids.booking) })),
-    expected: { owner: "403", estimator: "403", crew: "403", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "403" },
+    expected: {
+      owner: "403",
+      estimator: "403",
+      crew: "403",
+      homeowner: "404",
+      anonymous: SIGN_IN,
+      "other company's owner": "403",
+    },
   },
   {
     name: "POST /my/consult/:id (move someone else's consult)",
-    call: (c) => moveConsultAction(routeArgs(post(`/my/consult/${ids.booking}`, c, { startsAt: "2099-01-05T15:00:00.000Z" }), { bookingId: String(ids.booking) })),
-    expected: { owner: "403", estimator: "403", crew: "403", homeowner: "404", anonymous: SIGN_IN, "other company's owner": "403" },
+    call: (c) =>
+      moveConsultAction(
+        routeArgs(post(`/my/consult/${ids.booking}`, c, { startsAt: "2099-01-05T15:00:00.000Z" }), {
+          bookingId: String(ids.booking),
+        }),
+      ),
+    expected: {
+      owner: "403",
+      estimator: "403",
+      crew: "403",
+      homeowner: "404",
+      anonymous: SIGN_IN,
+      "other company's owner": "403",
+    },
   },
 ];
 
@@ -505,7 +1004,8 @@ async function moneyIn(value: unknown): Promise<string[]> {
     if (typeof node !== "object") return;
     for (const [key, child] of Object.entries(node)) {
       const where = path ? `${path}.${key}` : key;
-      if (MONEY_KEY.test(key) && child !== null && child !== undefined && child !== false) found.push(`${where}: ${JSON.stringify(child)}`);
+      if (MONEY_KEY.test(key) && child !== null && child !== undefined && child !== false)
+        found.push(`${where}: ${JSON.stringify(child)}`);
       walk(child, where);
     }
   };
@@ -520,7 +1020,11 @@ test("another company's owner reading the inbox, the API and the CSV sees only t
   const api = (await (await apiLeadsLoader(routeArgs(get("/api/leads", cookie)))).json()) as { rows: { id: number }[] };
   const csv = await ((await inboxCsvLoader(routeArgs(get("/app/inbox.csv", cookie)))) as Response).text();
   const theirs = await db.select({ id: leads.id, companyId: leads.companyId }).from(leads);
-  const cinder = new Set(theirs.filter((l) => l.companyId !== theirs.find((x) => x.id === inbox.inbox.rows[0]!.id)!.companyId).map((l) => l.id));
+  const cinder = new Set(
+    theirs
+      .filter((l) => l.companyId !== theirs.find((x) => x.id === inbox.inbox.rows[0]!.id)!.companyId)
+      .map((l) => l.id),
+  );
   expect(inbox.inbox.rows.length).toBeGreaterThan(0);
   for (const row of [...inbox.inbox.rows, ...api.rows]) expect(cinder.has(row.id)).toBe(false);
   expect(csv).not.toContain("Tobias Wren");
@@ -528,7 +1032,9 @@ test("another company's owner reading the inbox, the API and the CSV sees only t
 });
 
 test("the crew's view of their job carries no price, e-mail or phone", async () => {
-  const view = (await leadLoader(routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }))) as {
+  const view = (await leadLoader(
+    routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }),
+  )) as {
     lead: { email: string | null; phone: string | null; street: string };
     shown: { price: unknown; labour: unknown };
     timeline: unknown[];
@@ -565,16 +1071,25 @@ async function answerResponse(run: () => Promise<unknown>): Promise<Response> {
 
 test("a homeowner's “My requests” lists only proposals on their own requests", async () => {
   const { company } = await demoCompany();
-  const [owner] = await db.insert(users).values({ companyId: company.id, email: "proposal.owner@example.test", name: "Proposal Owner", role: "homeowner" }).returning();
+  const [owner] = await db
+    .insert(users)
+    .values({ companyId: company.id, email: "proposal.owner@example.test", name: "Proposal Owner", role: "homeowner" })
+    .returning();
   await db.update(leads).set({ homeownerId: owner!.id }).where(eq(leads.id, ids.otherLead));
-  const theirs = (await myLoader(routeArgs(get("/my", (await startSession(owner!.id)).split(";")[0])))) as { requests: { proposals: { href: string }[] }[] };
+  const theirs = (await myLoader(routeArgs(get("/my", (await startSession(owner!.id)).split(";")[0])))) as {
+    requests: { proposals: { href: string }[] }[];
+  };
   expect(theirs.requests.flatMap((r) => r.proposals.map((p) => p.href))).toEqual([`/p/${ids.token}`]);
-  const someoneElse = (await myLoader(routeArgs(get("/my", cookies.homeowner)))) as { requests: { proposals: unknown[] }[] };
+  const someoneElse = (await myLoader(routeArgs(get("/my", cookies.homeowner)))) as {
+    requests: { proposals: unknown[] }[];
+  };
   expect(JSON.stringify(someoneElse)).not.toContain(ids.token);
 });
 
 test("the crew's view of their job lists no proposals and no totals", async () => {
-  const view = (await leadLoader(routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }))) as { proposals: unknown[]; totals: unknown };
+  const view = (await leadLoader(
+    routeArgs(get(`/app/leads/${ids.wonLead}`, cookies.crew), { leadId: String(ids.wonLead) }),
+  )) as { proposals: unknown[]; totals: unknown };
   expect(view.proposals).toEqual([]);
   expect(view.totals).toBeNull();
 });

@@ -27,16 +27,22 @@ test("an anonymous request for a staff page is sent to sign-in, with the way bac
 
 test("a homeowner asking for a staff page is sent to sign-in, not shown a 403", async () => {
   const { people } = await createCompanyWithStaff();
-  const result = await outcome(requireUser(requestWithCookie("/app/settings", people.homeowner.cookie), { roles: STAFF }));
+  const result = await outcome(
+    requireUser(requestWithCookie("/app/settings", people.homeowner.cookie), { roles: STAFF }),
+  );
   expect(result).toMatch(/^redirect \/login/);
 });
 
 test("staff without the role get 403; the owner is allowed", async () => {
   const { people } = await createCompanyWithStaff();
   for (const role of ["estimator", "crew"] as const) {
-    expect(await outcome(requireUser(requestWithCookie("/app/settings", people[role].cookie), { roles: ["owner"] }))).toBe("status 403");
+    expect(
+      await outcome(requireUser(requestWithCookie("/app/settings", people[role].cookie), { roles: ["owner"] })),
+    ).toBe("status 403");
   }
-  expect(await outcome(requireUser(requestWithCookie("/app/settings", people.owner.cookie), { roles: ["owner"] }))).toBe("allowed");
+  expect(
+    await outcome(requireUser(requestWithCookie("/app/settings", people.owner.cookie), { roles: ["owner"] })),
+  ).toBe("allowed");
 });
 
 test("a tampered cookie signature counts as signed out", async () => {
@@ -48,7 +54,9 @@ test("a tampered cookie signature counts as signed out", async () => {
 test("ending a user's sessions on the server locks out a cookie that is still in the browser", async () => {
   const { people } = await createCompanyWithStaff();
   await endAllSessions(people.estimator.id);
-  expect(await outcome(requireUser(requestWithCookie("/app", people.estimator.cookie), { roles: STAFF }))).toMatch(/^redirect/);
+  expect(await outcome(requireUser(requestWithCookie("/app", people.estimator.cookie), { roles: STAFF }))).toMatch(
+    /^redirect/,
+  );
 });
 
 test("a query for another company's catalog item finds nothing, and an update changes nothing", async () => {
@@ -57,8 +65,16 @@ test("a query for another company's catalog item finds nothing, and an update ch
   expect(await findCatalogItem(mine.company.id, theirs.item.id)).toBeNull();
   expect((await listCatalog(mine.company.id)).map((i) => i.id)).not.toContain(theirs.item.id);
   const updated = await updateCatalogItem(mine.company.id, theirs.item.id, {
-    kind: "wall-unit", name: "Hijacked", colourName: "", colourHex: "#000000", priceCents: 1, isActive: true,
-    faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4,
+    kind: "wall-unit",
+    name: "Hijacked",
+    colourName: "",
+    colourHex: "#000000",
+    priceCents: 1,
+    isActive: true,
+    faceIn: 12,
+    backIn: 8,
+    depthIn: 8,
+    heightIn: 4,
   });
   expect(updated).toBe(false);
   const [row] = await db.select().from(catalogItems).where(eq(catalogItems.id, theirs.item.id));

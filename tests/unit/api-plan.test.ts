@@ -7,7 +7,11 @@ import { createCompanyWithStaff } from "./support/fixtures";
 async function postPlan(body: unknown, init: { raw?: string; cookie?: string } = {}) {
   const headers: Record<string, string> = { "Content-Type": "application/json" };
   if (init.cookie) headers.Cookie = init.cookie;
-  const request = new Request("http://localhost/api/plan", { method: "POST", headers, body: init.raw ?? JSON.stringify(body) });
+  const request = new Request("http://localhost/api/plan", {
+    method: "POST",
+    headers,
+    body: init.raw ?? JSON.stringify(body),
+  });
   const response = (await action(routeArgs(request))) as Response;
   return { status: response.status, json: await response.json() };
 }
@@ -23,12 +27,30 @@ const INLINE = {
 test("an inline 14-unit ring of 12/8/8 units answers the ring, caps and materials (ring and cap formulas derived from the regular polygon; worked example)", async () => {
   const { status, json } = await postPlan(INLINE);
   expect(status).toBe(200);
-  expect(json.ring).toMatchObject({ unitCount: 14, unitsPerCourse: 14, courses: 3, totalUnits: 42, limitedBy: "face", closure: null });
+  expect(json.ring).toMatchObject({
+    unitCount: 14,
+    unitsPerCourse: 14,
+    courses: 3,
+    totalUnits: 42,
+    limitedBy: "face",
+    closure: null,
+  });
   expect(json.ring.bowlDiameterIn).toBeCloseTo(36.575, 3);
   expect(json.ring.backGapIn).toBeCloseTo(0.348, 3);
   expect(json.ring.wallHeightIn).toBeCloseTo(14.5, 9);
   expect(json.caps.count).toBeGreaterThanOrEqual(3);
-  expect(Object.keys(json.caps)).toEqual(expect.arrayContaining(["innerWidthIn", "outerWidthIn", "innerMarkIn", "outerMarkIn", "offSquareDeg", "sideCutLengthIn", "innerOverhangIn", "outerOverhangIn"]));
+  expect(Object.keys(json.caps)).toEqual(
+    expect.arrayContaining([
+      "innerWidthIn",
+      "outerWidthIn",
+      "innerMarkIn",
+      "outerMarkIn",
+      "offSquareDeg",
+      "sideCutLengthIn",
+      "innerOverhangIn",
+      "outerOverhangIn",
+    ]),
+  );
   expect(json.materials.map((m: { item: string }) => m.item).length).toBeGreaterThan(2);
   expect(json.price).toBeNull();
   expect(Array.isArray(json.warnings) && Array.isArray(json.cautions)).toBe(true);
@@ -53,7 +75,11 @@ test("catalog references with the company slug price the job as a range in whole
     courses: 4,
     cap: { id: byName("Sill Cap 16").id, innerOverhangIn: 1 },
     liner: { id: byName("Heavy Ring 36").id },
-    patio: { outsideRadiusIn: 96, border: { id: byName("Rim Border 4×8").id }, paver: { id: byName("Courtyard Paver 6×9").id } },
+    patio: {
+      outsideRadiusIn: 96,
+      border: { id: byName("Rim Border 4×8").id },
+      paver: { id: byName("Courtyard Paver 6×9").id },
+    },
     site: { setbackFt: 30 },
   });
   expect(status).toBe(200);
@@ -68,7 +94,13 @@ test("catalog references with the company slug price the job as a range in whole
 test("the company's own owner sees the cost breakdown; another company's owner does not", async () => {
   const { byName, company } = await demoCompany();
   const mine = await createCompanyWithStaff();
-  const body = { company: "cinder-slate", ring: { unitCount: 14 }, wallUnit: { id: byName("Hearthline Taper").id }, courses: 3, cap: null };
+  const body = {
+    company: "cinder-slate",
+    ring: { unitCount: 14 },
+    wallUnit: { id: byName("Hearthline Taper").id },
+    courses: 3,
+    cap: null,
+  };
   const { loginAs } = await import("./support/login");
   const ownCookie = await loginAs(company.id, "owner");
   expect((await postPlan(body, { cookie: ownCookie })).json.price.breakdown.totalCents).toBeGreaterThan(0);
@@ -121,10 +153,16 @@ test("a cap too shallow to sit on the wall answers 422 in plain words", async ()
 
 test("random and hostile bodies always get a 2xx or 4xx answer, never a 500 (fast-check)", async () => {
   await fc.assert(
-    fc.asyncProperty(fc.oneof(fc.anything(), fc.record({ ring: fc.anything(), wallUnit: fc.anything(), courses: fc.anything(), cap: fc.anything() })), async (body) => {
-      const { status } = await postPlan(body, { raw: JSON.stringify(body) ?? "null" });
-      expect(status === 200 || (status >= 400 && status < 500)).toBe(true);
-    }),
+    fc.asyncProperty(
+      fc.oneof(
+        fc.anything(),
+        fc.record({ ring: fc.anything(), wallUnit: fc.anything(), courses: fc.anything(), cap: fc.anything() }),
+      ),
+      async (body) => {
+        const { status } = await postPlan(body, { raw: JSON.stringify(body) ?? "null" });
+        expect(status === 200 || (status >= 400 && status < 500)).toBe(true);
+      },
+    ),
     { numRuns: 150 },
   );
 });

@@ -38,7 +38,12 @@ let company: Company;
 let leadId: number;
 
 beforeAll(async () => {
-  payments = await startPaymentsFake({ port: 0, webhookUrl: null, stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-jobs-")), "state.json"), log: () => {} });
+  payments = await startPaymentsFake({
+    port: 0,
+    webhookUrl: null,
+    stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-jobs-")), "state.json"),
+    log: () => {},
+  });
   mailFake = await startEmailFake({ port: 0 });
   stripe = createStripe(payments.url);
   mail = new Resend("re_test_key", { baseUrl: mailFake.url });
@@ -69,30 +74,55 @@ async function owedRefund(paymentIntentId?: string) {
   if (!intent) {
     const session = await stripe.checkout.sessions.create({
       mode: "payment",
-      line_items: [{ price_data: { currency: "usd", unit_amount: 15000, product_data: { name: "Design consult" } }, quantity: 1 }],
+      line_items: [
+        { price_data: { currency: "usd", unit_amount: 15000, product_data: { name: "Design consult" } }, quantity: 1 },
+      ],
       success_url: "http://localhost/done",
     });
-    await fetch(`${payments.url}/_fake/sessions/${session.id}/pay`, { method: "POST", body: JSON.stringify({ card: "4242424242424242" }), headers: { "Content-Type": "application/json" } });
+    await fetch(`${payments.url}/_fake/sessions/${session.id}/pay`, {
+      method: "POST",
+      body: JSON.stringify({ card: "4242424242424242" }),
+      headers: { "Content-Type": "application/json" },
+    });
     intent = String((await stripe.checkout.sessions.retrieve(session.id)).payment_intent);
   }
   const [row] = await db
     .insert(bookings)
-    .values({ companyId: company.id, leadId, ...nextSlot(), status: "cancelled", isPaid: true, paymentIntentId: intent, holdExpiresAt: new Date().toISOString(), amountCents: 15000, cancelledBy: "staff", cancelReason: "staff" })
+    .values({
+      companyId: company.id,
+      leadId,
+      ...nextSlot(),
+      status: "cancelled",
+      isPaid: true,
+      paymentIntentId: intent,
+      holdExpiresAt: new Date().toISOString(),
+      amountCents: 15000,
+      cancelledBy: "staff",
+      cancelReason: "staff",
+    })
     .returning();
   return row!;
 }
 
 /** A deposit paid through the payments fake (or with the given intent) that the owner refunded: a refund is owed. */
 async function owedDeposit(paymentIntentId?: string) {
-  const intent = paymentIntentId ?? (await owedRefund().then(async (b) => {
-    // The consult row only lent its paid intent; it is settled so the consult refund tests never meet it.
-    await db.update(bookings).set({ refundId: "by-hand" }).where(eq(bookings.id, b.id));
-    return b.paymentIntentId!;
-  }));
+  const intent =
+    paymentIntentId ??
+    (await owedRefund().then(async (b) => {
+      // The consult row only lent its paid intent; it is settled so the consult refund tests never meet it.
+      await db.update(bookings).set({ refundId: "by-hand" }).where(eq(bookings.id, b.id));
+      return b.paymentIntentId!;
+    }));
   const { proposal } = await sentProposal();
   const [row] = await db
     .update(proposals)
-    .set({ status: "signed", depositCents: 145_500, paymentIntentId: intent, refundOwedAt: new Date().toISOString(), refundReason: "Moved house." })
+    .set({
+      status: "signed",
+      depositCents: 145_500,
+      paymentIntentId: intent,
+      refundOwedAt: new Date().toISOString(),
+      refundReason: "Moved house.",
+    })
     .where(eq(proposals.id, proposal.id))
     .returning();
   return row!;
@@ -131,25 +161,43 @@ function countingMail() {
   return { client, sends };
 }
 
-const fakeMessages = async () => (await (await fetch(`${mailFake.url}/_fake/messages`)).json()) as { to: string[]; idempotency_key: string | null }[];
+const fakeMessages = async () =>
+  (await (await fetch(`${mailFake.url}/_fake/messages`)).json()) as { to: string[]; idempotency_key: string | null }[];
 const refundRequests = async () =>
-  ((await (await fetch(`${payments.url}/_fake/requests`)).json()) as { data: { method: string; path: string; idempotencyKey: string | null; status: number }[] }).data.filter(
-    (r) => r.method === "POST" && r.path === "/v1/refunds",
-  );
+  (
+    (await (await fetch(`${payments.url}/_fake/requests`)).json()) as {
+      data: { method: string; path: string; idempotencyKey: string | null; status: number }[];
+    }
+  ).data.filter((r) => r.method === "POST" && r.path === "/v1/refunds");
 
 test("one refund the payment service keeps failing does not starve the refunds behind it", async () => {
   // Twenty refunds fail (the service answers 500 for them); the twenty-first is fine.
-  const flaky = await Promise.all(Array.from({ length: 20 }, (_, i) => owedRefund(`pi_flaky_${i}_${randomUUID().slice(0, 6)}`)));
+  const flaky = await Promise.all(
+    Array.from({ length: 20 }, (_, i) => owedRefund(`pi_flaky_${i}_${randomUUID().slice(0, 6)}`)),
+  );
   const good = await owedRefund();
   // Afterwards they are refunded by hand, so the tests below never meet them.
   onTestFinished(async () => {
-    await db.update(bookings).set({ refundId: "by-hand" }).where(inArray(bookings.id, [...flaky, good].map((b) => b.id)));
+    await db
+      .update(bookings)
+      .set({ refundId: "by-hand" })
+      .where(
+        inArray(
+          bookings.id,
+          [...flaky, good].map((b) => b.id),
+        ),
+      );
   });
   const failing = {
     refunds: {
       create: (params: Stripe.RefundCreateParams, options?: Stripe.RequestOptions) =>
         String(params.payment_intent).startsWith("pi_flaky_")
-          ? Promise.reject(Object.assign(new Error("An error occurred with our connection to the payment service."), { statusCode: 500, type: "StripeAPIError" }))
+          ? Promise.reject(
+              Object.assign(new Error("An error occurred with our connection to the payment service."), {
+                statusCode: 500,
+                type: "StripeAPIError",
+              }),
+            )
           : stripe.refunds.create(params, options),
     },
   } as unknown as Stripe;
@@ -162,7 +210,15 @@ test("one refund the payment service keeps failing does not starve the refunds b
   }
   const [row] = await db.select().from(bookings).where(eq(bookings.id, good.id));
   expect(row!.refundId).toMatch(/^re_/);
-  const stuck = await db.select().from(bookings).where(inArray(bookings.id, flaky.map((b) => b.id)));
+  const stuck = await db
+    .select()
+    .from(bookings)
+    .where(
+      inArray(
+        bookings.id,
+        flaky.map((b) => b.id),
+      ),
+    );
   // Each failing refund was tried once and waits its backoff; none is given up after one 500.
   expect(stuck.map((b) => [b.refundAttempts, b.refundFailedAt, b.refundId])).toEqual(stuck.map(() => [1, null, null]));
   expect(stuck.every((b) => b.refundNextAt! > new Date().toISOString())).toBe(true);
@@ -175,12 +231,16 @@ test("a refund that keeps failing is tried with backoff, logs a handful of lines
     refunds: {
       create: (params: Stripe.RefundCreateParams) => {
         if (params.payment_intent === booking.paymentIntentId) tries += 1;
-        return Promise.reject(Object.assign(new Error("The payment service is unavailable."), { statusCode: 503, type: "StripeAPIError" }));
+        return Promise.reject(
+          Object.assign(new Error("The payment service is unavailable."), { statusCode: 503, type: "StripeAPIError" }),
+        );
       },
     },
   } as unknown as Stripe;
   const lines: string[] = [];
-  const errors = vi.spyOn(console, "error").mockImplementation((...args: unknown[]) => void lines.push(args.map(String).join(" ")));
+  const errors = vi
+    .spyOn(console, "error")
+    .mockImplementation((...args: unknown[]) => void lines.push(args.map(String).join(" ")));
   const start = Date.now();
   try {
     // Ten minutes of passes, one a second as the worker runs them…
@@ -202,10 +262,20 @@ test("a refund that keeps failing is tried with backoff, logs a handful of lines
 
   // The owner sees it with its reason, and "Try again" puts it back in the queue.
   const owner = await loginAs(company.id, "owner");
-  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { refunds: { key: string; lastError: string | null }[] };
+  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as {
+    refunds: { key: string; lastError: string | null }[];
+  };
   expect(page.refunds.find((r) => r.key === `consult-${booking.id}`)?.lastError).toMatch(/unavailable/);
   const body = new URLSearchParams({ intent: "retry-refund", id: String(booking.id) });
-  await attentionAction(routeArgs(requestWithCookie("/app/attention", owner, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } })));
+  await attentionAction(
+    routeArgs(
+      requestWithCookie("/app/attention", owner, {
+        method: "POST",
+        body,
+        headers: { "Content-Type": "application/x-www-form-urlencoded" },
+      }),
+    ),
+  );
   const [again] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(again).toMatchObject({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null });
   // (Refunded by hand meanwhile, so the tests below do not meet it.)
@@ -219,7 +289,10 @@ test("an e-mail the service refuses for good is marked failed at once and shown 
     emails: {
       send: (payload: { to: string | string[] }, options?: { idempotencyKey?: string }) =>
         options?.idempotencyKey === bad!.idempotencyKey
-          ? Promise.resolve({ data: null, error: { statusCode: 422, name: "validation_error", message: "Invalid `to` field." } })
+          ? Promise.resolve({
+              data: null,
+              error: { statusCode: 422, name: "validation_error", message: "Invalid `to` field." },
+            })
           : mail.emails.send(payload as never, options),
     },
   } as unknown as Pick<Resend, "emails">;
@@ -228,11 +301,16 @@ test("an e-mail the service refuses for good is marked failed at once and shown 
   } finally {
     errors.mockRestore();
   }
-  const rows = await db.select().from(emailOutbox).where(inArray(emailOutbox.id, [bad!.id, good!.id]));
+  const rows = await db
+    .select()
+    .from(emailOutbox)
+    .where(inArray(emailOutbox.id, [bad!.id, good!.id]));
   expect(rows.find((r) => r.id === bad!.id)).toMatchObject({ status: "failed", attempts: 1, leaseOwner: null });
   expect(rows.find((r) => r.id === good!.id)).toMatchObject({ status: "sent", leaseOwner: null });
   const owner = await loginAs(company.id, "owner");
-  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { mail: { id: number; lastError: string | null }[] };
+  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as {
+    mail: { id: number; lastError: string | null }[];
+  };
   expect(page.mail.find((m) => m.id === bad!.id)?.lastError).toMatch(/^422 validation_error/);
 });
 
@@ -242,7 +320,16 @@ test("two workers on one database at the same time send each e-mail once, make e
   const refunds = await Promise.all(Array.from({ length: 6 }, () => owedRefund()));
   const lapsed = await db
     .insert(bookings)
-    .values(Array.from({ length: 5 }, () => ({ companyId: company.id, leadId, ...nextSlot(), status: "held" as const, holdExpiresAt: new Date(Date.now() - 60_000).toISOString(), amountCents: 15000 })))
+    .values(
+      Array.from({ length: 5 }, () => ({
+        companyId: company.id,
+        leadId,
+        ...nextSlot(),
+        status: "held" as const,
+        holdExpiresAt: new Date(Date.now() - 60_000).toISOString(),
+        amountCents: 15000,
+      })),
+    )
     .returning({ id: bookings.id });
   const { client, sends } = countingMail();
   const workers = [
@@ -255,7 +342,11 @@ test("two workers on one database at the same time send each e-mail once, make e
   for (let round = 0; round < 3; round += 1) {
     await Promise.all(
       workers.map(async (w) => {
-        await Promise.all([deliverDueEmails(now, client, w), processRefunds(stripe, { ...w, now }), releaseLapsedHolds(now, w.db).then((ids) => released.push(...(ids ?? [])))]);
+        await Promise.all([
+          deliverDueEmails(now, client, w),
+          processRefunds(stripe, { ...w, now }),
+          releaseLapsedHolds(now, w.db).then((ids) => released.push(...(ids ?? []))),
+        ]);
       }),
     );
   }
@@ -263,9 +354,20 @@ test("two workers on one database at the same time send each e-mail once, make e
   const delivered = (await fakeMessages()).filter((m) => m.idempotency_key?.startsWith(`job-test/${tag}/`));
   expect(delivered).toHaveLength(45);
   const refundKeys = (await refundRequests()).map((r) => r.idempotencyKey);
-  for (const b of refunds) expect(refundKeys.filter((k) => k === `refund:${b.id}`), `refund:${b.id}`).toHaveLength(1);
-  for (const b of lapsed) expect(released.filter((id) => id === b.id), `hold ${b.id}`).toHaveLength(1);
-  const sent = await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `job-test/${tag}/%`));
+  for (const b of refunds)
+    expect(
+      refundKeys.filter((k) => k === `refund:${b.id}`),
+      `refund:${b.id}`,
+    ).toHaveLength(1);
+  for (const b of lapsed)
+    expect(
+      released.filter((id) => id === b.id),
+      `hold ${b.id}`,
+    ).toHaveLength(1);
+  const sent = await db
+    .select()
+    .from(emailOutbox)
+    .where(like(emailOutbox.idempotencyKey, `job-test/${tag}/%`));
   expect(sent.every((r) => r.status === "sent" && r.attempts === 1 && r.leaseOwner === null)).toBe(true);
 });
 
@@ -312,12 +414,16 @@ test("a deposit refund the payment service keeps refusing is tried with backoff,
     refunds: {
       create: (params: Stripe.RefundCreateParams) => {
         if (params.payment_intent === deposit.paymentIntentId) tries += 1;
-        return Promise.reject(Object.assign(new Error("The payment service is unavailable."), { statusCode: 503, type: "StripeAPIError" }));
+        return Promise.reject(
+          Object.assign(new Error("The payment service is unavailable."), { statusCode: 503, type: "StripeAPIError" }),
+        );
       },
     },
   } as unknown as Stripe;
   const lines: string[] = [];
-  const errors = vi.spyOn(console, "error").mockImplementation((...args: unknown[]) => void lines.push(args.map(String).join(" ")));
+  const errors = vi
+    .spyOn(console, "error")
+    .mockImplementation((...args: unknown[]) => void lines.push(args.map(String).join(" ")));
   const start = Date.now();
   try {
     // A pass a second for ten minutes: the 30 s, 1 min, 2 min, 4 min waits allow five tries, not 600.
@@ -338,17 +444,31 @@ test("a deposit refund the payment service keeps refusing is tried with backoff,
   expect(row!.refundFailedAt).not.toBeNull();
 
   const owner = await loginAs(company.id, "owner");
-  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as { refunds: { key: string; what: string; amount: string; lastError: string | null }[] };
+  const page = (await attentionLoader(routeArgs(requestWithCookie("/app/attention", owner)))) as {
+    refunds: { key: string; what: string; amount: string; lastError: string | null }[];
+  };
   const listed = page.refunds.find((r) => r.key === `deposit-${deposit.id}`);
   expect(listed?.lastError).toMatch(/^503 .*unavailable/);
   expect(listed?.what).toMatch(/^Deposit on /);
   expect(listed?.amount).toBe("$1,455.00");
   const body = new URLSearchParams({ intent: "retry-deposit-refund", id: String(deposit.id) });
-  await attentionAction(routeArgs(requestWithCookie("/app/attention", owner, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } })));
+  await attentionAction(
+    routeArgs(
+      requestWithCookie("/app/attention", owner, {
+        method: "POST",
+        body,
+        headers: { "Content-Type": "application/x-www-form-urlencoded" },
+      }),
+    ),
+  );
   const [again] = await db.select().from(proposals).where(eq(proposals.id, deposit.id));
   expect(again).toMatchObject({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null });
   // A company's owner cannot requeue another company's row: the same id under another company is not found.
-  expect(await import("~/lib/proposals/proposal-payments.server").then((m) => m.retryFailedDepositRefund(deposit.id, company.id + 999))).toBe(false);
+  expect(
+    await import("~/lib/proposals/proposal-payments.server").then((m) =>
+      m.retryFailedDepositRefund(deposit.id, company.id + 999),
+    ),
+  ).toBe(false);
   await db.update(proposals).set({ refundId: "by-hand" }).where(eq(proposals.id, deposit.id));
 });
 
@@ -356,18 +476,32 @@ test("two workers at once make each deposit refund once, and a worker that dies 
   const deposits = await Promise.all(Array.from({ length: 4 }, () => owedDeposit()));
   const now = new Date();
   for (let round = 0; round < 3; round += 1) {
-    await Promise.all([processDepositRefunds(stripe, { db, owner: "worker-a", now }), processDepositRefunds(stripe, { db: second.db, owner: "worker-b", now })]);
+    await Promise.all([
+      processDepositRefunds(stripe, { db, owner: "worker-a", now }),
+      processDepositRefunds(stripe, { db: second.db, owner: "worker-b", now }),
+    ]);
   }
   const keys = (await refundRequests()).map((r) => r.idempotencyKey);
-  for (const d of deposits) expect(keys.filter((k) => k === `refund:deposit:${d.id}`), `refund:deposit:${d.id}`).toHaveLength(1);
+  for (const d of deposits)
+    expect(
+      keys.filter((k) => k === `refund:deposit:${d.id}`),
+      `refund:deposit:${d.id}`,
+    ).toHaveLength(1);
 
   const stuck = await owedDeposit();
   let hung = 0;
-  void processDepositRefunds({ refunds: { create: () => ((hung += 1), new Promise<never>(() => {})) } } as unknown as Stripe, { db, owner: "dying", now });
+  void processDepositRefunds(
+    { refunds: { create: () => ((hung += 1), new Promise<never>(() => {})) } } as unknown as Stripe,
+    { db, owner: "dying", now },
+  );
   await vi.waitFor(() => expect(hung).toBe(1));
   await processDepositRefunds(stripe, { db: second.db, owner: "survivor", now: new Date(now.getTime() + 1000) });
   expect((await refundRequests()).filter((r) => r.idempotencyKey === `refund:deposit:${stuck.id}`)).toHaveLength(0);
-  await processDepositRefunds(stripe, { db: second.db, owner: "survivor", now: new Date(now.getTime() + LEASE_MS + 1000) });
+  await processDepositRefunds(stripe, {
+    db: second.db,
+    owner: "survivor",
+    now: new Date(now.getTime() + LEASE_MS + 1000),
+  });
   expect((await refundRequests()).filter((r) => r.idempotencyKey === `refund:deposit:${stuck.id}`)).toHaveLength(1);
   const [row] = await db.select().from(proposals).where(eq(proposals.id, stuck.id));
   expect(row).toMatchObject({ refundAttempts: 2, refundLeaseOwner: null });
@@ -380,7 +514,10 @@ test("the upload sweep runs in one process at a time, every ten minutes, and a f
     runs += 1;
   };
   const now = new Date(Date.now() + 24 * 3_600_000);
-  const took = await Promise.all([sweepStrayUploads({ db, owner: "a", now, sweep }), sweepStrayUploads({ db: second.db, owner: "b", now, sweep })]);
+  const took = await Promise.all([
+    sweepStrayUploads({ db, owner: "a", now, sweep }),
+    sweepStrayUploads({ db: second.db, owner: "b", now, sweep }),
+  ]);
   expect(took.filter(Boolean)).toHaveLength(1);
   expect(runs).toBe(1);
   expect(await sweepStrayUploads({ db, owner: "a", now: new Date(now.getTime() + 9 * 60_000), sweep })).toBe(false);
@@ -391,10 +528,18 @@ test("the upload sweep runs in one process at a time, every ten minutes, and a f
     const failAt = new Date(now.getTime() + 30 * 60_000);
     await sweepStrayUploads({ db, owner: "a", now: failAt, sweep: () => Promise.reject(new Error("disk gone")) });
     const [lease] = await db.select().from(jobLeases).where(eq(jobLeases.name, "upload-sweep"));
-    expect(lease).toMatchObject({ attempts: 1, lastError: "disk gone", leaseOwner: null, nextRunAt: new Date(failAt.getTime() + 60_000).toISOString() });
+    expect(lease).toMatchObject({
+      attempts: 1,
+      lastError: "disk gone",
+      leaseOwner: null,
+      nextRunAt: new Date(failAt.getTime() + 60_000).toISOString(),
+    });
     expect(errors).toHaveBeenCalledTimes(1);
   } finally {
     errors.mockRestore();
   }
-  await db.update(jobLeases).set({ nextRunAt: new Date(0).toISOString(), attempts: 0 }).where(and(eq(jobLeases.name, "upload-sweep")));
+  await db
+    .update(jobLeases)
+    .set({ nextRunAt: new Date(0).toISOString(), attempts: 0 })
+    .where(and(eq(jobLeases.name, "upload-sweep")));
 });

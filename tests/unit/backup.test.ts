@@ -11,7 +11,16 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { createClient } from "@libsql/client";
 import { expect, test } from "vitest";
-import { BackupError, checkBackup, createBackup, databaseFileOf, DB_FILE, MANIFEST_FILE, restoreBackup, type Manifest } from "../../scripts/backup-core";
+import {
+  BackupError,
+  checkBackup,
+  createBackup,
+  databaseFileOf,
+  DB_FILE,
+  MANIFEST_FILE,
+  restoreBackup,
+  type Manifest,
+} from "../../scripts/backup-core";
 import { demoCompany } from "./support/demo";
 
 const migrationsFolder = path.resolve(__dirname, "../../drizzle");
@@ -29,7 +38,9 @@ async function backupOfTestDatabase() {
 async function resealManifest(folder: string) {
   const { createHash } = await import("node:crypto");
   const manifest = JSON.parse(await readFile(path.join(folder, MANIFEST_FILE), "utf8")) as Manifest;
-  manifest.database.sha256 = createHash("sha256").update(await readFile(path.join(folder, DB_FILE))).digest("hex");
+  manifest.database.sha256 = createHash("sha256")
+    .update(await readFile(path.join(folder, DB_FILE)))
+    .digest("hex");
   await writeFile(path.join(folder, MANIFEST_FILE), JSON.stringify(manifest));
 }
 
@@ -51,7 +62,12 @@ test("a backup is a dated folder with the database copy, the photos and a manife
 test("a restore into a fresh data folder brings back the database and the photos", async () => {
   const { folder, manifest } = await backupOfTestDatabase();
   const target = scratch();
-  const result = await restoreBackup({ folder, databaseUrl: `file:${path.join(target, "emberwright.db")}`, uploadsDir: path.join(target, "uploads"), migrationsFolder });
+  const result = await restoreBackup({
+    folder,
+    databaseUrl: `file:${path.join(target, "emberwright.db")}`,
+    uploadsDir: path.join(target, "uploads"),
+    migrationsFolder,
+  });
   expect(result.rows).toEqual(manifest.rows);
   expect(readdirSync(path.join(target, "uploads")).sort()).toEqual(readdirSync(path.join(folder, "uploads")).sort());
 });
@@ -59,7 +75,12 @@ test("a restore into a fresh data folder brings back the database and the photos
 test("a restore over an existing database needs --replace, and keeps the old file beside the new one", async () => {
   const { folder } = await backupOfTestDatabase();
   const target = scratch();
-  const args = { folder, databaseUrl: `file:${path.join(target, "emberwright.db")}`, uploadsDir: path.join(target, "uploads"), migrationsFolder };
+  const args = {
+    folder,
+    databaseUrl: `file:${path.join(target, "emberwright.db")}`,
+    uploadsDir: path.join(target, "uploads"),
+    migrationsFolder,
+  };
   await restoreBackup(args);
   await expect(restoreBackup(args)).rejects.toThrow(/exists.*--replace/);
   const again = await restoreBackup({ ...args, replace: true });
@@ -74,7 +95,14 @@ test("a changed database file is refused by its checksum, before anything is wri
   bytes[bytes.length - 100] = bytes[bytes.length - 100]! ^ 0xff;
   await writeFile(file, bytes);
   const target = scratch();
-  await expect(restoreBackup({ folder, databaseUrl: `file:${path.join(target, "emberwright.db")}`, uploadsDir: path.join(target, "uploads"), migrationsFolder })).rejects.toThrow(/SHA-256/);
+  await expect(
+    restoreBackup({
+      folder,
+      databaseUrl: `file:${path.join(target, "emberwright.db")}`,
+      uploadsDir: path.join(target, "uploads"),
+      migrationsFolder,
+    }),
+  ).rejects.toThrow(/SHA-256/);
   expect(existsSync(target)).toBe(false);
 });
 
@@ -101,7 +129,9 @@ test("a backup from newer code (a migration this code lacks) is refused; an olde
 
   const older = (await backupOfTestDatabase()).folder;
   const old = createClient({ url: `file:${path.join(older, DB_FILE)}` });
-  await old.execute("DELETE FROM __drizzle_migrations WHERE created_at = (SELECT max(created_at) FROM __drizzle_migrations)");
+  await old.execute(
+    "DELETE FROM __drizzle_migrations WHERE created_at = (SELECT max(created_at) FROM __drizzle_migrations)",
+  );
   old.close();
   await resealManifest(older);
   expect((await checkBackup(older, migrationsFolder)).pendingMigrations).toBe(1);

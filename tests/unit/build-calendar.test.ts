@@ -27,7 +27,8 @@ function parse(text: string) {
 function occurrences(event: ICAL.Event): string[] {
   const days: string[] = [];
   const iterator = event.iterator();
-  for (let next = iterator.next(); next && days.length < 60; next = iterator.next()) days.push(next.toString().slice(0, 10));
+  for (let next = iterator.next(); next && days.length < 60; next = iterator.next())
+    days.push(next.toString().slice(0, 10));
   return days;
 }
 
@@ -74,7 +75,10 @@ test("a cancelled build is METHOD:CANCEL with STATUS:CANCELLED under the same UI
 });
 
 test("the crew feed is a published calendar with each build once, and an empty feed is still a calendar", () => {
-  const feed = buildCalendarFeed([BASE, { ...BASE, buildId: 42, sequence: 2, dates: ["2026-12-14"] }], "Sam's builds\r\nX-EVIL:1");
+  const feed = buildCalendarFeed(
+    [BASE, { ...BASE, buildId: 42, sequence: 2, dates: ["2026-12-14"] }],
+    "Sam's builds\r\nX-EVIL:1",
+  );
   const { calendar, events } = parse(feed);
   expect(calendar.getFirstPropertyValue("method")).toBe("PUBLISH");
   expect(events.map((e) => e.uid)).toEqual(["build-41@emberwright", "build-42@emberwright"]);

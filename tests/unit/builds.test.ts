@@ -8,7 +8,16 @@ import { eq, like } from "drizzle-orm";
 import { beforeAll, expect, test } from "vitest";
 import { buildCrew, builds, companies, emailOutbox, leads, users, type Company } from "~/db/schema";
 import { addCalendarDays, buildDates, weekdayOf } from "~/domain/build-schedule";
-import { bookBuild, calendarFeedFor, cancelBuild, issueCalendarFeed, jobLabourHours, moveBuild, revokeCalendarFeed, workCalendarFor } from "~/lib/builds/builds.server";
+import {
+  bookBuild,
+  calendarFeedFor,
+  cancelBuild,
+  issueCalendarFeed,
+  jobLabourHours,
+  moveBuild,
+  revokeCalendarFeed,
+  workCalendarFor,
+} from "~/lib/builds/builds.server";
 import { db } from "~/lib/platform/db.server";
 import { action as buildAction, loader as buildLoader } from "~/routes/app-lead-build";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -57,7 +66,13 @@ function icsOf(row: { attachmentsJson: string }) {
   const days: string[] = [];
   const it = event.iterator();
   for (let next = it.next(); next && days.length < 40; next = it.next()) days.push(next.toString().slice(0, 10));
-  return { method: calendar.getFirstPropertyValue("method"), uid: event.uid, sequence: event.sequence, days, status: event.component.getFirstPropertyValue("status") };
+  return {
+    method: calendar.getFirstPropertyValue("method"),
+    uid: event.uid,
+    sequence: event.sequence,
+    days,
+    status: event.component.getFirstPropertyValue("status"),
+  };
 }
 
 test("booking lays the job's labour-hours over the crew's days, moves the job to “build booked” and e-mails everyone the event", async () => {
@@ -66,7 +81,13 @@ test("booking lays the job's labour-hours over the crew's days, moves the job to
   const hours = await jobLabourHours(lead);
   expect(hours).toBeGreaterThan(0);
   const start = await farMonday();
-  const result = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: null, notes: "", allowClash: false }, ORIGIN);
+  const result = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start, crewUserIds: [crewA.id], days: null, notes: "", allowClash: false },
+    ORIGIN,
+  );
   if (!result.ok) throw new Error(JSON.stringify(result));
   // Days = ceil(hours / (2 people × 8 h)) with the demo company's crew of 2 on 8-hour days.
   const expectedDays = Math.max(1, Math.ceil(hours / 16 - 1e-9));
@@ -78,28 +99,60 @@ test("booking lays the job's labour-hours over the crew's days, moves the job to
   const [homeowner] = await mailFor(`build-booked/${result.build.id}/0`);
   expect(homeowner!.toAddress).toBe(lead.email);
   const ics = icsOf(homeowner!);
-  expect(ics).toMatchObject({ method: "REQUEST", uid: `build-${result.build.id}@emberwright`, sequence: 0, days: dates });
+  expect(ics).toMatchObject({
+    method: "REQUEST",
+    uid: `build-${result.build.id}@emberwright`,
+    sequence: 0,
+    days: dates,
+  });
   const [crewMail] = await mailFor(`build-crew-booked/${result.build.id}/${crewA.id}/0`);
   expect(crewMail!.toAddress).toBe(crewA.email);
   // The reminder waits for 8 a.m. company time the day before the first day.
   const [reminder] = await mailFor(`build-reminder/${result.build.id}/0`);
   expect(reminder!.status).toBe("pending");
   const dayBefore = addCalendarDays(dates[0]!, -1);
-  expect(new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone, year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", hourCycle: "h23" }).format(new Date(reminder!.sendAfter))).toBe(`${dayBefore}, 08`);
+  expect(
+    new Intl.DateTimeFormat("en-CA", {
+      timeZone: company.timeZone,
+      year: "numeric",
+      month: "2-digit",
+      day: "2-digit",
+      hour: "2-digit",
+      hourCycle: "h23",
+    }).format(new Date(reminder!.sendAfter)),
+  ).toBe(`${dayBefore}, 08`);
   expect(reminder!.text).toMatch(/utility locate marks/);
 
   // A second booking for the same job is refused: move it instead.
-  const again = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: false }, ORIGIN);
+  const again = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: false },
+    ORIGIN,
+  );
   expect(again).toMatchObject({ ok: false, status: 409 });
 });
 
 test("the same crew member on another build the same days is a clash, named, unless the owner books anyway", async () => {
   const owner = await officeUser(company.id, "owner");
   const start = await farMonday();
-  const first = await bookBuild(owner, await signedJob(), company, { start, crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  const first = await bookBuild(
+    owner,
+    await signedJob(),
+    company,
+    { start, crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false },
+    ORIGIN,
+  );
   expect(first.ok).toBe(true);
   const second = await signedJob();
-  const refused = await bookBuild(owner, second, company, { start: addCalendarDays(start, 1), crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  const refused = await bookBuild(
+    owner,
+    second,
+    company,
+    { start: addCalendarDays(start, 1), crewUserIds: [crewB.id], days: 2, notes: "", allowClash: false },
+    ORIGIN,
+  );
   expect(refused).toMatchObject({ ok: false, status: 409 });
   if (refused.ok) return;
   expect(refused.clashes).toHaveLength(1);
@@ -107,7 +160,13 @@ test("the same crew member on another build the same days is a clash, named, unl
   // Nothing half-saved: the job is still signed, no build row.
   expect((await db.select().from(builds).where(eq(builds.leadId, second.id))).length).toBe(0);
   // A different person the same days is no clash.
-  const other = await bookBuild(owner, second, company, { start: addCalendarDays(start, 1), crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  const other = await bookBuild(
+    owner,
+    second,
+    company,
+    { start: addCalendarDays(start, 1), crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false },
+    ORIGIN,
+  );
   expect(other.ok).toBe(true);
 });
 
@@ -115,12 +174,37 @@ test("moving keeps the UID and raises SEQUENCE; two moves at once: one wins, the
   const owner = await officeUser(company.id, "owner");
   const lead = await signedJob();
   const start = await farMonday();
-  const booked = await bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false }, ORIGIN);
+  const booked = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start, crewUserIds: [crewA.id], days: 2, notes: "", allowClash: false },
+    ORIGIN,
+  );
   if (!booked.ok) throw new Error("not booked");
   const target = addCalendarDays(start, 3); // Thursday: Thursday and Friday.
   const [a, b] = await Promise.all([
-    moveBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, start: target, days: null, crewUserIds: null, allowClash: true }, ORIGIN),
-    moveBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, start: addCalendarDays(start, 7), days: null, crewUserIds: null, allowClash: true }, ORIGIN),
+    moveBuild(
+      owner,
+      lead,
+      company,
+      { buildId: booked.build.id, sequence: 0, start: target, days: null, crewUserIds: null, allowClash: true },
+      ORIGIN,
+    ),
+    moveBuild(
+      owner,
+      lead,
+      company,
+      {
+        buildId: booked.build.id,
+        sequence: 0,
+        start: addCalendarDays(start, 7),
+        days: null,
+        crewUserIds: null,
+        allowClash: true,
+      },
+      ORIGIN,
+    ),
   ]);
   expect([a.ok, b.ok].sort()).toEqual([false, true]);
   const loser = a.ok ? b : a;
@@ -140,14 +224,37 @@ test("moving keeps the UID and raises SEQUENCE; two moves at once: one wins, the
 test("cancelling sends METHOD:CANCEL under the same UID, withdraws the reminder and puts the job back to signed", async () => {
   const owner = await officeUser(company.id, "owner");
   const lead = await signedJob();
-  const booked = await bookBuild(owner, lead, company, { start: await farMonday(), crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true }, ORIGIN);
+  const booked = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start: await farMonday(), crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true },
+    ORIGIN,
+  );
   if (!booked.ok) throw new Error("not booked");
-  const stale = await cancelBuild(owner, lead, company, { buildId: booked.build.id, sequence: 5, reason: "Rain all week." }, ORIGIN);
+  const stale = await cancelBuild(
+    owner,
+    lead,
+    company,
+    { buildId: booked.build.id, sequence: 5, reason: "Rain all week." },
+    ORIGIN,
+  );
   expect(stale).toMatchObject({ ok: false, status: 409 });
-  const cancelled = await cancelBuild(owner, lead, company, { buildId: booked.build.id, sequence: 0, reason: "Rain all week." }, ORIGIN);
+  const cancelled = await cancelBuild(
+    owner,
+    lead,
+    company,
+    { buildId: booked.build.id, sequence: 0, reason: "Rain all week." },
+    ORIGIN,
+  );
   expect(cancelled.ok).toBe(true);
   const [mail] = await mailFor(`build-cancelled/${booked.build.id}/1`);
-  expect(icsOf(mail!)).toMatchObject({ method: "CANCEL", status: "CANCELLED", sequence: 1, uid: `build-${booked.build.id}@emberwright` });
+  expect(icsOf(mail!)).toMatchObject({
+    method: "CANCEL",
+    status: "CANCELLED",
+    sequence: 1,
+    uid: `build-${booked.build.id}@emberwright`,
+  });
   expect(mail!.text).toContain("Rain all week.");
   expect((await mailFor(`build-crew-cancelled/${booked.build.id}/${crewA.id}/1`)).length).toBe(1);
   expect((await mailFor(`build-reminder/${booked.build.id}/0`))[0]!.status).toBe("cancelled");
@@ -158,7 +265,19 @@ test("cancelling sends METHOD:CANCEL under the same UID, withdraws the reminder 
 test("a crew member's feed lists their builds only; a new link ends the old one, and stopping ends both", async () => {
   const owner = await officeUser(company.id, "owner");
   const lead = await signedJob();
-  const booked = await bookBuild(owner, lead, company, { start: addCalendarDays(new Date().toISOString().slice(0, 10), 40), crewUserIds: [crewB.id], days: 1, notes: "", allowClash: true }, ORIGIN);
+  const booked = await bookBuild(
+    owner,
+    lead,
+    company,
+    {
+      start: addCalendarDays(new Date().toISOString().slice(0, 10), 40),
+      crewUserIds: [crewB.id],
+      days: 1,
+      notes: "",
+      allowClash: true,
+    },
+    ORIGIN,
+  );
   if (!booked.ok) throw new Error(JSON.stringify(booked));
   const first = await issueCalendarFeed(crewB.id, company.id);
   const feed = await calendarFeedFor(first);
@@ -180,33 +299,72 @@ test("a crew member's feed lists their builds only; a new link ends the old one,
 test("the build page: owners only, 404 for another company's job, and bad input named by field with nothing saved", async () => {
   const lead = await signedJob();
   const ownerCookie = await loginAs(company.id, "owner");
-  const page = (await buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie), { leadId: String(lead.id) }))) as { suggestedDays: number; canBook: boolean };
+  const page = (await buildLoader(
+    routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie), { leadId: String(lead.id) }),
+  )) as { suggestedDays: number; canBook: boolean };
   expect(page.canBook).toBe(true);
   expect(page.suggestedDays).toBeGreaterThanOrEqual(1);
 
   const crewCookie = await loginAs(company.id, "crew");
-  await expect(buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, crewCookie), { leadId: String(lead.id) }))).rejects.toSatisfy((r: unknown) => r instanceof Response && [302, 403, 404].includes(r.status));
+  await expect(
+    buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, crewCookie), { leadId: String(lead.id) })),
+  ).rejects.toSatisfy((r: unknown) => r instanceof Response && [302, 403, 404].includes(r.status));
 
   const other = await createCompanyWithStaff("Other Masonry");
   const otherCookie = other.people.owner.cookie;
-  await expect(buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, otherCookie), { leadId: String(lead.id) }))).rejects.toSatisfy((r: unknown) => r instanceof Response && r.status === 404);
+  await expect(
+    buildLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, otherCookie), { leadId: String(lead.id) })),
+  ).rejects.toSatisfy((r: unknown) => r instanceof Response && r.status === 404);
 
   const post = (fields: Record<string, string | string[]>) => {
     const body = new URLSearchParams();
     for (const [k, v] of Object.entries(fields)) for (const one of [v].flat()) body.append(k, one);
-    return buildAction(routeArgs(requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie, { method: "POST", body, headers: { "Content-Type": "application/x-www-form-urlencoded" } }), { leadId: String(lead.id) }));
+    return buildAction(
+      routeArgs(
+        requestWithCookie(`/app/leads/${lead.id}/build`, ownerCookie, {
+          method: "POST",
+          body,
+          headers: { "Content-Type": "application/x-www-form-urlencoded" },
+        }),
+        { leadId: String(lead.id) },
+      ),
+    );
   };
-  const badDay = (await post({ intent: "book", start: "2091-02-30", days: "", crewUserIds: String(crewA.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  const badDay = (await post({
+    intent: "book",
+    start: "2091-02-30",
+    days: "",
+    crewUserIds: String(crewA.id),
+    notes: "",
+  })) as { init: { status: number }; data: { errors: Record<string, string> } };
   expect(badDay.init.status).toBe(400);
   expect(badDay.data.errors.start).toMatch(/first build day/);
-  const noCrew = (await post({ intent: "book", start: "2091-03-05", days: "2", notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  const noCrew = (await post({ intent: "book", start: "2091-03-05", days: "2", notes: "" })) as {
+    init: { status: number };
+    data: { errors: Record<string, string> };
+  };
   expect(noCrew.init.status).toBe(400);
   expect(noCrew.data.errors.crewUserIds).toMatch(/crew member/);
-  const tooLong = (await post({ intent: "book", start: "2091-03-05", days: "31", crewUserIds: String(crewA.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  const tooLong = (await post({
+    intent: "book",
+    start: "2091-03-05",
+    days: "31",
+    crewUserIds: String(crewA.id),
+    notes: "",
+  })) as { init: { status: number }; data: { errors: Record<string, string> } };
   expect(tooLong.data.errors.days).toMatch(/1 to 30/);
   // Someone else's crew member is refused by name of the field.
-  const [otherCrew] = await db.insert(users).values({ companyId: other.company.id, email: `x.${Date.now()}@other.example`, name: "Not Ours", role: "crew" }).returning();
-  const foreign = (await post({ intent: "book", start: "2091-03-05", days: "1", crewUserIds: String(otherCrew!.id), notes: "" })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  const [otherCrew] = await db
+    .insert(users)
+    .values({ companyId: other.company.id, email: `x.${Date.now()}@other.example`, name: "Not Ours", role: "crew" })
+    .returning();
+  const foreign = (await post({
+    intent: "book",
+    start: "2091-03-05",
+    days: "1",
+    crewUserIds: String(otherCrew!.id),
+    notes: "",
+  })) as { init: { status: number }; data: { errors: Record<string, string> } };
   expect(foreign.init.status).toBe(400);
   expect(foreign.data.errors.crewUserIds).toMatch(/active crew members of your company/);
   expect((await db.select().from(builds).where(eq(builds.leadId, lead.id))).length).toBe(0);

@@ -23,7 +23,10 @@ afterAll(async () => {
 async function bundleForBrowser(module: string, names: string[]): Promise<string> {
   const entry = path.join(work, `probe-${module.replaceAll("/", "-")}.ts`);
   const target = path.join(ROOT, "app", `${module}.ts`);
-  await writeFile(entry, `import { ${names.join(", ")} } from ${JSON.stringify(target)};\nconsole.log(${names.join(", ")});\n`);
+  await writeFile(
+    entry,
+    `import { ${names.join(", ")} } from ${JSON.stringify(target)};\nconsole.log(${names.join(", ")});\n`,
+  );
   const output = (await build({
     configFile: false,
     logLevel: "silent",
@@ -31,7 +34,10 @@ async function bundleForBrowser(module: string, names: string[]): Promise<string
     resolve: { tsconfigPaths: true },
     build: { write: false, minify: true, lib: { entry, formats: ["es"], fileName: "chunk" } },
   })) as Rolldown.RolldownOutput[];
-  return output.flatMap((o) => o.output).flatMap((chunk) => (chunk.type === "chunk" ? [chunk.code] : [])).join("\n");
+  return output
+    .flatMap((o) => o.output)
+    .flatMap((chunk) => (chunk.type === "chunk" ? [chunk.code] : []))
+    .join("\n");
 }
 
 describe("finding table definitions in a chunk", () => {
@@ -40,7 +46,9 @@ describe("finding table definitions in a chunk", () => {
   test("the schema's tables are all known, with their SQL column names", () => {
     const leads = signatures.find((s) => s.table === "leads");
     expect(leads?.columns).toContain("company_id");
-    expect(signatures.map((s) => s.table)).toEqual(expect.arrayContaining(["companies", "users", "bookings", "proposals"]));
+    expect(signatures.map((s) => s.table)).toEqual(
+      expect.arrayContaining(["companies", "users", "bookings", "proposals"]),
+    );
   });
 
   test("a minified chunk built from a module that imports the schema is caught", async () => {
@@ -58,7 +66,8 @@ describe("finding table definitions in a chunk", () => {
   }, 60_000);
 
   test("a table's name with its column names is enough, whatever the builder was renamed to", () => {
-    const chunk = 'const r=q("lead_revisions",{id:n("id").primaryKey(),leadId:n("lead_id"),designJson:t("design_json")});export{r};';
+    const chunk =
+      'const r=q("lead_revisions",{id:n("id").primaryKey(),leadId:n("lead_id"),designJson:t("design_json")});export{r};';
     expect(findTableDefinitions(chunk, signatures)).toEqual({ tables: ["lead_revisions"], hasTableBuilder: false });
   });
 
@@ -80,7 +89,12 @@ describe("the bundle check", () => {
       url: "/assets/manifest-a1.js",
       routes: {
         root: { id: "root", module: "/assets/root-a1.js" },
-        "routes/app-team": { id: "routes/app-team", parentId: "root", path: "app/team", module: "/assets/app-team-a1.js" },
+        "routes/app-team": {
+          id: "routes/app-team",
+          parentId: "root",
+          path: "app/team",
+          module: "/assets/app-team-a1.js",
+        },
       },
     };
     await writeFile(path.join(assets, "manifest-a1.js"), `window.__reactRouterManifest=${JSON.stringify(manifest)};`);
@@ -94,7 +108,9 @@ describe("the bundle check", () => {
     const code = 'const u=s("users",{id:i("id"),companyId:i("company_id"),passwordHash:t("password_hash")});export{u};';
     const buildDir = await syntheticBuild("with-tables", code);
     const report = await checkBundles(buildDir);
-    expect(report.tableChunks).toEqual([{ file: path.join("assets", "app-team-a1.js"), tables: ["users"], hasTableBuilder: false }]);
+    expect(report.tableChunks).toEqual([
+      { file: path.join("assets", "app-team-a1.js"), tables: ["users"], hasTableBuilder: false },
+    ]);
     expect(report.breaches).toEqual([`${path.join("assets", "app-team-a1.js")} carries table definitions (users)`]);
   });
 
@@ -107,7 +123,10 @@ describe("the bundle check", () => {
 
   test("looks at every client file, not only the ones a page loads first", async () => {
     const buildDir = await syntheticBuild("lazy-chunk", "export const p=1;");
-    await writeFile(path.join(buildDir, "client", "assets", "lazy-b2.js"), 'class T{static[k]="SQLiteTable"}export{T};');
+    await writeFile(
+      path.join(buildDir, "client", "assets", "lazy-b2.js"),
+      'class T{static[k]="SQLiteTable"}export{T};',
+    );
     expect(await findTableChunks(path.join(buildDir, "client"))).toEqual([
       { file: path.join("assets", "lazy-b2.js"), tables: [], hasTableBuilder: true },
     ]);

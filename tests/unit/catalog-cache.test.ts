@@ -18,7 +18,11 @@ const other = openDatabase(process.env.DATABASE_URL!);
 afterAll(() => other.client.close());
 
 async function postPlan(body: unknown) {
-  const request = new Request("http://localhost/api/plan", { method: "POST", headers: { "Content-Type": "application/json" }, body: JSON.stringify(body) });
+  const request = new Request("http://localhost/api/plan", {
+    method: "POST",
+    headers: { "Content-Type": "application/json" },
+    body: JSON.stringify(body),
+  });
   const response = (await action(routeArgs(request))) as Response;
   return { status: response.status, json: await response.json() };
 }
@@ -49,7 +53,10 @@ test("a price changed by another process is used by this process's next plan", a
   const before = await postPlan(body);
   expect(before.status).toBe(200);
   const unit = byName("Hearthline Taper");
-  await other.db.update(catalogItems).set({ priceCents: unit.priceCents * 5 }).where(eq(catalogItems.id, unit.id));
+  await other.db
+    .update(catalogItems)
+    .set({ priceCents: unit.priceCents * 5 })
+    .where(eq(catalogItems.id, unit.id));
 
   const after = await postPlan(body);
   expect(after.status).toBe(200);
@@ -81,7 +88,10 @@ test("company settings changed by another process (labour rate, margin) price th
   await demoCompany();
   const body = await planBody();
   const before = await postPlan(body);
-  await other.db.update(companies).set({ labourRateCents: 30_000, marginPct: 45 }).where(eq(companies.slug, "cinder-slate"));
+  await other.db
+    .update(companies)
+    .set({ labourRateCents: 30_000, marginPct: 45 })
+    .where(eq(companies.slug, "cinder-slate"));
   const after = await postPlan(body);
   expect(after.json.price.lowCents).toBeGreaterThan(before.json.price.lowCents);
   const offered = await loadOfferedCatalog("cinder-slate");
@@ -93,7 +103,9 @@ test("every insert, update and delete of a catalog item, and every change to the
   const { company } = await demoCompany();
   const [north] = await other.db.select().from(companies).where(eq(companies.slug, "north-ridge"));
   const versions = async () =>
-    Object.fromEntries((await other.db.select({ id: companies.id, v: companies.cacheVersion }).from(companies)).map((r) => [r.id, r.v]));
+    Object.fromEntries(
+      (await other.db.select({ id: companies.id, v: companies.cacheVersion }).from(companies)).map((r) => [r.id, r.v]),
+    );
   const v0 = await versions();
   const [row] = await other.db
     .insert(catalogItems)

@@ -8,11 +8,25 @@ function form(fields: Record<string, string>): FormData {
   return f;
 }
 
-const GOOD_WALL_UNIT = { kind: "wall-unit", name: "Test Taper", colourName: "Grey", colourHex: "#777777", faceIn: "12", backIn: "8", depthIn: "8", heightIn: "4", price: "4.85", isActive: "on" };
+const GOOD_WALL_UNIT = {
+  kind: "wall-unit",
+  name: "Test Taper",
+  colourName: "Grey",
+  colourHex: "#777777",
+  faceIn: "12",
+  backIn: "8",
+  depthIn: "8",
+  heightIn: "4",
+  price: "4.85",
+  isActive: "on",
+};
 
 test("a valid wall unit parses, with the price in integer cents", () => {
   const result = parseCatalogForm(form(GOOD_WALL_UNIT));
-  expect(result).toMatchObject({ ok: true, value: { faceIn: 12, backIn: 8, priceCents: 485, lengthIn: null, isActive: true } });
+  expect(result).toMatchObject({
+    ok: true,
+    value: { faceIn: 12, backIn: 8, priceCents: 485, lengthIn: null, isActive: true },
+  });
 });
 
 test.each([
@@ -51,7 +65,9 @@ test("an unknown kind is refused", () => {
 });
 
 test("sizes typed as tape readings, improper fractions or millimetres are stored in inches (fraction.js as the reference; 25.4 mm per inch, NIST SP 811)", () => {
-  const result = parseCatalogForm(form({ ...GOOD_WALL_UNIT, faceIn: "311 mm", backIn: "7-1/2", depthIn: "49/8", heightIn: "3 1/2" }));
+  const result = parseCatalogForm(
+    form({ ...GOOD_WALL_UNIT, faceIn: "311 mm", backIn: "7-1/2", depthIn: "49/8", heightIn: "3 1/2" }),
+  );
   expect(result.ok).toBe(true);
   if (!result.ok) return;
   expect(result.value.faceIn).toBeCloseTo(311 / 25.4, 12); // 12.244 in

@@ -42,7 +42,9 @@ const fonts = await import("~/lib/platform/pdf-fonts.server").catch(() => null);
 
 test("plain Latin text stays in the built-in font: one run, no embedded face", () => {
   const { splitRuns } = fonts!;
-  expect(splitRuns("Tobias Wren, 11 Cinderbrook Lane · 36 ½ in × 4°", "regular")).toEqual([{ text: "Tobias Wren, 11 Cinderbrook Lane · 36 ½ in × 4°", face: null }]);
+  expect(splitRuns("Tobias Wren, 11 Cinderbrook Lane · 36 ½ in × 4°", "regular")).toEqual([
+    { text: "Tobias Wren, 11 Cinderbrook Lane · 36 ½ in × 4°", face: null },
+  ]);
 });
 
 // Needs a CJK font: @expo-google-fonts/noto-sans-sc (npm) or Debian's fonts-noto-cjk.

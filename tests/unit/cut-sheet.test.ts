@@ -11,7 +11,14 @@ import { leads, type Lead } from "~/db/schema";
 import { layoutCapTemplate } from "~/domain/cap-template";
 import type { Plan } from "~/domain/plan";
 import { formatInches } from "~/domain/units";
-import { CALIBRATION_PT, layoutTemplateSheets, LETTER_PT, OVERLAP_IN, PT_PER_IN, type DrawCommand } from "~/lib/cut-sheet/cap-template-layout";
+import {
+  CALIBRATION_PT,
+  layoutTemplateSheets,
+  LETTER_PT,
+  OVERLAP_IN,
+  PT_PER_IN,
+  type DrawCommand,
+} from "~/lib/cut-sheet/cap-template-layout";
 import { db } from "~/lib/platform/db.server";
 import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
 import { loader as pdfLoader } from "~/routes/app-lead-cut-sheet-pdf";
@@ -31,7 +38,9 @@ beforeAll(async () => {
   plan = JSON.parse(lead.planJson) as Plan;
   // The crew member the job is given to prints it.
   const cookie = await loginAs(company.id, "crew");
-  const response = (await pdfLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/cut-sheet.pdf`, cookie), { leadId: String(lead.id) }))) as Response;
+  const response = (await pdfLoader(
+    routeArgs(requestWithCookie(`/app/leads/${lead.id}/cut-sheet.pdf`, cookie), { leadId: String(lead.id) }),
+  )) as Response;
   expect(response.headers.get("Content-Type")).toBe("application/pdf");
   pdf = Buffer.from(await response.arrayBuffer());
   const parser = new PDFParse({ data: new Uint8Array(pdf) });
@@ -82,7 +91,10 @@ test("the PDF has the content pages, a page of drawings and one page per templat
 test("every template sheet draws a 72 × 72 pt calibration square: 1 in at 72 units to the inch (ISO 32000-1, §8.3.2.3)", () => {
   const layout = layoutTemplateSheets(layoutCapTemplate(plan.caps!), "x");
   for (const sheet of layout.sheets) {
-    const squares = sheet.commands.filter((c): c is Extract<DrawCommand, { op: "rect" }> => c.op === "rect" && c.w === CALIBRATION_PT && c.h === CALIBRATION_PT);
+    const squares = sheet.commands.filter(
+      (c): c is Extract<DrawCommand, { op: "rect" }> =>
+        c.op === "rect" && c.w === CALIBRATION_PT && c.h === CALIBRATION_PT,
+    );
     expect(squares).toHaveLength(1);
     expect(CALIBRATION_PT).toBe(PT_PER_IN);
     const [square] = squares;
@@ -96,7 +108,10 @@ test("the template sheets draw the wedge at full size: its edges are 72 pt per i
   const caps = plan.caps!;
   const layout = layoutTemplateSheets(layoutCapTemplate(caps), "x");
   for (const sheet of layout.sheets) {
-    const wedge = sheet.commands.find((c): c is Extract<DrawCommand, { op: "path" }> => c.op === "path" && c.closed && c.points.length === 4 && c.widthPt === 2)!;
+    const wedge = sheet.commands.find(
+      (c): c is Extract<DrawCommand, { op: "path" }> =>
+        c.op === "path" && c.closed && c.points.length === 4 && c.widthPt === 2,
+    )!;
     const [il, ir, or, ol] = wedge.points as [number, number][];
     const len = (p: number[], q: number[]) => Math.hypot(p[0]! - q[0]!, p[1]! - q[1]!);
     expect(len(il!, ir!)).toBeCloseTo(caps.innerWidthIn * 72, 6);
@@ -125,10 +140,32 @@ test("the template's sheets overlap by half an inch and together cover the whole
 
 test("a small blank fits one sheet as it is; a slightly longer one is turned down the page rather than split", () => {
   // The printable window is 7.5 in wide and about 8.2 in tall; the template adds 0.6 in all round.
-  const small = layoutTemplateSheets(layoutCapTemplate({ ...plan.caps!, blankLengthIn: 6, blankDepthIn: 4, capDepthIn: 4, innerMarkIn: 1, outerMarkIn: 0.2, ripToDepthIn: null }), "x");
+  const small = layoutTemplateSheets(
+    layoutCapTemplate({
+      ...plan.caps!,
+      blankLengthIn: 6,
+      blankDepthIn: 4,
+      capDepthIn: 4,
+      innerMarkIn: 1,
+      outerMarkIn: 0.2,
+      ripToDepthIn: null,
+    }),
+    "x",
+  );
   expect(small.sheets).toHaveLength(1);
   expect(small.isRotated).toBe(false);
-  const longer = layoutTemplateSheets(layoutCapTemplate({ ...plan.caps!, blankLengthIn: 6.5, blankDepthIn: 5, capDepthIn: 5, innerMarkIn: 1, outerMarkIn: 0.2, ripToDepthIn: null }), "x");
+  const longer = layoutTemplateSheets(
+    layoutCapTemplate({
+      ...plan.caps!,
+      blankLengthIn: 6.5,
+      blankDepthIn: 5,
+      capDepthIn: 5,
+      innerMarkIn: 1,
+      outerMarkIn: 0.2,
+      ripToDepthIn: null,
+    }),
+    "x",
+  );
   expect(longer.isRotated).toBe(true);
   expect(longer.sheets).toHaveLength(1);
 });
@@ -146,7 +183,10 @@ const multiply = (m: Matrix, n: Matrix): Matrix => [
   m[4] * n[0] + m[5] * n[2] + n[4],
   m[4] * n[1] + m[5] * n[3] + n[5],
 ];
-const apply = (m: Matrix, x: number, y: number): [number, number] => [m[0] * x + m[2] * y + m[4], m[1] * x + m[3] * y + m[5]];
+const apply = (m: Matrix, x: number, y: number): [number, number] => [
+  m[0] * x + m[2] * y + m[4],
+  m[1] * x + m[3] * y + m[5],
+];
 
 function readContentStreams(bytes: Buffer): string[] {
   const streams: string[] = [];
@@ -198,7 +238,12 @@ function interpret(stream: string) {
         const [x, y, w, h] = operands.slice(-4) as [number, number, number, number];
         const p = apply(ctm, x, y);
         const q = apply(ctm, x + w, y + h);
-        rects.push({ x: Math.min(p[0], q[0]), y: Math.min(p[1], q[1]), w: Math.abs(q[0] - p[0]), h: Math.abs(q[1] - p[1]) });
+        rects.push({
+          x: Math.min(p[0], q[0]),
+          y: Math.min(p[1], q[1]),
+          w: Math.abs(q[0] - p[0]),
+          h: Math.abs(q[1] - p[1]),
+        });
         break;
       }
       case "m":
@@ -236,12 +281,16 @@ test("read back from the PDF itself, the template wedge's inner edge is c1 × 72
 
 test("the printable cut sheet page has the same cut list and no prices for the crew", async () => {
   const cookie = await loginAs(lead.companyId, "crew");
-  const { sheet } = (await cutSheetLoader(routeArgs(requestWithCookie(`/app/leads/${lead.id}/cut-sheet`, cookie), { leadId: String(lead.id) }))) as {
+  const { sheet } = (await cutSheetLoader(
+    routeArgs(requestWithCookie(`/app/leads/${lead.id}/cut-sheet`, cookie), { leadId: String(lead.id) }),
+  )) as {
     sheet: { cutList: { id: string; rows: { key: string; value: string }[] }[]; cautions: { audience: string }[] };
   };
   const caps = sheet.cutList.find((s) => s.id === "caps")!;
   expect(caps.rows.find((r) => r.key === "cap-inner-mark")!.value).toContain(formatInches(plan.caps!.innerMarkIn));
   expect(sheet.cautions.every((c) => c.audience !== "homeowner")).toBe(true);
-  expect(sheet.cautions.map((c) => (c as { code?: string }).code)).toEqual(expect.arrayContaining(["wet-cutting", "heavy-lifting"]));
+  expect(sheet.cautions.map((c) => (c as { code?: string }).code)).toEqual(
+    expect.arrayContaining(["wet-cutting", "heavy-lifting"]),
+  );
   expect(JSON.stringify(sheet)).not.toMatch(/Cents|@example\.test/);
 });

@@ -48,7 +48,10 @@ describe("several processes on one database file", () => {
       let allReady!: () => void;
       const isAllReady = new Promise<void>((r) => (allReady = r));
       const children = [1, 2, 3].map(() =>
-        runChild({ MODE: "migrate", DATABASE_URL: `file:${file}`, OUTBOX_WORKER: "off" }, (line) => line === "ready" && ++ready === 3 && allReady()),
+        runChild(
+          { MODE: "migrate", DATABASE_URL: `file:${file}`, OUTBOX_WORKER: "off" },
+          (line) => line === "ready" && ++ready === 3 && allReady(),
+        ),
       );
       await isAllReady;
       for (const c of children) c.go();
@@ -58,7 +61,9 @@ describe("several processes on one database file", () => {
         expect(result.code).toBe(0);
       }
       const { client } = openDatabase(`file:${file}`);
-      const { rows } = await client.execute("SELECT count(*) AS n, count(DISTINCT hash) AS d FROM __drizzle_migrations");
+      const { rows } = await client.execute(
+        "SELECT count(*) AS n, count(DISTINCT hash) AS d FROM __drizzle_migrations",
+      );
       expect(Number(rows[0]!.n)).toBe(migrations);
       expect(Number(rows[0]!.d)).toBe(migrations);
       client.close();
@@ -72,7 +77,10 @@ describe("several processes on one database file", () => {
     await client.execute("CREATE TABLE probe (id INTEGER PRIMARY KEY, who TEXT NOT NULL)");
     let locked!: () => void;
     const isLocked = new Promise<void>((r) => (locked = r));
-    const holder = runChild({ MODE: "hold", HOLD_MS: "600", DATABASE_URL: `file:${file}` }, (line) => line === "locked" && locked()).done;
+    const holder = runChild(
+      { MODE: "hold", HOLD_MS: "600", DATABASE_URL: `file:${file}` },
+      (line) => line === "locked" && locked(),
+    ).done;
     await isLocked;
     const started = Date.now();
     await client.execute("INSERT INTO probe (who) VALUES ('waiter')");

@@ -18,11 +18,28 @@ test("host-header link poisoning: a request posted with Host attacker.example ma
   await demoCompany();
   const before = (await db.select({ n: count() }).from(emailOutbox))[0]!.n;
   const form = new FormData();
-  const fields = { customerName: "Hana Okafor", email: "hana.okafor@example.test", phone: "(970) 555-0141", street: "3 Birch Row", town: "Millbrook Falls", buildWindow: "not-sure", consent: "on", design: "units=14&courses=4" };
+  const fields = {
+    customerName: "Hana Okafor",
+    email: "hana.okafor@example.test",
+    phone: "(970) 555-0141",
+    street: "3 Birch Row",
+    town: "Millbrook Falls",
+    buildWindow: "not-sure",
+    consent: "on",
+    design: "units=14&courses=4",
+  };
   for (const [k, v] of Object.entries(fields)) form.set(k, v);
-  const raw = new Request("http://attacker.example/c/cinder-slate", { method: "POST", body: form, headers: { Host: "attacker.example", "X-Forwarded-For": "203.0.113.80" } });
+  const raw = new Request("http://attacker.example/c/cinder-slate", {
+    method: "POST",
+    body: form,
+    headers: { Host: "attacker.example", "X-Forwarded-For": "203.0.113.80" },
+  });
   const body = await raw.arrayBuffer();
-  const request = new Request(raw.url, { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) } });
+  const request = new Request(raw.url, {
+    method: "POST",
+    body,
+    headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) },
+  });
   const response = await action(routeArgs(request, { companySlug: "cinder-slate" }));
   expect(response).toBeInstanceOf(Response);
   const rows = (await db.select().from(emailOutbox)).slice(before);

@@ -24,7 +24,11 @@ const proxyaddr = createRequire(import.meta.url)("proxy-addr") as {
   (req: unknown, trust: ((addr: string, i: number) => boolean) | string[]): string;
   compile(list: string[]): (addr: string, i: number) => boolean;
 };
-const fakeReq = (socket: string, xff: string | null) => ({ connection: { remoteAddress: socket }, socket: { remoteAddress: socket }, headers: xff === null ? {} : { "x-forwarded-for": xff } });
+const fakeReq = (socket: string, xff: string | null) => ({
+  connection: { remoteAddress: socket },
+  socket: { remoteAddress: socket },
+  headers: xff === null ? {} : { "x-forwarded-for": xff },
+});
 
 const PRODUCTION = {
   NODE_ENV: "production",
@@ -35,7 +39,8 @@ const PRODUCTION = {
   RESEND_API_KEY: "re_operator_own",
 };
 
-const statusOf = (result: unknown) => (result instanceof Response ? result.status : ((result as { init?: ResponseInit }).init?.status ?? 200));
+const statusOf = (result: unknown) =>
+  result instanceof Response ? result.status : ((result as { init?: ResponseInit }).init?.status ?? 200);
 
 // ---------------------------------------------------------------- start-up: origin and secrets
 
@@ -52,12 +57,15 @@ test("forged payment notices: production refuses to start without its own STRIPE
   } catch (error) {
     message = (error as Error).message;
   }
-  for (const name of ["STRIPE_WEBHOOK_SECRET", "STRIPE_SECRET_KEY", "RESEND_API_KEY"]) expect(message).toMatch(new RegExp(`^  ${name}: `, "m"));
+  for (const name of ["STRIPE_WEBHOOK_SECRET", "STRIPE_SECRET_KEY", "RESEND_API_KEY"])
+    expect(message).toMatch(new RegExp(`^  ${name}: `, "m"));
   expect(message).not.toMatch(/APP_ORIGIN:/);
 });
 
 test("forged payment notices: the public local webhook secret is refused in production", () => {
-  expect(() => parseEnv({ ...PRODUCTION, STRIPE_WEBHOOK_SECRET: "whsec_emberwright_local" })).toThrow(/STRIPE_WEBHOOK_SECRET is the public local value/);
+  expect(() => parseEnv({ ...PRODUCTION, STRIPE_WEBHOOK_SECRET: "whsec_emberwright_local" })).toThrow(
+    /STRIPE_WEBHOOK_SECRET is the public local value/,
+  );
 });
 
 test("a complete production configuration starts, and APP_ORIGIN is reduced to its origin", () => {
@@ -81,20 +89,37 @@ test("spoofed X-Forwarded-For: without TRUST_PROXY the socket's address is the c
 });
 
 test("TRUST_PROXY=true (believe any header) is refused with a message naming the setting", () => {
-  expect(() => parseEnv({ TRUST_PROXY: "true" })).toThrow(/TRUST_PROXY: TRUST_PROXY=true would believe any X-Forwarded-For/);
-  expect(() => parseEnv({ TRUST_PROXY: "10.0.0.1, not-an-address" })).toThrow(/TRUST_PROXY: "not-an-address" is not an IP address/);
+  expect(() => parseEnv({ TRUST_PROXY: "true" })).toThrow(
+    /TRUST_PROXY: TRUST_PROXY=true would believe any X-Forwarded-For/,
+  );
+  expect(() => parseEnv({ TRUST_PROXY: "10.0.0.1, not-an-address" })).toThrow(
+    /TRUST_PROXY: "not-an-address" is not an IP address/,
+  );
 });
 
 test("with a trusted proxy, the client address matches Express's trust proxy (proxy-addr) for hop counts and address lists (fast-check)", () => {
-  const ipv4 = fc.tuple(fc.constantFrom(10, 127, 192, 198, 203), fc.nat(255), fc.nat(255), fc.nat(255)).map((p) => p.join("."));
+  const ipv4 = fc
+    .tuple(fc.constantFrom(10, 127, 192, 198, 203), fc.nat(255), fc.nat(255), fc.nat(255))
+    .map((p) => p.join("."));
   const lists = [["loopback"], ["10.0.0.0/8"], ["127.0.0.1", "10.1.2.3"], ["192.0.0.0/8", "loopback"]];
   fc.assert(
-    fc.property(ipv4, fc.array(ipv4, { maxLength: 5 }), fc.nat(4), fc.nat(lists.length - 1), (socket, chain, hops, which) => {
-      const xff = chain.length ? chain.join(", ") : null;
-      if (hops > 0) expect(resolveClientAddress(socket, xff, parseTrustProxy(String(hops)))).toBe(proxyaddr(fakeReq(socket, xff), (_a, i) => i < hops));
-      const list = lists[which]!;
-      expect(resolveClientAddress(socket, xff, parseTrustProxy(list.join(",")))).toBe(proxyaddr(fakeReq(socket, xff), proxyaddr.compile(list)));
-    }),
+    fc.property(
+      ipv4,
+      fc.array(ipv4, { maxLength: 5 }),
+      fc.nat(4),
+      fc.nat(lists.length - 1),
+      (socket, chain, hops, which) => {
+        const xff = chain.length ? chain.join(", ") : null;
+        if (hops > 0)
+          expect(resolveClientAddress(socket, xff, parseTrustProxy(String(hops)))).toBe(
+            proxyaddr(fakeReq(socket, xff), (_a, i) => i < hops),
+          );
+        const list = lists[which]!;
+        expect(resolveClientAddress(socket, xff, parseTrustProxy(list.join(",")))).toBe(
+          proxyaddr(fakeReq(socket, xff), proxyaddr.compile(list)),
+        );
+      },
+    ),
     { numRuns: 300 },
   );
 });
@@ -119,10 +144,14 @@ test("rate limits hold under concurrency: 40 parallel spends on one key let exac
 test("rate limits are shared by every process: spends from another process on the same database count here", async () => {
   const limiter = createLimiter("test:two-processes", 10, 60);
   // A second Node process, its own libSQL connection, the same file and the same function.
-  const child = spawn("node_modules/.bin/tsx", ["tests/unit/support/spend-limit-child.ts", "test:two-processes", "10", "60", "k", "6"], {
-    env: { ...process.env, NODE_ENV: "test" },
-    stdio: ["ignore", "pipe", "inherit"],
-  });
+  const child = spawn(
+    "node_modules/.bin/tsx",
+    ["tests/unit/support/spend-limit-child.ts", "test:two-processes", "10", "60", "k", "6"],
+    {
+      env: { ...process.env, NODE_ENV: "test" },
+      stdio: ["ignore", "pipe", "inherit"],
+    },
+  );
   let out = "";
   child.stdout.on("data", (c) => (out += c));
   const here = Promise.all(Array.from({ length: 6 }, () => spendLimit(limiter, "k")));
@@ -134,7 +163,16 @@ test("rate limits are shared by every process: spends from another process on th
 test("one bot on one contractor's form does not close another contractor's form (limits per company and address)", async () => {
   await demoCompany();
   const post = (slug: string) =>
-    configuratorAction(routeArgs(new Request(`http://localhost/c/${slug}`, { method: "POST", body: new FormData(), headers: { "X-Forwarded-For": "203.0.113.50" } }), { companySlug: slug }));
+    configuratorAction(
+      routeArgs(
+        new Request(`http://localhost/c/${slug}`, {
+          method: "POST",
+          body: new FormData(),
+          headers: { "X-Forwarded-For": "203.0.113.50" },
+        }),
+        { companySlug: slug },
+      ),
+    );
   const statuses: number[] = [];
   for (let i = 0; i < 11; i++) statuses.push(statusOf(await post("cinder-slate")));
   expect(statuses.slice(0, 10).every((s) => s !== 429)).toBe(true);
@@ -146,9 +184,15 @@ test("spoofed X-Forwarded-For from an untrusted peer does not buy fresh buckets 
   await demoCompany();
   const statuses: number[] = [];
   for (let i = 0; i < 11; i++) {
-    const request = new Request("http://localhost/c/cinder-slate", { method: "POST", body: new FormData(), headers: { "X-Forwarded-For": `198.18.0.${i}` } });
+    const request = new Request("http://localhost/c/cinder-slate", {
+      method: "POST",
+      body: new FormData(),
+      headers: { "X-Forwarded-For": `198.18.0.${i}` },
+    });
     // The peer is not a trusted proxy (the test settings trust loopback only).
-    statuses.push(statusOf(await configuratorAction(routeArgs(request, { companySlug: "cinder-slate" }, "192.0.2.200"))));
+    statuses.push(
+      statusOf(await configuratorAction(routeArgs(request, { companySlug: "cinder-slate" }, "192.0.2.200"))),
+    );
   }
   expect(statuses[10]).toBe(429);
 });
@@ -158,13 +202,18 @@ test("spoofed X-Forwarded-For from an untrusted peer does not buy fresh buckets 
 const signIn = (email: string, password: string, address: string, redirectTo = "") =>
   loginAction(
     routeArgs(
-      new Request("http://localhost/login", { method: "POST", body: new URLSearchParams({ email, password, redirectTo }), headers: { "X-Forwarded-For": address } }),
+      new Request("http://localhost/login", {
+        method: "POST",
+        body: new URLSearchParams({ email, password, redirectTo }),
+        headers: { "X-Forwarded-For": address },
+      }),
     ),
   ) as Promise<Response | { init: ResponseInit }>;
 
 test("account lock-out from many addresses: 12 failures from 12 addresses do not stop the owner signing in from theirs", async () => {
   await demoCompany();
-  for (let i = 0; i < 12; i++) expect(statusOf(await signIn("estimator@cinder-slate.test", `wrong-${i}`, `203.0.113.${100 + i}`))).toBe(401);
+  for (let i = 0; i < 12; i++)
+    expect(statusOf(await signIn("estimator@cinder-slate.test", `wrong-${i}`, `203.0.113.${100 + i}`))).toBe(401);
   const started = performance.now();
   const owner = await signIn("estimator@cinder-slate.test", "ember-demo-2026", "198.51.100.20");
   const waited = performance.now() - started;
@@ -177,7 +226,8 @@ test("account lock-out from many addresses: 12 failures from 12 addresses do not
 test("password guessing from one address is refused at the 11th failure on that account, before any hashing", async () => {
   await demoCompany();
   const statuses: number[] = [];
-  for (let i = 0; i < 11; i++) statuses.push(statusOf(await signIn("crew@cinder-slate.test", `guess-${i}`, "203.0.113.7")));
+  for (let i = 0; i < 11; i++)
+    statuses.push(statusOf(await signIn("crew@cinder-slate.test", `guess-${i}`, "203.0.113.7")));
   expect(statuses.slice(0, 10)).toEqual(Array(10).fill(401));
   expect(statuses[10]).toBe(429);
 });
@@ -192,7 +242,20 @@ test("the slowdown grows with failures and stays bounded", () => {
 
 // ---------------------------------------------------------------- redirectTo
 
-const ATTACKS = ["/\t/evil.example", "/\n/evil.example", "/\r\n/evil.example", "//evil.example", "/\\evil.example", "/\\/evil.example", "https://evil.example", "javascript:alert(1)", "/\u0000x", "/app\u0085x", " /app", "evil.example"];
+const ATTACKS = [
+  "/\t/evil.example",
+  "/\n/evil.example",
+  "/\r\n/evil.example",
+  "//evil.example",
+  "/\\evil.example",
+  "/\\/evil.example",
+  "https://evil.example",
+  "javascript:alert(1)",
+  "/\u0000x",
+  "/app\u0085x",
+  " /app",
+  "evil.example",
+];
 
 test.each(ATTACKS)("open redirect after sign-in: %j goes to the default page", (target) => {
   expect(safeRedirectPath(target, "/app")).toBe("/app");
@@ -233,15 +296,25 @@ test("the body cap by route kind: JSON APIs and the webhook 64 kB, sign-in and p
 
 async function throughMiddleware(request: Request) {
   let reached = false;
-  const response = await securityMiddleware({ request, context: new RouterContextProvider(), params: {}, unstable_pattern: "" } as never, async () => {
-    reached = true;
-    return new Response("ok");
-  });
+  const response = await securityMiddleware(
+    { request, context: new RouterContextProvider(), params: {}, unstable_pattern: "" } as never,
+    async () => {
+      reached = true;
+      return new Response("ok");
+    },
+  );
   return { response: response as Response, reached };
 }
 
 test("unbounded request bodies: a 10 MB sign-in post is refused with 413 before the route reads anything", async () => {
-  const request = new Request("http://localhost/login", { method: "POST", headers: { "Content-Length": String(10 * 1024 * 1024), "Content-Type": "application/x-www-form-urlencoded", "Sec-Fetch-Site": "same-origin" } });
+  const request = new Request("http://localhost/login", {
+    method: "POST",
+    headers: {
+      "Content-Length": String(10 * 1024 * 1024),
+      "Content-Type": "application/x-www-form-urlencoded",
+      "Sec-Fetch-Site": "same-origin",
+    },
+  });
   const { response, reached } = await throughMiddleware(request);
   expect(response.status).toBe(413);
   expect(reached).toBe(false);
@@ -249,7 +322,10 @@ test("unbounded request bodies: a 10 MB sign-in post is refused with 413 before 
 });
 
 test("unbounded request bodies: a 100 kB JSON body to the plan API is refused with 413", async () => {
-  const request = new Request("http://localhost/api/plan", { method: "POST", headers: { "Content-Length": String(100 * 1024), "Content-Type": "application/json" } });
+  const request = new Request("http://localhost/api/plan", {
+    method: "POST",
+    headers: { "Content-Length": String(100 * 1024), "Content-Type": "application/json" },
+  });
   expect((await throughMiddleware(request)).response.status).toBe(413);
 });
 

@@ -36,7 +36,8 @@ test("every design survives a trip through the address bar (fast-check round tri
   fc.assert(
     fc.property(designArb, (raw) => {
       const params = new URLSearchParams();
-      for (const [k, v] of Object.entries(raw)) if (v !== undefined && v !== false) params.set(k, v === true ? "ring" : String(v));
+      for (const [k, v] of Object.entries(raw))
+        if (v !== undefined && v !== false) params.set(k, v === true ? "ring" : String(v));
       const design = parseDesign(params, catalog)!;
       expect(parseDesign(designToSearchParams(design), catalog)).toEqual(design);
     }),
@@ -46,7 +47,12 @@ test("every design survives a trip through the address bar (fast-check round tri
 
 test("hostile or unknown values in the address fall back to valid choices", async () => {
   const catalog = await demoCatalog();
-  const design = parseDesign(new URLSearchParams("stone=99999&units=-4&courses=900&cap=abc&overhang=NaN&liner=lava&patio=1e9&setback=-20&unit=furlong"), catalog)!;
+  const design = parseDesign(
+    new URLSearchParams(
+      "stone=99999&units=-4&courses=900&cap=abc&overhang=NaN&liner=lava&patio=1e9&setback=-20&unit=furlong",
+    ),
+    catalog,
+  )!;
   expect(catalog.some((i) => i.id === design.stoneId && i.kind === "wall-unit")).toBe(true);
   expect(design.courses).toBe(12);
   expect(design.unit).toBe("in");

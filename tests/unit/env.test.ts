@@ -9,7 +9,9 @@ test("development starts with safe defaults: an embedded database file and a dev
 });
 
 test("production refuses to start without SESSION_SECRET and says why", () => {
-  expect(() => parseEnv({ NODE_ENV: "production" })).toThrow(/SESSION_SECRET is required in production: it signs the sign-in cookie/);
+  expect(() => parseEnv({ NODE_ENV: "production" })).toThrow(
+    /SESSION_SECRET is required in production: it signs the sign-in cookie/,
+  );
 });
 
 test("production refuses a short SESSION_SECRET", () => {
@@ -19,7 +21,12 @@ test("production refuses a short SESSION_SECRET", () => {
 test("SESSION_SECRET takes a comma-separated list so secrets can rotate", () => {
   const a = "a".repeat(32);
   const b = "b".repeat(40);
-  const own = { APP_ORIGIN: "https://pits.example.test", STRIPE_WEBHOOK_SECRET: "whsec_own", STRIPE_SECRET_KEY: "sk_live_own", RESEND_API_KEY: "re_own" };
+  const own = {
+    APP_ORIGIN: "https://pits.example.test",
+    STRIPE_WEBHOOK_SECRET: "whsec_own",
+    STRIPE_SECRET_KEY: "sk_live_own",
+    RESEND_API_KEY: "re_own",
+  };
   expect(parseEnv({ NODE_ENV: "production", SESSION_SECRET: `${a}, ${b}`, ...own }).sessionSecrets).toEqual([a, b]);
 });
 

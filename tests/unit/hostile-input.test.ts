@@ -40,13 +40,21 @@ async function postLead(fields: Record<string, string>) {
   const request = new Request(raw.url, {
     method: "POST",
     body,
-    headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength), "X-Forwarded-For": `198.51.100.${address}` },
+    headers: {
+      ...Object.fromEntries(raw.headers),
+      "Content-Length": String(body.byteLength),
+      "X-Forwarded-For": `198.51.100.${address}`,
+    },
   });
   return configuratorAction(routeArgs(request, { companySlug: "cinder-slate" }));
 }
 
 const post = (url: string, cookie: string, fields: Record<string, string>) =>
-  requestWithCookie(url, cookie, { method: "POST", body: new URLSearchParams(fields), headers: { "Content-Type": "application/x-www-form-urlencoded" } });
+  requestWithCookie(url, cookie, {
+    method: "POST",
+    body: new URLSearchParams(fields),
+    headers: { "Content-Type": "application/x-www-form-urlencoded" },
+  });
 
 const statusOf = (result: unknown) =>
   result instanceof Response ? result.status : ((result as { init?: { status?: number } }).init?.status ?? 200);
@@ -63,7 +71,10 @@ test("header injection: a name and town with CR LF and a Bcc line are stored as 
   const [lead] = await db.select().from(leads).where(eq(leads.ref, ref));
   expect(lead!.customerName).toBe("Eve Mallory Bcc: everyone@attacker.test");
   expect(lead!.town).toBe("Millbrook Falls");
-  const mails = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `lead-new/${lead!.id}`));
+  const mails = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `lead-new/${lead!.id}`));
   expect(mails[0]!.subject).toBe("New fire-pit request: Eve Mallory Bcc: everyone@attacker.test, Millbrook Falls");
   expect(mails[0]!.subject).not.toMatch(/[\r\n]/);
 });
@@ -92,9 +103,13 @@ test("consult hours: intent=unblock&id=abc is refused with 400 naming the field,
   for (const id of ["abc", "", "1e3", "-1", "0x10", "1.5", "99999999999999999999"]) {
     const result = await consultHoursAction(routeArgs(post("/app/consult-hours", cookie, { intent: "unblock", id })));
     expect(statusOf(result), `id=${JSON.stringify(id)}`).toBe(400);
-    expect((result as { data: { errors: Record<string, string> } }).data.errors.day).toBe("Choose a blocked day to open again.");
+    expect((result as { data: { errors: Record<string, string> } }).data.errors.day).toBe(
+      "Choose a blocked day to open again.",
+    );
   }
-  expect(await db.select().from(consultBlockedDays).where(eq(consultBlockedDays.companyId, company.id))).toHaveLength(1);
+  expect(await db.select().from(consultBlockedDays).where(eq(consultBlockedDays.companyId, company.id))).toHaveLength(
+    1,
+  );
 });
 
 test("cancelling a consult with a booking id like 1e3 or 0x10 is refused as a bad id (400), not read as 1000 or 16", async () => {

@@ -58,8 +58,18 @@ beforeAll(async () => {
   // Two requests either side of local midnight on 10 June 2026: Chicago keeps CDT, UTC−5, in June
   // (IANA time zone database), so 04:30Z is still 9 June there and 05:30Z is 10 June.
   await db.insert(leads).values([
-    { ...extra[0]!, ref: "inbox-test-before-midnight", customerName: "Late Lorcan", createdAt: "2026-06-10T04:30:00.000Z" },
-    { ...extra[0]!, ref: "inbox-test-after-midnight", customerName: "Early Edda", createdAt: "2026-06-10T05:30:00.000Z" },
+    {
+      ...extra[0]!,
+      ref: "inbox-test-before-midnight",
+      customerName: "Late Lorcan",
+      createdAt: "2026-06-10T04:30:00.000Z",
+    },
+    {
+      ...extra[0]!,
+      ref: "inbox-test-after-midnight",
+      customerName: "Early Edda",
+      createdAt: "2026-06-10T05:30:00.000Z",
+    },
   ]);
   all = await db.select().from(leads).where(eq(leads.companyId, companyId));
 });
@@ -67,7 +77,8 @@ beforeAll(async () => {
 const page = (filters: Partial<InboxFilters>) =>
   loadInboxPage({ companyId, timeZone: TZ, filters: { ...DEFAULT_INBOX_FILTERS, ...filters }, unseenSince: null });
 
-const newestFirst = (a: Lead, b: Lead) => (a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : b.id - a.id);
+const newestFirst = (a: Lead, b: Lead) =>
+  a.createdAt < b.createdAt ? 1 : a.createdAt > b.createdAt ? -1 : b.id - a.id;
 
 test("the first page holds the 25 newest requests and the second page the next 25, no row twice", async () => {
   const expected = [...all].sort(newestFirst).map((l) => l.id);
@@ -97,7 +108,7 @@ test("the status filter keeps one status, and the counts per status ignore it", 
   }
 });
 
-test("the assignee filter finds a person's requests, and \"none\" the unassigned ones", async () => {
+test('the assignee filter finds a person\'s requests, and "none" the unassigned ones', async () => {
   const mine = await page({ assignee: estimatorId, page: 1 });
   const expectedMine = all.filter((l) => l.assignedUserId === estimatorId);
   expect(mine.total).toBe(expectedMine.length);
@@ -136,7 +147,9 @@ test("search treats % and _ as plain characters, not wildcards", async () => {
 });
 
 test("sorting by customer is alphabetical without regard to case, either way", async () => {
-  const byName = [...all].sort((a, b) => a.customerName.toLowerCase().localeCompare(b.customerName.toLowerCase()) || a.id - b.id);
+  const byName = [...all].sort(
+    (a, b) => a.customerName.toLowerCase().localeCompare(b.customerName.toLowerCase()) || a.id - b.id,
+  );
   const asc = await page({ sort: "customer", dir: "asc" });
   expect(asc.rows.map((r) => r.customerName)).toEqual(byName.slice(0, 25).map((l) => l.customerName));
   const desc = await page({ sort: "customer", dir: "desc" });
@@ -148,7 +161,8 @@ test("sorting by price puts requests without a price last, whichever way", async
   const priced = all.filter((l) => l.priceLowCents !== null).length;
   for (const dir of ["asc", "desc"] as const) {
     const rows: InboxPage["rows"] = [];
-    for (let p = 1; p <= Math.ceil(all.length / 25); p++) rows.push(...(await page({ sort: "price", dir, page: p })).rows);
+    for (let p = 1; p <= Math.ceil(all.length / 25); p++)
+      rows.push(...(await page({ sort: "price", dir, page: p })).rows);
     const prices = rows.map((r) => r.priceLowCents);
     expect(prices.slice(priced).every((v) => v === null)).toBe(true);
     const known = prices.slice(0, priced) as number[];
@@ -158,7 +172,8 @@ test("sorting by price puts requests without a price last, whichever way", async
 
 test("sorting by stage follows the job's steps, request first, stopped jobs last", async () => {
   const rows: InboxPage["rows"] = [];
-  for (let p = 1; p <= Math.ceil(all.length / 25); p++) rows.push(...(await page({ sort: "status", dir: "asc", page: p })).rows);
+  for (let p = 1; p <= Math.ceil(all.length / 25); p++)
+    rows.push(...(await page({ sort: "status", dir: "asc", page: p })).rows);
   const order = rows.map((r) => LEAD_STATUSES.indexOf(r.status));
   expect(order).toEqual([...order].sort((a, b) => a - b));
   expect(rows[0]!.status).toBe("request");
@@ -179,21 +194,29 @@ test("sorting by bowl, estimator and consult gives ordered pages", async () => {
 });
 
 test("bad filters are refused with a message naming each field", () => {
-  const result = parseInboxQuery(new URLSearchParams("status=maybe&page=0&from=2026-13-01&sort=colour&dir=up&assignee=bob"));
+  const result = parseInboxQuery(
+    new URLSearchParams("status=maybe&page=0&from=2026-13-01&sort=colour&dir=up&assignee=bob"),
+  );
   expect(result.ok).toBe(false);
   if (result.ok) return;
   expect(Object.keys(result.errors).sort()).toEqual(["assignee", "dir", "from", "page", "sort", "status"]);
   expect(result.errors.status).toContain("request, called-back");
   expect(result.errors.from).toContain("2026-12-02");
   const reversed = parseInboxQuery(new URLSearchParams("from=2026-06-10&to=2026-06-01"));
-  expect(reversed).toEqual({ ok: false, errors: { to: "To must be on or after From: the end date comes before the start date." } });
+  expect(reversed).toEqual({
+    ok: false,
+    errors: { to: "To must be on or after From: the end date comes before the start date." },
+  });
   const long = parseInboxQuery(new URLSearchParams({ q: "x".repeat(101) }));
   expect(long.ok ? null : long.errors.q).toBe("Search must be at most 100 characters.");
 });
 
 test("the inbox page answers bad filters with 400 and the messages, the API with 400 JSON, the CSV with 400 text", async () => {
   const cookie = await loginAs(companyId, "estimator");
-  const pageResult = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox?status=maybe", cookie)))) as { init: { status: number }; data: { errors: Record<string, string> } };
+  const pageResult = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox?status=maybe", cookie)))) as {
+    init: { status: number };
+    data: { errors: Record<string, string> };
+  };
   expect(pageResult.init.status).toBe(400);
   expect(pageResult.data.errors.status).toMatch(/^Stage must be one of/);
   const api = await apiLoader(routeArgs(requestWithCookie("/api/leads?page=-1&since=yesterday", cookie)));
@@ -207,7 +230,9 @@ test("the inbox page answers bad filters with 400 and the messages, the API with
 
 test("the API gives the same page as the inbox for the same filters, as JSON", async () => {
   const cookie = await loginAs(companyId, "owner");
-  const response = await apiLoader(routeArgs(requestWithCookie("/api/leads?status=request&sort=customer&dir=asc", cookie)));
+  const response = await apiLoader(
+    routeArgs(requestWithCookie("/api/leads?status=request&sort=customer&dir=asc", cookie)),
+  );
   expect(response.status).toBe(200);
   const body = (await response.json()) as InboxPage;
   const direct = await page({ status: "request", sort: "customer", dir: "asc" });
@@ -247,12 +272,32 @@ function parseCsv(text: string): string[][] {
 
 test("the CSV holds every request under the filters, all pages, in the inbox's order, with a dated file name", async () => {
   const cookie = await loginAs(companyId, "estimator");
-  const response = (await csvLoader(routeArgs(requestWithCookie("/app/inbox.csv?q=harrow&sort=customer&dir=asc", cookie)))) as Response;
+  const response = (await csvLoader(
+    routeArgs(requestWithCookie("/app/inbox.csv?q=harrow&sort=customer&dir=asc", cookie)),
+  )) as Response;
   expect(response.headers.get("Content-Type")).toBe("text/csv; charset=utf-8");
-  expect(response.headers.get("Content-Disposition")).toMatch(/^attachment; filename="emberwright-leads-cinder-slate-\d{4}-\d{2}-\d{2}\.csv"$/);
+  expect(response.headers.get("Content-Disposition")).toMatch(
+    /^attachment; filename="emberwright-leads-cinder-slate-\d{4}-\d{2}-\d{2}\.csv"$/,
+  );
   const text = (await response.text()).replace(/^\uFEFF/, "");
   const [header, ...rows] = parseCsv(text);
-  expect(header).toEqual(["Request", "Received", "Stage", "Why stopped", "Customer", "E-mail", "Phone", "Street", "Town", "Bowl (in)", "Wall stone", "Price low (USD)", "Price high (USD)", "Consult", "Estimator"]);
+  expect(header).toEqual([
+    "Request",
+    "Received",
+    "Stage",
+    "Why stopped",
+    "Customer",
+    "E-mail",
+    "Phone",
+    "Street",
+    "Town",
+    "Bowl (in)",
+    "Wall stone",
+    "Price low (USD)",
+    "Price high (USD)",
+    "Consult",
+    "Estimator",
+  ]);
   const expected = all
     .filter((l) => [l.customerName, l.email, l.phone, l.town].some((v) => v.toLowerCase().includes("harrow")))
     .sort((a, b) => a.customerName.toLowerCase().localeCompare(b.customerName.toLowerCase()) || a.id - b.id);
@@ -275,7 +320,9 @@ test("a CSV cell that a spreadsheet would run as a formula is written as text", 
     notes: "",
   });
   const cookie = await loginAs(companyId, "owner");
-  const text = await ((await csvLoader(routeArgs(requestWithCookie("/app/inbox.csv?q=Harrowgate", cookie)))) as Response).text();
+  const text = await (
+    (await csvLoader(routeArgs(requestWithCookie("/app/inbox.csv?q=Harrowgate", cookie)))) as Response
+  ).text();
   const [, row] = parseCsv(text.replace(/^\uFEFF/, ""));
   expect(row![4]).toBe(`'=HYPERLINK("http://evil.example","Click, me")`);
   expect(row![8]).toBe("'@Harrowgate");
@@ -298,19 +345,33 @@ test("opening the inbox marks newer requests unseen, then remembers the visit; p
   const [unchanged] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
   expect(unchanged!.seen).toBe(seenBefore);
   const viewedAt = (first as unknown as { viewedAt: string }).viewedAt;
-  const seen = await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: viewedAt }) })));
+  const seen = await seenAction(
+    routeArgs(
+      requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: viewedAt }) }),
+    ),
+  );
   expect(seen.status).toBe(204);
   const [after] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
   expect(after!.seen).toBe(viewedAt);
   // An older time never moves the mark back; a malformed one is refused, naming the field.
-  await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: seenBefore }) })));
-  const bad = await seenAction(routeArgs(requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: "yesterday" }) })));
+  await seenAction(
+    routeArgs(
+      requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: seenBefore }) }),
+    ),
+  );
+  const bad = await seenAction(
+    routeArgs(
+      requestWithCookie("/app/inbox/seen", cookie, { method: "POST", body: new URLSearchParams({ at: "yesterday" }) }),
+    ),
+  );
   expect(bad.status).toBe(400);
   expect(((await bad.json()) as { errors: { path: string }[] }).errors[0]!.path).toBe("at");
   const [kept] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
   expect(kept!.seen).toBe(viewedAt);
 
-  const polled = (await (await apiLoader(routeArgs(requestWithCookie(`/api/leads?since=${encodeURIComponent(seenBefore)}`, cookie)))).json()) as InboxPage;
+  const polled = (await (
+    await apiLoader(routeArgs(requestWithCookie(`/api/leads?since=${encodeURIComponent(seenBefore)}`, cookie)))
+  ).json()) as InboxPage;
   expect(polled.unseenCount).toBe(expectedUnseen);
   const [still] = await db.select({ seen: users.inboxSeenAt }).from(users).where(eq(users.id, estimatorId));
   expect(still!.seen).toBe(after!.seen);
@@ -326,8 +387,20 @@ test("the consult column shows a confirmed booking in the company's time, and ig
   const booking = { companyId, amountCents: 15000, holdExpiresAt: "2031-03-01T00:00:00.000Z" };
   await db.insert(bookings).values([
     // 15:00 UTC on 4 March 2031 is 9:00 in Chicago, still on CST (UTC−6) until 9 March (IANA tz database).
-    { ...booking, leadId: wendell.id, startsAt: "2031-03-04T15:00:00.000Z", endsAt: "2031-03-04T16:00:00.000Z", status: "confirmed" as const },
-    { ...booking, leadId: marcus.id, startsAt: "2031-03-05T15:00:00.000Z", endsAt: "2031-03-05T16:00:00.000Z", status: "cancelled" as const },
+    {
+      ...booking,
+      leadId: wendell.id,
+      startsAt: "2031-03-04T15:00:00.000Z",
+      endsAt: "2031-03-04T16:00:00.000Z",
+      status: "confirmed" as const,
+    },
+    {
+      ...booking,
+      leadId: marcus.id,
+      startsAt: "2031-03-05T15:00:00.000Z",
+      endsAt: "2031-03-05T16:00:00.000Z",
+      status: "cancelled" as const,
+    },
   ]);
   const found = await page({ q: "Wendell" });
   expect(found.rows[0]!.consult).toEqual({ startsAt: "2031-03-04T15:00:00.000Z", label: "Tue, Mar 4, 9:00 AM" });
@@ -336,7 +409,10 @@ test("the consult column shows a confirmed booking in the company's time, and ig
 });
 
 test("someone opening the inbox for the first time sees nothing marked new, and the count agrees with the marks", async () => {
-  const [fresh] = await db.insert(users).values({ companyId, email: "first.visit@cinder-slate.test", name: "First Visit", role: "estimator" }).returning();
+  const [fresh] = await db
+    .insert(users)
+    .values({ companyId, email: "first.visit@cinder-slate.test", name: "First Visit", role: "estimator" })
+    .returning();
   const { startSession } = await import("~/lib/auth/session.server");
   const cookie = (await startSession(fresh!.id)).split(";")[0]!;
   const first = (await inboxLoader(routeArgs(requestWithCookie("/app/inbox", cookie)))) as { inbox: InboxPage };

@@ -18,20 +18,39 @@ let seq = 0;
 async function paidConsult(stage: "request" | "called-back" = "request") {
   const { company } = await demoCompany();
   const created = await createTestLead(company);
-  if (stage === "called-back") await db.update(leads).set({ status: "called-back", calledBackAt: new Date().toISOString() }).where(eq(leads.id, created.id));
+  if (stage === "called-back")
+    await db
+      .update(leads)
+      .set({ status: "called-back", calledBackAt: new Date().toISOString() })
+      .where(eq(leads.id, created.id));
   const [lead] = await db.select().from(leads).where(eq(leads.id, created.id));
   const slots = await listCompanySlots(company);
   const slot = slots[Math.floor(Math.random() * slots.length)]!;
   const held = await holdSlot({ company, lead: lead!, startsAt: slot.startsAt, customerTimeZone: null });
   // As startCheckout records it once the payment service has opened the session.
-  const [booking] = (await db.update(bookings).set({ checkoutSessionId: `cs_stage_${held.id}` }).where(eq(bookings.id, held.id)).returning()) as [typeof held];
+  const [booking] = (await db
+    .update(bookings)
+    .set({ checkoutSessionId: `cs_stage_${held.id}` })
+    .where(eq(bookings.id, held.id))
+    .returning()) as [typeof held];
   seq += 1;
   const event = {
     id: `evt_stage_${Date.now()}_${seq}`,
     object: "event",
     type: "checkout.session.completed",
     created: Math.floor(Date.now() / 1000),
-    data: { object: { id: `cs_stage_${booking.id}`, object: "checkout.session", payment_status: "paid", status: "complete", amount_total: booking.amountCents, currency: "usd", payment_intent: `pi_stage_${booking.id}`, metadata: { booking_id: String(booking.id) } } },
+    data: {
+      object: {
+        id: `cs_stage_${booking.id}`,
+        object: "checkout.session",
+        payment_status: "paid",
+        status: "complete",
+        amount_total: booking.amountCents,
+        currency: "usd",
+        payment_intent: `pi_stage_${booking.id}`,
+        metadata: { booking_id: String(booking.id) },
+      },
+    },
   } as unknown as Stripe.Event;
   expect(await applyPaymentEvent(event)).toBe("applied");
   return { company, booking, leadId: lead!.id };
@@ -43,7 +62,13 @@ test("a paid consult puts the request at “consult booked”; the homeowner can
   const { company, booking, leadId } = await paidConsult();
   expect((await stageOf(leadId)).status).toBe("consult-booked");
   const farAhead = new Date(new Date(booking.startsAt).getTime() - 3 * 86_400_000);
-  await cancelBooking({ bookingId: booking.id, companyId: company.id, by: "homeowner", actorUserId: null, now: farAhead });
+  await cancelBooking({
+    bookingId: booking.id,
+    companyId: company.id,
+    by: "homeowner",
+    actorUserId: null,
+    now: farAhead,
+  });
   expect((await db.select().from(bookings).where(eq(bookings.id, booking.id)))[0]!.status).toBe("cancelled");
   expect((await stageOf(leadId)).status).toBe("request");
 });
@@ -57,7 +82,10 @@ test("the office cancelling the consult of a request it had called back puts it 
 
 test("a job put on hold at “consult booked” whose consult is then cancelled picks up again at the step still true", async () => {
   const { company, booking, leadId } = await paidConsult("called-back");
-  await db.update(leads).set({ status: "on-hold", pausedStage: "consult-booked", stopReason: "Away for a month." }).where(eq(leads.id, leadId));
+  await db
+    .update(leads)
+    .set({ status: "on-hold", pausedStage: "consult-booked", stopReason: "Away for a month." })
+    .where(eq(leads.id, leadId));
   await cancelBooking({ bookingId: booking.id, companyId: company.id, by: "staff", actorUserId: null });
   expect(await stageOf(leadId)).toMatchObject({ status: "on-hold", pausedStage: "called-back" });
 });
@@ -82,10 +110,14 @@ test("the moves by hand: a request can be called back, held or dropped; a stoppe
 test("the lead page leads with the next step for the person looking: the office is told what to do, the crew to build", () => {
   const facts = { firstName: "Wren", consultLabel: null, proposal: null, openChangeOrder: false, stopReason: null };
   expect(describeNextStep("measured", null, true, facts).title).toBe("Send the proposal");
-  expect(describeNextStep("proposal-out", null, true, { ...facts, proposal: { state: "sent", opened: false } })).toEqual({
+  expect(
+    describeNextStep("proposal-out", null, true, { ...facts, proposal: { state: "sent", opened: false } }),
+  ).toEqual({
     title: "Waiting for the signature",
     detail: "Wren has not opened the proposal yet.",
   });
-  expect(describeNextStep("proposal-out", null, true, { ...facts, proposal: { state: "accepted", opened: true } }).title).toBe("Waiting for the deposit");
+  expect(
+    describeNextStep("proposal-out", null, true, { ...facts, proposal: { state: "accepted", opened: true } }).title,
+  ).toBe("Waiting for the deposit");
   expect(describeNextStep("signed", null, false, facts).title).toBe("Build it");
 });

@@ -5,7 +5,14 @@ import { startEmailFake, type EmailFake } from "../../fakes/email/server";
 import { deliverDueEmails } from "~/lib/jobs/outbox-worker.server";
 import { emailOutbox, leadEvents, leads, users, type Lead } from "~/db/schema";
 import { db } from "~/lib/platform/db.server";
-import { assignCrew, assignEstimator, listRevisions, listTimeline, saveRevision, sendRevision } from "~/lib/leads/lead-workspace.server";
+import {
+  assignCrew,
+  assignEstimator,
+  listRevisions,
+  listTimeline,
+  saveRevision,
+  sendRevision,
+} from "~/lib/leads/lead-workspace.server";
 import type { SessionUser } from "~/lib/auth/session.server";
 import { createCompanyWithStaff } from "./support/fixtures";
 import { createTestLead, createTestPlanRecord } from "./support/leads";
@@ -27,7 +34,13 @@ async function setUp() {
   };
   const { id } = await createTestLead(company);
   const lead = async (): Promise<Lead> => (await db.select().from(leads).where(eq(leads.id, id)))[0]!;
-  return { company, owner: await asUser(people.owner.id), estimator: await asUser(people.estimator.id), crew: await asUser(people.crew.id), lead };
+  return {
+    company,
+    owner: await asUser(people.owner.id),
+    estimator: await asUser(people.estimator.id),
+    crew: await asUser(people.crew.id),
+    lead,
+  };
 }
 
 const mailTo = (address: string) => db.select().from(emailOutbox).where(eq(emailOutbox.toAddress, address));
@@ -37,10 +50,14 @@ test("assigning an estimator e-mails them the request with a link to it; assigni
   expect(await assignEstimator(owner, await lead(), estimator.id, ORIGIN)).toEqual({ ok: true });
   const [mail] = await mailTo(estimator.email);
   expect(mail!.subject).toBe("Request assigned to you: Wren Castellano, Millbrook Falls");
-  expect(mail!.text).toContain(`${owner.name} assigned you the fire-pit request from Wren Castellano in Millbrook Falls`);
+  expect(mail!.text).toContain(
+    `${owner.name} assigned you the fire-pit request from Wren Castellano in Millbrook Falls`,
+  );
   expect(mail!.text).toContain(`${ORIGIN}/app/leads/${(await lead()).id}`);
   // It shows on the lead's timeline with the lead's other e-mails.
-  expect((await listTimeline(await lead())).some((t) => t.kind === "email" && t.detail.includes("Request assigned to you"))).toBe(true);
+  expect(
+    (await listTimeline(await lead())).some((t) => t.kind === "email" && t.detail.includes("Request assigned to you")),
+  ).toBe(true);
 
   expect(await assignEstimator(owner, await lead(), owner.id, ORIGIN)).toEqual({ ok: true });
   expect(await mailTo(owner.email)).toHaveLength(0);
@@ -50,7 +67,10 @@ test("giving a signed job to a crew member e-mails them; a refused assignment e-
   const { owner, crew, lead } = await setUp();
   expect((await assignCrew(owner, await lead(), crew.id, ORIGIN)).ok).toBe(false);
   expect(await mailTo(crew.email)).toHaveLength(0);
-  await db.update(leads).set({ status: "signed" }).where(eq(leads.id, (await lead()).id));
+  await db
+    .update(leads)
+    .set({ status: "signed" })
+    .where(eq(leads.id, (await lead()).id));
   expect(await assignCrew(owner, await lead(), crew.id, ORIGIN)).toEqual({ ok: true });
   const [mail] = await mailTo(crew.email);
   expect(mail!.subject).toBe("Job to build: Wren Castellano, Millbrook Falls");
@@ -61,7 +81,10 @@ test("a revision sent to the homeowner is marked sent once, noted on the timelin
   const { estimator, lead } = await setUp();
   const revisionId = await saveRevision(estimator, await lead(), createTestPlanRecord());
   expect((await listRevisions(await lead()))[0]!.sentAt).toBeNull();
-  const [first, second] = await Promise.all([sendRevision(estimator, await lead(), revisionId, ORIGIN), sendRevision(estimator, await lead(), revisionId, ORIGIN)]);
+  const [first, second] = await Promise.all([
+    sendRevision(estimator, await lead(), revisionId, ORIGIN),
+    sendRevision(estimator, await lead(), revisionId, ORIGIN),
+  ]);
   // Of two sends at once, one marks it and the other is told it went already.
   expect([first, second].filter((r) => r.ok)).toHaveLength(1);
   expect([first, second].find((r) => !r.ok)).toMatchObject({ status: 409 });
@@ -71,7 +94,10 @@ test("a revision sent to the homeowner is marked sent once, noted on the timelin
   expect(sent).toHaveLength(1);
   expect(sent[0]!.subject).toBe("Your revised fire-pit design from Quarry Lane Masonry");
   expect(sent[0]!.text).toContain(`${ORIGIN}/my#revision-${revisionId}`);
-  const events = await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, (await lead()).id), eq(leadEvents.kind, "revision-sent")));
+  const events = await db
+    .select()
+    .from(leadEvents)
+    .where(and(eq(leadEvents.leadId, (await lead()).id), eq(leadEvents.kind, "revision-sent")));
   expect(events).toHaveLength(1);
 });
 
@@ -81,7 +107,12 @@ test("a revision of another request cannot be sent from this one (404)", async (
   const [other] = await db.select().from(leads).where(eq(leads.id, otherId));
   const revisionId = await saveRevision(estimator, other!, createTestPlanRecord());
   expect(await sendRevision(estimator, await lead(), revisionId, ORIGIN)).toMatchObject({ ok: false, status: 404 });
-  expect(await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `lead-revision-${revisionId}/%`))).toHaveLength(0);
+  expect(
+    await db
+      .select()
+      .from(emailOutbox)
+      .where(like(emailOutbox.idempotencyKey, `lead-revision-${revisionId}/%`)),
+  ).toHaveLength(0);
 });
 
 test("the homeowner's revision e-mail goes out under the company's name with Reply-To the company's address", async () => {
@@ -91,7 +122,9 @@ test("the homeowner's revision e-mail goes out under the company's name with Rep
   const client = new Resend("re_test_key", { baseUrl: mailFake.url });
   // Other files' rows may be due too; the worker sends them all.
   while ((await deliverDueEmails(new Date(), client)) > 0);
-  const messages = (await (await fetch(`${mailFake.url}/_fake/messages?to=${encodeURIComponent((await lead()).email)}`)).json()) as { from: string; reply_to: string[]; subject: string; text: string }[];
+  const messages = (await (
+    await fetch(`${mailFake.url}/_fake/messages?to=${encodeURIComponent((await lead()).email)}`)
+  ).json()) as { from: string; reply_to: string[]; subject: string; text: string }[];
   const revision = messages.find((m) => m.subject.startsWith("Your revised fire-pit design"))!;
   expect(revision.from).toBe("Quarry Lane Masonry <requests@emberwright.test>");
   expect(revision.reply_to).toEqual([company.email]);

@@ -25,7 +25,11 @@ function requestForm(fields: Record<string, string>, photos: File[] = []) {
   for (const p of photos) form.append("photos", p);
   // A fresh address per request keeps the per-address limit out of these tests.
   ip += 1;
-  const request = new Request("http://localhost/c/cinder-slate", { method: "POST", body: form, headers: { "X-Forwarded-For": `10.9.0.${ip}` } });
+  const request = new Request("http://localhost/c/cinder-slate", {
+    method: "POST",
+    body: form,
+    headers: { "X-Forwarded-For": `10.9.0.${ip}` },
+  });
   return request;
 }
 
@@ -33,8 +37,13 @@ async function send(fields: Record<string, string>, photos: File[] = []) {
   const raw = requestForm(fields, photos);
   // FormData bodies carry no Content-Length until serialised; add it as a browser does.
   const body = await raw.arrayBuffer();
-  const request = new Request(raw.url, { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) } });
-  return (await action(routeArgs(request, { companySlug: "cinder-slate" }))) as Response | { data: { errors: Record<string, string> }; init: ResponseInit };
+  const request = new Request(raw.url, {
+    method: "POST",
+    body,
+    headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) },
+  });
+  return (await action(routeArgs(request, { companySlug: "cinder-slate" }))) as
+    Response | { data: { errors: Record<string, string> }; init: ResponseInit };
 }
 
 const GOOD = {
@@ -49,7 +58,8 @@ const GOOD = {
   design: "units=14&courses=4&liner=firebrick",
 };
 
-const tableCount = async (table: typeof leads | typeof leadPhotos | typeof emailOutbox) => (await db.select({ n: count() }).from(table))[0]!.n;
+const tableCount = async (table: typeof leads | typeof leadPhotos | typeof emailOutbox) =>
+  (await db.select({ n: count() }).from(table))[0]!.n;
 
 test("a request with two photos saves the lead, its photos, an event, the homeowner account and two e-mails at once", async () => {
   await demoCompany();
@@ -67,9 +77,13 @@ test("a request with two photos saves the lead, its photos, an event, the homeow
   expect(JSON.parse(lead!.designJson).summary.length).toBeGreaterThan(3);
   const photos = await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, lead!.id));
   expect(photos.map((p) => p.originalName).sort()).toEqual(["side.jpg", "yard.png"]);
-  expect((await db.select().from(leadEvents).where(eq(leadEvents.leadId, lead!.id))).map((e) => e.kind)).toEqual(["received"]);
+  expect((await db.select().from(leadEvents).where(eq(leadEvents.leadId, lead!.id))).map((e) => e.kind)).toEqual([
+    "received",
+  ]);
   const outbox = await db.select().from(emailOutbox).where(eq(emailOutbox.companyId, lead!.companyId));
-  expect(outbox.map((o) => o.idempotencyKey)).toEqual(expect.arrayContaining([`lead-received/${lead!.id}`, `lead-new/${lead!.id}`]));
+  expect(outbox.map((o) => o.idempotencyKey)).toEqual(
+    expect.arrayContaining([`lead-received/${lead!.id}`, `lead-new/${lead!.id}`]),
+  );
   const [homeowner] = await db.select().from(users).where(eq(users.email, "two.photos@example.test"));
   expect(homeowner?.role).toBe("homeowner");
   expect(await db.select().from(oneTimeTokens).where(eq(oneTimeTokens.userId, homeowner!.id))).toHaveLength(1);
@@ -78,7 +92,9 @@ test("a request with two photos saves the lead, its photos, an event, the homeow
 test("missing and bad fields are named, and nothing is saved", async () => {
   await demoCompany();
   const before = await Promise.all([tableCount(leads), tableCount(leadPhotos), tableCount(emailOutbox)]);
-  const result = await send({ ...GOOD, email: "not-an-email", consent: "", phone: "call me" }, [new File(["hello"], "yard.jpg", { type: "image/jpeg" })]);
+  const result = await send({ ...GOOD, email: "not-an-email", consent: "", phone: "call me" }, [
+    new File(["hello"], "yard.jpg", { type: "image/jpeg" }),
+  ]);
   expect(result).not.toBeInstanceOf(Response);
   const { data, init } = result as { data: { errors: Record<string, string> }; init: ResponseInit };
   expect(init.status).toBe(400);
@@ -101,9 +117,16 @@ test("with the e-mail service failing the request still stands, and the e-mails 
   const [lead] = await db.select().from(leads).where(eq(leads.ref, ref));
   expect(lead).toBeDefined();
 
-  await fetch(`${fake.url}/_fake/fail`, { method: "POST", body: JSON.stringify({ forMs: 60_000, status: 503 }), headers: { "Content-Type": "application/json" } });
+  await fetch(`${fake.url}/_fake/fail`, {
+    method: "POST",
+    body: JSON.stringify({ forMs: 60_000, status: 503 }),
+    headers: { "Content-Type": "application/json" },
+  });
   expect(await deliverDueEmails(new Date(), mail)).toBe(0);
-  const [pending] = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `lead-received/${lead!.id}`));
+  const [pending] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `lead-received/${lead!.id}`));
   expect(pending).toMatchObject({ status: "pending", attempts: 1 });
   expect(pending!.lastError).toMatch(/^503/);
 
@@ -112,12 +135,22 @@ test("with the e-mail service failing the request still stands, and the e-mails 
   const later = new Date(Date.now() + 60 * 60_000);
   await deliverDueEmails(later, mail);
   await deliverDueEmails(later, mail);
-  const messages = (await (await fetch(`${fake.url}/_fake/messages`)).json()) as { to: string[]; subject: string; text: string }[];
+  const messages = (await (await fetch(`${fake.url}/_fake/messages`)).json()) as {
+    to: string[];
+    subject: string;
+    text: string;
+  }[];
   const toHomeowner = messages.filter((m) => m.to.includes("while.down@example.test"));
   expect(toHomeowner).toHaveLength(1);
   expect(toHomeowner[0]!.subject).toBe("Cinder & Slate Outdoor Works received your fire-pit request");
   expect(toHomeowner[0]!.text).toContain("/welcome#");
-  expect(messages.filter((m) => m.subject === "New fire-pit request: Rosalind Ferreira, Millbrook Falls" && m.to.includes("office@cinder-slate.test")).length).toBeGreaterThanOrEqual(1);
+  expect(
+    messages.filter(
+      (m) =>
+        m.subject === "New fire-pit request: Rosalind Ferreira, Millbrook Falls" &&
+        m.to.includes("office@cinder-slate.test"),
+    ).length,
+  ).toBeGreaterThanOrEqual(1);
 });
 
 test("one address sending more than the limit of requests in 10 minutes gets 429 with Retry-After", async () => {
@@ -130,7 +163,15 @@ test("one address sending more than the limit of requests in 10 minutes gets 429
     form.set("customerName", "x");
     const raw = new Request("http://localhost/c/cinder-slate", { method: "POST", body: form });
     const body = await raw.arrayBuffer();
-    const request = new Request(raw.url, { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength), "X-Forwarded-For": "203.0.113.9" } });
+    const request = new Request(raw.url, {
+      method: "POST",
+      body,
+      headers: {
+        ...Object.fromEntries(raw.headers),
+        "Content-Length": String(body.byteLength),
+        "X-Forwarded-For": "203.0.113.9",
+      },
+    });
     const result = (await act(routeArgs(request, { companySlug: "cinder-slate" }))) as { init: ResponseInit };
     statuses.push(result.init.status!);
     retryAfter = new Headers(result.init.headers).get("Retry-After");
@@ -144,17 +185,26 @@ test("one address sending more than the limit of requests in 10 minutes gets 429
 async function sendThroughUploadEndpoint(fields: Record<string, string>, photos: File[] = []) {
   const raw = requestForm(fields, photos);
   const body = await raw.arrayBuffer();
-  const request = new Request("http://localhost/c/cinder-slate/request", { method: "POST", body, headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) } });
+  const request = new Request("http://localhost/c/cinder-slate/request", {
+    method: "POST",
+    body,
+    headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength) },
+  });
   return (await uploadAction(routeArgs(request, { companySlug: "cinder-slate" }))) as Response;
 }
 
 test("the upload endpoint answers in JSON: where to go once the request is saved, and each refused field by name with nothing saved", async () => {
   await demoCompany();
-  const sent = await sendThroughUploadEndpoint({ ...GOOD, email: "upload.endpoint@example.test" }, [new File([TINY_JPEG], "yard.jpg", { type: "image/jpeg" })]);
+  const sent = await sendThroughUploadEndpoint({ ...GOOD, email: "upload.endpoint@example.test" }, [
+    new File([TINY_JPEG], "yard.jpg", { type: "image/jpeg" }),
+  ]);
   expect(sent.status).toBe(200);
   const { location } = (await sent.json()) as { location: string };
   expect(location).toMatch(/^\/c\/cinder-slate\/sent\/[\w-]{22}$/);
-  const [lead] = await db.select().from(leads).where(eq(leads.ref, location.split("/").pop()!));
+  const [lead] = await db
+    .select()
+    .from(leads)
+    .where(eq(leads.ref, location.split("/").pop()!));
   // The phone as typed, "(970) 555-0147", kept in E.164 (ITU-T E.164).
   expect(lead?.phone).toBe("+19705550147");
   expect(await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, lead!.id))).toHaveLength(1);

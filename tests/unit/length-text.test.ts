@@ -27,7 +27,9 @@ test("feet become metres to a tenth and square feet become square metres", () =>
 });
 
 test("words that merely start with 'in' and counts of things are left alone", () => {
-  expect(speakLengths("16 units in each course, 2 inside, 14 units a course", "mm")).toBe("16 units in each course, 2 inside, 14 units a course");
+  expect(speakLengths("16 units in each course, 2 inside, 14 units a course", "mm")).toBe(
+    "16 units in each course, 2 inside, 14 units a course",
+  );
   expect(speakLengths("section §307.4.2 of the code", "mm")).toBe("section §307.4.2 of the code");
 });
 

@@ -52,7 +52,8 @@ describe("client code (components, scene, domain, e-mails, non-server library mo
   });
 
   test("the vocabularies (~/db/enums) and client-safe library modules stay allowed", async () => {
-    const code = 'import { ROLES } from "~/db/enums";\nimport { formatMoney } from "~/lib/money";\nexport const x = [ROLES, formatMoney];\n';
+    const code =
+      'import { ROLES } from "~/db/enums";\nimport { formatMoney } from "~/lib/money";\nexport const x = [ROLES, formatMoney];\n';
     expect(await boundaryProblems("app/components/some-card.tsx", code)).toEqual([]);
     // A name that merely contains "server" is not a server module.
     const lookalike = 'import { serverTiming } from "~/lib/server-timing";\nexport const y = serverTiming;\n';
@@ -62,7 +63,8 @@ describe("client code (components, scene, domain, e-mails, non-server library mo
 
 describe("server modules", () => {
   test("a *.server module may use the tables and the database client", async () => {
-    const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = () => db.select().from(leads);\n';
+    const code =
+      'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = () => db.select().from(leads);\n';
     expect(await boundaryProblems("app/lib/some-queries.server.ts", code)).toEqual([]);
     expect(await boundaryProblems("app/lib/leads/some-queries.server.ts", code)).toEqual([]);
   });
@@ -78,7 +80,8 @@ describe("route modules", () => {
   test.each(["app/routes/some-page.tsx", "app/routes/api/some-endpoint.ts", "app/root.tsx"])(
     "%s may not import the tables or the database client",
     async (file) => {
-      const code = 'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = [leads, db];\n';
+      const code =
+        'import { leads } from "~/db/schema";\nimport { db } from "~/lib/platform/db.server";\nexport const q = [leads, db];\n';
       const problems = await boundaryProblems(file, code);
       expect(problems).toHaveLength(2);
       expect(problems[0]).toMatch(/table definitions/);

@@ -26,7 +26,12 @@ beforeAll(async () => {
 
 /** The token in the newest e-mail to an address (links are /welcome#<token>; older builds used /welcome/<token>). */
 async function latestLink(email: string): Promise<{ link: string; token: string }> {
-  const [mail] = await db.select().from(emailOutbox).where(eq(emailOutbox.toAddress, email)).orderBy(desc(emailOutbox.id)).limit(1);
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.toAddress, email))
+    .orderBy(desc(emailOutbox.id))
+    .limit(1);
   const match = /(https?:\/\/[^\s\]]+?\/welcome[#/]([\w-]{43}))/.exec(mail!.text);
   if (!match) throw new Error(`no one-time link in the e-mail to ${email}`);
   return { link: match[1]!, token: match[2]! };
@@ -34,11 +39,18 @@ async function latestLink(email: string): Promise<{ link: string; token: string 
 
 /** Posts to the welcome page as its form does: the token in the body (and, for old builds, in the path). */
 function postWelcome(token: string, fields: Record<string, string>) {
-  const request = new Request("http://localhost/welcome", { method: "POST", body: new URLSearchParams({ token, ...fields }) });
-  return welcomeAction(routeArgs(request, { token })) as Promise<Response | { init?: { status?: number }; data: unknown }>;
+  const request = new Request("http://localhost/welcome", {
+    method: "POST",
+    body: new URLSearchParams({ token, ...fields }),
+  });
+  return welcomeAction(routeArgs(request, { token })) as Promise<
+    Response | { init?: { status?: number }; data: unknown }
+  >;
 }
-const statusOf = (r: Response | { init?: { status?: number } }) => (r instanceof Response ? r.status : (r.init?.status ?? 200));
-const setPassword = (token: string, password: string) => postWelcome(token, { intent: "set", password, confirm: password });
+const statusOf = (r: Response | { init?: { status?: number } }) =>
+  r instanceof Response ? r.status : (r.init?.status ?? 200);
+const setPassword = (token: string, password: string) =>
+  postWelcome(token, { intent: "set", password, confirm: password });
 
 async function accountOf(email: string) {
   return (await db.select().from(users).where(eq(users.email, email)))[0]!;
@@ -68,7 +80,10 @@ test("using one set-password link twice at the same moment: one wins, the other 
   const email = "double.use@example.test";
   await createTestLead(company, email);
   const { token } = await latestLink(email);
-  const [first, second] = await Promise.all([setPassword(token, "first-racer-password"), setPassword(token, "second-racer-password")]);
+  const [first, second] = await Promise.all([
+    setPassword(token, "first-racer-password"),
+    setPassword(token, "second-racer-password"),
+  ]);
   const statuses = [statusOf(first), statusOf(second)];
   expect(statuses.sort()).toEqual([302, 410]);
   const winner = statusOf(first) === 302 ? "first-racer-password" : "second-racer-password";
@@ -90,11 +105,19 @@ test("reading tokens from access logs: the e-mailed link keeps its token in the 
 
 test("telling registered addresses apart: the request-sent page says the same for an address with an account and one without", async () => {
   const registered = "has.account@example.test";
-  await db.insert(users).values({ companyId: company.id, email: registered, name: "Wren Castellano", role: "homeowner", passwordHash: await hashPassword("an-existing-password") });
+  await db.insert(users).values({
+    companyId: company.id,
+    email: registered,
+    name: "Wren Castellano",
+    role: "homeowner",
+    passwordHash: await hashPassword("an-existing-password"),
+  });
   const withAccount = await createTestLead(company, registered);
   const withoutAccount = await createTestLead(company, "no.account.yet@example.test");
   const view = async (ref: string) => {
-    const data = (await sentLoader(routeArgs(new Request(`http://localhost/c/${company.slug}/sent/${ref}`), { companySlug: company.slug, ref }))) as Record<string, unknown>;
+    const data = (await sentLoader(
+      routeArgs(new Request(`http://localhost/c/${company.slug}/sent/${ref}`), { companySlug: company.slug, ref }),
+    )) as Record<string, unknown>;
     return { ...data, ref: "(differs)" };
   };
   expect(await view(withAccount.ref)).toEqual(await view(withoutAccount.ref));
@@ -104,7 +127,13 @@ test("a request sent with a stranger's address stays out of their /my until they
   const victim = "victim.homeowner@example.test";
   const [account] = await db
     .insert(users)
-    .values({ companyId: company.id, email: victim, name: "Vera Holloway", role: "homeowner", passwordHash: await hashPassword("vera-own-password") })
+    .values({
+      companyId: company.id,
+      email: victim,
+      name: "Vera Holloway",
+      role: "homeowner",
+      passwordHash: await hashPassword("vera-own-password"),
+    })
     .returning();
   const planted = await createTestLead(company, victim);
   expect(await myRequests(account!.id)).not.toContain(planted.id);

@@ -40,7 +40,11 @@ function completedEvent(bookingId: number, overrides: Record<string, unknown> = 
 /** Posts a webhook the way the payment service does: the raw body, signed with the shared secret. */
 async function deliver(payload: string, header?: string) {
   const signature = header ?? stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
-  const request = new Request("http://localhost/api/webhooks/stripe", { method: "POST", body: payload, headers: { "Stripe-Signature": signature, "Content-Type": "application/json" } });
+  const request = new Request("http://localhost/api/webhooks/stripe", {
+    method: "POST",
+    body: payload,
+    headers: { "Stripe-Signature": signature, "Content-Type": "application/json" },
+  });
   const response = (await action(routeArgs(request))) as Response;
   return { status: response.status, json: await response.json() };
 }
@@ -52,15 +56,29 @@ async function heldBooking() {
   const slots = await listCompanySlots(company);
   // Each test takes its own slot, so tests never race each other for one.
   const slot = slots[Math.floor(Math.random() * slots.length)]!;
-  const held = await holdSlot({ company, lead: leadRow!, startsAt: slot.startsAt, customerTimeZone: "America/New_York" });
+  const held = await holdSlot({
+    company,
+    lead: leadRow!,
+    startsAt: slot.startsAt,
+    customerTimeZone: "America/New_York",
+  });
   // As startCheckout records it once the payment service has opened the session.
-  const [booking] = await db.update(bookings).set({ checkoutSessionId: `cs_test_${held.id}` }).where(eq(bookings.id, held.id)).returning();
+  const [booking] = await db
+    .update(bookings)
+    .set({ checkoutSessionId: `cs_test_${held.id}` })
+    .where(eq(bookings.id, held.id))
+    .returning();
   expect(booking!.amountCents).toBe(15000);
   return { company, lead: leadRow!, booking: booking! };
 }
 
 const outboxFor = async (bookingId: number) =>
-  (await db.select({ n: count() }).from(emailOutbox).where(like(emailOutbox.idempotencyKey, `consult-%/${bookingId}`)))[0]!.n;
+  (
+    await db
+      .select({ n: count() })
+      .from(emailOutbox)
+      .where(like(emailOutbox.idempotencyKey, `consult-%/${bookingId}`))
+  )[0]!.n;
 
 test("a signed completed event confirms the booking, marks it paid and queues three e-mails (two confirmations, one reminder)", async () => {
   const { booking } = await heldBooking();
@@ -69,7 +87,10 @@ test("a signed completed event confirms the booking, marks it paid and queues th
   const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(row).toMatchObject({ status: "confirmed", isPaid: true, paymentIntentId: `pi_test_${booking.id}` });
   expect(await outboxFor(booking.id)).toBe(3);
-  const [confirmation] = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `consult-confirmed/${booking.id}`));
+  const [confirmation] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `consult-confirmed/${booking.id}`));
   const [ics] = JSON.parse(confirmation!.attachmentsJson) as { filename: string; content: string }[];
   expect(ics!.filename).toBe("design-consult.ics");
   // RFC 5545: a calendar starts BEGIN:VCALENDAR and the event carries DTSTART in UTC.
@@ -79,9 +100,26 @@ test("a signed completed event confirms the booking, marks it paid and queues th
 });
 
 test.each([
-  ["a bad signature", (_payload: string) => `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}`, (p: string) => p],
-  ["a stale timestamp (over 300 s old)", (payload: string) => stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET, timestamp: Math.floor(Date.now() / 1000) - 600 }), (p: string) => p],
-  ["a re-serialised body", (payload: string) => stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET }), (p: string) => JSON.stringify(JSON.parse(p), null, 2)],
+  [
+    "a bad signature",
+    (_payload: string) => `t=${Math.floor(Date.now() / 1000)},v1=${"0".repeat(64)}`,
+    (p: string) => p,
+  ],
+  [
+    "a stale timestamp (over 300 s old)",
+    (payload: string) =>
+      stripe.webhooks.generateTestHeaderString({
+        payload,
+        secret: env.STRIPE_WEBHOOK_SECRET,
+        timestamp: Math.floor(Date.now() / 1000) - 600,
+      }),
+    (p: string) => p,
+  ],
+  [
+    "a re-serialised body",
+    (payload: string) => stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET }),
+    (p: string) => JSON.stringify(JSON.parse(p), null, 2),
+  ],
 ])("%s answers 400 and changes nothing", async (_label, sign, alter) => {
   const { booking } = await heldBooking();
   const event = completedEvent(booking.id);
@@ -108,7 +146,10 @@ test("an expired event after the payment leaves the booking paid (states only mo
   const { booking } = await heldBooking();
   await deliver(JSON.stringify(completedEvent(booking.id)));
   eventSeq += 1;
-  const expired = { ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }), type: "checkout.session.expired" };
+  const expired = {
+    ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }),
+    type: "checkout.session.expired",
+  };
   expect((await deliver(JSON.stringify(expired))).status).toBe(200);
   const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(row).toMatchObject({ status: "confirmed", isPaid: true });
@@ -116,7 +157,10 @@ test("an expired event after the payment leaves the booking paid (states only mo
 
 test("an expired event for an unpaid hold frees the slot", async () => {
   const { booking, company } = await heldBooking();
-  const expired = { ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }), type: "checkout.session.expired" };
+  const expired = {
+    ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }),
+    type: "checkout.session.expired",
+  };
   await deliver(JSON.stringify(expired));
   const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(row!.status).toBe("expired");
@@ -127,11 +171,19 @@ test("two people racing for one slot: exactly one hold wins, the other is told t
   const { company } = await demoCompany();
   const slot = (await listCompanySlots(company))[0]!;
   const people = await Promise.all(Array.from({ length: 6 }, () => createTestLead(company)));
-  const rows = await Promise.all(people.map(async (p) => (await db.select().from(leads).where(eq(leads.id, p.id)))[0]!));
-  const results = await Promise.allSettled(rows.map((lead) => holdSlot({ company, lead, startsAt: slot.startsAt, customerTimeZone: null })));
+  const rows = await Promise.all(
+    people.map(async (p) => (await db.select().from(leads).where(eq(leads.id, p.id)))[0]!),
+  );
+  const results = await Promise.allSettled(
+    rows.map((lead) => holdSlot({ company, lead, startsAt: slot.startsAt, customerTimeZone: null })),
+  );
   expect(results.filter((r) => r.status === "fulfilled")).toHaveLength(1);
-  for (const r of results.filter((r) => r.status === "rejected")) expect((r as PromiseRejectedResult).reason).toBeInstanceOf(SlotUnavailableError);
-  const holders = await db.select().from(bookings).where(and(eq(bookings.companyId, company.id), eq(bookings.startsAt, slot.startsAt)));
+  for (const r of results.filter((r) => r.status === "rejected"))
+    expect((r as PromiseRejectedResult).reason).toBeInstanceOf(SlotUnavailableError);
+  const holders = await db
+    .select()
+    .from(bookings)
+    .where(and(eq(bookings.companyId, company.id), eq(bookings.startsAt, slot.startsAt)));
   expect(holders.filter((b) => b.status === "held" || b.status === "confirmed")).toHaveLength(1);
 });
 
@@ -145,13 +197,19 @@ test("a payment that lands after its hold lapsed and the slot went to someone el
   const [row] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
   expect(row).toMatchObject({ status: "cancelled", isPaid: true, cancelReason: "slot-taken", refundId: null });
   // The homeowner is told: the cancellation e-mail says the fee is refunded.
-  const [mail] = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `consult-cancelled/${booking.id}`));
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `consult-cancelled/${booking.id}`));
   expect(mail!.text).toMatch(/refunded/);
 });
 
 test("out of order: an expiry that arrives before the payment it raced still ends with a paid, confirmed booking when the slot is free", async () => {
   const { booking } = await heldBooking();
-  const expired = { ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }), type: "checkout.session.expired" };
+  const expired = {
+    ...completedEvent(booking.id, { status: "expired", payment_status: "unpaid" }),
+    type: "checkout.session.expired",
+  };
   const completed = completedEvent(booking.id);
   await deliver(JSON.stringify(expired));
   await deliver(JSON.stringify(completed));
@@ -193,7 +251,16 @@ test("a signed refund event naming another payment does not mark a paid consult 
     object: "event",
     type: "charge.refunded",
     created: Math.floor(Date.now() / 1000),
-    data: { object: { id: "ch_forged", object: "charge", payment_intent: "pi_someone_else", refunded: true, metadata: { booking_id: String(booking.id) }, refunds: { data: [{ id: "re_forged" }] } } },
+    data: {
+      object: {
+        id: "ch_forged",
+        object: "charge",
+        payment_intent: "pi_someone_else",
+        refunded: true,
+        metadata: { booking_id: String(booking.id) },
+        refunds: { data: [{ id: "re_forged" }] },
+      },
+    },
   };
   const warn = vi.spyOn(console, "warn").mockImplementation(() => {});
   try {

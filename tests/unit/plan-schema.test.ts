@@ -45,7 +45,9 @@ test("numbers sent as strings are refused, never coerced", () => {
   expect(errorsFor({ ...VALID, wallUnit: { ...VALID.wallUnit, faceIn: "12" } })).toEqual([
     { path: "wallUnit.faceIn", message: "Face length must be a number of inches." },
   ]);
-  expect(paths({ ...VALID, patio: { ...VALID.patio, paver: { lengthIn: "8", widthIn: 4 } } })).toEqual(["patio.paver.lengthIn"]);
+  expect(paths({ ...VALID, patio: { ...VALID.patio, paver: { lengthIn: "8", widthIn: 4 } } })).toEqual([
+    "patio.paver.lengthIn",
+  ]);
 });
 
 test("huge and non-finite numbers are refused", () => {
@@ -60,7 +62,9 @@ test("huge and non-finite numbers are refused", () => {
 });
 
 test("whole-number fields refuse fractions: courses 1–12, units per course 3–200", () => {
-  expect(errorsFor({ ...VALID, courses: 2.5 })).toEqual([{ path: "courses", message: "Courses must be a whole number from 1 to 12." }]);
+  expect(errorsFor({ ...VALID, courses: 2.5 })).toEqual([
+    { path: "courses", message: "Courses must be a whole number from 1 to 12." },
+  ]);
   expect(errorsFor({ ...VALID, ring: { unitCount: 201 } })).toEqual([
     { path: "ring.unitCount", message: "Units per course must be a whole number from 3 to 200." },
   ]);
@@ -68,7 +72,10 @@ test("whole-number fields refuse fractions: courses 1–12, units per course 3�
 
 test("a back longer than the face is refused on wallUnit.backIn", () => {
   expect(errorsFor({ ...VALID, wallUnit: { ...VALID.wallUnit, backIn: 13 } })).toEqual([
-    { path: "wallUnit.backIn", message: "Back length must not be longer than the face length: the narrow end faces the fire." },
+    {
+      path: "wallUnit.backIn",
+      message: "Back length must not be longer than the face length: the narrow end faces the fire.",
+    },
   ]);
 });
 
@@ -112,7 +119,9 @@ test("catalog ids need a company; with one they are accepted", () => {
 test("a catalog reference takes no inline sizes and a positive whole id", () => {
   expect(paths({ ...VALID, company: "acme", wallUnit: { id: 3, faceIn: 12 } })).toEqual(["wallUnit.faceIn"]);
   expect(paths({ ...VALID, company: "acme", wallUnit: { id: -3 } })).toEqual(["wallUnit.id"]);
-  expect(paths({ ...VALID, company: "acme", patio: { ...VALID.patio, border: { id: 1.5 } } })).toEqual(["patio.border.id"]);
+  expect(paths({ ...VALID, company: "acme", patio: { ...VALID.patio, border: { id: 1.5 } } })).toEqual([
+    "patio.border.id",
+  ]);
 });
 
 test("the company is a lowercase kebab-case slug", () => {
@@ -128,17 +137,23 @@ test("an unknown liner kind is refused on liner.kind", () => {
 
 test("random hostile bodies never crash the schema: each is accepted or refused with named fields (property)", () => {
   fc.assert(
-    fc.property(fc.oneof(fc.jsonValue(), fc.record({ ring: fc.jsonValue(), wallUnit: fc.jsonValue(), courses: fc.jsonValue(), cap: fc.jsonValue() })), (body) => {
-      const result = planRequestSchema.safeParse(body);
-      if (!result.success) {
-        const errors = formatPlanErrors(result.error);
-        expect(errors.length).toBeGreaterThan(0);
-        for (const e of errors) {
-          expect(typeof e.path).toBe("string");
-          expect(e.message.length).toBeGreaterThan(0);
+    fc.property(
+      fc.oneof(
+        fc.jsonValue(),
+        fc.record({ ring: fc.jsonValue(), wallUnit: fc.jsonValue(), courses: fc.jsonValue(), cap: fc.jsonValue() }),
+      ),
+      (body) => {
+        const result = planRequestSchema.safeParse(body);
+        if (!result.success) {
+          const errors = formatPlanErrors(result.error);
+          expect(errors.length).toBeGreaterThan(0);
+          for (const e of errors) {
+            expect(typeof e.path).toBe("string");
+            expect(e.message.length).toBeGreaterThan(0);
+          }
         }
-      }
-    }),
+      },
+    ),
   );
 });
 
@@ -151,12 +166,22 @@ test("every inline request the schema accepts is planned or refused with a PlanG
       fc.record({ bowlDiameterIn: inchesIn(12, 120), fit: fc.constantFrom("at-least", "nearest", "exact") }),
     ),
     wallUnit: fc
-      .record({ faceIn: inchesIn(2, 36), share: fc.double({ min: 0.06, max: 1, noNaN: true }), depthIn: inchesIn(2, 24), heightIn: inchesIn(1, 12) })
+      .record({
+        faceIn: inchesIn(2, 36),
+        share: fc.double({ min: 0.06, max: 1, noNaN: true }),
+        depthIn: inchesIn(2, 24),
+        heightIn: inchesIn(1, 12),
+      })
       .map(({ share, ...u }) => ({ ...u, backIn: Math.max(2, u.faceIn * share) }))
       .filter((u) => u.backIn <= u.faceIn),
     courses: fc.integer({ min: 1, max: 12 }),
     cap: fc.option(
-      fc.record({ lengthIn: inchesIn(4, 48), depthIn: inchesIn(4, 36), thicknessIn: inchesIn(0.5, 8), innerOverhangIn: inchesIn(0, 6) }),
+      fc.record({
+        lengthIn: inchesIn(4, 48),
+        depthIn: inchesIn(4, 36),
+        thicknessIn: inchesIn(0.5, 8),
+        innerOverhangIn: inchesIn(0, 6),
+      }),
       { nil: null },
     ),
     jointIn: inchesIn(0, 0.75),

@@ -14,7 +14,14 @@ import Fraction from "fraction.js";
 import Stripe from "stripe";
 import { afterAll, beforeAll, expect, test } from "vitest";
 import { emailOutbox, leadEvents, leads, paymentEvents, proposals, siteVisits, type Proposal } from "~/db/schema";
-import { basePriceCents, changeOrderDeltaCents, chooseAddOns, depositCents, jobTotals, proposalTotalCents } from "~/domain/proposal-money";
+import {
+  basePriceCents,
+  changeOrderDeltaCents,
+  chooseAddOns,
+  depositCents,
+  jobTotals,
+  proposalTotalCents,
+} from "~/domain/proposal-money";
 import { jobTotalsFor, sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { db } from "~/lib/platform/db.server";
@@ -36,7 +43,12 @@ import { officeUser, sentProposal } from "./support/proposals";
 
 let fake: PaymentsFake;
 beforeAll(async () => {
-  fake = await startPaymentsFake({ port: 0, webhookUrl: null, stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-dep-")), "state.json"), log: () => {} });
+  fake = await startPaymentsFake({
+    port: 0,
+    webhookUrl: null,
+    stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-dep-")), "state.json"),
+    log: () => {},
+  });
 });
 afterAll(() => fake.close());
 
@@ -46,7 +58,8 @@ const stageOf = async (leadId: number) => (await db.select().from(leads).where(e
 const SIGNER = { name: "Ingrid Sola-Martens", ip: "203.0.113.7", userAgent: "Mozilla/5.0 (test)" };
 
 // Exact decimal reference: x % of a total, rounded half up to the cent.
-const percentOf = (totalCents: number, basisPoints: number) => new Fraction(totalCents).mul(basisPoints).div(10_000).round(0).valueOf();
+const percentOf = (totalCents: number, basisPoints: number) =>
+  new Fraction(totalCents).mul(basisPoints).div(10_000).round(0).valueOf();
 
 test("add-ons add to the base price in cents; an add-on that is not offered is refused", () => {
   const offered = [
@@ -80,8 +93,16 @@ test("a percentage deposit is the exact fraction rounded half up to the cent (fr
 
 test("change orders: the job is always the signed total plus the signed differences; a credit lowers the balance", () => {
   expect(changeOrderDeltaCents(520_000, 567_500)).toBe(47_500);
-  expect(jobTotals({ totalCents: 623_550, depositCents: 187_065 }, [])).toEqual({ contractCents: 623_550, depositCents: 187_065, balanceCents: 436_485 });
-  expect(jobTotals({ totalCents: 623_550, depositCents: 187_065 }, [47_500, -12_050])).toEqual({ contractCents: 659_000, depositCents: 187_065, balanceCents: 471_935 });
+  expect(jobTotals({ totalCents: 623_550, depositCents: 187_065 }, [])).toEqual({
+    contractCents: 623_550,
+    depositCents: 187_065,
+    balanceCents: 436_485,
+  });
+  expect(jobTotals({ totalCents: 623_550, depositCents: 187_065 }, [47_500, -12_050])).toEqual({
+    contractCents: 659_000,
+    depositCents: 187_065,
+    balanceCents: 471_935,
+  });
   expect(jobTotals({ totalCents: 100_000, depositCents: 30_000 }, [-80_000]).balanceCents).toBe(-10_000);
 });
 
@@ -93,10 +114,16 @@ test("sending a proposal freezes its document, moves the job to â€œproposal outâ
   expect(document.scope.some((l) => l.startsWith("Build 3 courses of"))).toBe(true);
   expect(document.cautions.join(" ")).toContain("obtains any permit the town requires");
   expect(proposal.priceCents).toBe(485_000);
-  const [mail] = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `proposal-sent/${proposal.token}`));
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `proposal-sent/${proposal.token}`));
   expect(mail!.toAddress).toBe(lead.email);
   expect(mail!.text).toContain(`/p/${proposal.token}`);
-  const events = await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "proposal-sent")));
+  const events = await db
+    .select()
+    .from(leadEvents)
+    .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "proposal-sent")));
   expect(events[0]!.detail).toMatch(/^Proposal \d+-1 sent: \$4,850\.00 with 2 optional add-ons/);
 });
 
@@ -106,18 +133,31 @@ test("the signature record: who, when, address, browser, the add-ons, and the SH
   const result = await acceptProposal({ proposal, lead, document, input: { ...SIGNER, chosenKeys: ["a1"] } });
   expect(result.ok).toBe(true);
   const row = await reload(proposal.id);
-  expect(row).toMatchObject({ status: "accepted", signerName: SIGNER.name, signerIp: SIGNER.ip, signerUserAgent: SIGNER.userAgent, chosenAddOnsJson: '["a1"]', totalCents: 549_000, depositCents: percentOf(549_000, 3000) });
+  expect(row).toMatchObject({
+    status: "accepted",
+    signerName: SIGNER.name,
+    signerIp: SIGNER.ip,
+    signerUserAgent: SIGNER.userAgent,
+    chosenAddOnsJson: '["a1"]',
+    totalCents: 549_000,
+    depositCents: percentOf(549_000, 3000),
+  });
   expect(row.signedAt).not.toBeNull();
   expect(row.acceptedPdfSha256).toBe(sha256(row.acceptedPdf!));
   // The same document and choices render the same bytes: the hash can be checked again later.
   const again = await renderProposalPdf(document, { chosenKeys: ["a1"], createdAt: proposal.sentAt });
   expect(sha256(again)).toBe(row.acceptedPdfSha256);
   // Other choices give another document, so another hash.
-  expect(sha256(await renderProposalPdf(document, { chosenKeys: [], createdAt: proposal.sentAt }))).not.toBe(row.acceptedPdfSha256);
+  expect(sha256(await renderProposalPdf(document, { chosenKeys: [], createdAt: proposal.sentAt }))).not.toBe(
+    row.acceptedPdfSha256,
+  );
   expect(row.signedPdf!.subarray(0, 5).toString()).toBe("%PDF-");
   expect(sha256(row.signedPdf!)).not.toBe(row.acceptedPdfSha256);
   // Both sides get the signed PDF, with the hash in the message.
-  const mails = await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `proposal-signed%/${proposal.id}`));
+  const mails = await db
+    .select()
+    .from(emailOutbox)
+    .where(like(emailOutbox.idempotencyKey, `proposal-signed%/${proposal.id}`));
   expect(mails).toHaveLength(2);
   for (const mail of mails) {
     expect(mail.text).toContain(row.acceptedPdfSha256!);
@@ -126,7 +166,12 @@ test("the signature record: who, when, address, browser, the add-ons, and the SH
     expect(sha256(Buffer.from(attachment!.content, "base64"))).toBe(sha256(row.signedPdf!));
   }
   // A signed proposal never changes: a second signature is refused and the record stays as it was.
-  const twice = await acceptProposal({ proposal: row, lead, document, input: { ...SIGNER, name: "Someone Else", chosenKeys: [] } });
+  const twice = await acceptProposal({
+    proposal: row,
+    lead,
+    document,
+    input: { ...SIGNER, name: "Someone Else", chosenKeys: [] },
+  });
   expect(twice).toMatchObject({ ok: false, status: 409 });
   expect((await reload(proposal.id)).signerName).toBe(SIGNER.name);
   expect(await stageOf(lead.id)).toBe("proposal-out");
@@ -135,7 +180,12 @@ test("the signature record: who, when, address, browser, the add-ons, and the SH
 test("the sign form answers 400 naming the field without consent or a full name, and records nothing", async () => {
   const { proposal } = await sentProposal();
   const post = (fields: Record<string, string>) =>
-    proposalAction(routeArgs(requestWithCookie(`/p/${proposal.token}`, undefined, { method: "POST", body: new URLSearchParams(fields) }), { token: proposal.token })) as Promise<{ data: { errors: Record<string, string> }; init: { status: number } }>;
+    proposalAction(
+      routeArgs(
+        requestWithCookie(`/p/${proposal.token}`, undefined, { method: "POST", body: new URLSearchParams(fields) }),
+        { token: proposal.token },
+      ),
+    ) as Promise<{ data: { errors: Record<string, string> }; init: { status: number } }>;
   const noConsent = await post({ intent: "sign", signerName: "Ingrid Sola-Martens", addOn: "a1" });
   expect(noConsent.init.status).toBe(400);
   expect(noConsent.data.errors).toEqual({ consent: "Tick the box to agree to sign electronically." });
@@ -149,19 +199,27 @@ test("the homeowner opening the link is counted; the office previewing it is not
   const opened = (cookie?: string, token = proposal.token) =>
     openedAction(routeArgs(requestWithCookie(`/p/${token}/opened`, cookie, { method: "POST" }), { token }));
   // Reading the page writes nothing; the page posts the open once shown, and says whether it counts.
-  const homeowner = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }))) as { countsAsOpen: boolean };
+  const homeowner = (await proposalLoader(
+    routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }),
+  )) as { countsAsOpen: boolean };
   expect(homeowner.countsAsOpen).toBe(true);
   expect((await reload(proposal.id)).openCount).toBe(0);
   expect((await opened()).status).toBe(204);
   const staff = await loginAs(lead.companyId, "estimator");
-  const preview = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`, staff), { token: proposal.token }))) as { isStaffPreview: boolean; countsAsOpen: boolean };
+  const preview = (await proposalLoader(
+    routeArgs(requestWithCookie(`/p/${proposal.token}`, staff), { token: proposal.token }),
+  )) as { isStaffPreview: boolean; countsAsOpen: boolean };
   expect(preview.isStaffPreview).toBe(true);
   expect(preview.countsAsOpen).toBe(false);
   expect((await opened(staff)).status).toBe(204);
   const row = await reload(proposal.id);
   expect(row.openCount).toBe(1);
   expect(row.firstOpenedAt).not.toBeNull();
-  await expect(proposalLoader(routeArgs(requestWithCookie("/p/not-a-real-token-000000000"), { token: "not-a-real-token-000000000" }))).rejects.toMatchObject({ status: 404 });
+  await expect(
+    proposalLoader(
+      routeArgs(requestWithCookie("/p/not-a-real-token-000000000"), { token: "not-a-real-token-000000000" }),
+    ),
+  ).rejects.toMatchObject({ status: 404 });
   expect((await opened(undefined, "not-a-real-token-000000000")).status).toBe(404);
   // A withdrawn link is not counted either.
   await db.update(proposals).set({ status: "withdrawn" }).where(eq(proposals.id, proposal.id));
@@ -175,11 +233,19 @@ let seq = 0;
 async function accepted(chosenKeys: string[] = []) {
   const sent = await sentProposal();
   const document = parseProposalDocument(sent.proposal.documentJson);
-  const result = await acceptProposal({ proposal: sent.proposal, lead: sent.lead, document, input: { ...SIGNER, chosenKeys } });
+  const result = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document,
+    input: { ...SIGNER, chosenKeys },
+  });
   if (!result.ok) throw new Error(result.message);
   seq += 1;
   const sessionId = `cs_deposit_${sent.proposal.id}_${seq}`;
-  await db.update(proposals).set({ checkoutSessionId: sessionId, checkoutAttempt: 1 }).where(eq(proposals.id, sent.proposal.id));
+  await db
+    .update(proposals)
+    .set({ checkoutSessionId: sessionId, checkoutAttempt: 1 })
+    .where(eq(proposals.id, sent.proposal.id));
   return { ...sent, proposal: await reload(sent.proposal.id), sessionId };
 }
 
@@ -190,17 +256,39 @@ function depositEvent(proposal: Proposal, type: string, object: Record<string, u
     object: "event",
     type,
     created: Math.floor(Date.now() / 1000),
-    data: { object: { metadata: { kind: "deposit", proposal_id: String(proposal.id), lead_id: String(proposal.leadId) }, ...object } },
+    data: {
+      object: {
+        metadata: { kind: "deposit", proposal_id: String(proposal.id), lead_id: String(proposal.leadId) },
+        ...object,
+      },
+    },
   };
 }
 
 const completed = (proposal: Proposal, overrides: Record<string, unknown> = {}) =>
-  depositEvent(proposal, "checkout.session.completed", { id: proposal.checkoutSessionId, object: "checkout.session", payment_status: "paid", status: "complete", amount_total: proposal.depositCents, currency: "usd", payment_intent: `pi_dep_${proposal.id}`, ...overrides });
+  depositEvent(proposal, "checkout.session.completed", {
+    id: proposal.checkoutSessionId,
+    object: "checkout.session",
+    payment_status: "paid",
+    status: "complete",
+    amount_total: proposal.depositCents,
+    currency: "usd",
+    payment_intent: `pi_dep_${proposal.id}`,
+    ...overrides,
+  });
 
 async function deliver(event: unknown) {
   const payload = JSON.stringify(event);
   const signature = stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
-  const response = (await webhookAction(routeArgs(new Request("http://localhost/api/webhooks/stripe", { method: "POST", body: payload, headers: { "Stripe-Signature": signature } })))) as Response;
+  const response = (await webhookAction(
+    routeArgs(
+      new Request("http://localhost/api/webhooks/stripe", {
+        method: "POST",
+        body: payload,
+        headers: { "Stripe-Signature": signature },
+      }),
+    ),
+  )) as Response;
   return { status: response.status, outcome: ((await response.json()) as { outcome: string }).outcome };
 }
 
@@ -211,9 +299,19 @@ test("the deposit's signed webhook signs the job once: proposal signed, job at â
   const row = await reload(proposal.id);
   expect(row).toMatchObject({ status: "signed", paymentIntentId: `pi_dep_${proposal.id}` });
   expect(await stageOf(lead.id)).toBe("signed");
-  expect(await db.select().from(emailOutbox).where(like(emailOutbox.idempotencyKey, `deposit-paid%/${proposal.id}`))).toHaveLength(2);
+  expect(
+    await db
+      .select()
+      .from(emailOutbox)
+      .where(like(emailOutbox.idempotencyKey, `deposit-paid%/${proposal.id}`)),
+  ).toHaveLength(2);
   expect(await deliver(event)).toEqual({ status: 200, outcome: "duplicate" });
-  expect(await db.select().from(leadEvents).where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "deposit-paid")))).toHaveLength(1);
+  expect(
+    await db
+      .select()
+      .from(leadEvents)
+      .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "deposit-paid"))),
+  ).toHaveLength(1);
   expect((await db.select().from(paymentEvents).where(eq(paymentEvents.id, event.id))).length).toBe(1);
 });
 
@@ -230,10 +328,21 @@ test.each([
 
 test("an expired checkout leaves the acceptance standing (states only move forward); a deposit paid after the proposal expired is refunded once", async () => {
   const { proposal, lead } = await accepted();
-  expect(await deliver(depositEvent(proposal, "checkout.session.expired", { id: proposal.checkoutSessionId, object: "checkout.session", status: "expired" }))).toEqual({ status: 200, outcome: "applied" });
+  expect(
+    await deliver(
+      depositEvent(proposal, "checkout.session.expired", {
+        id: proposal.checkoutSessionId,
+        object: "checkout.session",
+        status: "expired",
+      }),
+    ),
+  ).toEqual({ status: 200, outcome: "applied" });
   expect((await reload(proposal.id)).status).toBe("accepted");
 
-  await db.update(proposals).set({ expiresAt: new Date(Date.now() - 1000).toISOString() }).where(eq(proposals.id, proposal.id));
+  await db
+    .update(proposals)
+    .set({ expiresAt: new Date(Date.now() - 1000).toISOString() })
+    .where(eq(proposals.id, proposal.id));
   expect(await expireProposals(new Date(), createStripe(fake.url))).toBeGreaterThanOrEqual(1);
   expect((await reload(proposal.id)).status).toBe("expired");
   expect(await stageOf(lead.id)).not.toBe("proposal-out");
@@ -249,36 +358,91 @@ test("deposit checkout through the payment service: our own key, an open session
   const client = createStripe(fake.url);
   const sent = await sentProposal();
   const document = parseProposalDocument(sent.proposal.documentJson);
-  const result = await acceptProposal({ proposal: sent.proposal, lead: sent.lead, document, input: { ...SIGNER, chosenKeys: [] } });
+  const result = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document,
+    input: { ...SIGNER, chosenKeys: [] },
+  });
   if (!result.ok) throw new Error(result.message);
-  const first = await startDepositCheckout({ proposal: result.proposal, lead: sent.lead, company: sent.company, origin: "http://localhost", client });
-  const second = await startDepositCheckout({ proposal: await reload(sent.proposal.id), lead: sent.lead, company: sent.company, origin: "http://localhost", client });
+  const first = await startDepositCheckout({
+    proposal: result.proposal,
+    lead: sent.lead,
+    company: sent.company,
+    origin: "http://localhost",
+    client,
+  });
+  const second = await startDepositCheckout({
+    proposal: await reload(sent.proposal.id),
+    lead: sent.lead,
+    company: sent.company,
+    origin: "http://localhost",
+    client,
+  });
   expect(second).toBe(first);
   const stored = await reload(sent.proposal.id);
-  const session = (await (await fetch(`${fake.url}/v1/checkout/sessions/${stored.checkoutSessionId}`, { headers: { Authorization: "Bearer sk_test_x" } })).json()) as { amount_total: number; currency: string; metadata: Record<string, string> };
-  expect(session).toMatchObject({ amount_total: stored.depositCents, currency: "usd", metadata: { kind: "deposit", proposal_id: String(stored.id) } });
+  const session = (await (
+    await fetch(`${fake.url}/v1/checkout/sessions/${stored.checkoutSessionId}`, {
+      headers: { Authorization: "Bearer sk_test_x" },
+    })
+  ).json()) as { amount_total: number; currency: string; metadata: Record<string, string> };
+  expect(session).toMatchObject({
+    amount_total: stored.depositCents,
+    currency: "usd",
+    metadata: { kind: "deposit", proposal_id: String(stored.id) },
+  });
   const requests = JSON.stringify(await (await fetch(`${fake.url}/_fake/requests`)).json());
   expect(requests).toContain(`deposit-checkout:${stored.id}:1`);
 
   // Paid on the hosted page, then refunded by the owner's request: the worker sends it once.
-  const paid = await fetch(`${fake.url}/_fake/sessions/${stored.checkoutSessionId}/pay`, { method: "POST", body: JSON.stringify({ card: "4242424242424242" }), headers: { "Content-Type": "application/json" } });
+  const paid = await fetch(`${fake.url}/_fake/sessions/${stored.checkoutSessionId}/pay`, {
+    method: "POST",
+    body: JSON.stringify({ card: "4242424242424242" }),
+    headers: { "Content-Type": "application/json" },
+  });
   expect(paid.status).toBe(200);
-  const paidSession = (await (await fetch(`${fake.url}/v1/checkout/sessions/${stored.checkoutSessionId}`, { headers: { Authorization: "Bearer sk_test_x" } })).json()) as { payment_intent: string };
-  await db.update(proposals).set({ status: "signed", paymentIntentId: paidSession.payment_intent, refundOwedAt: new Date().toISOString(), refundReason: "Moved house." }).where(eq(proposals.id, stored.id));
+  const paidSession = (await (
+    await fetch(`${fake.url}/v1/checkout/sessions/${stored.checkoutSessionId}`, {
+      headers: { Authorization: "Bearer sk_test_x" },
+    })
+  ).json()) as { payment_intent: string };
+  await db
+    .update(proposals)
+    .set({
+      status: "signed",
+      paymentIntentId: paidSession.payment_intent,
+      refundOwedAt: new Date().toISOString(),
+      refundReason: "Moved house.",
+    })
+    .where(eq(proposals.id, stored.id));
   expect(await processDepositRefunds(client)).toBeGreaterThanOrEqual(1);
   expect(await processDepositRefunds(client)).toBe(0);
   expect((await reload(stored.id)).refundId).toMatch(/^re_/);
-  expect(JSON.stringify(await (await fetch(`${fake.url}/_fake/requests`)).json())).toContain(`refund:deposit:${stored.id}`);
+  expect(JSON.stringify(await (await fetch(`${fake.url}/_fake/requests`)).json())).toContain(
+    `refund:deposit:${stored.id}`,
+  );
 });
 
 test("withdrawing a proposal closes its link and puts the job back to the step still true (a recorded visit: yard measured)", async () => {
   const { proposal, lead, user } = await sentProposal();
-  await db.insert(siteVisits).values({ companyId: lead.companyId, leadId: lead.id, structureFt: 30, propertyLineFt: 30, slope: "level", soil: "loam", accessWidthIn: 48, utilityMarks: "marked-clear", spoil: "haul-away" });
+  await db.insert(siteVisits).values({
+    companyId: lead.companyId,
+    leadId: lead.id,
+    structureFt: 30,
+    propertyLineFt: 30,
+    slope: "level",
+    soil: "loam",
+    accessWidthIn: 48,
+    utilityMarks: "marked-clear",
+    spoil: "haul-away",
+  });
   expect(await withdrawProposal(user, lead, proposal.id, "Price to be revised after the second visit.")).toBeNull();
   expect((await reload(proposal.id)).status).toBe("withdrawn");
   expect(await stageOf(lead.id)).toBe("measured");
   expect(await withdrawProposal(user, lead, proposal.id, "Again.")).toMatch(/already withdrawn/);
-  const view = (await proposalLoader(routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }))) as { state: string };
+  const view = (await proposalLoader(
+    routeArgs(requestWithCookie(`/p/${proposal.token}`), { token: proposal.token }),
+  )) as { state: string };
   expect(view.state).toBe("withdrawn");
 });
 
@@ -287,21 +451,41 @@ test("a change order after signing: its own document with the difference, signed
   await deliver(completed(proposal));
   const signed = await reload(proposal.id);
   const before = await jobTotalsFor(signed);
-  expect(before).toEqual({ contractCents: 549_000, depositCents: signed.depositCents, balanceCents: 549_000 - signed.depositCents! });
+  expect(before).toEqual({
+    contractCents: 549_000,
+    depositCents: signed.depositCents,
+    balanceCents: 549_000 - signed.depositCents!,
+  });
 
   const user = await officeUser(lead.companyId);
   const fresh = (await db.select().from(leads).where(eq(leads.id, lead.id)))[0]!;
-  const change = await sendChangeOrder({ user, lead: fresh, company: await getCompany(company.id), deltaCents: 47_500, validUntil: "2099-06-30", origin: "http://localhost" });
+  const change = await sendChangeOrder({
+    user,
+    lead: fresh,
+    company: await getCompany(company.id),
+    deltaCents: 47_500,
+    validUntil: "2099-06-30",
+    origin: "http://localhost",
+  });
   if (typeof change === "string") throw new Error(change);
   const document = parseProposalDocument(change.documentJson);
   expect(document.kind).toBe("change-order");
   expect(document.change).toMatchObject({ previousContractCents: 549_000, deltaCents: 47_500 });
-  const result = await acceptProposal({ proposal: change, lead: fresh, document, input: { ...SIGNER, chosenKeys: [] } });
+  const result = await acceptProposal({
+    proposal: change,
+    lead: fresh,
+    document,
+    input: { ...SIGNER, chosenKeys: [] },
+  });
   expect(result.ok).toBe(true);
   const signedChange = await reload(change.id);
   expect(signedChange).toMatchObject({ status: "signed", totalCents: 596_500, depositCents: 0 });
   expect(signedChange.acceptedPdfSha256).toBe(sha256(signedChange.acceptedPdf!));
-  expect(await jobTotalsFor(signed)).toEqual({ contractCents: 596_500, depositCents: signed.depositCents, balanceCents: 596_500 - signed.depositCents! });
+  expect(await jobTotalsFor(signed)).toEqual({
+    contractCents: 596_500,
+    depositCents: signed.depositCents,
+    balanceCents: 596_500 - signed.depositCents!,
+  });
   expect(await stageOf(lead.id)).toBe("signed");
 });
 

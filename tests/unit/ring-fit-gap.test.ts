@@ -20,7 +20,13 @@ import { db } from "~/lib/platform/db.server";
 import { loader as configuratorLoader } from "~/routes/configurator";
 import { demoCompany, routeArgs } from "./support/demo";
 
-type Loaded = { design: { fitToRing: boolean; unitCount: number }; plan: { ring: { unitsPerCourse: number; bowlDiameterIn: number }; liner: { kind: string; gapIn: number; fits: boolean } } };
+type Loaded = {
+  design: { fitToRing: boolean; unitCount: number };
+  plan: {
+    ring: { unitsPerCourse: number; bowlDiameterIn: number };
+    liner: { kind: string; gapIn: number; fits: boolean };
+  };
+};
 
 let companyId = 0;
 let ringId = 0;
@@ -32,9 +38,17 @@ beforeAll(async () => {
 });
 
 async function sizedToRing(gapIn: number | null): Promise<Loaded> {
-  await db.update(companies).set({ factorsJson: gapIn === null ? "{}" : JSON.stringify({ linerMinGapIn: gapIn }) }).where(eq(companies.id, companyId));
+  await db
+    .update(companies)
+    .set({ factorsJson: gapIn === null ? "{}" : JSON.stringify({ linerMinGapIn: gapIn }) })
+    .where(eq(companies.id, companyId));
   const { byName } = await demoCompany();
-  const query = new URLSearchParams({ stone: String(byName("Hearthline Taper").id), liner: "steel-ring", ring: String(ringId), fit: "ring" });
+  const query = new URLSearchParams({
+    stone: String(byName("Hearthline Taper").id),
+    liner: "steel-ring",
+    ring: String(ringId),
+    fit: "ring",
+  });
   const request = new Request(`http://localhost/c/cinder-slate?${query}`);
   return (await configuratorLoader(routeArgs(request, { companySlug: "cinder-slate" }))) as unknown as Loaded;
 }

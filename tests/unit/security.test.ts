@@ -21,7 +21,9 @@ test("the payment webhook is exempt: its signature is the proof", () => {
 });
 
 test("reads are never refused", () => {
-  expect(isCrossOriginWrite(new Request("http://localhost:3000/", { headers: { Origin: "http://evil.test" } }))).toBe(false);
+  expect(isCrossOriginWrite(new Request("http://localhost:3000/", { headers: { Origin: "http://evil.test" } }))).toBe(
+    false,
+  );
 });
 
 test("the production policy allows scripts only with the request's nonce and forbids framing", () => {

@@ -41,7 +41,10 @@ const get = (url: string) => requestWithCookie(url, owner);
 
 /** Everything a request's pages, cut sheet and PDF show, for every saved version of its design. */
 async function showAll(lead: Lead) {
-  const revisions = await db.select({ id: leadRevisions.id }).from(leadRevisions).where(eq(leadRevisions.leadId, lead.id));
+  const revisions = await db
+    .select({ id: leadRevisions.id })
+    .from(leadRevisions)
+    .where(eq(leadRevisions.leadId, lead.id));
   const params = { leadId: String(lead.id) };
   const pages = [];
   for (const version of ["original", ...revisions.map((r) => String(r.id))]) {
@@ -49,7 +52,9 @@ async function showAll(lead: Lead) {
   }
   const sheet = await cutSheetLoader(routeArgs(get(`/app/leads/${lead.id}/cut-sheet`), params));
   const pdf = (await pdfLoader(routeArgs(get(`/app/leads/${lead.id}/cut-sheet.pdf`), params))) as Response;
-  const pdfSha256 = createHash("sha256").update(Buffer.from(await pdf.arrayBuffer())).digest("hex");
+  const pdfSha256 = createHash("sha256")
+    .update(Buffer.from(await pdf.arrayBuffer()))
+    .digest("hex");
   return { pages, sheet, pdfSha256 };
 }
 
@@ -65,12 +70,19 @@ test("requests saved before plans kept their inputs get them once from the migra
   const { design } = readStoredPlan(template);
   const oldDesign = JSON.stringify({ choices: design.choices, summary: design.summary });
   const { id: _id, ref: _ref, ...row } = template;
-  const [kept] = await db.insert(leads).values({ ...row, ref: "before-inputs-1", designJson: oldDesign }).returning();
+  const [kept] = await db
+    .insert(leads)
+    .values({ ...row, ref: "before-inputs-1", designJson: oldDesign })
+    .returning();
   // A second one whose wall unit and border are no longer in the catalog at all.
   const goneChoices = { ...design.choices, stoneId: 987_654, borderId: 987_655 };
   const [gone] = await db
     .insert(leads)
-    .values({ ...row, ref: "before-inputs-2", designJson: JSON.stringify({ choices: goneChoices, summary: design.summary }) })
+    .values({
+      ...row,
+      ref: "before-inputs-2",
+      designJson: JSON.stringify({ choices: goneChoices, summary: design.summary }),
+    })
     .returning();
 
   await runInputsMigration();
@@ -86,7 +98,10 @@ test("requests saved before plans kept their inputs get them once from the migra
   expect(one.design.inputs.engine.patio).toEqual(design.inputs.engine.patio);
   expect(one.design.inputs.supplyPrices).toEqual(design.inputs.supplyPrices);
   // Re-planned from its migrated inputs, the request comes out as it was computed.
-  const again = computePlan(toPlanInput(one.design.inputs.engine), { factors: one.design.inputs.factors, supplyPrices: one.design.inputs.supplyPrices });
+  const again = computePlan(toPlanInput(one.design.inputs.engine), {
+    factors: one.design.inputs.factors,
+    supplyPrices: one.design.inputs.supplyPrices,
+  });
   expect(JSON.parse(JSON.stringify(again))).toEqual(one.plan);
 
   // With the items gone, the sizes are worked back from the plan's own numbers (regular-polygon chord).
@@ -115,7 +130,10 @@ test("editing and deleting catalog items changes no older request, its cut sheet
   const choices: Design = { ...design.choices, courses: design.choices.courses === 3 ? 4 : 3 };
   const saved = (await designAction(
     routeArgs(
-      requestWithCookie(`/app/leads/${revised.id}/design`, estimator, { method: "POST", body: new URLSearchParams({ design: designToSearchParams(choices).toString() }) }),
+      requestWithCookie(`/app/leads/${revised.id}/design`, estimator, {
+        method: "POST",
+        body: new URLSearchParams({ design: designToSearchParams(choices).toString() }),
+      }),
       { leadId: String(revised.id) },
     ),
   )) as Response;
@@ -141,10 +159,12 @@ test("editing and deleting catalog items changes no older request, its cut sheet
       diameterIn: sql`${catalogItems.diameterIn} + 3`,
     })
     .where(eq(catalogItems.companyId, companyId));
-  const used = new Set(demoLeads.flatMap((l) => {
-    const c = readStoredPlan(l).design.choices;
-    return [c.stoneId, c.capId, c.ringId, c.borderId];
-  }));
+  const used = new Set(
+    demoLeads.flatMap((l) => {
+      const c = readStoredPlan(l).design.choices;
+      return [c.stoneId, c.capId, c.ringId, c.borderId];
+    }),
+  );
   for (const id of used) if (id !== null) await db.delete(catalogItems).where(eq(catalogItems.id, id));
   await db.delete(catalogItems).where(eq(catalogItems.kind, "firebrick"));
   // The company's rates change too; a saved price stays what it was.
@@ -161,17 +181,24 @@ test("a saved plan's inputs are the whole story: the engine given them again mak
   for (const lead of demoLeads) {
     const { design, plan } = readStoredPlan(lead);
     expect(design.version).toBe(STORED_PLAN_VERSION);
-    const again = computePlan(toPlanInput(design.inputs.engine), { factors: design.inputs.factors, supplyPrices: design.inputs.supplyPrices });
+    const again = computePlan(toPlanInput(design.inputs.engine), {
+      factors: design.inputs.factors,
+      supplyPrices: design.inputs.supplyPrices,
+    });
     expect(JSON.parse(JSON.stringify(again))).toEqual(plan);
   }
 });
 
 test("a stored plan that does not read is refused by name, not drawn from guesses", () => {
   const lead = demoLeads[0]!;
-  expect(() => readStoredPlan({ designJson: JSON.stringify({ choices: {}, summary: [] }), planJson: lead.planJson })).toThrow(/design_json.*version/);
+  expect(() =>
+    readStoredPlan({ designJson: JSON.stringify({ choices: {}, summary: [] }), planJson: lead.planJson }),
+  ).toThrow(/design_json.*version/);
   const plan = JSON.parse(lead.planJson);
   delete plan.ring.edgeDistanceIn;
-  expect(() => readStoredPlan({ designJson: lead.designJson, planJson: JSON.stringify(plan) })).toThrow(/plan_json.*ring\.edgeDistanceIn/);
+  expect(() => readStoredPlan({ designJson: lead.designJson, planJson: JSON.stringify(plan) })).toThrow(
+    /plan_json.*ring\.edgeDistanceIn/,
+  );
 });
 
 test("fields a newer engine adds to a plan are kept on a round trip", () => {

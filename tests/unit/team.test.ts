@@ -32,16 +32,24 @@ type Answer = { status: number; location: string | null; errors: Record<string, 
 
 async function post(fields: Record<string, string>, cookie = ownerCookie): Promise<Answer> {
   const request = requestWithCookie("/app/team", cookie, { method: "POST", body: new URLSearchParams(fields) });
-  const result = (await teamAction(routeArgs(request))) as Response | { data: { errors: Record<string, string> }; init: { status: number } };
-  if (result instanceof Response) return { status: result.status, location: result.headers.get("Location"), errors: {} };
+  const result = (await teamAction(routeArgs(request))) as
+    Response | { data: { errors: Record<string, string> }; init: { status: number } };
+  if (result instanceof Response)
+    return { status: result.status, location: result.headers.get("Location"), errors: {} };
   return { status: result.init.status, location: null, errors: result.data.errors };
 }
 
 const userByEmail = async (email: string) => (await db.select().from(users).where(eq(users.email, email)))[0];
-const tableSize = async (table: typeof users | typeof oneTimeTokens | typeof emailOutbox) => (await db.select({ n: count() }).from(table))[0]!.n;
+const tableSize = async (table: typeof users | typeof oneTimeTokens | typeof emailOutbox) =>
+  (await db.select({ n: count() }).from(table))[0]!.n;
 
 test("an invitation creates the account without a password, a one-time invite link and the e-mail carrying it; the link sets a password and opens the workspace", async () => {
-  const answer = await post({ intent: "invite", name: "Noor Aldana", email: "Noor.Aldana@cinder-slate.test", role: "estimator" });
+  const answer = await post({
+    intent: "invite",
+    name: "Noor Aldana",
+    email: "Noor.Aldana@cinder-slate.test",
+    role: "estimator",
+  });
   expect(answer).toEqual({ status: 302, location: "/app/team?saved=invite", errors: {} });
   const noor = (await userByEmail("noor.aldana@cinder-slate.test"))!;
   expect(noor).toMatchObject({ companyId, role: "estimator", passwordHash: null, isActive: true, name: "Noor Aldana" });
@@ -55,7 +63,17 @@ test("an invitation creates the account without a password, a one-time invite li
   expect(hashToken(link[1]!)).toBe(token!.tokenHash);
 
   const welcome = (await welcomeAction(
-    routeArgs(new Request("http://localhost/welcome", { method: "POST", body: new URLSearchParams({ intent: "set", token: link[1]!, password: "a-long-new-password", confirm: "a-long-new-password" }) })),
+    routeArgs(
+      new Request("http://localhost/welcome", {
+        method: "POST",
+        body: new URLSearchParams({
+          intent: "set",
+          token: link[1]!,
+          password: "a-long-new-password",
+          confirm: "a-long-new-password",
+        }),
+      }),
+    ),
   )) as Response;
   expect(welcome.status).toBe(302);
   expect(welcome.headers.get("Location")).toBe("/app");
@@ -77,11 +95,26 @@ test("a bad invitation is refused with 400 naming each field, and nothing is cre
 });
 
 test("account probing through invitations: an address with an account at another company or as a homeowner gets the same answer as a new one, and only its owner hears why", async () => {
-  const fresh = await post({ intent: "invite", name: "Fresh Person", email: "fresh.person@example.test", role: "crew" });
-  const otherCompany = await post({ intent: "invite", name: "Probe One", email: "owner@north-ridge.test", role: "crew" });
+  const fresh = await post({
+    intent: "invite",
+    name: "Fresh Person",
+    email: "fresh.person@example.test",
+    role: "crew",
+  });
+  const otherCompany = await post({
+    intent: "invite",
+    name: "Probe One",
+    email: "owner@north-ridge.test",
+    role: "crew",
+  });
   const homeowner = await createStaff("probe.homeowner@example.test", "estimator");
   await db.update(users).set({ role: "homeowner" }).where(eq(users.id, homeowner.id));
-  const asHomeowner = await post({ intent: "invite", name: "Probe Two", email: "probe.homeowner@example.test", role: "crew" });
+  const asHomeowner = await post({
+    intent: "invite",
+    name: "Probe Two",
+    email: "probe.homeowner@example.test",
+    role: "crew",
+  });
   expect(otherCompany).toEqual(fresh);
   expect(asHomeowner).toEqual(fresh);
   // Nothing changed on the existing accounts: no second account, no link for them.
@@ -97,25 +130,41 @@ test("account probing through invitations: an address with an account at another
 test("the owner changes a role, and it applies to that person's next request", async () => {
   const person = await createStaff("role.change@cinder-slate.test", "estimator");
   const cookie = await loginAs(companyId, "estimator");
-  expect(await post({ intent: "role", userId: String(person.id), role: "crew" })).toMatchObject({ status: 302, location: "/app/team?saved=role" });
+  expect(await post({ intent: "role", userId: String(person.id), role: "crew" })).toMatchObject({
+    status: 302,
+    location: "/app/team?saved=role",
+  });
   expect((await userByEmail("role.change@cinder-slate.test"))!.role).toBe("crew");
-  expect((await post({ intent: "role", userId: String(person.id), role: "crew" })).errors.role).toBe("Role Change is already crew.");
-  expect((await post({ intent: "role", userId: String(person.id), role: "boss" })).errors.role).toBe("Role must be owner, estimator or crew.");
+  expect((await post({ intent: "role", userId: String(person.id), role: "crew" })).errors.role).toBe(
+    "Role Change is already crew.",
+  );
+  expect((await post({ intent: "role", userId: String(person.id), role: "boss" })).errors.role).toBe(
+    "Role must be owner, estimator or crew.",
+  );
   // The demo estimator still works the inbox; the changed person's own session now meets 403 there.
   expect(await inboxLoader(routeArgs(requestWithCookie("/app/inbox", cookie)))).toBeTruthy();
-  await expect(inboxLoader(routeArgs(requestWithCookie("/app/inbox", person.cookie)))).rejects.toMatchObject({ status: 403 });
+  await expect(inboxLoader(routeArgs(requestWithCookie("/app/inbox", person.cookie)))).rejects.toMatchObject({
+    status: 403,
+  });
 });
 
 test("owners cannot demote or deactivate themselves", async () => {
-  expect((await post({ intent: "role", userId: String(ownerId), role: "estimator" })).errors.role).toBe("You cannot change your own role. Ask another owner.");
-  expect((await post({ intent: "deactivate", userId: String(ownerId) })).errors.userId).toBe("You cannot deactivate yourself.");
+  expect((await post({ intent: "role", userId: String(ownerId), role: "estimator" })).errors.role).toBe(
+    "You cannot change your own role. Ask another owner.",
+  );
+  expect((await post({ intent: "deactivate", userId: String(ownerId) })).errors.userId).toBe(
+    "You cannot deactivate yourself.",
+  );
   expect((await userByEmail("owner@cinder-slate.test"))!).toMatchObject({ role: "owner", isActive: true });
 });
 
 test("a deactivated person is signed out everywhere at once and cannot sign in; reactivated, they can again", async () => {
   const estimator = (await userByEmail("estimator@cinder-slate.test"))!;
   const cookie = await loginAs(companyId, "estimator");
-  expect(await post({ intent: "deactivate", userId: String(estimator.id) })).toMatchObject({ status: 302, location: "/app/team?saved=deactivate" });
+  expect(await post({ intent: "deactivate", userId: String(estimator.id) })).toMatchObject({
+    status: 302,
+    location: "/app/team?saved=deactivate",
+  });
   expect(await db.select().from(sessions).where(eq(sessions.userId, estimator.id))).toEqual([]);
   await expect(inboxLoader(routeArgs(requestWithCookie("/app/inbox", cookie)))).rejects.toMatchObject({ status: 302 });
 
@@ -131,9 +180,14 @@ test("a deactivated person is signed out everywhere at once and cannot sign in; 
     ) as Promise<Response | { init: { status: number } }>;
   const refused = await signIn();
   expect(refused instanceof Response ? refused.status : refused.init.status).toBe(401);
-  expect((await post({ intent: "deactivate", userId: String(estimator.id) })).errors.userId).toBe("Theo Brandvold is already deactivated.");
+  expect((await post({ intent: "deactivate", userId: String(estimator.id) })).errors.userId).toBe(
+    "Theo Brandvold is already deactivated.",
+  );
 
-  expect(await post({ intent: "reactivate", userId: String(estimator.id) })).toMatchObject({ status: 302, location: "/app/team?saved=reactivate" });
+  expect(await post({ intent: "reactivate", userId: String(estimator.id) })).toMatchObject({
+    status: 302,
+    location: "/app/team?saved=reactivate",
+  });
   const allowed = await signIn();
   expect(allowed).toBeInstanceOf(Response);
   expect((allowed as Response).status).toBe(302);
@@ -149,8 +203,12 @@ test("the owner cannot touch another company's staff: 404, and nothing changes",
 });
 
 test("the team list shows the company's staff only, never its customers", async () => {
-  const { team } = (await teamLoader(routeArgs(requestWithCookie("/app/team", ownerCookie)))) as { team: { email: string; role: string }[] };
-  expect(team.map((m) => m.email)).toEqual(expect.arrayContaining(["owner@cinder-slate.test", "estimator@cinder-slate.test", "crew@cinder-slate.test"]));
+  const { team } = (await teamLoader(routeArgs(requestWithCookie("/app/team", ownerCookie)))) as {
+    team: { email: string; role: string }[];
+  };
+  expect(team.map((m) => m.email)).toEqual(
+    expect.arrayContaining(["owner@cinder-slate.test", "estimator@cinder-slate.test", "crew@cinder-slate.test"]),
+  );
   expect(team.every((m) => m.role !== "homeowner")).toBe(true);
   expect(team.some((m) => m.email.endsWith("@north-ridge.test"))).toBe(false);
 });

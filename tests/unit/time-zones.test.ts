@@ -1,24 +1,33 @@
 import { existsSync, readFileSync } from "node:fs";
 import { expect, test } from "vitest";
 import { companySettingsSchema } from "~/lib/settings/company-schema";
-import { currentTimeZones, describeLocalTime, describePlace, groupTimeZones, RENAMED_TIME_ZONES } from "~/lib/settings/time-zones";
+import {
+  currentTimeZones,
+  describeLocalTime,
+  describePlace,
+  groupTimeZones,
+  RENAMED_TIME_ZONES,
+} from "~/lib/settings/time-zones";
 
 // The IANA time zone database as Debian's tzdata ships it: zone.tab lists every current zone name.
 const ZONE_TAB = "/usr/share/zoneinfo/zone.tab";
 
-test.skipIf(!existsSync(ZONE_TAB))("every zone offered is a current IANA name (zone.tab, IANA tz database), none retired", () => {
-  const current = new Set(
-    readFileSync(ZONE_TAB, "utf8")
-      .split("\n")
-      .filter((line) => line && !line.startsWith("#"))
-      .map((line) => line.split("\t")[2]),
-  );
-  const offered = currentTimeZones();
-  expect(offered.filter((id) => !current.has(id))).toEqual([]);
-  for (const old of Object.keys(RENAMED_TIME_ZONES)) expect(offered).not.toContain(old);
-  expect(offered).toContain("Europe/Kyiv");
-  expect(offered).toContain("Asia/Kolkata");
-});
+test.skipIf(!existsSync(ZONE_TAB))(
+  "every zone offered is a current IANA name (zone.tab, IANA tz database), none retired",
+  () => {
+    const current = new Set(
+      readFileSync(ZONE_TAB, "utf8")
+        .split("\n")
+        .filter((line) => line && !line.startsWith("#"))
+        .map((line) => line.split("\t")[2]),
+    );
+    const offered = currentTimeZones();
+    expect(offered.filter((id) => !current.has(id))).toEqual([]);
+    for (const old of Object.keys(RENAMED_TIME_ZONES)) expect(offered).not.toContain(old);
+    expect(offered).toContain("Europe/Kyiv");
+    expect(offered).toContain("Asia/Kolkata");
+  },
+);
 
 test("a renamed zone and its new name keep the same clock (same UTC offset in January and July 2026)", () => {
   for (const [old, current] of Object.entries(RENAMED_TIME_ZONES)) {
@@ -46,7 +55,14 @@ test("zones are grouped by region, the Americas first, each named by its place",
   expect(all.length).toBe(currentTimeZones().length);
 });
 
-const SETTINGS = { name: "Ridge Masonry", email: "office@example.com", phone: "", town: "Springfield", consultFee: "75", timeZone: "America/Chicago" };
+const SETTINGS = {
+  name: "Ridge Masonry",
+  email: "office@example.com",
+  phone: "",
+  town: "Springfield",
+  consultFee: "75",
+  timeZone: "America/Chicago",
+};
 
 test("an old zone name posted to the settings is stored under its current name; an unknown one is refused", () => {
   expect(companySettingsSchema.parse({ ...SETTINGS, timeZone: "Europe/Kiev" }).timeZone).toBe("Europe/Kyiv");

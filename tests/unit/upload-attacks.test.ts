@@ -38,9 +38,14 @@ async function send(photos: File[]) {
   const request = new Request(raw.url, {
     method: "POST",
     body,
-    headers: { ...Object.fromEntries(raw.headers), "Content-Length": String(body.byteLength), "X-Forwarded-For": `192.0.2.${address}` },
+    headers: {
+      ...Object.fromEntries(raw.headers),
+      "Content-Length": String(body.byteLength),
+      "X-Forwarded-For": `192.0.2.${address}`,
+    },
   });
-  return (await action(routeArgs(request, { companySlug: "cinder-slate" }))) as Response | { data: { errors: Record<string, string> }; init: ResponseInit };
+  return (await action(routeArgs(request, { companySlug: "cinder-slate" }))) as
+    Response | { data: { errors: Record<string, string> }; init: ResponseInit };
 }
 
 async function storedPhotosOf(response: unknown) {
@@ -48,19 +53,31 @@ async function storedPhotosOf(response: unknown) {
   const ref = (response as Response).headers.get("Location")!.split("/").pop()!;
   const [lead] = await db.select().from(leads).where(eq(leads.ref, ref));
   const rows = await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, lead!.id));
-  return Promise.all(rows.map(async (row) => ({ row, bytes: await readFile(path.join(path.resolve(process.env.UPLOADS_DIR!), row.storedName)) })));
+  return Promise.all(
+    rows.map(async (row) => ({
+      row,
+      bytes: await readFile(path.join(path.resolve(process.env.UPLOADS_DIR!), row.storedName)),
+    })),
+  );
 }
 
-const errorsOf = (result: unknown) => (result as { data: { errors: Record<string, string> }; init: ResponseInit });
+const errorsOf = (result: unknown) => result as { data: { errors: Record<string, string> }; init: ResponseInit };
 
 test("metadata smuggling: a yard photo's EXIF (GPS position, camera owner) is gone from the stored file", async () => {
   await demoCompany();
   const withExif = await sharp(Buffer.from(TINY_JPEG))
-    .withMetadata({ exif: { IFD0: { Copyright: "Owner Name 555-0100", Artist: "secret-artist" }, IFD3: { GPSLatitudeRef: "N", GPSLatitude: "44/1 30/1 0/1" } } })
+    .withMetadata({
+      exif: {
+        IFD0: { Copyright: "Owner Name 555-0100", Artist: "secret-artist" },
+        IFD3: { GPSLatitudeRef: "N", GPSLatitude: "44/1 30/1 0/1" },
+      },
+    })
     .jpeg()
     .toBuffer();
   expect((await sharp(withExif).metadata()).exif).toBeDefined();
-  const [stored] = await storedPhotosOf(await send([new File([new Uint8Array(withExif)], "yard.jpg", { type: "image/jpeg" })]));
+  const [stored] = await storedPhotosOf(
+    await send([new File([new Uint8Array(withExif)], "yard.jpg", { type: "image/jpeg" })]),
+  );
   const meta = await sharp(stored!.bytes).metadata();
   expect(meta.format).toBe("jpeg");
   expect(meta.exif).toBeUndefined();
@@ -82,14 +99,18 @@ test("a file with image magic bytes that does not decode is refused, naming the 
   const before = (await db.select().from(leads)).length;
   const result = errorsOf(await send([new File([FAKE_JPEG], "yard.jpg", { type: "image/jpeg" })]));
   expect(result.init.status).toBe(400);
-  expect(result.data.errors.photos).toBe('"yard.jpg" could not be read as a picture (it may be damaged). Send a JPEG, PNG or WebP photo.');
+  expect(result.data.errors.photos).toBe(
+    '"yard.jpg" could not be read as a picture (it may be damaged). Send a JPEG, PNG or WebP photo.',
+  );
   expect((await db.select().from(leads)).length).toBe(before);
 });
 
 test("a file name with a right-to-left override cannot disguise its extension in the stored label", async () => {
   await demoCompany();
   // "yard\u202Egpj.exe" shows as "yardexe.jpg" where the override is honoured.
-  const [stored] = await storedPhotosOf(await send([new File([TINY_PNG], "yard\u202Egpj.exe\u0007", { type: "image/png" })]));
+  const [stored] = await storedPhotosOf(
+    await send([new File([TINY_PNG], "yard\u202Egpj.exe\u0007", { type: "image/png" })]),
+  );
   expect(stored!.row.originalName).toBe("yardgpj.exe");
   expect(stored!.row.storedName).toMatch(/^[0-9a-f-]{36}\.png$/);
 });
@@ -100,7 +121,14 @@ test("filling one contractor's photo storage for the day: past the daily cap a r
   // Today's earlier uploads, as recorded: 500 MB already taken in.
   // Only the recorded sizes count, so a row stands in for the day's earlier photos.
   const earlier = { storedName: `${randomUUID()}.png` };
-  await db.insert(leadPhotos).values({ companyId: company.id, leadId: someLead!.id, storedName: earlier.storedName, originalName: "earlier.png", mimeType: "image/png", sizeBytes: 500 * 1024 * 1024 });
+  await db.insert(leadPhotos).values({
+    companyId: company.id,
+    leadId: someLead!.id,
+    storedName: earlier.storedName,
+    originalName: "earlier.png",
+    mimeType: "image/png",
+    sizeBytes: 500 * 1024 * 1024,
+  });
   const before = (await db.select().from(leads)).length;
   const result = errorsOf(await send([new File([TINY_PNG], "yard.png", { type: "image/png" })]));
   expect(result.init.status).toBe(429);
@@ -117,7 +145,8 @@ test("an oversized photo is refused while it streams in: the server stops readin
   const head = Buffer.from(
     Object.entries({ ...FIELDS, email: "stream.limit@example.test" })
       .map(([k, v]) => `--${boundary}\r\nContent-Disposition: form-data; name="${k}"\r\n\r\n${v}\r\n`)
-      .join("") + `--${boundary}\r\nContent-Disposition: form-data; name="photos"; filename="huge.png"\r\nContent-Type: image/png\r\n\r\n`,
+      .join("") +
+      `--${boundary}\r\nContent-Disposition: form-data; name="photos"; filename="huge.png"\r\nContent-Type: image/png\r\n\r\n`,
   );
   const photoBytes = 40 * 1024 * 1024;
   const tail = Buffer.from(`\r\n--${boundary}--\r\n`);

@@ -3,7 +3,14 @@ import path from "node:path";
 import { crc32 } from "node:zlib";
 import { expect, test } from "vitest";
 import { FAKE_JPEG, TINY_JPEG, TINY_PNG } from "./support/images";
-import { cleanOriginalName, deleteStoredPhotos, MAX_PHOTO_BYTES, readLeadForm, storePhotoBytes, storeReceivedPhotos } from "~/lib/platform/uploads.server";
+import {
+  cleanOriginalName,
+  deleteStoredPhotos,
+  MAX_PHOTO_BYTES,
+  readLeadForm,
+  storePhotoBytes,
+  storeReceivedPhotos,
+} from "~/lib/platform/uploads.server";
 
 const uploads = () => path.resolve(process.env.UPLOADS_DIR!);
 const file = (bytes: Uint8Array<ArrayBuffer>, name: string, type = "image/jpeg") => new File([bytes], name, { type });
@@ -28,7 +35,10 @@ test("a real PNG and JPEG pass, typed by their bytes, and are stored re-encoded 
   const result = await receiveAndStore([file(TINY_PNG, "yard.png", "image/png"), file(TINY_JPEG, "side.jpg")]);
   if (!("photos" in result) || !result.ok) throw new Error(JSON.stringify(result));
   expect(result.photos.map((p) => p.mimeType)).toEqual(["image/png", "image/jpeg"]);
-  expect(result.photos.map((p) => p.storedName)).toEqual([expect.stringMatching(/^[0-9a-f-]{36}\.png$/), expect.stringMatching(/^[0-9a-f-]{36}\.jpg$/)]);
+  expect(result.photos.map((p) => p.storedName)).toEqual([
+    expect.stringMatching(/^[0-9a-f-]{36}\.png$/),
+    expect.stringMatching(/^[0-9a-f-]{36}\.jpg$/),
+  ]);
   expect(await incomingLeft()).toEqual([]);
   await deleteStoredPhotos(result.photos.map((p) => p.storedName));
 });
@@ -50,7 +60,9 @@ test("an HTML file claiming to be an image is refused", async () => {
 });
 
 test("seven photos are refused while the form is read: six is the limit (413, naming the photos field)", async () => {
-  const reading = await readLeadForm(formRequest(Array.from({ length: 7 }, (_, i) => file(TINY_PNG, `p${i}.png`, "image/png"))));
+  const reading = await readLeadForm(
+    formRequest(Array.from({ length: 7 }, (_, i) => file(TINY_PNG, `p${i}.png`, "image/png"))),
+  );
   expect(reading).toEqual({ ok: false, status: 413, errors: { photos: "Attach at most 6 photos." } });
   expect(await incomingLeft()).toEqual([]);
 });
@@ -59,7 +71,11 @@ test("a photo over 10 MB is refused while it is read (413), and nothing of it st
   const big = new Uint8Array(MAX_PHOTO_BYTES + 1);
   big.set(TINY_PNG);
   const reading = await readLeadForm(formRequest([file(big, "huge.png", "image/png")]));
-  expect(reading).toEqual({ ok: false, status: 413, errors: { photos: "Each photo must be 10 MB or smaller. Send a smaller photo." } });
+  expect(reading).toEqual({
+    ok: false,
+    status: 413,
+    errors: { photos: "Each photo must be 10 MB or smaller. Send a smaller photo." },
+  });
   expect(await incomingLeft()).toEqual([]);
 });
 
@@ -77,12 +93,18 @@ test("names with ../ are harmless: the label loses its folders and the file gets
 test("a polyglot (a real PNG header with a script inside) is refused (OWASP File Upload Cheat Sheet)", async () => {
   const polyglot = new Uint8Array([...TINY_PNG, ...new TextEncoder().encode("<script>alert(1)</script>")]);
   const result = await receiveAndStore([file(polyglot, "trick.png", "image/png")]);
-  expect(result).toEqual({ ok: false, message: '"trick.png" contains web page code as well as a picture. Send a plain photo.' });
+  expect(result).toEqual({
+    ok: false,
+    message: '"trick.png" contains web page code as well as a picture. Send a plain photo.',
+  });
 });
 
 test("a file that carries JPEG markers but no picture is refused when decoding fails", async () => {
   const result = await receiveAndStore([file(FAKE_JPEG, "blank.jpg")]);
-  expect(result).toEqual({ ok: false, message: '"blank.jpg" could not be read as a picture (it may be damaged). Send a JPEG, PNG or WebP photo.' });
+  expect(result).toEqual({
+    ok: false,
+    message: '"blank.jpg" could not be read as a picture (it may be damaged). Send a JPEG, PNG or WebP photo.',
+  });
   expect(await incomingLeft()).toEqual([]);
 });
 
@@ -115,10 +137,26 @@ test("photo files that no lead names are swept; recorded ones stay", async () =>
   const kept = await storePhotoBytes(TINY_PNG, "c.png");
   await createLead({
     company,
-    form: { customerName: "Pia Lindqvist", email: "pia@example.test", phone: "555 010 3344", street: "9 Fern St", town: "Millbrook Falls", buildWindow: "next-year", notes: "", consent: "on" },
+    form: {
+      customerName: "Pia Lindqvist",
+      email: "pia@example.test",
+      phone: "555 010 3344",
+      street: "9 Fern St",
+      town: "Millbrook Falls",
+      buildWindow: "next-year",
+      notes: "",
+      consent: "on",
+    },
     photos: [kept],
     origin: "http://localhost",
-    snapshot: { record: createTestPlanRecord(), stoneName: "Test", bowlDiameterIn: 36, priceLowCents: null, priceHighCents: null, summary: [] },
+    snapshot: {
+      record: createTestPlanRecord(),
+      stoneName: "Test",
+      bowlDiameterIn: 36,
+      priceLowCents: null,
+      priceHighCents: null,
+      summary: [],
+    },
   });
   const [recorded] = await db.select().from(leadPhotos);
   expect(await sweepUnrecordedPhotos(-1)).toBe(0);

@@ -12,7 +12,14 @@ test("a name ending in s takes the apostrophe alone", () => {
 test("the e-mail to an address already in use names the company's workspace with the apostrophe alone", async () => {
   const { render } = await import("@react-email/components");
   const { StaffInviteAddressInUseEmail } = await import("~/emails/staff-invite");
-  const text = await render(StaffInviteAddressInUseEmail({ companyName: "Cinder & Slate Outdoor Works", name: "Juno Marsh", invitedBy: "Silas Marrowby" }), { plainText: true });
+  const text = await render(
+    StaffInviteAddressInUseEmail({
+      companyName: "Cinder & Slate Outdoor Works",
+      name: "Juno Marsh",
+      invitedBy: "Silas Marrowby",
+    }),
+    { plainText: true },
+  );
   expect(text).toContain("Cinder & Slate Outdoor Works' Emberwright workspace");
   expect(text).not.toContain("Works's");
 });

@@ -30,7 +30,25 @@ beforeAll(async () => {
 const KEYS = ["status", "assignee", "from", "to", "q", "sort", "dir", "page", "since", "x"];
 const hostile = fc.oneof(
   fc.string({ maxLength: 40 }),
-  fc.constantFrom("", "-1", "0", "1e9", "NaN", "null", "'; drop table leads; --", "%", "_", "\\", "2026-02-30", "9999-99-99", "new", "won", "none", "asc", "<script>"),
+  fc.constantFrom(
+    "",
+    "-1",
+    "0",
+    "1e9",
+    "NaN",
+    "null",
+    "'; drop table leads; --",
+    "%",
+    "_",
+    "\\",
+    "2026-02-30",
+    "9999-99-99",
+    "new",
+    "won",
+    "none",
+    "asc",
+    "<script>",
+  ),
   fc.integer().map(String),
   fc.string({ unit: "grapheme", maxLength: 12 }),
 );
@@ -39,7 +57,8 @@ async function statusOf(run: () => Promise<unknown>): Promise<number> {
   try {
     const value = await run();
     if (value instanceof Response) return value.status;
-    if (value && typeof value === "object" && "init" in value) return (value as { init: { status?: number } }).init.status ?? 200;
+    if (value && typeof value === "object" && "init" in value)
+      return (value as { init: { status?: number } }).init.status ?? 200;
     return 200;
   } catch (thrown) {
     if (thrown instanceof Response) return thrown.status;
@@ -67,18 +86,24 @@ test("GET /api/leads answers any query string with 200 or a 400 naming the field
 
 test("the lead page's forms answer random fields with a redirect or a 4xx, and a refused form writes nothing", async () => {
   const intents = fc.constantFrom("status", "note", "assign", "crew", "", "delete", "status ");
-  const fields = fc.record({
-    intent: intents,
-    status: hostile,
-    reason: hostile,
-    note: hostile,
-    assigneeId: hostile,
-    crewUserId: hostile,
-  }, { requiredKeys: ["intent"] });
+  const fields = fc.record(
+    {
+      intent: intents,
+      status: hostile,
+      reason: hostile,
+      note: hostile,
+      assigneeId: hostile,
+      crewUserId: hostile,
+    },
+    { requiredKeys: ["intent"] },
+  );
   await fc.assert(
     fc.asyncProperty(fields, async (form) => {
       const before = (await db.select({ n: count() }).from(leadEvents).where(eq(leadEvents.leadId, leadId)))[0]!.n;
-      const request = requestWithCookie(`/app/leads/${leadId}`, estimatorCookie, { method: "POST", body: new URLSearchParams(form as Record<string, string>) });
+      const request = requestWithCookie(`/app/leads/${leadId}`, estimatorCookie, {
+        method: "POST",
+        body: new URLSearchParams(form as Record<string, string>),
+      });
       const status = await statusOf(() => leadAction(routeArgs(request, { leadId: String(leadId) })));
       expect(status === 302 || (status >= 400 && status < 500)).toBe(true);
       const after = (await db.select({ n: count() }).from(leadEvents).where(eq(leadEvents.leadId, leadId)))[0]!.n;

@@ -42,7 +42,9 @@ function Section({ title, hint, children }: { title: string; hint?: ReactNode; c
 
 /** A patio's width across, from its radius in feet: feet for inches, metres for millimetres (1 ft = 0.3048 m exactly). */
 const patioAcross = (radiusFt: number, unit: LengthUnit) =>
-  unit === "mm" ? `${(Math.round(radiusFt * 2 * 0.3048 * 10) / 10).toLocaleString("en-US")} m across` : `${radiusFt * 2} ft across`;
+  unit === "mm"
+    ? `${(Math.round(radiusFt * 2 * 0.3048 * 10) / 10).toLocaleString("en-US")} m across`
+    : `${radiusFt * 2} ft across`;
 
 const sizeText = (item: CatalogChoice, unit: LengthUnit) =>
   `${formatLength(item.faceIn ?? 0, unit)} face, ${formatLength(item.heightIn ?? 0, unit)} high`;
@@ -73,7 +75,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
   const shownSize = sizes.find((s) => s.unitCount === shownCount);
   const minCount = sizes[0]?.unitCount ?? 3;
   const maxCount = sizes.at(-1)?.unitCount ?? 40;
-  const wallHeightIn = design.courses * (stone.heightIn ?? 0) + (design.capId !== null ? (caps.find((c) => c.id === design.capId)?.thicknessIn ?? 0) : 0);
+  const wallHeightIn =
+    design.courses * (stone.heightIn ?? 0) +
+    (design.capId !== null ? (caps.find((c) => c.id === design.capId)?.thicknessIn ?? 0) : 0);
 
   return (
     <div className="flex flex-col gap-5">
@@ -89,10 +93,16 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
                 name="stone"
                 value={s.id}
                 checked={s.id === design.stoneId}
-                onChange={() => onChange({ stoneId: s.id, fitToRing: design.linerKind === "steel-ring" && design.fitToRing })}
+                onChange={() =>
+                  onChange({ stoneId: s.id, fitToRing: design.linerKind === "steel-ring" && design.fitToRing })
+                }
                 className="sr-only"
               />
-              <span className="h-9 w-9 shrink-0 rounded-md border border-char-800/20" style={{ backgroundColor: s.colourHex }} aria-hidden="true" />
+              <span
+                className="h-9 w-9 shrink-0 rounded-md border border-char-800/20"
+                style={{ backgroundColor: s.colourHex }}
+                aria-hidden="true"
+              />
               <span className="min-w-0 text-sm leading-tight">
                 <span className="block font-extrabold text-char-900">{s.name}</span>
                 <span className="block text-char-600">
@@ -102,14 +112,22 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
               {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1). Keyboard focus is a dark dashed ring outside
                   the card, so it cannot be mistaken for the orange border that marks the chosen stone (WCAG 2.1 SC 2.4.7). */}
               {s.id === design.stoneId ? (
-                <span className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white" aria-hidden="true">✓ Chosen</span>
+                <span
+                  className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white"
+                  aria-hidden="true"
+                >
+                  ✓ Chosen
+                </span>
               ) : null}
             </label>
           ))}
         </div>
       </Section>
 
-      <Section title="Bowl size" hint="Across the inside of the ring. Each step adds or removes one block a course, so every size needs no cut blocks.">
+      <Section
+        title="Bowl size"
+        hint="Across the inside of the ring. Each step adds or removes one block a course, so every size needs no cut blocks."
+      >
         <label htmlFor={`${ids}-units`} className="flex items-baseline justify-between gap-3 text-sm">
           <span className="font-bold text-char-700">Inside diameter</span>
           <output htmlFor={`${ids}-units`} className="text-lg font-extrabold text-char-900 tabular-nums">
@@ -124,7 +142,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
           max={maxCount}
           step={1}
           value={Math.min(maxCount, Math.max(minCount, shownCount))}
-          aria-valuetext={shownSize ? `${f(shownSize.bowlDiameterIn)} across inside, ${shownCount} blocks a course` : undefined}
+          aria-valuetext={
+            shownSize ? `${f(shownSize.bowlDiameterIn)} across inside, ${shownCount} blocks a course` : undefined
+          }
           aria-describedby={design.fitToRing ? `${ids}-fit-note` : undefined}
           // Moving the slider is choosing a size by hand: the bowl stops following the ring (and says so below).
           onChange={(e) => onChange({ unitCount: Number(e.target.value), fitToRing: false })}
@@ -153,12 +173,23 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
         ) : null}
       </Section>
 
-      <Section title="Height" hint={`${design.courses} courses (rows of blocks): ${f(wallHeightIn)} high with the cap, ${describeSeat(wallHeightIn)}.`}>
+      <Section
+        title="Height"
+        hint={`${design.courses} courses (rows of blocks): ${f(wallHeightIn)} high with the cap, ${describeSeat(wallHeightIn)}.`}
+      >
         <div className="flex items-center gap-3">
-          <button type="button" className="btn-quiet h-10 w-10 text-lg" aria-label="One course fewer" disabled={design.courses <= 1} onClick={() => onChange({ courses: design.courses - 1 })}>
+          <button
+            type="button"
+            className="btn-quiet h-10 w-10 text-lg"
+            aria-label="One course fewer"
+            disabled={design.courses <= 1}
+            onClick={() => onChange({ courses: design.courses - 1 })}
+          >
             −
           </button>
-          <label className="sr-only" htmlFor={`${ids}-courses`}>Courses</label>
+          <label className="sr-only" htmlFor={`${ids}-courses`}>
+            Courses
+          </label>
           <input
             id={`${ids}-courses`}
             type="number"
@@ -169,7 +200,13 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
             onChange={(e) => onChange({ courses: Math.min(MAX_COURSES, Math.max(1, Number(e.target.value) || 1)) })}
             className="field-input mt-0 w-20 text-center"
           />
-          <button type="button" className="btn-quiet h-10 w-10 text-lg" aria-label="One course more" disabled={design.courses >= MAX_COURSES} onClick={() => onChange({ courses: design.courses + 1 })}>
+          <button
+            type="button"
+            className="btn-quiet h-10 w-10 text-lg"
+            aria-label="One course more"
+            disabled={design.courses >= MAX_COURSES}
+            onClick={() => onChange({ courses: design.courses + 1 })}
+          >
             +
           </button>
           <span className="text-sm text-char-600">courses</span>
@@ -177,7 +214,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
       </Section>
 
       <Section title="Cap" hint="Flat stones cut to wedges that finish the top of the wall.">
-        <label className="field-label" htmlFor={`${ids}-cap`}>Cap stone</label>
+        <label className="field-label" htmlFor={`${ids}-cap`}>
+          Cap stone
+        </label>
         <select
           id={`${ids}-cap`}
           name="cap"
@@ -230,7 +269,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
                   name="liner"
                   value={kind}
                   checked={design.linerKind === kind}
-                  onChange={() => onChange({ linerKind: kind, fitToRing: kind === "steel-ring" ? design.fitToRing : false })}
+                  onChange={() =>
+                    onChange({ linerKind: kind, fitToRing: kind === "steel-ring" ? design.fitToRing : false })
+                  }
                   className="h-4 w-4 accent-ember-500"
                 />
                 {label}
@@ -239,7 +280,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
         </div>
         {design.linerKind === "steel-ring" ? (
           <>
-            <label className="field-label mt-3" htmlFor={`${ids}-ring`}>Ring insert</label>
+            <label className="mt-3 field-label" htmlFor={`${ids}-ring`}>
+              Ring insert
+            </label>
             <select
               id={`${ids}-ring`}
               name="ring"
@@ -276,11 +319,17 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
             Add a round patio
           </label>
           {design.patioRadiusFt === 0 && patioDraftFt !== null ? (
-            <div className="mt-3 flex flex-col gap-3 rounded-lg border border-ash-300 bg-ash-50 p-3" role="group" aria-labelledby={`${ids}-patio-ask`}>
-              <p id={`${ids}-patio-ask`} className="text-sm font-bold text-char-800">How big a patio?</p>
+            <div
+              className="mt-3 flex flex-col gap-3 rounded-lg border border-ash-300 bg-ash-50 p-3"
+              role="group"
+              aria-labelledby={`${ids}-patio-ask`}
+            >
+              <p id={`${ids}-patio-ask`} className="text-sm font-bold text-char-800">
+                How big a patio?
+              </p>
               <p className="text-sm text-char-700">
-                We suggest {suggestedPatioFt} ft out from the centre ({patioAcross(suggestedPatioFt, unit)}): room for a ring of chairs
-                around the pit and a path behind them. The price changes when you add it.
+                We suggest {suggestedPatioFt} ft out from the centre ({patioAcross(suggestedPatioFt, unit)}): room for a
+                ring of chairs around the pit and a path behind them. The price changes when you add it.
               </p>
               <div>
                 <label htmlFor={`${ids}-patio-draft`} className="flex items-baseline justify-between text-sm">
@@ -341,18 +390,38 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
               </div>
               <div className="grid gap-3 sm:grid-cols-2">
                 <div>
-                  <label className="field-label" htmlFor={`${ids}-paver`}>Pavers</label>
-                  <select id={`${ids}-paver`} name="paver" value={design.paverId ?? ""} onChange={(e) => onChange({ paverId: Number(e.target.value) })} className="field-input">
+                  <label className="field-label" htmlFor={`${ids}-paver`}>
+                    Pavers
+                  </label>
+                  <select
+                    id={`${ids}-paver`}
+                    name="paver"
+                    value={design.paverId ?? ""}
+                    onChange={(e) => onChange({ paverId: Number(e.target.value) })}
+                    className="field-input"
+                  >
                     {pavers.map((p) => (
-                      <option key={p.id} value={p.id}>{p.name}</option>
+                      <option key={p.id} value={p.id}>
+                        {p.name}
+                      </option>
                     ))}
                   </select>
                 </div>
                 <div>
-                  <label className="field-label" htmlFor={`${ids}-border`}>Border</label>
-                  <select id={`${ids}-border`} name="border" value={design.borderId ?? ""} onChange={(e) => onChange({ borderId: Number(e.target.value) })} className="field-input">
+                  <label className="field-label" htmlFor={`${ids}-border`}>
+                    Border
+                  </label>
+                  <select
+                    id={`${ids}-border`}
+                    name="border"
+                    value={design.borderId ?? ""}
+                    onChange={(e) => onChange({ borderId: Number(e.target.value) })}
+                    className="field-input"
+                  >
                     {borders.map((b) => (
-                      <option key={b.id} value={b.id}>{b.name}</option>
+                      <option key={b.id} value={b.id}>
+                        {b.name}
+                      </option>
                     ))}
                   </select>
                 </div>
@@ -364,7 +433,10 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
         </Section>
       ) : null}
 
-      <Section title="Where it goes" hint="Fires need room: we compare each distance with what your contractor works to. Measure from where the fire will be.">
+      <Section
+        title="Where it goes"
+        hint="Fires need room: we compare each distance with what your contractor works to. Measure from where the fire will be."
+      >
         {(
           [
             ["setback", "setbackFt", "Distance to the nearest building, deck or fence", "e.g. 30"],
@@ -373,37 +445,59 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
           ] as const
         ).map(([name, key, label, example]) => {
           const site = siteNotes?.[name];
-          const describedBy = [site?.requiredFt != null ? `${ids}-${name}-needs` : null, site?.note ? `${ids}-${name}-note` : null].filter(Boolean).join(" ");
+          const describedBy = [
+            site?.requiredFt != null ? `${ids}-${name}-needs` : null,
+            site?.note ? `${ids}-${name}-note` : null,
+          ]
+            .filter(Boolean)
+            .join(" ");
           return (
-          <div key={name} className="mt-3 first:mt-0">
-            <label className="field-label" htmlFor={`${ids}-${name}`}>{label}</label>
-            <div className="relative mt-1 max-w-48">
-              <input
-                id={`${ids}-${name}`}
-                aria-describedby={describedBy || undefined}
-                aria-invalid={site?.note ? true : undefined}
-                type="number"
-                name={name}
-                min={0}
-                max={500}
-                inputMode="numeric"
-                value={design[key] ?? ""}
-                placeholder={example}
-                onChange={(e) => onChange({ [key]: e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))) })}
-                className="field-input mt-0 pr-10"
-              />
-              <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">ft</span>
-            </div>
-            {site?.requiredFt != null ? (
-              <p id={`${ids}-${name}-needs`} className="mt-1 text-xs text-char-600">
-                {speakLengths(`Your contractor works to at least ${site.requiredFt} ft.`, unit)}
+            <div key={name} className="mt-3 first:mt-0">
+              <label className="field-label" htmlFor={`${ids}-${name}`}>
+                {label}
+              </label>
+              <div className="relative mt-1 max-w-48">
+                <input
+                  id={`${ids}-${name}`}
+                  aria-describedby={describedBy || undefined}
+                  aria-invalid={site?.note ? true : undefined}
+                  type="number"
+                  name={name}
+                  min={0}
+                  max={500}
+                  inputMode="numeric"
+                  value={design[key] ?? ""}
+                  placeholder={example}
+                  onChange={(e) =>
+                    onChange({
+                      [key]:
+                        e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))),
+                    })
+                  }
+                  className="field-input mt-0 pr-10"
+                />
+                <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">
+                  ft
+                </span>
+              </div>
+              {site?.requiredFt != null ? (
+                <p id={`${ids}-${name}-needs`} className="mt-1 text-xs text-char-600">
+                  {speakLengths(`Your contractor works to at least ${site.requiredFt} ft.`, unit)}
+                </p>
+              ) : null}
+              {/* The consequence sits beside its field; the full list of cautions stays under "Safety first". */}
+              <p
+                id={`${ids}-${name}-note`}
+                aria-live="polite"
+                className={
+                  site?.note
+                    ? "mt-1 rounded-md bg-alert-100 px-2 py-1.5 text-sm font-semibold text-alert-700"
+                    : "sr-only"
+                }
+              >
+                {site?.note ?? ""}
               </p>
-            ) : null}
-            {/* The consequence sits beside its field; the full list of cautions stays under "Safety first". */}
-            <p id={`${ids}-${name}-note`} aria-live="polite" className={site?.note ? "mt-1 rounded-md bg-alert-100 px-2 py-1.5 text-sm font-semibold text-alert-700" : "sr-only"}>
-              {site?.note ?? ""}
-            </p>
-          </div>
+            </div>
           );
         })}
       </Section>

@@ -15,9 +15,13 @@ export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: 
           Your fire pit
         </h2>
         <p className="mt-1 text-3xl font-extrabold text-char-900" data-testid="price-range">
-          {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "Price on request"}
+          {plan.price
+            ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}`
+            : "Price on request"}
         </p>
-        <p className="text-sm text-char-600">Installed, as an estimate. The contractor confirms the price after seeing your yard.</p>
+        <p className="text-sm text-char-600">
+          Installed, as an estimate. The contractor confirms the price after seeing your yard.
+        </p>
         <dl className="mt-4 grid grid-cols-2 gap-x-4 gap-y-3 text-sm lg:mt-3 lg:grid-cols-3" data-testid="plan-summary">
           <div>
             <dt className="text-char-500">Inside (bowl)</dt>
@@ -27,9 +31,13 @@ export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: 
             <dt className="text-char-500">Outside footprint</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.ring.outsideDiameterIn)}</dd>
           </div>
-          {plan.liner && typeof plan.fireOpeningIn === "number" && plan.fireOpeningIn < plan.ring.bowlDiameterIn - 1e-9 ? (
+          {plan.liner &&
+          typeof plan.fireOpeningIn === "number" &&
+          plan.fireOpeningIn < plan.ring.bowlDiameterIn - 1e-9 ? (
             <div>
-              <dt className="text-char-500">Fire opening (inside the {plan.liner.kind === "firebrick" ? "firebrick" : "ring"})</dt>
+              <dt className="text-char-500">
+                Fire opening (inside the {plan.liner.kind === "firebrick" ? "firebrick" : "ring"})
+              </dt>
               <dd className="font-extrabold text-char-900 tabular-nums">{f(plan.fireOpeningIn)}</dd>
             </div>
           ) : null}
@@ -41,19 +49,25 @@ export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: 
             <dt className="text-char-500">Wall blocks</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">
               {plan.ring.totalUnits}
-              {wallUnits && wallUnits.quantity > plan.ring.totalUnits ? ` + ${wallUnits.quantity - plan.ring.totalUnits} spare` : ""}
+              {wallUnits && wallUnits.quantity > plan.ring.totalUnits
+                ? ` + ${wallUnits.quantity - plan.ring.totalUnits} spare`
+                : ""}
             </dd>
           </div>
           <div>
             <dt className="text-char-500">Caps</dt>
             <dd className="font-extrabold text-char-900 tabular-nums">
-              {plan.caps ? `${plan.caps.count}${caps && caps.quantity > plan.caps.count ? ` + ${caps.quantity - plan.caps.count} spare` : ""}` : "None"}
+              {plan.caps
+                ? `${plan.caps.count}${caps && caps.quantity > plan.caps.count ? ` + ${caps.quantity - plan.caps.count} spare` : ""}`
+                : "None"}
             </dd>
           </div>
           {plan.patio ? (
             <div>
               <dt className="text-char-500">Patio</dt>
-              <dd className="font-extrabold text-char-900 tabular-nums">{formatAreaFt2(plan.patio.pavedAreaFt2, unit)}</dd>
+              <dd className="font-extrabold text-char-900 tabular-nums">
+                {formatAreaFt2(plan.patio.pavedAreaFt2, unit)}
+              </dd>
             </div>
           ) : null}
         </dl>
@@ -65,14 +79,16 @@ export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: 
 /** The engine's notes on this design ("worth a second look"), said in the chosen unit. */
 export function PlanWarnings({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
   return plan.warnings.length ? (
-        <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4" role="status">
-          <h2 className="font-extrabold text-ember-700">Worth a second look</h2>
-          <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
-            {plan.warnings.map((w) => (
-              <li key={w.code} data-code={w.code}>{speakLengths(w.message, unit)}</li>
-            ))}
-          </ul>
-        </div>
+    <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4" role="status">
+      <h2 className="font-extrabold text-ember-700">Worth a second look</h2>
+      <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
+        {plan.warnings.map((w) => (
+          <li key={w.code} data-code={w.code}>
+            {speakLengths(w.message, unit)}
+          </li>
+        ))}
+      </ul>
+    </div>
   ) : null;
 }
 
@@ -80,15 +96,15 @@ export function PlanWarnings({ plan, unit }: { plan: PublicPlan; unit: LengthUni
 export function PlanCautions({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
   const cautions = plan.cautions.filter((c) => c.audience !== "crew");
   return (
-      <div className="card p-4">
-        <h2 className="font-extrabold">Safety first</h2>
-        <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
-          {cautions.map((c) => (
-            <li key={c.code} data-code={c.code} className="border-l-3 border-ash-300 pl-3">
-              {speakLengths(c.message, unit)}
-            </li>
-          ))}
-        </ul>
-      </div>
+    <div className="card p-4">
+      <h2 className="font-extrabold">Safety first</h2>
+      <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
+        {cautions.map((c) => (
+          <li key={c.code} data-code={c.code} className="border-l-3 border-ash-300 pl-3">
+            {speakLengths(c.message, unit)}
+          </li>
+        ))}
+      </ul>
+    </div>
   );
 }

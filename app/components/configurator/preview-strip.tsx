@@ -55,16 +55,24 @@ export function PreviewStrip({
   if (!isShown) return null;
   const f = (inches: number) => formatLength(inches, unit);
   return (
-    <div className="fixed inset-x-0 top-0 z-30 border-b border-ash-300 bg-white/95 shadow-md backdrop-blur lg:hidden" data-testid="preview-strip">
+    <div
+      className="fixed inset-x-0 top-0 z-30 border-b border-ash-300 bg-white/95 shadow-md backdrop-blur lg:hidden"
+      data-testid="preview-strip"
+    >
       <div className="mx-auto flex max-w-3xl items-center gap-3 px-3 py-2">
         {sceneInput ? (
-          <div className="h-14 w-14 shrink-0 overflow-hidden rounded-md border border-ash-200 bg-ash-100" aria-hidden="true">
+          <div
+            className="h-14 w-14 shrink-0 overflow-hidden rounded-md border border-ash-200 bg-ash-100"
+            aria-hidden="true"
+          >
             <PitPlanSvg input={sceneInput} unit={unit} className="h-full w-full" />
           </div>
         ) : null}
         <div className="min-w-0 flex-1">
           <p className="text-lg leading-tight font-extrabold text-char-900 tabular-nums">
-            {plan.price ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}` : "Price on request"}
+            {plan.price
+              ? `${formatMoneyWhole(plan.price.lowCents)} – ${formatMoneyWhole(plan.price.highCents)}`
+              : "Price on request"}
           </p>
           <p className="truncate text-xs text-char-700">
             Bowl {f(plan.ring.bowlDiameterIn)} · {f(plan.ring.wallHeightIn)} high

@@ -7,7 +7,10 @@ import { shrinkPhoto } from "~/lib/format/photo-shrink";
 
 export type RequestFormState = { errors?: Record<string, string>; values?: Record<string, string> };
 
-type Sending = { step: "idle" } | { step: "preparing"; done: number; of: number } | { step: "uploading"; sentBytes: number; totalBytes: number };
+type Sending =
+  | { step: "idle" }
+  | { step: "preparing"; done: number; of: number }
+  | { step: "uploading"; sentBytes: number; totalBytes: number };
 
 /**
  * The homeowner's request: contact details, yard photos and consent; the design rides along.
@@ -17,7 +20,17 @@ type Sending = { step: "idle" } | { step: "preparing"; done: number; of: number 
  * upright, its EXIF location gone) and the form goes up through XMLHttpRequest, whose upload events
  * drive a progress bar; the server checks and re-encodes every photo either way.
  */
-export function RequestForm({ designQuery, state, companyName, companySlug }: { designQuery: string; state?: RequestFormState; companyName: string; companySlug: string }) {
+export function RequestForm({
+  designQuery,
+  state,
+  companyName,
+  companySlug,
+}: {
+  designQuery: string;
+  state?: RequestFormState;
+  companyName: string;
+  companySlug: string;
+}) {
   const [answer, setAnswer] = useState<RequestFormState | null>(null);
   const [attempt, setAttempt] = useState(0);
   const [sending, setSending] = useState<Sending>({ step: "idle" });
@@ -53,26 +66,46 @@ export function RequestForm({ designQuery, state, companyName, companySlug }: { 
       if (e.lengthComputable) setSending({ step: "uploading", sentBytes: e.loaded, totalBytes: e.total });
     });
     request.addEventListener("load", () => {
-      const reply = request.response as { location?: string; errors?: Record<string, string>; values?: Record<string, string> } | null;
+      const reply = request.response as {
+        location?: string;
+        errors?: Record<string, string>;
+        values?: Record<string, string>;
+      } | null;
       if (request.status === 200 && reply?.location) {
         navigate(reply.location);
         return;
       }
       refuse({
-        errors: reply?.errors ?? { form: `Your request was not sent (the server answered ${request.status}). Please try again.` },
+        errors: reply?.errors ?? {
+          form: `Your request was not sent (the server answered ${request.status}). Please try again.`,
+        },
         values: reply?.values ?? {},
       });
     });
-    request.addEventListener("error", () => refuse({ errors: { form: "Your request was not sent: the connection dropped. Check it and send again." }, values: {} }));
+    request.addEventListener("error", () =>
+      refuse({
+        errors: { form: "Your request was not sent: the connection dropped. Check it and send again." },
+        values: {},
+      }),
+    );
     setSending({ step: "uploading", sentBytes: 0, totalBytes: 1 });
     request.send(body);
   };
 
   return (
-    <Form method="post" encType="multipart/form-data" className="card flex flex-col gap-5 p-5 sm:p-6" noValidate id="request" onSubmit={send}>
+    <Form
+      method="post"
+      encType="multipart/form-data"
+      className="flex flex-col gap-5 card p-5 sm:p-6"
+      noValidate
+      id="request"
+      onSubmit={send}
+    >
       <div>
         <h2 className="text-2xl font-extrabold">Send this design to {companyName}</h2>
-        <p className="mt-1 text-char-600">They will look at it with your yard photos and get back to you with a visit or a firm price.</p>
+        <p className="mt-1 text-char-600">
+          They will look at it with your yard photos and get back to you with a visit or a firm price.
+        </p>
       </div>
       {Object.keys(errors).length ? (
         <FormAlert key={attempt}>
@@ -81,24 +114,75 @@ export function RequestForm({ designQuery, state, companyName, companySlug }: { 
       ) : null}
       <input type="hidden" name="design" value={designQuery} />
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-1">
-        <TextField label="Your name" name="customerName" autoComplete="name" defaultValue={values.customerName} error={errors.customerName} />
-        <TextField label="E-mail" name="email" type="email" autoComplete="email" defaultValue={values.email} error={errors.email} />
-        <TextField label="Phone" name="phone" type="tel" autoComplete="tel" defaultValue={values.phone} error={errors.phone} />
-        <SelectField label="When do you hope to build?" name="buildWindow" defaultValue={values.buildWindow ?? "one-to-three-months"} error={errors.buildWindow}>
+        <TextField
+          label="Your name"
+          name="customerName"
+          autoComplete="name"
+          defaultValue={values.customerName}
+          error={errors.customerName}
+        />
+        <TextField
+          label="E-mail"
+          name="email"
+          type="email"
+          autoComplete="email"
+          defaultValue={values.email}
+          error={errors.email}
+        />
+        <TextField
+          label="Phone"
+          name="phone"
+          type="tel"
+          autoComplete="tel"
+          defaultValue={values.phone}
+          error={errors.phone}
+        />
+        <SelectField
+          label="When do you hope to build?"
+          name="buildWindow"
+          defaultValue={values.buildWindow ?? "one-to-three-months"}
+          error={errors.buildWindow}
+        >
           {BUILD_WINDOWS.map((w) => (
-            <option key={w} value={w}>{BUILD_WINDOW_LABEL[w]}</option>
+            <option key={w} value={w}>
+              {BUILD_WINDOW_LABEL[w]}
+            </option>
           ))}
         </SelectField>
-        <TextField label="Street address" name="street" autoComplete="street-address" defaultValue={values.street} error={errors.street} />
-        <TextField label="Town" name="town" autoComplete="address-level2" defaultValue={values.town} error={errors.town} />
+        <TextField
+          label="Street address"
+          name="street"
+          autoComplete="street-address"
+          defaultValue={values.street}
+          error={errors.street}
+        />
+        <TextField
+          label="Town"
+          name="town"
+          autoComplete="address-level2"
+          defaultValue={values.town}
+          error={errors.town}
+        />
       </div>
       <div>
-        <label htmlFor="request-notes" className="field-label">Anything else? (optional)</label>
-        <textarea id="request-notes" name="notes" rows={3} maxLength={2000} defaultValue={values.notes} className="field-input" aria-invalid={errors.notes ? true : undefined} />
+        <label htmlFor="request-notes" className="field-label">
+          Anything else? (optional)
+        </label>
+        <textarea
+          id="request-notes"
+          name="notes"
+          rows={3}
+          maxLength={2000}
+          defaultValue={values.notes}
+          className="field-input"
+          aria-invalid={errors.notes ? true : undefined}
+        />
         {errors.notes ? <p className="field-error">{errors.notes}</p> : null}
       </div>
       <div>
-        <label htmlFor="request-photos" className="field-label">Photos of the spot (up to 6; JPEG, PNG or WebP, 10 MB each)</label>
+        <label htmlFor="request-photos" className="field-label">
+          Photos of the spot (up to 6; JPEG, PNG or WebP, 10 MB each)
+        </label>
         <input
           id="request-photos"
           name="photos"
@@ -109,7 +193,11 @@ export function RequestForm({ designQuery, state, companyName, companySlug }: { 
           aria-describedby={errors.photos ? "request-photos-error" : undefined}
           className="mt-1 block w-full text-sm file:mr-3 file:rounded-lg file:border-0 file:bg-ash-200 file:px-3 file:py-2 file:font-bold file:text-char-800"
         />
-        {errors.photos ? <p id="request-photos-error" className="field-error">{errors.photos}</p> : null}
+        {errors.photos ? (
+          <p id="request-photos-error" className="field-error">
+            {errors.photos}
+          </p>
+        ) : null}
       </div>
       {/* Left empty by people; bots fill every field they find. */}
       <div aria-hidden="true" className="absolute -left-[9999px] h-px w-px overflow-hidden">
@@ -118,8 +206,15 @@ export function RequestForm({ designQuery, state, companyName, companySlug }: { 
       </div>
       <div>
         <label className="flex items-start gap-3 text-sm text-char-700">
-          <input type="checkbox" name="consent" className="mt-0.5 h-5 w-5 shrink-0 accent-ember-500" aria-invalid={errors.consent ? true : undefined} />
-          <span>{companyName} may contact me by e-mail or phone about this request. My details are used for nothing else.</span>
+          <input
+            type="checkbox"
+            name="consent"
+            className="mt-0.5 h-5 w-5 shrink-0 accent-ember-500"
+            aria-invalid={errors.consent ? true : undefined}
+          />
+          <span>
+            {companyName} may contact me by e-mail or phone about this request. My details are used for nothing else.
+          </span>
         </label>
         {errors.consent ? <p className="field-error">{errors.consent}</p> : null}
       </div>
@@ -137,7 +232,12 @@ export function RequestForm({ designQuery, state, companyName, companySlug }: { 
             <label htmlFor="request-progress" className="text-sm font-semibold text-char-700">
               Sending your request: {Math.round((100 * sending.sentBytes) / Math.max(1, sending.totalBytes))}%
             </label>
-            <progress id="request-progress" className="mt-1 block h-3 w-full overflow-hidden rounded-full [&::-moz-progress-bar]:bg-action [&::-webkit-progress-bar]:bg-ash-200 [&::-webkit-progress-value]:bg-action" max={sending.totalBytes} value={sending.sentBytes} />
+            <progress
+              id="request-progress"
+              className="mt-1 block h-3 w-full overflow-hidden rounded-full [&::-moz-progress-bar]:bg-action [&::-webkit-progress-bar]:bg-ash-200 [&::-webkit-progress-value]:bg-action"
+              max={sending.totalBytes}
+              value={sending.sentBytes}
+            />
           </div>
         ) : null}
       </div>

@@ -65,7 +65,11 @@ export function useLivePlan(args: {
     setSentKey(designToSearchParams(next).toString());
     // The body is a typed plan request; React Router's JSON type does not accept optional fields,
     // hence the cast (the server parses it with planRequestSchema).
-    fetcher.submit(designToPlanRequest(next, companySlug, catalog, factors) as never, { method: "post", action: "/api/plan", encType: "application/json" });
+    fetcher.submit(designToPlanRequest(next, companySlug, catalog, factors) as never, {
+      method: "post",
+      action: "/api/plan",
+      encType: "application/json",
+    });
   };
   const flush = () => {
     timer.current = null;

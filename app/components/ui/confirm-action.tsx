@@ -37,13 +37,26 @@ export function ConfirmAction({
   }, [isAsking]);
   if (!isAsking) {
     return (
-      <button ref={openerRef} type="button" className="btn-quiet" disabled={disabled} aria-label={accessibleLabel} onClick={() => setIsAsking(true)}>
+      <button
+        ref={openerRef}
+        type="button"
+        className="btn-quiet"
+        disabled={disabled}
+        aria-label={accessibleLabel}
+        onClick={() => setIsAsking(true)}
+      >
         {label}
       </button>
     );
   }
   return (
-    <div ref={questionRef} tabIndex={-1} role="group" aria-label={accessibleLabel ?? label} className="flex max-w-md flex-col gap-3 rounded-lg border border-alert-600/40 bg-alert-100 p-3 text-sm">
+    <div
+      ref={questionRef}
+      tabIndex={-1}
+      role="group"
+      aria-label={accessibleLabel ?? label}
+      className="flex max-w-md flex-col gap-3 rounded-lg border border-alert-600/40 bg-alert-100 p-3 text-sm"
+    >
       <p className="font-semibold text-char-900">{question}</p>
       <div className="flex flex-wrap gap-2">
         <Form method="post" action={action}>

@@ -30,11 +30,21 @@ export function TextField({ label, name, error, hint, suffix, className, ...inpu
           {...input}
         />
         {suffix ? (
-          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">{suffix}</span>
+          <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">
+            {suffix}
+          </span>
         ) : null}
       </div>
-      {hint ? <p id={hintId} className="field-hint">{hint}</p> : null}
-      {error ? <p id={errorId} className="field-error">{error}</p> : null}
+      {hint ? (
+        <p id={hintId} className="field-hint">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={errorId} className="field-error">
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }
@@ -64,8 +74,16 @@ export function SelectField({ label, name, error, hint, children, className, ...
       >
         {children}
       </select>
-      {hint ? <p id={`${id}-hint`} className="field-hint">{hint}</p> : null}
-      {error ? <p id={`${id}-error`} className="field-error">{error}</p> : null}
+      {hint ? (
+        <p id={`${id}-hint`} className="field-hint">
+          {hint}
+        </p>
+      ) : null}
+      {error ? (
+        <p id={`${id}-error`} className="field-error">
+          {error}
+        </p>
+      ) : null}
     </div>
   );
 }
@@ -95,7 +113,12 @@ export function FormAlert({ children, className = "" }: { children: ReactNode; c
     }
   }, [navigation.state, navigation.formMethod]);
   return (
-    <div ref={ref} tabIndex={-1} role="alert" className={`rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 ${className}`}>
+    <div
+      ref={ref}
+      tabIndex={-1}
+      role="alert"
+      className={`rounded-lg border border-alert-600/30 bg-alert-100 px-4 py-3 text-sm font-semibold text-alert-700 ${className}`}
+    >
       {children}
     </div>
   );

@@ -51,7 +51,9 @@ export type SignedIn = { id: number; role: string; companyId: number };
 /** Checks an e-mail and password from `address` (a bucket from clientAddress); throws SignInError. */
 export async function verifySignIn(form: FormData, address: string): Promise<SignedIn> {
   const parsed = signInFormSchema.safeParse({
-    email: String(form.get("email") ?? "").trim().toLowerCase(),
+    email: String(form.get("email") ?? "")
+      .trim()
+      .toLowerCase(),
     password: String(form.get("password") ?? ""),
   });
   if (!parsed.success) throw new SignInError(SIGN_IN_FAILED, 400);

@@ -48,13 +48,7 @@ export async function getSessionUser(request: Request): Promise<SessionUser | nu
     })
     .from(sessions)
     .innerJoin(users, eq(users.id, sessions.userId))
-    .where(
-      and(
-        eq(sessions.id, sessionId),
-        gt(sessions.expiresAt, new Date().toISOString()),
-        eq(users.isActive, true),
-      ),
-    )
+    .where(and(eq(sessions.id, sessionId), gt(sessions.expiresAt, new Date().toISOString()), eq(users.isActive, true)))
     .limit(1);
   return row ? { ...row, sessionId } : null;
 }

@@ -12,12 +12,21 @@ export const teamActionSchema = z.discriminatedUnion(
   [
     z.object({
       intent: z.literal("invite"),
-      name: z.string().overwrite(toSingleLine).trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
+      name: z
+        .string()
+        .overwrite(toSingleLine)
+        .trim()
+        .min(2, "Name must be 2 to 80 characters.")
+        .max(80, "Name must be 2 to 80 characters."),
       email: z
         .string()
         .trim()
         .toLowerCase()
-        .pipe(z.email("Enter an e-mail address like someone@example.com.").max(254, "E-mail must be at most 254 characters.")),
+        .pipe(
+          z
+            .email("Enter an e-mail address like someone@example.com.")
+            .max(254, "E-mail must be at most 254 characters."),
+        ),
       role,
     }),
     z.object({ intent: z.literal("role"), userId, role }),

@@ -8,12 +8,26 @@ import { createToken, oneTimeLinkPath } from "~/lib/auth/tokens.server";
 
 type StaffRole = (typeof STAFF_ROLES)[number];
 
-export type TeamMember = { id: number; name: string; email: string; role: Role; isActive: boolean; hasPassword: boolean };
+export type TeamMember = {
+  id: number;
+  name: string;
+  email: string;
+  role: Role;
+  isActive: boolean;
+  hasPassword: boolean;
+};
 
 /** A company's staff (owners, estimators, crew), by name; homeowners are customers, not staff. */
 export async function listTeam(companyId: number): Promise<TeamMember[]> {
   const rows = await db
-    .select({ id: users.id, name: users.name, email: users.email, role: users.role, isActive: users.isActive, passwordHash: users.passwordHash })
+    .select({
+      id: users.id,
+      name: users.name,
+      email: users.email,
+      role: users.role,
+      isActive: users.isActive,
+      passwordHash: users.passwordHash,
+    })
     .from(users)
     .where(and(eq(users.companyId, companyId), inArray(users.role, [...STAFF_ROLES])))
     .orderBy(asc(users.name));
@@ -21,14 +35,41 @@ export async function listTeam(companyId: number): Promise<TeamMember[]> {
 }
 
 /** One active staff member of the company with one of the roles, or null. */
-export async function findActiveStaff(companyId: number, userId: number, roles: readonly Role[]): Promise<TeamMember | null> {
+export async function findActiveStaff(
+  companyId: number,
+  userId: number,
+  roles: readonly Role[],
+): Promise<TeamMember | null> {
   const team = await db
-    .select({ id: users.id, name: users.name, email: users.email, role: users.role, isActive: users.isActive, passwordHash: users.passwordHash })
+    .select({
+      id: users.id,
+      name: users.name,
+      email: users.email,
+      role: users.role,
+      isActive: users.isActive,
+      passwordHash: users.passwordHash,
+    })
     .from(users)
-    .where(and(eq(users.id, userId), eq(users.companyId, companyId), eq(users.isActive, true), inArray(users.role, [...roles])))
+    .where(
+      and(
+        eq(users.id, userId),
+        eq(users.companyId, companyId),
+        eq(users.isActive, true),
+        inArray(users.role, [...roles]),
+      ),
+    )
     .limit(1);
   const row = team[0];
-  return row ? { id: row.id, name: row.name, email: row.email, role: row.role, isActive: row.isActive, hasPassword: row.passwordHash !== null } : null;
+  return row
+    ? {
+        id: row.id,
+        name: row.name,
+        email: row.email,
+        role: row.role,
+        isActive: row.isActive,
+        hasPassword: row.passwordHash !== null,
+      }
+    : null;
 }
 
 export type TeamResult = { ok: true; message: string } | { ok: false; status: number; errors: Record<string, string> };
@@ -49,7 +90,11 @@ export async function inviteStaff(args: {
 }): Promise<TeamResult> {
   const { owner, company, name, email, role, origin } = args;
   const sent: TeamResult = { ok: true, message: `Invitation sent to ${email}.` };
-  const [taken] = await db.select({ id: users.id, companyId: users.companyId, role: users.role }).from(users).where(eq(users.email, email)).limit(1);
+  const [taken] = await db
+    .select({ id: users.id, companyId: users.companyId, role: users.role })
+    .from(users)
+    .where(eq(users.email, email))
+    .limit(1);
   if (taken && taken.companyId === company.id && taken.role !== "homeowner") {
     // Already on this owner's own team, which the team page lists anyway.
     return { ok: false, status: 400, errors: { email: "That person is already on your team." } };
@@ -74,11 +119,21 @@ export async function inviteStaff(args: {
     companyId: company.id,
     to: email,
     subject: `${owner.name} invited you to ${company.name} on Emberwright`,
-    template: StaffInviteEmail({ companyName: company.name, name, invitedBy: owner.name, role, link: `${origin}${oneTimeLinkPath(token)}`, days: INVITE_DAYS }),
+    template: StaffInviteEmail({
+      companyName: company.name,
+      name,
+      invitedBy: owner.name,
+      role,
+      link: `${origin}${oneTimeLinkPath(token)}`,
+      days: INVITE_DAYS,
+    }),
   });
   try {
     await writeTransaction(async (tx) => {
-      const [created] = await tx.insert(users).values({ companyId: company.id, email, name, role }).returning({ id: users.id });
+      const [created] = await tx
+        .insert(users)
+        .values({ companyId: company.id, email, name, role })
+        .returning({ id: users.id });
       await tx.insert(oneTimeTokens).values({
         tokenHash,
         userId: created!.id,
@@ -108,11 +163,15 @@ const NOT_FOUND: TeamResult = { ok: false, status: 404, errors: { userId: "No su
 
 /** Changes another staff member's role; owners cannot change their own (so a company always keeps one). */
 export async function changeRole(owner: SessionUser, userId: number, role: StaffRole): Promise<TeamResult> {
-  if (userId === owner.id) return { ok: false, status: 400, errors: { role: "You cannot change your own role. Ask another owner." } };
+  if (userId === owner.id)
+    return { ok: false, status: 400, errors: { role: "You cannot change your own role. Ask another owner." } };
   const member = await findMember(owner.companyId, userId);
   if (!member) return NOT_FOUND;
   if (member.role === role) return { ok: false, status: 400, errors: { role: `${member.name} is already ${role}.` } };
-  await db.update(users).set({ role }).where(and(eq(users.id, userId), eq(users.companyId, owner.companyId)));
+  await db
+    .update(users)
+    .set({ role })
+    .where(and(eq(users.id, userId), eq(users.companyId, owner.companyId)));
   return { ok: true, message: `${member.name} is now ${role === "crew" ? "on the crew" : `an ${role}`}.` };
 }
 
@@ -122,9 +181,21 @@ export async function setActive(owner: SessionUser, userId: number, isActive: bo
   const member = await findMember(owner.companyId, userId);
   if (!member) return NOT_FOUND;
   if (member.isActive === isActive) {
-    return { ok: false, status: 400, errors: { userId: `${member.name} is already ${isActive ? "active" : "deactivated"}.` } };
+    return {
+      ok: false,
+      status: 400,
+      errors: { userId: `${member.name} is already ${isActive ? "active" : "deactivated"}.` },
+    };
   }
-  await db.update(users).set({ isActive }).where(and(eq(users.id, userId), eq(users.companyId, owner.companyId)));
+  await db
+    .update(users)
+    .set({ isActive })
+    .where(and(eq(users.id, userId), eq(users.companyId, owner.companyId)));
   if (!isActive) await endAllSessions(userId);
-  return { ok: true, message: isActive ? `${member.name} can sign in again.` : `${member.name} is deactivated and signed out everywhere.` };
+  return {
+    ok: true,
+    message: isActive
+      ? `${member.name} can sign in again.`
+      : `${member.name} is deactivated and signed out everywhere.`,
+  };
 }

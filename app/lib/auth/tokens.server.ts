@@ -39,16 +39,35 @@ export function oneTimeLinkPath(token: string): string {
  * a request keeps only that power (it becomes a "confirm-request" link), the rest stop working.
  * Links that only confirm a request grant no sign-in and live side by side, one per request.
  */
-export async function issueOneTimeToken(tx: Tx, args: { userId: number; purpose: Purpose; days: number; leadId?: number | null }): Promise<string> {
+export async function issueOneTimeToken(
+  tx: Tx,
+  args: { userId: number; purpose: Purpose; days: number; leadId?: number | null },
+): Promise<string> {
   const { userId, purpose, days, leadId = null } = args;
   const now = new Date();
   if (purpose !== "confirm-request") {
-    const live = and(eq(oneTimeTokens.userId, userId), isNull(oneTimeTokens.usedAt), inArray(oneTimeTokens.purpose, ["set-password", "invite"]));
-    await tx.update(oneTimeTokens).set({ purpose: "confirm-request" }).where(and(live, isNotNull(oneTimeTokens.leadId)));
-    await tx.update(oneTimeTokens).set({ usedAt: now.toISOString() }).where(and(live, isNull(oneTimeTokens.leadId)));
+    const live = and(
+      eq(oneTimeTokens.userId, userId),
+      isNull(oneTimeTokens.usedAt),
+      inArray(oneTimeTokens.purpose, ["set-password", "invite"]),
+    );
+    await tx
+      .update(oneTimeTokens)
+      .set({ purpose: "confirm-request" })
+      .where(and(live, isNotNull(oneTimeTokens.leadId)));
+    await tx
+      .update(oneTimeTokens)
+      .set({ usedAt: now.toISOString() })
+      .where(and(live, isNull(oneTimeTokens.leadId)));
   }
   const { token, tokenHash } = createToken();
-  await tx.insert(oneTimeTokens).values({ tokenHash, userId, purpose, leadId, expiresAt: new Date(now.getTime() + days * 86_400_000).toISOString() });
+  await tx.insert(oneTimeTokens).values({
+    tokenHash,
+    userId,
+    purpose,
+    leadId,
+    expiresAt: new Date(now.getTime() + days * 86_400_000).toISOString(),
+  });
   return token;
 }
 
@@ -87,7 +106,12 @@ class LinkNotLive extends Error {}
  * Spends a token of one of `purposes` if it is still unused and unexpired at `now`: one conditional
  * UPDATE, so of two uses at the same moment only one gets the row back. Null for a dead link.
  */
-async function consumeToken(tx: Tx, token: string, purposes: Purpose[], now: string): Promise<{ userId: number; leadId: number | null } | null> {
+async function consumeToken(
+  tx: Tx,
+  token: string,
+  purposes: Purpose[],
+  now: string,
+): Promise<{ userId: number; leadId: number | null } | null> {
   const [used] = await tx
     .update(oneTimeTokens)
     .set({ usedAt: now })
@@ -108,7 +132,10 @@ async function consumeToken(tx: Tx, token: string, purposes: Purpose[], now: str
  * if it was still unused, unexpired and its account active, and only then is the password written.
  * A second use at the same moment finds it used and changes nothing. Returns null for a dead link.
  */
-export async function setPasswordWithToken(token: string, passwordHash: string): Promise<{ id: number; role: (typeof users.$inferSelect)["role"] } | null> {
+export async function setPasswordWithToken(
+  token: string,
+  passwordHash: string,
+): Promise<{ id: number; role: (typeof users.$inferSelect)["role"] } | null> {
   try {
     return await writeTransaction(async (tx) => {
       const now = new Date().toISOString();
@@ -125,7 +152,13 @@ export async function setPasswordWithToken(token: string, passwordHash: string):
       await tx
         .update(oneTimeTokens)
         .set({ usedAt: now })
-        .where(and(eq(oneTimeTokens.userId, user.id), isNull(oneTimeTokens.usedAt), inArray(oneTimeTokens.purpose, ["set-password", "invite"])));
+        .where(
+          and(
+            eq(oneTimeTokens.userId, user.id),
+            isNull(oneTimeTokens.usedAt),
+            inArray(oneTimeTokens.purpose, ["set-password", "invite"]),
+          ),
+        );
       return user;
     });
   } catch (error) {
@@ -136,7 +169,10 @@ export async function setPasswordWithToken(token: string, passwordHash: string):
 
 /** Puts a request in the account's own list; only a request that no account holds yet. */
 async function attachLead(tx: Tx, leadId: number, userId: number): Promise<void> {
-  await tx.update(leads).set({ homeownerId: userId }).where(and(eq(leads.id, leadId), isNull(leads.homeownerId)));
+  await tx
+    .update(leads)
+    .set({ homeownerId: userId })
+    .where(and(eq(leads.id, leadId), isNull(leads.homeownerId)));
 }
 
 /**

@@ -66,12 +66,17 @@ function eventAttributes(event: BuildEvent, status: "CONFIRMED" | "CANCELLED"): 
 // The ics package writes EXDATE with date values but without VALUE=DATE, which RFC 5545 (3.8.5.1)
 // needs when the value is a date; the start is a date, so the exclusions must be dates too.
 function withDateExclusions(text: string): string {
-  return text.replace(/^EXDATE:(\d{8}(?:,\d{8})*)\r?$/gm, (line, values: string) => line.replace(`EXDATE:${values}`, `EXDATE;VALUE=DATE:${values}`));
+  return text.replace(/^EXDATE:(\d{8}(?:,\d{8})*)\r?$/gm, (line, values: string) =>
+    line.replace(`EXDATE:${values}`, `EXDATE;VALUE=DATE:${values}`),
+  );
 }
 
 /** The file sent with a booking or a move (METHOD:REQUEST), or with a cancellation (METHOD:CANCEL). */
 export function buildCalendarFile(event: BuildEvent, kind: "booked" | "cancelled"): string {
-  const { value, error } = createEvent({ ...eventAttributes(event, kind === "cancelled" ? "CANCELLED" : "CONFIRMED"), method: kind === "cancelled" ? "CANCEL" : "REQUEST" });
+  const { value, error } = createEvent({
+    ...eventAttributes(event, kind === "cancelled" ? "CANCELLED" : "CONFIRMED"),
+    method: kind === "cancelled" ? "CANCEL" : "REQUEST",
+  });
   if (error || !value) throw error ?? new Error("the calendar file could not be written");
   return withDateExclusions(value);
 }
@@ -82,7 +87,15 @@ export function buildCalendarFeed(events: readonly BuildEvent[], name: string): 
   const calendarName = name.replace(/[\r\n]+/g, " ");
   if (events.length === 0) {
     // The ics package refuses an empty list; an empty calendar is still a valid feed.
-    return ["BEGIN:VCALENDAR", "VERSION:2.0", `PRODID:${PRODUCT_ID}`, "METHOD:PUBLISH", `X-WR-CALNAME:${calendarName}`, "END:VCALENDAR", ""].join("\r\n");
+    return [
+      "BEGIN:VCALENDAR",
+      "VERSION:2.0",
+      `PRODID:${PRODUCT_ID}`,
+      "METHOD:PUBLISH",
+      `X-WR-CALNAME:${calendarName}`,
+      "END:VCALENDAR",
+      "",
+    ].join("\r\n");
   }
   const { value, error } = createEvents(
     events.map((event) => eventAttributes(event, "CONFIRMED")),

@@ -1,8 +1,30 @@
 import { createHash, randomBytes } from "node:crypto";
 import { and, asc, desc, eq, gte, inArray, lte } from "drizzle-orm";
 import { BuildBookedEmail, BuildCancelledEmail, BuildCrewEmail, BuildReminderEmail } from "~/emails/build-emails";
-import { buildCrew, builds, companies, consultBlockedDays, emailOutbox, leadEvents, leads, proposals, users, type Build, type Company, type Lead } from "~/db/schema";
-import { addCalendarDays, buildDates, buildDaysNeeded, findClashes, isCalendarDate, type CalendarDate, type Clash, type WorkCalendar } from "~/domain/build-schedule";
+import {
+  buildCrew,
+  builds,
+  companies,
+  consultBlockedDays,
+  emailOutbox,
+  leadEvents,
+  leads,
+  proposals,
+  users,
+  type Build,
+  type Company,
+  type Lead,
+} from "~/db/schema";
+import {
+  addCalendarDays,
+  buildDates,
+  buildDaysNeeded,
+  findClashes,
+  isCalendarDate,
+  type CalendarDate,
+  type Clash,
+  type WorkCalendar,
+} from "~/domain/build-schedule";
 import { buildCalendarFeed, buildCalendarFile, type BuildEvent } from "~/lib/builds/build-calendar";
 import { readStoredPlan } from "~/lib/design/stored-plan";
 import { zonedDay, zonedTimeToUtc } from "~/lib/format/zoned-time";
@@ -28,7 +50,10 @@ export type BuildResult = { ok: true; build: Build } | BuildFailure;
 
 /** The company's week and days off (shared with consults), as the scheduling rules read them. */
 export async function workCalendarFor(company: Company): Promise<WorkCalendar> {
-  const days = await db.select({ day: consultBlockedDays.day }).from(consultBlockedDays).where(eq(consultBlockedDays.companyId, company.id));
+  const days = await db
+    .select({ day: consultBlockedDays.day })
+    .from(consultBlockedDays)
+    .where(eq(consultBlockedDays.companyId, company.id));
   return { workWeekdays: parseWorkWeekdays(company.workWeekdaysJson), daysOff: new Set(days.map((d) => d.day)) };
 }
 
@@ -47,7 +72,14 @@ export async function jobLabourHours(lead: Lead): Promise<number> {
   const [signed] = await db
     .select({ designJson: proposals.designJson, planJson: proposals.planJson })
     .from(proposals)
-    .where(and(eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId), eq(proposals.kind, "proposal"), eq(proposals.status, "signed")))
+    .where(
+      and(
+        eq(proposals.leadId, lead.id),
+        eq(proposals.companyId, lead.companyId),
+        eq(proposals.kind, "proposal"),
+        eq(proposals.status, "signed"),
+      ),
+    )
     .orderBy(desc(proposals.id))
     .limit(1);
   if (signed) return readStoredPlan(signed).plan.labour.hours;
@@ -78,14 +110,26 @@ export async function listBuilds(companyId: number, fromDay: CalendarDate, toDay
     .select({ build: builds, customerName: leads.customerName, street: leads.street, town: leads.town })
     .from(builds)
     .innerJoin(leads, eq(leads.id, builds.leadId))
-    .where(and(eq(builds.companyId, companyId), eq(builds.status, "booked"), lte(builds.firstDay, toDay), gte(builds.lastDay, fromDay)))
+    .where(
+      and(
+        eq(builds.companyId, companyId),
+        eq(builds.status, "booked"),
+        lte(builds.firstDay, toDay),
+        gte(builds.lastDay, fromDay),
+      ),
+    )
     .orderBy(asc(builds.firstDay));
   const crew = rows.length
     ? await db
         .select({ buildId: buildCrew.buildId, userId: users.id, name: users.name })
         .from(buildCrew)
         .innerJoin(users, eq(users.id, buildCrew.userId))
-        .where(inArray(buildCrew.buildId, rows.map((r) => r.build.id)))
+        .where(
+          inArray(
+            buildCrew.buildId,
+            rows.map((r) => r.build.id),
+          ),
+        )
     : [];
   return rows.map((r) => ({
     ...r.build,
@@ -98,9 +142,17 @@ export async function listBuilds(companyId: number, fromDay: CalendarDate, toDay
 
 /** The job's booked build, if any. */
 export async function findBookedBuild(lead: Lead) {
-  const [build] = await db.select().from(builds).where(and(eq(builds.leadId, lead.id), eq(builds.companyId, lead.companyId), eq(builds.status, "booked"))).limit(1);
+  const [build] = await db
+    .select()
+    .from(builds)
+    .where(and(eq(builds.leadId, lead.id), eq(builds.companyId, lead.companyId), eq(builds.status, "booked")))
+    .limit(1);
   if (!build) return null;
-  const crew = await db.select({ id: users.id, name: users.name }).from(buildCrew).innerJoin(users, eq(users.id, buildCrew.userId)).where(eq(buildCrew.buildId, build.id));
+  const crew = await db
+    .select({ id: users.id, name: users.name })
+    .from(buildCrew)
+    .innerJoin(users, eq(users.id, buildCrew.userId))
+    .where(eq(buildCrew.buildId, build.id));
   return { ...build, dates: parseBuildDates(build), crew };
 }
 
@@ -109,22 +161,43 @@ async function activeCrew(companyId: number, ids: readonly number[]) {
   return db
     .select({ id: users.id, name: users.name, email: users.email })
     .from(users)
-    .where(and(eq(users.companyId, companyId), inArray(users.id, [...ids]), eq(users.isActive, true), inArray(users.role, ["crew", "owner"])));
+    .where(
+      and(
+        eq(users.companyId, companyId),
+        inArray(users.id, [...ids]),
+        eq(users.isActive, true),
+        inArray(users.role, ["crew", "owner"]),
+      ),
+    );
 }
 
 /** Clashes of the proposed days with the company's other builds, its days off and its week. */
-async function clashesFor(company: Company, calendar: WorkCalendar, buildId: number, dates: CalendarDate[], crewIds: number[], names: Map<number, string>): Promise<string[]> {
+async function clashesFor(
+  company: Company,
+  calendar: WorkCalendar,
+  buildId: number,
+  dates: CalendarDate[],
+  crewIds: number[],
+  names: Map<number, string>,
+): Promise<string[]> {
   const others = await listBuilds(company.id, dates[0]!, dates.at(-1)!);
   for (const other of others) for (const person of other.crew) names.set(person.id, person.name);
   const clashes = findClashes(
     { id: buildId, label: "this", crewUserIds: crewIds, dates },
-    others.filter((o) => o.id !== buildId).map((o) => ({ id: o.id, label: o.customerName, crewUserIds: o.crew.map((c) => c.id), dates: o.dates })),
+    others
+      .filter((o) => o.id !== buildId)
+      .map((o) => ({ id: o.id, label: o.customerName, crewUserIds: o.crew.map((c) => c.id), dates: o.dates })),
     calendar,
   );
   return clashes.map((c) => describeClash(c, names));
 }
 
-function eventFor(build: { id: number; sequence: number }, dates: CalendarDate[], company: Company, lead: Lead): BuildEvent {
+function eventFor(
+  build: { id: number; sequence: number },
+  dates: CalendarDate[],
+  company: Company,
+  lead: Lead,
+): BuildEvent {
   return {
     buildId: build.id,
     sequence: build.sequence,
@@ -150,7 +223,11 @@ async function buildMail(args: {
   const { kind, build, dates, company, lead } = args;
   const ics = buildCalendarFile(eventFor(build, dates, company, lead), kind === "cancelled" ? "cancelled" : "booked");
   const attachments = [
-    { filename: kind === "cancelled" ? "fire-pit-build-cancelled.ics" : "fire-pit-build.ics", content: Buffer.from(ics).toString("base64"), contentType: `text/calendar; method=${kind === "cancelled" ? "CANCEL" : "REQUEST"}` },
+    {
+      filename: kind === "cancelled" ? "fire-pit-build-cancelled.ics" : "fire-pit-build.ics",
+      content: Buffer.from(ics).toString("base64"),
+      contentType: `text/calendar; method=${kind === "cancelled" ? "CANCEL" : "REQUEST"}`,
+    },
   ];
   const days = describeBuildDays(dates);
   const address = `${lead.street}, ${lead.town}`;
@@ -160,7 +237,10 @@ async function buildMail(args: {
       idempotencyKey: `build-${kind}/${build.id}/${build.sequence}`,
       companyId: company.id,
       to: lead.email,
-      subject: kind === "cancelled" ? `Build dates cancelled: ${company.name}` : `${kind === "moved" ? "New build dates" : "Your fire pit build"}: ${days}`,
+      subject:
+        kind === "cancelled"
+          ? `Build dates cancelled: ${company.name}`
+          : `${kind === "moved" ? "New build dates" : "Your fire pit build"}: ${days}`,
       template:
         kind === "cancelled"
           ? BuildCancelledEmail({ ...common, recipientName: lead.customerName, reason: args.reason ?? "" })
@@ -175,7 +255,13 @@ async function buildMail(args: {
         companyId: company.id,
         to: person.email,
         subject: `${kind === "cancelled" ? "Build cancelled" : kind === "moved" ? "Build moved" : "Build"}: ${lead.customerName}, ${days}`,
-        template: BuildCrewEmail({ ...common, recipientName: person.name, customerName: lead.customerName, kind, jobLink: `${args.origin}/app/leads/${lead.id}` }),
+        template: BuildCrewEmail({
+          ...common,
+          recipientName: person.name,
+          customerName: lead.customerName,
+          kind,
+          jobLink: `${args.origin}/app/leads/${lead.id}`,
+        }),
         attachments,
       }),
     );
@@ -200,7 +286,13 @@ async function buildMail(args: {
   return rows;
 }
 
-type BookInput = { start: CalendarDate; crewUserIds: number[]; days: number | null; notes: string; allowClash: boolean };
+type BookInput = {
+  start: CalendarDate;
+  crewUserIds: number[];
+  days: number | null;
+  notes: string;
+  allowClash: boolean;
+};
 
 /** Works out the days and checks the crew; shared by booking and moving. */
 async function prepareDays(
@@ -212,29 +304,62 @@ async function prepareDays(
   const calendar = await workCalendarFor(company);
   const crew = await activeCrew(company.id, input.crewUserIds);
   if (input.crewUserIds.length === 0 || crew.length !== new Set(input.crewUserIds).size) {
-    return { ok: false as const, status: 400 as const, errors: { crewUserIds: "Choose one or more active crew members of your company." } };
+    return {
+      ok: false as const,
+      status: 400 as const,
+      errors: { crewUserIds: "Choose one or more active crew members of your company." },
+    };
   }
-  const days = input.days ?? buildDaysNeeded({ labourHours, crewSize: Math.max(crew.length, company.crewSize), dayHours: company.crewDayHours });
+  const days =
+    input.days ??
+    buildDaysNeeded({ labourHours, crewSize: Math.max(crew.length, company.crewSize), dayHours: company.crewDayHours });
   let dates: CalendarDate[];
   try {
     dates = buildDates(input.start, days, calendar);
   } catch {
-    return { ok: false as const, status: 400 as const, errors: { start: "No working day to start on: check the working weekdays and days off." } };
+    return {
+      ok: false as const,
+      status: 400 as const,
+      errors: { start: "No working day to start on: check the working weekdays and days off." },
+    };
   }
   const names = new Map(crew.map((c) => [c.id, c.name]));
-  const clashes = await clashesFor(company, calendar, buildId, dates, crew.map((c) => c.id), names);
+  const clashes = await clashesFor(
+    company,
+    calendar,
+    buildId,
+    dates,
+    crew.map((c) => c.id),
+    names,
+  );
   if (clashes.length && !input.allowClash) {
-    return { ok: false as const, status: 409 as const, errors: { start: "These days clash with other bookings. Choose other days, or tick “Book anyway”." }, clashes };
+    return {
+      ok: false as const,
+      status: 409 as const,
+      errors: { start: "These days clash with other bookings. Choose other days, or tick “Book anyway”." },
+      clashes,
+    };
   }
   return { ok: true, dates, crew };
 }
 
 /** Books the job's build; the job moves to "build booked" and everyone gets the calendar event. */
-export async function bookBuild(user: BuildActor, lead: Lead, company: Company, input: BookInput, origin: string): Promise<BuildResult> {
+export async function bookBuild(
+  user: BuildActor,
+  lead: Lead,
+  company: Company,
+  input: BookInput,
+  origin: string,
+): Promise<BuildResult> {
   if (!(BOOKABLE_STAGES as readonly string[]).includes(lead.status)) {
-    return { ok: false, status: 400, errors: { start: "A build is booked once the job is signed and the deposit is paid." } };
+    return {
+      ok: false,
+      status: 400,
+      errors: { start: "A build is booked once the job is signed and the deposit is paid." },
+    };
   }
-  if (await findBookedBuild(lead)) return { ok: false, status: 409, errors: { start: "This job already has build dates: move them instead." } };
+  if (await findBookedBuild(lead))
+    return { ok: false, status: 409, errors: { start: "This job already has build dates: move them instead." } };
   const labourHours = await jobLabourHours(lead);
   const prepared = await prepareDays(company, 0, input, labourHours);
   if (!prepared.ok) return prepared;
@@ -244,7 +369,19 @@ export async function bookBuild(user: BuildActor, lead: Lead, company: Company, 
     const build = await writeTransaction(async (tx) => {
       const [row] = await tx
         .insert(builds)
-        .values({ companyId: company.id, leadId: lead.id, datesJson: JSON.stringify(dates), firstDay: dates[0]!, lastDay: dates.at(-1)!, labourHours, notes: input.notes, stageBefore: lead.status === "build-booked" ? "signed" : lead.status, bookedByUserId: user.id, createdAt: at, updatedAt: at })
+        .values({
+          companyId: company.id,
+          leadId: lead.id,
+          datesJson: JSON.stringify(dates),
+          firstDay: dates[0]!,
+          lastDay: dates.at(-1)!,
+          labourHours,
+          notes: input.notes,
+          stageBefore: lead.status === "build-booked" ? "signed" : lead.status,
+          bookedByUserId: user.id,
+          createdAt: at,
+          updatedAt: at,
+        })
         .returning();
       await tx.insert(buildCrew).values(crew.map((c) => ({ buildId: row!.id, userId: c.id, companyId: company.id })));
       await tx
@@ -266,7 +403,12 @@ export async function bookBuild(user: BuildActor, lead: Lead, company: Company, 
     return { ok: true, build };
   } catch (error) {
     // The partial unique index: another booking for this job landed first.
-    if (String((error as Error).message).includes("UNIQUE")) return { ok: false, status: 409, errors: { start: "This job was booked a moment ago. Reload to see its dates." } };
+    if (String((error as Error).message).includes("UNIQUE"))
+      return {
+        ok: false,
+        status: 409,
+        errors: { start: "This job was booked a moment ago. Reload to see its dates." },
+      };
     throw error;
   }
 }
@@ -276,64 +418,170 @@ export async function moveBuild(
   user: BuildActor,
   lead: Lead,
   company: Company,
-  input: { buildId: number; sequence: number; start: CalendarDate; days: number | null; crewUserIds: number[] | null; allowClash: boolean },
+  input: {
+    buildId: number;
+    sequence: number;
+    start: CalendarDate;
+    days: number | null;
+    crewUserIds: number[] | null;
+    allowClash: boolean;
+  },
   origin: string,
 ): Promise<BuildResult> {
   const current = await findBookedBuild(lead);
-  if (!current || current.id !== input.buildId) return { ok: false, status: 404, errors: { start: "That build was not found." } };
-  if (current.sequence !== input.sequence) return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
+  if (!current || current.id !== input.buildId)
+    return { ok: false, status: 404, errors: { start: "That build was not found." } };
+  if (current.sequence !== input.sequence)
+    return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
   const crewIds = input.crewUserIds ?? current.crew.map((c) => c.id);
-  const prepared = await prepareDays(company, current.id, { start: input.start, crewUserIds: crewIds, days: input.days ?? current.dates.length, allowClash: input.allowClash }, current.labourHours);
+  const prepared = await prepareDays(
+    company,
+    current.id,
+    {
+      start: input.start,
+      crewUserIds: crewIds,
+      days: input.days ?? current.dates.length,
+      allowClash: input.allowClash,
+    },
+    current.labourHours,
+  );
   if (!prepared.ok) return prepared;
   const { dates, crew } = prepared;
   const at = new Date().toISOString();
   const removed = current.crew.filter((c) => !crew.some((k) => k.id === c.id));
-  const removedWithMail = await activeCrew(company.id, removed.map((c) => c.id));
+  const removedWithMail = await activeCrew(
+    company.id,
+    removed.map((c) => c.id),
+  );
   const build = await writeTransaction(async (tx) => {
     const [row] = await tx
       .update(builds)
-      .set({ datesJson: JSON.stringify(dates), firstDay: dates[0]!, lastDay: dates.at(-1)!, sequence: current.sequence + 1, updatedAt: at })
+      .set({
+        datesJson: JSON.stringify(dates),
+        firstDay: dates[0]!,
+        lastDay: dates.at(-1)!,
+        sequence: current.sequence + 1,
+        updatedAt: at,
+      })
       .where(and(eq(builds.id, current.id), eq(builds.status, "booked"), eq(builds.sequence, input.sequence)))
       .returning();
     if (!row) return null;
     await tx.delete(buildCrew).where(eq(buildCrew.buildId, row.id));
     await tx.insert(buildCrew).values(crew.map((c) => ({ buildId: row.id, userId: c.id, companyId: company.id })));
     // The reminder for the old first day is withdrawn; the new one comes with the new sequence.
-    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.companyId, company.id), inArray(emailOutbox.idempotencyKey, Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`)), eq(emailOutbox.status, "pending")));
-    await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: user.id, kind: "build-moved", detail: `Build moved from ${describeBuildDays(current.dates)} to ${describeBuildDays(dates)}.`, createdAt: at });
+    await tx
+      .update(emailOutbox)
+      .set({ status: "cancelled" })
+      .where(
+        and(
+          eq(emailOutbox.companyId, company.id),
+          inArray(
+            emailOutbox.idempotencyKey,
+            Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`),
+          ),
+          eq(emailOutbox.status, "pending"),
+        ),
+      );
+    await tx.insert(leadEvents).values({
+      companyId: company.id,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "build-moved",
+      detail: `Build moved from ${describeBuildDays(current.dates)} to ${describeBuildDays(dates)}.`,
+      createdAt: at,
+    });
     const mail = await buildMail({ kind: "moved", build: row, dates, company, lead, crew, origin });
-    if (removedWithMail.length) mail.push(...(await buildMail({ kind: "cancelled", build: row, dates: current.dates, company, lead, crew: removedWithMail, origin })).slice(1));
+    if (removedWithMail.length)
+      mail.push(
+        ...(
+          await buildMail({
+            kind: "cancelled",
+            build: row,
+            dates: current.dates,
+            company,
+            lead,
+            crew: removedWithMail,
+            origin,
+          })
+        ).slice(1),
+      );
     await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
     return row;
   });
-  if (!build) return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
+  if (!build)
+    return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
   return { ok: true, build };
 }
 
 /** Cancels a booked build: METHOD:CANCEL to everyone, the reminder withdrawn, the job back to its stage before. */
-export async function cancelBuild(user: BuildActor, lead: Lead, company: Company, input: { buildId: number; sequence: number; reason: string }, origin: string): Promise<BuildResult> {
+export async function cancelBuild(
+  user: BuildActor,
+  lead: Lead,
+  company: Company,
+  input: { buildId: number; sequence: number; reason: string },
+  origin: string,
+): Promise<BuildResult> {
   const current = await findBookedBuild(lead);
-  if (!current || current.id !== input.buildId) return { ok: false, status: 404, errors: { reason: "That build was not found." } };
-  const crew = await activeCrew(company.id, current.crew.map((c) => c.id));
+  if (!current || current.id !== input.buildId)
+    return { ok: false, status: 404, errors: { reason: "That build was not found." } };
+  const crew = await activeCrew(
+    company.id,
+    current.crew.map((c) => c.id),
+  );
   const at = new Date().toISOString();
   const build = await writeTransaction(async (tx) => {
     const [row] = await tx
       .update(builds)
-      .set({ status: "cancelled", sequence: current.sequence + 1, cancelledAt: at, cancelReason: input.reason, updatedAt: at })
+      .set({
+        status: "cancelled",
+        sequence: current.sequence + 1,
+        cancelledAt: at,
+        cancelReason: input.reason,
+        updatedAt: at,
+      })
       .where(and(eq(builds.id, current.id), eq(builds.status, "booked"), eq(builds.sequence, input.sequence)))
       .returning();
     if (!row) return null;
-    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(eq(emailOutbox.companyId, company.id), inArray(emailOutbox.idempotencyKey, Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`)), eq(emailOutbox.status, "pending")));
+    await tx
+      .update(emailOutbox)
+      .set({ status: "cancelled" })
+      .where(
+        and(
+          eq(emailOutbox.companyId, company.id),
+          inArray(
+            emailOutbox.idempotencyKey,
+            Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`),
+          ),
+          eq(emailOutbox.status, "pending"),
+        ),
+      );
     await tx
       .update(leads)
       .set({ status: row.stageBefore, updatedAt: at })
       .where(and(eq(leads.id, lead.id), eq(leads.companyId, company.id), eq(leads.status, "build-booked")));
-    await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: user.id, kind: "build-cancelled", detail: `Build of ${describeBuildDays(current.dates)} cancelled: ${input.reason}`, createdAt: at });
-    const mail = await buildMail({ kind: "cancelled", build: row, dates: current.dates, company, lead, crew, origin, reason: input.reason });
+    await tx.insert(leadEvents).values({
+      companyId: company.id,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "build-cancelled",
+      detail: `Build of ${describeBuildDays(current.dates)} cancelled: ${input.reason}`,
+      createdAt: at,
+    });
+    const mail = await buildMail({
+      kind: "cancelled",
+      build: row,
+      dates: current.dates,
+      company,
+      lead,
+      crew,
+      origin,
+      reason: input.reason,
+    });
     await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
     return row;
   });
-  if (!build) return { ok: false, status: 409, errors: { reason: "This build changed a moment ago. Reload to see it." } };
+  if (!build)
+    return { ok: false, status: 409, errors: { reason: "This build changed a moment ago. Reload to see it." } };
   return { ok: true, build };
 }
 
@@ -342,12 +590,18 @@ const hashToken = (token: string) => createHash("sha256").update(token).digest("
 /** A new private feed link for the person (any older link stops working); returns the secret once. */
 export async function issueCalendarFeed(userId: number, companyId: number): Promise<string> {
   const token = randomBytes(24).toString("base64url");
-  await db.update(users).set({ calendarFeedTokenHash: hashToken(token) }).where(and(eq(users.id, userId), eq(users.companyId, companyId)));
+  await db
+    .update(users)
+    .set({ calendarFeedTokenHash: hashToken(token) })
+    .where(and(eq(users.id, userId), eq(users.companyId, companyId)));
   return token;
 }
 
 export async function revokeCalendarFeed(userId: number, companyId: number): Promise<void> {
-  await db.update(users).set({ calendarFeedTokenHash: null }).where(and(eq(users.id, userId), eq(users.companyId, companyId)));
+  await db
+    .update(users)
+    .set({ calendarFeedTokenHash: null })
+    .where(and(eq(users.id, userId), eq(users.companyId, companyId)));
 }
 
 export async function hasCalendarFeed(userId: number): Promise<boolean> {
@@ -358,7 +612,11 @@ export async function hasCalendarFeed(userId: number): Promise<boolean> {
 /** The feed of a link's owner: their booked builds from 30 days back on; null for an unknown or revoked link or an inactive person. */
 export async function calendarFeedFor(token: string, now = new Date()): Promise<string | null> {
   if (!/^[A-Za-z0-9_-]{20,64}$/.test(token)) return null;
-  const [person] = await db.select().from(users).where(and(eq(users.calendarFeedTokenHash, hashToken(token)), eq(users.isActive, true))).limit(1);
+  const [person] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.calendarFeedTokenHash, hashToken(token)), eq(users.isActive, true)))
+    .limit(1);
   if (!person) return null;
   const [company] = await db.select().from(companies).where(eq(companies.id, person.companyId));
   const today = zonedDay(now, company!.timeZone);
@@ -367,7 +625,14 @@ export async function calendarFeedFor(token: string, now = new Date()): Promise<
     .from(buildCrew)
     .innerJoin(builds, eq(builds.id, buildCrew.buildId))
     .innerJoin(leads, eq(leads.id, builds.leadId))
-    .where(and(eq(buildCrew.userId, person.id), eq(builds.companyId, person.companyId), eq(builds.status, "booked"), gte(builds.lastDay, addCalendarDays(today, -30))))
+    .where(
+      and(
+        eq(buildCrew.userId, person.id),
+        eq(builds.companyId, person.companyId),
+        eq(builds.status, "booked"),
+        gte(builds.lastDay, addCalendarDays(today, -30)),
+      ),
+    )
     .orderBy(asc(builds.firstDay));
   return buildCalendarFeed(
     rows.map((r) => eventFor(r.build, parseBuildDates(r.build), company!, r.lead)),

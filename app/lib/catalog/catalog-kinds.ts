@@ -21,21 +21,46 @@ export const KIND_INFO: Record<CatalogKind, { label: string; plural: string; pri
 };
 
 /** Every size a catalog item can have (inches); which ones a kind needs is in KIND_DIMENSIONS. */
-export const DIMENSION_KEYS = ["faceIn", "backIn", "depthIn", "heightIn", "lengthIn", "widthIn", "thicknessIn", "diameterIn"] as const;
+export const DIMENSION_KEYS = [
+  "faceIn",
+  "backIn",
+  "depthIn",
+  "heightIn",
+  "lengthIn",
+  "widthIn",
+  "thicknessIn",
+  "diameterIn",
+] as const;
 export type DimensionKey = (typeof DIMENSION_KEYS)[number];
 
 /** An item's sizes, null where its kind has no such size. */
 export type CatalogSizes = Record<DimensionKey, number | null>;
 
 /** The sizes of `item`, and nothing else of it. */
-export function pickSizes({ faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn }: CatalogSizes): CatalogSizes {
+export function pickSizes({
+  faceIn,
+  backIn,
+  depthIn,
+  heightIn,
+  lengthIn,
+  widthIn,
+  thicknessIn,
+  diameterIn,
+}: CatalogSizes): CatalogSizes {
   return { faceIn, backIn, depthIn, heightIn, lengthIn, widthIn, thicknessIn, diameterIn };
 }
 
 /** `short` names the size in a one-line summary ("face 11 in · back 7 1/2 in"), in the field's own words. */
 type DimensionRule = { key: DimensionKey; label: string; short: string; hint: string; min: number; max: number };
 
-const d = (key: DimensionKey, label: string, hint: string, min: number, max: number, short = label.toLowerCase()): DimensionRule => ({ key, label, short, hint, min, max });
+const d = (
+  key: DimensionKey,
+  label: string,
+  hint: string,
+  min: number,
+  max: number,
+  short = label.toLowerCase(),
+): DimensionRule => ({ key, label, short, hint, min, max });
 
 /** The dimensions each kind needs, with the range accepted (inches). Ranges cover every unit sold for this work with room to spare. */
 export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
@@ -50,10 +75,7 @@ export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
     d("depthIn", "Blank depth", "Across the wall, toward the fire", 4, 36, "depth"),
     d("thicknessIn", "Thickness", "", 0.5, 8),
   ],
-  "steel-ring": [
-    d("diameterIn", "Outside diameter", "", 12, 96),
-    d("heightIn", "Height", "", 2, 36),
-  ],
+  "steel-ring": [d("diameterIn", "Outside diameter", "", 12, 96), d("heightIn", "Height", "", 2, 36)],
   firebrick: [
     d("lengthIn", "Length", "A straight is 9 in", 4, 18),
     d("widthIn", "Width", "A straight is 4 1/2 in", 1, 9),
@@ -92,7 +114,8 @@ export function describeSizes(
 }
 
 /** The sizes on one line: "face 11 in · back 7 1/2 in · depth 7 1/2 in · height 3 1/2 in". */
-export const sizesText = (sizes: { name: string; value: string }[]): string => sizes.map((s) => `${s.name} ${s.value}`).join(" · ");
+export const sizesText = (sizes: { name: string; value: string }[]): string =>
+  sizes.map((s) => `${s.name} ${s.value}`).join(" · ");
 
 /** "each" or "per ton": how a cost is quoted for one of the kind's units. */
 export const perUnit = (priceUnit: string): string => (priceUnit === "each" ? "each" : `per ${priceUnit}`);

@@ -40,7 +40,11 @@ export type PartKind = keyof PartByKind;
 const isSize = (value: number | null): value is number => value !== null && Number.isFinite(value) && value > 0;
 
 function labelled(item: CatalogItemSizes) {
-  return { name: item.name, colourHex: item.colourHex, ...(item.priceCents !== undefined ? { priceCents: item.priceCents } : {}) };
+  return {
+    name: item.name,
+    colourHex: item.colourHex,
+    ...(item.priceCents !== undefined ? { priceCents: item.priceCents } : {}),
+  };
 }
 
 const BUILDERS: { [K in PartKind]: (item: CatalogItemSizes) => PartByKind[K] | null } = {
@@ -58,12 +62,22 @@ const BUILDERS: { [K in PartKind]: (item: CatalogItemSizes) => PartByKind[K] | n
       : null,
   firebrick: (item) =>
     isSize(item.lengthIn) && isSize(item.widthIn) && isSize(item.heightIn)
-      ? { kind: "firebrick", lengthIn: item.lengthIn, widthIn: item.widthIn, heightIn: item.heightIn, ...labelled(item) }
+      ? {
+          kind: "firebrick",
+          lengthIn: item.lengthIn,
+          widthIn: item.widthIn,
+          heightIn: item.heightIn,
+          ...labelled(item),
+        }
       : null,
   "border-unit": (item) =>
-    isSize(item.widthIn) && isSize(item.lengthIn) ? { widthIn: item.widthIn, lengthIn: item.lengthIn, ...labelled(item) } : null,
+    isSize(item.widthIn) && isSize(item.lengthIn)
+      ? { widthIn: item.widthIn, lengthIn: item.lengthIn, ...labelled(item) }
+      : null,
   paver: (item) =>
-    isSize(item.lengthIn) && isSize(item.widthIn) ? { lengthIn: item.lengthIn, widthIn: item.widthIn, ...labelled(item) } : null,
+    isSize(item.lengthIn) && isSize(item.widthIn)
+      ? { lengthIn: item.lengthIn, widthIn: item.widthIn, ...labelled(item) }
+      : null,
 };
 
 /** The engine part for a catalog item of kind `kind`; null when the item is another kind or lacks a size. */

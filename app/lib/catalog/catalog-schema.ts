@@ -23,8 +23,18 @@ function blankOr<T, B>(schema: z.ZodType<T, string>, blank: B) {
 
 const baseSchema = z.object({
   kind: z.enum(CATALOG_KINDS, { error: "Choose what kind of item this is." }),
-  name: z.string().overwrite(toSingleLine).trim().min(2, "Name must be 2 to 80 characters.").max(80, "Name must be 2 to 80 characters."),
-  colourName: z.string().overwrite(toSingleLine).trim().max(40, "Colour name must be at most 40 characters.").default(""),
+  name: z
+    .string()
+    .overwrite(toSingleLine)
+    .trim()
+    .min(2, "Name must be 2 to 80 characters.")
+    .max(80, "Name must be 2 to 80 characters."),
+  colourName: z
+    .string()
+    .overwrite(toSingleLine)
+    .trim()
+    .max(40, "Colour name must be at most 40 characters.")
+    .default(""),
   colourHex: z
     .string()
     .trim()
@@ -41,18 +51,21 @@ const baseSchema = z.object({
 
 type OrderingKey = "supplierId" | "orderUnit" | "unitsPerOrderUnit" | "orderUnitWeightLb";
 // The ordering fields are optional for callers that write items in code (the defaults apply).
-export type CatalogItemInput = Omit<z.output<typeof baseSchema>, "price" | OrderingKey> & Partial<Pick<z.output<typeof baseSchema>, OrderingKey>> & {
-  priceCents: number;
-} & Partial<Record<DimensionKey, number | null>>;
+export type CatalogItemInput = Omit<z.output<typeof baseSchema>, "price" | OrderingKey> &
+  Partial<Pick<z.output<typeof baseSchema>, OrderingKey>> & {
+    priceCents: number;
+  } & Partial<Record<DimensionKey, number | null>>;
 
 /**
  * Parses the catalog form (strings from FormData). Dimensions are checked against the kind's own
  * list and ranges; unused dimensions are stored as null.
  */
-export function parseCatalogForm(form: FormData):
-  | { ok: true; value: CatalogItemInput }
-  | { ok: false; errors: Record<string, string> } {
-  const raw = Object.fromEntries([...form.entries()].filter((entry): entry is [string, string] => typeof entry[1] === "string"));
+export function parseCatalogForm(
+  form: FormData,
+): { ok: true; value: CatalogItemInput } | { ok: false; errors: Record<string, string> } {
+  const raw = Object.fromEntries(
+    [...form.entries()].filter((entry): entry is [string, string] => typeof entry[1] === "string"),
+  );
   const base = baseSchema.safeParse({ ...raw, isActive: raw.isActive === "on" || raw.isActive === "true" });
   const errors: Record<string, string> = {};
   if (!base.success) {

@@ -67,7 +67,10 @@ export async function loadOfferedCatalog(slug: string): Promise<Offered | null> 
   const hit = offeredCache.get(head.id);
   if (hit && hit.version === head.version) return hit.value;
   // Read after the version, so what is kept under it is never older than it.
-  const value = (async () => ({ company: await getCompany(head.id), catalog: await listCatalog(head.id, { activeOnly: true }) }))();
+  const value = (async () => ({
+    company: await getCompany(head.id),
+    catalog: await listCatalog(head.id, { activeOnly: true }),
+  }))();
   if (offeredCache.size >= MAX_CACHED_COMPANIES) offeredCache.clear();
   offeredCache.set(head.id, { version: head.version, value });
   value.catch(() => {
@@ -82,7 +85,10 @@ export function forgetOfferedCatalogs(): void {
 }
 
 export async function createCatalogItem(companyId: number, input: CatalogItemInput): Promise<number> {
-  const [row] = await db.insert(catalogItems).values({ ...input, companyId }).returning({ id: catalogItems.id });
+  const [row] = await db
+    .insert(catalogItems)
+    .values({ ...input, companyId })
+    .returning({ id: catalogItems.id });
   return row!.id;
 }
 

@@ -25,7 +25,15 @@ import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
 import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
-import { checkReschedule, CONSULT_HOLD_MINUTES, formatSlot, HOMEOWNER_CHANGE_CUTOFF_HOURS, listFreeSlots, parseWeeklyHours, type Slot } from "~/lib/consults/consult-slots";
+import {
+  checkReschedule,
+  CONSULT_HOLD_MINUTES,
+  formatSlot,
+  HOMEOWNER_CHANGE_CUTOFF_HOURS,
+  listFreeSlots,
+  parseWeeklyHours,
+  type Slot,
+} from "~/lib/consults/consult-slots";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { formatMoney } from "~/lib/format/money";
 import { formatPhone } from "~/lib/format/phone";
@@ -53,7 +61,9 @@ export const HOMEOWNER_CANCEL_CUTOFF_HOURS = HOMEOWNER_CHANGE_CUTOFF_HOURS;
 
 export class SlotUnavailableError extends Error {}
 
-const isUniqueViolation = (error: unknown) => /UNIQUE constraint failed/i.test(String((error as { message?: string })?.message ?? error)) || /UNIQUE constraint failed/i.test(String((error as { cause?: { message?: string } })?.cause?.message ?? ""));
+const isUniqueViolation = (error: unknown) =>
+  /UNIQUE constraint failed/i.test(String((error as { message?: string })?.message ?? error)) ||
+  /UNIQUE constraint failed/i.test(String((error as { cause?: { message?: string } })?.cause?.message ?? ""));
 
 /**
  * Marks holds whose time ran out as expired, freeing their slots; returns the ids it released.
@@ -72,11 +82,20 @@ export async function releaseLapsedHolds(now = new Date(), database: Db = db): P
 export async function listCompanySlots(company: Company, now = new Date()): Promise<Slot[]> {
   await releaseLapsedHolds(now);
   const [blocked, taken] = await Promise.all([
-    db.select({ day: consultBlockedDays.day }).from(consultBlockedDays).where(eq(consultBlockedDays.companyId, company.id)),
+    db
+      .select({ day: consultBlockedDays.day })
+      .from(consultBlockedDays)
+      .where(eq(consultBlockedDays.companyId, company.id)),
     db
       .select({ startsAt: bookings.startsAt })
       .from(bookings)
-      .where(and(eq(bookings.companyId, company.id), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.startsAt, now.toISOString()))),
+      .where(
+        and(
+          eq(bookings.companyId, company.id),
+          inArray(bookings.status, ["held", "confirmed"]),
+          gt(bookings.startsAt, now.toISOString()),
+        ),
+      ),
   ]);
   return listFreeSlots({
     hours: parseWeeklyHours(company.consultHoursJson),
@@ -103,7 +122,13 @@ export async function findLiveBooking(leadId: number): Promise<Booking | null> {
  * Holds a slot for a lead. Throws SlotUnavailableError when the slot is not offered or another
  * booking holds it (the database decides, not a check-then-write).
  */
-export async function holdSlot(args: { company: Company; lead: Lead; startsAt: string; customerTimeZone: string | null; now?: Date }): Promise<Booking> {
+export async function holdSlot(args: {
+  company: Company;
+  lead: Lead;
+  startsAt: string;
+  customerTimeZone: string | null;
+  now?: Date;
+}): Promise<Booking> {
   const now = args.now ?? new Date();
   const slot = (await listCompanySlots(args.company, now)).find((s) => s.startsAt === args.startsAt);
   if (!slot) throw new SlotUnavailableError("That time is no longer free. Pick another.");
@@ -124,7 +149,8 @@ export async function holdSlot(args: { company: Company; lead: Lead; startsAt: s
       .returning();
     return row!;
   } catch (error) {
-    if (isUniqueViolation(error)) throw new SlotUnavailableError("Someone booked that time a moment ago. Pick another.");
+    if (isUniqueViolation(error))
+      throw new SlotUnavailableError("Someone booked that time a moment ago. Pick another.");
     throw error;
   }
 }
@@ -134,15 +160,29 @@ export async function holdSlot(args: { company: Company; lead: Lead; startsAt: s
  * checkout closes five minutes before the hold does. When the first try failed long enough ago
  * that too little hold is left to open one, the hold is renewed first.
  */
-export async function startCheckout(args: { booking: Booking; company: Company; lead: Lead; origin: string; basePath: string; client?: Stripe; now?: Date }): Promise<string> {
+export async function startCheckout(args: {
+  booking: Booking;
+  company: Company;
+  lead: Lead;
+  origin: string;
+  basePath: string;
+  client?: Stripe;
+  now?: Date;
+}): Promise<string> {
   const client = args.client ?? defaultStripe;
   const now = (args.now ?? new Date()).getTime();
   const { company, lead, origin, basePath } = args;
   let booking = args.booking;
-  if (!booking.checkoutSessionId && new Date(booking.holdExpiresAt).getTime() - CHECKOUT_CLOSES_BEFORE_HOLD_MS - now < MIN_CHECKOUT_OPEN_MS) {
+  if (
+    !booking.checkoutSessionId &&
+    new Date(booking.holdExpiresAt).getTime() - CHECKOUT_CLOSES_BEFORE_HOLD_MS - now < MIN_CHECKOUT_OPEN_MS
+  ) {
     const [renewed] = await db
       .update(bookings)
-      .set({ holdExpiresAt: new Date(now + HOLD_MINUTES * 60_000).toISOString(), updatedAt: new Date(now).toISOString() })
+      .set({
+        holdExpiresAt: new Date(now + HOLD_MINUTES * 60_000).toISOString(),
+        updatedAt: new Date(now).toISOString(),
+      })
       .where(and(eq(bookings.id, booking.id), eq(bookings.status, "held"), isNull(bookings.checkoutSessionId)))
       .returning();
     if (!renewed) throw new SlotUnavailableError("Your hold on that time ran out. Pick a time again.");
@@ -169,7 +209,9 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
       ],
       // Shown beside the pay button by the hosted checkout (the local stand-in accepts it and does not draw it).
       custom_text: {
-        submit: { message: `You are paying ${company.name}${company.phone ? ` (${formatPhone(company.phone)})` : ""}. The fee is credited toward the build.` },
+        submit: {
+          message: `You are paying ${company.name}${company.phone ? ` (${formatPhone(company.phone)})` : ""}. The fee is credited toward the build.`,
+        },
       },
       customer_email: lead.email,
       client_reference_id: String(booking.id),
@@ -183,7 +225,10 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
     // (The expiry is part of the key because a renewed hold sends a new expires_at.)
     { idempotencyKey: `checkout:${booking.id}:${expiresAt}` },
   );
-  await db.update(bookings).set({ checkoutSessionId: session.id, updatedAt: new Date().toISOString() }).where(eq(bookings.id, booking.id));
+  await db
+    .update(bookings)
+    .set({ checkoutSessionId: session.id, updatedAt: new Date().toISOString() })
+    .where(eq(bookings.id, booking.id));
   if (!session.url) throw new Error("The payment service returned no checkout page.");
   return session.url;
 }
@@ -191,19 +236,34 @@ export async function startCheckout(args: { booking: Booking; company: Company; 
 /** The lead's booking made by one checkout session, or null (the success page's lookup). */
 export async function findBookingByCheckout(leadId: number, checkoutSessionId: string): Promise<Booking | null> {
   if (!checkoutSessionId) return null;
-  const [row] = await db.select().from(bookings).where(and(eq(bookings.leadId, leadId), eq(bookings.checkoutSessionId, checkoutSessionId))).limit(1);
+  const [row] = await db
+    .select()
+    .from(bookings)
+    .where(and(eq(bookings.leadId, leadId), eq(bookings.checkoutSessionId, checkoutSessionId)))
+    .limit(1);
   return row ?? null;
 }
 
 /** The homeowner came back without paying: close the checkout and free the slot now. */
-export async function abandonCheckout(bookingId: number, leadId: number, client: Stripe = defaultStripe): Promise<void> {
-  const [booking] = await db.select().from(bookings).where(and(eq(bookings.id, bookingId), eq(bookings.leadId, leadId))).limit(1);
+export async function abandonCheckout(
+  bookingId: number,
+  leadId: number,
+  client: Stripe = defaultStripe,
+): Promise<void> {
+  const [booking] = await db
+    .select()
+    .from(bookings)
+    .where(and(eq(bookings.id, bookingId), eq(bookings.leadId, leadId)))
+    .limit(1);
   if (!booking || booking.status !== "held") return;
   if (booking.checkoutSessionId) {
     // The expired event that follows finds the booking already released and changes nothing.
     await client.checkout.sessions.expire(booking.checkoutSessionId).catch(() => undefined);
   }
-  await db.update(bookings).set({ status: "expired", updatedAt: new Date().toISOString() }).where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
+  await db
+    .update(bookings)
+    .set({ status: "expired", updatedAt: new Date().toISOString() })
+    .where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
 }
 
 /*
@@ -213,7 +273,12 @@ export async function abandonCheckout(bookingId: number, leadId: number, client:
  * A moved consult sends the event again under the same UID with the booking's raised SEQUENCE, which
  * replaces the earlier time rather than adding a second event.
  */
-export function calendarFile(booking: Booking, company: Company, lead: Lead, kind: "booked" | "cancelled" = "booked"): string {
+export function calendarFile(
+  booking: Booking,
+  company: Company,
+  lead: Lead,
+  kind: "booked" | "cancelled" = "booked",
+): string {
   const start = new Date(booking.startsAt);
   const { value, error } = createEvent({
     uid: `consult-${booking.id}@emberwright`,
@@ -241,18 +306,29 @@ export function designLine(lead: Lead): string {
 }
 
 /** The outbox key of a booking's reminder for one calendar sequence (each move schedules its own). */
-const reminderKey = (bookingId: number, sequence: number) => (sequence === 0 ? `consult-reminder/${bookingId}` : `consult-reminder/${bookingId}/${sequence}`);
+const reminderKey = (bookingId: number, sequence: number) =>
+  sequence === 0 ? `consult-reminder/${bookingId}` : `consult-reminder/${bookingId}/${sequence}`;
 
 /** Every reminder key a booking may have had, up to its current sequence. */
-export const reminderKeys = (booking: Pick<Booking, "id" | "calendarSequence">) => Array.from({ length: booking.calendarSequence + 1 }, (_, n) => reminderKey(booking.id, n));
+export const reminderKeys = (booking: Pick<Booking, "id" | "calendarSequence">) =>
+  Array.from({ length: booking.calendarSequence + 1 }, (_, n) => reminderKey(booking.id, n));
 
 /** The e-mail keys of a booking's moves, for the lead's timeline. */
 export const moveMailKeys = (booking: Pick<Booking, "id" | "calendarSequence">) =>
-  Array.from({ length: booking.calendarSequence }, (_, n) => [`consult-moved/${booking.id}/${n + 1}`, `consult-moved-company/${booking.id}/${n + 1}`, reminderKey(booking.id, n + 1)]).flat();
+  Array.from({ length: booking.calendarSequence }, (_, n) => [
+    `consult-moved/${booking.id}/${n + 1}`,
+    `consult-moved-company/${booking.id}/${n + 1}`,
+    reminderKey(booking.id, n + 1),
+  ]).flat();
 
 async function confirmationEmails(booking: Booking, company: Company, lead: Lead) {
   const homeownerZone = booking.customerTimeZone ?? company.timeZone;
-  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(booking.amountCents) };
+  const common = {
+    companyName: company.name,
+    companyPhone: company.phone,
+    design: designLine(lead),
+    feeText: formatMoney(booking.amountCents),
+  };
   const ics = Buffer.from(calendarFile(booking, company, lead)).toString("base64");
   const attachments = [{ filename: "design-consult.ics", content: ics, contentType: "text/calendar" }];
   return Promise.all([
@@ -261,7 +337,13 @@ async function confirmationEmails(booking: Booking, company: Company, lead: Lead
       companyId: company.id,
       to: lead.email,
       subject: `Design consult booked with ${company.name}: ${formatSlot(booking.startsAt, homeownerZone)}`,
-      template: ConsultConfirmedEmail({ ...common, recipientName: lead.customerName, customerName: lead.customerName, when: formatSlot(booking.startsAt, homeownerZone), forCompany: false }),
+      template: ConsultConfirmedEmail({
+        ...common,
+        recipientName: lead.customerName,
+        customerName: lead.customerName,
+        when: formatSlot(booking.startsAt, homeownerZone),
+        forCompany: false,
+      }),
       attachments,
     }),
     prepareOutboxRow({
@@ -269,7 +351,13 @@ async function confirmationEmails(booking: Booking, company: Company, lead: Lead
       companyId: company.id,
       to: company.email,
       subject: `Consult booked: ${lead.customerName}, ${formatSlot(booking.startsAt, company.timeZone)}`,
-      template: ConsultConfirmedEmail({ ...common, recipientName: company.name, customerName: lead.customerName, when: formatSlot(booking.startsAt, company.timeZone), forCompany: true }),
+      template: ConsultConfirmedEmail({
+        ...common,
+        recipientName: company.name,
+        customerName: lead.customerName,
+        when: formatSlot(booking.startsAt, company.timeZone),
+        forCompany: true,
+      }),
       attachments,
     }),
     reminderEmail(booking, company, lead),
@@ -298,7 +386,12 @@ function reminderEmail(booking: Booking, company: Company, lead: Lead) {
 /** The homeowner's new calendar file and note, and the office's, for a consult moved to `moved.startsAt`. */
 async function movedEmails(before: Booking, moved: Booking, company: Company, lead: Lead, by: "homeowner" | "staff") {
   const homeownerZone = moved.customerTimeZone ?? company.timeZone;
-  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(moved.amountCents) };
+  const common = {
+    companyName: company.name,
+    companyPhone: company.phone,
+    design: designLine(lead),
+    feeText: formatMoney(moved.amountCents),
+  };
   const ics = Buffer.from(calendarFile(moved, company, lead)).toString("base64");
   const attachments = [{ filename: "design-consult.ics", content: ics, contentType: "text/calendar" }];
   const seq = moved.calendarSequence;
@@ -347,20 +440,34 @@ const HOMEOWNER_REASON: Record<CancelCause, (companyName: string) => string> = {
 const OFFICE_REASON: Record<CancelCause, (customerName: string) => string> = {
   homeowner: (customerName) => `${customerName} cancelled it online.`,
   staff: () => "It was cancelled from the workspace.",
-  "slot-taken": (customerName) => `${possessive(customerName)} payment arrived after another booking had taken that time, so it was not booked.`,
+  "slot-taken": (customerName) =>
+    `${possessive(customerName)} payment arrived after another booking had taken that time, so it was not booked.`,
 };
 
 async function cancellationEmails(booking: Booking, company: Company, lead: Lead, cause: CancelCause) {
-  const common = { companyName: company.name, companyPhone: company.phone, design: designLine(lead), feeText: formatMoney(booking.amountCents), isRefunded: booking.isPaid };
+  const common = {
+    companyName: company.name,
+    companyPhone: company.phone,
+    design: designLine(lead),
+    feeText: formatMoney(booking.amountCents),
+    isRefunded: booking.isPaid,
+  };
   const ics = Buffer.from(calendarFile(booking, company, lead, "cancelled")).toString("base64");
-  const attachments = [{ filename: "design-consult-cancelled.ics", content: ics, contentType: "text/calendar; method=CANCEL" }];
+  const attachments = [
+    { filename: "design-consult-cancelled.ics", content: ics, contentType: "text/calendar; method=CANCEL" },
+  ];
   return Promise.all([
     prepareOutboxRow({
       idempotencyKey: `consult-cancelled/${booking.id}`,
       companyId: company.id,
       to: lead.email,
       subject: `Design consult cancelled${booking.isPaid ? " and refunded" : ""}`,
-      template: ConsultCancelledEmail({ ...common, recipientName: lead.customerName, reason: HOMEOWNER_REASON[cause](company.name), when: formatSlot(booking.startsAt, booking.customerTimeZone ?? company.timeZone) }),
+      template: ConsultCancelledEmail({
+        ...common,
+        recipientName: lead.customerName,
+        reason: HOMEOWNER_REASON[cause](company.name),
+        when: formatSlot(booking.startsAt, booking.customerTimeZone ?? company.timeZone),
+      }),
       // A confirmed consult put an event in the homeowner's calendar; this takes it out again.
       ...(cause === "slot-taken" ? {} : { attachments }),
     }),
@@ -369,7 +476,12 @@ async function cancellationEmails(booking: Booking, company: Company, lead: Lead
       companyId: company.id,
       to: company.email,
       subject: `Consult cancelled: ${lead.customerName}, ${formatSlot(booking.startsAt, company.timeZone)}`,
-      template: ConsultCancelledOfficeEmail({ ...common, customerName: lead.customerName, reason: OFFICE_REASON[cause](lead.customerName), when: formatSlot(booking.startsAt, company.timeZone) }),
+      template: ConsultCancelledOfficeEmail({
+        ...common,
+        customerName: lead.customerName,
+        reason: OFFICE_REASON[cause](lead.customerName),
+        when: formatSlot(booking.startsAt, company.timeZone),
+      }),
       ...(cause === "slot-taken" ? {} : { attachments }),
     }),
   ]);
@@ -414,19 +526,25 @@ function eventMismatch(event: Stripe.Event, booking: Booking): string | null {
   if (event.type === "checkout.session.completed" || event.type === "checkout.session.expired") {
     const session = event.data.object;
     if (!booking.checkoutSessionId || session.id !== booking.checkoutSessionId) {
-      problems.push(`checkout session ${JSON.stringify(session.id)} is not the booking's (${booking.checkoutSessionId ?? "none opened"})`);
+      problems.push(
+        `checkout session ${JSON.stringify(session.id)} is not the booking's (${booking.checkoutSessionId ?? "none opened"})`,
+      );
     }
     if (event.type === "checkout.session.completed") {
-      if (session.amount_total !== booking.amountCents) problems.push(`amount ${JSON.stringify(session.amount_total)} is not ${booking.amountCents}`);
+      if (session.amount_total !== booking.amountCents)
+        problems.push(`amount ${JSON.stringify(session.amount_total)} is not ${booking.amountCents}`);
       if (typeof session.currency !== "string" || session.currency.toLowerCase() !== booking.currency) {
         problems.push(`currency ${JSON.stringify(session.currency)} is not ${booking.currency}`);
       }
     }
   } else if (event.type === "charge.refunded") {
     const charge = event.data.object;
-    const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
+    const paymentIntent =
+      typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
     if (!booking.paymentIntentId || paymentIntent !== booking.paymentIntentId) {
-      problems.push(`payment ${JSON.stringify(paymentIntent)} is not the booking's (${booking.paymentIntentId ?? "none"})`);
+      problems.push(
+        `payment ${JSON.stringify(paymentIntent)} is not the booking's (${booking.paymentIntentId ?? "none"})`,
+      );
     }
   }
   return problems.length ? problems.join("; ") : null;
@@ -443,11 +561,16 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
   const mismatch = context ? eventMismatch(event, context.booking) : null;
   if (context && mismatch) {
     // Not recorded either: the event id stays free, and the booking is exactly as it was.
-    console.warn(`payments: refused event ${JSON.stringify(event.id)} (${JSON.stringify(event.type)}) for booking ${context.booking.id}: ${mismatch}`);
+    console.warn(
+      `payments: refused event ${JSON.stringify(event.id)} (${JSON.stringify(event.type)}) for booking ${context.booking.id}: ${mismatch}`,
+    );
     return "rejected";
   }
   // E-mails are rendered up front (local work), so the transaction holds only writes.
-  const confirmRows = context && event.type === "checkout.session.completed" ? await confirmationEmails(context.booking, context.company, context.lead) : [];
+  const confirmRows =
+    context && event.type === "checkout.session.completed"
+      ? await confirmationEmails(context.booking, context.company, context.lead)
+      : [];
   const slotTakenRows =
     context && event.type === "checkout.session.completed"
       ? await cancellationEmails({ ...context.booking, isPaid: true }, context.company, context.lead, "slot-taken")
@@ -468,17 +591,33 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
     if (event.type === "checkout.session.completed") {
       const session = event.data.object;
       if (session.payment_status !== "paid" || booking.isPaid) return "ignored";
-      const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+      const paymentIntentId =
+        typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
       if (booking.status === "held" || booking.status === "expired") {
         // An expired hold may have lost its slot meanwhile; the unique index decides.
         const taken = await tx
           .select({ id: bookings.id })
           .from(bookings)
-          .where(and(eq(bookings.companyId, booking.companyId), eq(bookings.startsAt, booking.startsAt), inArray(bookings.status, ["held", "confirmed"]), sql`${bookings.id} <> ${booking.id}`));
+          .where(
+            and(
+              eq(bookings.companyId, booking.companyId),
+              eq(bookings.startsAt, booking.startsAt),
+              inArray(bookings.status, ["held", "confirmed"]),
+              sql`${bookings.id} <> ${booking.id}`,
+            ),
+          );
         if (taken.length === 0) {
-          await tx.update(bookings).set({ status: "confirmed", isPaid: true, paymentIntentId, updatedAt: now }).where(eq(bookings.id, booking.id));
+          await tx
+            .update(bookings)
+            .set({ status: "confirmed", isPaid: true, paymentIntentId, updatedAt: now })
+            .where(eq(bookings.id, booking.id));
           await tx.insert(emailOutbox).values(confirmRows).onConflictDoNothing();
-          await tx.insert(leadEvents).values({ companyId: booking.companyId, leadId: booking.leadId, kind: "consult-booked", detail: `Design consult paid and booked for ${formatSlot(booking.startsAt, context.company.timeZone)}.` });
+          await tx.insert(leadEvents).values({
+            companyId: booking.companyId,
+            leadId: booking.leadId,
+            kind: "consult-booked",
+            detail: `Design consult paid and booked for ${formatSlot(booking.startsAt, context.company.timeZone)}.`,
+          });
           await tx
             .update(leads)
             .set({ status: "consult-booked", updatedAt: now })
@@ -489,13 +628,23 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
       // Paid for a slot it no longer holds (or a cancelled booking): refund, and say so.
       await tx
         .update(bookings)
-        .set({ status: "cancelled", isPaid: true, paymentIntentId, cancelledBy: "system", cancelReason: "slot-taken", updatedAt: now })
+        .set({
+          status: "cancelled",
+          isPaid: true,
+          paymentIntentId,
+          cancelledBy: "system",
+          cancelReason: "slot-taken",
+          updatedAt: now,
+        })
         .where(eq(bookings.id, booking.id));
       await tx.insert(emailOutbox).values(slotTakenRows).onConflictDoNothing();
       return "applied";
     }
     if (event.type === "checkout.session.expired") {
-      await tx.update(bookings).set({ status: "expired", updatedAt: now }).where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
+      await tx
+        .update(bookings)
+        .set({ status: "expired", updatedAt: now })
+        .where(and(eq(bookings.id, booking.id), eq(bookings.status, "held")));
       return "applied";
     }
     if (event.type === "charge.refunded") {
@@ -520,7 +669,11 @@ function bookingIdOf(event: Stripe.Event): number | null {
 
 /** Finds the booking of a refunded charge by its payment intent (charges carry no booking id). */
 export async function bookingIdForPaymentIntent(paymentIntentId: string): Promise<number | null> {
-  const [row] = await db.select({ id: bookings.id }).from(bookings).where(eq(bookings.paymentIntentId, paymentIntentId)).limit(1);
+  const [row] = await db
+    .select({ id: bookings.id })
+    .from(bookings)
+    .where(eq(bookings.paymentIntentId, paymentIntentId))
+    .limit(1);
   return row?.id ?? null;
 }
 
@@ -535,41 +688,83 @@ class BookingChanged extends Error {}
  * refunded by the refund worker; both sides get an e-mail; the reminder is withdrawn. A refusal says
  * why, in words for the person who asked; nothing is written then.
  */
-export async function cancelBooking(args: { bookingId: number; companyId: number; by: "homeowner" | "staff"; actorUserId: number | null; now?: Date }): Promise<CancelResult> {
+export async function cancelBooking(args: {
+  bookingId: number;
+  companyId: number;
+  by: "homeowner" | "staff";
+  actorUserId: number | null;
+  now?: Date;
+}): Promise<CancelResult> {
   const now = args.now ?? new Date();
   const context = await loadBookingContext(args.bookingId);
-  if (!context || context.booking.companyId !== args.companyId) return { ok: false, reason: "not-found", message: "That consult was not found." };
+  if (!context || context.booking.companyId !== args.companyId)
+    return { ok: false, reason: "not-found", message: "That consult was not found." };
   const { booking, company, lead } = context;
   if (booking.status !== "confirmed" && booking.status !== "held") {
     return { ok: false, reason: "not-booked", message: "This consult is not booked." };
   }
-  if (args.by === "homeowner" && new Date(booking.startsAt).getTime() - now.getTime() < HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000) {
-    return { ok: false, reason: "too-late", message: `Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.` };
+  if (
+    args.by === "homeowner" &&
+    new Date(booking.startsAt).getTime() - now.getTime() < HOMEOWNER_CANCEL_CUTOFF_HOURS * 3_600_000
+  ) {
+    return {
+      ok: false,
+      reason: "too-late",
+      message: `Consults can be cancelled online up to ${HOMEOWNER_CANCEL_CUTOFF_HOURS} hours ahead. Please call ${company.name}.`,
+    };
   }
   const rows = booking.status === "confirmed" ? await cancellationEmails(booking, company, lead, args.by) : [];
   try {
     await cancelInTransaction();
   } catch (error) {
-    if (error instanceof BookingChanged) return { ok: false, reason: "changed", message: "This consult changed a moment ago (cancelled or paid). Reload to see it." };
+    if (error instanceof BookingChanged)
+      return {
+        ok: false,
+        reason: "changed",
+        message: "This consult changed a moment ago (cancelled or paid). Reload to see it.",
+      };
     throw error;
   }
   return { ok: true, booking: { ...booking, status: "cancelled" } };
 
   function cancelInTransaction() {
     return writeTransaction(async (tx) => {
-    // The state is checked again by the write itself: of two cancels at once (or a cancel racing the
-    // payment), only the one that still finds the booking as it read it changes anything.
-    const changed = await tx
-      .update(bookings)
-      .set({ status: "cancelled", cancelledBy: args.by, cancelReason: args.by === "homeowner" ? "homeowner" : "staff", updatedAt: now.toISOString() })
-      .where(and(eq(bookings.id, booking.id), eq(bookings.status, booking.status), eq(bookings.isPaid, booking.isPaid)))
-      .returning({ id: bookings.id });
-    if (changed.length === 0) throw new BookingChanged();
-    await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
-    await tx.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: args.actorUserId, kind: "consult-cancelled", detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.` });
-    if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
-    // The request's stage follows the booking: no confirmed consult left, no "consult booked".
-    for (const statement of settleStageStatements({ leadId: lead.id, from: ["consult-booked"], cancelledBookingId: booking.id, at: now.toISOString(), tx })) await statement;
+      // The state is checked again by the write itself: of two cancels at once (or a cancel racing the
+      // payment), only the one that still finds the booking as it read it changes anything.
+      const changed = await tx
+        .update(bookings)
+        .set({
+          status: "cancelled",
+          cancelledBy: args.by,
+          cancelReason: args.by === "homeowner" ? "homeowner" : "staff",
+          updatedAt: now.toISOString(),
+        })
+        .where(
+          and(eq(bookings.id, booking.id), eq(bookings.status, booking.status), eq(bookings.isPaid, booking.isPaid)),
+        )
+        .returning({ id: bookings.id });
+      if (changed.length === 0) throw new BookingChanged();
+      await tx
+        .update(emailOutbox)
+        .set({ status: "cancelled" })
+        .where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
+      await tx.insert(leadEvents).values({
+        companyId: company.id,
+        leadId: lead.id,
+        actorUserId: args.actorUserId,
+        kind: "consult-cancelled",
+        detail: `Consult for ${formatSlot(booking.startsAt, company.timeZone)} cancelled by the ${args.by}${booking.isPaid ? "; fee refunded" : ""}.`,
+      });
+      if (rows.length) await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
+      // The request's stage follows the booking: no confirmed consult left, no "consult booked".
+      for (const statement of settleStageStatements({
+        leadId: lead.id,
+        from: ["consult-booked"],
+        cancelledBookingId: booking.id,
+        at: now.toISOString(),
+        tx,
+      }))
+        await statement;
     });
   }
 }
@@ -596,19 +791,39 @@ export async function rescheduleBooking(args: {
 }): Promise<RescheduleResult> {
   const now = args.now ?? new Date();
   const context = await loadBookingContext(args.bookingId);
-  if (!context || context.booking.companyId !== args.companyId) return { ok: false, status: 404, message: "That consult was not found." };
+  if (!context || context.booking.companyId !== args.companyId)
+    return { ok: false, status: 404, message: "That consult was not found." };
   const { booking, company, lead } = context;
   const freeSlots = booking.status === "confirmed" ? await listCompanySlots(company, now) : [];
-  const check = checkReschedule({ status: booking.status, currentStartsAt: booking.startsAt, targetStartsAt: args.startsAt, freeSlots, by: args.by, companyName: company.name, now });
+  const check = checkReschedule({
+    status: booking.status,
+    currentStartsAt: booking.startsAt,
+    targetStartsAt: args.startsAt,
+    freeSlots,
+    by: args.by,
+    companyName: company.name,
+    now,
+  });
   if (!check.ok) return { ok: false, status: check.status, message: check.message };
-  const moved: Booking = { ...booking, startsAt: check.slot.startsAt, endsAt: check.slot.endsAt, calendarSequence: booking.calendarSequence + 1, updatedAt: now.toISOString() };
+  const moved: Booking = {
+    ...booking,
+    startsAt: check.slot.startsAt,
+    endsAt: check.slot.endsAt,
+    calendarSequence: booking.calendarSequence + 1,
+    updatedAt: now.toISOString(),
+  };
   // Rendered before the transaction, so it holds only writes.
   const rows = await movedEmails(booking, moved, company, lead, args.by);
   try {
     await writeTransaction(async (tx) => {
       const changed = await tx
         .update(bookings)
-        .set({ startsAt: moved.startsAt, endsAt: moved.endsAt, calendarSequence: moved.calendarSequence, updatedAt: moved.updatedAt })
+        .set({
+          startsAt: moved.startsAt,
+          endsAt: moved.endsAt,
+          calendarSequence: moved.calendarSequence,
+          updatedAt: moved.updatedAt,
+        })
         .where(
           and(
             eq(bookings.id, booking.id),
@@ -619,7 +834,10 @@ export async function rescheduleBooking(args: {
         )
         .returning({ id: bookings.id });
       if (changed.length === 0) throw new BookingChanged();
-      await tx.update(emailOutbox).set({ status: "cancelled" }).where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
+      await tx
+        .update(emailOutbox)
+        .set({ status: "cancelled" })
+        .where(and(inArray(emailOutbox.idempotencyKey, reminderKeys(booking)), eq(emailOutbox.status, "pending")));
       await tx.insert(emailOutbox).values(rows).onConflictDoNothing();
       await tx.insert(leadEvents).values({
         companyId: company.id,
@@ -632,8 +850,14 @@ export async function rescheduleBooking(args: {
       throw isUniqueViolation(error) ? new SlotTaken() : error;
     });
   } catch (error) {
-    if (error instanceof BookingChanged) return { ok: false, status: 409, message: "This consult changed a moment ago (moved or cancelled). Reload to see it." };
-    if (error instanceof SlotTaken) return { ok: false, status: 409, message: "Someone booked that time a moment ago. Choose another." };
+    if (error instanceof BookingChanged)
+      return {
+        ok: false,
+        status: 409,
+        message: "This consult changed a moment ago (moved or cancelled). Reload to see it.",
+      };
+    if (error instanceof SlotTaken)
+      return { ok: false, status: 409, message: "Someone booked that time a moment ago. Choose another." };
     throw error;
   }
   return { ok: true, booking: moved };
@@ -670,9 +894,17 @@ function consultRefundQueue(database: Db): RefundQueue {
         .limit(REFUND_BATCH_SIZE);
       return database
         .update(bookings)
-        .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${bookings.refundAttempts} + 1` })
+        .set({
+          refundLeaseOwner: owner,
+          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
+          refundAttempts: sql`${bookings.refundAttempts} + 1`,
+        })
         .where(and(inArray(bookings.id, due), isNull(bookings.refundId)))
-        .returning({ id: bookings.id, paymentIntentId: bookings.paymentIntentId, refundAttempts: bookings.refundAttempts });
+        .returning({
+          id: bookings.id,
+          paymentIntentId: bookings.paymentIntentId,
+          refundAttempts: bookings.refundAttempts,
+        });
     },
     settle: (id, owner, outcome) =>
       database
@@ -686,8 +918,16 @@ function consultRefundQueue(database: Db): RefundQueue {
  * Sends the refunds owed (cancelled after payment), each once, keyed `refund:<bookingId>`, under a
  * lease so two processes never send the same one; retried with backoff, failed rows shown to the owner.
  */
-export async function processRefunds(client: Pick<Stripe, "refunds"> = defaultStripe, options: { now?: Date; db?: Db; owner?: string } = {}): Promise<number> {
-  return sendOwedRefunds(consultRefundQueue(options.db ?? db), client, options.owner ?? WORKER_ID, options.now ?? new Date());
+export async function processRefunds(
+  client: Pick<Stripe, "refunds"> = defaultStripe,
+  options: { now?: Date; db?: Db; owner?: string } = {},
+): Promise<number> {
+  return sendOwedRefunds(
+    consultRefundQueue(options.db ?? db),
+    client,
+    options.owner ?? WORKER_ID,
+    options.now ?? new Date(),
+  );
 }
 
 /** Puts a failed refund back in the queue (the owner pressed "Try again"). */
@@ -695,7 +935,14 @@ export async function retryFailedRefund(bookingId: number, companyId: number): P
   const rows = await db
     .update(bookings)
     .set({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null, refundLastError: null })
-    .where(and(eq(bookings.id, bookingId), eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId)))
+    .where(
+      and(
+        eq(bookings.id, bookingId),
+        eq(bookings.companyId, companyId),
+        isNotNull(bookings.refundFailedAt),
+        isNull(bookings.refundId),
+      ),
+    )
     .returning({ id: bookings.id });
   return rows.length > 0;
 }

@@ -5,7 +5,13 @@ import { nextDay, startOfZonedDay, zonedDay } from "~/lib/format/zoned-time";
 
 /** "Tuesday, June 9, 2026" for a calendar day (YYYY-MM-DD); the day itself has no zone. */
 export function formatCalendarDay(day: string): string {
-  return new Intl.DateTimeFormat("en-US", { weekday: "long", month: "long", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  return new Intl.DateTimeFormat("en-US", {
+    weekday: "long",
+    month: "long",
+    day: "numeric",
+    year: "numeric",
+    timeZone: "UTC",
+  }).format(new Date(`${day}T12:00:00Z`));
 }
 
 export type BlockedDay = {
@@ -24,11 +30,18 @@ export async function listBlockedDays(companyId: number, timeZone: string, now =
     .from(consultBlockedDays)
     .where(and(eq(consultBlockedDays.companyId, companyId), gte(consultBlockedDays.day, today)))
     .orderBy(asc(consultBlockedDays.day));
-  const time = (iso: string) => new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+  const time = (iso: string) =>
+    new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
   return Promise.all(
     days.map(async ({ id, day }) => {
       const rows = await db
-        .select({ id: bookings.id, startsAt: bookings.startsAt, isPaid: bookings.isPaid, status: bookings.status, customerName: leads.customerName })
+        .select({
+          id: bookings.id,
+          startsAt: bookings.startsAt,
+          isPaid: bookings.isPaid,
+          status: bookings.status,
+          customerName: leads.customerName,
+        })
         .from(bookings)
         .innerJoin(leads, eq(leads.id, bookings.leadId))
         .where(
@@ -44,7 +57,13 @@ export async function listBlockedDays(companyId: number, timeZone: string, now =
         id,
         day,
         label: formatCalendarDay(day),
-        bookings: rows.map((r) => ({ id: r.id, customerName: r.customerName, time: time(r.startsAt), isPaid: r.isPaid, status: r.status as "held" | "confirmed" })),
+        bookings: rows.map((r) => ({
+          id: r.id,
+          customerName: r.customerName,
+          time: time(r.startsAt),
+          isPaid: r.isPaid,
+          status: r.status as "held" | "confirmed",
+        })),
       };
     }),
   );
@@ -53,17 +72,32 @@ export async function listBlockedDays(companyId: number, timeZone: string, now =
 export type BlockDayResult = { ok: true } | { ok: false; error: string };
 
 /** Blocks a calendar day for consults; today and later only, in the company's time zone. */
-export async function blockDay(companyId: number, timeZone: string, day: string, now = new Date()): Promise<BlockDayResult> {
-  if (!/^\d{4}-\d{2}-\d{2}$/.test(day) || Number.isNaN(Date.parse(`${day}T00:00:00Z`)) || new Date(`${day}T00:00:00Z`).toISOString().slice(0, 10) !== day) {
+export async function blockDay(
+  companyId: number,
+  timeZone: string,
+  day: string,
+  now = new Date(),
+): Promise<BlockDayResult> {
+  if (
+    !/^\d{4}-\d{2}-\d{2}$/.test(day) ||
+    Number.isNaN(Date.parse(`${day}T00:00:00Z`)) ||
+    new Date(`${day}T00:00:00Z`).toISOString().slice(0, 10) !== day
+  ) {
     return { ok: false, error: "Choose a date to block." };
   }
   const today = zonedDay(now, timeZone);
-  if (day < today) return { ok: false, error: `Choose today (${formatCalendarDay(today)}) or a later date: ${formatCalendarDay(day)} has passed.` };
+  if (day < today)
+    return {
+      ok: false,
+      error: `Choose today (${formatCalendarDay(today)}) or a later date: ${formatCalendarDay(day)} has passed.`,
+    };
   await db.insert(consultBlockedDays).values({ companyId, day }).onConflictDoNothing();
   return { ok: true };
 }
 
 /** Opens a blocked day again; another company's id changes nothing. */
 export async function unblockDay(companyId: number, id: number): Promise<void> {
-  await db.delete(consultBlockedDays).where(and(eq(consultBlockedDays.companyId, companyId), eq(consultBlockedDays.id, id)));
+  await db
+    .delete(consultBlockedDays)
+    .where(and(eq(consultBlockedDays.companyId, companyId), eq(consultBlockedDays.id, id)));
 }

@@ -81,7 +81,14 @@ export function parseWeeklyHours(json: string): WeeklyHours {
       const ranges = raw[key];
       if (!Array.isArray(ranges)) continue;
       hours[key] = ranges.filter(
-        (r): r is [number, number] => Array.isArray(r) && r.length === 2 && Number.isInteger(r[0]) && Number.isInteger(r[1]) && r[0] >= 0 && r[1] <= 1440 && r[0] < r[1],
+        (r): r is [number, number] =>
+          Array.isArray(r) &&
+          r.length === 2 &&
+          Number.isInteger(r[0]) &&
+          Number.isInteger(r[1]) &&
+          r[0] >= 0 &&
+          r[1] <= 1440 &&
+          r[0] < r[1],
       );
     }
     return hours;
@@ -109,13 +116,26 @@ export function checkReschedule(args: {
   companyName: string;
   now: Date;
 }): RescheduleCheck {
-  if (args.status !== "confirmed") return { ok: false, status: 409, message: "This consult is not booked (it was cancelled or is not paid yet), so there is no time to move." };
-  if (args.by === "homeowner" && new Date(args.currentStartsAt).getTime() - args.now.getTime() < HOMEOWNER_CHANGE_CUTOFF_HOURS * 3_600_000) {
-    return { ok: false, status: 409, message: `Consults can be moved online up to ${HOMEOWNER_CHANGE_CUTOFF_HOURS} hours ahead. Please call ${args.companyName}.` };
+  if (args.status !== "confirmed")
+    return {
+      ok: false,
+      status: 409,
+      message: "This consult is not booked (it was cancelled or is not paid yet), so there is no time to move.",
+    };
+  if (
+    args.by === "homeowner" &&
+    new Date(args.currentStartsAt).getTime() - args.now.getTime() < HOMEOWNER_CHANGE_CUTOFF_HOURS * 3_600_000
+  ) {
+    return {
+      ok: false,
+      status: 409,
+      message: `Consults can be moved online up to ${HOMEOWNER_CHANGE_CUTOFF_HOURS} hours ahead. Please call ${args.companyName}.`,
+    };
   }
   const target = new Date(args.targetStartsAt);
   if (Number.isNaN(target.getTime())) return { ok: false, status: 400, message: "Choose a new time from the list." };
-  if (target.toISOString() === new Date(args.currentStartsAt).toISOString()) return { ok: false, status: 400, message: "That is the time already booked. Choose another one." };
+  if (target.toISOString() === new Date(args.currentStartsAt).toISOString())
+    return { ok: false, status: 400, message: "That is the time already booked. Choose another one." };
   const slot = args.freeSlots.find((s) => s.startsAt === target.toISOString());
   if (!slot) return { ok: false, status: 409, message: "That time is no longer free. Choose another." };
   return { ok: true, slot };

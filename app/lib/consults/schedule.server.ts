@@ -7,9 +7,21 @@ export type ScheduledConsult = { booking: Booking; customerName: string; town: s
 /** The company's consults held or confirmed that have not ended by `now`, earliest first. */
 export function listUpcomingConsults(companyId: number, now = new Date()): Promise<ScheduledConsult[]> {
   return db
-    .select({ booking: bookings, customerName: leads.customerName, town: leads.town, street: leads.street, leadId: leads.id })
+    .select({
+      booking: bookings,
+      customerName: leads.customerName,
+      town: leads.town,
+      street: leads.street,
+      leadId: leads.id,
+    })
     .from(bookings)
     .innerJoin(leads, eq(leads.id, bookings.leadId))
-    .where(and(eq(bookings.companyId, companyId), inArray(bookings.status, ["held", "confirmed"]), gt(bookings.endsAt, now.toISOString())))
+    .where(
+      and(
+        eq(bookings.companyId, companyId),
+        inArray(bookings.status, ["held", "confirmed"]),
+        gt(bookings.endsAt, now.toISOString()),
+      ),
+    )
     .orderBy(asc(bookings.startsAt));
 }

@@ -26,9 +26,29 @@ export type Point = [x: number, y: number];
 
 export type DrawCommand =
   | { op: "path"; points: Point[]; closed: boolean; widthPt: number; colour: string; dash?: [number, number] }
-  | { op: "rect"; x: number; y: number; w: number; h: number; widthPt: number; stroke?: string; fill?: string; dash?: [number, number] }
+  | {
+      op: "rect";
+      x: number;
+      y: number;
+      w: number;
+      h: number;
+      widthPt: number;
+      stroke?: string;
+      fill?: string;
+      dash?: [number, number];
+    }
   | { op: "circle"; x: number; y: number; r: number; widthPt: number; stroke: string }
-  | { op: "text"; x: number; y: number; text: string; sizePt: number; colour: string; bold?: boolean; align?: "left" | "center" | "right"; width?: number }
+  | {
+      op: "text";
+      x: number;
+      y: number;
+      text: string;
+      sizePt: number;
+      colour: string;
+      bold?: boolean;
+      align?: "left" | "center" | "right";
+      width?: number;
+    }
   | { op: "clip-begin"; x: number; y: number; w: number; h: number }
   | { op: "clip-end" };
 
@@ -92,13 +112,20 @@ export function layoutTemplateSheets(template: CapTemplate, title: string): Temp
   const art = drawTemplateArt(template, toCanvas, { cols, rows, windowW, windowH, canvas });
   const stepW = windowW - OVERLAP_IN;
   const stepH = windowH - OVERLAP_IN;
-  const calibration = { x: PAGE_MARGIN_PT, y: LETTER_PT.height - PAGE_MARGIN_PT - CALIBRATION_PT, size: CALIBRATION_PT };
+  const calibration = {
+    x: PAGE_MARGIN_PT,
+    y: LETTER_PT.height - PAGE_MARGIN_PT - CALIBRATION_PT,
+    size: CALIBRATION_PT,
+  };
   const sheets: TemplateSheet[] = [];
   for (let row = 0; row < rows; row++) {
     for (let col = 0; col < cols; col++) {
       const window = { x: col * stepW, y: row * stepH, w: windowW, h: windowH };
       const label = `${String.fromCharCode(65 + col)}${row + 1}`;
-      const toPage = (p: Point): Point => [AREA.x + (p[0] - window.x) * PT_PER_IN, AREA.y + (p[1] - window.y) * PT_PER_IN];
+      const toPage = (p: Point): Point => [
+        AREA.x + (p[0] - window.x) * PT_PER_IN,
+        AREA.y + (p[1] - window.y) * PT_PER_IN,
+      ];
       const commands: DrawCommand[] = [
         {
           op: "text",
@@ -125,7 +152,15 @@ export function layoutTemplateSheets(template: CapTemplate, title: string): Temp
         { op: "clip-end" },
         { op: "rect", ...AREA, widthPt: 0.5, stroke: SOFT, dash: [2, 2] },
         ...drawOverlapEdges(col, row, cols, rows, stepW, stepH, window, toPage),
-        { op: "rect", x: calibration.x, y: calibration.y, w: CALIBRATION_PT, h: CALIBRATION_PT, widthPt: 0.75, stroke: INK },
+        {
+          op: "rect",
+          x: calibration.x,
+          y: calibration.y,
+          w: CALIBRATION_PT,
+          h: CALIBRATION_PT,
+          widthPt: 0.75,
+          stroke: INK,
+        },
         {
           op: "text",
           x: calibration.x + CALIBRATION_PT + 12,
@@ -182,7 +217,16 @@ function drawSheetMap(cols: number, rows: number, col: number, row: number): Dra
   const commands: DrawCommand[] = [];
   for (let r = 0; r < rows; r++) {
     for (let c = 0; c < cols; c++) {
-      commands.push({ op: "rect", x: x0 + c * cell, y: y0 + r * cell, w: cell, h: cell, widthPt: 0.5, stroke: INK, fill: r === row && c === col ? ACCENT : undefined });
+      commands.push({
+        op: "rect",
+        x: x0 + c * cell,
+        y: y0 + r * cell,
+        w: cell,
+        h: cell,
+        widthPt: 0.5,
+        stroke: INK,
+        fill: r === row && c === col ? ACCENT : undefined,
+      });
     }
   }
   return commands;
@@ -200,7 +244,14 @@ function drawOverlapEdges(
   toPage: (p: Point) => Point,
 ): DrawCommand[] {
   const commands: DrawCommand[] = [];
-  const line = (a: Point, b: Point): DrawCommand => ({ op: "path", points: [toPage(a), toPage(b)], closed: false, widthPt: 0.5, colour: ACCENT, dash: [4, 3] });
+  const line = (a: Point, b: Point): DrawCommand => ({
+    op: "path",
+    points: [toPage(a), toPage(b)],
+    closed: false,
+    widthPt: 0.5,
+    colour: ACCENT,
+    dash: [4, 3],
+  });
   if (col + 1 < cols) commands.push(line([(col + 1) * stepW, window.y], [(col + 1) * stepW, window.y + window.h]));
   if (row + 1 < rows) commands.push(line([window.x, (row + 1) * stepH], [window.x + window.w, (row + 1) * stepH]));
   return commands;
@@ -215,7 +266,13 @@ function drawTemplateArt(
   const l = t.blankLengthIn;
   const w = t.blankDepthIn;
   const [il, ir, or, ol] = t.corners;
-  const path = (points: TemplatePoint[], closed: boolean, widthPt: number, colour: string, dash?: [number, number]): DrawCommand => ({
+  const path = (
+    points: TemplatePoint[],
+    closed: boolean,
+    widthPt: number,
+    colour: string,
+    dash?: [number, number],
+  ): DrawCommand => ({
     op: "path",
     points: points.map(toCanvas),
     closed,
@@ -232,7 +289,17 @@ function drawTemplateArt(
   const outerMark = formatInches(ol[0]);
   const commands: DrawCommand[] = [
     // The blank's edges: lay these on the blank's own edges.
-    path([[0, 0], [l, 0], [l, w], [0, w]], true, 0.75, SOFT),
+    path(
+      [
+        [0, 0],
+        [l, 0],
+        [l, w],
+        [0, w],
+      ],
+      true,
+      0.75,
+      SOFT,
+    ),
     // The cut: bold, the line to saw along.
     path([il, ir, or, ol], true, 2, INK),
     // Marks on the long edges, with ticks running off the blank so they can be transferred.
@@ -246,17 +313,47 @@ function drawTemplateArt(
     text([l - ol[0] / 2 - 0.3, w + 0.2], outerMark, 9, ACCENT, true),
     // The optional arcs, thin and dashed: only for arced edges.
     path(t.innerArc, false, 0.6, SOFT, [3, 2]),
-    path(t.outerArc.filter(([, y]) => y <= w + 1e-9), false, 0.6, SOFT, [3, 2]),
+    path(
+      t.outerArc.filter(([, y]) => y <= w + 1e-9),
+      false,
+      0.6,
+      SOFT,
+      [3, 2],
+    ),
     // Centre line of the cap, for squaring the template on the blank.
-    path([[l / 2, -0.3], [l / 2, w + 0.3]], false, 0.5, SOFT, [6, 2]),
+    path(
+      [
+        [l / 2, -0.3],
+        [l / 2, w + 0.3],
+      ],
+      false,
+      0.5,
+      SOFT,
+      [6, 2],
+    ),
     text([l / 2 + 0.1, 0.25], "FIRE SIDE (inner edge)", 9, INK, true),
     text([l / 2 + 0.1, w - 0.45], "OUTER EDGE", 9, INK, true),
     text([il[0] + 0.15, 0.7], `inner ${formatInches(ir[0] - il[0])}`, 8),
     text([ol[0] + 0.15, Math.max(0.9, t.capDepthIn - 0.75)], `outer ${formatInches(or[0] - ol[0])}`, 8),
-    text([Math.min(il[0], ol[0]) + 0.4, t.capDepthIn / 2], `cut ${formatDegrees((Math.atan2(il[0] - ol[0], t.capDepthIn) * 180) / Math.PI)} off square`, 8),
+    text(
+      [Math.min(il[0], ol[0]) + 0.4, t.capDepthIn / 2],
+      `cut ${formatDegrees((Math.atan2(il[0] - ol[0], t.capDepthIn) * 180) / Math.PI)} off square`,
+      8,
+    ),
   ];
   if (t.ripLineIn !== null) {
-    commands.push(path([[0, t.ripLineIn], [l, t.ripLineIn]], false, 1, ACCENT, [6, 3]));
+    commands.push(
+      path(
+        [
+          [0, t.ripLineIn],
+          [l, t.ripLineIn],
+        ],
+        false,
+        1,
+        ACCENT,
+        [6, 3],
+      ),
+    );
     commands.push(text([0.2, t.ripLineIn + 0.1], `rip line: ${formatInches(t.ripLineIn)} deep`, 8, ACCENT, true));
   }
   // Alignment targets in every overlap strip: each appears on both sheets at the same spot.
@@ -271,8 +368,26 @@ function drawTemplateArt(
   }
   for (const [x, y] of targets) {
     commands.push({ op: "circle", x, y, r: 0.12, widthPt: 0.6, stroke: INK });
-    commands.push({ op: "path", points: [[x - 0.2, y], [x + 0.2, y]], closed: false, widthPt: 0.6, colour: INK });
-    commands.push({ op: "path", points: [[x, y - 0.2], [x, y + 0.2]], closed: false, widthPt: 0.6, colour: INK });
+    commands.push({
+      op: "path",
+      points: [
+        [x - 0.2, y],
+        [x + 0.2, y],
+      ],
+      closed: false,
+      widthPt: 0.6,
+      colour: INK,
+    });
+    commands.push({
+      op: "path",
+      points: [
+        [x, y - 0.2],
+        [x, y + 0.2],
+      ],
+      closed: false,
+      widthPt: 0.6,
+      colour: INK,
+    });
   }
   return commands;
 }

@@ -31,9 +31,21 @@ function wallRows(ring: CutListPlan["ring"]): CutRow[] {
         ? `${ring.unitsPerCourse}: ${ring.unitCount} whole + ${plural(closure.countPerCourse, "closure unit")}`
         : `${ring.unitsPerCourse}, all whole`,
     },
-    { key: "courses", label: "Courses", value: `${ring.courses} (${ring.totalUnits} pieces in all), ${f(ring.wallHeightIn)} high with the cap` },
-    { key: "layout-radius", label: "Layout radius", value: `${f(ring.edgeDistanceIn)} from the centre pin to the middle of each unit's back` },
-    { key: "diameters", label: "Bowl and outside", value: `${f(ring.bowlDiameterIn)} inside, ${f(ring.outsideDiameterIn)} outside, across the flats` },
+    {
+      key: "courses",
+      label: "Courses",
+      value: `${ring.courses} (${ring.totalUnits} pieces in all), ${f(ring.wallHeightIn)} high with the cap`,
+    },
+    {
+      key: "layout-radius",
+      label: "Layout radius",
+      value: `${f(ring.edgeDistanceIn)} from the centre pin to the middle of each unit's back`,
+    },
+    {
+      key: "diameters",
+      label: "Bowl and outside",
+      value: `${f(ring.bowlDiameterIn)} inside, ${f(ring.outsideDiameterIn)} outside, across the flats`,
+    },
     {
       key: "joints",
       label: "Joints",
@@ -90,7 +102,10 @@ function capRows(caps: NonNullable<CutListPlan["caps"]>): CutRow[] {
     {
       key: "cap-rip",
       label: "Rip",
-      value: caps.ripToDepthIn !== null ? `Rip each blank to ${f(caps.ripToDepthIn)} deep first` : "None: use the blank's full depth",
+      value:
+        caps.ripToDepthIn !== null
+          ? `Rip each blank to ${f(caps.ripToDepthIn)} deep first`
+          : "None: use the blank's full depth",
     },
     { key: "cap-inner-width", label: "Inner width", value: `${f(caps.innerWidthIn)} (fire side)` },
     { key: "cap-outer-width", label: "Outer width", value: f(caps.outerWidthIn) },
@@ -144,7 +159,11 @@ function capRows(caps: NonNullable<CutListPlan["caps"]>): CutRow[] {
 function linerRows(liner: NonNullable<CutListPlan["liner"]>): CutRow[] {
   if (liner.kind === "steel-ring") {
     const rows: CutRow[] = [
-      { key: "liner-ring", label: "Steel ring", value: `${f(liner.outsideDiameterIn)} outside, ${f(liner.heightIn)} high` },
+      {
+        key: "liner-ring",
+        label: "Steel ring",
+        value: `${f(liner.outsideDiameterIn)} outside, ${f(liner.heightIn)} high`,
+      },
       {
         key: "liner-gap",
         label: "Gap to the wall",
@@ -163,7 +182,11 @@ function linerRows(liner: NonNullable<CutListPlan["liner"]>): CutRow[] {
           : `Set on the bowl floor; its top sits ${f(liner.linedHeightIn - liner.heightIn)} under the caps`,
     });
     if (liner.fits && liner.fillFt3 > 0) {
-      rows.push({ key: "liner-fill", label: "Fill", value: `About ${liner.fillFt3.toFixed(1)} ft³ of pea gravel for the ${liner.bedDepthIn > 0 ? "bed and the " : ""}gap` });
+      rows.push({
+        key: "liner-fill",
+        label: "Fill",
+        value: `About ${liner.fillFt3.toFixed(1)} ft³ of pea gravel for the ${liner.bedDepthIn > 0 ? "bed and the " : ""}gap`,
+      });
     }
     return rows;
   }
@@ -183,8 +206,16 @@ function linerRows(liner: NonNullable<CutListPlan["liner"]>): CutRow[] {
           : `Whole bricks; the lining stops at ${f(liner.builtHeightIn)}, at or under the top of the block (${f(liner.linedHeightIn)})`,
     },
     { key: "liner-firebox", label: "Firebox", value: `${f(liner.fireboxDiameterIn)} across inside the brick` },
-    { key: "liner-joint", label: "Outer joints", value: `Open to ${f(liner.outerJointIn)} at the back of the brick: fill with mortar` },
-    { key: "liner-gap", label: "Gap to the wall", value: `${f(liner.gapToWallIn)} at the middle of a brick: pour in about ${liner.fillFt3.toFixed(1)} ft³ of sand as the rows go up` },
+    {
+      key: "liner-joint",
+      label: "Outer joints",
+      value: `Open to ${f(liner.outerJointIn)} at the back of the brick: fill with mortar`,
+    },
+    {
+      key: "liner-gap",
+      label: "Gap to the wall",
+      value: `${f(liner.gapToWallIn)} at the middle of a brick: pour in about ${liner.fillFt3.toFixed(1)} ft³ of sand as the rows go up`,
+    },
   ];
 }
 
@@ -209,7 +240,11 @@ function patioRows(patio: NonNullable<CutListPlan["patio"]>, base: CutListPlan["
           ? `Cut one end of every unit ${formatDegrees(patio.borderTaperDeg ?? 0)} off square and lay outer corners touching, cut end to square end: no open V-joints (${patio.borderCuts} cuts)`
           : `${formatDegrees(patio.borderUnitAngleDeg)} a unit, inner corners touching; outer joints open to ${f(patio.borderOuterJointIn)}`,
     },
-    { key: "patio-field-radius", label: "Field cut radius", value: `Trammel ${f(patio.fieldCutRadiusIn)} from the centre pin` },
+    {
+      key: "patio-field-radius",
+      label: "Field cut radius",
+      value: `Trammel ${f(patio.fieldCutRadiusIn)} from the centre pin`,
+    },
     {
       key: "patio-pavers",
       label: "Field pavers",
@@ -269,7 +304,8 @@ export function legacyCutList(): CutSection[] {
         {
           key: "legacy",
           label: "Older plan",
-          value: "This plan was made by an older estimate and one of its catalog items is no longer offered, so its cut list cannot be recomputed. Revise the design to get a cut list to build from.",
+          value:
+            "This plan was made by an older estimate and one of its catalog items is no longer offered, so its cut list cannot be recomputed. Revise the design to get a cut list to build from.",
         },
       ],
     },

@@ -4,7 +4,15 @@ import { layoutTemplateSheets, LETTER_PT, PAGE_MARGIN_PT, type DrawCommand } fro
 import type { CutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { drawCapFigure, drawRingFigure } from "~/lib/cut-sheet/cut-sheet-figures";
 import { withWideText } from "~/lib/platform/pdf-fonts.server";
-import { BOTTOM, collectPdf, CONTENT_W, ensureRoom, heading, ruleAcross, type Doc } from "~/lib/platform/pdf-layout.server";
+import {
+  BOTTOM,
+  collectPdf,
+  CONTENT_W,
+  ensureRoom,
+  heading,
+  ruleAcross,
+  type Doc,
+} from "~/lib/platform/pdf-layout.server";
 
 /*
  * The printable cut sheet as a PDF, made with pdfkit's built-in Helvetica (Noto where a name needs it):
@@ -55,7 +63,12 @@ export function playCommands(doc: Doc, commands: DrawCommand[]): void {
           .font(c.bold ? "Helvetica-Bold" : "Helvetica")
           .fontSize(c.sizePt)
           .fillColor(c.colour)
-          .text(c.text, c.x, c.y, c.width !== undefined ? { width: c.width, align: c.align ?? "left" } : { lineBreak: false });
+          .text(
+            c.text,
+            c.x,
+            c.y,
+            c.width !== undefined ? { width: c.width, align: c.align ?? "left" } : { lineBreak: false },
+          );
         break;
       case "clip-begin":
         doc.save();
@@ -111,39 +124,63 @@ function headedTable(doc: Doc, title: string, rows: TableRow[], labelW = 140): v
     }
     const y = doc.y;
     doc.font("Helvetica-Bold").fontSize(9.5).fillColor(INK).text(row.label, PAGE_MARGIN_PT, y, { width: labelW });
-    doc.font("Helvetica").fontSize(9.5).fillColor(INK).text(row.value, PAGE_MARGIN_PT + labelW + 8, y, { width: valueW });
+    doc
+      .font("Helvetica")
+      .fontSize(9.5)
+      .fillColor(INK)
+      .text(row.value, PAGE_MARGIN_PT + labelW + 8, y, { width: valueW });
     doc.y = y + h + 3;
     ruleAcross(doc, doc.y - 1.5, RULE, 0.3);
   });
 }
 
-const UNIT_WORDS = { each: ["each", "each"], ton: ["ton", "tons"], cartridge: ["cartridge", "cartridges"], bag: ["bag", "bags"], pail: ["pail", "pails"], piece: ["piece", "pieces"] } as const;
+const UNIT_WORDS = {
+  each: ["each", "each"],
+  ton: ["ton", "tons"],
+  cartridge: ["cartridge", "cartridges"],
+  bag: ["bag", "bags"],
+  pail: ["pail", "pails"],
+  piece: ["piece", "pieces"],
+} as const;
 
 /** Renders the whole cut sheet; resolves to the PDF's bytes. */
 export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
   // Names and addresses may be in any script: text the built-in font cannot set uses embedded Noto.
-  const doc = withWideText(new PDFDocument({
-    size: "LETTER",
-    margin: PAGE_MARGIN_PT,
-    bufferPages: true,
-    info: {
-      Title: `Cut sheet: ${sheet.customerName}, ${sheet.town}`,
-      Author: sheet.companyName,
-      Creator: "Emberwright",
-      Subject: "Cut list, material order and full-size cap template",
-    },
-  }));
+  const doc = withWideText(
+    new PDFDocument({
+      size: "LETTER",
+      margin: PAGE_MARGIN_PT,
+      bufferPages: true,
+      info: {
+        Title: `Cut sheet: ${sheet.customerName}, ${sheet.town}`,
+        Author: sheet.companyName,
+        Creator: "Emberwright",
+        Subject: "Cut list, material order and full-size cap template",
+      },
+    }),
+  );
   const done = collectPdf(doc);
 
-  doc.font("Helvetica-Bold").fontSize(9).fillColor(ACCENT).text("CUT SHEET", PAGE_MARGIN_PT, PAGE_MARGIN_PT, { characterSpacing: 1.5 });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(9)
+    .fillColor(ACCENT)
+    .text("CUT SHEET", PAGE_MARGIN_PT, PAGE_MARGIN_PT, { characterSpacing: 1.5 });
   doc.font("Helvetica-Bold").fontSize(20).fillColor(INK).text(sheet.customerName, { width: CONTENT_W });
   doc.font("Helvetica").fontSize(10.5).fillColor(INK).text(`${sheet.street}, ${sheet.town}`, { width: CONTENT_W });
   doc
     .fontSize(9)
     .fillColor(SOFT)
-    .text(`${sheet.companyName} · job #${sheet.leadId} · ${sheet.versionLabel} · printed ${sheet.printedOn}`, { width: CONTENT_W });
+    .text(`${sheet.companyName} · job #${sheet.leadId} · ${sheet.versionLabel} · printed ${sheet.printedOn}`, {
+      width: CONTENT_W,
+    });
 
-  headedTable(doc, "The design", sheet.summary.map((l) => ({ label: l.label, value: l.value })), 110);
+  headedTable(
+    doc,
+    "The design",
+    sheet.summary.map((l) => ({ label: l.label, value: l.value })),
+    110,
+  );
 
   for (const section of sheet.cutList) {
     headedTable(doc, `Cut list: ${section.title.toLowerCase()}`, section.rows);
@@ -154,7 +191,10 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
     "Material order",
     sheet.materials.map((m) => {
       const [one, many] = UNIT_WORDS[m.unit];
-      return { label: `${m.quantity} ${m.quantity === 1 ? one : many}`, value: `${m.item}${m.note ? `: ${m.note}` : ""}` };
+      return {
+        label: `${m.quantity} ${m.quantity === 1 ? one : many}`,
+        value: `${m.item}${m.note ? `: ${m.note}` : ""}`,
+      };
     }),
     90,
   );
@@ -173,20 +213,44 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
     .font("Helvetica-Oblique")
     .fontSize(8.5)
     .fillColor(SOFT)
-    .text("These notes do not replace your local codes, your fire authority or licensed trades (gas, electrical): where they say more, they win.", PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
+    .text(
+      "These notes do not replace your local codes, your fire authority or licensed trades (gas, electrical): where they say more, they win.",
+      PAGE_MARGIN_PT,
+      doc.y,
+      { width: CONTENT_W },
+    );
 
   doc.addPage();
-  doc.font("Helvetica-Bold").fontSize(13).fillColor(INK).text("Drawings (to scale on this page, not full size)", PAGE_MARGIN_PT, PAGE_MARGIN_PT);
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(13)
+    .fillColor(INK)
+    .text("Drawings (to scale on this page, not full size)", PAGE_MARGIN_PT, PAGE_MARGIN_PT);
   const capBox = { x: PAGE_MARGIN_PT, y: PAGE_MARGIN_PT + 40, w: CONTENT_W, h: 280 };
   if (sheet.caps) {
-    doc.font("Helvetica-Bold").fontSize(10).fillColor(INK).text(`One cap of ${sheet.caps.count}, on its blank`, PAGE_MARGIN_PT, PAGE_MARGIN_PT + 22);
+    doc
+      .font("Helvetica-Bold")
+      .fontSize(10)
+      .fillColor(INK)
+      .text(`One cap of ${sheet.caps.count}, on its blank`, PAGE_MARGIN_PT, PAGE_MARGIN_PT + 22);
     playCommands(doc, drawCapFigure(layoutCapTemplate(sheet.caps), sheet.caps.offSquareDeg, capBox));
   } else {
-    doc.font("Helvetica").fontSize(10).fillColor(SOFT).text("No caps on this job.", PAGE_MARGIN_PT, PAGE_MARGIN_PT + 22);
+    doc
+      .font("Helvetica")
+      .fontSize(10)
+      .fillColor(SOFT)
+      .text("No caps on this job.", PAGE_MARGIN_PT, PAGE_MARGIN_PT + 22);
   }
   const ringTop = capBox.y + capBox.h + 20;
-  doc.font("Helvetica-Bold").fontSize(10).fillColor(INK).text("The ring: first course, caps dashed, closure units in orange", PAGE_MARGIN_PT, ringTop);
-  playCommands(doc, drawRingFigure(sheet.sceneInput, { x: PAGE_MARGIN_PT, y: ringTop + 10, w: CONTENT_W, h: BOTTOM - ringTop - 14 }));
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(10)
+    .fillColor(INK)
+    .text("The ring: first course, caps dashed, closure units in orange", PAGE_MARGIN_PT, ringTop);
+  playCommands(
+    doc,
+    drawRingFigure(sheet.sceneInput, { x: PAGE_MARGIN_PT, y: ringTop + 10, w: CONTENT_W, h: BOTTOM - ringTop - 14 }),
+  );
 
   if (sheet.caps) {
     const layout = layoutTemplateSheets(layoutCapTemplate(sheet.caps), `${sheet.customerName}, job #${sheet.leadId}`);
@@ -205,11 +269,16 @@ export function renderCutSheetPdf(sheet: CutSheet): Promise<Buffer> {
       .font("Helvetica")
       .fontSize(7.5)
       .fillColor(SOFT)
-      .text(`${sheet.companyName} · ${sheet.customerName} · page ${i + 1} of ${range.count}`, PAGE_MARGIN_PT, LETTER_PT.height - 24, {
-        width: CONTENT_W,
-        align: "right",
-        lineBreak: false,
-      });
+      .text(
+        `${sheet.companyName} · ${sheet.customerName} · page ${i + 1} of ${range.count}`,
+        PAGE_MARGIN_PT,
+        LETTER_PT.height - 24,
+        {
+          width: CONTENT_W,
+          align: "right",
+          lineBreak: false,
+        },
+      );
   }
   doc.end();
   return done;

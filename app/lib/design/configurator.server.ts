@@ -15,8 +15,7 @@ export function toCatalogChoice(item: CatalogItem): CatalogChoice {
 }
 
 export type DesignPlan =
-  | { plan: Plan; resolved: Resolved; errors: [] }
-  | { plan: null; resolved: null; errors: PlanFieldError[] };
+  { plan: Plan; resolved: Resolved; errors: [] } | { plan: null; resolved: null; errors: PlanFieldError[] };
 
 /** The full plan for a design (cost breakdown included), through the same request path as POST /api/plan. */
 export async function planForDesign(
@@ -37,14 +36,23 @@ export async function planForDesign(
 }
 
 /** The record saved with a request or a revision: the design, the parts and prices the plan was made from, and the plan. */
-export function recordPlan(args: { design: Design; summary: SummaryLine[]; resolved: Resolved; plan: Plan }): StoredPlanRecord {
+export function recordPlan(args: {
+  design: Design;
+  summary: SummaryLine[];
+  resolved: Resolved;
+  plan: Plan;
+}): StoredPlanRecord {
   const { design, summary, resolved, plan } = args;
   return {
     design: {
       version: STORED_PLAN_VERSION,
       choices: design,
       summary,
-      inputs: { engine: resolved.input, factors: resolveFactors(resolved.factors), supplyPrices: { ...resolved.supplyPrices } },
+      inputs: {
+        engine: resolved.input,
+        factors: resolveFactors(resolved.factors),
+        supplyPrices: { ...resolved.supplyPrices },
+      },
     },
     plan,
   };

@@ -16,7 +16,8 @@ export type PublicPlan = Omit<Plan, "price"> & { price: { lowCents: number; high
 
 export type PlanRequestBody = Record<string, unknown>;
 
-const byId = (catalog: CatalogChoice[], id: number | null) => (id === null ? undefined : catalog.find((i) => i.id === id));
+const byId = (catalog: CatalogChoice[], id: number | null) =>
+  id === null ? undefined : catalog.find((i) => i.id === id);
 
 /** The site distances the homeowner gave (ft), as the engine's `site`; absent when none were. */
 function siteOf(design: Design): { site?: { setbackFt?: number; propertyLineFt?: number; branchesFt?: number } } {
@@ -80,7 +81,11 @@ export function designToPlanRequest(
  * The same design as the engine's inline input, from the public catalog (sizes, no prices), so the
  * browser can redraw the geometry at once while the priced answer comes from the server.
  */
-export function designToPlanInput(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PlanInput | null {
+export function designToPlanInput(
+  design: Design,
+  catalog: CatalogChoice[],
+  factors?: Partial<CompanyFactors>,
+): PlanInput | null {
   const items = chooseDesignItems(design, catalog, factors);
   const wallUnit = toEnginePart(items.stone, "wall-unit");
   if (!wallUnit) return null;
@@ -100,7 +105,11 @@ export function designToPlanInput(design: Design, catalog: CatalogChoice[], fact
 }
 
 /** The geometry of a design computed in the browser with the company's public factors (no prices); null when it cannot be built. */
-export function planLocally(design: Design, catalog: CatalogChoice[], factors?: Partial<CompanyFactors>): PublicPlan | null {
+export function planLocally(
+  design: Design,
+  catalog: CatalogChoice[],
+  factors?: Partial<CompanyFactors>,
+): PublicPlan | null {
   const input = designToPlanInput(design, catalog, factors);
   if (!input) return null;
   try {
@@ -123,7 +132,8 @@ export function planToSceneInput(plan: DrawnPlan, input: StoredPlanInput): PitSc
   const liner = plan.liner;
   const linerInput = input.liner;
   const patioInput = input.patio;
-  const colour = (part: { colourHex?: string } | null | undefined, fallback: string) => pickColour(part?.colourHex, fallback);
+  const colour = (part: { colourHex?: string } | null | undefined, fallback: string) =>
+    pickColour(part?.colourHex, fallback);
   return {
     wallUnit: {
       faceIn: wallUnit.faceIn,
@@ -196,7 +206,13 @@ export type SummaryLine = { label: string; value: string };
  * is about 18 in high and seat walls are built 18–20 in; a footrest for someone in a chair sits lower,
  * about 10–16 in; a wall above about 24 in is too tall to sit on and reads as a counter to lean on.
  */
-export const SEAT_HEIGHTS_IN = { footrestFromIn: 10, lowSeatFromIn: 16, seatFromIn: 18, seatToIn: 20, tallFromIn: 24 } as const;
+export const SEAT_HEIGHTS_IN = {
+  footrestFromIn: 10,
+  lowSeatFromIn: 16,
+  seatFromIn: 18,
+  seatToIn: 20,
+  tallFromIn: 24,
+} as const;
 
 /** Whether a wall (cap included, inches) suits looking, resting feet, sitting or leaning. */
 export function describeSeat(wallHeightIn: number): string {
@@ -210,19 +226,33 @@ export function describeSeat(wallHeightIn: number): string {
 }
 
 /** The design in a few plain lines (shown on pages and in e-mails). */
-export function summarizeDesign(plan: PublicPlan, design: Design, catalog: CatalogChoice[], unit: LengthUnit = "in"): SummaryLine[] {
+export function summarizeDesign(
+  plan: PublicPlan,
+  design: Design,
+  catalog: CatalogChoice[],
+  unit: LengthUnit = "in",
+): SummaryLine[] {
   const f = (inches: number) => formatLength(inches, unit);
   const stone = byId(catalog, design.stoneId);
   const cap = byId(catalog, design.capId);
   const ring = byId(catalog, design.ringId);
   const lines: SummaryLine[] = [
     { label: "Wall stone", value: stone ? `${stone.name}${stone.colourName ? `, ${stone.colourName}` : ""}` : "—" },
-    { label: "Bowl", value: `${f(plan.ring.bowlDiameterIn)} across inside, ${plan.ring.unitsPerCourse} units a course` },
+    {
+      label: "Bowl",
+      value: `${f(plan.ring.bowlDiameterIn)} across inside, ${plan.ring.unitsPerCourse} units a course`,
+    },
     { label: "Outside", value: `${f(plan.ring.outsideDiameterIn)} across` },
-    { label: "Height", value: `${plan.ring.courses} courses, ${f(plan.ring.wallHeightIn)} with the cap (${describeSeat(plan.ring.wallHeightIn)})` },
+    {
+      label: "Height",
+      value: `${plan.ring.courses} courses, ${f(plan.ring.wallHeightIn)} with the cap (${describeSeat(plan.ring.wallHeightIn)})`,
+    },
     {
       label: "Cap",
-      value: plan.caps && cap ? `${cap.name}: ${plan.caps.count} caps, ${f(plan.caps.innerOverhangIn)} over the fire` : "No caps",
+      value:
+        plan.caps && cap
+          ? `${cap.name}: ${plan.caps.count} caps, ${f(plan.caps.innerOverhangIn)} over the fire`
+          : "No caps",
     },
     {
       label: "Liner",
@@ -266,7 +296,9 @@ export function describePreview(plan: Pick<StoredPlan, "ring" | "caps" | "patio"
   if (plan.patio) {
     const acrossIn = plan.patio.outsideRadiusIn * 2;
     // A patio reads better in feet than in inches.
-    parts.push(`patio ${unit === "mm" ? `${(inToMm(acrossIn) / 1000).toFixed(2)} m` : `${Math.round((acrossIn / 12) * 10) / 10} ft`} across`);
+    parts.push(
+      `patio ${unit === "mm" ? `${(inToMm(acrossIn) / 1000).toFixed(2)} m` : `${Math.round((acrossIn / 12) * 10) / 10} ft`} across`,
+    );
   }
   return parts.join(" · ");
 }

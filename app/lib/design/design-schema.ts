@@ -8,15 +8,25 @@ import { MAX_INNER_OVERHANG_IN, PATIO_RADIUS_FT, type CatalogChoice } from "~/li
  * link should always open); a staff revision is saved, so every value must be one we offer.
  */
 
-const id = (label: string) => z.string().regex(/^\d{1,9}$/, { error: `${label} must be a catalog item's id.` }).transform(Number);
-const optionalParam = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (v === null || v === "" ? undefined : v), schema.optional());
+const id = (label: string) =>
+  z
+    .string()
+    .regex(/^\d{1,9}$/, { error: `${label} must be a catalog item's id.` })
+    .transform(Number);
+const optionalParam = <T extends z.ZodType>(schema: T) =>
+  z.preprocess((v) => (v === null || v === "" ? undefined : v), schema.optional());
 
 function numberIn(label: string, min: number, max: number, unit: string) {
   return z
     .string()
     .regex(/^\d+(\.\d+)?$/, { error: `${label} must be a number from ${min} to ${max}${unit}.` })
     .transform(Number)
-    .pipe(z.number().min(min, `${label} must be from ${min} to ${max}${unit}.`).max(max, `${label} must be from ${min} to ${max}${unit}.`));
+    .pipe(
+      z
+        .number()
+        .min(min, `${label} must be from ${min} to ${max}${unit}.`)
+        .max(max, `${label} must be from ${min} to ${max}${unit}.`),
+    );
 }
 
 export const designParamsSchema = z.object({
@@ -49,10 +59,12 @@ export function checkDesignParams(query: string, catalog: CatalogChoice[]): Reco
   if (!parsed.success) return fieldErrors(parsed.error, "design");
   const errors: Record<string, string> = {};
   const v = parsed.data;
-  const offered = (itemId: number | undefined, kinds: string[]) => itemId !== undefined && catalog.some((i) => i.id === itemId && kinds.includes(i.kind));
+  const offered = (itemId: number | undefined, kinds: string[]) =>
+    itemId !== undefined && catalog.some((i) => i.id === itemId && kinds.includes(i.kind));
   if (!offered(v.stone, ["wall-unit"])) errors.stone = "Choose a wall stone you offer.";
   if (v.cap !== "none" && !offered(v.cap, ["cap"])) errors.cap = "Choose a cap you offer, or no caps.";
-  if (v.liner === "steel-ring" && !offered(v.ring, ["steel-ring"])) errors.ring = "Choose a steel ring insert you offer.";
+  if (v.liner === "steel-ring" && !offered(v.ring, ["steel-ring"]))
+    errors.ring = "Choose a steel ring insert you offer.";
   if (v.liner === "firebrick" && !catalog.some((i) => i.kind === "firebrick")) errors.liner = "You offer no firebrick.";
   if (v.patio > 0) {
     if (!offered(v.paver, ["paver"])) errors.paver = "Choose pavers you offer.";

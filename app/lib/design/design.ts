@@ -53,7 +53,12 @@ const DEFAULT_BOWL_IN = 36;
 const DEFAULT_SEAT_HEIGHT_IN = 16;
 
 export function wallUnitSize(item: CatalogChoice): WallUnitSize {
-  return { faceIn: item.faceIn ?? 0, backIn: item.backIn ?? 0, depthIn: item.depthIn ?? 0, heightIn: item.heightIn ?? 0 };
+  return {
+    faceIn: item.faceIn ?? 0,
+    backIn: item.backIn ?? 0,
+    depthIn: item.depthIn ?? 0,
+    heightIn: item.heightIn ?? 0,
+  };
 }
 
 /** Whole-unit ring sizes offered for a stone: unit count and its exact bowl diameter (in). */

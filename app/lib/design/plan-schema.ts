@@ -51,7 +51,9 @@ const name = z
   .optional();
 
 const catalogId = z
-  .number({ error: (issue) => (issue.input === undefined ? "A catalog id is required." : "A catalog id must be a number.") })
+  .number({
+    error: (issue) => (issue.input === undefined ? "A catalog id is required." : "A catalog id must be a number."),
+  })
   .int({ error: "A catalog id is a whole number above 0." })
   .positive({ error: "A catalog id is a whole number above 0." });
 
@@ -98,18 +100,26 @@ const outerOverhangIn = measure("Outer overhang", 0, 12);
 
 const CAP_MISSING = "Cap is required: give the cap blank, a catalog id, or null for no caps.";
 
-const capSpec = object("Cap", {
-  lengthIn: measure("Cap length", 4, 48),
-  depthIn: measure("Cap depth", 4, 36),
-  thicknessIn: measure("Cap thickness", 0.5, 8),
-  innerOverhangIn,
-  outerOverhangIn: outerOverhangIn.optional(),
-  priceCents,
-  name,
-}, CAP_MISSING);
+const capSpec = object(
+  "Cap",
+  {
+    lengthIn: measure("Cap length", 4, 48),
+    depthIn: measure("Cap depth", 4, 36),
+    thicknessIn: measure("Cap thickness", 0.5, 8),
+    innerOverhangIn,
+    outerOverhangIn: outerOverhangIn.optional(),
+    priceCents,
+    name,
+  },
+  CAP_MISSING,
+);
 
 // A catalog cap still needs the overhangs, which are choices for this pit, not part of the stock item.
-const capRef = object("Cap", { id: catalogId, innerOverhangIn: innerOverhangIn.optional(), outerOverhangIn: outerOverhangIn.optional() });
+const capRef = object("Cap", {
+  id: catalogId,
+  innerOverhangIn: innerOverhangIn.optional(),
+  outerOverhangIn: outerOverhangIn.optional(),
+});
 
 const linerSpec = z.discriminatedUnion(
   "kind",
@@ -177,7 +187,11 @@ const ringSchema = object("Ring", {
     } else if (hasBowl && ring.fit === undefined) {
       ctx.addIssue({ code: "custom", path: ["fit"], message: `${FIT_MESSAGE} It is required with bowlDiameterIn.` });
     } else if (hasCount && ring.fit !== undefined) {
-      ctx.addIssue({ code: "custom", path: ["fit"], message: "Ring fit only goes with bowlDiameterIn, not unitCount." });
+      ctx.addIssue({
+        code: "custom",
+        path: ["fit"],
+        message: "Ring fit only goes with bowlDiameterIn, not unitCount.",
+      });
     }
   })
   .transform((ring) =>

@@ -1,6 +1,15 @@
 import type { CatalogItem, CatalogKind, Company } from "~/db/schema";
 import type { CompanyFactors, SupplyPrices } from "~/domain/factors";
-import { computePlan, PlanGeometryError, type CapInput, type LinerInput, type Plan, type PlanInput, type PatioInput, type WallUnitInput } from "~/domain/plan";
+import {
+  computePlan,
+  PlanGeometryError,
+  type CapInput,
+  type LinerInput,
+  type Plan,
+  type PlanInput,
+  type PatioInput,
+  type WallUnitInput,
+} from "~/domain/plan";
 import { loadOfferedCatalog } from "~/lib/catalog/catalog.server";
 import { readCompanyFactors } from "~/lib/settings/factor-settings";
 import { toEnginePart, type PartByKind, type PartKind } from "~/lib/catalog/catalog-parts";
@@ -35,7 +44,12 @@ export class PlanRequestError extends Error {
   }
 }
 
-export type Resolved = { input: PlanInput; factors?: Partial<CompanyFactors>; supplyPrices?: SupplyPrices; company: Company | null };
+export type Resolved = {
+  input: PlanInput;
+  factors?: Partial<CompanyFactors>;
+  supplyPrices?: SupplyPrices;
+  company: Company | null;
+};
 
 /**
  * Turns a validated request into the engine's input: catalog references become the company's own
@@ -55,13 +69,18 @@ export async function resolvePlanRequest(request: PlanRequest): Promise<Resolved
     const part = kind ? toEnginePart(item, kind) : null;
     if (!part) {
       throw new PlanRequestError(422, [
-        { path: `${path}.id`, message: `This contractor offers no ${kinds.join(" or ").replace(/-/g, " ")} with id ${id}.` },
+        {
+          path: `${path}.id`,
+          message: `This contractor offers no ${kinds.join(" or ").replace(/-/g, " ")} with id ${id}.`,
+        },
       ]);
     }
     return part;
   }
 
-  const wallUnit: WallUnitInput = isCatalogRef(request.wallUnit) ? pick("wallUnit", request.wallUnit.id, ["wall-unit"]) : request.wallUnit;
+  const wallUnit: WallUnitInput = isCatalogRef(request.wallUnit)
+    ? pick("wallUnit", request.wallUnit.id, ["wall-unit"])
+    : request.wallUnit;
 
   let cap: CapInput | null = null;
   if (request.cap && isCatalogRef(request.cap)) {
@@ -75,7 +94,9 @@ export async function resolvePlanRequest(request: PlanRequest): Promise<Resolved
   }
 
   const liner: LinerInput | undefined =
-    request.liner && isCatalogRef(request.liner) ? pick("liner", request.liner.id, ["steel-ring", "firebrick"]) : request.liner;
+    request.liner && isCatalogRef(request.liner)
+      ? pick("liner", request.liner.id, ["steel-ring", "firebrick"])
+      : request.liner;
 
   let patio: PatioInput | null = null;
   if (request.patio) {
@@ -107,7 +128,8 @@ export function runPlan(resolved: Resolved): Plan {
   try {
     return computePlan(resolved.input, { factors: resolved.factors, supplyPrices: resolved.supplyPrices });
   } catch (error) {
-    if (error instanceof PlanGeometryError) throw new PlanRequestError(422, [{ path: error.path, message: error.message }]);
+    if (error instanceof PlanGeometryError)
+      throw new PlanRequestError(422, [{ path: error.path, message: error.message }]);
     throw error;
   }
 }

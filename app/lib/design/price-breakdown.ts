@@ -3,7 +3,17 @@ import { formatMoney } from "~/lib/format/money";
 
 /** A price breakdown as stored with a plan; plans saved before markup and margin were told apart carry `marginCents`. */
 export type StoredBreakdown = Partial<PriceBreakdown> &
-  Pick<PriceBreakdown, "materialsCents" | "labourHours" | "labourCents" | "overheadCents" | "totalCents" | "lowCents" | "highCents" | "lines"> & {
+  Pick<
+    PriceBreakdown,
+    | "materialsCents"
+    | "labourHours"
+    | "labourCents"
+    | "overheadCents"
+    | "totalCents"
+    | "lowCents"
+    | "highCents"
+    | "lines"
+  > & {
     marginCents?: number;
   };
 
@@ -76,12 +86,23 @@ export function describeBreakdown(b: PriceBreakdown): BreakdownRow[] {
   rows.push({ label: "Cost", cents: b.costCents, kind: "subtotal" });
   rows.push(
     b.profitBasis === "markup"
-      ? { label: `Markup (${pct(b.profitPct)} on cost)`, detail: `A margin of ${pct(b.marginPct)} of the price`, cents: b.profitCents, kind: "line" }
-      : { label: `Margin (${pct(b.profitPct)} of the price)`, detail: `A markup of ${pct(b.markupPct)} on cost`, cents: b.profitCents, kind: "line" },
+      ? {
+          label: `Markup (${pct(b.profitPct)} on cost)`,
+          detail: `A margin of ${pct(b.marginPct)} of the price`,
+          cents: b.profitCents,
+          kind: "line",
+        }
+      : {
+          label: `Margin (${pct(b.profitPct)} of the price)`,
+          detail: `A markup of ${pct(b.markupPct)} on cost`,
+          cents: b.profitCents,
+          kind: "line",
+        },
   );
   rows.push({ label: "Price of the work", cents: b.workPriceCents, kind: "subtotal" });
   if (b.permitCents > 0) rows.push({ label: "Permit fees (at cost)", cents: b.permitCents, kind: "line" });
-  if (b.salesTaxCents > 0) rows.push({ label: `Sales tax (${pct(b.salesTaxPct)} of the work)`, cents: b.salesTaxCents, kind: "line" });
+  if (b.salesTaxCents > 0)
+    rows.push({ label: `Sales tax (${pct(b.salesTaxPct)} of the work)`, cents: b.salesTaxCents, kind: "line" });
   rows.push({ label: "Estimate", cents: b.totalCents, kind: "total" });
   return rows;
 }

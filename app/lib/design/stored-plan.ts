@@ -33,7 +33,13 @@ const code = <T extends string>() => z.custom<T>((value) => typeof value === "st
 
 const named = { name: z.string().optional(), priceCents: cents.optional(), colourHex: hex.optional() };
 
-const wallUnitInputSchema = z.looseObject({ faceIn: length, backIn: length, depthIn: length, heightIn: length, ...named });
+const wallUnitInputSchema = z.looseObject({
+  faceIn: length,
+  backIn: length,
+  depthIn: length,
+  heightIn: length,
+  ...named,
+});
 const capInputSchema = z.looseObject({
   lengthIn: length,
   depthIn: length,
@@ -65,7 +71,9 @@ export const storedPlanInputSchema = z.looseObject({
   jointIn: length.optional(),
   liner: linerInputSchema.optional(),
   patio: patioInputSchema.nullable().optional(),
-  site: z.looseObject({ setbackFt: length.optional(), propertyLineFt: length.optional(), branchesFt: length.optional() }).optional(),
+  site: z
+    .looseObject({ setbackFt: length.optional(), propertyLineFt: length.optional(), branchesFt: length.optional() })
+    .optional(),
 });
 
 export type StoredPlanInput = z.output<typeof storedPlanInputSchema>;
@@ -96,7 +104,9 @@ export const designSchema = z.object({
 const summaryLineSchema = z.object({ label: z.string(), value: z.string() });
 
 export const storedDesignSchema = z.looseObject({
-  version: z.literal(STORED_PLAN_VERSION, { error: `Stored plans must be version ${STORED_PLAN_VERSION}; run the migrations.` }),
+  version: z.literal(STORED_PLAN_VERSION, {
+    error: `Stored plans must be version ${STORED_PLAN_VERSION}; run the migrations.`,
+  }),
   choices: designSchema,
   summary: z.array(summaryLineSchema),
   inputs: z.looseObject({
@@ -111,7 +121,12 @@ export type StoredDesign = z.output<typeof storedDesignSchema>;
 
 // ---- The engine's answer: the parts the pages, the drawings and the cut sheet read ----
 
-const closureSchema = z.looseObject({ faceWidthIn: length, backWidthIn: length, angleDeg: length, countPerCourse: z.union([z.literal(1), z.literal(2)]) });
+const closureSchema = z.looseObject({
+  faceWidthIn: length,
+  backWidthIn: length,
+  angleDeg: length,
+  countPerCourse: z.union([z.literal(1), z.literal(2)]),
+});
 const neighbourSchema = z.looseObject({ unitCount: count, bowlDiameterIn: length }).nullable();
 
 const ringPlanSchema = z.looseObject({
@@ -220,7 +235,13 @@ const materialLineSchema = z.looseObject({
   note: z.string().optional(),
 });
 
-const priceLineSchema = z.looseObject({ item: z.string(), quantity: z.number().finite(), unit: code<MaterialUnit>(), unitPriceCents: cents, totalCents: cents });
+const priceLineSchema = z.looseObject({
+  item: z.string(),
+  quantity: z.number().finite(),
+  unit: code<MaterialUnit>(),
+  unitPriceCents: cents,
+  totalCents: cents,
+});
 
 const priceSchema = z.looseObject({
   lowCents: cents,
@@ -254,7 +275,9 @@ export const storedPlanSchema = z.looseObject({
   }),
   price: priceSchema.nullable(),
   warnings: z.array(z.looseObject({ code: code<WarningCode>(), message: z.string() })),
-  cautions: z.array(z.looseObject({ code: code<CautionCode>(), message: z.string(), audience: z.enum(["homeowner", "crew", "both"]) })),
+  cautions: z.array(
+    z.looseObject({ code: code<CautionCode>(), message: z.string(), audience: z.enum(["homeowner", "crew", "both"]) }),
+  ),
 });
 
 export type StoredPlan = z.output<typeof storedPlanSchema>;
@@ -296,7 +319,10 @@ function parseColumn<T extends z.ZodType>(schema: T, column: "design_json" | "pl
 
 /** Reads a saved plan's two columns; throws StoredPlanError naming the column and fields when they do not parse. */
 export function readStoredPlan(row: { designJson: string; planJson: string }): StoredPlanRecord {
-  return { design: parseColumn(storedDesignSchema, "design_json", row.designJson), plan: parseColumn(storedPlanSchema, "plan_json", row.planJson) };
+  return {
+    design: parseColumn(storedDesignSchema, "design_json", row.designJson),
+    plan: parseColumn(storedPlanSchema, "plan_json", row.planJson),
+  };
 }
 
 /** Reads only the design column (its summary and choices), for pages that show no drawing. */

@@ -5,8 +5,10 @@
  * isolates with the LRM/RLM/ALM marks (Unicode Standard Annex #9: they reorder what a reader sees),
  * zero-width spaces and the byte-order mark. ZWJ and ZWNJ stay: scripts and emoji sequences use them.
  */
-const SINGLE_LINE_JUNK = /[\u0000-\u001f\u007f-\u009f\u061c\u200b\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069\ufeff]/g;
-const MULTI_LINE_JUNK = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u061c\u200b\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069\ufeff]/g;
+const SINGLE_LINE_JUNK =
+  /[\u0000-\u001f\u007f-\u009f\u061c\u200b\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069\ufeff]/g;
+const MULTI_LINE_JUNK =
+  /[\u0000-\u0008\u000b-\u001f\u007f-\u009f\u061c\u200b\u200e\u200f\u2028\u2029\u202a-\u202e\u2066-\u2069\ufeff]/g;
 
 /** One line of text: every control or layout character becomes a space, runs of spaces become one. */
 export function toSingleLine(value: string): string {

@@ -41,23 +41,34 @@ export const LENGTH_EXAMPLES = "12 1/4, 12-1/4, 49/4, 12.25 or 311 mm";
 export function formLength(label: string, min: number, max: number, unit: TypedLengthUnit = "in") {
   const toIn = unit === "ft" ? 12 : 1;
   const metres = (n: number) => String(Math.round(n * 0.3048 * 10) / 10); // 1 ft = 0.3048 m exactly (NIST SP 811)
-  const metric = unit === "ft" ? `${metres(min)}–${metres(max)} m` : `${formatMm(min).replace(" mm", "")}–${formatMm(max)}`;
+  const metric =
+    unit === "ft" ? `${metres(min)}–${metres(max)} m` : `${formatMm(min).replace(" mm", "")}–${formatMm(max)}`;
   const show = (n: number) => (unit === "in" ? formatLengthInput(n) : String(n));
   const range = `${label} must be between ${show(min)} and ${show(max)} ${unit} (${metric}).`;
-  return z
-    .string({ error: `Enter the ${label.toLowerCase()}.` })
-    .trim()
-    .min(1, `Enter the ${label.toLowerCase()}.`)
-    .transform((s, ctx) => {
-      const lengthIn = parseLength(s, unit);
-      if (lengthIn === null) {
-        ctx.addIssue({ code: "custom", message: `${label} must be a length, like ${unit === "ft" ? "10, 10 1/2, 10.5 ft or 3.2 m" : LENGTH_EXAMPLES}.` });
-        return z.NEVER;
-      }
-      return lengthIn / toIn;
-    })
-    // A hair of float error from the mm conversion must not refuse a length typed at the limit.
-    .pipe(z.number().min(min - 1e-9, range).max(max + 1e-9, range));
+  return (
+    z
+      .string({ error: `Enter the ${label.toLowerCase()}.` })
+      .trim()
+      .min(1, `Enter the ${label.toLowerCase()}.`)
+      .transform((s, ctx) => {
+        const lengthIn = parseLength(s, unit);
+        if (lengthIn === null) {
+          ctx.addIssue({
+            code: "custom",
+            message: `${label} must be a length, like ${unit === "ft" ? "10, 10 1/2, 10.5 ft or 3.2 m" : LENGTH_EXAMPLES}.`,
+          });
+          return z.NEVER;
+        }
+        return lengthIn / toIn;
+      })
+      // A hair of float error from the mm conversion must not refuse a length typed at the limit.
+      .pipe(
+        z
+          .number()
+          .min(min - 1e-9, range)
+          .max(max + 1e-9, range),
+      )
+  );
 }
 
 /**

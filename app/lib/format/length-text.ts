@@ -9,7 +9,10 @@ import { formatMm, type LengthUnit } from "~/domain/units";
 
 // A quantity as the engine writes it: "36 9/16", "5/8", "2.5" or "25".
 const QUANTITY = String.raw`(?:\d+ \d+/\d+|\d+/\d+|\d+(?:\.\d+)?)`;
-const RANGE_OR_ONE = new RegExp(String.raw`(${QUANTITY})(?:( to | or |–| – )(${QUANTITY}))? (in|ft)(²)?(?![A-Za-z])`, "g");
+const RANGE_OR_ONE = new RegExp(
+  String.raw`(${QUANTITY})(?:( to | or |–| – )(${QUANTITY}))? (in|ft)(²)?(?![A-Za-z])`,
+  "g",
+);
 
 const FT_TO_M = 0.3048;
 const FT2_TO_M2 = FT_TO_M * FT_TO_M;
@@ -31,12 +34,22 @@ function sayInMetric(value: number, unit: "in" | "ft", isArea: boolean): { numbe
 /** A sentence with inch and foot lengths (and ft² areas) said in the chosen unit; unchanged for inches. */
 export function speakLengths(text: string, unit: LengthUnit): string {
   if (unit === "in") return text;
-  return text.replace(RANGE_OR_ONE, (_match, first: string, joiner: string | undefined, second: string | undefined, from: "in" | "ft", squared: string | undefined) => {
-    const a = sayInMetric(parseQuantity(first), from, Boolean(squared));
-    if (!second) return `${a.number} ${a.unit}`;
-    const b = sayInMetric(parseQuantity(second), from, Boolean(squared));
-    return `${a.number}${joiner}${b.number} ${b.unit}`;
-  });
+  return text.replace(
+    RANGE_OR_ONE,
+    (
+      _match,
+      first: string,
+      joiner: string | undefined,
+      second: string | undefined,
+      from: "in" | "ft",
+      squared: string | undefined,
+    ) => {
+      const a = sayInMetric(parseQuantity(first), from, Boolean(squared));
+      if (!second) return `${a.number} ${a.unit}`;
+      const b = sayInMetric(parseQuantity(second), from, Boolean(squared));
+      return `${a.number}${joiner}${b.number} ${b.unit}`;
+    },
+  );
 }
 
 /** An area given in square feet, in the chosen unit: "57 ft²" or "5.3 m²". */

@@ -15,7 +15,11 @@ const JPEG_QUALITY = 0.85;
 const SHRINKABLE = new Set(["image/jpeg", "image/png", "image/webp"]);
 
 /** The width and height a photo is drawn at: scaled down to the long edge, never up. */
-export function shrunkSize(width: number, height: number, longEdgePx = SHRUNK_LONG_EDGE_PX): { width: number; height: number } {
+export function shrunkSize(
+  width: number,
+  height: number,
+  longEdgePx = SHRUNK_LONG_EDGE_PX,
+): { width: number; height: number } {
   const scale = Math.min(1, longEdgePx / Math.max(width, height, 1));
   return { width: Math.max(1, Math.round(width * scale)), height: Math.max(1, Math.round(height * scale)) };
 }
@@ -48,7 +52,9 @@ export async function shrinkPhoto(file: File): Promise<File> {
     context.imageSmoothingQuality = "high";
     context.drawImage(bitmap, 0, 0, size.width, size.height);
     const blob = await new Promise<Blob | null>((resolve) => canvas.toBlob(resolve, "image/jpeg", JPEG_QUALITY));
-    return blob ? new File([blob], shrunkName(file.name), { type: "image/jpeg", lastModified: file.lastModified }) : file;
+    return blob
+      ? new File([blob], shrunkName(file.name), { type: "image/jpeg", lastModified: file.lastModified })
+      : file;
   } finally {
     bitmap.close();
   }

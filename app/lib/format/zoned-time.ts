@@ -17,13 +17,24 @@ export function nextDay(day: string): string {
 
 /** The local calendar day (YYYY-MM-DD) of an instant in the time zone. */
 export function zonedDay(instant: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(instant);
+  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(
+    instant,
+  );
 }
 
 /** Offset of a zone from UTC at an instant, in minutes (e.g. −300 for Chicago in summer). */
 export function zoneOffsetMinutes(date: Date, timeZone: string): number {
   const parts = Object.fromEntries(
-    new Intl.DateTimeFormat("en-US", { timeZone, hourCycle: "h23", year: "numeric", month: "2-digit", day: "2-digit", hour: "2-digit", minute: "2-digit", second: "2-digit" })
+    new Intl.DateTimeFormat("en-US", {
+      timeZone,
+      hourCycle: "h23",
+      year: "numeric",
+      month: "2-digit",
+      day: "2-digit",
+      hour: "2-digit",
+      minute: "2-digit",
+      second: "2-digit",
+    })
       .formatToParts(date)
       .map((p) => [p.type, Number(p.value)]),
   );
@@ -42,12 +53,21 @@ export function zonedTimeToUtc(year: number, month: number, day: number, minutes
 
 /** "Tue, Dec 8, 9:00 AM" in the time zone. */
 export function formatZonedDateTime(iso: string, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-US", { timeZone, weekday: "short", month: "short", day: "numeric", hour: "numeric", minute: "2-digit" }).format(new Date(iso));
+  return new Intl.DateTimeFormat("en-US", {
+    timeZone,
+    weekday: "short",
+    month: "short",
+    day: "numeric",
+    hour: "numeric",
+    minute: "2-digit",
+  }).format(new Date(iso));
 }
 
 /** "Dec 8, 2026" in the time zone. */
 export function formatZonedDate(iso: string, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-US", { timeZone, month: "short", day: "numeric", year: "numeric" }).format(new Date(iso));
+  return new Intl.DateTimeFormat("en-US", { timeZone, month: "short", day: "numeric", year: "numeric" }).format(
+    new Date(iso),
+  );
 }
 
 /** How long ago, in the largest whole unit: "just now", "12 min", "5 h", "3 d", "7 wk". */

@@ -13,9 +13,18 @@ import { retryFailedDepositRefund } from "~/lib/proposals/proposal-payments.serv
 /** How many e-mails and refunds of a company have failed for good (for the workspace banner). */
 export async function countFailedWork(companyId: number): Promise<number> {
   const [[mail], [refunds], [deposits]] = await Promise.all([
-    db.select({ n: count() }).from(emailOutbox).where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed"))),
-    db.select({ n: count() }).from(bookings).where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId))),
-    db.select({ n: count() }).from(proposals).where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId))),
+    db
+      .select({ n: count() })
+      .from(emailOutbox)
+      .where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed"))),
+    db
+      .select({ n: count() })
+      .from(bookings)
+      .where(and(eq(bookings.companyId, companyId), isNotNull(bookings.refundFailedAt), isNull(bookings.refundId))),
+    db
+      .select({ n: count() })
+      .from(proposals)
+      .where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId))),
   ]);
   return (mail?.n ?? 0) + (refunds?.n ?? 0) + (deposits?.n ?? 0);
 }
@@ -23,7 +32,14 @@ export async function countFailedWork(companyId: number): Promise<number> {
 export async function listFailedWork(companyId: number) {
   const [mail, refunds, deposits] = await Promise.all([
     db
-      .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, attempts: emailOutbox.attempts, lastError: emailOutbox.lastError, createdAt: emailOutbox.createdAt })
+      .select({
+        id: emailOutbox.id,
+        to: emailOutbox.toAddress,
+        subject: emailOutbox.subject,
+        attempts: emailOutbox.attempts,
+        lastError: emailOutbox.lastError,
+        createdAt: emailOutbox.createdAt,
+      })
       .from(emailOutbox)
       .where(and(eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed")))
       .orderBy(desc(emailOutbox.createdAt))
@@ -64,7 +80,11 @@ export async function listFailedWork(companyId: number) {
   return {
     mail,
     refunds,
-    deposits: deposits.map(({ documentJson, amountCents, ...row }) => ({ ...row, amountCents: amountCents ?? 0, number: parseProposalDocument(documentJson).number })),
+    deposits: deposits.map(({ documentJson, amountCents, ...row }) => ({
+      ...row,
+      amountCents: amountCents ?? 0,
+      number: parseProposalDocument(documentJson).number,
+    })),
   };
 }
 
@@ -72,7 +92,14 @@ export async function listFailedWork(companyId: number) {
 export async function retryFailedEmail(id: number, companyId: number, now = new Date()): Promise<boolean> {
   const rows = await db
     .update(emailOutbox)
-    .set({ status: "pending", attempts: 0, sendAfter: now.toISOString(), lastError: null, leaseOwner: null, leaseExpiresAt: null })
+    .set({
+      status: "pending",
+      attempts: 0,
+      sendAfter: now.toISOString(),
+      lastError: null,
+      leaseOwner: null,
+      leaseExpiresAt: null,
+    })
     .where(and(eq(emailOutbox.id, id), eq(emailOutbox.companyId, companyId), eq(emailOutbox.status, "failed")))
     .returning({ id: emailOutbox.id });
   return rows.length > 0;

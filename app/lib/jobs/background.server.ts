@@ -13,19 +13,32 @@ const SWEEP_EVERY_MS = 10 * 60_000;
 const SWEEP_BACKOFF = { baseMs: 60_000, maxMs: SWEEP_EVERY_MS };
 
 /** Sweeps photos left by a crash mid-submit: one process at a time, every 10 minutes (a lease row). */
-export async function sweepStrayUploads(options: { now?: Date; db?: Db; owner?: string; sweep?: () => Promise<unknown> } = {}): Promise<boolean> {
+export async function sweepStrayUploads(
+  options: { now?: Date; db?: Db; owner?: string; sweep?: () => Promise<unknown> } = {},
+): Promise<boolean> {
   const database = options.db ?? defaultDb;
   const claim = { owner: options.owner ?? WORKER_ID, now: options.now ?? new Date() };
   const taken = await claimJob(database, "upload-sweep", claim);
   if (!taken) return false;
   try {
     await (options.sweep ?? (() => sweepUnrecordedPhotos()))();
-    await releaseJob(database, "upload-sweep", { ...claim, attempts: taken.attempts, everyMs: SWEEP_EVERY_MS, backoff: SWEEP_BACKOFF });
+    await releaseJob(database, "upload-sweep", {
+      ...claim,
+      attempts: taken.attempts,
+      everyMs: SWEEP_EVERY_MS,
+      backoff: SWEEP_BACKOFF,
+    });
   } catch (error) {
     const message = (error as Error).message ?? String(error);
     // One line per failed run; runs are minutes apart.
     console.error(`background: upload sweep try ${taken.attempts} failed: ${message}`);
-    await releaseJob(database, "upload-sweep", { ...claim, attempts: taken.attempts, everyMs: SWEEP_EVERY_MS, backoff: SWEEP_BACKOFF, error: message });
+    await releaseJob(database, "upload-sweep", {
+      ...claim,
+      attempts: taken.attempts,
+      everyMs: SWEEP_EVERY_MS,
+      backoff: SWEEP_BACKOFF,
+      error: message,
+    });
   }
   return true;
 }
@@ -60,8 +73,15 @@ export function startBackgroundWork(intervalMs = 1_000): void {
     } catch (err) {
       const message = (err as Error).message ?? String(err);
       const now = Date.now();
-      if (!lastPassError || lastPassError.message !== message || now - lastPassError.loggedAt >= PASS_ERROR_LOG_EVERY_MS) {
-        console.error(`background: pass failed${lastPassError ? ` (${lastPassError.repeats + 1} times so far)` : ""}`, err);
+      if (
+        !lastPassError ||
+        lastPassError.message !== message ||
+        now - lastPassError.loggedAt >= PASS_ERROR_LOG_EVERY_MS
+      ) {
+        console.error(
+          `background: pass failed${lastPassError ? ` (${lastPassError.repeats + 1} times so far)` : ""}`,
+          err,
+        );
         lastPassError = { message, loggedAt: now, repeats: (lastPassError?.repeats ?? 0) + 1 };
       } else {
         lastPassError.repeats += 1;

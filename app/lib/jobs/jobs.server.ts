@@ -54,7 +54,13 @@ export async function claimJob(db: Db, name: string, { owner, now }: LeaseClaim)
   const [row] = await db
     .update(jobLeases)
     .set({ leaseOwner: owner, leaseExpiresAt: iso(now.getTime() + LEASE_MS), attempts: sql`${jobLeases.attempts} + 1` })
-    .where(and(eq(jobLeases.name, name), sql`${jobLeases.nextRunAt} <= ${nowIso}`, or(isNull(jobLeases.leaseExpiresAt), lt(jobLeases.leaseExpiresAt, nowIso))))
+    .where(
+      and(
+        eq(jobLeases.name, name),
+        sql`${jobLeases.nextRunAt} <= ${nowIso}`,
+        or(isNull(jobLeases.leaseExpiresAt), lt(jobLeases.leaseExpiresAt, nowIso)),
+      ),
+    )
     .returning({ attempts: jobLeases.attempts });
   return row ?? null;
 }
@@ -73,7 +79,14 @@ export async function releaseJob(
     .update(jobLeases)
     .set(
       args.error === undefined
-        ? { leaseOwner: null, leaseExpiresAt: null, attempts: 0, lastError: null, lastRunAt: iso(at), nextRunAt: iso(at + args.everyMs) }
+        ? {
+            leaseOwner: null,
+            leaseExpiresAt: null,
+            attempts: 0,
+            lastError: null,
+            lastRunAt: iso(at),
+            nextRunAt: iso(at + args.everyMs),
+          }
         : {
             leaseOwner: null,
             leaseExpiresAt: null,

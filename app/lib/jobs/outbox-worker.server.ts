@@ -29,7 +29,11 @@ async function claimDueEmails(db: Db, owner: string, now: Date) {
     .limit(BATCH_SIZE);
   return db
     .update(emailOutbox)
-    .set({ leaseOwner: owner, leaseExpiresAt: iso(now.getTime() + LEASE_MS), attempts: sql`${emailOutbox.attempts} + 1` })
+    .set({
+      leaseOwner: owner,
+      leaseExpiresAt: iso(now.getTime() + LEASE_MS),
+      attempts: sql`${emailOutbox.attempts} + 1`,
+    })
     .where(and(inArray(emailOutbox.id, due), eq(emailOutbox.status, "pending")))
     .returning();
 }
@@ -39,14 +43,21 @@ async function claimDueEmails(db: Db, owner: string, now: Date) {
  * between "sent" and "marked sent" cannot produce a second e-mail; the lease keeps a second
  * process from sending the same row meanwhile. Returns how many were sent.
  */
-export async function deliverDueEmails(now = new Date(), client: Pick<typeof resend, "emails"> = resend, options: WorkerOptions = {}): Promise<number> {
+export async function deliverDueEmails(
+  now = new Date(),
+  client: Pick<typeof resend, "emails"> = resend,
+  options: WorkerOptions = {},
+): Promise<number> {
   const db = options.db ?? defaultDb;
   const owner = options.owner ?? WORKER_ID;
   const claimed = await claimDueEmails(db, owner, now);
   // The sender's name and Reply-To come from the company as it is at sending time.
   const companyIds = [...new Set(claimed.map((row) => row.companyId).filter((id): id is number => id !== null))];
   const senders = companyIds.length
-    ? await db.select({ id: companies.id, name: companies.name, email: companies.email }).from(companies).where(inArray(companies.id, companyIds))
+    ? await db
+        .select({ id: companies.id, name: companies.name, email: companies.email })
+        .from(companies)
+        .where(inArray(companies.id, companyIds))
     : [];
   const mine = (id: number) => and(eq(emailOutbox.id, id), eq(emailOutbox.leaseOwner, owner));
   let sent = 0;
@@ -60,7 +71,11 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
       } else {
         // A row that does not parse fails like any other send (a ZodError, caught below), never as a half-read attachment.
         const attachments = outboxAttachmentsSchema.parse(JSON.parse(row.attachmentsJson));
-        const sender = senderHeaders({ sendingFrom: env.EMAIL_FROM, company: senders.find((c) => c.id === row.companyId) ?? null, to: row.toAddress });
+        const sender = senderHeaders({
+          sendingFrom: env.EMAIL_FROM,
+          company: senders.find((c) => c.id === row.companyId) ?? null,
+          to: row.toAddress,
+        });
         const { data, error } = await client.emails.send(
           {
             from: sender.from,
@@ -70,7 +85,13 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
             html: row.html,
             text: row.text,
             ...(attachments.length
-              ? { attachments: attachments.map((a) => ({ filename: a.filename, content: a.content, contentType: a.contentType })) }
+              ? {
+                  attachments: attachments.map((a) => ({
+                    filename: a.filename,
+                    content: a.content,
+                    contentType: a.contentType,
+                  })),
+                }
               : {}),
           },
           { idempotencyKey: row.idempotencyKey },
@@ -79,11 +100,21 @@ export async function deliverDueEmails(now = new Date(), client: Pick<typeof res
           sent += 1;
           await db
             .update(emailOutbox)
-            .set({ status: "sent", sentAt: new Date().toISOString(), providerId: data?.id ?? null, lastError: null, leaseOwner: null, leaseExpiresAt: null })
+            .set({
+              status: "sent",
+              sentAt: new Date().toISOString(),
+              providerId: data?.id ?? null,
+              lastError: null,
+              leaseOwner: null,
+              leaseExpiresAt: null,
+            })
             .where(mine(row.id));
           continue;
         }
-        failure = { status: error.statusCode ?? null, message: `${error.statusCode || "network"} ${error.name}: ${error.message}` };
+        failure = {
+          status: error.statusCode ?? null,
+          message: `${error.statusCode || "network"} ${error.name}: ${error.message}`,
+        };
       }
     } catch (error) {
       // A row that cannot even be read or handed over (bad JSON, a thrown network error) is a failed try too.

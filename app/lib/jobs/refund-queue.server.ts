@@ -18,7 +18,13 @@ export type OwedRefund = { id: number; paymentIntentId: string | null; refundAtt
 /** The columns a refund try writes back. */
 export type RefundOutcome =
   | { refundId: string; refundedAt: string; refundLastError: null; refundLeaseOwner: null; refundLeaseExpiresAt: null }
-  | { refundLastError: string; refundNextAt: string; refundFailedAt: string | null; refundLeaseOwner: null; refundLeaseExpiresAt: null };
+  | {
+      refundLastError: string;
+      refundNextAt: string;
+      refundFailedAt: string | null;
+      refundLeaseOwner: null;
+      refundLeaseExpiresAt: null;
+    };
 
 export type RefundQueue = {
   /** Names the row in log lines, e.g. "booking" or "deposit of proposal". */
@@ -36,7 +42,12 @@ export type RefundQueue = {
  * A failed refund is retried with backoff and, past its cap or on an answer a retry cannot change,
  * marked failed for the owner to see. Returns how many refunds went out.
  */
-export async function sendOwedRefunds(queue: RefundQueue, client: Pick<Stripe, "refunds">, owner: string, now: Date): Promise<number> {
+export async function sendOwedRefunds(
+  queue: RefundQueue,
+  client: Pick<Stripe, "refunds">,
+  owner: string,
+  now: Date,
+): Promise<number> {
   const claimed = await queue.claim(owner, now);
   let done = 0;
   for (const row of claimed) {
@@ -48,8 +59,17 @@ export async function sendOwedRefunds(queue: RefundQueue, client: Pick<Stripe, "
       } else if (!row.paymentIntentId) {
         failure = { status: 400, message: "no payment to refund" };
       } else {
-        const refund = await client.refunds.create({ payment_intent: row.paymentIntentId }, { idempotencyKey: queue.idempotencyKey(row.id) });
-        await queue.settle(row.id, owner, { refundId: refund.id, refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null });
+        const refund = await client.refunds.create(
+          { payment_intent: row.paymentIntentId },
+          { idempotencyKey: queue.idempotencyKey(row.id) },
+        );
+        await queue.settle(row.id, owner, {
+          refundId: refund.id,
+          refundedAt: new Date().toISOString(),
+          refundLastError: null,
+          refundLeaseOwner: null,
+          refundLeaseExpiresAt: null,
+        });
         done += 1;
         continue;
       }
@@ -57,10 +77,19 @@ export async function sendOwedRefunds(queue: RefundQueue, client: Pick<Stripe, "
       const stripeError = error as { statusCode?: number; code?: string; type?: string; message?: string };
       if (stripeError.code === "charge_already_refunded") {
         // Refunded already (by hand, or by a try whose answer was lost): nothing is owed.
-        await queue.settle(row.id, owner, { refundId: "already-refunded", refundedAt: new Date().toISOString(), refundLastError: null, refundLeaseOwner: null, refundLeaseExpiresAt: null });
+        await queue.settle(row.id, owner, {
+          refundId: "already-refunded",
+          refundedAt: new Date().toISOString(),
+          refundLastError: null,
+          refundLeaseOwner: null,
+          refundLeaseExpiresAt: null,
+        });
         continue;
       }
-      failure = { status: stripeError.statusCode ?? null, message: `${stripeError.statusCode ?? "network"} ${stripeError.code ?? stripeError.type ?? "error"}: ${stripeError.message ?? String(error)}` };
+      failure = {
+        status: stripeError.statusCode ?? null,
+        message: `${stripeError.statusCode ?? "network"} ${stripeError.code ?? stripeError.type ?? "error"}: ${stripeError.message ?? String(error)}`,
+      };
     }
     const isGivingUp = isPermanentStatus(failure.status) || attempts >= REFUND_BACKOFF.maxAttempts;
     const delay = retryDelayMs(attempts, REFUND_BACKOFF);

@@ -10,14 +10,38 @@ export async function loadHomeownerRequestDetails(ownLeads: Pick<Lead, "id" | "c
   const ids = ownLeads.map((l) => l.id);
   if (!ids.length) return { photos: [], liveBookings: [], companies: [], proposals: [], sentRevisions: [] };
   const [photoRows, liveBookings, companyRows, proposalRows, sentRevisions] = await Promise.all([
-    db.select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName }).from(leadPhotos).where(inArray(leadPhotos.leadId, ids)),
-    db.select().from(bookings).where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
     db
-      .select({ id: companies.id, slug: companies.slug, name: companies.name, timeZone: companies.timeZone, phone: companies.phone })
+      .select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName })
+      .from(leadPhotos)
+      .where(inArray(leadPhotos.leadId, ids)),
+    db
+      .select()
+      .from(bookings)
+      .where(and(inArray(bookings.leadId, ids), inArray(bookings.status, ["held", "confirmed"]))),
+    db
+      .select({
+        id: companies.id,
+        slug: companies.slug,
+        name: companies.name,
+        timeZone: companies.timeZone,
+        phone: companies.phone,
+      })
       .from(companies)
-      .where(inArray(companies.id, ownLeads.map((l) => l.companyId))),
+      .where(
+        inArray(
+          companies.id,
+          ownLeads.map((l) => l.companyId),
+        ),
+      ),
     db
-      .select({ leadId: proposals.leadId, kind: proposals.kind, token: proposals.token, status: proposals.status, documentJson: proposals.documentJson, sentAt: proposals.sentAt })
+      .select({
+        leadId: proposals.leadId,
+        kind: proposals.kind,
+        token: proposals.token,
+        status: proposals.status,
+        documentJson: proposals.documentJson,
+        sentAt: proposals.sentAt,
+      })
       .from(proposals)
       .where(inArray(proposals.leadId, ids))
       .orderBy(desc(proposals.sentAt)),

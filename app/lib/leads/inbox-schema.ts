@@ -3,19 +3,28 @@ import { fieldErrors } from "~/lib/format/form-fields";
 import { LEAD_STATUSES } from "~/db/enums";
 import { DEFAULT_INBOX_FILTERS, FIRST_DIRECTION, INBOX_SORTS, type InboxFilters } from "~/lib/leads/inbox-options";
 
-const optional = (schema: z.ZodType) => z.preprocess((v) => (v === "" || v === null ? undefined : v), schema.optional());
+const optional = (schema: z.ZodType) =>
+  z.preprocess((v) => (v === "" || v === null ? undefined : v), schema.optional());
 
-const day = (label: string) =>
-  z.iso.date({ error: `${label} must be a date like 2026-12-02.` });
+const day = (label: string) => z.iso.date({ error: `${label} must be a date like 2026-12-02.` });
 
 /** The inbox's filters from search params; every field is checked and named in its message. */
 export const inboxQuerySchema = z
   .object({
     status: optional(z.enum(LEAD_STATUSES, { error: `Stage must be one of: ${LEAD_STATUSES.join(", ")}.` })),
     assignee: optional(
-      z.union([z.literal("none"), z.string().regex(/^\d{1,9}$/).transform(Number)], {
-        error: "Assignee must be a team member's id or \"none\".",
-      }),
+      z.union(
+        [
+          z.literal("none"),
+          z
+            .string()
+            .regex(/^\d{1,9}$/)
+            .transform(Number),
+        ],
+        {
+          error: 'Assignee must be a team member\'s id or "none".',
+        },
+      ),
     ),
     from: optional(day("From")),
     to: optional(day("To")),

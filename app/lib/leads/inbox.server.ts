@@ -3,7 +3,14 @@ import { alias } from "drizzle-orm/sqlite-core";
 import { LEAD_STATUSES, bookings, leadRevisions, leads, users } from "~/db/schema";
 import { toCsv } from "~/lib/format/csv";
 import { db } from "~/lib/platform/db.server";
-import { INBOX_PAGE_SIZE, inboxSearchParams, type InboxFilters, type InboxPage, type InboxRow, type InboxSort } from "~/lib/leads/inbox-options";
+import {
+  INBOX_PAGE_SIZE,
+  inboxSearchParams,
+  type InboxFilters,
+  type InboxPage,
+  type InboxRow,
+  type InboxSort,
+} from "~/lib/leads/inbox-options";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { describeAge, formatZonedDate, formatZonedDateTime, nextDay, startOfZonedDay } from "~/lib/format/zoned-time";
 
@@ -22,13 +29,17 @@ const STATUS_ORDER = sql`CASE ${leads.status} ${sql.join(
 )} END`;
 
 // The first confirmed consult of a lead (bookings belong to the consult feature; read only here).
-const CONSULT_AT = sql<string | null>`(SELECT min(${bookings.startsAt}) FROM ${bookings} WHERE ${bookings.leadId} = ${leads.id} AND ${bookings.status} = 'confirmed')`;
+const CONSULT_AT = sql<
+  string | null
+>`(SELECT min(${bookings.startsAt}) FROM ${bookings} WHERE ${bookings.leadId} = ${leads.id} AND ${bookings.status} = 'confirmed')`;
 
 // The design on show is the latest staff revision, if any (revisions never overwrite the lead's own
 // design); its price is what the office quotes now. Ids grow with time, so the highest is the latest.
 const LATEST_REVISION = sql`(SELECT max(${leadRevisions.id}) FROM ${leadRevisions} WHERE ${leadRevisions.leadId} = ${leads.id})`;
 const currentPrice = (revisionColumn: SQLWrapper, leadColumn: SQLWrapper) =>
-  sql<number | null>`CASE WHEN ${LATEST_REVISION} IS NULL THEN ${leadColumn} ELSE (SELECT ${revisionColumn} FROM ${leadRevisions} WHERE ${leadRevisions.id} = ${LATEST_REVISION}) END`;
+  sql<
+    number | null
+  >`CASE WHEN ${LATEST_REVISION} IS NULL THEN ${leadColumn} ELSE (SELECT ${revisionColumn} FROM ${leadRevisions} WHERE ${leadRevisions.id} = ${LATEST_REVISION}) END`;
 const CURRENT_PRICE_LOW = currentPrice(leadRevisions.priceLowCents, leads.priceLowCents);
 const CURRENT_PRICE_HIGH = currentPrice(leadRevisions.priceHighCents, leads.priceHighCents);
 
@@ -121,7 +132,11 @@ async function findConsults(leadIds: number[]): Promise<Map<number, string>> {
 }
 
 /** Leads per status under the other filters, and their sum as "all". */
-export async function countByStatus(companyId: number, timeZone: string, filters: InboxFilters): Promise<InboxPage["counts"]> {
+export async function countByStatus(
+  companyId: number,
+  timeZone: string,
+  filters: InboxFilters,
+): Promise<InboxPage["counts"]> {
   const rows = await db
     .select({ status: leads.status, n: count() })
     .from(leads)
@@ -153,7 +168,11 @@ export async function loadInboxPage(args: {
     db
       .select({ n: count() })
       .from(leads)
-      .where(unseenSince ? and(eq(leads.companyId, companyId), gt(leads.createdAt, unseenSince)) : eq(leads.companyId, companyId)),
+      .where(
+        unseenSince
+          ? and(eq(leads.companyId, companyId), gt(leads.createdAt, unseenSince))
+          : eq(leads.companyId, companyId),
+      ),
   ]);
   const consults = await findConsults(rows.map((r) => r.id));
   const total = filters.status ? counts[filters.status] : counts.all;

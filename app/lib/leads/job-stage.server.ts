@@ -26,7 +26,13 @@ function fallbackStage(leadId: number, ignoreBookingId: number | null): SQL {
  * its stage (when it stands at a step the undone event gave it), or the step an on-hold job stopped at.
  * `from` lists the stages the undone event could have put the job at.
  */
-export function settleStageStatements(args: { leadId: number; from: LeadStatus[]; cancelledBookingId?: number | null; at: string; tx?: Pick<typeof db, "update"> }) {
+export function settleStageStatements(args: {
+  leadId: number;
+  from: LeadStatus[];
+  cancelledBookingId?: number | null;
+  at: string;
+  tx?: Pick<typeof db, "update">;
+}) {
   const from = args.from.filter((s) => UNDOABLE.includes(s));
   const fallback = fallbackStage(args.leadId, args.cancelledBookingId ?? null);
   const runner = args.tx ?? db;
@@ -38,6 +44,12 @@ export function settleStageStatements(args: { leadId: number; from: LeadStatus[]
     runner
       .update(leads)
       .set({ pausedStage: sql`${fallback}`, updatedAt: args.at })
-      .where(and(eq(leads.id, args.leadId), inArray(leads.status, ["on-hold", "not-going-ahead"]), inArray(leads.pausedStage, from))),
+      .where(
+        and(
+          eq(leads.id, args.leadId),
+          inArray(leads.status, ["on-hold", "not-going-ahead"]),
+          inArray(leads.pausedStage, from),
+        ),
+      ),
   ] as const;
 }

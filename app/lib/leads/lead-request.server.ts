@@ -12,11 +12,24 @@ import { summaryInUnit } from "~/lib/format/length-text";
 import type { PlanFieldError } from "~/lib/design/plan-schema";
 import { publicPlan } from "~/lib/design/plan.server";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
-import { checkReceivedPhotos, discardReceivedPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, MAX_FORM_BYTES, readLeadForm, storeReceivedPhotos } from "~/lib/platform/uploads.server";
+import {
+  checkReceivedPhotos,
+  discardReceivedPhotos,
+  MAX_COMPANY_PHOTO_BYTES_PER_DAY,
+  MAX_FORM_BYTES,
+  readLeadForm,
+  storeReceivedPhotos,
+} from "~/lib/platform/uploads.server";
 
 export type LeadRequestOutcome =
   | { ok: true; location: string }
-  | { ok: false; status: number; errors: Record<string, string>; values: Record<string, string>; headers?: Record<string, string> };
+  | {
+      ok: false;
+      status: number;
+      errors: Record<string, string>;
+      values: Record<string, string>;
+      headers?: Record<string, string>;
+    };
 
 /** A contractor by its public slug, with its active catalog as the configurator sees it and the factors the browser may see; 404 when unknown. */
 export async function loadCompanyCatalog(slug: string) {
@@ -26,7 +39,12 @@ export async function loadCompanyCatalog(slug: string) {
   return { company, catalog, factors: publicFactors(readCompanyFactors(company)) };
 }
 
-const refused = (status: number, errors: Record<string, string>, values: Record<string, string>, headers?: Record<string, string>): LeadRequestOutcome => ({
+const refused = (
+  status: number,
+  errors: Record<string, string>,
+  values: Record<string, string>,
+  headers?: Record<string, string>,
+): LeadRequestOutcome => ({
   ok: false,
   status,
   errors,
@@ -42,11 +60,24 @@ const requestLimiter = createLimiter("lead-request:company+address", env.PUBLIC_
  * Reads and answers a homeowner's request form: the configurator's action (a plain form post) and
  * the upload endpoint its enhanced form posts to (with progress) share every check through here.
  */
-export async function receiveLeadRequest({ request, companySlug, context }: { request: Request; companySlug: string; context: Parameters<typeof clientAddress>[1] }): Promise<LeadRequestOutcome> {
+export async function receiveLeadRequest({
+  request,
+  companySlug,
+  context,
+}: {
+  request: Request;
+  companySlug: string;
+  context: Parameters<typeof clientAddress>[1];
+}): Promise<LeadRequestOutcome> {
   const { company, catalog, factors } = await loadCompanyCatalog(companySlug);
   const limit = await spendLimit(requestLimiter, `${company.id}|${clientAddress(request, context)}`);
   if (!limit.ok) {
-    return refused(429, { form: "Too many requests from this address. Please wait a few minutes and try again." }, {}, { "Retry-After": String(limit.retryAfterSeconds) });
+    return refused(
+      429,
+      { form: "Too many requests from this address. Please wait a few minutes and try again." },
+      {},
+      { "Retry-After": String(limit.retryAfterSeconds) },
+    );
   }
   const length = Number(request.headers.get("Content-Length") ?? "NaN");
   if (!Number.isFinite(length) || length > MAX_FORM_BYTES) {
@@ -60,7 +91,9 @@ export async function receiveLeadRequest({ request, companySlug, context }: { re
   const { website: _honeypot, ...values } = fields;
   const errors: Record<string, string> = parsed.success ? {} : fieldErrors(parsed.error);
   const design = parsed.success ? parseDesign(new URLSearchParams(fields.design ?? ""), catalog) : null;
-  const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] as PlanFieldError[] };
+  const result = design
+    ? await planForDesign(company.slug, design, catalog, factors)
+    : { plan: null, errors: [] as PlanFieldError[] };
   if (!parsed.success || !design || !result.plan) {
     // Only the quick checks here: nothing is decoded for a request that is refused anyway.
     const quick = await checkReceivedPhotos(received);
@@ -70,7 +103,8 @@ export async function receiveLeadRequest({ request, companySlug, context }: { re
     const message = result.errors[0]?.message ?? "This design cannot be built as it stands.";
     return refused(422, { form: `Change the design first: ${message}` }, values);
   }
-  const quotaRefusal = () => refused(429, { photos: new PhotoQuotaExceeded().message }, values, { "Retry-After": "3600" });
+  const quotaRefusal = () =>
+    refused(429, { photos: new PhotoQuotaExceeded().message }, values, { "Retry-After": "3600" });
   if (received.length && (await photoBytesToday(undefined, company.id)) >= MAX_COMPANY_PHOTO_BYTES_PER_DAY) {
     await discardReceivedPhotos(received);
     return quotaRefusal();
@@ -104,4 +138,3 @@ export async function receiveLeadRequest({ request, companySlug, context }: { re
   }
   return { ok: true, location: `/c/${company.slug}/sent/${lead.ref}` };
 }
-

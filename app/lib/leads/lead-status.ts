@@ -92,7 +92,8 @@ export function allowedMoves(stage: LeadStatus, pausedStage: LeadStatus | null):
   if (stage === "on-hold" || stage === "not-going-ahead") {
     const back = stepOf(stage, pausedStage);
     const moves: StageMove[] = [{ to: back, label: `Pick it up again (${STATUS_LABEL[back]})`, needsReason: false }];
-    if (stage === "on-hold" && !isSignedStage(back)) moves.push({ to: "not-going-ahead", label: "Not going ahead", needsReason: true });
+    if (stage === "on-hold" && !isSignedStage(back))
+      moves.push({ to: "not-going-ahead", label: "Not going ahead", needsReason: true });
     return moves;
   }
   const moves: StageMove[] = [];
@@ -115,32 +116,65 @@ export type NextStepFacts = {
 export type NextStep = { title: string; detail: string };
 
 /** The one thing that moves this job on, said to the person looking at it. */
-export function describeNextStep(stage: LeadStatus, pausedStage: LeadStatus | null, isOffice: boolean, facts: NextStepFacts): NextStep {
+export function describeNextStep(
+  stage: LeadStatus,
+  pausedStage: LeadStatus | null,
+  isOffice: boolean,
+  facts: NextStepFacts,
+): NextStep {
   if (!isOffice) {
-    if (stage === "built" || stage === "paid-in-full") return { title: "Built", detail: "This job is finished. Thank you." };
-    return { title: "Build it", detail: "The cut sheet and the cap template are ready; the cautions are at the foot of the page." };
+    if (stage === "built" || stage === "paid-in-full")
+      return { title: "Built", detail: "This job is finished. Thank you." };
+    return {
+      title: "Build it",
+      detail: "The cut sheet and the cap template are ready; the cautions are at the foot of the page.",
+    };
   }
   const who = facts.firstName;
   switch (stage) {
     case "request":
-      return { title: `Call ${who} back`, detail: `Talk through the design, then mark it called back. ${who} can book a paid design consult from the request link.` };
+      return {
+        title: `Call ${who} back`,
+        detail: `Talk through the design, then mark it called back. ${who} can book a paid design consult from the request link.`,
+      };
     case "called-back":
-      return { title: "Get the design consult booked", detail: `${who} books and pays for the consult from the request link or “My requests”; it shows here once paid.` };
+      return {
+        title: "Get the design consult booked",
+        detail: `${who} books and pays for the consult from the request link or “My requests”; it shows here once paid.`,
+      };
     case "consult-booked":
       return {
         title: "Measure the yard at the consult",
         detail: `${facts.consultLabel ? `Consult ${facts.consultLabel}. ` : ""}Record the site visit below: setbacks, slope, soil, access and photos.`,
       };
     case "measured":
-      return { title: "Send the proposal", detail: "Write the fixed price, add-ons and terms from the current design, then send it for signature." };
+      return {
+        title: "Send the proposal",
+        detail: "Write the fixed price, add-ons and terms from the current design, then send it for signature.",
+      };
     case "proposal-out":
-      if (facts.proposal?.state === "accepted") return { title: "Waiting for the deposit", detail: `${who} signed; the job is signed once the deposit is paid.` };
-      if (!facts.proposal) return { title: "Waiting for the signature", detail: "This proposal went out before Emberwright kept proposals. Send one from here to have it signed online." };
-      return { title: "Waiting for the signature", detail: facts.proposal.opened ? `${who} has opened the proposal.` : `${who} has not opened the proposal yet.` };
+      if (facts.proposal?.state === "accepted")
+        return {
+          title: "Waiting for the deposit",
+          detail: `${who} signed; the job is signed once the deposit is paid.`,
+        };
+      if (!facts.proposal)
+        return {
+          title: "Waiting for the signature",
+          detail:
+            "This proposal went out before Emberwright kept proposals. Send one from here to have it signed online.",
+        };
+      return {
+        title: "Waiting for the signature",
+        detail: facts.proposal.opened ? `${who} has opened the proposal.` : `${who} has not opened the proposal yet.`,
+      };
     case "signed":
       return facts.openChangeOrder
         ? { title: "Waiting for the change order's signature", detail: `${who} has a change order to sign.` }
-        : { title: "Order the stone", detail: "Signed and deposit paid. Give the job to a crew and order the material." };
+        : {
+            title: "Order the stone",
+            detail: "Signed and deposit paid. Give the job to a crew and order the material.",
+          };
     case "stone-ordered":
       return { title: "Book the build", detail: "Put the build days on the calendar with the crew." };
     case "build-booked":
@@ -150,7 +184,11 @@ export function describeNextStep(stage: LeadStatus, pausedStage: LeadStatus | nu
     case "paid-in-full":
       return { title: "Job done", detail: "Built and paid in full." };
     case "on-hold":
-      return { title: "On hold", detail: `${facts.stopReason ?? ""} Stopped at “${STATUS_LABEL[stepOf(stage, pausedStage)]}”; pick it up again when ${who} is ready.`.trim() };
+      return {
+        title: "On hold",
+        detail:
+          `${facts.stopReason ?? ""} Stopped at “${STATUS_LABEL[stepOf(stage, pausedStage)]}”; pick it up again when ${who} is ready.`.trim(),
+      };
     case "not-going-ahead":
       return { title: "Not going ahead", detail: facts.stopReason ?? "" };
   }

@@ -1,12 +1,28 @@
 import { and, asc, desc, eq, inArray, isNull, like, or } from "drizzle-orm";
 import { alias } from "drizzle-orm/sqlite-core";
-import { bookings, emailOutbox, leadEvents, leadPhotos, leadRevisions, leads, users, type Lead, type LeadStatus } from "~/db/schema";
+import {
+  bookings,
+  emailOutbox,
+  leadEvents,
+  leadPhotos,
+  leadRevisions,
+  leads,
+  users,
+  type Lead,
+  type LeadStatus,
+} from "~/db/schema";
 import { formatInches } from "~/domain/units";
 import { db } from "~/lib/platform/db.server";
 import { allowedMoves, isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoneyWhole } from "~/lib/format/money";
 import type { SessionUser } from "~/lib/auth/session.server";
-import { readStoredPlan, writeStoredPlan, type StoredDesign, type StoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
+import {
+  readStoredPlan,
+  writeStoredPlan,
+  type StoredDesign,
+  type StoredPlan,
+  type StoredPlanRecord,
+} from "~/lib/design/stored-plan";
 import { findActiveStaff } from "~/lib/auth/team.server";
 import { RevisionSentEmail, StaffAssignedEmail } from "~/emails/lead-emails";
 import { getCompany } from "~/lib/catalog/catalog.server";
@@ -75,9 +91,20 @@ export async function currentVersion(lead: Lead): Promise<DesignVersion> {
 
 const actor = alias(users, "actor");
 
-const CONSULT_MAIL_KINDS = ["consult-confirmed", "consult-confirmed-company", "consult-reminder", "consult-cancelled", "consult-cancelled-company"] as const;
+const CONSULT_MAIL_KINDS = [
+  "consult-confirmed",
+  "consult-confirmed-company",
+  "consult-reminder",
+  "consult-cancelled",
+  "consult-cancelled-company",
+] as const;
 
-const MAIL_STATE: Record<string, string> = { sent: "sent", failed: "could not be sent", pending: "waiting to be sent", cancelled: "withdrawn before it was sent" };
+const MAIL_STATE: Record<string, string> = {
+  sent: "sent",
+  failed: "could not be sent",
+  pending: "waiting to be sent",
+  cancelled: "withdrawn before it was sent",
+};
 
 /** The lead's timeline, newest first: its events plus the e-mails sent about it and its consults. */
 export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
@@ -87,27 +114,52 @@ export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
     .from(bookings)
     .where(and(eq(bookings.leadId, lead.id), eq(bookings.companyId, lead.companyId)));
   // A moved consult adds its notes and its new reminder under "<kind>/<bookingId>/<sequence>".
-  const consultKeys = leadBookings.flatMap((b) => [...CONSULT_MAIL_KINDS.map((kind) => `${kind}/${b.id}`), ...moveMailKeys(b)]);
+  const consultKeys = leadBookings.flatMap((b) => [
+    ...CONSULT_MAIL_KINDS.map((kind) => `${kind}/${b.id}`),
+    ...moveMailKeys(b),
+  ]);
   const [events, mails] = await Promise.all([
     db
-      .select({ id: leadEvents.id, kind: leadEvents.kind, detail: leadEvents.detail, createdAt: leadEvents.createdAt, actorName: actor.name })
+      .select({
+        id: leadEvents.id,
+        kind: leadEvents.kind,
+        detail: leadEvents.detail,
+        createdAt: leadEvents.createdAt,
+        actorName: actor.name,
+      })
       .from(leadEvents)
       .leftJoin(actor, eq(actor.id, leadEvents.actorUserId))
       .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.companyId, lead.companyId)))
       .orderBy(desc(leadEvents.createdAt), desc(leadEvents.id)),
     // The lead's own e-mails carry keys like "lead-received/<id>" (see leads.server.ts).
     db
-      .select({ id: emailOutbox.id, to: emailOutbox.toAddress, subject: emailOutbox.subject, status: emailOutbox.status, createdAt: emailOutbox.createdAt, sentAt: emailOutbox.sentAt })
+      .select({
+        id: emailOutbox.id,
+        to: emailOutbox.toAddress,
+        subject: emailOutbox.subject,
+        status: emailOutbox.status,
+        createdAt: emailOutbox.createdAt,
+        sentAt: emailOutbox.sentAt,
+      })
       .from(emailOutbox)
       .where(
         and(
           eq(emailOutbox.companyId, lead.companyId),
-          or(like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`), consultKeys.length ? inArray(emailOutbox.idempotencyKey, consultKeys) : undefined),
+          or(
+            like(emailOutbox.idempotencyKey, `lead-%/${lead.id}`),
+            consultKeys.length ? inArray(emailOutbox.idempotencyKey, consultKeys) : undefined,
+          ),
         ),
       ),
   ]);
   const entries: TimelineEntry[] = [
-    ...events.map((e) => ({ key: `e${e.id}`, kind: e.kind, detail: e.detail, actorName: e.actorName, createdAt: e.createdAt })),
+    ...events.map((e) => ({
+      key: `e${e.id}`,
+      kind: e.kind,
+      detail: e.detail,
+      actorName: e.actorName,
+      createdAt: e.createdAt,
+    })),
     ...mails.map((m) => ({
       key: `m${m.id}`,
       kind: "email",
@@ -116,7 +168,9 @@ export async function listTimeline(lead: Lead): Promise<TimelineEntry[]> {
       createdAt: m.sentAt ?? m.createdAt,
     })),
   ];
-  return entries.sort((x, y) => (x.createdAt < y.createdAt ? 1 : x.createdAt > y.createdAt ? -1 : x.key < y.key ? 1 : -1));
+  return entries.sort((x, y) =>
+    x.createdAt < y.createdAt ? 1 : x.createdAt > y.createdAt ? -1 : x.key < y.key ? 1 : -1,
+  );
 }
 
 export function listPhotos(lead: Lead) {
@@ -140,14 +194,33 @@ function scoped(lead: Lead) {
  * it stopped, or along the build's steps. Stages that follow an event (consult, visit, proposal,
  * deposit) are refused here: the event sets them.
  */
-export async function changeStage(user: SessionUser, lead: Lead, to: LeadStatus, reason: string): Promise<ActionResult> {
+export async function changeStage(
+  user: SessionUser,
+  lead: Lead,
+  to: LeadStatus,
+  reason: string,
+): Promise<ActionResult> {
   const move = allowedMoves(lead.status, lead.pausedStage).find((m) => m.to === to);
   if (!move) {
-    const choices = allowedMoves(lead.status, lead.pausedStage).map((m) => `“${m.label}”`).join(", ");
-    return { ok: false, status: 400, errors: { status: `From “${STATUS_LABEL[lead.status]}” the job can move to ${choices || "no other stage by hand"}.` } };
+    const choices = allowedMoves(lead.status, lead.pausedStage)
+      .map((m) => `“${m.label}”`)
+      .join(", ");
+    return {
+      ok: false,
+      status: 400,
+      errors: {
+        status: `From “${STATUS_LABEL[lead.status]}” the job can move to ${choices || "no other stage by hand"}.`,
+      },
+    };
   }
   if (move.needsReason && reason.length < 3) {
-    return { ok: false, status: 400, errors: { reason: `Say why (3 to 200 characters), e.g. “waiting for the town's permit” or “went with another contractor”.` } };
+    return {
+      ok: false,
+      status: 400,
+      errors: {
+        reason: `Say why (3 to 200 characters), e.g. “waiting for the town's permit” or “went with another contractor”.`,
+      },
+    };
   }
   const isStopping = to === "on-hold" || to === "not-going-ahead";
   const at = now();
@@ -164,7 +237,14 @@ export async function changeStage(user: SessionUser, lead: Lead, to: LeadStatus,
         updatedAt: at,
       })
       .where(and(scoped(lead), eq(leads.status, lead.status))),
-    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "status", detail, createdAt: at }),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "status",
+      detail,
+      createdAt: at,
+    }),
   ]);
   return { ok: true };
 }
@@ -174,7 +254,14 @@ export async function addNote(user: SessionUser, lead: Lead, note: string): Prom
   const at = now();
   await db.batch([
     db.update(leads).set({ updatedAt: at }).where(scoped(lead)),
-    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "note", detail: note, createdAt: at }),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "note",
+      detail: note,
+      createdAt: at,
+    }),
   ]);
   return { ok: true };
 }
@@ -189,7 +276,14 @@ async function nameOf(userId: number | null): Promise<string | null> {
  * The e-mail telling a staff member a request (or a job to build) is theirs now; none when they
  * gave it to themselves. Its key ends in the lead's id, so the lead's timeline lists it.
  */
-async function assignedEmail(args: { user: SessionUser; lead: Lead; to: { id: number; name: string; email: string }; asCrew: boolean; at: string; origin: string }) {
+async function assignedEmail(args: {
+  user: SessionUser;
+  lead: Lead;
+  to: { id: number; name: string; email: string };
+  asCrew: boolean;
+  at: string;
+  origin: string;
+}) {
   if (args.to.id === args.user.id) return [];
   const company = await getCompany(args.lead.companyId);
   return [
@@ -197,7 +291,9 @@ async function assignedEmail(args: { user: SessionUser; lead: Lead; to: { id: nu
       idempotencyKey: `lead-${args.asCrew ? "crew" : "assigned"}-${Date.parse(args.at)}-${args.to.id}/${args.lead.id}`,
       companyId: args.lead.companyId,
       to: args.to.email,
-      subject: args.asCrew ? `Job to build: ${args.lead.customerName}, ${args.lead.town}` : `Request assigned to you: ${args.lead.customerName}, ${args.lead.town}`,
+      subject: args.asCrew
+        ? `Job to build: ${args.lead.customerName}, ${args.lead.town}`
+        : `Request assigned to you: ${args.lead.customerName}, ${args.lead.town}`,
       template: StaffAssignedEmail({
         companyName: company.name,
         recipientName: args.to.name,
@@ -213,11 +309,17 @@ async function assignedEmail(args: { user: SessionUser; lead: Lead; to: { id: nu
 }
 
 /** Assigns the lead to an owner or estimator of the company (or to nobody), and e-mails the one assigned. */
-export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId: number | null, origin: string): Promise<ActionResult> {
+export async function assignEstimator(
+  user: SessionUser,
+  lead: Lead,
+  assigneeId: number | null,
+  origin: string,
+): Promise<ActionResult> {
   if (assigneeId === lead.assignedUserId) {
     return { ok: false, status: 400, errors: { assigneeId: "The request is already assigned that way." } };
   }
-  const assignee = assigneeId === null ? null : await findActiveStaff(lead.companyId, assigneeId, ["owner", "estimator"]);
+  const assignee =
+    assigneeId === null ? null : await findActiveStaff(lead.companyId, assigneeId, ["owner", "estimator"]);
   if (assigneeId !== null && !assignee) {
     return { ok: false, status: 400, errors: { assigneeId: "Choose an active owner or estimator of your company." } };
   }
@@ -232,7 +334,9 @@ export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId:
       leadId: lead.id,
       actorUserId: user.id,
       kind: "assigned",
-      detail: assignee ? `Assigned to ${assignee.name}${previous ? ` (was ${previous})` : ""}` : `Unassigned${previous ? ` (was ${previous})` : ""}`,
+      detail: assignee
+        ? `Assigned to ${assignee.name}${previous ? ` (was ${previous})` : ""}`
+        : `Unassigned${previous ? ` (was ${previous})` : ""}`,
       createdAt: at,
     }),
   ]);
@@ -240,9 +344,18 @@ export async function assignEstimator(user: SessionUser, lead: Lead, assigneeId:
 }
 
 /** Gives a signed job to a crew member of the company (or takes it back), and e-mails the crew member. */
-export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: number | null, origin: string): Promise<ActionResult> {
+export async function assignCrew(
+  user: SessionUser,
+  lead: Lead,
+  crewUserId: number | null,
+  origin: string,
+): Promise<ActionResult> {
   if (!isSignedStage(lead.status)) {
-    return { ok: false, status: 400, errors: { crewUserId: "A job goes to a crew once it is signed and the deposit is paid." } };
+    return {
+      ok: false,
+      status: 400,
+      errors: { crewUserId: "A job goes to a crew once it is signed and the deposit is paid." },
+    };
   }
   if (crewUserId === lead.crewUserId) {
     return { ok: false, status: 400, errors: { crewUserId: "The job is already with that crew." } };
@@ -262,7 +375,9 @@ export async function assignCrew(user: SessionUser, lead: Lead, crewUserId: numb
       leadId: lead.id,
       actorUserId: user.id,
       kind: "crew-assigned",
-      detail: crew ? `Job given to ${crew.name}${previous ? ` (was ${previous})` : ""}` : `Job taken back from ${previous ?? "the crew"}`,
+      detail: crew
+        ? `Job given to ${crew.name}${previous ? ` (was ${previous})` : ""}`
+        : `Job taken back from ${previous ?? "the crew"}`,
       createdAt: at,
     }),
   ]);
@@ -305,15 +420,27 @@ export async function saveRevision(user: SessionUser, lead: Lead, record: Stored
  * Sends a staff revision to the homeowner: marks it sent (once; a second send is refused), notes it
  * on the timeline and e-mails the homeowner through the outbox, all in one transaction.
  */
-export async function sendRevision(user: SessionUser, lead: Lead, revisionId: number, origin: string): Promise<ActionResult> {
+export async function sendRevision(
+  user: SessionUser,
+  lead: Lead,
+  revisionId: number,
+  origin: string,
+): Promise<ActionResult> {
   const [row] = await db
     .select({ revision: leadRevisions, authorName: author.name })
     .from(leadRevisions)
     .leftJoin(author, eq(author.id, leadRevisions.authorUserId))
-    .where(and(eq(leadRevisions.id, revisionId), eq(leadRevisions.leadId, lead.id), eq(leadRevisions.companyId, lead.companyId)))
+    .where(
+      and(
+        eq(leadRevisions.id, revisionId),
+        eq(leadRevisions.leadId, lead.id),
+        eq(leadRevisions.companyId, lead.companyId),
+      ),
+    )
     .limit(1);
   if (!row) return { ok: false, status: 404, errors: { revisionId: "That revision is not one of this request's." } };
-  if (row.revision.sentAt) return { ok: false, status: 409, errors: { revisionId: "This revision was already sent to the homeowner." } };
+  if (row.revision.sentAt)
+    return { ok: false, status: 409, errors: { revisionId: "This revision was already sent to the homeowner." } };
   const company = await getCompany(lead.companyId);
   const { design } = readStoredPlan(row.revision);
   const low = row.revision.priceLowCents;
@@ -341,9 +468,21 @@ export async function sendRevision(user: SessionUser, lead: Lead, revisionId: nu
       .set({ sentAt: at })
       .where(and(eq(leadRevisions.id, revisionId), isNull(leadRevisions.sentAt)))
       .returning({ id: leadRevisions.id });
-    if (marked.length === 0) return { ok: false as const, status: 409, errors: { revisionId: "This revision was already sent to the homeowner." } };
+    if (marked.length === 0)
+      return {
+        ok: false as const,
+        status: 409,
+        errors: { revisionId: "This revision was already sent to the homeowner." },
+      };
     await tx.update(leads).set({ updatedAt: at }).where(scoped(lead));
-    await tx.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "revision-sent", detail: `Revised design sent to ${lead.customerName} (${lead.email}).`, createdAt: at });
+    await tx.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "revision-sent",
+      detail: `Revised design sent to ${lead.customerName} (${lead.email}).`,
+      createdAt: at,
+    });
     await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
     return { ok: true as const };
   });

@@ -1,5 +1,14 @@
 import { and, desc, eq, gt, sum } from "drizzle-orm";
-import { emailOutbox, leadEvents, leadPhotos, leads, users, type Company, type Lead, type LeadPhoto } from "~/db/schema";
+import {
+  emailOutbox,
+  leadEvents,
+  leadPhotos,
+  leads,
+  users,
+  type Company,
+  type Lead,
+  type LeadPhoto,
+} from "~/db/schema";
 import type { SessionUser } from "~/lib/auth/session.server";
 import { isSignedStage } from "~/lib/leads/lead-status";
 import type { DesignSummaryLine } from "~/emails/design-summary";
@@ -10,7 +19,12 @@ import { prepareOutboxRow } from "~/lib/platform/email.server";
 import type { LeadFormInput } from "~/lib/leads/lead-schema";
 import { writeStoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
 import { createRef, issueOneTimeToken, oneTimeLinkPath } from "~/lib/auth/tokens.server";
-import { deleteStoredPhotos, MAX_COMPANY_PHOTO_BYTES_PER_DAY, sweepOrphanPhotos, type StoredPhoto } from "~/lib/platform/uploads.server";
+import {
+  deleteStoredPhotos,
+  MAX_COMPANY_PHOTO_BYTES_PER_DAY,
+  sweepOrphanPhotos,
+  type StoredPhoto,
+} from "~/lib/platform/uploads.server";
 
 export type LeadSnapshot = {
   /** The design, the parts and prices it was planned with, and the plan: kept as sent, forever. */
@@ -48,7 +62,8 @@ export async function createLead(args: {
       // Checked inside the write transaction, so two requests at once cannot both slip under the cap.
       if (photos.length) {
         const incoming = photos.reduce((total, p) => total + p.sizeBytes, 0);
-        if ((await photoBytesToday(tx, company.id)) + incoming > MAX_COMPANY_PHOTO_BYTES_PER_DAY) throw new PhotoQuotaExceeded();
+        if ((await photoBytesToday(tx, company.id)) + incoming > MAX_COMPANY_PHOTO_BYTES_PER_DAY)
+          throw new PhotoQuotaExceeded();
       }
       const [existing] = await tx.select().from(users).where(eq(users.email, email)).limit(1);
       // The account the address belongs to (a new one for a new address). The request joins that
@@ -164,7 +179,8 @@ export async function createLead(args: {
 
 /** Thrown when a company has taken in its day's photo storage; nothing of the request is saved. */
 export class PhotoQuotaExceeded extends Error {
-  readonly message = "This contractor has received all the photos it can take today. Send your request without photos, or try again tomorrow.";
+  readonly message =
+    "This contractor has received all the photos it can take today. Send your request without photos, or try again tomorrow.";
 }
 
 /** Photo bytes a company stored in the last 24 hours. */
@@ -179,7 +195,11 @@ export async function photoBytesToday(executor: Pick<typeof db, "select"> = db, 
 
 /** A lead by its public reference, scoped to the company whose page it came from. */
 export async function findLeadByRef(companyId: number, ref: string): Promise<Lead | null> {
-  const [row] = await db.select().from(leads).where(and(eq(leads.companyId, companyId), eq(leads.ref, ref))).limit(1);
+  const [row] = await db
+    .select()
+    .from(leads)
+    .where(and(eq(leads.companyId, companyId), eq(leads.ref, ref)))
+    .limit(1);
   return row ?? null;
 }
 
@@ -198,9 +218,20 @@ export async function sweepUnrecordedPhotos(olderThanMs?: number): Promise<numbe
  * A yard photo the user may see, or null: the lead's company staff (crew only for their own signed
  * jobs) or the homeowner who sent it. Anyone else gets the same null as a photo that does not exist.
  */
-export async function findPhotoFor(user: Pick<SessionUser, "id" | "role" | "companyId">, photoId: number): Promise<LeadPhoto | null> {
+export async function findPhotoFor(
+  user: Pick<SessionUser, "id" | "role" | "companyId">,
+  photoId: number,
+): Promise<LeadPhoto | null> {
   const [row] = await db
-    .select({ photo: leadPhotos, lead: { companyId: leads.companyId, homeownerId: leads.homeownerId, crewUserId: leads.crewUserId, status: leads.status } })
+    .select({
+      photo: leadPhotos,
+      lead: {
+        companyId: leads.companyId,
+        homeownerId: leads.homeownerId,
+        crewUserId: leads.crewUserId,
+        status: leads.status,
+      },
+    })
     .from(leadPhotos)
     .innerJoin(leads, eq(leads.id, leadPhotos.leadId))
     .where(eq(leadPhotos.id, photoId))
@@ -209,6 +240,7 @@ export async function findPhotoFor(user: Pick<SessionUser, "id" | "role" | "comp
   const isAllowed =
     user.role === "homeowner"
       ? row.lead.homeownerId === user.id
-      : row.lead.companyId === user.companyId && (user.role !== "crew" || (row.lead.crewUserId === user.id && isSignedStage(row.lead.status)));
+      : row.lead.companyId === user.companyId &&
+        (user.role !== "crew" || (row.lead.crewUserId === user.id && isSignedStage(row.lead.status)));
   return isAllowed ? row.photo : null;
 }

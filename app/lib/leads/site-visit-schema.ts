@@ -35,7 +35,10 @@ const optionalFeet = z
     const lengthIn = parseLength(s, "ft");
     const n = lengthIn === null ? NaN : lengthIn / 12;
     if (!Number.isFinite(n) || n < 0 || n > 500 + 1e-9) {
-      ctx.addIssue({ code: "custom", message: "Branches must be between 0 and 500 ft, or left empty when none hang over." });
+      ctx.addIssue({
+        code: "custom",
+        message: "Branches must be between 0 and 500 ft, or left empty when none hang over.",
+      });
       return z.NEVER;
     }
     return n;

@@ -24,7 +24,12 @@ const BEFORE_MEASURED = ["request", "called-back", "consult-booked"] as const;
  * the record, the photos' rows, the stage and a timeline event in one transaction; if that fails the
  * photos are deleted again, so nothing is half-saved.
  */
-export async function saveSiteVisit(user: SessionUser, lead: Lead, input: SiteVisitInput, photos: StoredPhoto[]): Promise<void> {
+export async function saveSiteVisit(
+  user: SessionUser,
+  lead: Lead,
+  input: SiteVisitInput,
+  photos: StoredPhoto[],
+): Promise<void> {
   const storedNames = photos.map((p) => p.storedName);
   const at = new Date().toISOString();
   try {
@@ -50,9 +55,13 @@ export async function saveSiteVisit(user: SessionUser, lead: Lead, input: SiteVi
       const moved = await tx
         .update(leads)
         .set({ status: "measured", calledBackAt: lead.calledBackAt ?? at, updatedAt: at })
-        .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId), inArray(leads.status, [...BEFORE_MEASURED])))
+        .where(
+          and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId), inArray(leads.status, [...BEFORE_MEASURED])),
+        )
         .returning({ id: leads.id });
-      const photoNote = storedNames.length ? ` with ${storedNames.length} photo${storedNames.length === 1 ? "" : "s"}` : "";
+      const photoNote = storedNames.length
+        ? ` with ${storedNames.length} photo${storedNames.length === 1 ? "" : "s"}`
+        : "";
       await tx.insert(leadEvents).values({
         companyId: lead.companyId,
         leadId: lead.id,

@@ -30,7 +30,10 @@ export function bodyLimitFor(pathname: string): BodyLimit {
 
 /** The 413 answer, sent before any of the body is read. */
 export function bodyTooLarge(limit: BodyLimit): Response {
-  const size = limit.bytes >= 1024 * 1024 ? `${Math.round(limit.bytes / (1024 * 1024))} MB` : `${Math.round(limit.bytes / 1024)} kB`;
+  const size =
+    limit.bytes >= 1024 * 1024
+      ? `${Math.round(limit.bytes / (1024 * 1024))} MB`
+      : `${Math.round(limit.bytes / 1024)} kB`;
   return Response.json(
     { errors: [{ path: "", message: `The request is too large: this form or API accepts at most ${size}.` }] },
     { status: 413 },

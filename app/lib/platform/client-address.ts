@@ -7,9 +7,7 @@ import { BlockList, isIP } from "node:net";
  * list trusts any hop whose address is in it.
  */
 export type TrustProxy =
-  | { kind: "none" }
-  | { kind: "hops"; hops: number }
-  | { kind: "list"; list: BlockList; text: string };
+  { kind: "none" } | { kind: "hops"; hops: number } | { kind: "list"; list: BlockList; text: string };
 
 const NAMED_RANGES: Record<string, [string, number, "ipv4" | "ipv6"][]> = {
   loopback: [
@@ -54,7 +52,9 @@ export function parseTrustProxy(value: string | undefined): TrustProxy {
     const [address, prefixText] = entry.split("/");
     const family = isIP(address ?? "");
     if (!address || family === 0) {
-      throw new Error(`TRUST_PROXY: "${entry}" is not an IP address, a subnet (10.0.0.0/8) or one of loopback, linklocal, uniquelocal.`);
+      throw new Error(
+        `TRUST_PROXY: "${entry}" is not an IP address, a subnet (10.0.0.0/8) or one of loopback, linklocal, uniquelocal.`,
+      );
     }
     const type = family === 4 ? "ipv4" : "ipv6";
     if (prefixText === undefined) {
@@ -88,7 +88,11 @@ function isTrusted(address: string, trust: Extract<TrustProxy, { kind: "list" }>
  * hop that is not a trusted proxy. Entries left of that are the client's to invent and are never
  * read. Null when the server did not pass the socket's address.
  */
-export function resolveClientAddress(socketAddress: string | null | undefined, forwardedFor: string | null, trust: TrustProxy): string | null {
+export function resolveClientAddress(
+  socketAddress: string | null | undefined,
+  forwardedFor: string | null,
+  trust: TrustProxy,
+): string | null {
   if (!socketAddress) return null;
   const chain = [normalizeAddress(socketAddress)];
   if (trust.kind === "none" || !forwardedFor) return chain[0]!;

@@ -29,9 +29,11 @@ export const BUSY_TIMEOUT_MS = 5_000;
 // How long a write waits for this process's earlier writes before giving up (a guard, not a pace).
 const GATE_TIMEOUT_MS = 15_000;
 
-const messageOf = (error: unknown) => `${(error as Error)?.message ?? error} ${(error as { cause?: Error })?.cause?.message ?? ""}`;
+const messageOf = (error: unknown) =>
+  `${(error as Error)?.message ?? error} ${(error as { cause?: Error })?.cause?.message ?? ""}`;
 const isBusy = (error: unknown) =>
-  String((error as { code?: string })?.code ?? "").startsWith("SQLITE_BUSY") || /SQLITE_BUSY|database is locked/i.test(messageOf(error));
+  String((error as { code?: string })?.code ?? "").startsWith("SQLITE_BUSY") ||
+  /SQLITE_BUSY|database is locked/i.test(messageOf(error));
 
 /** An async mutex: `acquire` resolves with a release function once every earlier holder released. */
 function createWriteGate() {
@@ -46,7 +48,15 @@ function createWriteGate() {
       await Promise.race([
         before,
         new Promise<never>((_, reject) => {
-          timer = setTimeout(() => reject(Object.assign(new Error("SQLITE_BUSY: database is locked (this process's writes queued too long)"), { code: "SQLITE_BUSY" })), GATE_TIMEOUT_MS);
+          timer = setTimeout(
+            () =>
+              reject(
+                Object.assign(new Error("SQLITE_BUSY: database is locked (this process's writes queued too long)"), {
+                  code: "SQLITE_BUSY",
+                }),
+              ),
+            GATE_TIMEOUT_MS,
+          );
         }),
       ]);
     } catch (error) {
@@ -65,7 +75,8 @@ function createWriteGate() {
   };
 }
 
-const READ_ONLY = /^\s*(select|explain|pragma\s+\w+\s*(;|$)|pragma\s+(table_info|index_list|foreign_key_check|integrity_check|quick_check))/i;
+const READ_ONLY =
+  /^\s*(select|explain|pragma\s+\w+\s*(;|$)|pragma\s+(table_info|index_list|foreign_key_check|integrity_check|quick_check))/i;
 
 /** Whether a statement may write: everything but plain reads (SELECT, a WITH … SELECT, reading pragmas). */
 function mayWrite(statement: InStatement): boolean {
@@ -104,20 +115,22 @@ function withWriteGate(client: Client): Client {
         if (typeof value !== "function") return value;
         const method = value as (...args: unknown[]) => unknown;
         if (property === "commit") return async () => ((await method.apply(target, [])) as void, release());
-        if (property === "rollback") return async () => {
-          try {
-            await method.apply(target, []);
-          } finally {
-            release();
-          }
-        };
-        if (property === "close") return () => {
-          try {
-            method.apply(target, []);
-          } finally {
-            release();
-          }
-        };
+        if (property === "rollback")
+          return async () => {
+            try {
+              await method.apply(target, []);
+            } finally {
+              release();
+            }
+          };
+        if (property === "close")
+          return () => {
+            try {
+              method.apply(target, []);
+            } finally {
+              release();
+            }
+          };
         return method.bind(target);
       },
     });
@@ -130,9 +143,11 @@ function withWriteGate(client: Client): Client {
       const method = (value as (...args: unknown[]) => Promise<unknown>).bind(target);
       switch (property) {
         case "execute":
-          return (statement: InStatement, ...rest: unknown[]) => (mayWrite(statement) ? gated(() => method(statement, ...rest)) : method(statement, ...rest));
+          return (statement: InStatement, ...rest: unknown[]) =>
+            mayWrite(statement) ? gated(() => method(statement, ...rest)) : method(statement, ...rest);
         case "batch":
-          return (statements: InStatement[], mode?: TransactionMode) => (mode === "read" ? method(statements, mode) : gated(() => method(statements, mode)));
+          return (statements: InStatement[], mode?: TransactionMode) =>
+            mode === "read" ? method(statements, mode) : gated(() => method(statements, mode));
         case "migrate":
         case "executeMultiple":
           return (...args: unknown[]) => gated(() => method(...args));
@@ -191,17 +206,26 @@ async function migrateFileDatabase(url: string): Promise<void> {
       await client.execute("PRAGMA foreign_keys = OFF");
       const tx = await client.transaction("write");
       try {
-        await tx.execute(`CREATE TABLE IF NOT EXISTS ${MIGRATIONS_TABLE} (id SERIAL PRIMARY KEY, hash text NOT NULL, created_at numeric)`);
-        const [last] = (await tx.execute(`SELECT created_at FROM ${MIGRATIONS_TABLE} ORDER BY created_at DESC LIMIT 1`)).rows;
+        await tx.execute(
+          `CREATE TABLE IF NOT EXISTS ${MIGRATIONS_TABLE} (id SERIAL PRIMARY KEY, hash text NOT NULL, created_at numeric)`,
+        );
+        const [last] = (await tx.execute(`SELECT created_at FROM ${MIGRATIONS_TABLE} ORDER BY created_at DESC LIMIT 1`))
+          .rows;
         const lastAt = last ? Number(last.created_at) : Number.NEGATIVE_INFINITY;
         const pending = migrations.filter((m) => m.folderMillis > lastAt);
         for (const migration of pending) {
           for (const statement of migration.sql) if (statement.trim()) await tx.execute(statement);
-          await tx.execute({ sql: `INSERT INTO ${MIGRATIONS_TABLE} ("hash", "created_at") VALUES (?, ?)`, args: [migration.hash, migration.folderMillis] });
+          await tx.execute({
+            sql: `INSERT INTO ${MIGRATIONS_TABLE} ("hash", "created_at") VALUES (?, ?)`,
+            args: [migration.hash, migration.folderMillis],
+          });
         }
         if (pending.length > 0) {
           const broken = (await tx.execute("PRAGMA foreign_key_check")).rows;
-          if (broken.length > 0) throw new Error(`The migrations leave ${broken.length} row(s) pointing at missing rows (first in table ${String(broken[0]![0])}); nothing was changed.`);
+          if (broken.length > 0)
+            throw new Error(
+              `The migrations leave ${broken.length} row(s) pointing at missing rows (first in table ${String(broken[0]![0])}); nothing was changed.`,
+            );
         }
         await tx.commit();
         return;
@@ -261,7 +285,9 @@ let writeQueue: Promise<unknown> = Promise.resolve();
  * other writes of this process until it ends). Never await a network call (payments, e-mail)
  * inside `work`.
  */
-export function writeTransaction<T>(work: Parameters<Db["transaction"]>[0] extends (tx: infer Tx) => unknown ? (tx: Tx) => Promise<T> : never): Promise<T> {
+export function writeTransaction<T>(
+  work: Parameters<Db["transaction"]>[0] extends (tx: infer Tx) => unknown ? (tx: Tx) => Promise<T> : never,
+): Promise<T> {
   const run = writeQueue.then(() => db.transaction(work));
   writeQueue = run.catch(() => undefined);
   return run;

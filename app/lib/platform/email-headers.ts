@@ -37,7 +37,11 @@ export function displayName(name: string): string {
  * address, and Reply-To its own address, unless the message goes to that address (the office's own
  * copy needs no reply-to itself). Without one (nothing here yet), the sending setting as it is.
  */
-export function senderHeaders(args: { sendingFrom: string; company: { name: string; email: string } | null; to: string }): { from: string; replyTo?: string } {
+export function senderHeaders(args: {
+  sendingFrom: string;
+  company: { name: string; email: string } | null;
+  to: string;
+}): { from: string; replyTo?: string } {
   if (!args.company) return { from: args.sendingFrom };
   const address = mailboxAddress(args.sendingFrom);
   const name = displayName(args.company.name);

@@ -7,10 +7,15 @@ import { emailOutbox } from "~/db/schema";
 import { env } from "~/lib/platform/env.server";
 
 // Points at fakes/email when RESEND_BASE_URL is set; at the real service otherwise.
-export const resend = new Resend(env.RESEND_API_KEY, env.RESEND_BASE_URL ? { baseUrl: env.RESEND_BASE_URL } : undefined);
+export const resend = new Resend(
+  env.RESEND_API_KEY,
+  env.RESEND_BASE_URL ? { baseUrl: env.RESEND_BASE_URL } : undefined,
+);
 
 /** An attachment as an outbox row keeps it (content in base64); rows are parsed with this on the way out. */
-export const outboxAttachmentsSchema = z.array(z.object({ filename: z.string(), content: z.string(), contentType: z.string() }));
+export const outboxAttachmentsSchema = z.array(
+  z.object({ filename: z.string(), content: z.string(), contentType: z.string() }),
+);
 export type OutboxAttachment = z.infer<typeof outboxAttachmentsSchema>[number];
 
 export type OutboxMessage = {

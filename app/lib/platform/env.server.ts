@@ -19,11 +19,15 @@ const REQUIRED_IN_PRODUCTION: Record<"APP_ORIGIN" | keyof typeof LOCAL_SECRETS, 
     "APP_ORIGIN is required in production: every link in e-mails and every payment return address is built from it, never from the request's Host. Set it to the public origin, e.g. https://pits.example.com.",
   STRIPE_WEBHOOK_SECRET:
     "STRIPE_WEBHOOK_SECRET is required in production: it proves a payment notice came from the payment service. Use the signing secret (whsec_…) of your webhook endpoint.",
-  STRIPE_SECRET_KEY: "STRIPE_SECRET_KEY is required in production: the payment service's secret key (sk_live_… or sk_test_…).",
+  STRIPE_SECRET_KEY:
+    "STRIPE_SECRET_KEY is required in production: the payment service's secret key (sk_live_… or sk_test_…).",
   RESEND_API_KEY: "RESEND_API_KEY is required in production: the e-mail service's API key (re_…).",
 };
 
-const origin = z.url({ protocol: /^https?$/, error: "must be an http:// or https:// origin such as https://pits.example.com" });
+const origin = z.url({
+  protocol: /^https?$/,
+  error: "must be an http:// or https:// origin such as https://pits.example.com",
+});
 
 export const envSchema = z
   .object({

@@ -2,7 +2,10 @@ import Stripe from "stripe";
 import { env } from "~/lib/platform/env.server";
 
 /** A Stripe client; STRIPE_API_BASE points it at fakes/payments, unset it talks to the real service. */
-export function createStripe(apiBase: string | undefined = env.STRIPE_API_BASE, secretKey = env.STRIPE_SECRET_KEY): Stripe {
+export function createStripe(
+  apiBase: string | undefined = env.STRIPE_API_BASE,
+  secretKey = env.STRIPE_SECRET_KEY,
+): Stripe {
   if (!apiBase) return new Stripe(secretKey, { maxNetworkRetries: 2 });
   const base = new URL(apiBase);
   return new Stripe(secretKey, {

@@ -26,7 +26,10 @@ const requireHere = createRequire(import.meta.url);
 const fontkit = (() => {
   try {
     return createRequire(requireHere.resolve("pdfkit"))("fontkit") as {
-      openSync(file: string, family?: string): FontkitFont & { fonts?: FontkitFont[]; getFont?(name: string): FontkitFont };
+      openSync(
+        file: string,
+        family?: string,
+      ): FontkitFont & { fonts?: FontkitFont[]; getFont?(name: string): FontkitFont };
     };
   } catch {
     return null;
@@ -42,13 +45,24 @@ function packageFile(pkg: string, file: string): string | null {
   }
 }
 
-const NOTO_SANS_SUBSETS = ["latin", "latin-ext", "cyrillic", "cyrillic-ext", "greek", "greek-ext", "vietnamese", "devanagari"];
+const NOTO_SANS_SUBSETS = [
+  "latin",
+  "latin-ext",
+  "cyrillic",
+  "cyrillic-ext",
+  "greek",
+  "greek-ext",
+  "vietnamese",
+  "devanagari",
+];
 
 function candidateFiles(weight: Weight): { file: string | null; family?: string }[] {
   const w = weight === "bold" ? "700" : "400";
   const expo = weight === "bold" ? "700Bold" : "400Regular";
   return [
-    ...NOTO_SANS_SUBSETS.map((s) => ({ file: packageFile("@fontsource/noto-sans", `files/noto-sans-${s}-${w}-normal.woff`) })),
+    ...NOTO_SANS_SUBSETS.map((s) => ({
+      file: packageFile("@fontsource/noto-sans", `files/noto-sans-${s}-${w}-normal.woff`),
+    })),
     { file: packageFile("@expo-google-fonts/noto-sans-sc", `${expo}/NotoSansSC_${expo}.ttf`) },
     { file: packageFile("@expo-google-fonts/noto-sans-kr", `${expo}/NotoSansKR_${expo}.ttf`) },
     { file: packageFile("@expo-google-fonts/noto-emoji", "400Regular/NotoEmoji_400Regular.ttf") },
@@ -88,7 +102,14 @@ export function fallbackFaces(weight: Weight): Face[] {
 const WIN_ANSI_EXTRA = "€‚ƒ„…†‡ˆ‰Š‹ŒŽ‘’“”•–—˜™š›œžŸ";
 export function isWinAnsi(char: string): boolean {
   const c = char.codePointAt(0)!;
-  return (c >= 0x20 && c <= 0x7e) || (c >= 0xa0 && c <= 0xff) || c === 0x0a || c === 0x0d || c === 0x09 || WIN_ANSI_EXTRA.includes(char);
+  return (
+    (c >= 0x20 && c <= 0x7e) ||
+    (c >= 0xa0 && c <= 0xff) ||
+    c === 0x0a ||
+    c === 0x0d ||
+    c === 0x09 ||
+    WIN_ANSI_EXTRA.includes(char)
+  );
 }
 
 export type TextRun = { text: string; face: Face | null };
@@ -122,7 +143,11 @@ export function splitRuns(text: string, weight: Weight): TextRun[] {
  * chosen with font()) cannot set the text, and back afterwards. Drawing code stays as it is.
  */
 export function withWideText(doc: Doc): Doc {
-  const original = { text: doc.text.bind(doc), heightOfString: doc.heightOfString.bind(doc), widthOfString: doc.widthOfString.bind(doc) };
+  const original = {
+    text: doc.text.bind(doc),
+    heightOfString: doc.heightOfString.bind(doc),
+    widthOfString: doc.widthOfString.bind(doc),
+  };
   const state = doc as unknown as { _font?: { name?: string } };
   const currentName = () => state._font?.name ?? "Helvetica";
   const weightOf = (name: string): Weight => (/bold/i.test(name) ? "bold" : "regular");
@@ -162,8 +187,10 @@ export function withWideText(doc: Doc): Doc {
     }
   };
 
-  doc.heightOfString = ((text: string, options?: object) => measureWith(text, () => original.heightOfString(text, options))) as Doc["heightOfString"];
-  doc.widthOfString = ((text: string, options?: object) => measureWith(text, () => original.widthOfString(text, options))) as Doc["widthOfString"];
+  doc.heightOfString = ((text: string, options?: object) =>
+    measureWith(text, () => original.heightOfString(text, options))) as Doc["heightOfString"];
+  doc.widthOfString = ((text: string, options?: object) =>
+    measureWith(text, () => original.widthOfString(text, options))) as Doc["widthOfString"];
   const withFace = <T>(face: Face | null, builtIn: string, work: () => T): T => {
     if (face) selectFace(face);
     else doc.font(builtIn);

@@ -24,14 +24,24 @@ export function ensureRoom(doc: Doc, height: number): void {
 
 /** A full-width line across the text column at `y`. */
 export function ruleAcross(doc: Doc, y: number, colour: string, lineWidth: number): void {
-  doc.save().moveTo(PAGE_MARGIN_PT, y).lineTo(PAGE_MARGIN_PT + CONTENT_W, y).lineWidth(lineWidth).stroke(colour).restore();
+  doc
+    .save()
+    .moveTo(PAGE_MARGIN_PT, y)
+    .lineTo(PAGE_MARGIN_PT + CONTENT_W, y)
+    .lineWidth(lineWidth)
+    .stroke(colour)
+    .restore();
 }
 
 /** A section heading in bold with an accent rule under it, kept off the bottom of a page. */
 export function heading(doc: Doc, text: string, style: HeadingStyle): void {
   ensureRoom(doc, style.room);
   doc.moveDown(style.gapLines);
-  doc.font("Helvetica-Bold").fontSize(style.size).fillColor(style.ink).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(style.size)
+    .fillColor(style.ink)
+    .text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
   const y = doc.y + 2;
   ruleAcross(doc, y, style.accent, 0.8);
   doc.y = y + 5;

@@ -28,7 +28,8 @@ async function withBusyRetry<T>(work: () => Promise<T>): Promise<T> {
     try {
       return await work();
     } catch (error) {
-      const text = String((error as { code?: string; message?: string })?.code ?? "") + String((error as Error)?.message ?? "");
+      const text =
+        String((error as { code?: string; message?: string })?.code ?? "") + String((error as Error)?.message ?? "");
       if (attempt >= 8 || !/SQLITE_BUSY|database is locked/i.test(text)) throw error;
       await new Promise((r) => setTimeout(r, 5 * 2 ** attempt));
     }
@@ -38,7 +39,11 @@ async function withBusyRetry<T>(work: () => Promise<T>): Promise<T> {
 /** Points spent on a key in its current window (0 when its window has ended). */
 export async function countSpent(limiter: Limiter, key: string): Promise<{ spent: number; windowEndsAt: number }> {
   const now = Date.now();
-  const [row] = await db.select().from(rateLimits).where(eq(rateLimits.key, rowKey(limiter, key))).limit(1);
+  const [row] = await db
+    .select()
+    .from(rateLimits)
+    .where(eq(rateLimits.key, rowKey(limiter, key)))
+    .limit(1);
   if (!row || row.windowEndsAt <= now) return { spent: 0, windowEndsAt: now };
   return { spent: row.points, windowEndsAt: row.windowEndsAt };
 }
@@ -46,7 +51,9 @@ export async function countSpent(limiter: Limiter, key: string): Promise<{ spent
 /** Checks a key without spending a point. */
 export async function peekLimit(limiter: Limiter, key: string): Promise<LimitVerdict> {
   const { spent, windowEndsAt } = await countSpent(limiter, key);
-  return spent >= limiter.points ? { ok: false, retryAfterSeconds: retryAfter(windowEndsAt, Date.now()) } : { ok: true };
+  return spent >= limiter.points
+    ? { ok: false, retryAfterSeconds: retryAfter(windowEndsAt, Date.now()) }
+    : { ok: true };
 }
 
 let spendsSinceSweep = 0;
@@ -73,7 +80,9 @@ export async function spendLimit(limiter: Limiter, key: string): Promise<LimitVe
     spendsSinceSweep = 0;
     await withBusyRetry(() => db.delete(rateLimits).where(lt(rateLimits.windowEndsAt, now))).catch(() => undefined);
   }
-  return row!.points > limiter.points ? { ok: false, retryAfterSeconds: retryAfter(row!.windowEndsAt, now) } : { ok: true };
+  return row!.points > limiter.points
+    ? { ok: false, retryAfterSeconds: retryAfter(row!.windowEndsAt, now) }
+    : { ok: true };
 }
 
 /**

@@ -79,7 +79,10 @@ function setCommonHeaders(headers: Headers): void {
  */
 export function applyBaselineHeaders(headers: Headers): void {
   if (!headers.has("Content-Security-Policy")) {
-    headers.set("Content-Security-Policy", "default-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'");
+    headers.set(
+      "Content-Security-Policy",
+      "default-src 'none'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'",
+    );
   }
   setCommonHeaders(headers);
   if (!headers.has("Cache-Control")) headers.set("Cache-Control", "no-store");
@@ -87,7 +90,15 @@ export function applyBaselineHeaders(headers: Headers): void {
 
 // Answers that carry customer details (names, addresses, photos, prices, tokens): never stored by
 // the browser or any cache in between, whatever the route set.
-const PRIVATE_PATHS = [/^\/app(?:[/.]|$)/, /^\/my(?:[/.]|$)/, /^\/welcome\//, /^\/photos\//, /^\/api\/leads(?:[/.]|$)/, /^\/c\/[^/]+\/(?:sent|consult)\//, /^\/login(?:[/.]|$)/];
+const PRIVATE_PATHS = [
+  /^\/app(?:[/.]|$)/,
+  /^\/my(?:[/.]|$)/,
+  /^\/welcome\//,
+  /^\/photos\//,
+  /^\/api\/leads(?:[/.]|$)/,
+  /^\/c\/[^/]+\/(?:sent|consult)\//,
+  /^\/login(?:[/.]|$)/,
+];
 
 /** `Cache-Control: private, no-store` on private paths and signed-in requests, and wherever a route set none. */
 export function applyCachePolicy(request: Request, headers: Headers): void {

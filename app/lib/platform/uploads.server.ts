@@ -95,24 +95,41 @@ export async function readLeadForm(request: Request): Promise<LeadFormReading> {
     // An empty file input still sends a part with no name and no bytes.
     if (file.fieldName !== "photos" || (file.size === 0 && file.name === "")) return null;
     const tempPath = path.join(uploadsRoot(), `incoming-${randomUUID()}`);
-    await writeFile(tempPath, Readable.fromWeb(file.stream() as import("node:stream/web").ReadableStream), { flag: "wx" });
+    await writeFile(tempPath, Readable.fromWeb(file.stream() as import("node:stream/web").ReadableStream), {
+      flag: "wx",
+    });
     photos.push({ tempPath, originalName: cleanOriginalName(file.name), size: file.size });
     return null;
   };
   try {
     const form = await withUploadSlot(() =>
-      parseFormData(request, { maxFiles: MAX_PHOTOS, maxFileSize: MAX_PHOTO_BYTES, maxTotalSize: MAX_FORM_BYTES, maxParts: 60 }, keepPhoto),
+      parseFormData(
+        request,
+        { maxFiles: MAX_PHOTOS, maxFileSize: MAX_PHOTO_BYTES, maxTotalSize: MAX_FORM_BYTES, maxParts: 60 },
+        keepPhoto,
+      ),
     );
-    const fields = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+    const fields = Object.fromEntries(
+      [...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
+    );
     return { ok: true, fields, photos };
   } catch (error) {
     await discardReceivedPhotos(photos);
-    if (error instanceof MaxFilesExceededError) return { ok: false, status: 413, errors: { photos: `Attach at most ${MAX_PHOTOS} photos.` } };
+    if (error instanceof MaxFilesExceededError)
+      return { ok: false, status: 413, errors: { photos: `Attach at most ${MAX_PHOTOS} photos.` } };
     if (error instanceof MaxFileSizeExceededError) {
-      return { ok: false, status: 413, errors: { photos: "Each photo must be 10 MB or smaller. Send a smaller photo." } };
+      return {
+        ok: false,
+        status: 413,
+        errors: { photos: "Each photo must be 10 MB or smaller. Send a smaller photo." },
+      };
     }
     if (error instanceof MaxTotalSizeExceededError) {
-      return { ok: false, status: 413, errors: { photos: `The request is too large: attach at most ${MAX_PHOTOS} photos of 10 MB each.` } };
+      return {
+        ok: false,
+        status: 413,
+        errors: { photos: `The request is too large: attach at most ${MAX_PHOTOS} photos of 10 MB each.` },
+      };
     }
     if (error instanceof FormDataParseError || (error as Error)?.name?.endsWith("ExceededError")) {
       return { ok: false, status: 400, errors: { form: "We could not read that form. Please try again." } };
@@ -138,13 +155,16 @@ async function containsMarkup(filePath: string): Promise<boolean> {
 }
 
 /** The quick checks on received photos (before any decoding): not empty, an allowed type by its bytes, no markup. */
-export async function checkReceivedPhotos(photos: ReceivedPhoto[]): Promise<{ ok: true; types: string[] } | { ok: false; message: string }> {
+export async function checkReceivedPhotos(
+  photos: ReceivedPhoto[],
+): Promise<{ ok: true; types: string[] } | { ok: false; message: string }> {
   const types: string[] = [];
   for (const photo of photos) {
     const label = photo.originalName;
     if (photo.size === 0) return { ok: false, message: `"${label}" is empty.` };
     const detected = await fileTypeFromFile(photo.tempPath);
-    if (!detected || !ALLOWED.has(detected.mime)) return { ok: false, message: `"${label}" is not a JPEG, PNG or WebP photo.` };
+    if (!detected || !ALLOWED.has(detected.mime))
+      return { ok: false, message: `"${label}" is not a JPEG, PNG or WebP photo.` };
     if (await containsMarkup(photo.tempPath)) {
       return { ok: false, message: `"${label}" contains web page code as well as a picture. Send a plain photo.` };
     }
@@ -159,7 +179,9 @@ export async function checkReceivedPhotos(photos: ReceivedPhoto[]): Promise<{ ok
  * a file that does not decode is refused. Temporary files are removed either way; on refusal
  * nothing is kept.
  */
-export async function storeReceivedPhotos(photos: ReceivedPhoto[]): Promise<{ ok: true; photos: StoredPhoto[] } | { ok: false; message: string }> {
+export async function storeReceivedPhotos(
+  photos: ReceivedPhoto[],
+): Promise<{ ok: true; photos: StoredPhoto[] } | { ok: false; message: string }> {
   const stored: StoredPhoto[] = [];
   try {
     const check = await checkReceivedPhotos(photos);
@@ -173,7 +195,12 @@ export async function storeReceivedPhotos(photos: ReceivedPhoto[]): Promise<{ ok
         // Turn the pixels upright by the EXIF orientation before the EXIF is dropped.
         .rotate()
         .resize({ width: LONG_EDGE_PX, height: LONG_EDGE_PX, fit: "inside", withoutEnlargement: true });
-      image = mimeType === "image/jpeg" ? image.jpeg({ quality: 85 }) : mimeType === "image/png" ? image.png() : image.webp({ quality: 85 });
+      image =
+        mimeType === "image/jpeg"
+          ? image.jpeg({ quality: 85 })
+          : mimeType === "image/png"
+            ? image.png()
+            : image.webp({ quality: 85 });
       try {
         const info = await image.toFile(target);
         stored.push({ storedName, mimeType, sizeBytes: info.size, originalName: photo.originalName });
@@ -200,7 +227,9 @@ export async function storePhotoBytes(bytes: Uint8Array, originalName: string): 
   await mkdir(uploadsRoot(), { recursive: true });
   const tempPath = path.join(uploadsRoot(), `incoming-${randomUUID()}`);
   await writeFile(tempPath, bytes, { flag: "wx" });
-  const result = await storeReceivedPhotos([{ tempPath, originalName: cleanOriginalName(originalName), size: bytes.byteLength }]);
+  const result = await storeReceivedPhotos([
+    { tempPath, originalName: cleanOriginalName(originalName), size: bytes.byteLength },
+  ]);
   if (!result.ok) throw new Error(result.message);
   return result.photos[0]!;
 }

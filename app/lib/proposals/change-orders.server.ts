@@ -8,7 +8,13 @@ import { db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { currentVersion, type DesignVersion } from "~/lib/leads/lead-workspace.server";
 import { formatMoney } from "~/lib/format/money";
-import { diffScope, parseProposalDocument, PROPOSAL_CAUTIONS, writeScope, type ProposalDocument } from "~/lib/proposals/proposal-document";
+import {
+  diffScope,
+  parseProposalDocument,
+  PROPOSAL_CAUTIONS,
+  writeScope,
+  type ProposalDocument,
+} from "~/lib/proposals/proposal-document";
 import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
 import { expiryInstant, formatDay } from "~/lib/proposals/proposals.server";
 import type { SessionUser } from "~/lib/auth/session.server";
@@ -29,7 +35,14 @@ export async function findSignedProposal(lead: Pick<Lead, "id" | "companyId">): 
   const [row] = await db
     .select()
     .from(proposals)
-    .where(and(eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId), eq(proposals.kind, "proposal"), eq(proposals.status, "signed")))
+    .where(
+      and(
+        eq(proposals.leadId, lead.id),
+        eq(proposals.companyId, lead.companyId),
+        eq(proposals.kind, "proposal"),
+        eq(proposals.status, "signed"),
+      ),
+    )
     .orderBy(desc(proposals.signedAt))
     .limit(1);
   return row ?? null;
@@ -47,7 +60,10 @@ export function listSignedChangeOrders(proposal: Pick<Proposal, "id">) {
 /** The job's totals from the signed proposal and its signed change orders, cents. */
 export async function jobTotalsFor(signed: Proposal): Promise<JobTotals> {
   const changes = await listSignedChangeOrders(signed);
-  return jobTotals({ totalCents: signed.totalCents ?? 0, depositCents: signed.depositCents ?? 0 }, changes.map((c) => c.priceCents));
+  return jobTotals(
+    { totalCents: signed.totalCents ?? 0, depositCents: signed.depositCents ?? 0 },
+    changes.map((c) => c.priceCents),
+  );
 }
 
 /** The scope the job stands at: the signed proposal's, or the latest signed change order's. */
@@ -72,37 +88,79 @@ export type ChangeOrderDraft = {
 };
 
 /** What a change order would say for the latest revision; null when the job has no signed proposal. */
-export async function draftChangeOrder(lead: Lead, company: Company, now = new Date()): Promise<ChangeOrderDraft | null> {
+export async function draftChangeOrder(
+  lead: Lead,
+  company: Company,
+  now = new Date(),
+): Promise<ChangeOrderDraft | null> {
   const signed = await findSignedProposal(lead);
   if (!signed) return null;
-  const [version, visit, catalog, totals, terms, current] = await Promise.all([currentVersion(lead), findSiteVisit(lead), listCatalog(company.id), jobTotalsFor(signed), getProposalTerms(company.id), signedScope(signed)]);
+  const [version, visit, catalog, totals, terms, current] = await Promise.all([
+    currentVersion(lead),
+    findSiteVisit(lead),
+    listCatalog(company.id),
+    jobTotalsFor(signed),
+    getProposalTerms(company.id),
+    signedScope(signed),
+  ]);
   const name = (id: number | null | undefined) => (id ? (catalog.find((i) => i.id === id)?.name ?? null) : null);
   const choices = version.design.choices;
   const newScope = writeScope(
     version.plan,
-    { stone: name(choices.stoneId) ?? lead.stoneName, cap: name(choices.capId), ring: name(choices.ringId), paver: name(choices.paverId), border: name(choices.borderId) },
+    {
+      stone: name(choices.stoneId) ?? lead.stoneName,
+      cap: name(choices.capId),
+      ring: name(choices.ringId),
+      paver: name(choices.paverId),
+      border: name(choices.borderId),
+    },
     visit ? SPOIL_LABEL[visit.spoil] : null,
   );
   const { added, removed } = diffScope(current.scope, newScope);
   const before = current.plan.price?.breakdown.totalCents ?? 0;
   const after = version.plan.price?.breakdown.totalCents ?? before;
-  const validUntil = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date(now.getTime() + Math.min(terms.validDays, 14) * 86_400_000));
-  return { signed, totals, version, added, removed, newScope, suggestedDeltaCents: Math.round(changeOrderDeltaCents(before, after) / 1000) * 1000, validUntil };
+  const validUntil = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(
+    new Date(now.getTime() + Math.min(terms.validDays, 14) * 86_400_000),
+  );
+  return {
+    signed,
+    totals,
+    version,
+    added,
+    removed,
+    newScope,
+    suggestedDeltaCents: Math.round(changeOrderDeltaCents(before, after) / 1000) * 1000,
+    validUntil,
+  };
 }
 
 /**
  * Sends a change order for the latest revision with the difference the office sets (cents, negative
  * for a credit). A change order still out for the job is withdrawn by the new one.
  */
-export async function sendChangeOrder(args: { user: SessionUser; lead: Lead; company: Company; deltaCents: number; validUntil: string; origin: string; now?: Date }): Promise<Proposal | string> {
+export async function sendChangeOrder(args: {
+  user: SessionUser;
+  lead: Lead;
+  company: Company;
+  deltaCents: number;
+  validUntil: string;
+  origin: string;
+  now?: Date;
+}): Promise<Proposal | string> {
   const { user, lead, company, origin } = args;
   const now = args.now ?? new Date();
   const draft = await draftChangeOrder(lead, company, now);
   if (!draft) return "This job has no signed proposal to change.";
-  if (draft.added.length === 0 && draft.removed.length === 0 && args.deltaCents === 0) return "Nothing changes: revise the design or set a price difference first.";
+  if (draft.added.length === 0 && draft.removed.length === 0 && args.deltaCents === 0)
+    return "Nothing changes: revise the design or set a price difference first.";
   const at = now.toISOString();
   const parent = parseProposalDocument(draft.signed.documentJson);
-  const count = (await db.select({ id: proposals.id }).from(proposals).where(and(eq(proposals.parentId, draft.signed.id), eq(proposals.kind, "change-order")))).length;
+  const count = (
+    await db
+      .select({ id: proposals.id })
+      .from(proposals)
+      .where(and(eq(proposals.parentId, draft.signed.id), eq(proposals.kind, "change-order")))
+  ).length;
   const { token } = createToken();
   const document: ProposalDocument = {
     ...parent,
@@ -117,7 +175,12 @@ export async function sendChangeOrder(args: { user: SessionUser; lead: Lead; com
     allowances: [],
     fixedPriceCents: args.deltaCents,
     cautions: PROPOSAL_CAUTIONS,
-    change: { previousContractCents: draft.totals.contractCents, deltaCents: args.deltaCents, added: draft.added, removed: draft.removed },
+    change: {
+      previousContractCents: draft.totals.contractCents,
+      deltaCents: args.deltaCents,
+      added: draft.added,
+      removed: draft.removed,
+    },
   };
   const link = `${origin}/p/${token}`;
   const mail = await prepareOutboxRow({
@@ -125,9 +188,21 @@ export async function sendChangeOrder(args: { user: SessionUser; lead: Lead; com
     companyId: company.id,
     to: lead.email,
     subject: `A change order from ${company.name} to sign`,
-    template: ProposalSentEmail({ companyName: company.name, companyPhone: company.phone, customerName: lead.customerName, title: document.title, totalText: formatMoney(args.deltaCents), validUntil: document.validUntil, link, isChangeOrder: true }),
+    template: ProposalSentEmail({
+      companyName: company.name,
+      companyPhone: company.phone,
+      customerName: lead.customerName,
+      title: document.title,
+      totalText: formatMoney(args.deltaCents),
+      validUntil: document.validUntil,
+      link,
+      isChangeOrder: true,
+    }),
   });
-  const open = await db.select({ id: proposals.id }).from(proposals).where(and(eq(proposals.parentId, draft.signed.id), eq(proposals.status, "sent")));
+  const open = await db
+    .select({ id: proposals.id })
+    .from(proposals)
+    .where(and(eq(proposals.parentId, draft.signed.id), eq(proposals.status, "sent")));
   const [inserted] = await db.batch([
     db
       .insert(proposals)
@@ -154,7 +229,14 @@ export async function sendChangeOrder(args: { user: SessionUser; lead: Lead; com
       .set({ status: "withdrawn", withdrawnAt: at, withdrawReason: "Replaced by a newer change order.", updatedAt: at })
       .where(and(inArray(proposals.id, open.length ? open.map((o) => o.id) : [0]), eq(proposals.status, "sent"))),
     db.update(leads).set({ updatedAt: at }).where(eq(leads.id, lead.id)),
-    db.insert(leadEvents).values({ companyId: company.id, leadId: lead.id, actorUserId: user.id, kind: "change-order-sent", detail: `${document.number} sent: ${args.deltaCents >= 0 ? "adds" : "credits"} ${formatMoney(Math.abs(args.deltaCents))}, valid until ${document.validUntil}.`, createdAt: at }),
+    db.insert(leadEvents).values({
+      companyId: company.id,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "change-order-sent",
+      detail: `${document.number} sent: ${args.deltaCents >= 0 ? "adds" : "credits"} ${formatMoney(Math.abs(args.deltaCents))}, valid until ${document.validUntil}.`,
+      createdAt: at,
+    }),
     db.insert(emailOutbox).values(mail),
   ]);
   return inserted[0]!;

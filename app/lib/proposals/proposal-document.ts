@@ -17,7 +17,13 @@ export const proposalDocumentSchema = z.object({
   kind: z.enum(["proposal", "change-order"]),
   title: z.string(),
   number: z.string(),
-  letterhead: z.object({ name: z.string(), address: z.string(), phone: z.string(), email: z.string(), licence: z.string() }),
+  letterhead: z.object({
+    name: z.string(),
+    address: z.string(),
+    phone: z.string(),
+    email: z.string(),
+    licence: z.string(),
+  }),
   customer: z.object({ name: z.string(), street: z.string(), town: z.string(), email: z.string() }),
   preparedOn: z.string(),
   validUntil: z.string(),
@@ -54,7 +60,9 @@ export function parseProposalDocument(json: string): ProposalDocument {
 
 /** The deposit rule as a homeowner reads it. */
 export function describeDeposit(rule: DepositRule): string {
-  return rule.kind === "percent" ? `${(rule.basisPoints / 100).toLocaleString("en-US", { maximumFractionDigits: 2 })} % of the total` : "a fixed amount";
+  return rule.kind === "percent"
+    ? `${(rule.basisPoints / 100).toLocaleString("en-US", { maximumFractionDigits: 2 })} % of the total`
+    : "a fixed amount";
 }
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
@@ -63,7 +71,11 @@ const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? o
  * The work written out from the plan, one sentence a step, in the order the crew builds it:
  * base, courses, caps, liner, patio, clean-up. Lengths in inches as fractions.
  */
-export function writeScope(plan: StoredPlan, names: { stone: string; cap: string | null; ring: string | null; paver: string | null; border: string | null }, spoil: string | null): string[] {
+export function writeScope(
+  plan: StoredPlan,
+  names: { stone: string; cap: string | null; ring: string | null; paver: string | null; border: string | null },
+  spoil: string | null,
+): string[] {
   const f = formatInches;
   const aggregate = plan.materials.find((m) => m.key === "aggregate");
   const lines = [
@@ -72,10 +84,16 @@ export function writeScope(plan: StoredPlan, names: { stone: string; cap: string
   ];
   if (plan.ring.closure) lines.push("Cut a closure unit in each course so the ring closes at the size drawn.");
   if (plan.caps) {
-    lines.push(`Cut and set ${plan.caps.count} ${names.cap ?? "cap"} caps, glued, overhanging ${f(plan.caps.innerOverhangIn)} toward the fire.`);
+    lines.push(
+      `Cut and set ${plan.caps.count} ${names.cap ?? "cap"} caps, glued, overhanging ${f(plan.caps.innerOverhangIn)} toward the fire.`,
+    );
   }
-  if (plan.liner?.kind === "steel-ring") lines.push(`Set the ${names.ring ?? "steel ring"} insert (${f(plan.liner.outsideDiameterIn)}) with gravel between it and the wall.`);
-  if (plan.liner?.kind === "firebrick") lines.push(`Line the bowl with ${plan.liner.totalBricks} firebricks on edge, ${plural(plan.liner.rows, "row")}.`);
+  if (plan.liner?.kind === "steel-ring")
+    lines.push(
+      `Set the ${names.ring ?? "steel ring"} insert (${f(plan.liner.outsideDiameterIn)}) with gravel between it and the wall.`,
+    );
+  if (plan.liner?.kind === "firebrick")
+    lines.push(`Line the bowl with ${plan.liner.totalBricks} firebricks on edge, ${plural(plan.liner.rows, "row")}.`);
   if (plan.patio) {
     lines.push(
       `Lay a round patio ${f(plan.patio.outsideRadiusIn * 2)} across of ${names.paver ?? "pavers"} on a compacted base and bedding sand, with a ${names.border ?? "border"} edge, joints swept with sand.`,

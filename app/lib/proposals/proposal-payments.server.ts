@@ -1,6 +1,16 @@
 import { and, asc, eq, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
 import type Stripe from "stripe";
-import { companies, emailOutbox, leadEvents, leads, paymentEvents, proposals, type Company, type Lead, type Proposal } from "~/db/schema";
+import {
+  companies,
+  emailOutbox,
+  leadEvents,
+  leads,
+  paymentEvents,
+  proposals,
+  type Company,
+  type Lead,
+  type Proposal,
+} from "~/db/schema";
 import { DepositPaidEmail } from "~/emails/proposal-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
@@ -34,17 +44,27 @@ export function isDepositEvent(event: Stripe.Event): boolean {
  * Opens (or reopens) the hosted checkout for an accepted proposal's deposit; returns its URL. An
  * open session is reused; a new one is made only when the last one expired, under a new attempt key.
  */
-export async function startDepositCheckout(args: { proposal: Proposal; lead: Lead; company: Company; origin: string; client?: Stripe; now?: Date }): Promise<string> {
+export async function startDepositCheckout(args: {
+  proposal: Proposal;
+  lead: Lead;
+  company: Company;
+  origin: string;
+  client?: Stripe;
+  now?: Date;
+}): Promise<string> {
   const client = args.client ?? defaultStripe;
   const { proposal, lead, company, origin } = args;
   const now = args.now ?? new Date();
-  if (proposal.status !== "accepted" || proposal.depositCents === null) throw new DepositCheckoutError("This proposal has no deposit to pay.");
-  if (now.toISOString() >= proposal.expiresAt) throw new DepositCheckoutError("This proposal has expired: ask the contractor for a new one.");
+  if (proposal.status !== "accepted" || proposal.depositCents === null)
+    throw new DepositCheckoutError("This proposal has no deposit to pay.");
+  if (now.toISOString() >= proposal.expiresAt)
+    throw new DepositCheckoutError("This proposal has expired: ask the contractor for a new one.");
   let attempt = proposal.checkoutAttempt;
   if (proposal.checkoutSessionId) {
     const existing = await client.checkout.sessions.retrieve(proposal.checkoutSessionId);
     if (existing.status === "open" && existing.url) return existing.url;
-    if (existing.status === "complete") throw new DepositCheckoutError("The deposit is paid; it shows here in a moment.");
+    if (existing.status === "complete")
+      throw new DepositCheckoutError("The deposit is paid; it shows here in a moment.");
     attempt += 1;
   } else if (attempt === 0) {
     attempt = 1;
@@ -56,7 +76,11 @@ export async function startDepositCheckout(args: { proposal: Proposal; lead: Lea
       mode: "payment",
       line_items: [
         {
-          price_data: { currency: "usd", unit_amount: proposal.depositCents, product_data: { name: `Deposit: ${document.number}, fire pit by ${company.name}` } },
+          price_data: {
+            currency: "usd",
+            unit_amount: proposal.depositCents,
+            product_data: { name: `Deposit: ${document.number}, fire pit by ${company.name}` },
+          },
           quantity: 1,
         },
       ],
@@ -104,13 +128,20 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
     : [];
   // E-mails are rendered before the transaction, so it holds only writes.
   const paidMails =
-    context && event.type === "checkout.session.completed" && context.proposal.depositCents !== null && context.proposal.totalCents !== null
+    context &&
+    event.type === "checkout.session.completed" &&
+    context.proposal.depositCents !== null &&
+    context.proposal.totalCents !== null
       ? await depositPaidEmails(context.proposal, context.lead, context.company)
       : [];
   const at = now.toISOString();
 
   return writeTransaction(async (tx) => {
-    const recorded = await tx.insert(paymentEvents).values({ id: event.id, type: event.type, bookingId: null }).onConflictDoNothing().returning({ id: paymentEvents.id });
+    const recorded = await tx
+      .insert(paymentEvents)
+      .values({ id: event.id, type: event.type, bookingId: null })
+      .onConflictDoNothing()
+      .returning({ id: paymentEvents.id });
     if (recorded.length === 0) return "duplicate";
     if (!context) return "ignored";
     const [proposal] = await tx.select().from(proposals).where(eq(proposals.id, context.proposal.id));
@@ -120,17 +151,39 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
     if (event.type === "checkout.session.completed") {
       const session = event.data.object;
       if (session.payment_status !== "paid") return "ignored";
-      if (session.id !== proposal.checkoutSessionId || session.amount_total !== proposal.depositCents || session.currency !== "usd") {
-        console.error(`deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`);
+      if (
+        session.id !== proposal.checkoutSessionId ||
+        session.amount_total !== proposal.depositCents ||
+        session.currency !== "usd"
+      ) {
+        console.error(
+          `deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`,
+        );
         return "mismatch";
       }
-      const paymentIntentId = typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+      const paymentIntentId =
+        typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
       if (proposal.status === "accepted") {
-        await tx.update(proposals).set({ status: "signed", paymentIntentId, depositPaidAt: at, updatedAt: at }).where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
+        await tx
+          .update(proposals)
+          .set({ status: "signed", paymentIntentId, depositPaidAt: at, updatedAt: at })
+          .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
         const moved = await tx
           .update(leads)
           .set({ status: "signed", stopReason: null, pausedStage: null, updatedAt: at })
-          .where(and(eq(leads.id, proposal.leadId), inArray(leads.status, ["request", "called-back", "consult-booked", "measured", "proposal-out", "on-hold"])))
+          .where(
+            and(
+              eq(leads.id, proposal.leadId),
+              inArray(leads.status, [
+                "request",
+                "called-back",
+                "consult-booked",
+                "measured",
+                "proposal-out",
+                "on-hold",
+              ]),
+            ),
+          )
           .returning({ id: leads.id });
         await tx.insert(leadEvents).values({
           companyId: proposal.companyId,
@@ -146,9 +199,20 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
         // Paid for a proposal no longer open: the money goes back, and the timeline says why.
         await tx
           .update(proposals)
-          .set({ paymentIntentId, refundOwedAt: at, refundReason: `The deposit arrived after the proposal was ${proposal.status}.`, updatedAt: at })
+          .set({
+            paymentIntentId,
+            refundOwedAt: at,
+            refundReason: `The deposit arrived after the proposal was ${proposal.status}.`,
+            updatedAt: at,
+          })
           .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt)));
-        await tx.insert(leadEvents).values({ companyId: proposal.companyId, leadId: proposal.leadId, kind: "deposit-refund", detail: `A deposit arrived after ${document.number} was ${proposal.status}; it is being refunded.`, createdAt: at });
+        await tx.insert(leadEvents).values({
+          companyId: proposal.companyId,
+          leadId: proposal.leadId,
+          kind: "deposit-refund",
+          detail: `A deposit arrived after ${document.number} was ${proposal.status}; it is being refunded.`,
+          createdAt: at,
+        });
         return "applied";
       }
       return "ignored";
@@ -161,7 +225,11 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
       const charge = event.data.object;
       await tx
         .update(proposals)
-        .set({ refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded", refundedAt: proposal.refundedAt ?? at, updatedAt: at })
+        .set({
+          refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded",
+          refundedAt: proposal.refundedAt ?? at,
+          updatedAt: at,
+        })
         .where(eq(proposals.id, proposal.id));
       return "applied";
     }
@@ -171,10 +239,28 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
 
 async function depositPaidEmails(proposal: Proposal, lead: Lead, company: Company) {
   const document = parseProposalDocument(proposal.documentJson);
-  const common = { companyName: company.name, customerName: lead.customerName, number: document.number, depositText: formatMoney(proposal.depositCents!), balanceText: formatMoney(proposal.totalCents! - proposal.depositCents!) };
+  const common = {
+    companyName: company.name,
+    customerName: lead.customerName,
+    number: document.number,
+    depositText: formatMoney(proposal.depositCents!),
+    balanceText: formatMoney(proposal.totalCents! - proposal.depositCents!),
+  };
   return Promise.all([
-    prepareOutboxRow({ idempotencyKey: `deposit-paid/${proposal.id}`, companyId: company.id, to: lead.email, subject: `Deposit received: your fire pit with ${company.name} is booked`, template: DepositPaidEmail({ ...common, recipientName: lead.customerName, forCompany: false }) }),
-    prepareOutboxRow({ idempotencyKey: `deposit-paid-company/${proposal.id}`, companyId: company.id, to: company.email, subject: `Signed: ${lead.customerName} paid the deposit`, template: DepositPaidEmail({ ...common, recipientName: company.name, forCompany: true }) }),
+    prepareOutboxRow({
+      idempotencyKey: `deposit-paid/${proposal.id}`,
+      companyId: company.id,
+      to: lead.email,
+      subject: `Deposit received: your fire pit with ${company.name} is booked`,
+      template: DepositPaidEmail({ ...common, recipientName: lead.customerName, forCompany: false }),
+    }),
+    prepareOutboxRow({
+      idempotencyKey: `deposit-paid-company/${proposal.id}`,
+      companyId: company.id,
+      to: company.email,
+      subject: `Signed: ${lead.customerName} paid the deposit`,
+      template: DepositPaidEmail({ ...common, recipientName: company.name, forCompany: true }),
+    }),
   ]);
 }
 
@@ -182,21 +268,49 @@ async function depositPaidEmails(proposal: Proposal, lead: Lead, company: Compan
  * The owner refunds a paid deposit, with a reason: the refund is owed at once and sent by the worker;
  * the job stops as "not going ahead" with that reason.
  */
-export async function requestDepositRefund(args: { actorUserId: number; lead: Lead; proposalId: number; reason: string; now?: Date }): Promise<string | null> {
+export async function requestDepositRefund(args: {
+  actorUserId: number;
+  lead: Lead;
+  proposalId: number;
+  reason: string;
+  now?: Date;
+}): Promise<string | null> {
   const { lead, reason } = args;
   const at = (args.now ?? new Date()).toISOString();
-  const [proposal] = await db.select().from(proposals).where(and(eq(proposals.id, args.proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId))).limit(1);
+  const [proposal] = await db
+    .select()
+    .from(proposals)
+    .where(
+      and(eq(proposals.id, args.proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId)),
+    )
+    .limit(1);
   if (!proposal || proposal.kind !== "proposal") return "That proposal is not one of this job's.";
-  if (proposal.status !== "signed" || !proposal.paymentIntentId) return "Only a deposit paid through the payment service can be refunded here.";
+  if (proposal.status !== "signed" || !proposal.paymentIntentId)
+    return "Only a deposit paid through the payment service can be refunded here.";
   if (proposal.refundOwedAt) return "That deposit is already being refunded.";
   const document = parseProposalDocument(proposal.documentJson);
   await db.batch([
-    db.update(proposals).set({ refundOwedAt: at, refundReason: reason, updatedAt: at }).where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt))),
+    db
+      .update(proposals)
+      .set({ refundOwedAt: at, refundReason: reason, updatedAt: at })
+      .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt))),
     db
       .update(leads)
-      .set({ status: "not-going-ahead", stopReason: reason, pausedStage: lead.status === "on-hold" ? lead.pausedStage : lead.status, updatedAt: at })
+      .set({
+        status: "not-going-ahead",
+        stopReason: reason,
+        pausedStage: lead.status === "on-hold" ? lead.pausedStage : lead.status,
+        updatedAt: at,
+      })
       .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId))),
-    db.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: args.actorUserId, kind: "deposit-refund", detail: `Deposit of ${formatMoney(proposal.depositCents ?? 0)} on ${document.number} refunded: ${reason}. ${STATUS_LABEL[lead.status]} → ${STATUS_LABEL["not-going-ahead"]}.`, createdAt: at }),
+    db.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: args.actorUserId,
+      kind: "deposit-refund",
+      detail: `Deposit of ${formatMoney(proposal.depositCents ?? 0)} on ${document.number} refunded: ${reason}. ${STATUS_LABEL[lead.status]} → ${STATUS_LABEL["not-going-ahead"]}.`,
+      createdAt: at,
+    }),
   ]);
   return null;
 }
@@ -228,9 +342,17 @@ function depositRefundQueue(database: Db): RefundQueue {
         .limit(DEPOSIT_REFUND_BATCH_SIZE);
       return database
         .update(proposals)
-        .set({ refundLeaseOwner: owner, refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS), refundAttempts: sql`${proposals.refundAttempts} + 1` })
+        .set({
+          refundLeaseOwner: owner,
+          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
+          refundAttempts: sql`${proposals.refundAttempts} + 1`,
+        })
         .where(and(inArray(proposals.id, due), isNull(proposals.refundId)))
-        .returning({ id: proposals.id, paymentIntentId: proposals.paymentIntentId, refundAttempts: proposals.refundAttempts });
+        .returning({
+          id: proposals.id,
+          paymentIntentId: proposals.paymentIntentId,
+          refundAttempts: proposals.refundAttempts,
+        });
     },
     settle: (id, owner, outcome) =>
       database
@@ -244,8 +366,16 @@ function depositRefundQueue(database: Db): RefundQueue {
  * Sends the deposit refunds owed, each once, keyed `refund:deposit:<proposalId>`, under a lease so two
  * processes never send the same one; retried with backoff, failed rows shown to the owner.
  */
-export async function processDepositRefunds(client: Pick<Stripe, "refunds"> = defaultStripe, options: { now?: Date; db?: Db; owner?: string } = {}): Promise<number> {
-  return sendOwedRefunds(depositRefundQueue(options.db ?? db), client, options.owner ?? WORKER_ID, options.now ?? new Date());
+export async function processDepositRefunds(
+  client: Pick<Stripe, "refunds"> = defaultStripe,
+  options: { now?: Date; db?: Db; owner?: string } = {},
+): Promise<number> {
+  return sendOwedRefunds(
+    depositRefundQueue(options.db ?? db),
+    client,
+    options.owner ?? WORKER_ID,
+    options.now ?? new Date(),
+  );
 }
 
 /** Puts a failed deposit refund back in the queue (the owner pressed "Try again"). */
@@ -253,7 +383,14 @@ export async function retryFailedDepositRefund(proposalId: number, companyId: nu
   const rows = await db
     .update(proposals)
     .set({ refundFailedAt: null, refundAttempts: 0, refundNextAt: null, refundLastError: null })
-    .where(and(eq(proposals.id, proposalId), eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId)))
+    .where(
+      and(
+        eq(proposals.id, proposalId),
+        eq(proposals.companyId, companyId),
+        isNotNull(proposals.refundFailedAt),
+        isNull(proposals.refundId),
+      ),
+    )
     .returning({ id: proposals.id });
   return rows.length > 0;
 }
@@ -265,7 +402,11 @@ export async function retryFailedDepositRefund(proposalId: number, companyId: nu
  */
 export async function expireProposals(now = new Date(), client: Stripe = defaultStripe): Promise<number> {
   const at = now.toISOString();
-  const due = await db.select().from(proposals).where(and(inArray(proposals.status, ["sent", "accepted"]), lte(proposals.expiresAt, at))).limit(50);
+  const due = await db
+    .select()
+    .from(proposals)
+    .where(and(inArray(proposals.status, ["sent", "accepted"]), lte(proposals.expiresAt, at)))
+    .limit(50);
   let count = 0;
   for (const proposal of due) {
     const document = parseProposalDocument(proposal.documentJson);
@@ -277,13 +418,22 @@ export async function expireProposals(now = new Date(), client: Stripe = default
         .where(and(eq(proposals.id, proposal.id), inArray(proposals.status, ["sent", "accepted"])))
         .returning({ id: proposals.id });
       if (moved.length === 0) return false;
-      await tx.insert(leadEvents).values({ companyId: proposal.companyId, leadId: proposal.leadId, kind: "proposal-expired", detail: `${document.number} expired unsigned${proposal.status === "accepted" ? " (signed, but the deposit never came)" : ""}.`, createdAt: at });
-      if (proposal.kind === "proposal") for (const statement of settleStageStatements({ leadId: proposal.leadId, from: ["proposal-out"], at, tx })) await statement;
+      await tx.insert(leadEvents).values({
+        companyId: proposal.companyId,
+        leadId: proposal.leadId,
+        kind: "proposal-expired",
+        detail: `${document.number} expired unsigned${proposal.status === "accepted" ? " (signed, but the deposit never came)" : ""}.`,
+        createdAt: at,
+      });
+      if (proposal.kind === "proposal")
+        for (const statement of settleStageStatements({ leadId: proposal.leadId, from: ["proposal-out"], at, tx }))
+          await statement;
       return true;
     });
     if (!changed) continue;
     count += 1;
-    if (proposal.checkoutSessionId) await client.checkout.sessions.expire(proposal.checkoutSessionId).catch(() => undefined);
+    if (proposal.checkoutSessionId)
+      await client.checkout.sessions.expire(proposal.checkoutSessionId).catch(() => undefined);
   }
   return count;
 }

@@ -30,7 +30,11 @@ export const ACCENT = "#b14c12";
 export const RULE = "#d6c9b7";
 export const HEADING = { room: 48, gapLines: 0.7, size: 12.5, ink: INK, accent: ACCENT };
 
-export function paragraph(doc: Doc, text: string, options: { size?: number; colour?: string; bold?: boolean } = {}): void {
+export function paragraph(
+  doc: Doc,
+  text: string,
+  options: { size?: number; colour?: string; bold?: boolean } = {},
+): void {
   doc.font(options.bold ? "Helvetica-Bold" : "Helvetica").fontSize(options.size ?? 10);
   ensureRoom(doc, doc.heightOfString(text, { width: CONTENT_W }) + 4);
   doc.fillColor(options.colour ?? INK).text(text, PAGE_MARGIN_PT, doc.y, { width: CONTENT_W });
@@ -59,7 +63,9 @@ function moneyRows(doc: Doc, rows: { label: string; cents: number; bold?: boolea
     ensureRoom(doc, h + 6);
     const y = doc.y;
     doc.fillColor(INK).text(row.label, PAGE_MARGIN_PT, y, { width: CONTENT_W - amountW - 8 });
-    doc.font(font).text(formatMoney(row.cents), PAGE_MARGIN_PT + CONTENT_W - amountW, y, { width: amountW, align: "right" });
+    doc
+      .font(font)
+      .text(formatMoney(row.cents), PAGE_MARGIN_PT + CONTENT_W - amountW, y, { width: amountW, align: "right" });
     doc.y = y + h + 4;
     ruleAcross(doc, doc.y - 2, RULE, 0.3);
   }
@@ -77,35 +83,57 @@ export function proposalFigures(document: ProposalDocument, chosenKeys: readonly
  * Renders the document with the homeowner's chosen add-ons; with `signature`, adds the signature
  * block (who, when, from where, and the SHA-256 of the PDF they accepted). Resolves to the bytes.
  */
-export function renderProposalPdf(document: ProposalDocument, options: { chosenKeys: readonly string[]; createdAt: string; signature?: SignatureFacts | null }): Promise<Buffer> {
+export function renderProposalPdf(
+  document: ProposalDocument,
+  options: { chosenKeys: readonly string[]; createdAt: string; signature?: SignatureFacts | null },
+): Promise<Buffer> {
   const isChange = document.kind === "change-order";
   const created = new Date(options.createdAt);
   // Names and addresses may be in any script: text the built-in font cannot set uses embedded Noto.
-  const doc = withWideText(new PDFDocument({
-    size: "LETTER",
-    margin: PAGE_MARGIN_PT,
-    info: {
-      Title: `${document.title} (${document.number})`,
-      Author: document.letterhead.name,
-      Creator: "Emberwright",
-      Subject: isChange ? "Change order" : "Fire pit proposal",
-      CreationDate: created,
-      ModDate: created,
-    },
-  }));
+  const doc = withWideText(
+    new PDFDocument({
+      size: "LETTER",
+      margin: PAGE_MARGIN_PT,
+      info: {
+        Title: `${document.title} (${document.number})`,
+        Author: document.letterhead.name,
+        Creator: "Emberwright",
+        Subject: isChange ? "Change order" : "Fire pit proposal",
+        CreationDate: created,
+        ModDate: created,
+      },
+    }),
+  );
   const done = collectPdf(doc);
 
   const head = document.letterhead;
-  doc.font("Helvetica-Bold").fontSize(16).fillColor(INK).text(head.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(16)
+    .fillColor(INK)
+    .text(head.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
   doc
     .font("Helvetica")
     .fontSize(9)
     .fillColor(SOFT)
-    .text([head.address, head.phone, head.email, head.licence ? `Licence ${head.licence}` : ""].filter(Boolean).join("  ·  "), { width: CONTENT_W });
+    .text(
+      [head.address, head.phone, head.email, head.licence ? `Licence ${head.licence}` : ""]
+        .filter(Boolean)
+        .join("  ·  "),
+      { width: CONTENT_W },
+    );
   doc.moveDown(1);
-  doc.font("Helvetica-Bold").fontSize(9).fillColor(ACCENT).text(isChange ? "CHANGE ORDER" : "PROPOSAL", { characterSpacing: 1.5 });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(9)
+    .fillColor(ACCENT)
+    .text(isChange ? "CHANGE ORDER" : "PROPOSAL", { characterSpacing: 1.5 });
   doc.font("Helvetica-Bold").fontSize(18).fillColor(INK).text(document.title, { width: CONTENT_W });
-  paragraph(doc, `${document.number} for ${document.customer.name}, ${document.customer.street}, ${document.customer.town}. Prepared ${document.preparedOn}; valid until ${document.validUntil}.`, { size: 9.5, colour: SOFT });
+  paragraph(
+    doc,
+    `${document.number} for ${document.customer.name}, ${document.customer.street}, ${document.customer.town}. Prepared ${document.preparedOn}; valid until ${document.validUntil}.`,
+    { size: 9.5, colour: SOFT },
+  );
 
   const figures = proposalFigures(document, options.chosenKeys);
 
@@ -122,10 +150,21 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
     heading(doc, "Price", HEADING);
     moneyRows(doc, [
       { label: "The job as signed so far", cents: document.change.previousContractCents },
-      { label: document.change.deltaCents >= 0 ? "This change adds" : "This change credits", cents: document.change.deltaCents },
-      { label: "The job with this change", cents: document.change.previousContractCents + document.change.deltaCents, bold: true },
+      {
+        label: document.change.deltaCents >= 0 ? "This change adds" : "This change credits",
+        cents: document.change.deltaCents,
+      },
+      {
+        label: "The job with this change",
+        cents: document.change.previousContractCents + document.change.deltaCents,
+        bold: true,
+      },
     ]);
-    paragraph(doc, "The difference is added to (or credited against) the balance due on completion; the deposit already paid stands.", { size: 9.5, colour: SOFT });
+    paragraph(
+      doc,
+      "The difference is added to (or credited against) the balance due on completion; the deposit already paid stands.",
+      { size: 9.5, colour: SOFT },
+    );
   } else {
     heading(doc, "The design", HEADING);
     for (const line of document.design) paragraph(doc, `${line.label}: ${line.value}`, { size: 10 });
@@ -143,7 +182,12 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
       { label: "Total", cents: figures.total, bold: true },
     ]);
     const notChosen = document.addOns.filter((a) => !figures.chosen.includes(a));
-    if (notChosen.length) paragraph(doc, `Add-ons not chosen: ${notChosen.map((a) => `${a.label} (${formatMoney(a.cents)})`).join("; ")}.`, { size: 9.5, colour: SOFT });
+    if (notChosen.length)
+      paragraph(
+        doc,
+        `Add-ons not chosen: ${notChosen.map((a) => `${a.label} (${formatMoney(a.cents)})`).join("; ")}.`,
+        { size: 9.5, colour: SOFT },
+      );
     heading(doc, "Payment schedule", HEADING);
     moneyRows(doc, [
       { label: `Deposit on signing (${describeDeposit(document.deposit)})`, cents: figures.deposit },
@@ -166,10 +210,22 @@ export function renderProposalPdf(document: ProposalDocument, options: { chosenK
       `${s.name} typed their full name and ticked their consent to sign electronically (US ESIGN Act, 15 U.S.C. §7001, and the Uniform Electronic Transactions Act). Address: ${s.ip}. Browser: ${s.userAgent}.`,
       { size: 9.5 },
     );
-    paragraph(doc, `SHA-256 of the PDF accepted (this document as it stood before this signature): ${s.acceptedSha256}`, { size: 8.5, colour: SOFT });
-    paragraph(doc, isChange ? "The change is part of the job from this signature." : "The job is booked once the deposit is paid.", { size: 9.5 });
+    paragraph(
+      doc,
+      `SHA-256 of the PDF accepted (this document as it stood before this signature): ${s.acceptedSha256}`,
+      { size: 8.5, colour: SOFT },
+    );
+    paragraph(
+      doc,
+      isChange ? "The change is part of the job from this signature." : "The job is booked once the deposit is paid.",
+      { size: 9.5 },
+    );
   } else {
-    paragraph(doc, `Not signed. To accept, open the link ${head.name} sent you, type your full name and consent to sign electronically.`, { size: 9.5, colour: SOFT });
+    paragraph(
+      doc,
+      `Not signed. To accept, open the link ${head.name} sent you, type your full name and consent to sign electronically.`,
+      { size: 9.5, colour: SOFT },
+    );
   }
   doc.end();
   return done;

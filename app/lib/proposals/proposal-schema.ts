@@ -24,18 +24,38 @@ export function formMoneyCents(label: string, minDollars: number, maxDollars: nu
       const [whole, fraction = ""] = cleaned.split(".");
       return Number(whole) * 100 + Number(fraction.padEnd(2, "0"));
     })
-    .pipe(z.number().min(minDollars * 100, range).max(maxDollars * 100, range));
+    .pipe(
+      z
+        .number()
+        .min(minDollars * 100, range)
+        .max(maxDollars * 100, range),
+    );
 }
 
-const textBlock = (label: string) => z.string().trim().min(1, `Write what is ${label} (one line each).`).max(3000, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most 3,000 characters.`);
+const textBlock = (label: string) =>
+  z
+    .string()
+    .trim()
+    .min(1, `Write what is ${label} (one line each).`)
+    .max(3000, `${label[0]!.toUpperCase()}${label.slice(1)} must be at most 3,000 characters.`);
 
 /** The compose form: fixed price, expiry, included and excluded, and up to four add-ons (label and price). */
-export function parseComposeForm(fields: Record<string, string>, today: string): { ok: true; value: { fixedPriceCents: number; validUntil: string; included: string; excluded: string; addOns: AddOn[] } } | { ok: false; errors: Record<string, string> } {
+export function parseComposeForm(
+  fields: Record<string, string>,
+  today: string,
+):
+  | {
+      ok: true;
+      value: { fixedPriceCents: number; validUntil: string; included: string; excluded: string; addOns: AddOn[] };
+    }
+  | { ok: false; errors: Record<string, string> } {
   const errors: Record<string, string> = {};
   const base = z
     .object({
       fixedPrice: formMoneyCents("Fixed price", 100, 500_000),
-      validUntil: z.iso.date({ error: "Valid until must be a date like 2026-12-31." }).refine((d) => d > today, { message: "Valid until must be after today." }),
+      validUntil: z.iso
+        .date({ error: "Valid until must be a date like 2026-12-31." })
+        .refine((d) => d > today, { message: "Valid until must be after today." }),
       included: textBlock("included"),
       excluded: textBlock("not included"),
     })
@@ -58,13 +78,29 @@ export function parseComposeForm(fields: Record<string, string>, today: string):
     addOns.push({ key: `a${i}`, label, cents: cents.data });
   }
   if (!base.success || Object.keys(errors).length) return { ok: false, errors };
-  return { ok: true, value: { fixedPriceCents: base.data.fixedPrice, validUntil: base.data.validUntil, included: base.data.included, excluded: base.data.excluded, addOns } };
+  return {
+    ok: true,
+    value: {
+      fixedPriceCents: base.data.fixedPrice,
+      validUntil: base.data.validUntil,
+      included: base.data.included,
+      excluded: base.data.excluded,
+      addOns,
+    },
+  };
 }
 
 /** Withdrawing a proposal: which one and why. */
 export const withdrawSchema = z.object({
-  proposalId: z.string().regex(/^\d{1,9}$/, { error: "Choose a proposal to withdraw." }).transform(Number),
-  reason: z.string().trim().min(3, "Say why it is withdrawn (3 to 200 characters).").max(200, "Say why it is withdrawn (3 to 200 characters)."),
+  proposalId: z
+    .string()
+    .regex(/^\d{1,9}$/, { error: "Choose a proposal to withdraw." })
+    .transform(Number),
+  reason: z
+    .string()
+    .trim()
+    .min(3, "Say why it is withdrawn (3 to 200 characters).")
+    .max(200, "Say why it is withdrawn (3 to 200 characters)."),
 });
 
 /** The add-on keys a homeowner chose when signing, as stored with the proposal (JSON). */

@@ -1,6 +1,15 @@
 import { createHash } from "node:crypto";
 import { and, eq, inArray } from "drizzle-orm";
-import { companies, emailOutbox, leadEvents, leads, proposals, type Company, type Lead, type Proposal } from "~/db/schema";
+import {
+  companies,
+  emailOutbox,
+  leadEvents,
+  leads,
+  proposals,
+  type Company,
+  type Lead,
+  type Proposal,
+} from "~/db/schema";
 import { ProposalSignedEmail } from "~/emails/proposal-emails";
 import { db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
@@ -36,11 +45,23 @@ export function isOpenForSignature(proposal: Pick<Proposal, "status" | "expiresA
  * event and e-mails the signed PDF to both sides. A proposal with a deposit waits for it ("accepted");
  * a change order, or a proposal with no deposit, is signed at once.
  */
-export async function acceptProposal(args: { proposal: Proposal; lead: Lead; document: ProposalDocument; input: AcceptInput }): Promise<AcceptResult> {
+export async function acceptProposal(args: {
+  proposal: Proposal;
+  lead: Lead;
+  document: ProposalDocument;
+  input: AcceptInput;
+}): Promise<AcceptResult> {
   const { proposal, lead, document, input } = args;
   const now = input.now ?? new Date();
   if (!isOpenForSignature(proposal, now)) {
-    return { ok: false, status: 409, message: proposal.status === "sent" ? "This proposal has expired: ask the contractor for a new one." : `This ${document.kind === "change-order" ? "change order" : "proposal"} can no longer be signed.` };
+    return {
+      ok: false,
+      status: 409,
+      message:
+        proposal.status === "sent"
+          ? "This proposal has expired: ask the contractor for a new one."
+          : `This ${document.kind === "change-order" ? "change order" : "proposal"} can no longer be signed.`,
+    };
   }
   let figures: ReturnType<typeof proposalFigures>;
   try {
@@ -48,23 +69,60 @@ export async function acceptProposal(args: { proposal: Proposal; lead: Lead; doc
   } catch {
     return { ok: false, status: 400, message: "Choose add-ons from the list on this page." };
   }
-  const [company] = (await db.select().from(companies).where(eq(companies.id, proposal.companyId)).limit(1)) as [Company];
+  const [company] = (await db.select().from(companies).where(eq(companies.id, proposal.companyId)).limit(1)) as [
+    Company,
+  ];
   const at = now.toISOString();
   const chosenKeys = figures.chosen.map((a) => a.key);
   const acceptedPdf = await renderProposalPdf(document, { chosenKeys, createdAt: proposal.sentAt });
   const acceptedSha256 = sha256Hex(acceptedPdf);
-  const signature: SignatureFacts = { name: input.name, signedAtLabel: formatZonedDateTime(at, company.timeZone), signedAtIso: at, ip: input.ip, userAgent: input.userAgent, acceptedSha256 };
+  const signature: SignatureFacts = {
+    name: input.name,
+    signedAtLabel: formatZonedDateTime(at, company.timeZone),
+    signedAtIso: at,
+    ip: input.ip,
+    userAgent: input.userAgent,
+    acceptedSha256,
+  };
   const signedPdf = await renderProposalPdf(document, { chosenKeys, createdAt: proposal.sentAt, signature });
 
   const isChange = document.kind === "change-order";
   const totalCents = isChange ? document.change!.previousContractCents + document.change!.deltaCents : figures.total;
   const deposit = isChange ? 0 : figures.deposit;
   const signsNow = deposit === 0;
-  const attachment = { filename: `${document.number.toLowerCase().replace(/[^a-z0-9]+/g, "-")}-signed.pdf`, content: signedPdf.toString("base64"), contentType: "application/pdf" };
-  const common = { companyName: company.name, customerName: lead.customerName, title: document.title, number: document.number, totalText: formatMoney(isChange ? document.change!.deltaCents : totalCents), depositText: signsNow ? null : formatMoney(deposit), signedAt: signature.signedAtLabel, sha256: acceptedSha256, link: "" };
+  const attachment = {
+    filename: `${document.number.toLowerCase().replace(/[^a-z0-9]+/g, "-")}-signed.pdf`,
+    content: signedPdf.toString("base64"),
+    contentType: "application/pdf",
+  };
+  const common = {
+    companyName: company.name,
+    customerName: lead.customerName,
+    title: document.title,
+    number: document.number,
+    totalText: formatMoney(isChange ? document.change!.deltaCents : totalCents),
+    depositText: signsNow ? null : formatMoney(deposit),
+    signedAt: signature.signedAtLabel,
+    sha256: acceptedSha256,
+    link: "",
+  };
   const mails = await Promise.all([
-    prepareOutboxRow({ idempotencyKey: `proposal-signed/${proposal.id}`, companyId: company.id, to: lead.email, subject: `Signed: ${document.number} with ${company.name}`, template: ProposalSignedEmail({ ...common, recipientName: lead.customerName, forCompany: false }), attachments: [attachment] }),
-    prepareOutboxRow({ idempotencyKey: `proposal-signed-company/${proposal.id}`, companyId: company.id, to: company.email, subject: `${lead.customerName} signed ${document.number}`, template: ProposalSignedEmail({ ...common, recipientName: company.name, forCompany: true }), attachments: [attachment] }),
+    prepareOutboxRow({
+      idempotencyKey: `proposal-signed/${proposal.id}`,
+      companyId: company.id,
+      to: lead.email,
+      subject: `Signed: ${document.number} with ${company.name}`,
+      template: ProposalSignedEmail({ ...common, recipientName: lead.customerName, forCompany: false }),
+      attachments: [attachment],
+    }),
+    prepareOutboxRow({
+      idempotencyKey: `proposal-signed-company/${proposal.id}`,
+      companyId: company.id,
+      to: company.email,
+      subject: `${lead.customerName} signed ${document.number}`,
+      template: ProposalSignedEmail({ ...common, recipientName: company.name, forCompany: true }),
+      attachments: [attachment],
+    }),
   ]);
 
   const [updated] = await db.batch([
@@ -101,9 +159,15 @@ export async function acceptProposal(args: { proposal: Proposal; lead: Lead; doc
     db
       .update(leads)
       .set({ status: "signed", updatedAt: at })
-      .where(and(eq(leads.id, lead.id), signsNow && !isChange ? inArray(leads.status, ["proposal-out", "on-hold"]) : eq(leads.id, -1))),
+      .where(
+        and(
+          eq(leads.id, lead.id),
+          signsNow && !isChange ? inArray(leads.status, ["proposal-out", "on-hold"]) : eq(leads.id, -1),
+        ),
+      ),
   ]);
-  if (updated.length === 0) return { ok: false, status: 409, message: "This proposal was signed or changed a moment ago: reload the page." };
+  if (updated.length === 0)
+    return { ok: false, status: 409, message: "This proposal was signed or changed a moment ago: reload the page." };
   return { ok: true, proposal: updated[0]! };
 }
 

@@ -39,7 +39,10 @@ export async function getProposalTerms(companyId: number): Promise<ProposalTerms
 }
 
 /** Saves the owner's terms (one row per company). */
-export async function saveProposalTerms(companyId: number, values: Omit<ProposalTerms, "companyId" | "updatedAt">): Promise<void> {
+export async function saveProposalTerms(
+  companyId: number,
+  values: Omit<ProposalTerms, "companyId" | "updatedAt">,
+): Promise<void> {
   const at = new Date().toISOString();
   await db
     .insert(proposalTerms)

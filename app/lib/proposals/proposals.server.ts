@@ -1,5 +1,15 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
-import { emailOutbox, leadEvents, leads, proposals, type Company, type Lead, type Proposal, type ProposalTerms, type SiteVisit } from "~/db/schema";
+import {
+  emailOutbox,
+  leadEvents,
+  leads,
+  proposals,
+  type Company,
+  type Lead,
+  type Proposal,
+  type ProposalTerms,
+  type SiteVisit,
+} from "~/db/schema";
 import { ProposalSentEmail } from "~/emails/proposal-emails";
 import { basePriceCents, type AddOn, type DepositRule } from "~/domain/proposal-money";
 import { checkSite, siteAllowances } from "~/domain/site-checks";
@@ -10,7 +20,12 @@ import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { currentVersion, type DesignVersion } from "~/lib/leads/lead-workspace.server";
 import { formatMoney } from "~/lib/format/money";
-import { PROPOSAL_CAUTIONS, parseProposalDocument, writeScope, type ProposalDocument } from "~/lib/proposals/proposal-document";
+import {
+  PROPOSAL_CAUTIONS,
+  parseProposalDocument,
+  writeScope,
+  type ProposalDocument,
+} from "~/lib/proposals/proposal-document";
 import { getProposalTerms } from "~/lib/proposals/proposal-terms.server";
 import type { SessionUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
@@ -48,7 +63,10 @@ function visitFacts(visit: SiteVisit | null, company: Company, terms: ProposalTe
     `Ground: ${SLOPE_LABEL[visit.slope].toLowerCase()}; soil: ${SOIL_LABEL[visit.soil].toLowerCase()}.`,
     `Way in: ${visit.accessWidthIn} in at the narrowest point. Utilities: ${UTILITY_LABEL[visit.utilityMarks].toLowerCase()}.`,
   ];
-  return [...facts, ...checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map((c) => c.message)];
+  return [
+    ...facts,
+    ...checkSite(visit, { setbackFt: company.setbackFt, narrowAccessIn: terms.narrowAccessIn }).map((c) => c.message),
+  ];
 }
 
 /** A day `days` ahead in the company's zone, YYYY-MM-DD. */
@@ -58,17 +76,26 @@ function dayAhead(now: Date, days: number, timeZone: string): string {
 
 // en-CA writes dates as YYYY-MM-DD.
 function formatIsoDay(instant: Date, timeZone: string): string {
-  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(instant);
+  return new Intl.DateTimeFormat("en-CA", { timeZone, year: "numeric", month: "2-digit", day: "2-digit" }).format(
+    instant,
+  );
 }
 
 /** A calendar day (YYYY-MM-DD) in words: "Dec 31, 2026". */
 export function formatDay(day: string): string {
-  return new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  return new Intl.DateTimeFormat("en-US", { dateStyle: "medium", timeZone: "UTC" }).format(
+    new Date(`${day}T12:00:00Z`),
+  );
 }
 
 /** What the compose form starts from: the current design's plan and price, the visit and the company's terms. */
 export async function draftProposal(lead: Lead, company: Company, now = new Date()): Promise<ProposalDraft> {
-  const [version, visit, terms, catalog] = await Promise.all([currentVersion(lead), findSiteVisit(lead), getProposalTerms(company.id), listCatalog(company.id)]);
+  const [version, visit, terms, catalog] = await Promise.all([
+    currentVersion(lead),
+    findSiteVisit(lead),
+    getProposalTerms(company.id),
+    listCatalog(company.id),
+  ]);
   const name = (id: number | null | undefined) => (id ? (catalog.find((i) => i.id === id)?.name ?? null) : null);
   const choices = version.design.choices;
   const allowances = visit ? siteAllowances(visit, terms) : [];
@@ -77,13 +104,22 @@ export async function draftProposal(lead: Lead, company: Company, now = new Date
   return {
     fixedPriceCents: estimate,
     addOns: [],
-    deposit: terms.depositKind === "percent" ? { kind: "percent", basisPoints: terms.depositBasisPoints } : { kind: "fixed", cents: terms.depositFixedCents },
+    deposit:
+      terms.depositKind === "percent"
+        ? { kind: "percent", basisPoints: terms.depositBasisPoints }
+        : { kind: "fixed", cents: terms.depositFixedCents },
     validUntil: dayAhead(now, terms.validDays, company.timeZone),
     included: terms.includedText,
     excluded: terms.excludedText,
     scope: writeScope(
       version.plan,
-      { stone: name(choices.stoneId) ?? lead.stoneName, cap: name(choices.capId), ring: name(choices.ringId), paver: name(choices.paverId), border: name(choices.borderId) },
+      {
+        stone: name(choices.stoneId) ?? lead.stoneName,
+        cap: name(choices.capId),
+        ring: name(choices.ringId),
+        paver: name(choices.paverId),
+        border: name(choices.borderId),
+      },
       visit ? SPOIL_LABEL[visit.spoil] : null,
     ),
     siteFacts: visitFacts(visit, company, terms),
@@ -113,21 +149,37 @@ export type SendInput = {
 
 /** The letterhead from the company and its terms. */
 function letterhead(company: Company, terms: ProposalTerms) {
-  return { name: company.name, address: terms.streetAddress || company.town, phone: company.phone, email: company.email, licence: terms.licenceNumber };
+  return {
+    name: company.name,
+    address: terms.streetAddress || company.town,
+    phone: company.phone,
+    email: company.email,
+    licence: terms.licenceNumber,
+  };
 }
 
 /**
  * Sends a proposal: freezes its document, writes it with a timeline event, the stage move and the
  * homeowner's e-mail in one batch. A proposal still out for this job is withdrawn by the new one.
  */
-export async function sendProposal(args: { user: SessionUser; lead: Lead; company: Company; input: SendInput; origin: string; now?: Date }): Promise<Proposal> {
+export async function sendProposal(args: {
+  user: SessionUser;
+  lead: Lead;
+  company: Company;
+  input: SendInput;
+  origin: string;
+  now?: Date;
+}): Promise<Proposal> {
   const { user, lead, company, input, origin } = args;
   const now = args.now ?? new Date();
   if (isSignedStage(lead.status)) throw new Error("A signed job takes change orders, not a new proposal.");
   const [draft, terms] = await Promise.all([draftProposal(lead, company, now), getProposalTerms(company.id)]);
   const at = now.toISOString();
   const { token } = createToken();
-  const [{ n }] = (await db.select({ n: sql<number>`count(*)` }).from(proposals).where(eq(proposals.leadId, lead.id))) as [{ n: number }];
+  const [{ n }] = (await db
+    .select({ n: sql<number>`count(*)` })
+    .from(proposals)
+    .where(eq(proposals.leadId, lead.id))) as [{ n: number }];
   const document: ProposalDocument = {
     version: 1,
     kind: "proposal",
@@ -155,9 +207,21 @@ export async function sendProposal(args: { user: SessionUser; lead: Lead; compan
     companyId: company.id,
     to: lead.email,
     subject: `Your fire pit proposal from ${company.name}`,
-    template: ProposalSentEmail({ companyName: company.name, companyPhone: company.phone, customerName: lead.customerName, title: document.title, totalText: formatMoney(basePriceCents(document.fixedPriceCents, document.allowances)), validUntil: document.validUntil, link, isChangeOrder: false }),
+    template: ProposalSentEmail({
+      companyName: company.name,
+      companyPhone: company.phone,
+      customerName: lead.customerName,
+      title: document.title,
+      totalText: formatMoney(basePriceCents(document.fixedPriceCents, document.allowances)),
+      validUntil: document.validUntil,
+      link,
+      isChangeOrder: false,
+    }),
   });
-  const open = await db.select({ id: proposals.id }).from(proposals).where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, [...OPEN_STATES])));
+  const open = await db
+    .select({ id: proposals.id })
+    .from(proposals)
+    .where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, [...OPEN_STATES])));
   const movesStage = lead.status !== "proposal-out" && lead.status !== "on-hold" && lead.status !== "not-going-ahead";
   const [inserted] = await db.batch([
     db
@@ -183,10 +247,19 @@ export async function sendProposal(args: { user: SessionUser; lead: Lead; compan
     db
       .update(proposals)
       .set({ status: "withdrawn", withdrawnAt: at, withdrawReason: "Replaced by a newer proposal.", updatedAt: at })
-      .where(and(inArray(proposals.id, open.length ? open.map((o) => o.id) : [0]), inArray(proposals.status, [...OPEN_STATES]))),
+      .where(
+        and(
+          inArray(proposals.id, open.length ? open.map((o) => o.id) : [0]),
+          inArray(proposals.status, [...OPEN_STATES]),
+        ),
+      ),
     db
       .update(leads)
-      .set({ ...(movesStage ? { status: "proposal-out" as const } : {}), calledBackAt: lead.calledBackAt ?? at, updatedAt: at })
+      .set({
+        ...(movesStage ? { status: "proposal-out" as const } : {}),
+        calledBackAt: lead.calledBackAt ?? at,
+        updatedAt: at,
+      })
       .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId))),
     db.insert(leadEvents).values({
       companyId: company.id,
@@ -223,12 +296,17 @@ export type LinkState = "open" | "accepted" | "signed" | "expired" | "withdrawn"
 
 /** What the link shows: open to sign, waiting for the deposit, signed, or closed (and why). */
 export function linkStateOf(proposal: Pick<Proposal, "status" | "expiresAt">, now: Date): LinkState {
-  if ((proposal.status === "sent" || proposal.status === "accepted") && now.toISOString() >= proposal.expiresAt) return "expired";
+  if ((proposal.status === "sent" || proposal.status === "accepted") && now.toISOString() >= proposal.expiresAt)
+    return "expired";
   return proposal.status === "sent" ? "open" : proposal.status;
 }
 
 /** Whether this visit counts as the homeowner opening the link: not staff of the company, not a closed link. */
-export function countsAsOpen(proposal: Pick<Proposal, "status" | "expiresAt" | "companyId">, viewer: Pick<SessionUser, "role" | "companyId"> | null, now: Date): boolean {
+export function countsAsOpen(
+  proposal: Pick<Proposal, "status" | "expiresAt" | "companyId">,
+  viewer: Pick<SessionUser, "role" | "companyId"> | null,
+  now: Date,
+): boolean {
   const isStaffPreview = viewer !== null && isOfficeRole(viewer.role) && viewer.companyId === proposal.companyId;
   const state = linkStateOf(proposal, now);
   return !isStaffPreview && state !== "withdrawn" && state !== "expired";
@@ -239,7 +317,11 @@ export async function recordOpened(proposalId: number, now = new Date()): Promis
   const at = now.toISOString();
   await db
     .update(proposals)
-    .set({ openCount: sql`${proposals.openCount} + 1`, firstOpenedAt: sql`coalesce(${proposals.firstOpenedAt}, ${at})`, lastOpenedAt: at })
+    .set({
+      openCount: sql`${proposals.openCount} + 1`,
+      firstOpenedAt: sql`coalesce(${proposals.firstOpenedAt}, ${at})`,
+      lastOpenedAt: at,
+    })
     .where(eq(proposals.id, proposalId));
 }
 
@@ -247,10 +329,20 @@ export async function recordOpened(proposalId: number, now = new Date()): Promis
  * Withdraws a proposal not yet signed (an accepted one whose deposit is unpaid included); the job's
  * stage falls back to what is still true of it. Answers an error message when it cannot.
  */
-export async function withdrawProposal(user: SessionUser, lead: Lead, proposalId: number, reason: string): Promise<string | null> {
-  const [row] = await db.select().from(proposals).where(and(eq(proposals.id, proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId))).limit(1);
+export async function withdrawProposal(
+  user: SessionUser,
+  lead: Lead,
+  proposalId: number,
+  reason: string,
+): Promise<string | null> {
+  const [row] = await db
+    .select()
+    .from(proposals)
+    .where(and(eq(proposals.id, proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId)))
+    .limit(1);
   if (!row) return "That proposal is not one of this job's.";
-  if (row.status !== "sent" && row.status !== "accepted") return `That proposal is already ${row.status}: only one still out can be withdrawn.`;
+  if (row.status !== "sent" && row.status !== "accepted")
+    return `That proposal is already ${row.status}: only one still out can be withdrawn.`;
   const at = new Date().toISOString();
   const document = parseProposalDocument(row.documentJson);
   const changed = await writeTransaction(async (tx) => {
@@ -260,8 +352,17 @@ export async function withdrawProposal(user: SessionUser, lead: Lead, proposalId
       .where(and(eq(proposals.id, row.id), inArray(proposals.status, [...OPEN_STATES])))
       .returning({ id: proposals.id });
     if (moved.length === 0) return false;
-    await tx.insert(leadEvents).values({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id, kind: "proposal-withdrawn", detail: `${document.number} withdrawn: ${reason}`, createdAt: at });
-    if (row.kind === "proposal") for (const statement of settleStageStatements({ leadId: lead.id, from: ["proposal-out"], at, tx })) await statement;
+    await tx.insert(leadEvents).values({
+      companyId: lead.companyId,
+      leadId: lead.id,
+      actorUserId: user.id,
+      kind: "proposal-withdrawn",
+      detail: `${document.number} withdrawn: ${reason}`,
+      createdAt: at,
+    });
+    if (row.kind === "proposal")
+      for (const statement of settleStageStatements({ leadId: lead.id, from: ["proposal-out"], at, tx }))
+        await statement;
     return true;
   });
   return changed ? null : "That proposal changed meanwhile: reload the page.";

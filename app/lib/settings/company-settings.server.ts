@@ -16,9 +16,16 @@ export async function saveCompanySettings(companyId: number, input: CompanySetti
 }
 
 /** Saves when consults may be booked: the weekly hours, the slot length and how far ahead. */
-export async function saveConsultHours(companyId: number, input: { hours: WeeklyHours; slotMinutes: number; horizonDays: number }): Promise<void> {
+export async function saveConsultHours(
+  companyId: number,
+  input: { hours: WeeklyHours; slotMinutes: number; horizonDays: number },
+): Promise<void> {
   await db
     .update(companies)
-    .set({ consultHoursJson: JSON.stringify(input.hours), consultSlotMinutes: input.slotMinutes, consultHorizonDays: input.horizonDays })
+    .set({
+      consultHoursJson: JSON.stringify(input.hours),
+      consultSlotMinutes: input.slotMinutes,
+      consultHorizonDays: input.horizonDays,
+    })
     .where(eq(companies.id, companyId));
 }

@@ -70,12 +70,22 @@ const formatters = new Map<string, Intl.DateTimeFormat>();
 export function describeLocalTime(id: string, now: Date): string {
   let formatter = formatters.get(id);
   if (!formatter) {
-    formatter = new Intl.DateTimeFormat("en-US", { timeZone: id, hour: "numeric", minute: "2-digit", timeZoneName: "shortOffset" });
+    formatter = new Intl.DateTimeFormat("en-US", {
+      timeZone: id,
+      hour: "numeric",
+      minute: "2-digit",
+      timeZoneName: "shortOffset",
+    });
     formatters.set(id, formatter);
   }
   const parts = formatter.formatToParts(now);
   // ICU writes a narrow no-break space before AM/PM; a plain space reads (and searches) the same everywhere.
-  const time = parts.filter((p) => p.type !== "timeZoneName").map((p) => p.value).join("").replace(/\s/g, " ").trim();
+  const time = parts
+    .filter((p) => p.type !== "timeZoneName")
+    .map((p) => p.value)
+    .join("")
+    .replace(/\s/g, " ")
+    .trim();
   const offset = parts.find((p) => p.type === "timeZoneName")?.value ?? "";
   return offset ? `${time}, ${offset}` : time;
 }
@@ -83,7 +93,12 @@ export function describeLocalTime(id: string, now: Date): string {
 /** "America/Argentina/Buenos_Aires" → "Buenos Aires, Argentina"; "Europe/Kyiv" → "Kyiv". */
 export function describePlace(id: string): string {
   const [, ...rest] = id.split("/");
-  return rest.reverse().map((part) => part.replaceAll("_", " ")).join(", ") || id;
+  return (
+    rest
+      .reverse()
+      .map((part) => part.replaceAll("_", " "))
+      .join(", ") || id
+  );
 }
 
 /** The current zones grouped by region, each with its place and its local time at `now`. */
@@ -93,7 +108,12 @@ export function groupTimeZones(now: Date): TimeZoneGroup[] {
     const regionKey = id.includes("/") ? id.split("/")[0]! : "Other";
     const region = REGION_NAMES[regionKey] ?? regionKey;
     const place = describePlace(id);
-    const option = { id, place, label: `${place} (${describeLocalTime(id, now)})`, search: `${place} ${region} ${id}`.toLowerCase() };
+    const option = {
+      id,
+      place,
+      label: `${place} (${describeLocalTime(id, now)})`,
+      search: `${place} ${region} ${id}`.toLowerCase(),
+    };
     groups.set(region, [...(groups.get(region) ?? []), option]);
   }
   const rank = (region: string) => {

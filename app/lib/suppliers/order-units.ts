@@ -31,7 +31,13 @@ export function describeOrderQuantity(quantity: number, unit: OrderUnit): string
   return `${n} ${quantity === 1 || unit === "each" ? words.label : words.plural}`;
 }
 
-const PLAN_UNIT_PLURAL: Record<string, string> = { each: "each", piece: "pieces", bag: "bags", pail: "pails", cartridge: "cartridges" };
+const PLAN_UNIT_PLURAL: Record<string, string> = {
+  each: "each",
+  piece: "pieces",
+  bag: "bags",
+  pail: "pails",
+  cartridge: "cartridges",
+};
 
 /** A quantity of the material order in its own unit: "68 each", "4 pails", "4.6 t". */
 export function describePlanQuantity(quantity: number, unit: string): string {
@@ -42,7 +48,13 @@ export function describePlanQuantity(quantity: number, unit: string): string {
 
 /** A calendar day (YYYY-MM-DD) as people read it: "Wed, Dec 9, 2026" (the same on server and browser). */
 export function formatDeliveryDay(day: string): string {
-  return new Intl.DateTimeFormat("en-US", { weekday: "short", month: "short", day: "numeric", year: "numeric", timeZone: "UTC" }).format(new Date(`${day}T12:00:00Z`));
+  return new Intl.DateTimeFormat("en-US", {
+    weekday: "short",
+    month: "short",
+    day: "numeric",
+    year: "numeric",
+    timeZone: "UTC",
+  }).format(new Date(`${day}T12:00:00Z`));
 }
 
 /** Pounds as people write them: "9,600 lb". */

@@ -6,7 +6,14 @@ export type SupplierOrderDocument = {
   preparedOn: string;
   company: { name: string; email: string; phone: string; address: string };
   supplier: { name: string; email: string; phone: string };
-  drops: { job: string; requestedOn: string; siteAddress: string; accessNotes: string; lines: RoundedLine[]; weightLb: number }[];
+  drops: {
+    job: string;
+    requestedOn: string;
+    siteAddress: string;
+    accessNotes: string;
+    lines: RoundedLine[];
+    weightLb: number;
+  }[];
   weightLb: number;
   unknownWeights: string[];
 };

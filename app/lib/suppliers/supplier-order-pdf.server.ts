@@ -35,19 +35,45 @@ export function renderSupplierOrderPdf(document: SupplierOrderDocument, createdA
     new PDFDocument({
       size: "LETTER",
       margin: PAGE_MARGIN_PT,
-      info: { Title: `Order ${document.number}`, Author: document.company.name, Creator: "Emberwright", Subject: `Supplier order to ${document.supplier.name}`, CreationDate: created, ModDate: created },
+      info: {
+        Title: `Order ${document.number}`,
+        Author: document.company.name,
+        Creator: "Emberwright",
+        Subject: `Supplier order to ${document.supplier.name}`,
+        CreationDate: created,
+        ModDate: created,
+      },
     }),
   );
   const done = collectPdf(doc);
 
   const c = document.company;
-  doc.font("Helvetica-Bold").fontSize(16).fillColor(INK).text(c.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
-  doc.font("Helvetica").fontSize(9).fillColor(SOFT).text([c.address, c.phone, c.email].filter(Boolean).join("  ·  "), { width: CONTENT_W });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(16)
+    .fillColor(INK)
+    .text(c.name, PAGE_MARGIN_PT, PAGE_MARGIN_PT, { width: CONTENT_W });
+  doc
+    .font("Helvetica")
+    .fontSize(9)
+    .fillColor(SOFT)
+    .text([c.address, c.phone, c.email].filter(Boolean).join("  ·  "), { width: CONTENT_W });
   doc.moveDown(1);
   doc.font("Helvetica-Bold").fontSize(9).fillColor(ACCENT).text("SUPPLIER ORDER", { characterSpacing: 1.5 });
-  doc.font("Helvetica-Bold").fontSize(18).fillColor(INK).text(`${document.number} to ${document.supplier.name}`, { width: CONTENT_W });
-  paragraph(doc, `Prepared ${document.preparedOn}. ${document.drops.length === 1 ? "One delivery" : `${document.drops.length} deliveries`}, ${formatPounds(document.weightLb)} in all${document.unknownWeights.length ? ` (without ${document.unknownWeights.join(", ")}: weight not known)` : ""}.`, { size: 9.5, colour: SOFT });
-  paragraph(doc, `Please confirm by replying to ${c.email}${c.phone ? ` or calling ${c.phone}` : ""}.`, { size: 9.5, colour: SOFT });
+  doc
+    .font("Helvetica-Bold")
+    .fontSize(18)
+    .fillColor(INK)
+    .text(`${document.number} to ${document.supplier.name}`, { width: CONTENT_W });
+  paragraph(
+    doc,
+    `Prepared ${document.preparedOn}. ${document.drops.length === 1 ? "One delivery" : `${document.drops.length} deliveries`}, ${formatPounds(document.weightLb)} in all${document.unknownWeights.length ? ` (without ${document.unknownWeights.join(", ")}: weight not known)` : ""}.`,
+    { size: 9.5, colour: SOFT },
+  );
+  paragraph(doc, `Please confirm by replying to ${c.email}${c.phone ? ` or calling ${c.phone}` : ""}.`, {
+    size: 9.5,
+    colour: SOFT,
+  });
 
   for (const drop of document.drops) {
     heading(doc, `Deliver ${formatDeliveryDay(drop.requestedOn)} to ${drop.siteAddress}`, HEADING);
@@ -55,7 +81,11 @@ export function renderSupplierOrderPdf(document: SupplierOrderDocument, createdA
     if (drop.accessNotes) paragraph(doc, `Access: ${drop.accessNotes}`, { size: 9.5 });
     lineRow(doc, ["Item", "Quantity", "Weight"], true);
     for (const line of drop.lines) {
-      lineRow(doc, [line.item, describeOrderQuantity(line.orderQuantity, line.orderUnit), line.weightLb === null ? "—" : formatPounds(line.weightLb)]);
+      lineRow(doc, [
+        line.item,
+        describeOrderQuantity(line.orderQuantity, line.orderUnit),
+        line.weightLb === null ? "—" : formatPounds(line.weightLb),
+      ]);
     }
     lineRow(doc, ["Delivered weight", "", formatPounds(drop.weightLb)], true);
   }

@@ -6,7 +6,12 @@ import { formId } from "~/lib/format/form-fields";
 export const orderMoveSchema = z.object({
   intent: z.enum(["send", "confirm", "deliver", "discard"], { error: "Choose send, confirm, deliver or discard." }),
   // The supplier's reference or who confirmed; optional.
-  note: z.string().default("").overwrite(toSingleLine).transform((v) => v.trim()).pipe(z.string().max(120, "Confirmation note must be at most 120 characters.")),
+  note: z
+    .string()
+    .default("")
+    .overwrite(toSingleLine)
+    .transform((v) => v.trim())
+    .pipe(z.string().max(120, "Confirmation note must be at most 120 characters.")),
 });
 
 /** Orders to combine, as posted by the list: two or more ids. */

@@ -6,7 +6,10 @@ import { findCompanyBySlug, listCatalog } from "~/lib/catalog/catalog.server";
 export async function loader({ params }: Route.LoaderArgs) {
   const company = await findCompanyBySlug(params.companySlug);
   if (!company) {
-    return Response.json({ errors: [{ path: "companySlug", message: "No contractor has that address." }] }, { status: 404 });
+    return Response.json(
+      { errors: [{ path: "companySlug", message: "No contractor has that address." }] },
+      { status: 404 },
+    );
   }
   const items = await listCatalog(company.id, { activeOnly: true });
   return Response.json(

@@ -28,6 +28,11 @@ export async function loader({ request }: Route.LoaderArgs) {
     // Never opened the inbox: nothing counts as unseen yet (as on the page itself).
     unseenSince = (await inboxSeenAt(user.id)) ?? new Date().toISOString();
   }
-  const page = await loadInboxPage({ companyId: company.id, timeZone: company.timeZone, filters: parsed.filters, unseenSince });
+  const page = await loadInboxPage({
+    companyId: company.id,
+    timeZone: company.timeZone,
+    filters: parsed.filters,
+    unseenSince,
+  });
   return Response.json(page, { headers: { "Cache-Control": "private, no-store" } });
 }

@@ -31,7 +31,8 @@ export async function action({ request }: Route.ActionArgs) {
     const plan = runPlan(resolved);
     // Staff of the same company see the cost breakdown; everyone else the range only.
     const user = resolved.company ? await getSessionUser(request) : null;
-    const isOwnStaff = user && user.companyId === resolved.company?.id && (user.role === "owner" || user.role === "estimator");
+    const isOwnStaff =
+      user && user.companyId === resolved.company?.id && (user.role === "owner" || user.role === "estimator");
     return json(isOwnStaff ? plan : publicPlan(plan));
   } catch (error) {
     if (error instanceof PlanRequestError) return json({ errors: error.errors }, error.status);

@@ -18,7 +18,11 @@ export async function action({ request }: Route.ActionArgs) {
   if (body.length > MAX_BODY_BYTES) return Response.json({ error: "Body too large." }, { status: 413 });
   let event: Stripe.Event;
   try {
-    event = stripe.webhooks.constructEvent(body, request.headers.get("stripe-signature") ?? "", env.STRIPE_WEBHOOK_SECRET);
+    event = stripe.webhooks.constructEvent(
+      body,
+      request.headers.get("stripe-signature") ?? "",
+      env.STRIPE_WEBHOOK_SECRET,
+    );
   } catch {
     return Response.json({ error: "Signature check failed." }, { status: 400 });
   }

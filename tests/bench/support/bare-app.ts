@@ -82,18 +82,30 @@ export async function buildBareApp(root: string): Promise<BareApp> {
   try {
     await symlink(path.join(root, "node_modules"), path.join(dir, "node_modules"), "dir");
     // The framework picks its server runtime from the dependencies: the same pinned versions as ours.
-    const ours = JSON.parse(await readFile(path.join(root, "package.json"), "utf8")) as { dependencies: Record<string, string> };
+    const ours = JSON.parse(await readFile(path.join(root, "package.json"), "utf8")) as {
+      dependencies: Record<string, string>;
+    };
     const dependencies = Object.fromEntries(
-      ["react", "react-dom", "react-router", "@react-router/node", "isbot", "@libsql/client"].map((name) => [name, ours.dependencies[name]!]),
+      ["react", "react-dom", "react-router", "@react-router/node", "isbot", "@libsql/client"].map((name) => [
+        name,
+        ours.dependencies[name]!,
+      ]),
     );
-    await writeFile(path.join(dir, "package.json"), JSON.stringify({ name: "bare-react-router", private: true, type: "module", dependencies }, null, 2));
+    await writeFile(
+      path.join(dir, "package.json"),
+      JSON.stringify({ name: "bare-react-router", private: true, type: "module", dependencies }, null, 2),
+    );
     for (const [file, text] of Object.entries(FILES)) {
       if (file.startsWith("build/")) continue;
       await mkdir(path.dirname(path.join(dir, file)), { recursive: true });
       await writeFile(path.join(dir, file), text);
     }
-    const build = await runToEnd(path.join(root, "node_modules/.bin/react-router"), ["build"], { cwd: dir, timeoutMs: 150_000 });
-    if (build.code !== 0) throw new Error(`Building the bare React Router app failed: ${(build.stderr || build.stdout).slice(-3000)}`);
+    const build = await runToEnd(path.join(root, "node_modules/.bin/react-router"), ["build"], {
+      cwd: dir,
+      timeoutMs: 150_000,
+    });
+    if (build.code !== 0)
+      throw new Error(`Building the bare React Router app failed: ${(build.stderr || build.stdout).slice(-3000)}`);
     const serverEntry = path.join(dir, "build/server/bench-entry.mjs");
     await writeFile(serverEntry, FILES["build/server/bench-entry.mjs"]!);
     return { dir, serverEntry, databaseFile: path.join(dir, "bare.db"), remove };

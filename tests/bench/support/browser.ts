@@ -31,7 +31,9 @@ export async function measureConfiguratorInBrowser(origin: string): Promise<Brow
     await slider.focus();
     for (let i = 0; i < SAMPLES; i++) {
       // Start each step from a settled page: no plan request in flight, no pending frame.
-      await page.locator('section[aria-labelledby="plan-summary-title"][aria-busy="false"]').waitFor({ timeout: 10_000 });
+      await page
+        .locator('section[aria-labelledby="plan-summary-title"][aria-busy="false"]')
+        .waitFor({ timeout: 10_000 });
       await page.waitForTimeout(300);
       steps.push(await timeOneStep(page));
     }

@@ -22,7 +22,13 @@ export type Target = Omit<AutocannonOptions, "duration">;
 
 export const CONNECTIONS = 10;
 
-type Tally = { latenciesMs: number[]; ok: number; failed: number; statusCounts: Record<string, number>; durationS: number };
+type Tally = {
+  latenciesMs: number[];
+  ok: number;
+  failed: number;
+  statusCounts: Record<string, number>;
+  durationS: number;
+};
 
 const emptyTally = (): Tally => ({ latenciesMs: [], ok: 0, failed: 0, statusCounts: {}, durationS: 0 });
 
@@ -45,7 +51,8 @@ async function runSlice(target: Target, seconds: number, tally: Tally | null): P
 
 function summarise(tally: Tally): LoadResult {
   const sorted = tally.latenciesMs.sort((a, b) => a - b);
-  const at = (p: number) => (sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]! : Number.NaN);
+  const at = (p: number) =>
+    sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]! : Number.NaN;
   return {
     rps: tally.ok / tally.durationS,
     p50Ms: at(0.5),
@@ -85,7 +92,8 @@ export async function loadInterleaved(
       await runSlice(target, seconds / slices, tallies[j]!);
       if (!meter) continue;
       const after = await meter();
-      for (const [key, value] of Object.entries(after)) metered[j]![key] = (metered[j]![key] ?? 0) + value - (before[key] ?? 0);
+      for (const [key, value] of Object.entries(after))
+        metered[j]![key] = (metered[j]![key] ?? 0) + value - (before[key] ?? 0);
     }
   }
   return tallies.map((tally, j) => ({ ...summarise(tally), metered: metered[j]! }));

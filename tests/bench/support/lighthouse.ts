@@ -44,7 +44,9 @@ export async function runLighthouse(
       cls: metric("cumulative-layout-shift"),
       tbtMs: metric("total-blocking-time"),
       fcpMs: metric("first-contentful-paint"),
-      auditErrors: Object.values(lhr.audits).flatMap((a) => (a.scoreDisplayMode === "error" ? [`${a.id}: ${a.errorMessage ?? "error"}`] : [])),
+      auditErrors: Object.values(lhr.audits).flatMap((a) =>
+        a.scoreDisplayMode === "error" ? [`${a.id}: ${a.errorMessage ?? "error"}`] : [],
+      ),
     });
   }
   return figures;
@@ -79,7 +81,13 @@ export const killAllChromium = () => void killAll();
 async function auditOnce(url: string, port: number, headers?: Record<string, string>) {
   let message = "";
   for (let attempt = 1; attempt <= 3; attempt++) {
-    const result = await lighthouse(url, { port, logLevel: "error", output: "json", onlyCategories: ["performance"], extraHeaders: headers });
+    const result = await lighthouse(url, {
+      port,
+      logLevel: "error",
+      output: "json",
+      onlyCategories: ["performance"],
+      extraHeaders: headers,
+    });
     const lhr = result?.lhr;
     if (lhr && !lhr.runtimeError) return lhr;
     message = lhr?.runtimeError ? `${lhr.runtimeError.code} ${lhr.runtimeError.message}` : "no report";

@@ -61,7 +61,11 @@ export function killAllNow(): void {
 export type RunResult = { code: number | null; stdout: string; stderr: string; timedOut: boolean };
 
 /** Runs a command to completion with a time limit; the whole group is killed when time runs out. */
-export async function runToEnd(command: string, args: string[], opts: SpawnArgs & { timeoutMs: number }): Promise<RunResult> {
+export async function runToEnd(
+  command: string,
+  args: string[],
+  opts: SpawnArgs & { timeoutMs: number },
+): Promise<RunResult> {
   const child = startProcess(command, args, { ...opts, quiet: true });
   let stdout = "";
   let stderr = "";

@@ -66,8 +66,15 @@ export async function startBenchServer(root: string, options: BenchServerOptions
   };
   delete env.NODE_ENV;
   for (const script of ["scripts/migrate.ts", "scripts/seed.ts"]) {
-    const result = await runToEnd(path.join(root, "node_modules/.bin/tsx"), [script], { cwd: root, env, timeoutMs: SETUP_TIMEOUT_MS });
-    if (result.code !== 0) throw new Error(`${script} failed (${result.timedOut ? "timed out" : `exit ${result.code}`}):\n${result.stderr || result.stdout}`);
+    const result = await runToEnd(path.join(root, "node_modules/.bin/tsx"), [script], {
+      cwd: root,
+      env,
+      timeoutMs: SETUP_TIMEOUT_MS,
+    });
+    if (result.code !== 0)
+      throw new Error(
+        `${script} failed (${result.timedOut ? "timed out" : `exit ${result.code}`}):\n${result.stderr || result.stdout}`,
+      );
   }
 
   // The same steps as the e2e server script; `exec` makes the shell's pid the server's own pid,
@@ -154,6 +161,7 @@ export async function signIn(origin: string, email: string, password: string): P
     redirect: "manual",
   });
   const setCookie = res.headers.getSetCookie().find((c) => c.includes("="));
-  if (!setCookie || res.status >= 400) throw new Error(`Sign-in as ${email} answered ${res.status} without a session cookie.`);
+  if (!setCookie || res.status >= 400)
+    throw new Error(`Sign-in as ${email} answered ${res.status} without a session cookie.`);
   return setCookie.split(";")[0]!;
 }

@@ -26,7 +26,13 @@ export type SoakResult = {
 
 export const SOAK_RATE = 40;
 
-export async function runSoak(root: string, minutes: number, planBody: (origin: string) => Promise<string>, owner: { email: string; password: string }, company: string): Promise<SoakResult> {
+export async function runSoak(
+  root: string,
+  minutes: number,
+  planBody: (origin: string) => Promise<string>,
+  owner: { email: string; password: string },
+  company: string,
+): Promise<SoakResult> {
   const dataName = "bench-soak";
   const gcFile = path.join(root, "data", dataName, "gc.jsonl");
   const server = await startBenchServer(root, {
@@ -72,7 +78,14 @@ export async function runSoak(root: string, minutes: number, planBody: (origin: 
       },
     ];
     const statusCounts: Record<string, number> = {};
-    const instance = autocannon({ url: origin, connections: 4, overallRate: SOAK_RATE, duration: minutes * 60 + 5, timeout: 10, requests });
+    const instance = autocannon({
+      url: origin,
+      connections: 4,
+      overallRate: SOAK_RATE,
+      duration: minutes * 60 + 5,
+      timeout: 10,
+      requests,
+    });
     instance.on("response", (_client: unknown, statusCode: number) => {
       statusCounts[statusCode] = (statusCounts[statusCode] ?? 0) + 1;
     });
@@ -81,7 +94,9 @@ export async function runSoak(root: string, minutes: number, planBody: (origin: 
     for (let minute = 1; minute <= minutes; minute++) {
       await new Promise((r) => setTimeout(r, started + minute * 60_000 - Date.now()));
       readings.push({ minute, ...(await readAfterGc(server.pid, gcFile)) });
-      process.stderr.write(`bench: soak minute ${minute}: heap ${(readings.at(-1)!.heapUsed / 2 ** 20).toFixed(1)} MiB, RSS ${(readings.at(-1)!.rss / 2 ** 20).toFixed(1)} MiB after gc\n`);
+      process.stderr.write(
+        `bench: soak minute ${minute}: heap ${(readings.at(-1)!.heapUsed / 2 ** 20).toFixed(1)} MiB, RSS ${(readings.at(-1)!.rss / 2 ** 20).toFixed(1)} MiB after gc\n`,
+      );
     }
     const result = await instance;
     return {
@@ -111,7 +126,9 @@ async function readAfterGc(pid: number, file: string): Promise<Omit<MemoryReadin
       return { rss, heapUsed, heapTotal, external };
     }
   }
-  throw new Error("The soak server's gc probe did not answer within 15 s (was it started with --expose-gc and the probe?).");
+  throw new Error(
+    "The soak server's gc probe did not answer within 15 s (was it started with --expose-gc and the probe?).",
+  );
 }
 
 async function readLines(file: string): Promise<string[]> {
@@ -121,4 +138,3 @@ async function readLines(file: string): Promise<string[]> {
     return [];
   }
 }
-

@@ -122,7 +122,8 @@ async function ports(count: number): Promise<{ balancer: number; apps: number[];
 export async function waitForHealth(origin: string, child?: ChildProcess, timeoutMs = READY_TIMEOUT_MS): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
-    if (child && child.exitCode !== null) throw new Error(`${origin} exited with code ${child.exitCode} before it was ready.`);
+    if (child && child.exitCode !== null)
+      throw new Error(`${origin} exited with code ${child.exitCode} before it was ready.`);
     try {
       const res = await fetch(`${origin}/api/health`, { signal: AbortSignal.timeout(2_000) });
       if (res.ok) return;
@@ -136,7 +137,8 @@ export async function waitForHealth(origin: string, child?: ChildProcess, timeou
 
 /** Starts the stand-ins, `processes` app processes at once on a fresh database, then the balancer. */
 export async function startCluster(options: Options): Promise<Cluster> {
-  if (!existsSync(path.join(ROOT, "build/server/index.js"))) throw new Error("No production build: run `npm run build` first.");
+  if (!existsSync(path.join(ROOT, "build/server/index.js")))
+    throw new Error("No production build: run `npm run build` first.");
   const dataDir = path.join(ROOT, "data", "multi-process", options.name);
   await rm(dataDir, { recursive: true, force: true });
   await mkdir(dataDir, { recursive: true });
@@ -215,14 +217,17 @@ export async function startCluster(options: Options): Promise<Cluster> {
     await Promise.all(apps.map((a) => waitForHealth(a.origin, a.child)));
   } catch (error) {
     await stop();
-    throw new Error(`${(error as Error).message}\n${apps.map((a) => `--- process ${a.index}:\n${a.output()}`).join("\n")}`);
+    throw new Error(
+      `${(error as Error).message}\n${apps.map((a) => `--- process ${a.index}:\n${a.output()}`).join("\n")}`,
+    );
   }
 
   const runScript = async (script: string, args: string[] = [], extra: NodeJS.ProcessEnv = {}) => {
     const scriptEnv = { ...env, ...extra };
     delete scriptEnv.NODE_ENV;
     const result = await runToEnd(TSX, [script, ...args], { cwd: ROOT, env: scriptEnv, timeoutMs: 120_000 });
-    if (result.code !== 0) throw new Error(`${script} ${args.join(" ")} failed (exit ${result.code}):\n${result.stderr || result.stdout}`);
+    if (result.code !== 0)
+      throw new Error(`${script} ${args.join(" ")} failed (exit ${result.code}):\n${result.stderr || result.stdout}`);
     return result.stdout;
   };
   if (options.seed ?? true) await runScript("scripts/seed.ts");
@@ -237,11 +242,29 @@ export async function startCluster(options: Options): Promise<Cluster> {
     return fresh;
   };
 
-  return { name: options.name, dataDir, databaseFile, uploadsDir, origin, balancer, apps, mail, mailSends: mailCounter.sends, payments, env, db, runScript, restart, stop };
+  return {
+    name: options.name,
+    dataDir,
+    databaseFile,
+    uploadsDir,
+    origin,
+    balancer,
+    apps,
+    mail,
+    mailSends: mailCounter.sends,
+    payments,
+    env,
+    db,
+    runScript,
+    restart,
+    stop,
+  };
 }
 
 /** A pass-through in front of the e-mail fake that counts each POST by its Idempotency-Key. */
-async function countMailSends(target: string): Promise<{ url: string; sends: Map<string, number>; close: () => Promise<void> }> {
+async function countMailSends(
+  target: string,
+): Promise<{ url: string; sends: Map<string, number>; close: () => Promise<void> }> {
   const sends = new Map<string, number>();
   const proxy = createProxyServer({ target });
   const server: Server = createServer((req, res) => {

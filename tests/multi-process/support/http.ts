@@ -8,7 +8,12 @@ import sharp from "sharp";
 export const DEMO_PASSWORD = "ember-demo-2026";
 export const COMPANY = "cinder-slate";
 
-export async function signIn(target: string, publicOrigin: string, email: string, password = DEMO_PASSWORD): Promise<string> {
+export async function signIn(
+  target: string,
+  publicOrigin: string,
+  email: string,
+  password = DEMO_PASSWORD,
+): Promise<string> {
   const res = await fetch(`${target}/login`, {
     method: "POST",
     headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: publicOrigin },
@@ -16,7 +21,8 @@ export async function signIn(target: string, publicOrigin: string, email: string
     redirect: "manual",
   });
   const cookie = res.headers.getSetCookie().find((c) => c.includes("="));
-  if (!cookie || res.status >= 400) throw new Error(`Sign-in as ${email} at ${target} answered ${res.status} without a session cookie.`);
+  if (!cookie || res.status >= 400)
+    throw new Error(`Sign-in as ${email} at ${target} answered ${res.status} without a session cookie.`);
   return cookie.split(";")[0]!;
 }
 
@@ -30,13 +36,19 @@ export async function yardPhoto(seed = 0): Promise<Buffer> {
     pixels[i * 3 + 1] = (i * 3) % 256;
     pixels[i * 3 + 2] = 120;
   }
-  return sharp(pixels, { raw: { width, height, channels: 3 } }).jpeg({ quality: 80 }).toBuffer();
+  return sharp(pixels, { raw: { width, height, channels: 3 } })
+    .jpeg({ quality: 80 })
+    .toBuffer();
 }
 
 export type LeadAnswer = { status: number; ref: string | null; location: string | null; backend: string | null };
 
 /** Sends one homeowner request through the configurator form (multipart, optional photo). */
-export async function sendLead(target: string, publicOrigin: string, args: { email: string; name?: string; photo?: Buffer }): Promise<LeadAnswer> {
+export async function sendLead(
+  target: string,
+  publicOrigin: string,
+  args: { email: string; name?: string; photo?: Buffer },
+): Promise<LeadAnswer> {
   const form = new FormData();
   form.set("customerName", args.name ?? "Multi Process Homeowner");
   form.set("email", args.email);
@@ -47,7 +59,12 @@ export async function sendLead(target: string, publicOrigin: string, args: { ema
   form.set("consent", "on");
   form.set("design", "units=14");
   if (args.photo) form.append("photos", new Blob([new Uint8Array(args.photo)], { type: "image/jpeg" }), "yard.jpg");
-  const res = await fetch(`${target}/c/${COMPANY}`, { method: "POST", headers: { Origin: publicOrigin }, body: form, redirect: "manual" });
+  const res = await fetch(`${target}/c/${COMPANY}`, {
+    method: "POST",
+    headers: { Origin: publicOrigin },
+    body: form,
+    redirect: "manual",
+  });
   await res.arrayBuffer().catch(() => undefined);
   const location = res.headers.get("location");
   const ref = res.status === 302 && location ? (/\/sent\/([^/?#]+)/.exec(location)?.[1] ?? null) : null;
@@ -55,7 +72,12 @@ export async function sendLead(target: string, publicOrigin: string, args: { ema
 }
 
 const decode = (s: string) =>
-  s.replace(/&quot;/g, '"').replace(/&#x27;|&#39;/g, "'").replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&amp;/g, "&");
+  s
+    .replace(/&quot;/g, '"')
+    .replace(/&#x27;|&#39;/g, "'")
+    .replace(/&lt;/g, "<")
+    .replace(/&gt;/g, ">")
+    .replace(/&amp;/g, "&");
 const attr = (tag: string, name: string) => {
   const m = new RegExp(`\\s${name}="([^"]*)"`, "i").exec(tag);
   return m ? decode(m[1]!) : null;
@@ -63,7 +85,10 @@ const attr = (tag: string, name: string) => {
 
 /** The value of every `<button name=…>` with that name on a page, in page order. */
 export function buttonValues(html: string, name: string): string[] {
-  return [...html.matchAll(/<button\b[^>]*>/gi)].map(([tag]) => tag).filter((tag) => attr(tag, "name") === name).map((tag) => attr(tag, "value") ?? "");
+  return [...html.matchAll(/<button\b[^>]*>/gi)]
+    .map(([tag]) => tag)
+    .filter((tag) => attr(tag, "name") === name)
+    .map((tag) => attr(tag, "value") ?? "");
 }
 
 /** The value of every `<input type="radio" name=…>` with that name on a page, in page order (the choices offered). */
@@ -109,7 +134,13 @@ function fieldsOf(form: string): Record<string, string> {
 }
 
 /** Opens a page as a signed-in user, changes some of its form's fields and posts it back. */
-export async function editForm(target: string, publicOrigin: string, cookie: string, pagePath: string, changes: Record<string, string>): Promise<Response> {
+export async function editForm(
+  target: string,
+  publicOrigin: string,
+  cookie: string,
+  pagePath: string,
+  changes: Record<string, string>,
+): Promise<Response> {
   const page = await fetch(`${target}${pagePath}`, { headers: { Cookie: cookie } });
   if (page.status !== 200) throw new Error(`${pagePath} answered ${page.status}.`);
   const fields = { ...formFields(await page.text()), ...changes };
@@ -121,10 +152,19 @@ export async function editForm(target: string, publicOrigin: string, cookie: str
   });
 }
 
-export async function postJson(target: string, pagePath: string, body: unknown, init: { cookie?: string; origin?: string } = {}) {
+export async function postJson(
+  target: string,
+  pagePath: string,
+  body: unknown,
+  init: { cookie?: string; origin?: string } = {},
+) {
   const headers: Record<string, string> = { "Content-Type": "application/json" };
   if (init.cookie) headers.Cookie = init.cookie;
   if (init.origin) headers.Origin = init.origin;
   const res = await fetch(`${target}${pagePath}`, { method: "POST", headers, body: JSON.stringify(body) });
-  return { status: res.status, json: (await res.json()) as Record<string, unknown> & { price?: { lowCents: number; highCents: number } }, backend: res.headers.get("x-emberwright-backend") };
+  return {
+    status: res.status,
+    json: (await res.json()) as Record<string, unknown> & { price?: { lowCents: number; highCents: number } },
+    backend: res.headers.get("x-emberwright-backend"),
+  };
 }

@@ -38,8 +38,12 @@ test("a steel ring too big for the bowl is flagged with the ring that clears it:
 });
 
 test("bowls under 30 in or over 48 in and walls outside 12–20 in are flagged (from memory: bowls 36–44 in, seats 17–20 in)", () => {
-  expect(codes(computePlan({ ...TYPICAL_PIT, ring: { unitCount: 11 }, liner: { kind: "none" } }).warnings)).toContain("bowl-small");
-  expect(codes(computePlan({ ...TYPICAL_PIT, ring: { unitCount: 18 }, liner: { kind: "none" } }).warnings)).toContain("bowl-large");
+  expect(codes(computePlan({ ...TYPICAL_PIT, ring: { unitCount: 11 }, liner: { kind: "none" } }).warnings)).toContain(
+    "bowl-small",
+  );
+  expect(codes(computePlan({ ...TYPICAL_PIT, ring: { unitCount: 18 }, liner: { kind: "none" } }).warnings)).toContain(
+    "bowl-large",
+  );
   expect(codes(computePlan({ ...TYPICAL_PIT, courses: 2, cap: null }).warnings)).toContain("seat-height");
   expect(codes(computePlan({ ...TYPICAL_PIT, courses: 5 }).warnings)).toContain("seat-height");
   expect(codes(computePlan({ ...TYPICAL_PIT, courses: 4 }).warnings)).not.toContain("seat-height");
@@ -62,7 +66,9 @@ test("a site closer than the company's required setback gets its own caution; th
   const close = listCautions({ linerKind: "steel-ring", requiredSetbackFt: 30, siteSetbackFt: 26 });
   expect(codes(close)).toContain("setback-too-close");
   expect(close[0].message).toMatch(/at least 30 ft/);
-  expect(codes(listCautions({ linerKind: "steel-ring", requiredSetbackFt: 25, siteSetbackFt: 26 }))).not.toContain("setback-too-close");
+  expect(codes(listCautions({ linerKind: "steel-ring", requiredSetbackFt: 25, siteSetbackFt: 26 }))).not.toContain(
+    "setback-too-close",
+  );
 });
 
 test("the liner caution is always shown, and is stronger when the bowl has no liner (interFIRE, Spalling of Concrete)", () => {
@@ -94,60 +100,109 @@ test("every caution has a stable kebab-case code, once, and is aimed at the home
   expect(all.find((c) => c.code === "attend-fire")?.audience).toBe("homeowner");
 });
 
-const warningText = (plan: ReturnType<typeof computePlan>, code: string) => plan.warnings.find((w) => w.code === code)?.message;
+const warningText = (plan: ReturnType<typeof computePlan>, code: string) =>
+  plan.warnings.find((w) => w.code === code)?.message;
 
 test("closure and back-trim warnings say what to cut: an exact 40 in bowl needs one 10 9/16 in closure a course; an exact 30 in bowl two of 7 3/4 in and 1/16 in off each back corner, 2 × 11 × 3 = 66 cuts (worked in the quantities and worked-job tests)", () => {
   const forty = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 40, fit: "exact" }, liner: { kind: "none" } });
-  expect(warningText(forty, "closure-units")).toBe("An exact bowl needs one closure unit in every course, cut along two radial lines to 10 9/16 in at the face. A whole-unit ring avoids these cuts.");
+  expect(warningText(forty, "closure-units")).toBe(
+    "An exact bowl needs one closure unit in every course, cut along two radial lines to 10 9/16 in at the face. A whole-unit ring avoids these cuts.",
+  );
   const thirty = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 30, fit: "exact" }, liner: { kind: "none" } });
-  expect(warningText(thirty, "closure-units")).toMatch(/^An exact bowl needs two closure units in every course, cut along two radial lines to 7 3\/4 in at the face\./);
-  expect(warningText(thirty, "back-trims")).toBe("So the face joints close at this bowl size, every unit needs 1/16 in trimmed off each back corner (66 extra cuts).");
+  expect(warningText(thirty, "closure-units")).toMatch(
+    /^An exact bowl needs two closure units in every course, cut along two radial lines to 7 3\/4 in at the face\./,
+  );
+  expect(warningText(thirty, "back-trims")).toBe(
+    "So the face joints close at this bowl size, every unit needs 1/16 in trimmed off each back corner (66 extra cuts).",
+  );
 });
 
 test("open face joints: 11 tapered units open 11/16 in, 2 × 21.623 × tan(π/11) − 12 = 0.698 in, and name the 32 in bowl that closes them; 12 square-ended units open 4 5/16 in and are told no ring closes them (regular-polygon chord)", () => {
   const eleven = computePlan({ ...TYPICAL_PIT, ring: { unitCount: 11 }, liner: { kind: "none" } });
-  expect(warningText(eleven, "open-face-joints")).toBe("The backs of these units meet first, so each joint on the outside face stays open about 11/16 in. Rings with a bowl of 32 in or more close them.");
+  expect(warningText(eleven, "open-face-joints")).toBe(
+    "The backs of these units meet first, so each joint on the outside face stays open about 11/16 in. Rings with a bowl of 32 in or more close them.",
+  );
   // a = 12/(2 tan 15°) = 22.392; 2 × 30.392 × tan 15° − 12 = 4.287 in.
-  const square = computePlan({ ...TYPICAL_PIT, wallUnit: { faceIn: 12, backIn: 12, depthIn: 8, heightIn: 4 }, ring: { unitCount: 12 }, liner: { kind: "none" } });
-  expect(warningText(square, "open-face-joints")).toBe("The backs of these units meet first, so each joint on the outside face stays open about 4 5/16 in. Units with square ends always leave open joints on a curve: fill them or choose tapered units.");
+  const square = computePlan({
+    ...TYPICAL_PIT,
+    wallUnit: { faceIn: 12, backIn: 12, depthIn: 8, heightIn: 4 },
+    ring: { unitCount: 12 },
+    liner: { kind: "none" },
+  });
+  expect(warningText(square, "open-face-joints")).toBe(
+    "The backs of these units meet first, so each joint on the outside face stays open about 4 5/16 in. Units with square ends always leave open joints on a curve: fill them or choose tapered units.",
+  );
 });
 
 test("cap overhang warnings give the figures: 14 in blanks reach 14 − 8 − 2 = 4 in out at the middle; 9 in blanks stop 1 in short; 10 1/2 in blanks reach 1/2 in at the middle but a wall corner (26.964 in out) shows by 26.964 − 26.788 = 3/16 in (common practice, no source)", () => {
   const deep = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, depthIn: 14 } });
-  expect(warningText(deep, "cap-overhang-outside-large")).toMatch(/^The caps overhang the outside of the wall by up to .* at their corners \(4 in at the middle\); 1 to 2 in is usual and 3 in the most you allow\. Rip the blanks narrower to bring it in\.$/);
+  expect(warningText(deep, "cap-overhang-outside-large")).toMatch(
+    /^The caps overhang the outside of the wall by up to .* at their corners \(4 in at the middle\); 1 to 2 in is usual and 3 in the most you allow\. Rip the blanks narrower to bring it in\.$/,
+  );
   const shallow = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, depthIn: 9 } });
-  expect(warningText(shallow, "cap-overhang-outside-negative")).toBe("The caps stop 1 in short of the wall's outside face, leaving the top of the wall showing. Use deeper caps or a smaller inner overhang.");
+  expect(warningText(shallow, "cap-overhang-outside-negative")).toBe(
+    "The caps stop 1 in short of the wall's outside face, leaving the top of the wall showing. Use deeper caps or a smaller inner overhang.",
+  );
   const mid = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, depthIn: 10.5 } });
   expect(mid.warnings).toEqual([
-    { code: "cap-overhang-outside-negative", message: "The caps overhang the wall by 1/2 in at their middle, but where a cap's middle passes a wall unit's outside corner the corner shows by up to 3/16 in. Use deeper caps or a smaller inner overhang." },
+    {
+      code: "cap-overhang-outside-negative",
+      message:
+        "The caps overhang the wall by 1/2 in at their middle, but where a cap's middle passes a wall unit's outside corner the corner shows by up to 3/16 in. Use deeper caps or a smaller inner overhang.",
+    },
   ]);
 });
 
 test("caps with no inner overhang fall short of the wall's back at their corners: 14 caps (the wall's count) have 8.156 in inner edges, corners at √(18.288² + 4.078²) = 18.737 in, 0.449 in (7/16) past the 18.288 in back face (Pythagoras)", () => {
   const plan = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, innerOverhangIn: 0 } });
-  expect(warningText(plan, "cap-inner-overhang-short")).toBe("At their inner corners the straight caps fall 7/16 in short of the wall's back face, so the top of the wall shows toward the fire there. Give the caps a little more inner overhang.");
+  expect(warningText(plan, "cap-inner-overhang-short")).toBe(
+    "At their inner corners the straight caps fall 7/16 in short of the wall's back face, so the top of the wall shows toward the fire there. Give the caps a little more inner overhang.",
+  );
   const inward = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, innerOverhangIn: 3 } });
-  expect(warningText(inward, "cap-inner-overhang-large")).toMatch(/^The caps reach 3 in over the fire at the middle of the wall's back faces, up to .* where they pass a back corner\. Cap edges in the flame crack and spall; keep the inner overhang to 2 in or less\.$/);
+  expect(warningText(inward, "cap-inner-overhang-large")).toMatch(
+    /^The caps reach 3 in over the fire at the middle of the wall's back faces, up to .* where they pass a back corner\. Cap edges in the flame crack and spall; keep the inner overhang to 2 in or less\.$/,
+  );
 });
 
 test("liner and size warnings in words: a 13 in ring stands above 12 − 1/8 = 11 7/8 in; two courses without caps stand 8 in; 18 units make a 12/tan 10° − 16 = 52 1/16 in bowl; 11 units a 27 1/4 in one (from memory: bowls 36–44 in, walls 12–18 in, seats 17–20 in)", () => {
   const tall = computePlan({ ...TYPICAL_PIT, liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: 13 } });
-  expect(warningText(tall, "liner-too-tall")).toBe("The 13 in steel ring stands above the top of the block (11 7/8 in under the caps), so the caps would rest on the ring. Add a course or choose a lower ring.");
+  expect(warningText(tall, "liner-too-tall")).toBe(
+    "The 13 in steel ring stands above the top of the block (11 7/8 in under the caps), so the caps would rest on the ring. Add a course or choose a lower ring.",
+  );
   const low = computePlan({ ...TYPICAL_PIT, courses: 2, cap: null, liner: { kind: "none" } });
-  expect(warningText(low, "seat-height")).toBe("The wall stands 8 in with its caps. Walls of 12 to 18 in are usual, and 17 to 20 in makes a comfortable seat.");
+  expect(warningText(low, "seat-height")).toBe(
+    "The wall stands 8 in with its caps. Walls of 12 to 18 in are usual, and 17 to 20 in makes a comfortable seat.",
+  );
   const big = computePlan({ ...TYPICAL_PIT, ring: { unitCount: 18 }, liner: { kind: "none" } });
-  expect(warningText(big, "bowl-large")).toBe("A 52 1/16 in bowl is large: 36 to 44 in is usual, and a big fire is harder to keep in hand.");
+  expect(warningText(big, "bowl-large")).toBe(
+    "A 52 1/16 in bowl is large: 36 to 44 in is usual, and a big fire is harder to keep in hand.",
+  );
   const small = computePlan({ ...TYPICAL_PIT, ring: { unitCount: 11 }, liner: { kind: "none" } });
-  expect(warningText(small, "bowl-small")).toBe("The fire's opening of 27 1/4 in is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.");
+  expect(warningText(small, "bowl-small")).toBe(
+    "The fire's opening of 27 1/4 in is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.",
+  );
 });
 
 test("firebrick in a bowl too small for it is said so; a lined bowl is judged by the opening inside the firebrick", () => {
   // An exact 12 in bowl (a = 6): three 9 in bricks would put their outer corners at
   // √((9/(2 tan 60°) + 2.5)² + 4.5²) = √(5.098² + 4.5²) = 6.80 in, past the 6 in bowl (Pythagoras).
-  const small = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 12, fit: "exact" }, cap: null, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } });
-  expect(warningText(small, "liner-does-not-fit")).toBe("This bowl (12 in) is too small to line with these firebricks on edge.");
-  const lined = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 34, fit: "exact" }, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } });
-  expect(warningText(lined, "bowl-small")).toBe("The fire's opening (27 11/16 in inside the firebrick) is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.");
+  const small = computePlan({
+    ...TYPICAL_PIT,
+    ring: { bowlDiameterIn: 12, fit: "exact" },
+    cap: null,
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+  });
+  expect(warningText(small, "liner-does-not-fit")).toBe(
+    "This bowl (12 in) is too small to line with these firebricks on edge.",
+  );
+  const lined = computePlan({
+    ...TYPICAL_PIT,
+    ring: { bowlDiameterIn: 34, fit: "exact" },
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+  });
+  expect(warningText(lined, "bowl-small")).toBe(
+    "The fire's opening (27 11/16 in inside the firebrick) is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.",
+  );
 });
 
 test("every caution goes to who acts on it: drainage, wet cutting and lifting to the crew; attending, burning rules, hot caps and gas to the homeowner; distances, the liner, base and cure, and 811 to both (common practice, no source)", () => {
@@ -176,12 +231,22 @@ test("every caution goes to who acts on it: drainage, wet cutting and lifting to
     ["heavy-lifting", "crew"],
   ]);
   const text = (code: string) => all.find((c) => c.code === code)?.message ?? "";
-  expect(text("setback")).toMatch(/^Keep the fire at least 30 ft from buildings, fences, decks and anything that burns, 10 ft from the property line and 10 ft from overhanging branches and wires\. .*Check with your local fire authority and codes\.$/);
-  expect(text("setback-too-close")).toBe("The spot chosen is 29 ft from the nearest building or combustible, closer than the 30 ft required. Move the pit, or confirm with your local fire authority before building.");
-  expect(text("property-line-too-close")).toBe("The spot chosen is 9 ft from the property line, closer than the 10 ft asked for. Move the pit, or confirm the local rule with your town before building.");
-  expect(text("branches-too-close")).toBe("Overhanging branches or wires are 9 ft from the fire, closer than the 10 ft asked for. Move the pit, or have the branches cut back before the first fire.");
+  expect(text("setback")).toMatch(
+    /^Keep the fire at least 30 ft from buildings, fences, decks and anything that burns, 10 ft from the property line and 10 ft from overhanging branches and wires\. .*Check with your local fire authority and codes\.$/,
+  );
+  expect(text("setback-too-close")).toBe(
+    "The spot chosen is 29 ft from the nearest building or combustible, closer than the 30 ft required. Move the pit, or confirm with your local fire authority before building.",
+  );
+  expect(text("property-line-too-close")).toBe(
+    "The spot chosen is 9 ft from the property line, closer than the 10 ft asked for. Move the pit, or confirm the local rule with your town before building.",
+  );
+  expect(text("branches-too-close")).toBe(
+    "Overhanging branches or wires are 9 ft from the fire, closer than the 10 ft asked for. Move the pit, or have the branches cut back before the first fire.",
+  );
   // IFC §202: a recreational fire is at most 3 ft across and 2 ft high.
-  expect(text("recreational-fire-size")).toMatch(/^The fire's opening is about 37 in across\. The International Fire Code \(§202\) treats a fire up to 3 ft across and 2 ft high as a recreational fire;.*permit.*Check with your local fire authority and codes\.$/);
+  expect(text("recreational-fire-size")).toMatch(
+    /^The fire's opening is about 37 in across\. The International Fire Code \(§202\) treats a fire up to 3 ft across and 2 ft high as a recreational fire;.*permit.*Check with your local fire authority and codes\.$/,
+  );
   expect(text("drainage")).toMatch(/dense-graded base.*open-graded stone \(clean gravel\).*drain to daylight/);
   expect(text("base-and-cure")).toMatch(/frost depth.*cure \(commonly about 7 days\).*first few fires small/);
   expect(text("hot-caps-and-ash")).toMatch(/children and pets.*spark screen.*metal can with a tight lid/);
@@ -197,14 +262,30 @@ test("distances exactly at the company's figures raise no caution, nor does a 36
     limits: { requiredPropertyLineFt: 10, requiredBranchClearanceFt: 10 },
     fireOpeningIn: 36,
   });
-  for (const code of ["setback-too-close", "property-line-too-close", "branches-too-close", "recreational-fire-size"]) expect(codes(at)).not.toContain(code);
+  for (const code of ["setback-too-close", "property-line-too-close", "branches-too-close", "recreational-fire-size"])
+    expect(codes(at)).not.toContain(code);
 });
 
 test("the lifting caution gives the weights (26.3 lb units and 39.4 lb blanks at 142 lb/ft³, as worked in job A) and leaves the cap out without caps; straight cuts only drop the handheld-saw respirator sentence (OSHA 29 CFR 1926.1153 Table 1)", () => {
-  const weighed = listCautions({ linerKind: "none", requiredSetbackFt: 25, weights: { wallUnitLb: 26.3, capBlankLb: 39.4, lbPerFt3: 142 }, handheldCuts: false });
+  const weighed = listCautions({
+    linerKind: "none",
+    requiredSetbackFt: 25,
+    weights: { wallUnitLb: 26.3, capBlankLb: 39.4, lbPerFt3: 142 },
+    handheldCuts: false,
+  });
   const text = (code: string) => weighed.find((c) => c.code === code)?.message ?? "";
-  expect(text("heavy-lifting")).toBe("Each wall unit weighs about 26 lb and each cap blank about 39 lb (at about 142 lb/ft³ of concrete; check the supplier's figure). Lift anything over about 50 lb with two people, bend the knees and keep the back straight.");
-  expect(text("wet-cutting")).toBe("Cut block, caps and pavers wet, on a stationary masonry saw with its water feed running, to keep silica dust down (OSHA 29 CFR 1926.1153, Table 1). Keep the blade guard on (29 CFR 1926.702(i)) and wear eye and hearing protection.");
-  const noCaps = listCautions({ linerKind: "none", requiredSetbackFt: 25, weights: { wallUnitLb: 26.3, capBlankLb: null, lbPerFt3: 142 } });
-  expect(noCaps.find((c) => c.code === "heavy-lifting")?.message).toMatch(/^Each wall unit weighs about 26 lb \(at about 142 lb\/ft³/);
+  expect(text("heavy-lifting")).toBe(
+    "Each wall unit weighs about 26 lb and each cap blank about 39 lb (at about 142 lb/ft³ of concrete; check the supplier's figure). Lift anything over about 50 lb with two people, bend the knees and keep the back straight.",
+  );
+  expect(text("wet-cutting")).toBe(
+    "Cut block, caps and pavers wet, on a stationary masonry saw with its water feed running, to keep silica dust down (OSHA 29 CFR 1926.1153, Table 1). Keep the blade guard on (29 CFR 1926.702(i)) and wear eye and hearing protection.",
+  );
+  const noCaps = listCautions({
+    linerKind: "none",
+    requiredSetbackFt: 25,
+    weights: { wallUnitLb: 26.3, capBlankLb: null, lbPerFt3: 142 },
+  });
+  expect(noCaps.find((c) => c.code === "heavy-lifting")?.message).toMatch(
+    /^Each wall unit weighs about 26 lb \(at about 142 lb\/ft³/,
+  );
 });

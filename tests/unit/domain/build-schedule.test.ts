@@ -5,7 +5,17 @@
  */
 import fc from "fast-check";
 import { describe, expect, test } from "vitest";
-import { addCalendarDays, buildDates, buildDaysNeeded, daysBetween, findClashes, isCalendarDate, moveBuild, weekdayOf, type WorkCalendar } from "~/domain/build-schedule";
+import {
+  addCalendarDays,
+  buildDates,
+  buildDaysNeeded,
+  daysBetween,
+  findClashes,
+  isCalendarDate,
+  moveBuild,
+  weekdayOf,
+  type WorkCalendar,
+} from "~/domain/build-schedule";
 
 const MON_TO_FRI: WorkCalendar = { workWeekdays: [1, 2, 3, 4, 5], daysOff: new Set() };
 const icuWeekday = new Intl.DateTimeFormat("en-US", { weekday: "short", timeZone: "UTC" });
@@ -27,11 +37,19 @@ describe("calendar dates", () => {
 
   test("adding days agrees with the platform's own calendar (ECMAScript Date) over four centuries", () => {
     fc.assert(
-      fc.property(fc.integer({ min: Date.UTC(1900, 0, 1), max: Date.UTC(2299, 11, 31) }), fc.integer({ min: -800, max: 800 }), (ms, n) => {
-        const date = new Date(ms).toISOString().slice(0, 10);
-        expect(addCalendarDays(date, n)).toBe(new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(5, 7)) - 1, Number(date.slice(8, 10)) + n)).toISOString().slice(0, 10));
-        expect(daysBetween(date, addCalendarDays(date, n))).toBe(n);
-      }),
+      fc.property(
+        fc.integer({ min: Date.UTC(1900, 0, 1), max: Date.UTC(2299, 11, 31) }),
+        fc.integer({ min: -800, max: 800 }),
+        (ms, n) => {
+          const date = new Date(ms).toISOString().slice(0, 10);
+          expect(addCalendarDays(date, n)).toBe(
+            new Date(Date.UTC(Number(date.slice(0, 4)), Number(date.slice(5, 7)) - 1, Number(date.slice(8, 10)) + n))
+              .toISOString()
+              .slice(0, 10),
+          );
+          expect(daysBetween(date, addCalendarDays(date, n))).toBe(n);
+        },
+      ),
       { numRuns: 300 },
     );
   });
@@ -86,13 +104,20 @@ describe("which days", () => {
     expect(buildDates("2026-12-04", 3, calendar)).toEqual(["2026-12-04", "2026-12-08", "2026-12-09"]);
     expect(buildDates("2026-12-05", 2, calendar)).toEqual(["2026-12-08", "2026-12-09"]);
     // A crew that works Saturdays builds on them.
-    expect(buildDates("2026-12-04", 2, { workWeekdays: [1, 2, 3, 4, 5, 6], daysOff: new Set() })).toEqual(["2026-12-04", "2026-12-05"]);
+    expect(buildDates("2026-12-04", 2, { workWeekdays: [1, 2, 3, 4, 5, 6], daysOff: new Set() })).toEqual([
+      "2026-12-04",
+      "2026-12-05",
+    ]);
   });
 
   test("across the turn of the year and through a holiday week", () => {
     const holidays = new Set(["2026-12-24", "2026-12-25", "2027-01-01"]);
     // Wed 23 Dec, (24, 25 off, 26–27 weekend) Mon 28, Tue 29.
-    expect(buildDates("2026-12-23", 3, { ...MON_TO_FRI, daysOff: holidays })).toEqual(["2026-12-23", "2026-12-28", "2026-12-29"]);
+    expect(buildDates("2026-12-23", 3, { ...MON_TO_FRI, daysOff: holidays })).toEqual([
+      "2026-12-23",
+      "2026-12-28",
+      "2026-12-29",
+    ]);
   });
 
   test("a calendar with no working weekdays cannot hold a build, and a build is whole days", () => {
@@ -133,7 +158,12 @@ describe("which days", () => {
 describe("clashes", () => {
   const calendar = { ...MON_TO_FRI, daysOff: new Set(["2026-12-10"]) };
   test("the same person on two builds the same day, a day off and a weekend are each named", () => {
-    const build = { id: 1, label: "Alder Lane", crewUserIds: [7, 8], dates: ["2026-12-09", "2026-12-10", "2026-12-12"] };
+    const build = {
+      id: 1,
+      label: "Alder Lane",
+      crewUserIds: [7, 8],
+      dates: ["2026-12-09", "2026-12-10", "2026-12-12"],
+    };
     const others = [
       { id: 2, label: "Birch Court", crewUserIds: [8], dates: ["2026-12-08", "2026-12-09"] },
       { id: 3, label: "Cedar Row", crewUserIds: [9], dates: ["2026-12-09"] },
@@ -147,6 +177,8 @@ describe("clashes", () => {
 
   test("a build never clashes with itself, and different people on the same day do not clash", () => {
     const build = { id: 1, label: "Alder Lane", crewUserIds: [7], dates: ["2026-12-09"] };
-    expect(findClashes(build, [build, { id: 3, label: "Cedar Row", crewUserIds: [9], dates: ["2026-12-09"] }], calendar)).toEqual([]);
+    expect(
+      findClashes(build, [build, { id: 3, label: "Cedar Row", crewUserIds: [9], dates: ["2026-12-09"] }], calendar),
+    ).toEqual([]);
   });
 });

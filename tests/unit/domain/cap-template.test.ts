@@ -63,7 +63,10 @@ test("the optional inner arc runs through both inner corners and bows into the c
   expect(middle[0]).toBeCloseTo(8, 9);
   expect(middle[1]).toBeCloseTo(caps.innerSagittaIn, 9);
   // h = r − √(r² − (c/2)²) for the 8.380 in chord on a 16.547 in radius.
-  expect(caps.innerSagittaIn).toBeCloseTo(caps.innerRadiusIn - Math.sqrt(caps.innerRadiusIn ** 2 - (8.380259873969 / 2) ** 2), 6);
+  expect(caps.innerSagittaIn).toBeCloseTo(
+    caps.innerRadiusIn - Math.sqrt(caps.innerRadiusIn ** 2 - (8.380259873969 / 2) ** 2),
+    6,
+  );
   for (const p of t.innerArc) expect(dist(p, t.centre)).toBeCloseTo(caps.innerRadiusIn, 9);
 });
 
@@ -76,7 +79,13 @@ test("the optional outer arc is struck at a2 = 28 in through the middle of the o
 });
 
 test("a ripped cap's outer corners sit on the rip line, not the blank's edge", () => {
-  const caps = planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: { ...BLANK, outerOverhangIn: 1 }, jointIn: 3 / 16, spares: 1 });
+  const caps = planCaps({
+    edgeDistanceIn: 18,
+    wallDepthIn: 8,
+    cap: { ...BLANK, outerOverhangIn: 1 },
+    jointIn: 3 / 16,
+    spares: 1,
+  });
   const t = layoutCapTemplate(caps);
   expect(caps.ripToDepthIn).toBe(11);
   expect(t.ripLineIn).toBe(11);
@@ -94,7 +103,13 @@ test("for any buildable ring and blank, the template's edges equal the plan's c1
       fc.double({ min: 0, max: 2, noNaN: true }),
       fc.constantFrom(0, 1 / 8, 3 / 16, 1 / 4),
       (a, t, l, w, oi, j) => {
-        const caps = planCaps({ edgeDistanceIn: a, wallDepthIn: t, cap: { lengthIn: l, depthIn: w, thicknessIn: 2.5, innerOverhangIn: oi }, jointIn: j, spares: 1 });
+        const caps = planCaps({
+          edgeDistanceIn: a,
+          wallDepthIn: t,
+          cap: { lengthIn: l, depthIn: w, thicknessIn: 2.5, innerOverhangIn: oi },
+          jointIn: j,
+          spares: 1,
+        });
         const tpl = layoutCapTemplate(caps);
         const [il, ir, or, ol] = tpl.corners;
         expect(dist(il, ir)).toBeCloseTo(caps.innerWidthIn, 9);

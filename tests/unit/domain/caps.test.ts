@@ -50,7 +50,12 @@ test("arced edges end on the side cuts: each arc's ends, found as line-circle in
   // The right-hand side cut runs through the inner corner (c1/2, a1) and the outer corner (c2/2, a2),
   // pit centre at the origin; intersect it with the circle of radius r (quadratic, solved here).
   const cutMeets = (r: number): [number, number] => {
-    const [x1, y1, x2, y2] = [caps.innerWidthIn / 2, caps.innerEdgeDistanceIn, caps.outerWidthIn / 2, caps.outerEdgeDistanceIn];
+    const [x1, y1, x2, y2] = [
+      caps.innerWidthIn / 2,
+      caps.innerEdgeDistanceIn,
+      caps.outerWidthIn / 2,
+      caps.outerEdgeDistanceIn,
+    ];
     const [dx, dy] = [x2 - x1, y2 - y1];
     const qa = dx * dx + dy * dy;
     const qb = 2 * (x1 * dx + y1 * dy);
@@ -92,7 +97,13 @@ test("the inner arc passes through both inner corners (distance from the centre,
 });
 
 test("an outer overhang asked for rips the blank to T + o_i + o_o deep", () => {
-  const caps = planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: { ...BLANK, outerOverhangIn: 1 }, jointIn: 3 / 16, spares: 1 });
+  const caps = planCaps({
+    edgeDistanceIn: 18,
+    wallDepthIn: 8,
+    cap: { ...BLANK, outerOverhangIn: 1 },
+    jointIn: 3 / 16,
+    spares: 1,
+  });
   expect(caps.ripToDepthIn).toBe(11);
   expect(caps.capDepthIn).toBe(11);
   expect(caps.outerOverhangIn).toBe(1);
@@ -120,12 +131,24 @@ const capCase = fc.record({
   innerOverhangIn: fc.double({ min: 0, max: 3, noNaN: true }),
   jointIn: fc.double({ min: 0, max: 0.5, noNaN: true }),
 });
-type CapCase = { edgeDistanceIn: number; wallDepthIn: number; lengthIn: number; extraDepthIn: number; innerOverhangIn: number; jointIn: number };
+type CapCase = {
+  edgeDistanceIn: number;
+  wallDepthIn: number;
+  lengthIn: number;
+  extraDepthIn: number;
+  innerOverhangIn: number;
+  jointIn: number;
+};
 const planCase = (c: CapCase) =>
   planCaps({
     edgeDistanceIn: c.edgeDistanceIn,
     wallDepthIn: c.wallDepthIn,
-    cap: { lengthIn: c.lengthIn, depthIn: c.wallDepthIn + c.innerOverhangIn + c.extraDepthIn, thicknessIn: 2.5, innerOverhangIn: c.innerOverhangIn },
+    cap: {
+      lengthIn: c.lengthIn,
+      depthIn: c.wallDepthIn + c.innerOverhangIn + c.extraDepthIn,
+      thicknessIn: 2.5,
+      innerOverhangIn: c.innerOverhangIn,
+    },
     jointIn: c.jointIn,
     spares: 1,
   });
@@ -151,7 +174,9 @@ test("caps narrow toward the fire and never exceed the blank: 0 < inner < outer 
       // One cap fewer would not fit the blank: the count is the smallest that works.
       if (caps.count > 3) {
         const half = Math.PI / (caps.count - 1);
-        expect(2 * caps.outerEdgeDistanceIn * Math.tan(half) - caps.jointIn / Math.cos(half)).toBeGreaterThan(caps.blankLengthIn);
+        expect(2 * caps.outerEdgeDistanceIn * Math.tan(half) - caps.jointIn / Math.cos(half)).toBeGreaterThan(
+          caps.blankLengthIn,
+        );
       }
     }),
   );
@@ -201,31 +226,72 @@ test("each refusal names the field and says what is allowed", () => {
     return [error.path, error.message];
   };
   expect(refused({ ...BLANK, lengthIn: 0 })).toEqual(["cap.lengthIn", "The cap's length must be a length above 0 in."]);
-  expect(refused({ ...BLANK, depthIn: Number.NaN })).toEqual(["cap.depthIn", "The cap's depth must be a length above 0 in."]);
-  expect(refused({ ...BLANK, thicknessIn: -2.5 })).toEqual(["cap.thicknessIn", "The cap's thickness must be a length above 0 in."]);
-  expect(refused({ ...BLANK, innerOverhangIn: -0.5 })).toEqual(["cap.innerOverhangIn", "The inner overhang must be 0 in or more."]);
-  expect(refused({ ...BLANK, innerOverhangIn: Number.NaN })).toEqual(["cap.innerOverhangIn", "The inner overhang must be 0 in or more."]);
+  expect(refused({ ...BLANK, depthIn: Number.NaN })).toEqual([
+    "cap.depthIn",
+    "The cap's depth must be a length above 0 in.",
+  ]);
+  expect(refused({ ...BLANK, thicknessIn: -2.5 })).toEqual([
+    "cap.thicknessIn",
+    "The cap's thickness must be a length above 0 in.",
+  ]);
+  expect(refused({ ...BLANK, innerOverhangIn: -0.5 })).toEqual([
+    "cap.innerOverhangIn",
+    "The inner overhang must be 0 in or more.",
+  ]);
+  expect(refused({ ...BLANK, innerOverhangIn: Number.NaN })).toEqual([
+    "cap.innerOverhangIn",
+    "The inner overhang must be 0 in or more.",
+  ]);
   expect(refused(BLANK, 18, Number.NaN)).toEqual(["jointIn", "The joint must be 0 in or more."]);
-  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 5)).toEqual(["cap.innerOverhangIn", "The bowl is too small for this inner overhang: the caps would meet in the middle. Keep the overhang under 5 in."]);
-  expect(refused({ ...BLANK, outerOverhangIn: -1 })).toEqual(["cap.outerOverhangIn", "The outer overhang must be 0 in or more."]);
+  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 5)).toEqual([
+    "cap.innerOverhangIn",
+    "The bowl is too small for this inner overhang: the caps would meet in the middle. Keep the overhang under 5 in.",
+  ]);
+  expect(refused({ ...BLANK, outerOverhangIn: -1 })).toEqual([
+    "cap.outerOverhangIn",
+    "The outer overhang must be 0 in or more.",
+  ]);
   // 8 + 2 + 3 = 13 in needed from 12 in blanks; the most they give is 12 − 8 − 2 = 2 in.
-  expect(refused({ ...BLANK, outerOverhangIn: 3 })).toEqual(["cap.outerOverhangIn", "A 3 in outer overhang needs blanks at least 13 in deep; these are 12 in. The most these blanks give is 2 in."]);
+  expect(refused({ ...BLANK, outerOverhangIn: 3 })).toEqual([
+    "cap.outerOverhangIn",
+    "A 3 in outer overhang needs blanks at least 13 in deep; these are 12 in. The most these blanks give is 2 in.",
+  ]);
   // Blanks 0.01 in long with tight joints: 2 × 30 × tan(π/n) ≤ 0.01 needs n ≥ 18,850, past any real ring.
-  expect(refused({ ...BLANK, lengthIn: 0.01 }, 18, 0)).toEqual(["cap.lengthIn", "The cap blanks are too short for this ring."]);
+  expect(refused({ ...BLANK, lengthIn: 0.01 }, 18, 0)).toEqual([
+    "cap.lengthIn",
+    "The cap blanks are too short for this ring.",
+  ]);
   // a1 = 6 − 5 = 1 in, a2 = 13 in, 3 in joints: 5 caps fit outside (2 × 13 × tan 36° − 3/cos 36° = 15.18 in),
   // but inside 2 × 1 × tan 36° − 3.71 = −2.26 in.
-  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 6, 3)).toEqual(["cap.innerOverhangIn", "The caps would come to a point at their inner edge: make the inner overhang or the joint smaller."]);
+  expect(refused({ ...BLANK, innerOverhangIn: 5 }, 6, 3)).toEqual([
+    "cap.innerOverhangIn",
+    "The caps would come to a point at their inner edge: make the inner overhang or the joint smaller.",
+  ]);
 });
 
 test("an outer overhang that uses the whole blank needs no rip: 8 + 2 + 2 = 12 in from 12 in blanks", () => {
-  const caps = planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: { ...BLANK, outerOverhangIn: 2 }, jointIn: 3 / 16, spares: 1 });
+  const caps = planCaps({
+    edgeDistanceIn: 18,
+    wallDepthIn: 8,
+    cap: { ...BLANK, outerOverhangIn: 2 },
+    jointIn: 3 / 16,
+    spares: 1,
+  });
   expect(caps.ripToDepthIn).toBeNull();
   expect(caps.capDepthIn).toBe(12);
 });
 
 test("why this count: the fewest that fit when the wall is not given; the wall's count when the fewest already divides it; a matching count only within the allowed extra waste (common practice, no source)", () => {
   const plan = (wallSides?: number, matchMaxExtraOffcutPct?: number) =>
-    planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: BLANK, jointIn: 3 / 16, spares: 1, wallSides, matchMaxExtraOffcutPct });
+    planCaps({
+      edgeDistanceIn: 18,
+      wallDepthIn: 8,
+      cap: BLANK,
+      jointIn: 3 / 16,
+      spares: 1,
+      wallSides,
+      matchMaxExtraOffcutPct,
+    });
   expect([plan().count, plan().countReason]).toEqual([12, "fewest"]);
   // 12 caps divide a 24-unit wall: they already sit centred over every other unit.
   expect([plan(24).count, plan(24).countReason]).toEqual([12, "matches-wall"]);

@@ -11,20 +11,35 @@ test("a company's numbers override the defaults one by one; the rest stay as the
 });
 
 test("numbers that are not finite numbers are ignored, never passed to the engine", () => {
-  const junk = { capSpares: Number.NaN, baseDepthIn: Number.POSITIVE_INFINITY, gluedCourses: "2", overheadPct: null } as unknown as Partial<CompanyFactors>;
+  const junk = {
+    capSpares: Number.NaN,
+    baseDepthIn: Number.POSITIVE_INFINITY,
+    gluedCourses: "2",
+    overheadPct: null,
+  } as unknown as Partial<CompanyFactors>;
   expect(resolveFactors(junk)).toEqual(DEFAULT_FACTORS);
 });
 
 test("the pricing choices take only their listed words; anything else keeps the default", () => {
-  expect(FACTOR_CHOICES).toEqual({ labourRateBasis: ["cost", "billed"], profitBasis: ["markup", "margin"], salesTaxBasis: ["materials", "price"] });
+  expect(FACTOR_CHOICES).toEqual({
+    labourRateBasis: ["cost", "billed"],
+    profitBasis: ["markup", "margin"],
+    salesTaxBasis: ["materials", "price"],
+  });
   const chosen = resolveFactors({ labourRateBasis: "billed", profitBasis: "margin", salesTaxBasis: "price" });
   expect([chosen.labourRateBasis, chosen.profitBasis, chosen.salesTaxBasis]).toEqual(["billed", "margin", "price"]);
   const back = resolveFactors({ labourRateBasis: "cost", profitBasis: "markup", salesTaxBasis: "materials" });
   expect([back.labourRateBasis, back.profitBasis, back.salesTaxBasis]).toEqual(["cost", "markup", "materials"]);
-  const wrong = resolveFactors({ labourRateBasis: "hourly", profitBasis: 1, salesTaxBasis: "" } as unknown as Partial<CompanyFactors>);
+  const wrong = resolveFactors({
+    labourRateBasis: "hourly",
+    profitBasis: 1,
+    salesTaxBasis: "",
+  } as unknown as Partial<CompanyFactors>);
   expect([wrong.labourRateBasis, wrong.profitBasis, wrong.salesTaxBasis]).toEqual(["cost", "markup", "materials"]);
   // A word is no number: a numeric factor given a choice's word stays at its default.
-  expect(resolveFactors({ capSpares: "margin" } as unknown as Partial<CompanyFactors>).capSpares).toBe(DEFAULT_FACTORS.capSpares);
+  expect(resolveFactors({ capSpares: "margin" } as unknown as Partial<CompanyFactors>).capSpares).toBe(
+    DEFAULT_FACTORS.capSpares,
+  );
 });
 
 test("the defaults price as the engine always has: a cost rate with overhead and a markup on cost, untaxed, no extra lines", () => {

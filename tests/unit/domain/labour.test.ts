@@ -22,14 +22,28 @@ test("caps ripped to an outer overhang add one rip a cap along the blank: 16 in 
   // count, are 7.243 and 12.264 in and waste 44.1 %, within 10 points: 14 caps, 14 rips.
   const plan = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, outerOverhangIn: 1 } });
   expect(plan.caps?.count).toBe(14);
-  expect(plan.labour.sawGroups.find((g) => g.what === "cap rips")).toEqual({ what: "cap rips", count: 14, lengthIn: 16, depthIn: 2.5, passes: 1, minutesEach: 1.5 });
+  expect(plan.labour.sawGroups.find((g) => g.what === "cap rips")).toEqual({
+    what: "cap rips",
+    count: 14,
+    lengthIn: 16,
+    depthIn: 2.5,
+    passes: 1,
+    minutesEach: 1.5,
+  });
 });
 
 test("two closure units a course take four radial cuts a course: an exact 34 in bowl of 3 courses, 12 cuts of 8 in through 4 in", () => {
   // a = 17: 13 whole units leave under half a unit, so 12 whole and two closures (see the ring tests).
   const plan = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 34, fit: "exact" } });
   expect(plan.ring.closure?.countPerCourse).toBe(2);
-  expect(plan.labour.sawGroups.find((g) => g.what === "closure cuts")).toEqual({ what: "closure cuts", count: 12, lengthIn: 8, depthIn: 4, passes: 1, minutesEach: 1.3 });
+  expect(plan.labour.sawGroups.find((g) => g.what === "closure cuts")).toEqual({
+    what: "closure cuts",
+    count: 12,
+    lengthIn: 8,
+    depthIn: 4,
+    passes: 1,
+    minutesEach: 1.3,
+  });
 });
 
 test("carrying scales with the company's rate: 1696.1 lb (job A) at 2 h a ton is 0.848 × 2 = 1.70 h", () => {

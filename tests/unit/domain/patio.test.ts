@@ -4,7 +4,17 @@ import { IN3_PER_YD3, countGridPavers, planPatio, type PatioFactors } from "~/do
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
 import { gapBetween, overlapArea, rectanglePolygon } from "./flatten-shapes";
 
-const FACTORS: PatioFactors = { paverWasteFloorPct: 5, borderMaxJointIn: 0.1875, minCutPiecePct: 33, edgeSpikeSpacingIn: 12, edgeRestraintPieceFt: 8, beddingSandDepthIn: 1, sandTonsPerYd3: 1.35, jointSandLbPerFt2: 1, jointSandBagLb: 50 };
+const FACTORS: PatioFactors = {
+  paverWasteFloorPct: 5,
+  borderMaxJointIn: 0.1875,
+  minCutPiecePct: 33,
+  edgeSpikeSpacingIn: 12,
+  edgeRestraintPieceFt: 8,
+  beddingSandDepthIn: 1,
+  sandTonsPerYd3: 1.35,
+  jointSandLbPerFt2: 1,
+  jointSandBagLb: 50,
+};
 // A 16 ft patio: 96 in outside radius, 6 × 12 in border units, 4 × 8 in pavers, around a pit with
 // its faces 26.288 in from the centre (14 units of 12/8/8, derived here).
 const PATIO = { outsideRadiusIn: 96, border: { widthIn: 6, lengthIn: 12 }, paver: { lengthIn: 8, widthIn: 4 } };
@@ -59,14 +69,21 @@ test("a tapered border unit's cut end meets the next unit's square end flush: fl
   const [r, R, L] = [90, 96, 12];
   // Unit 0 in its own frame: square end at y = −L/2, outer corners (R, ±L/2); its cut end runs from
   // (R, L/2) along the next unit's square end, which is unit 0's square end turned by θ.
-  const rot = (x: number, y: number, a: number): [number, number] => [x * Math.cos(a) - y * Math.sin(a), x * Math.sin(a) + y * Math.cos(a)];
+  const rot = (x: number, y: number, a: number): [number, number] => [
+    x * Math.cos(a) - y * Math.sin(a),
+    x * Math.sin(a) + y * Math.cos(a),
+  ];
   const [p1, p2] = [rot(r, -L / 2, theta), rot(R, -L / 2, theta)];
   expect(p2[0]).toBeCloseTo(R, 9);
   expect(p2[1]).toBeCloseTo(L / 2, 9);
   const t = (r - p2[0]) / (p1[0] - p2[0]);
   const cutInner: [number, number] = [r, p2[1] + t * (p1[1] - p2[1])];
   const unit = (a: number) =>
-    new Polygon([rot(r, -L / 2, a), rot(R, -L / 2, a), rot(R, L / 2, a), rot(cutInner[0], cutInner[1], a)].map(([x, y]) => point(x, y)));
+    new Polygon(
+      [rot(r, -L / 2, a), rot(R, -L / 2, a), rot(R, L / 2, a), rot(cutInner[0], cutInner[1], a)].map(([x, y]) =>
+        point(x, y),
+      ),
+    );
   expect(overlapArea(unit(0), unit(theta))).toBeLessThan(1e-9);
   expect(gapBetween(unit(0), unit(theta))).toBeLessThan(1e-9);
   // The cut runs θ off square.
@@ -136,7 +153,10 @@ test("each patio size is checked by name, and a patio that does not clear the pi
   expect(refused({ ...PATIO, border: { widthIn: 6, lengthIn: -12 } })).toEqual(["patio.border.lengthIn", size]);
   expect(refused({ ...PATIO, paver: { lengthIn: Infinity, widthIn: 4 } })).toEqual(["patio.paver.lengthIn", size]);
   expect(refused({ ...PATIO, paver: { lengthIn: 8, widthIn: 0 } })).toEqual(["patio.paver.widthIn", size]);
-  expect(refused({ ...PATIO, outsideRadiusIn: 32.97 })).toEqual(["patio.outsideRadiusIn", "The patio must reach past the pit and its border: its outside radius must be more than 33 in."]);
+  expect(refused({ ...PATIO, outsideRadiusIn: 32.97 })).toEqual([
+    "patio.outsideRadiusIn",
+    "The patio must reach past the pit and its border: its outside radius must be more than 33 in.",
+  ]);
 });
 
 test("the 16 ft patio's areas and sand: field π(90² − 26.288²) = 23,275 in² = 161.63 ft²; paved π(96² − 26.288²) = 26,782 in² = 185.98 ft²; 1 in of bedding 0.5740 yd³ × 1.35 = 0.775 t; joint sand 185.98 lb ÷ 50 → 4 bags (NIST SP 811; rates from memory)", () => {

@@ -54,7 +54,8 @@ function inputFor(ring: ReturnType<typeof planRing>, extra: Partial<PitSceneInpu
   };
 }
 
-const wholeRing = (unitCount: number, courses = 3) => inputFor(planRing({ target: { unitCount }, wallUnit: UNIT, courses }));
+const wholeRing = (unitCount: number, courses = 3) =>
+  inputFor(planRing({ target: { unitCount }, wallUnit: UNIT, courses }));
 const exactRing = (bowlDiameterIn: number, courses = 3) =>
   inputFor(planRing({ target: { bowlDiameterIn, fit: "exact" }, wallUnit: UNIT, courses }));
 
@@ -115,7 +116,7 @@ const squarePlan = () => planBorder(2);
 const flat = (polygon: PlanPolygon) => new Polygon(polygon.map(([x, y]) => point(x, y)));
 const overlapArea = (p: PlanPolygon, q: PlanPolygon) => BooleanOperations.intersect(flat(p), flat(q)).area();
 const distance = (p: PartPlacement) => Math.hypot(p.x, p.z);
-const byAngle = (p: PlanPolygon) => Math.atan2(...centroid(p).reverse() as [number, number]);
+const byAngle = (p: PlanPolygon) => Math.atan2(...(centroid(p).reverse() as [number, number]));
 function centroid(p: PlanPolygon): [number, number] {
   return [p.reduce((s, q) => s + q[0], 0) / p.length, p.reduce((s, q) => s + q[1], 0) / p.length];
 }
@@ -144,7 +145,8 @@ test("an exact 40 in bowl lays unitCount × courses whole units plus its closure
 test("every wall unit's back middle lies at edge distance a (to 1e-9 in), whole and closure alike", () => {
   for (const input of [wholeRing(12), wholeRing(14), wholeRing(23), exactRing(40), exactRing(33.3)]) {
     const { whole, closures } = placeWallUnits(input);
-    for (const p of [...whole, ...closures]) expect(Math.abs(distance(p) - input.ring.edgeDistanceIn)).toBeLessThan(1e-9);
+    for (const p of [...whole, ...closures])
+      expect(Math.abs(distance(p) - input.ring.edgeDistanceIn)).toBeLessThan(1e-9);
   }
 });
 
@@ -209,7 +211,16 @@ test("the closure outline is a unit cut along radial lines: its face and back wi
 
 test("neighbouring plan polygons of one course do not overlap (flatten-js boolean intersection), whole-unit and closure rings", () => {
   // A 30 in exact bowl is tighter than the backs allow (ID* = 32 in), so its units come out trimmed.
-  for (const input of [wholeRing(12), wholeRing(13), wholeRing(14), wholeRing(30), exactRing(30), exactRing(33.3), exactRing(40), exactRing(44.5)]) {
+  for (const input of [
+    wholeRing(12),
+    wholeRing(13),
+    wholeRing(14),
+    wholeRing(30),
+    exactRing(30),
+    exactRing(33.3),
+    exactRing(40),
+    exactRing(44.5),
+  ]) {
     const { whole, closures } = placeWallUnits(input);
     const unit = outlineWallUnit(input);
     const closure = outlineClosureUnit(input);
@@ -306,11 +317,13 @@ test("square-ended units touch at their inner corners and open the engine's oute
 test("units cut to touch at the outer face close every joint there, and the course reaches the patio's edge R", () => {
   const input = { ...wholeRing(14), patio: patioFor(taperedPlan()) };
   const pieces = drawPitPlan(input).borderUnits.sort((p, q) => byAngle(p) - byAngle(q));
-  for (const piece of pieces) expect(farthest(piece)).toBeLessThanOrEqual(Math.hypot(84, BORDER_UNIT.lengthIn / 2) + 1e-9);
+  for (const piece of pieces)
+    expect(farthest(piece)).toBeLessThanOrEqual(Math.hypot(84, BORDER_UNIT.lengthIn / 2) + 1e-9);
   const outline = outlineBorderUnit(input)!;
   const [first, second] = placeBorderUnits(input).whole.map((p) => toPlanPolygon(outline, p));
   // The outer corners of neighbours meet: the shared radial cut leaves no V.
-  const outerCorners = (polygon: PlanPolygon) => polygon.filter(([x, y]) => Math.abs(Math.hypot(x, y) - Math.hypot(84, 6)) < 1e-6);
+  const outerCorners = (polygon: PlanPolygon) =>
+    polygon.filter(([x, y]) => Math.abs(Math.hypot(x, y) - Math.hypot(84, 6)) < 1e-6);
   const [a, b] = [outerCorners(first!), outerCorners(second!)];
   expect(Math.min(...a.flatMap((p) => b.map((q) => gap(p, q))))).toBeLessThan(1e-9);
 });
@@ -341,7 +354,11 @@ test("a 14-unit 12/8/8 ring measures a 36.575 in bowl and 52.575 in outside (der
 });
 
 test("the camera's view holds the whole pit and patio, in portrait and landscape, and stands no farther back than needed", () => {
-  for (const input of [withCaps({ ...wholeRing(14), patio: patioFor(taperedPlan()) }), withCaps(wholeRing(14)), wholeRing(30, 6)]) {
+  for (const input of [
+    withCaps({ ...wholeRing(14), patio: patioFor(taperedPlan()) }),
+    withCaps(wholeRing(14)),
+    wholeRing(30, 6),
+  ]) {
     for (const aspect of [0.6, 1, 1.8]) {
       const framing = frameCamera(input, aspect, 35);
       const tanV = Math.tan((35 * Math.PI) / 360);

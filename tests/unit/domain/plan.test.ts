@@ -14,28 +14,81 @@ test("the plan carries every field of its public contract", () => {
   );
   expect(Object.keys(plan.ring)).toEqual(
     expect.arrayContaining([
-      "unitCount", "unitsPerCourse", "courses", "totalUnits", "bowlDiameterIn", "outsideDiameterIn", "limitedBy",
-      "faceGapIn", "backGapIn", "closure", "backTrimPerSideIn", "wallHeightIn", "runningBondDeg",
-      "tightestBowlDiameterIn", "edgeDistanceIn", "neighbours",
+      "unitCount",
+      "unitsPerCourse",
+      "courses",
+      "totalUnits",
+      "bowlDiameterIn",
+      "outsideDiameterIn",
+      "limitedBy",
+      "faceGapIn",
+      "backGapIn",
+      "closure",
+      "backTrimPerSideIn",
+      "wallHeightIn",
+      "runningBondDeg",
+      "tightestBowlDiameterIn",
+      "edgeDistanceIn",
+      "neighbours",
     ]),
   );
   expect(Object.keys(plan.caps!)).toEqual(
     expect.arrayContaining([
-      "count", "blankLengthIn", "blankDepthIn", "thicknessIn", "innerWidthIn", "outerWidthIn", "innerMarkIn",
-      "outerMarkIn", "offSquareDeg", "sideCutLengthIn", "innerOverhangIn", "outerOverhangIn", "innerRadiusIn",
-      "outerRadiusIn", "innerSagittaIn", "outerSagittaIn", "ripToDepthIn", "offcutShare", "spares", "jointIn",
+      "count",
+      "blankLengthIn",
+      "blankDepthIn",
+      "thicknessIn",
+      "innerWidthIn",
+      "outerWidthIn",
+      "innerMarkIn",
+      "outerMarkIn",
+      "offSquareDeg",
+      "sideCutLengthIn",
+      "innerOverhangIn",
+      "outerOverhangIn",
+      "innerRadiusIn",
+      "outerRadiusIn",
+      "innerSagittaIn",
+      "outerSagittaIn",
+      "ripToDepthIn",
+      "offcutShare",
+      "spares",
+      "jointIn",
     ]),
   );
   expect(Object.keys(plan.price!)).toEqual(expect.arrayContaining(["lowCents", "highCents", "breakdown"]));
   expect(Object.keys(plan.price!.breakdown)).toEqual(
     expect.arrayContaining([
-      "materialsCents", "materialsTaxCents", "labourHours", "labourRateBasis", "labourCostRateCents", "labourBilledRateCents",
-      "labourCents", "siteCosts", "directCents", "overheadPct", "overheadCents", "costCents", "profitBasis", "profitPct",
-      "profitCents", "markupPct", "marginPct", "workPriceCents", "permitCents", "salesTaxBasis", "salesTaxPct",
-      "salesTaxCents", "totalCents", "lowCents", "highCents", "lines",
+      "materialsCents",
+      "materialsTaxCents",
+      "labourHours",
+      "labourRateBasis",
+      "labourCostRateCents",
+      "labourBilledRateCents",
+      "labourCents",
+      "siteCosts",
+      "directCents",
+      "overheadPct",
+      "overheadCents",
+      "costCents",
+      "profitBasis",
+      "profitPct",
+      "profitCents",
+      "markupPct",
+      "marginPct",
+      "workPriceCents",
+      "permitCents",
+      "salesTaxBasis",
+      "salesTaxPct",
+      "salesTaxCents",
+      "totalCents",
+      "lowCents",
+      "highCents",
+      "lines",
     ]),
   );
-  for (const line of plan.materials) expect(Object.keys(line)).toEqual(expect.arrayContaining(["item", "quantity", "unit"]));
+  for (const line of plan.materials)
+    expect(Object.keys(line)).toEqual(expect.arrayContaining(["item", "quantity", "unit"]));
   expect(Object.keys(plan.labour)).toEqual(expect.arrayContaining(["hours", "tasks"]));
 });
 
@@ -64,7 +117,10 @@ test("no liner means liner null and no liner on the order", () => {
 });
 
 test("a firebrick liner lines the wall below the caps", () => {
-  const plan = computePlan({ ...TYPICAL_PIT, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 300 } });
+  const plan = computePlan({
+    ...TYPICAL_PIT,
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 300 },
+  });
   expect(plan.liner).toMatchObject({ kind: "firebrick", bricksPerRow: 10, rows: 3, totalBricks: 30 });
   expect(plan.materials.find((m) => m.key === "firebrick")?.quantity).toBe(32);
 });
@@ -99,7 +155,9 @@ test("geometry that cannot be built throws PlanGeometryError naming the field", 
 
 test("the same input always gives the same plan (pure: no clock, no randomness)", () => {
   const input = { ...TYPICAL_PIT, patio: PATIO };
-  expect(computePlan(input, { supplyPrices: SUPPLY_PRICES })).toEqual(computePlan(input, { supplyPrices: SUPPLY_PRICES }));
+  expect(computePlan(input, { supplyPrices: SUPPLY_PRICES })).toEqual(
+    computePlan(input, { supplyPrices: SUPPLY_PRICES }),
+  );
 });
 
 test("every liner size and site distance is checked by name: lengths above 0 in, distances of 0 ft or more", () => {
@@ -113,14 +171,25 @@ test("every liner size and site distance is checked by name: lengths above 0 in,
     return null;
   };
   const size = "This size must be a length above 0 in.";
-  expect(refused({ ...TYPICAL_PIT, liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: Number.NaN } })).toEqual(["liner.heightIn", size]);
+  expect(
+    refused({ ...TYPICAL_PIT, liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: Number.NaN } }),
+  ).toEqual(["liner.heightIn", size]);
   const brick = { kind: "firebrick" as const, lengthIn: 9, widthIn: 4.5, heightIn: 2.5 };
   expect(refused({ ...TYPICAL_PIT, liner: { ...brick, lengthIn: 0 } })).toEqual(["liner.lengthIn", size]);
   expect(refused({ ...TYPICAL_PIT, liner: { ...brick, widthIn: -1 } })).toEqual(["liner.widthIn", size]);
   expect(refused({ ...TYPICAL_PIT, liner: { ...brick, heightIn: Infinity } })).toEqual(["liner.heightIn", size]);
-  expect(refused({ ...TYPICAL_PIT, site: { setbackFt: -1 } })).toEqual(["site.setbackFt", "The setback must be a distance of 0 ft or more."]);
-  expect(refused({ ...TYPICAL_PIT, site: { propertyLineFt: -0.5 } })).toEqual(["site.propertyLineFt", "The distance to the property line must be a distance of 0 ft or more."]);
-  expect(refused({ ...TYPICAL_PIT, site: { branchesFt: Number.NaN } })).toEqual(["site.branchesFt", "The distance to overhanging branches must be a distance of 0 ft or more."]);
+  expect(refused({ ...TYPICAL_PIT, site: { setbackFt: -1 } })).toEqual([
+    "site.setbackFt",
+    "The setback must be a distance of 0 ft or more.",
+  ]);
+  expect(refused({ ...TYPICAL_PIT, site: { propertyLineFt: -0.5 } })).toEqual([
+    "site.propertyLineFt",
+    "The distance to the property line must be a distance of 0 ft or more.",
+  ]);
+  expect(refused({ ...TYPICAL_PIT, site: { branchesFt: Number.NaN } })).toEqual([
+    "site.branchesFt",
+    "The distance to overhanging branches must be a distance of 0 ft or more.",
+  ]);
   expect(refused({ ...TYPICAL_PIT, site: { setbackFt: 0, propertyLineFt: 0, branchesFt: 0 } })).toBeNull();
 });
 
@@ -133,15 +202,31 @@ test("catalog names carry through to the order", () => {
     patio: { ...PATIO, border: { ...PATIO.border, name: "Edge 6×12" }, paver: { ...PATIO.paver, name: "Paver 4×8" } },
   } as Parameters<typeof computePlan>[0]);
   const item = (key: string) => plan.materials.find((m) => m.key === key)?.item;
-  expect([item("wall-unit"), item("cap"), item("steel-ring"), item("border-unit"), item("paver")]).toEqual(["Taper block", "Cap 16", "Ring 35", "Edge 6×12", "Paver 4×8"]);
-  const bricks = computePlan({ ...TYPICAL_PIT, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, name: "Straights" } } as Parameters<typeof computePlan>[0]);
+  expect([item("wall-unit"), item("cap"), item("steel-ring"), item("border-unit"), item("paver")]).toEqual([
+    "Taper block",
+    "Cap 16",
+    "Ring 35",
+    "Edge 6×12",
+    "Paver 4×8",
+  ]);
+  const bricks = computePlan({
+    ...TYPICAL_PIT,
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, name: "Straights" },
+  } as Parameters<typeof computePlan>[0]);
   expect(bricks.materials.find((m) => m.key === "firebrick")?.item).toBe("Straights");
 });
 
 test("without caps the lining may reach the top of the block: 3 courses of 4 in line 12 in, two whole rows of 4 9/16 in and a 12 − 9.125 − 1/16 = 2 13/16 in rip; with caps 1/8 in less (common practice, no source)", () => {
-  const bare = computePlan({ ...TYPICAL_PIT, cap: null, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } });
+  const bare = computePlan({
+    ...TYPICAL_PIT,
+    cap: null,
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+  });
   expect(bare.liner).toMatchObject({ kind: "firebrick", linedHeightIn: 12, fullRows: 2, ripHeightIn: 2.8125 });
-  const capped = computePlan({ ...TYPICAL_PIT, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } });
+  const capped = computePlan({
+    ...TYPICAL_PIT,
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+  });
   expect(capped.liner).toMatchObject({ kind: "firebrick", linedHeightIn: 11.875, fullRows: 2, ripHeightIn: 2.6875 });
 });
 
@@ -149,14 +234,26 @@ test("the plan hands the company's limits and the job's own figures to the cauti
   // 14 in blanks reach 4 in out at the middle (14 − 8 − 2): over the default 3 in, within a company's 5 in.
   const deep = { ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, depthIn: 14 } };
   expect(computePlan(deep).warnings.map((w) => w.code)).toContain("cap-overhang-outside-large");
-  expect(computePlan(deep, { factors: { capMaxOuterOverhangIn: 4 } }).warnings.map((w) => w.code)).toContain("cap-overhang-outside-large");
-  expect(computePlan(deep, { factors: { capMaxOuterOverhangIn: 5 } }).warnings.map((w) => w.code)).not.toContain("cap-overhang-outside-large");
-  const caution = (plan: ReturnType<typeof computePlan>, code: string) => plan.cautions.find((c) => c.code === code)?.message ?? "";
-  const plan = computePlan({ ...TYPICAL_PIT, site: { setbackFt: 40, propertyLineFt: 4, branchesFt: 6 } }, { factors: { requiredPropertyLineFt: 5, requiredBranchClearanceFt: 8 } });
-  expect(plan.cautions.map((c) => c.code)).toEqual(expect.arrayContaining(["property-line-too-close", "branches-too-close"]));
+  expect(computePlan(deep, { factors: { capMaxOuterOverhangIn: 4 } }).warnings.map((w) => w.code)).toContain(
+    "cap-overhang-outside-large",
+  );
+  expect(computePlan(deep, { factors: { capMaxOuterOverhangIn: 5 } }).warnings.map((w) => w.code)).not.toContain(
+    "cap-overhang-outside-large",
+  );
+  const caution = (plan: ReturnType<typeof computePlan>, code: string) =>
+    plan.cautions.find((c) => c.code === code)?.message ?? "";
+  const plan = computePlan(
+    { ...TYPICAL_PIT, site: { setbackFt: 40, propertyLineFt: 4, branchesFt: 6 } },
+    { factors: { requiredPropertyLineFt: 5, requiredBranchClearanceFt: 8 } },
+  );
+  expect(plan.cautions.map((c) => c.code)).toEqual(
+    expect.arrayContaining(["property-line-too-close", "branches-too-close"]),
+  );
   expect(caution(plan, "setback")).toMatch(/, 5 ft from the property line and 8 ft from overhanging branches/);
   // Job A's weights (26.30 lb units, 39.44 lb blanks at 142 lb/ft³) and arced caps to cut by hand.
-  expect(caution(plan, "heavy-lifting")).toMatch(/^Each wall unit weighs about 26 lb and each cap blank about 39 lb \(at about 142 lb\/ft³/);
+  expect(caution(plan, "heavy-lifting")).toMatch(
+    /^Each wall unit weighs about 26 lb and each cap blank about 39 lb \(at about 142 lb\/ft³/,
+  );
   expect(caution(plan, "wet-cutting")).toMatch(/respirator/);
   expect(caution(computePlan({ ...TYPICAL_PIT, cap: null }), "wet-cutting")).not.toMatch(/respirator/);
   // The fire's opening is the 35 in ring's: under 3 ft, no recreational-fire caution (IFC §202).

@@ -10,7 +10,10 @@ test("a typical 3-course, 14-unit pit with 12 cut caps and a steel ring takes 8�
   const { labour } = computePlan(TYPICAL_PIT);
   expect(labour.hours).toBeGreaterThanOrEqual(8);
   expect(labour.hours).toBeLessThanOrEqual(14);
-  expect(labour.hours).toBeCloseTo(labour.tasks.reduce((sum, t) => sum + t.hours, 0), 9);
+  expect(labour.hours).toBeCloseTo(
+    labour.tasks.reduce((sum, t) => sum + t.hours, 0),
+    9,
+  );
 });
 
 test("with illustrative prices the typical pit is quoted within the very rough $1,500–4,500 installed range (mid-2020s US, from memory)", () => {
@@ -20,8 +23,19 @@ test("with illustrative prices the typical pit is quoted within the very rough $
   expect(price?.highCents).toBeLessThanOrEqual(450_000);
 });
 
-const line = (key: MaterialLine["key"], item: string, quantity: number, unit: MaterialLine["unit"] = "each"): MaterialLine => ({ key, item, quantity, unit });
-const priced = (item: string, quantity: number, unit: MaterialLine["unit"], unitPriceCents: number, totalCents: number) => ({ item, quantity, unit, unitPriceCents, totalCents });
+const line = (
+  key: MaterialLine["key"],
+  item: string,
+  quantity: number,
+  unit: MaterialLine["unit"] = "each",
+): MaterialLine => ({ key, item, quantity, unit });
+const priced = (
+  item: string,
+  quantity: number,
+  unit: MaterialLine["unit"],
+  unitPriceCents: number,
+  totalCents: number,
+) => ({ item, quantity, unit, unitPriceCents, totalCents });
 
 /*
  * Three jobs priced by hand. Every amount is integer cents, rounded to the nearest cent (halves up)
@@ -184,7 +198,12 @@ test("job C, by hand: 30 % markup, sales tax on the price (a half cent rounds up
     factors,
   });
   const b = price!.breakdown;
-  expect({ materials: b.materialsCents, materialsTax: b.materialsTaxCents, labour: b.labourCents, direct: b.directCents }).toEqual({
+  expect({
+    materials: b.materialsCents,
+    materialsTax: b.materialsTaxCents,
+    labour: b.labourCents,
+    direct: b.directCents,
+  }).toEqual({
     materials: 52_720,
     materialsTax: 0,
     labour: 57_000,
@@ -196,13 +215,24 @@ test("job C, by hand: 30 % markup, sales tax on the price (a half cent rounds up
     profit: 36_866,
     work: 159_752,
   });
-  expect({ markup: b.markupPct, margin: b.marginPct, costRate: b.labourCostRateCents, billedRate: b.labourBilledRateCents }).toEqual({
+  expect({
+    markup: b.markupPct,
+    margin: b.marginPct,
+    costRate: b.labourCostRateCents,
+    billedRate: b.labourBilledRateCents,
+  }).toEqual({
     markup: 30,
     margin: 23.08,
     costRate: 6000,
     billedRate: 8736,
   });
-  expect({ permit: b.permitCents, tax: b.salesTaxCents, total: b.totalCents, low: b.lowCents, high: b.highCents }).toEqual({
+  expect({
+    permit: b.permitCents,
+    tax: b.salesTaxCents,
+    total: b.totalCents,
+    low: b.lowCents,
+    high: b.highCents,
+  }).toEqual({
     permit: 15_000,
     tax: 9985,
     total: 184_737,
@@ -214,8 +244,18 @@ test("job C, by hand: 30 % markup, sales tax on the price (a half cent rounds up
 
 test("a 25 % markup on cost and a 20 % margin of price give the same price (margin = markup ÷ (1 + markup); accounting definitions, common practice)", () => {
   const materials = [line("wall-unit", "Wall units", 40)];
-  const markup = priceJob({ materials, unitPrices: { "wall-unit": 1000 }, labourHours: 8, factors: { ...DEFAULT_FACTORS, profitBasis: "markup", profitPct: 25 } })!;
-  const margin = priceJob({ materials, unitPrices: { "wall-unit": 1000 }, labourHours: 8, factors: { ...DEFAULT_FACTORS, profitBasis: "margin", profitPct: 20 } })!;
+  const markup = priceJob({
+    materials,
+    unitPrices: { "wall-unit": 1000 },
+    labourHours: 8,
+    factors: { ...DEFAULT_FACTORS, profitBasis: "markup", profitPct: 25 },
+  })!;
+  const margin = priceJob({
+    materials,
+    unitPrices: { "wall-unit": 1000 },
+    labourHours: 8,
+    factors: { ...DEFAULT_FACTORS, profitBasis: "margin", profitPct: 20 },
+  })!;
   // 40 × $10 + 8 h × $75 = $1,000; overhead 15 % → cost $1,150; + 25 % = $1,437.50; $1,150 ÷ 0.8 = $1,437.50.
   expect(markup.breakdown.totalCents).toBe(143_750);
   expect(margin.breakdown.totalCents).toBe(143_750);
@@ -231,7 +271,12 @@ test("a 22 % margin is 22 % of the price, not a 22 % markup that comes to 18 % o
   expect(breakdown.workPriceCents).toBe(96_154);
   expect(breakdown.marginPct).toBe(22);
   // The same 22 % taken as a markup: 750 × 0.22 = $165.00 of $915.00, 18.03 % of the price.
-  const asMarkup = priceJob({ materials: [], unitPrices: {}, labourHours: 10, factors: { ...factors, profitBasis: "markup" } })!.breakdown;
+  const asMarkup = priceJob({
+    materials: [],
+    unitPrices: {},
+    labourHours: 10,
+    factors: { ...factors, profitBasis: "markup" },
+  })!.breakdown;
   expect([asMarkup.profitCents, asMarkup.marginPct]).toEqual([16_500, 18.03]);
 });
 
@@ -254,7 +299,14 @@ test("a billed labour rate comes to that rate per hour in the price of the work,
       fc.constantFrom<ProfitBasis>("markup", "margin"),
       fc.double({ min: 0, max: 60, noNaN: true }),
       (rate, hours, overheadPct, profitBasis, profitPct) => {
-        const factors: CompanyFactors = { ...DEFAULT_FACTORS, labourRateBasis: "billed", labourRateCentsPerHour: rate, overheadPct, profitBasis, profitPct };
+        const factors: CompanyFactors = {
+          ...DEFAULT_FACTORS,
+          labourRateBasis: "billed",
+          labourRateCentsPerHour: rate,
+          overheadPct,
+          profitBasis,
+          profitPct,
+        };
         const { breakdown } = priceJob({ materials: [], unitPrices: {}, labourHours: hours, factors })!;
         // With labour the only cost, the price of the work is the labour as billed, but for three roundings of
         // ≤ ½ cent each: labour at cost (carried through overhead ≤ 1.5 and a margin's 1 ÷ (1 − 0.6) = 2.5),
@@ -270,12 +322,16 @@ test("no price is given when any needed price is missing", () => {
   expect(computePlan(TYPICAL_PIT).price).toBeNull();
   const noCapPrice = { ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, priceCents: undefined } };
   expect(computePlan(noCapPrice, { supplyPrices: SUPPLY_PRICES }).price).toBeNull();
-  expect(computePlan(TYPICAL_PIT, { supplyPrices: { ...SUPPLY_PRICES, adhesivePerCartridgeCents: null } }).price).toBeNull();
+  expect(
+    computePlan(TYPICAL_PIT, { supplyPrices: { ...SUPPLY_PRICES, adhesivePerCartridgeCents: null } }).price,
+  ).toBeNull();
 });
 
 test("a patio job is priced only with the patio's own supplies priced too", () => {
   const withPatio = { ...TYPICAL_PIT, patio: PATIO };
-  expect(computePlan(withPatio, { supplyPrices: { ...SUPPLY_PRICES, jointSandPerBagCents: undefined } }).price).toBeNull();
+  expect(
+    computePlan(withPatio, { supplyPrices: { ...SUPPLY_PRICES, jointSandPerBagCents: undefined } }).price,
+  ).toBeNull();
   expect(computePlan(withPatio, { supplyPrices: SUPPLY_PRICES }).price).not.toBeNull();
 });
 
@@ -307,12 +363,27 @@ test("prices are whole cents and low ≤ total ≤ high for any rates and job (p
       fc.integer({ min: 0, max: 50_000 }),
       (unitCount, courses, factors, unitPriceCents) => {
         const plan = computePlan(
-          { ...TYPICAL_PIT, ring: { unitCount }, courses, wallUnit: { ...TYPICAL_PIT.wallUnit, priceCents: unitPriceCents } },
+          {
+            ...TYPICAL_PIT,
+            ring: { unitCount },
+            courses,
+            wallUnit: { ...TYPICAL_PIT.wallUnit, priceCents: unitPriceCents },
+          },
           { factors, supplyPrices: SUPPLY_PRICES },
         );
         const price = plan.price!;
         const { breakdown } = price;
-        for (const cents of [price.lowCents, price.highCents, breakdown.materialsCents, breakdown.labourCents, breakdown.overheadCents, breakdown.profitCents, breakdown.salesTaxCents, breakdown.materialsTaxCents, breakdown.totalCents]) {
+        for (const cents of [
+          price.lowCents,
+          price.highCents,
+          breakdown.materialsCents,
+          breakdown.labourCents,
+          breakdown.overheadCents,
+          breakdown.profitCents,
+          breakdown.salesTaxCents,
+          breakdown.materialsTaxCents,
+          breakdown.totalCents,
+        ]) {
           expect(Number.isInteger(cents)).toBe(true);
         }
         for (const line of breakdown.lines) expect(Number.isInteger(line.totalCents)).toBe(true);
@@ -328,9 +399,15 @@ test("prices are whole cents and low ≤ total ≤ high for any rates and job (p
 test("a line without a usable unit price leaves the job unpriced: missing, null, not a number or endless", () => {
   const materials = [line("wall-unit", "Wall units", 10)];
   for (const price of [undefined, null, Number.NaN, Number.POSITIVE_INFINITY]) {
-    expect(priceJob({ materials, unitPrices: { "wall-unit": price }, labourHours: 1, factors: DEFAULT_FACTORS }), String(price)).toBeNull();
+    expect(
+      priceJob({ materials, unitPrices: { "wall-unit": price }, labourHours: 1, factors: DEFAULT_FACTORS }),
+      String(price),
+    ).toBeNull();
   }
-  expect(priceJob({ materials, unitPrices: { "wall-unit": 0 }, labourHours: 1, factors: DEFAULT_FACTORS })?.breakdown.materialsCents).toBe(0);
+  expect(
+    priceJob({ materials, unitPrices: { "wall-unit": 0 }, labourHours: 1, factors: DEFAULT_FACTORS })?.breakdown
+      .materialsCents,
+  ).toBe(0);
 });
 
 test("a job that costs nothing shows 0 % markup and margin, not a division by zero", () => {

@@ -1,5 +1,12 @@
 import { expect, test } from "vitest";
-import { basePriceCents, changeOrderDeltaCents, chooseAddOns, depositCents, jobTotals, proposalTotalCents } from "~/domain/proposal-money";
+import {
+  basePriceCents,
+  changeOrderDeltaCents,
+  chooseAddOns,
+  depositCents,
+  jobTotals,
+  proposalTotalCents,
+} from "~/domain/proposal-money";
 
 // A proposal's money in integer cents, worked by hand. Rounding half up to the cent is the usual
 // commercial rule (common practice, no source).
@@ -22,7 +29,9 @@ test("add-ons come back in the proposal's order whatever order they were ticked 
 });
 
 test("an add-on the proposal does not offer is refused by name", () => {
-  expect(() => chooseAddOns(OFFERED, ["screen", "hot-tub", "pool"])).toThrow(new RangeError("Not an add-on of this proposal: hot-tub, pool"));
+  expect(() => chooseAddOns(OFFERED, ["screen", "hot-tub", "pool"])).toThrow(
+    new RangeError("Not an add-on of this proposal: hot-tub, pool"),
+  );
 });
 
 test("a 30 % deposit rounds half up to the cent: 30 % of $123.45 is $37.035 → $37.04; of $5,689.50 it is $1,706.85", () => {
@@ -41,6 +50,14 @@ test("a fixed deposit is that sum, never more than the total and never below not
 test("change orders move the contract and the balance, never the deposit: $5,689.50 signed, $1,706.85 down, +$450 and −$189 → $5,950.50, balance $4,243.65", () => {
   expect(changeOrderDeltaCents(568_950, 613_950)).toBe(45_000);
   expect(changeOrderDeltaCents(613_950, 595_050)).toBe(-18_900);
-  expect(jobTotals({ totalCents: 568_950, depositCents: 170_685 }, [45_000, -18_900])).toEqual({ contractCents: 595_050, depositCents: 170_685, balanceCents: 424_365 });
-  expect(jobTotals({ totalCents: 100_000, depositCents: 30_000 }, [-80_000])).toEqual({ contractCents: 20_000, depositCents: 30_000, balanceCents: -10_000 });
+  expect(jobTotals({ totalCents: 568_950, depositCents: 170_685 }, [45_000, -18_900])).toEqual({
+    contractCents: 595_050,
+    depositCents: 170_685,
+    balanceCents: 424_365,
+  });
+  expect(jobTotals({ totalCents: 100_000, depositCents: 30_000 }, [-80_000])).toEqual({
+    contractCents: 20_000,
+    depositCents: 30_000,
+    balanceCents: -10_000,
+  });
 });

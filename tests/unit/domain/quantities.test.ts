@@ -100,7 +100,12 @@ test("an exact-bowl ring orders its closure units as whole units", () => {
 
 test("an unpriced refractory mortar and sand are named and left out, as the other sundries are; the job is still priced", () => {
   const plan = computePlan(
-    { ...TYPICAL_PIT, ring: { bowlDiameterIn: 40, fit: "exact" }, courses: 4, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310 } },
+    {
+      ...TYPICAL_PIT,
+      ring: { bowlDiameterIn: 40, fit: "exact" },
+      courses: 4,
+      liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5, priceCents: 310 },
+    },
     { supplyPrices: SUPPLY_PRICES },
   );
   expect(plan.price).not.toBeNull();
@@ -111,7 +116,10 @@ test("glue notes say which layers: the top 2 courses without caps (2 × 14 × 10
   const twoCourses = computePlan({ ...TYPICAL_PIT, cap: null }, { factors: { gluedCourses: 2 } });
   expect(twoCourses.materials.find((m) => m.key === "adhesive")?.note).toBe("top 2 courses: 560 in of bead");
   const capsOnly = computePlan(TYPICAL_PIT, { factors: { gluedCourses: 0 } });
-  expect(capsOnly.materials.find((m) => m.key === "adhesive")).toMatchObject({ quantity: 2, note: "caps: 280 in of bead" });
+  expect(capsOnly.materials.find((m) => m.key === "adhesive")).toMatchObject({
+    quantity: 2,
+    note: "caps: 280 in of bead",
+  });
   const topOnly = computePlan({ ...TYPICAL_PIT, cap: null });
   expect(topOnly.materials.find((m) => m.key === "adhesive")?.note).toBe("top course: 280 in of bead");
 });
@@ -139,19 +147,39 @@ test("back-trimmed units lay less bead: an exact 30 in bowl glues 487.5 in (work
 test("a steel ring on the floor: the fill is the gap round it, (1068.7 − π·17.5²) in² × 11 in = 1172.5 in³ = 0.68 ft³, two 1/2 ft³ bags (regular-polygon area; NIST SP 811)", () => {
   // Lined 12 − 1/8 = 11.875 in; an 11 in ring sits 0.875 in under it, within the 1 in raise limit: no bed.
   const plan = computePlan({ ...TYPICAL_PIT, liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: 11 } });
-  expect(plan.materials.find((m) => m.key === "fill")).toEqual({ key: "fill", item: "Pea gravel", quantity: 2, unit: "bag", note: "0.7 ft³ between the ring and the wall" });
+  expect(plan.materials.find((m) => m.key === "fill")).toEqual({
+    key: "fill",
+    item: "Pea gravel",
+    quantity: 2,
+    unit: "bag",
+    note: "0.7 ft³ between the ring and the wall",
+  });
 });
 
 test("the order's rounding at exact multiples and its edges, from given liner figures: 2 ft³ is 4 bags of 1/2 ft³, 346.5 in³ of mortar is 3 pails at 50 % of 231 in³, no fill line for no fill, no rip note without a rip", () => {
   const plan = computePlan(TYPICAL_PIT);
   const factors = resolveFactors();
   const order = (liner: Parameters<typeof listMaterials>[0]["liner"]) =>
-    listMaterials({ ring: plan.ring, wallUnit: TYPICAL_PIT.wallUnit, caps: plan.caps, liner, patio: null, base: plan.base, adhesive: plan.adhesive, factors });
+    listMaterials({
+      ring: plan.ring,
+      wallUnit: TYPICAL_PIT.wallUnit,
+      caps: plan.caps,
+      liner,
+      patio: null,
+      base: plan.base,
+      adhesive: plan.adhesive,
+      factors,
+    });
   const ring = planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5 });
   expect(order({ ...ring, fillFt3: 2 }).find((m) => m.key === "fill")?.quantity).toBe(4);
   expect(order({ ...ring, fillFt3: 0 }).some((m) => m.key === "fill")).toBe(false);
   // 9.125 in lined: two whole rows of 4 1/2 + 1/16 in and nothing left to rip; 12 a row in a 40 in bowl.
-  const bricks = planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 9.125, brick: { lengthIn: 9, widthIn: 4.5, heightIn: 2.5 }, jointIn: 1 / 16 });
+  const bricks = planFirebrick({
+    bowlDiameterIn: 40,
+    linedHeightIn: 9.125,
+    brick: { lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+    jointIn: 1 / 16,
+  });
   const lines = order({ ...bricks, mortarIn3: 346.5 });
   expect(lines.find((m) => m.key === "firebrick")?.note).toBe("2 rows of 12 on edge, plus 2 spare");
   expect(lines.find((m) => m.key === "refractory-mortar")?.quantity).toBe(3);

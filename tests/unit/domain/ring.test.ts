@@ -95,7 +95,9 @@ test("asking for at least a 36 in bowl gives 14 units (36.575 in); nearest to 34
 });
 
 test("a bowl target no ring can reach is refused on ring.bowlDiameterIn", () => {
-  const error = thrown(() => planRing({ target: { bowlDiameterIn: 5000, fit: "at-least" }, wallUnit: UNIT, courses: 1 }));
+  const error = thrown(() =>
+    planRing({ target: { bowlDiameterIn: 5000, fit: "at-least" }, wallUnit: UNIT, courses: 1 }),
+  );
   expect(error.path).toBe("ring.bowlDiameterIn");
   expect(error.message).toMatch(/No ring of these units reaches/);
 });
@@ -136,7 +138,11 @@ test("an exact 30 in bowl, tighter than ID* = 32 in, trims every back corner (de
 });
 
 test("an exact bowl equal to a whole ring's bowl needs no closure unit", () => {
-  const plan = planRing({ target: { bowlDiameterIn: bowlDiameterForCount(UNIT, 14), fit: "exact" }, wallUnit: UNIT, courses: 1 });
+  const plan = planRing({
+    target: { bowlDiameterIn: bowlDiameterForCount(UNIT, 14), fit: "exact" },
+    wallUnit: UNIT,
+    courses: 1,
+  });
   expect(plan.closure).toBeNull();
   expect(plan.unitCount).toBe(14);
 });
@@ -157,7 +163,10 @@ test("whole-unit rings laid out with flatten-js never overlap; face corners meet
     expect(overlapArea(first, second)).toBeLessThan(1e-9);
     expect(gapBetween(first, second)).toBeLessThan(1e-9);
     // The corners that touch sit on the bisector between the two units.
-    const touchingRadius = plan.limitedBy === "face" ? Math.hypot(a + wallUnit.depthIn, wallUnit.faceIn / 2) : Math.hypot(a, wallUnit.backIn / 2);
+    const touchingRadius =
+      plan.limitedBy === "face"
+        ? Math.hypot(a + wallUnit.depthIn, wallUnit.faceIn / 2)
+        : Math.hypot(a, wallUnit.backIn / 2);
     const corner = { x: touchingRadius * Math.cos(step / 2), y: touchingRadius * Math.sin(step / 2) };
     const onFirst = first.vertices.some((v) => Math.hypot(v.x - corner.x, v.y - corner.y) < 1e-9);
     const onSecond = second.vertices.some((v) => Math.hypot(v.x - corner.x, v.y - corner.y) < 1e-9);
@@ -204,7 +213,11 @@ test("an exact-bowl course laid out with flatten-js closes the circle without ov
 test("the bowl grows with every unit added, from 3 to 200 units (property, derived here from the formulas)", () => {
   fc.assert(
     fc.property(
-      fc.record({ faceIn: fc.double({ min: 4, max: 24, noNaN: true }), taper: fc.double({ min: 0, max: 1, noNaN: true }), depthIn: fc.double({ min: 2, max: 16, noNaN: true }) }),
+      fc.record({
+        faceIn: fc.double({ min: 4, max: 24, noNaN: true }),
+        taper: fc.double({ min: 0, max: 1, noNaN: true }),
+        depthIn: fc.double({ min: 2, max: 16, noNaN: true }),
+      }),
       fc.integer({ min: 3, max: 199 }),
       ({ faceIn, taper, depthIn }, n) => {
         const unit = { faceIn, backIn: faceIn * (0.3 + 0.7 * taper), depthIn, heightIn: 4 };
@@ -255,7 +268,8 @@ test("an exact bowl's whole units and closures always add up to 360° with closu
       expect(plan.bowlDiameterIn).toBe(bowlDiameterIn);
       if (plan.closure) {
         // A single closure is at least half a unit at the face; split closures at least half a unit's angle.
-        if (plan.closure.countPerCourse === 1) expect(plan.closure.faceWidthIn).toBeGreaterThanOrEqual(wallUnit.faceIn / 2 - 1e-9);
+        if (plan.closure.countPerCourse === 1)
+          expect(plan.closure.faceWidthIn).toBeGreaterThanOrEqual(wallUnit.faceIn / 2 - 1e-9);
         expect(plan.closure.angleDeg).toBeGreaterThanOrEqual(plan.unitAngleDeg / 2 - 1e-9);
         expect(plan.closure.faceWidthIn).toBeLessThanOrEqual(wallUnit.faceIn + 1e-9);
         expect(plan.closure.backWidthIn).toBeLessThanOrEqual(wallUnit.backIn + 1e-9);
@@ -274,35 +288,67 @@ test("a bad wall unit, course count or unit count is refused with the field and 
     const error = thrown(fn);
     return [error.path, error.message];
   };
-  expect(refused(() => ring(12, { ...UNIT, faceIn: 0 }))).toEqual(["wallUnit.faceIn", "The wall unit's face length must be a length above 0 in."]);
-  expect(refused(() => ring(12, { ...UNIT, backIn: Number.NaN }))).toEqual(["wallUnit.backIn", "The wall unit's back length must be a length above 0 in."]);
-  expect(refused(() => ring(12, { ...UNIT, depthIn: -8 }))).toEqual(["wallUnit.depthIn", "The wall unit's depth must be a length above 0 in."]);
-  expect(refused(() => ring(12, { ...UNIT, heightIn: Infinity }))).toEqual(["wallUnit.heightIn", "The wall unit's height must be a length above 0 in."]);
-  expect(refused(() => ring(12, { ...UNIT, backIn: 13 }))).toEqual(["wallUnit.backIn", "The back (13 in) cannot be longer than the face (12 in): the narrow end faces the fire."]);
+  expect(refused(() => ring(12, { ...UNIT, faceIn: 0 }))).toEqual([
+    "wallUnit.faceIn",
+    "The wall unit's face length must be a length above 0 in.",
+  ]);
+  expect(refused(() => ring(12, { ...UNIT, backIn: Number.NaN }))).toEqual([
+    "wallUnit.backIn",
+    "The wall unit's back length must be a length above 0 in.",
+  ]);
+  expect(refused(() => ring(12, { ...UNIT, depthIn: -8 }))).toEqual([
+    "wallUnit.depthIn",
+    "The wall unit's depth must be a length above 0 in.",
+  ]);
+  expect(refused(() => ring(12, { ...UNIT, heightIn: Infinity }))).toEqual([
+    "wallUnit.heightIn",
+    "The wall unit's height must be a length above 0 in.",
+  ]);
+  expect(refused(() => ring(12, { ...UNIT, backIn: 13 }))).toEqual([
+    "wallUnit.backIn",
+    "The back (13 in) cannot be longer than the face (12 in): the narrow end faces the fire.",
+  ]);
   expect(ring(12, { ...UNIT, backIn: 12 }).limitedBy).toBe("back");
   const courses = "Courses must be a whole number from 1 to 12.";
-  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 0 }))).toEqual(["courses", courses]);
-  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 2.5 }))).toEqual(["courses", courses]);
+  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 0 }))).toEqual([
+    "courses",
+    courses,
+  ]);
+  expect(refused(() => planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 2.5 }))).toEqual([
+    "courses",
+    courses,
+  ]);
   expect(planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 12 }).courses).toBe(12);
   expect(planRing({ target: { unitCount: 12 }, wallUnit: UNIT, courses: 1 }).bondOffsetIn).toBeNull();
   expect(refused(() => ring(2))).toEqual(["ring.unitCount", "Units per course must be a whole number from 3 to 200."]);
   expect([ring(3).unitCount, ring(200).unitCount]).toEqual([3, 200]);
   for (const bowlDiameterIn of [0, -5, Number.NaN]) {
-    expect(refused(() => planRing({ target: { bowlDiameterIn, fit: "nearest" }, wallUnit: UNIT, courses: 1 }))).toEqual(["ring.bowlDiameterIn", "The bowl diameter must be a length above 0 in."]);
+    expect(refused(() => planRing({ target: { bowlDiameterIn, fit: "nearest" }, wallUnit: UNIT, courses: 1 }))).toEqual(
+      ["ring.bowlDiameterIn", "The bowl diameter must be a length above 0 in."],
+    );
   }
 });
 
 test("the largest ring of 12/8/8 units is 200 a course, a 12/tan(0.9°) − 16 = 747.88 in bowl: past it a whole ring is refused, and an exact bowl needing more than 200 units too (regular-polygon apothem)", () => {
-  expect(thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "at-least" }, wallUnit: UNIT, courses: 1 })).message).toBe("No ring of these units reaches a 760 in bowl: even 200 units a course make only 747 7/8 in.");
-  expect(planRing({ target: { bowlDiameterIn: 747, fit: "at-least" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(200);
+  expect(
+    thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "at-least" }, wallUnit: UNIT, courses: 1 })).message,
+  ).toBe("No ring of these units reaches a 760 in bowl: even 200 units a course make only 747 7/8 in.");
+  expect(planRing({ target: { bowlDiameterIn: 747, fit: "at-least" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(
+    200,
+  );
   // Exact 760 in: each unit spans 2·atan(6/388) = 1.772°, so 203 would be needed.
-  expect(thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "exact" }, wallUnit: UNIT, courses: 1 })).message).toBe("A 760 in bowl needs more than 200 of these units a course.");
+  expect(
+    thrown(() => planRing({ target: { bowlDiameterIn: 760, fit: "exact" }, wallUnit: UNIT, courses: 1 })).message,
+  ).toBe("A 760 in bowl needs more than 200 of these units a course.");
 });
 
 test("an exact bowl too small for three pieces is refused: 100 in faces 1/2 in deep round a 1 in bowl span 2·atan(50) = 177.7° each, two close the circle to within a 0.08 in sliver", () => {
   const wide = { faceIn: 100, backIn: 1, depthIn: 0.5, heightIn: 4 };
   const error = thrown(() => planRing({ target: { bowlDiameterIn: 1, fit: "exact" }, wallUnit: wide, courses: 1 }));
-  expect([error.path, error.message]).toEqual(["ring.bowlDiameterIn", "A 1 in bowl is too small for these units: a ring needs at least 3 a course."]);
+  expect([error.path, error.message]).toEqual([
+    "ring.bowlDiameterIn",
+    "A 1 in bowl is too small for these units: a ring needs at least 3 a course.",
+  ]);
 });
 
 test("'nearest' to a tiny bowl is the smallest ring, 3 units; a target exactly between two rings takes the larger (the rule: a tie still clears a liner sized to the target)", () => {
@@ -311,10 +357,20 @@ test("'nearest' to a tiny bowl is the smallest ring, 3 units; a target exactly b
   const above = bowlDiameterForCount(UNIT, 14);
   const middle = (below + above) / 2;
   expect(middle - below).toBe(above - middle);
-  expect(planRing({ target: { bowlDiameterIn: middle, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(14);
-  expect(planRing({ target: { bowlDiameterIn: middle - 0.01, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(13);
+  expect(planRing({ target: { bowlDiameterIn: middle, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(
+    14,
+  );
+  expect(
+    planRing({ target: { bowlDiameterIn: middle - 0.01, fit: "nearest" }, wallUnit: UNIT, courses: 1 }).unitCount,
+  ).toBe(13);
   // A target equal to a whole ring's bowl, 12/tan(π/14) − 16 = 36.5754 in, is met by that ring.
-  expect(planRing({ target: { bowlDiameterIn: 12 / Math.tan(Math.PI / 14) - 16, fit: "at-least" }, wallUnit: UNIT, courses: 1 }).unitCount).toBe(14);
+  expect(
+    planRing({
+      target: { bowlDiameterIn: 12 / Math.tan(Math.PI / 14) - 16, fit: "at-least" },
+      wallUnit: UNIT,
+      courses: 1,
+    }).unitCount,
+  ).toBe(14);
 });
 
 test("an exact 36.6 in bowl is a hair over the 14-unit ring: 14 units span 359.84°, the 0.075 in left is shared among the face joints, 2 × 26.3 × tan(0.0058°) = 0.0053 in each (derived here)", () => {

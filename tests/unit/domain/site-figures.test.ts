@@ -29,7 +29,8 @@ test("running bond beside closure units: turning alternate courses half a unit p
     expect(ring.bondOffsetIn!, `chosen at ${bowl} in`).toBeGreaterThanOrEqual(3);
     expect(ring.runningBondDeg).toBeCloseTo((findBondTurn(pieces) * 180) / Math.PI, 12);
     let best = 0;
-    for (let deg = 0; deg < 360; deg += 0.05) best = Math.max(best, measureBondOffset(pieces, (deg * Math.PI) / 180, d));
+    for (let deg = 0; deg < 360; deg += 0.05)
+      best = Math.max(best, measureBondOffset(pieces, (deg * Math.PI) / 180, d));
     expect(ring.bondOffsetIn!).toBeGreaterThanOrEqual(best - 1e-6);
   }
 });
@@ -41,7 +42,13 @@ test("a whole-unit ring keeps the usual half-unit bond: joints F/2 = 6 in from t
 });
 
 test("small units whose joints cannot sit 3 in apart are warned about: 5 in faces give 2 1/2 in (common practice, no source)", () => {
-  const plan = computePlan({ ...TYPICAL_PIT, wallUnit: { faceIn: 5, backIn: 3.5, depthIn: 4, heightIn: 3 }, ring: { unitCount: 30 }, cap: null, liner: { kind: "none" } });
+  const plan = computePlan({
+    ...TYPICAL_PIT,
+    wallUnit: { faceIn: 5, backIn: 3.5, depthIn: 4, heightIn: 3 },
+    ring: { unitCount: 30 },
+    cap: null,
+    liner: { kind: "none" },
+  });
   expect(plan.ring.bondOffsetIn).toBeCloseTo(2.5, 9);
   expect(codes(plan.warnings)).toContain("bond-offset-small");
   expect(codes(computePlan(TYPICAL_PIT).warnings)).not.toContain("bond-offset-small");
@@ -85,14 +92,20 @@ test("a cap whose outer edge clears the wall only at the middle warns that the c
 test("no mark falls under 1/4 in from a blank's corner, and marks are given from the centre line too (c/2 each side; common practice, no source)", () => {
   for (const innerOverhangIn of [0, 0.5, 1, 1.5, 2]) {
     for (const unitCount of [12, 13, 14, 15, 16, 18]) {
-      const caps = computePlan({ ...TYPICAL_PIT, ring: { unitCount }, cap: { ...TYPICAL_PIT.cap!, innerOverhangIn } }).caps!;
+      const caps = computePlan({
+        ...TYPICAL_PIT,
+        ring: { unitCount },
+        cap: { ...TYPICAL_PIT.cap!, innerOverhangIn },
+      }).caps!;
       expect(Math.min(caps.innerMarkIn, caps.outerMarkIn)).toBeGreaterThanOrEqual(0.25 - 1e-9);
       expect(caps.outerHalfWidthIn * 2 + 2 * caps.outerMarkIn).toBeCloseTo(caps.blankLengthIn, 9);
     }
   }
   // With the factory corner allowed (0 in), 11 caps fit where the 1/4 in rule asks for 12.
   const ripped = { ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, outerOverhangIn: 1 } };
-  expect(computePlan(ripped, { factors: { minMarkFromCornerIn: 0, capMatchMaxExtraOffcutPct: 0 } }).caps!.count).toBe(11);
+  expect(computePlan(ripped, { factors: { minMarkFromCornerIn: 0, capMatchMaxExtraOffcutPct: 0 } }).caps!.count).toBe(
+    11,
+  );
   expect(computePlan(ripped, { factors: { capMatchMaxExtraOffcutPct: 0 } }).caps!.count).toBe(12);
 });
 
@@ -100,16 +113,30 @@ test("saw time per cut follows the depth cut: one pass to 5 in, two past a 14 in
   expect(timeSawCut(8, 4, DEFAULT_FACTORS)).toEqual({ passes: 1, minutes: 0.5 + 32 / 40 });
   expect(timeSawCut(9, 6, DEFAULT_FACTORS)).toEqual({ passes: 2, minutes: 1 + 54 / 40 });
   // 28 in exact bowl of 12/8/8/4 units, 3 courses: backs trimmed on every whole unit.
-  const plan = computePlan({ ...TYPICAL_PIT, cap: null, liner: { kind: "none" }, ring: { bowlDiameterIn: 30, fit: "exact" } });
+  const plan = computePlan({
+    ...TYPICAL_PIT,
+    cap: null,
+    liner: { kind: "none" },
+    ring: { bowlDiameterIn: 30, fit: "exact" },
+  });
   const trims = plan.labour.sawGroups.find((g) => g.what === "back trims")!;
   expect(trims.count).toBe(2 * plan.ring.unitCount * 3);
   expect(trims.count * trims.minutesEach).toBeLessThan(120);
-  const grand = computePlan({ ...TYPICAL_PIT, cap: null, liner: { kind: "none" }, wallUnit: { faceIn: 12, backIn: 8.75, depthIn: 9, heightIn: 6 }, ring: { bowlDiameterIn: 40, fit: "exact" } });
+  const grand = computePlan({
+    ...TYPICAL_PIT,
+    cap: null,
+    liner: { kind: "none" },
+    wallUnit: { faceIn: 12, backIn: 8.75, depthIn: 9, heightIn: 6 },
+    ring: { bowlDiameterIn: 40, fit: "exact" },
+  });
   expect(grand.labour.sawGroups.find((g) => g.what === "closure cuts")?.passes).toBe(2);
 });
 
 test("adhesive: only the courses the company glues, caps when glued, a cartridge never giving its whole 165 in, and a heat-rated adhesive (common practice, no source)", () => {
-  const plan = computePlan({ ...TYPICAL_PIT, courses: 4 }, { factors: { gluedCourses: 3, glueCaps: 0, adhesiveYieldPct: 80 } });
+  const plan = computePlan(
+    { ...TYPICAL_PIT, courses: 4 },
+    { factors: { gluedCourses: 3, glueCaps: 0, adhesiveYieldPct: 80 } },
+  );
   // 3 glued courses × 14 × 10 in × 2 beads = 840 in ÷ (165 × 0.8 = 132) = 6.36 → 7.
   expect(plan.adhesive).toMatchObject({ gluedCourses: 3, gluedCaps: false, beadIn: 840, cartridges: 7 });
   expect(plan.materials.find((m) => m.key === "adhesive")?.item).toMatch(/Heat-rated/);
@@ -142,7 +169,11 @@ test("supplies the company has not priced are left out of the price and named, n
 });
 
 test("a small bowl is judged by the opening inside its lining: 12 firebricks in a 34 in bowl leave 28 5/8 in (common practice, no source)", () => {
-  const plan = computePlan({ ...TYPICAL_PIT, ring: { bowlDiameterIn: 34, fit: "exact" }, liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 } });
+  const plan = computePlan({
+    ...TYPICAL_PIT,
+    ring: { bowlDiameterIn: 34, fit: "exact" },
+    liner: { kind: "firebrick", lengthIn: 9, widthIn: 4.5, heightIn: 2.5 },
+  });
   expect(plan.ring.bowlDiameterIn).toBeGreaterThan(30);
   expect(plan.fireOpeningIn).toBeLessThan(30);
   expect(codes(plan.warnings)).toContain("bowl-small");
@@ -155,7 +186,10 @@ test("a bowl over 3 ft across is flagged: a recreational fire is at most 3 ft ac
 });
 
 test("the structure, the property line and overhanging branches are each checked against the company's own distance (IFC §307.4.2 for structures; local ordinances)", () => {
-  const plan = computePlan({ ...TYPICAL_PIT, site: { setbackFt: 30, propertyLineFt: 6, branchesFt: 8 } }, { factors: { requiredPropertyLineFt: 10, requiredBranchClearanceFt: 10 } });
+  const plan = computePlan(
+    { ...TYPICAL_PIT, site: { setbackFt: 30, propertyLineFt: 6, branchesFt: 8 } },
+    { factors: { requiredPropertyLineFt: 10, requiredBranchClearanceFt: 10 } },
+  );
   expect(codes(plan.cautions)).toEqual(expect.arrayContaining(["property-line-too-close", "branches-too-close"]));
   expect(codes(plan.cautions)).not.toContain("setback-too-close");
   const fine = computePlan({ ...TYPICAL_PIT, site: { setbackFt: 30, propertyLineFt: 12, branchesFt: 15 } });

@@ -1,5 +1,14 @@
 import { describe, expect, test } from "vitest";
-import { checkCombine, deliveredWeight, findCombinable, isoWeekOf, moveSupplierOrder, roundOrderLine, type OrderTerms, type PlanLine } from "~/domain/supplier-order";
+import {
+  checkCombine,
+  deliveredWeight,
+  findCombinable,
+  isoWeekOf,
+  moveSupplierOrder,
+  roundOrderLine,
+  type OrderTerms,
+  type PlanLine,
+} from "~/domain/supplier-order";
 
 /*
  * Rounding a material order to how yards sell, each example worked by hand in its comment.
@@ -9,8 +18,17 @@ import { checkCombine, deliveredWeight, findCombinable, isoWeekOf, moveSupplierO
  */
 
 const wallUnits = (quantity: number): PlanLine => ({ key: "wall-unit", item: "Taper unit", quantity, unit: "each" });
-const tons = (key: PlanLine["key"], quantity: number): PlanLine => ({ key, item: key === "aggregate" ? "Base aggregate" : "Bedding sand", quantity, unit: "ton" });
-const pallet = (per: number, lb: number | null): OrderTerms => ({ orderUnit: "pallet", unitsPerOrderUnit: per, orderUnitWeightLb: lb });
+const tons = (key: PlanLine["key"], quantity: number): PlanLine => ({
+  key,
+  item: key === "aggregate" ? "Base aggregate" : "Bedding sand",
+  quantity,
+  unit: "ton",
+});
+const pallet = (per: number, lb: number | null): OrderTerms => ({
+  orderUnit: "pallet",
+  unitsPerOrderUnit: per,
+  orderUnitWeightLb: lb,
+});
 
 function rounded(line: PlanLine, terms: OrderTerms, density: number | null = null) {
   const result = roundOrderLine(line, terms, density);
@@ -21,11 +39,21 @@ function rounded(line: PlanLine, terms: OrderTerms, density: number | null = nul
 describe("counted items in whole packs", () => {
   test("62 wall units (spares included) on pallets of 72 at 3,200 lb: 62 ÷ 72 = 0.86 → 1 pallet, 72 units, 3,200 lb", () => {
     const line = rounded(wallUnits(62), pallet(72, 3200));
-    expect(line).toMatchObject({ orderQuantity: 1, orderUnit: "pallet", suppliedQuantity: 72, weightLb: 3200, planQuantity: 62 });
+    expect(line).toMatchObject({
+      orderQuantity: 1,
+      orderUnit: "pallet",
+      suppliedQuantity: 72,
+      weightLb: 3200,
+      planQuantity: 62,
+    });
   });
 
   test("145 units on pallets of 72: 145 ÷ 72 = 2.01 → 3 pallets (216 units), 3 × 3,200 = 9,600 lb", () => {
-    expect(rounded(wallUnits(145), pallet(72, 3200))).toMatchObject({ orderQuantity: 3, suppliedQuantity: 216, weightLb: 9600 });
+    expect(rounded(wallUnits(145), pallet(72, 3200))).toMatchObject({
+      orderQuantity: 3,
+      suppliedQuantity: 216,
+      weightLb: 9600,
+    });
   });
 
   test("exactly 144 units on pallets of 72 is 2 pallets, not 3 (144 ÷ 72 = 2)", () => {
@@ -33,37 +61,66 @@ describe("counted items in whole packs", () => {
   });
 
   test("230 pavers in cubes of 120: 230 ÷ 120 = 1.92 → 2 cubes (240 pavers); 2 × 2,650 lb = 5,300 lb", () => {
-    const line = rounded({ key: "paver", item: "Paver", quantity: 230, unit: "each" }, { orderUnit: "cube", unitsPerOrderUnit: 120, orderUnitWeightLb: 2650 });
+    const line = rounded(
+      { key: "paver", item: "Paver", quantity: 230, unit: "each" },
+      { orderUnit: "cube", unitsPerOrderUnit: 120, orderUnitWeightLb: 2650 },
+    );
     expect(line).toMatchObject({ orderQuantity: 2, orderUnit: "cube", suppliedQuantity: 240, weightLb: 5300 });
   });
 
   test("7 cartridges by the cartridge at 0.9 lb: 7, 7 × 0.9 = 6.3 lb; by the case of 12: 7 ÷ 12 → 1 case of 12", () => {
     const cartridges: PlanLine = { key: "adhesive", item: "Adhesive", quantity: 7, unit: "cartridge" };
-    expect(rounded(cartridges, { orderUnit: "cartridge", unitsPerOrderUnit: 1, orderUnitWeightLb: 0.9 })).toMatchObject({ orderQuantity: 7, suppliedQuantity: 7, weightLb: 6.3 });
-    expect(rounded(cartridges, { orderUnit: "case", unitsPerOrderUnit: 12, orderUnitWeightLb: 11 })).toMatchObject({ orderQuantity: 1, suppliedQuantity: 12, weightLb: 11 });
+    expect(rounded(cartridges, { orderUnit: "cartridge", unitsPerOrderUnit: 1, orderUnitWeightLb: 0.9 })).toMatchObject(
+      { orderQuantity: 7, suppliedQuantity: 7, weightLb: 6.3 },
+    );
+    expect(rounded(cartridges, { orderUnit: "case", unitsPerOrderUnit: 12, orderUnitWeightLb: 11 })).toMatchObject({
+      orderQuantity: 1,
+      suppliedQuantity: 12,
+      weightLb: 11,
+    });
   });
 
   test("a count sold each with no weight given keeps the count and an unknown weight", () => {
-    expect(rounded({ key: "steel-ring", item: "Ring", quantity: 1, unit: "each" }, { orderUnit: "each", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatchObject({ orderQuantity: 1, weightLb: null });
+    expect(
+      rounded(
+        { key: "steel-ring", item: "Ring", quantity: 1, unit: "each" },
+        { orderUnit: "each", unitsPerOrderUnit: 1, orderUnitWeightLb: null },
+      ),
+    ).toMatchObject({ orderQuantity: 1, weightLb: null });
   });
 });
 
 describe("bulk by weight or volume", () => {
   test("2.3 t of base sold in half tons: 2.3 ÷ 0.5 = 4.6 → 5 steps = 2.5 t, 2.5 × 2,000 = 5,000 lb", () => {
-    expect(rounded(tons("aggregate", 2.3), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null })).toMatchObject({ orderQuantity: 2.5, suppliedQuantity: 2.5, weightLb: 5000 });
+    expect(
+      rounded(tons("aggregate", 2.3), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }),
+    ).toMatchObject({ orderQuantity: 2.5, suppliedQuantity: 2.5, weightLb: 5000 });
   });
 
   test("2.0 t in half tons stays 2.0 t; 0.3 t in whole tons is 1 t (the yard's smallest sale)", () => {
-    expect(rounded(tons("aggregate", 2), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }).orderQuantity).toBe(2);
-    expect(rounded(tons("aggregate", 0.3), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null }).orderQuantity).toBe(1);
+    expect(
+      rounded(tons("aggregate", 2), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null })
+        .orderQuantity,
+    ).toBe(2);
+    expect(
+      rounded(tons("aggregate", 0.3), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null })
+        .orderQuantity,
+    ).toBe(1);
   });
 
   test("0.1 t × 3 of float noise (0.30000000000000004 t) in tenths stays 0.3 t, not 0.4", () => {
-    expect(rounded(tons("aggregate", 0.1 * 3), { orderUnit: "ton", unitsPerOrderUnit: 0.1, orderUnitWeightLb: null }).orderQuantity).toBe(0.3);
+    expect(
+      rounded(tons("aggregate", 0.1 * 3), { orderUnit: "ton", unitsPerOrderUnit: 0.1, orderUnitWeightLb: null })
+        .orderQuantity,
+    ).toBe(0.3);
   });
 
   test("2.3 t of crushed stone by the cubic yard at 1.4 t/yd³ (from memory): 2.3 ÷ 1.4 = 1.64 yd³ → 2 yd³ in half yards, which weigh 2 × 1.4 = 2.8 t = 5,600 lb", () => {
-    const line = rounded(tons("aggregate", 2.3), { orderUnit: "cubic-yard", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }, 1.4);
+    const line = rounded(
+      tons("aggregate", 2.3),
+      { orderUnit: "cubic-yard", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null },
+      1.4,
+    );
     expect(line).toMatchObject({ orderQuantity: 2, orderUnit: "cubic-yard", suppliedQuantity: 2.8, weightLb: 5600 });
     expect(line.working).toContain("1.64 yd³");
   });
@@ -71,7 +128,11 @@ describe("bulk by weight or volume", () => {
   test("0.4 t of bedding sand in 50 lb bags: 0.4 × 2,000 = 800 lb ÷ 50 = 16 bags exactly; 0.41 t: 820 ÷ 50 = 16.4 → 17 bags, 850 lb = 0.425 t", () => {
     const bags: OrderTerms = { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: 50 };
     expect(rounded(tons("bedding-sand", 0.4), bags)).toMatchObject({ orderQuantity: 16, weightLb: 800 });
-    expect(rounded(tons("bedding-sand", 0.41), bags)).toMatchObject({ orderQuantity: 17, weightLb: 850, suppliedQuantity: 0.425 });
+    expect(rounded(tons("bedding-sand", 0.41), bags)).toMatchObject({
+      orderQuantity: 17,
+      weightLb: 850,
+      suppliedQuantity: 0.425,
+    });
   });
 });
 
@@ -82,11 +143,17 @@ describe("terms that cannot round a line say why", () => {
   };
   test("tons on pallets, units by the ton, part units in a pallet, no step, no density, no bag weight", () => {
     expect(message(tons("aggregate", 2), pallet(40, 3000))).toMatch(/planned in tons .* choose ton, cubic yard or bag/);
-    expect(message(wallUnits(60), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatch(/is counted \(each\) but the catalog sells it by the ton/);
+    expect(message(wallUnits(60), { orderUnit: "ton", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatch(
+      /is counted \(each\) but the catalog sells it by the ton/,
+    );
     expect(message(wallUnits(60), pallet(72.5, 3200))).toMatch(/whole number/);
     expect(message(wallUnits(60), pallet(0, 3200))).toMatch(/more than 0/);
-    expect(message(tons("aggregate", 2), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null }, null)).toMatch(/no density/);
-    expect(message(tons("bedding-sand", 2), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toMatch(/weight of one bag/);
+    expect(
+      message(tons("aggregate", 2), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null }, null),
+    ).toMatch(/no density/);
+    expect(
+      message(tons("bedding-sand", 2), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: null }),
+    ).toMatch(/weight of one bag/);
   });
 });
 
@@ -94,7 +161,10 @@ test("delivered weight adds the known lines and names the unknown: 3,200 + 5,000
   const lines = [
     rounded(wallUnits(62), pallet(72, 3200)),
     rounded(tons("aggregate", 2.3), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }),
-    rounded({ key: "steel-ring", item: "Ring", quantity: 1, unit: "each" }, { orderUnit: "each", unitsPerOrderUnit: 1, orderUnitWeightLb: null }),
+    rounded(
+      { key: "steel-ring", item: "Ring", quantity: 1, unit: "each" },
+      { orderUnit: "each", unitsPerOrderUnit: 1, orderUnitWeightLb: null },
+    ),
   ];
   expect(deliveredWeight(lines)).toEqual({ weightLb: 8200, unknown: ["Ring"] });
 });
@@ -106,9 +176,18 @@ describe("states move forward only, one step at a time", () => {
     expect(moveSupplierOrder("confirmed", "deliver")).toEqual({ ok: true, to: "delivered" });
   });
   test("a second send, a confirm before sending, a delivery before confirming and discarding a sent order are refused in words", () => {
-    expect(moveSupplierOrder("sent", "send")).toEqual({ ok: false, message: "This order is sent; only a draft can be sent." });
-    expect(moveSupplierOrder("drafted", "confirm")).toEqual({ ok: false, message: "This order is a draft; only an order sent can be marked confirmed." });
-    expect(moveSupplierOrder("sent", "deliver")).toEqual({ ok: false, message: "This order is sent; only an order confirmed by the supplier can be marked delivered." });
+    expect(moveSupplierOrder("sent", "send")).toEqual({
+      ok: false,
+      message: "This order is sent; only a draft can be sent.",
+    });
+    expect(moveSupplierOrder("drafted", "confirm")).toEqual({
+      ok: false,
+      message: "This order is a draft; only an order sent can be marked confirmed.",
+    });
+    expect(moveSupplierOrder("sent", "deliver")).toEqual({
+      ok: false,
+      message: "This order is sent; only an order confirmed by the supplier can be marked delivered.",
+    });
     expect(moveSupplierOrder("sent", "discard").ok).toBe(false);
     expect(moveSupplierOrder("delivered", "confirm").ok).toBe(false);
   });
@@ -140,7 +219,9 @@ describe("combining", () => {
     const a = { id: 1, supplierId: 1, state: "drafted" as const, requestedOn: ["2026-12-07"] };
     expect(checkCombine([a])).toMatch(/at least two/);
     expect(checkCombine([a, { ...a, id: 2, state: "sent" }])).toMatch(/Order 2 is sent; only drafts/);
-    expect(checkCombine([a, { ...a, id: 2, state: "delivered", label: "SO-0002" }])).toBe("SO-0002 is delivered; only drafts can be combined.");
+    expect(checkCombine([a, { ...a, id: 2, state: "delivered", label: "SO-0002" }])).toBe(
+      "SO-0002 is delivered; only drafts can be combined.",
+    );
     expect(checkCombine([a, { ...a, id: 2, supplierId: 9 }])).toMatch(/same supplier/);
     expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-14"] }])).toMatch(/2026-W50, 2026-W51/);
     expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-13"] }])).toBeNull();

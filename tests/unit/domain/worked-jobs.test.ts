@@ -50,7 +50,16 @@ test("job A, the typical pit: 3 courses of 14 (12/8/8/4 units), 12 caps from 16 
   // courses 28 × 3 min = 1.40; saw 24 side cuts × (0.5 + 12.423 × 2.5 / 40 = 1.2765 min) = 0.51;
   // mark 12 × 2 min = 0.40; caps 12 × 5 min = 1.00; ring 0.50. Total 12.21 h.
   expect(hours(plan)).toEqual({
-    setup: 2, base: 3.56, spoil: 0.82, carry: 0.85, "first-course": 1.17, courses: 1.4, "saw-cuts": 0.51, "mark-caps": 0.4, caps: 1, liner: 0.5,
+    setup: 2,
+    base: 3.56,
+    spoil: 0.82,
+    carry: 0.85,
+    "first-course": 1.17,
+    courses: 1.4,
+    "saw-cuts": 0.51,
+    "mark-caps": 0.4,
+    caps: 1,
+    liner: 0.5,
   });
   expect(plan.labour.hours).toBe(12.21);
   expect(plan.labour.sawCuts).toBe(24);
@@ -103,7 +112,15 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   // Sand: (15 × 20² × tan(π/15) − 12 × 13.362² × tan 15°) × 15.875 = 1243.9 in³ = 0.720 ft³ → 2 bags.
   // Base: corner radius √(28² + 6²) = 28.636 + 6 = 34.636; 26.172 ft² × 0.5 ft = 0.4847 yd³ → 0.933 t → 1.0 t.
   // Glue: 2 layers × (14 × 10 + (10.554 + 7.539)/2) × 2 = 596.2 in ÷ 140.25 = 4.25 → 5 cartridges.
-  expect(byKey(plan)).toEqual({ "wall-unit": 63, cap: 14, firebrick: 51, "refractory-mortar": 4, fill: 2, aggregate: 1, adhesive: 5 });
+  expect(byKey(plan)).toEqual({
+    "wall-unit": 63,
+    cap: 14,
+    firebrick: 51,
+    "refractory-mortar": 4,
+    fill: 2,
+    aggregate: 1,
+    adhesive: 5,
+  });
   expect(plan.liner).toMatchObject({ kind: "firebrick", bricksPerRow: 12, fullRows: 3, rippedRows: 1, ripCuts: 12 });
   // The order's notes: one closure a course × 4 courses; 410.8 in³ of mortar; 0.720 ft³ of sand; 0.4847 yd³; 596.2 in of bead.
   expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
@@ -120,7 +137,16 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
   // saw 26 side cuts × 1.2724 + 8 closure cuts × (0.5 + 8 × 4 / 40 = 1.3) + 12 rips × (0.5 + 9 × 2.5 / 40
   // = 1.0625) = 56.23 min = 0.94; mark 13 × 2 min = 0.43; caps 13 × 5 min = 1.08; brick 48 × 2 min = 1.60.
   expect(hours(plan)).toEqual({
-    setup: 2, base: 3.93, spoil: 0.91, carry: 1.32, "first-course": 1.25, courses: 2.25, "saw-cuts": 0.94, "mark-caps": 0.43, caps: 1.08, liner: 1.6,
+    setup: 2,
+    base: 3.93,
+    spoil: 0.91,
+    carry: 1.32,
+    "first-course": 1.25,
+    courses: 2.25,
+    "saw-cuts": 0.94,
+    "mark-caps": 0.43,
+    caps: 1.08,
+    liner: 1.6,
   });
   expect(plan.labour.hours).toBe(15.71);
   expect(plan.labour.sawCuts).toBe(26 + 8 + 12);
@@ -169,7 +195,16 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
   // (32,685 in² − 4113.4 = 28,572 in²) × 4 in = 138,969 in³ = 2.9786 yd³ → × 1.925 = 5.734 t → 5.8 t.
   // Glue: 2 layers × 15 × 10.375 × 2 = 622.5 in ÷ 140.25 = 4.44 → 5.
   expect(byKey(plan)).toEqual({
-    "wall-unit": 48, cap: 13, aggregate: 5.8, adhesive: 5, paver: 492, "border-unit": 54, "bedding-sand": 0.8, "joint-sand": 4, "edge-restraint": 7, "edge-spike": 51,
+    "wall-unit": 48,
+    cap: 13,
+    aggregate: 5.8,
+    adhesive: 5,
+    paver: 492,
+    "border-unit": 54,
+    "bedding-sand": 0.8,
+    "joint-sand": 4,
+    "edge-restraint": 7,
+    "edge-spike": 51,
   });
   expect(plan.base.patioRadiusIn).toBe(102);
   // The two base areas: the pit's disc 4113.4 in² = 28.566 ft², the patio's ring 28,572 in² = 198.42 ft².
@@ -190,12 +225,27 @@ test("job C, 15 grand units (12/8.75/9/6), 12 caps from 18 × 12 blanks, no line
     ["edge-restraint", "Edge restraint, 8 ft", "piece", "50.3 ft round the patio"],
     ["edge-spike", "Edge spikes", "each", "one every 12 in"],
   ]);
-  expect(plan.patio).toMatchObject({ borderLayout: "tapered", borderWholeCount: 50, borderClosureCount: 1, wholePaverCount: 348, cutPaverCount: 120 });
+  expect(plan.patio).toMatchObject({
+    borderLayout: "tapered",
+    borderWholeCount: 50,
+    borderClosureCount: 1,
+    wholePaverCount: 348,
+    cutPaverCount: 120,
+  });
   // Labour: base 28.566 ft² × 0.15 = 4.28; spoil (4113.4 × 6 + 28,572 × 5) in³ = 3.591 yd³ × 1.875 = 6.73;
   // carry (48 × 46.04 + 13 × 44.38 lb = 2787 lb) = 1.39; first 15 × 5 min = 1.25; courses 30 × 3 min = 1.50;
   // saw 24 × 1.2765 min = 0.51; mark 0.40; caps 1.00; patio 181.97 ft² × 0.12 = 21.84. Total 40.90 h.
   expect(hours(plan)).toEqual({
-    setup: 2, base: 4.28, spoil: 6.73, carry: 1.39, "first-course": 1.25, courses: 1.5, "saw-cuts": 0.51, "mark-caps": 0.4, caps: 1, patio: 21.84,
+    setup: 2,
+    base: 4.28,
+    spoil: 6.73,
+    carry: 1.39,
+    "first-course": 1.25,
+    courses: 1.5,
+    "saw-cuts": 0.51,
+    "mark-caps": 0.4,
+    caps: 1,
+    patio: 21.84,
   });
   expect(plan.labour.hours).toBe(40.9);
   // Lines: 28.566 ft², 3.591 × 1.25 = 4.489 yd³ loose, 2787 lb (a unit (12 + 8.75)/2 × 9 × 6 =

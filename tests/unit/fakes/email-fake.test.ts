@@ -341,7 +341,9 @@ test("an .ics attachment round-trips byte for byte", async () => {
 });
 
 test("attachment content that is not base64 is a 422 invalid_attachment", async () => {
-  const { error } = await resend.emails.send(validEmail({ attachments: [{ filename: "a.ics", content: "not base64!" }] }));
+  const { error } = await resend.emails.send(
+    validEmail({ attachments: [{ filename: "a.ics", content: "not base64!" }] }),
+  );
   expect(error).toMatchObject({ statusCode: 422, name: "invalid_attachment" });
   expect(error!.message).toContain("attachments[0].content");
 });
@@ -379,7 +381,9 @@ test("messages and idempotency keys survive a restart when a data file is given"
   try {
     const first = await startEmailFake({ port: 0, dataFile });
     const sent = await new Resend("re_test_key", { baseUrl: first.url }).emails.send(
-      validEmail({ attachments: [{ filename: "quote.txt", content: Buffer.from("44 in bowl, 3 courses").toString("base64") }] }),
+      validEmail({
+        attachments: [{ filename: "quote.txt", content: Buffer.from("44 in bowl, 3 courses").toString("base64") }],
+      }),
       { idempotencyKey: "quote-sent/q_5" },
     );
     await first.close();
@@ -392,7 +396,9 @@ test("messages and idempotency keys survive a restart when a data file is given"
       expect(await download.text()).toBe("44 in bowl, 3 courses");
 
       const retried = await new Resend("re_test_key", { baseUrl: second.url }).emails.send(
-        validEmail({ attachments: [{ filename: "quote.txt", content: Buffer.from("44 in bowl, 3 courses").toString("base64") }] }),
+        validEmail({
+          attachments: [{ filename: "quote.txt", content: Buffer.from("44 in bowl, 3 courses").toString("base64") }],
+        }),
         { idempotencyKey: "quote-sent/q_5" },
       );
       expect(retried.data!.id).toBe(sent.data!.id);
@@ -435,7 +441,9 @@ test("the web inbox escapes what it prints and shows the HTML part in a script-l
   const page = await (await fetch(`${fake.url}/m/${data!.id}`)).text();
   expect(page).not.toContain("<script");
   expect(page).not.toContain("<img");
-  expect(page).toMatch(/<iframe[^>]* sandbox=""[^>]* srcdoc="&lt;p onclick=&quot;steal\(\)&quot;&gt;Bowl 36 in&lt;\/p&gt;&lt;script&gt;/);
+  expect(page).toMatch(
+    /<iframe[^>]* sandbox=""[^>]* srcdoc="&lt;p onclick=&quot;steal\(\)&quot;&gt;Bowl 36 in&lt;\/p&gt;&lt;script&gt;/,
+  );
   expect(page).toContain("Plain &lt;b&gt;text&lt;/b&gt; part");
   expect(page).toContain(`href="/m/${data!.id}/attachments/0"`);
 
@@ -457,10 +465,18 @@ test("hostile and random bodies get a 4xx, never a 5xx, and the fake stays up", 
   const randomBodies = fc.oneof(
     fc.json(),
     fc.string(),
-    fc.record(
-      { from: fc.jsonValue(), to: fc.jsonValue(), subject: fc.jsonValue(), html: fc.jsonValue(), attachments: fc.jsonValue() },
-      { requiredKeys: [] },
-    ).map((value) => JSON.stringify(value)),
+    fc
+      .record(
+        {
+          from: fc.jsonValue(),
+          to: fc.jsonValue(),
+          subject: fc.jsonValue(),
+          html: fc.jsonValue(),
+          attachments: fc.jsonValue(),
+        },
+        { requiredKeys: [] },
+      )
+      .map((value) => JSON.stringify(value)),
   );
   const post = (path: string, body: string) =>
     fetch(`${fake.url}${path}`, {

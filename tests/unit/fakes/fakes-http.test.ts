@@ -13,16 +13,22 @@ const PAYMENTS_KEY = "Bearer sk_test_emberwright_unit";
 
 /** One raw request (fetch cannot show a connection being closed); the answer with its headers. */
 function send(url: string, init: { method: string; headers?: Record<string, string>; body?: string | Buffer }) {
-  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; text: string }>((resolve, reject) => {
-    const req = request(url, { method: init.method, headers: init.headers }, (res) => {
-      const chunks: Buffer[] = [];
-      res.on("data", (c: Buffer) => chunks.push(c));
-      res.on("end", () => resolve({ status: res.statusCode!, headers: res.headers, text: Buffer.concat(chunks).toString("utf8") }));
-    });
-    // The server may answer and close before the whole body is written.
-    req.on("error", (error: NodeJS.ErrnoException) => (error.code === "EPIPE" || error.code === "ECONNRESET" ? undefined : reject(error)));
-    req.end(init.body);
-  });
+  return new Promise<{ status: number; headers: Record<string, string | string[] | undefined>; text: string }>(
+    (resolve, reject) => {
+      const req = request(url, { method: init.method, headers: init.headers }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () =>
+          resolve({ status: res.statusCode!, headers: res.headers, text: Buffer.concat(chunks).toString("utf8") }),
+        );
+      });
+      // The server may answer and close before the whole body is written.
+      req.on("error", (error: NodeJS.ErrnoException) =>
+        error.code === "EPIPE" || error.code === "ECONNRESET" ? undefined : reject(error),
+      );
+      req.end(init.body);
+    },
+  );
 }
 
 describe("e-mail fake", () => {
@@ -34,7 +40,11 @@ describe("e-mail fake", () => {
 
   test("a body over 40 MB is a 413 validation_error and the connection is closed", async () => {
     const body = Buffer.alloc(40 * 1024 * 1024 + 10, 0x61);
-    const answer = await send(`${fake.url}/emails`, { method: "POST", headers: { Authorization: EMAIL_KEY, "Content-Type": "application/json" }, body });
+    const answer = await send(`${fake.url}/emails`, {
+      method: "POST",
+      headers: { Authorization: EMAIL_KEY, "Content-Type": "application/json" },
+      body,
+    });
     expect(answer.status).toBe(413);
     expect(answer.headers.connection).toBe("close");
     expect(JSON.parse(answer.text)).toEqual({
@@ -46,9 +56,17 @@ describe("e-mail fake", () => {
 
   test("a body that is not JSON is a 400 validation_error, for sends and for the fail control", async () => {
     for (const path of ["/emails", "/emails/batch", "/_fake/fail"]) {
-      const answer = await send(`${fake.url}${path}`, { method: "POST", headers: { Authorization: EMAIL_KEY }, body: "{not json" });
+      const answer = await send(`${fake.url}${path}`, {
+        method: "POST",
+        headers: { Authorization: EMAIL_KEY },
+        body: "{not json",
+      });
       expect(answer.status, path).toBe(400);
-      expect(JSON.parse(answer.text), path).toEqual({ statusCode: 400, name: "validation_error", message: "The request body is not valid JSON." });
+      expect(JSON.parse(answer.text), path).toEqual({
+        statusCode: 400,
+        name: "validation_error",
+        message: "The request body is not valid JSON.",
+      });
     }
   });
 
@@ -62,15 +80,26 @@ describe("e-mail fake", () => {
     expect(second.headers["idempotent-replayed"]).toBeUndefined();
     const unknown = await send(`${fake.url}/_fake/nothing-here`, { method: "POST" });
     expect(unknown.status).toBe(404);
-    expect(JSON.parse(unknown.text)).toMatchObject({ name: "not_found", message: "Unknown control endpoint; see fakes/email/README.md." });
+    expect(JSON.parse(unknown.text)).toMatchObject({
+      name: "not_found",
+      message: "Unknown control endpoint; see fakes/email/README.md.",
+    });
   });
 
   test("GET on a send path and POST on a message are 405 method_not_allowed; a garbled path is a 400", async () => {
-    expect((await send(`${fake.url}/emails/batch`, { method: "GET", headers: { Authorization: EMAIL_KEY } })).status).toBe(405);
-    expect((await send(`${fake.url}/emails/some-id`, { method: "POST", headers: { Authorization: EMAIL_KEY } })).status).toBe(405);
+    expect(
+      (await send(`${fake.url}/emails/batch`, { method: "GET", headers: { Authorization: EMAIL_KEY } })).status,
+    ).toBe(405);
+    expect(
+      (await send(`${fake.url}/emails/some-id`, { method: "POST", headers: { Authorization: EMAIL_KEY } })).status,
+    ).toBe(405);
     const garbled = await send(`${fake.url}/emails/%E0%A4%A`, { method: "GET", headers: { Authorization: EMAIL_KEY } });
     expect(garbled.status).toBe(400);
-    expect(JSON.parse(garbled.text)).toEqual({ statusCode: 400, name: "validation_error", message: "The request path is not valid." });
+    expect(JSON.parse(garbled.text)).toEqual({
+      statusCode: 400,
+      name: "validation_error",
+      message: "The request path is not valid.",
+    });
   });
 });
 
@@ -79,7 +108,12 @@ describe("payments fake", () => {
   let stateDir: string;
   beforeAll(async () => {
     stateDir = mkdtempSync(join(tmpdir(), "payments-fake-http-"));
-    fake = await startPaymentsFake({ port: 0, webhookUrl: null, stateFile: join(stateDir, "state.json"), log: () => {} });
+    fake = await startPaymentsFake({
+      port: 0,
+      webhookUrl: null,
+      stateFile: join(stateDir, "state.json"),
+      log: () => {},
+    });
   });
   afterAll(async () => {
     await fake.close();
@@ -90,11 +124,17 @@ describe("payments fake", () => {
 
   test("an API body over 1 MB is a 413 in the error shape, with the connection closed; a control body gets { error }", async () => {
     const body = Buffer.alloc(1024 * 1024 + 10, 0x61);
-    const api = await send(`${fake.url}/v1/refunds`, { method: "POST", headers: { Authorization: PAYMENTS_KEY, ...form }, body });
+    const api = await send(`${fake.url}/v1/refunds`, {
+      method: "POST",
+      headers: { Authorization: PAYMENTS_KEY, ...form },
+      body,
+    });
     expect(api.status).toBe(413);
     expect(api.headers.connection).toBe("close");
     expect(api.headers["request-id"]).toMatch(/^req_/);
-    expect(JSON.parse(api.text)).toMatchObject({ error: { type: "invalid_request_error", message: "Request body is larger than 1 MB." } });
+    expect(JSON.parse(api.text)).toMatchObject({
+      error: { type: "invalid_request_error", message: "Request body is larger than 1 MB." },
+    });
     const control = await send(`${fake.url}/_fake/reset`, { method: "POST", body });
     expect(control.status).toBe(413);
     expect(JSON.parse(control.text)).toEqual({ error: "Request body is larger than 1 MB." });
@@ -140,15 +180,27 @@ describe("payments fake", () => {
   });
 
   test("wrong content type, unknown URL, wrong method and a garbled id are refused in the error shape", async () => {
-    const typed = await send(`${fake.url}/v1/refunds`, { method: "POST", headers: { Authorization: PAYMENTS_KEY, "Content-Type": "application/json" }, body: "{}" });
+    const typed = await send(`${fake.url}/v1/refunds`, {
+      method: "POST",
+      headers: { Authorization: PAYMENTS_KEY, "Content-Type": "application/json" },
+      body: "{}",
+    });
     expect(typed.status).toBe(400);
-    expect(JSON.parse(typed.text).error.message).toBe("Send parameters form-encoded (Content-Type: application/x-www-form-urlencoded).");
+    expect(JSON.parse(typed.text).error.message).toBe(
+      "Send parameters form-encoded (Content-Type: application/x-www-form-urlencoded).",
+    );
     const unknown = await send(`${fake.url}/v1/customers`, { method: "GET", headers: { Authorization: PAYMENTS_KEY } });
     expect(unknown.status).toBe(404);
     expect(JSON.parse(unknown.text).error.message).toBe("Unrecognized request URL (GET: /v1/customers).");
-    const wrongMethod = await send(`${fake.url}/v1/refunds`, { method: "GET", headers: { Authorization: PAYMENTS_KEY } });
+    const wrongMethod = await send(`${fake.url}/v1/refunds`, {
+      method: "GET",
+      headers: { Authorization: PAYMENTS_KEY },
+    });
     expect(wrongMethod.status).toBe(404);
-    const garbled = await send(`${fake.url}/v1/refunds/%E0%A4%A`, { method: "GET", headers: { Authorization: PAYMENTS_KEY } });
+    const garbled = await send(`${fake.url}/v1/refunds/%E0%A4%A`, {
+      method: "GET",
+      headers: { Authorization: PAYMENTS_KEY },
+    });
     expect(garbled.status).toBe(400);
     expect(JSON.parse(garbled.text).error).toMatchObject({ message: "Malformed id in the URL.", param: "id" });
     const page = await send(`${fake.url}/pay/cs_nothing`, { method: "GET" });

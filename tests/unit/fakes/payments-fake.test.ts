@@ -71,7 +71,10 @@ function stripeFor(fake: PaymentsFake, key = SECRET_KEY): Stripe {
   });
 }
 
-function consultCheckout(bookingId: string, overrides: Partial<Stripe.Checkout.SessionCreateParams> = {}): Stripe.Checkout.SessionCreateParams {
+function consultCheckout(
+  bookingId: string,
+  overrides: Partial<Stripe.Checkout.SessionCreateParams> = {},
+): Stripe.Checkout.SessionCreateParams {
   return {
     mode: "payment",
     line_items: [
@@ -93,7 +96,10 @@ function consultCheckout(bookingId: string, overrides: Partial<Stripe.Checkout.S
   };
 }
 
-async function waitFor<T>(read: () => T | undefined | false | Promise<T | undefined | false>, timeoutMs = 5000): Promise<T> {
+async function waitFor<T>(
+  read: () => T | undefined | false | Promise<T | undefined | false>,
+  timeoutMs = 5000,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await read();
@@ -155,7 +161,12 @@ test("the SDK's bracketed form encoding decodes into nested objects and arrays",
     "&metadata[booking_id]=bk_1&expand[0]=line_items&success_url=http%3A%2F%2Fx.test%2F%3Fid%3D%7BCHECKOUT_SESSION_ID%7D";
   expect(parseFormBody(body)).toEqual({
     mode: "payment",
-    line_items: [{ price_data: { currency: "usd", unit_amount: "15000", product_data: { name: "Fire pit consult" } }, quantity: "1" }],
+    line_items: [
+      {
+        price_data: { currency: "usd", unit_amount: "15000", product_data: { name: "Fire pit consult" } },
+        quantity: "1",
+      },
+    ],
     metadata: { booking_id: "bk_1" },
     expand: ["line_items"],
     success_url: "http://x.test/?id={CHECKOUT_SESSION_ID}",
@@ -163,7 +174,9 @@ test("the SDK's bracketed form encoding decodes into nested objects and arrays",
 });
 
 test("a checkout session made through the SDK is open, unpaid and points at the hosted page", async () => {
-  const created = await stripe.checkout.sessions.create(consultCheckout("bk_100"), { idempotencyKey: "checkout:bk_100" });
+  const created = await stripe.checkout.sessions.create(consultCheckout("bk_100"), {
+    idempotencyKey: "checkout:bk_100",
+  });
   expect(created.id).toMatch(/^cs_test_/);
   expect(created.object).toBe("checkout.session");
   expect(created.status).toBe("open");
@@ -191,7 +204,9 @@ test("expires_at is honoured from 30 minutes to 24 hours ahead; outside that ran
   const inRange = await stripe.checkout.sessions.create({ ...consultCheckout("bk_120"), expires_at: now + 35 * 60 });
   expect(inRange.expires_at).toBe(now + 35 * 60);
   for (const expiresAt of [now + 10 * 60, now + 25 * 3600]) {
-    const error = (await stripe.checkout.sessions.create({ ...consultCheckout("bk_121"), expires_at: expiresAt }).catch((e: unknown) => e)) as Stripe.errors.StripeError;
+    const error = (await stripe.checkout.sessions
+      .create({ ...consultCheckout("bk_121"), expires_at: expiresAt })
+      .catch((e: unknown) => e)) as Stripe.errors.StripeError;
     expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(error.statusCode).toBe(400);
     expect(error.param).toBe("expires_at");
@@ -210,7 +225,9 @@ test("the same idempotency key and body replays the first session instead of mak
 test("the same idempotency key with a different body is an idempotency error", async () => {
   await stripe.checkout.sessions.create(consultCheckout("bk_102"), { idempotencyKey: "checkout:bk_102" });
   const changed = consultCheckout("bk_102", { customer_email: "someone.else@example.test" });
-  const error = await stripe.checkout.sessions.create(changed, { idempotencyKey: "checkout:bk_102" }).catch((e: unknown) => e);
+  const error = await stripe.checkout.sessions
+    .create(changed, { idempotencyKey: "checkout:bk_102" })
+    .catch((e: unknown) => e);
   expect(error).toBeInstanceOf(Stripe.errors.StripeIdempotencyError);
   expect((error as Stripe.errors.StripeError).statusCode).toBe(400);
 });
@@ -219,8 +236,20 @@ test("invalid parameters answer 400 invalid_request_error naming the parameter",
   const cases: Array<[Stripe.Checkout.SessionCreateParams, string]> = [
     [consultCheckout("bk_103", { success_url: undefined }), "success_url"],
     [consultCheckout("bk_103", { success_url: "not a url" }), "success_url"],
-    [consultCheckout("bk_103", { line_items: [{ price_data: { currency: "usd", unit_amount: 15000, product_data: { name: "Consult" } }, quantity: 0 }] }), "line_items[0][quantity]"],
-    [consultCheckout("bk_103", { line_items: [{ price_data: { currency: "usd", product_data: { name: "Consult" } }, quantity: 1 }] }), "line_items[0][price_data][unit_amount]"],
+    [
+      consultCheckout("bk_103", {
+        line_items: [
+          { price_data: { currency: "usd", unit_amount: 15000, product_data: { name: "Consult" } }, quantity: 0 },
+        ],
+      }),
+      "line_items[0][quantity]",
+    ],
+    [
+      consultCheckout("bk_103", {
+        line_items: [{ price_data: { currency: "usd", product_data: { name: "Consult" } }, quantity: 1 }],
+      }),
+      "line_items[0][price_data][unit_amount]",
+    ],
     [consultCheckout("bk_103", { expires_at: Date.now() }), "expires_at"],
     [{ ...consultCheckout("bk_103"), colour: "red" } as Stripe.Checkout.SessionCreateParams, "colour"],
   ];
@@ -231,7 +260,9 @@ test("invalid parameters answer 400 invalid_request_error naming the parameter",
     expect(error.param).toBe(param);
     expect(error.statusCode).toBe(400);
   }
-  const missing = (await stripe.checkout.sessions.retrieve("cs_test_nope").catch((e: unknown) => e)) as Stripe.errors.StripeError;
+  const missing = (await stripe.checkout.sessions
+    .retrieve("cs_test_nope")
+    .catch((e: unknown) => e)) as Stripe.errors.StripeError;
   expect(missing.statusCode).toBe(404);
   expect(missing.code).toBe("resource_missing");
 });
@@ -251,7 +282,9 @@ test("an API call without a secret key answers 401 in the error shape", async ()
 });
 
 test("paying with 4242 completes the session and sends a checkout.session.completed the SDK verifies", async () => {
-  const session = await stripe.checkout.sessions.create(consultCheckout("bk_105"), { idempotencyKey: "checkout:bk_105" });
+  const session = await stripe.checkout.sessions.create(consultCheckout("bk_105"), {
+    idempotencyKey: "checkout:bk_105",
+  });
   const paid = await control(fake, `sessions/${session.id}/pay`, { card: "4242424242424242" });
   expect(paid.status).toBe(200);
   expect(paid.json.redirect).toBe(`http://127.0.0.1:5173/consult/booked?session_id=${session.id}`);
@@ -266,9 +299,9 @@ test("paying with 4242 completes the session and sends a checkout.session.comple
   expect(object.status).toBe("complete");
   expect(object.payment_status).toBe("paid");
   expect(object.metadata).toEqual({ booking_id: "bk_105" });
-  expect(() => stripe.webhooks.constructEvent(delivery.rawBody.replace("15000", "1"), delivery.signature, WEBHOOK_SECRET)).toThrow(
-    Stripe.errors.StripeSignatureVerificationError,
-  );
+  expect(() =>
+    stripe.webhooks.constructEvent(delivery.rawBody.replace("15000", "1"), delivery.signature, WEBHOOK_SECRET),
+  ).toThrow(Stripe.errors.StripeSignatureVerificationError);
 
   const retrieved = await stripe.checkout.sessions.retrieve(session.id);
   expect(retrieved.status).toBe("complete");
@@ -282,7 +315,16 @@ test("paying with 4242 completes the session and sends a checkout.session.comple
 test("the hosted page shows the amount and labelled card fields, escapes text, and pays with 4242", async () => {
   const session = await stripe.checkout.sessions.create(
     consultCheckout("bk_106", {
-      line_items: [{ price_data: { currency: "usd", unit_amount: 15000, product_data: { name: "Consult <script>alert(1)</script>" } }, quantity: 1 }],
+      line_items: [
+        {
+          price_data: {
+            currency: "usd",
+            unit_amount: 15000,
+            product_data: { name: "Consult <script>alert(1)</script>" },
+          },
+          quantity: 1,
+        },
+      ],
     }),
   );
   const page = await fetch(session.url!);
@@ -321,7 +363,12 @@ test("a declined card says so on the page and leaves the session open; other num
       method: "POST",
       redirect: "manual",
       headers: { "Content-Type": "application/x-www-form-urlencoded" },
-      body: new URLSearchParams({ card_number: cardNumber, card_expiry: "12 / 39", card_cvc: "123", cardholder_name: "Rowan Pike" }).toString(),
+      body: new URLSearchParams({
+        card_number: cardNumber,
+        card_expiry: "12 / 39",
+        card_cvc: "123",
+        cardholder_name: "Rowan Pike",
+      }).toString(),
     });
   const declined = await post("4000 0000 0000 0002");
   expect(declined.status).toBe(402);
@@ -351,7 +398,9 @@ test("expiring a session sends checkout.session.expired; expiring it again is a 
   expect((event.data.object as Stripe.Checkout.Session).id).toBe(session.id);
   expect(event.request).toEqual({ id: expired.lastResponse.requestId, idempotency_key: "expire:bk_108" });
 
-  const again = (await stripe.checkout.sessions.expire(session.id).catch((e: unknown) => e)) as Stripe.errors.StripeError;
+  const again = (await stripe.checkout.sessions
+    .expire(session.id)
+    .catch((e: unknown) => e)) as Stripe.errors.StripeError;
   expect(again).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
   expect(again.statusCode).toBe(400);
   expect(await fetch(session.url!).then((r) => r.text())).toContain("This checkout has expired");
@@ -372,11 +421,23 @@ test("a refund under one idempotency key is made once and sends charge.refunded"
   await control(fake, `sessions/${session.id}/pay`, { card: "4242424242424242" });
   const { payment_intent } = await stripe.checkout.sessions.retrieve(session.id);
 
-  const refund = await stripe.refunds.create({ payment_intent: payment_intent as string }, { idempotencyKey: "refund:bk_110" });
-  const replay = await stripe.refunds.create({ payment_intent: payment_intent as string }, { idempotencyKey: "refund:bk_110" });
+  const refund = await stripe.refunds.create(
+    { payment_intent: payment_intent as string },
+    { idempotencyKey: "refund:bk_110" },
+  );
+  const replay = await stripe.refunds.create(
+    { payment_intent: payment_intent as string },
+    { idempotencyKey: "refund:bk_110" },
+  );
   expect(refund.id).toMatch(/^re_/);
   expect(replay.id).toBe(refund.id);
-  expect(refund).toMatchObject({ object: "refund", amount: 15000, currency: "usd", status: "succeeded", payment_intent });
+  expect(refund).toMatchObject({
+    object: "refund",
+    amount: 15000,
+    currency: "usd",
+    status: "succeeded",
+    payment_intent,
+  });
   expect((await control(fake, "refunds")).json.data).toHaveLength(1);
   expect((await stripe.refunds.retrieve(refund.id)).amount).toBe(15000);
 
@@ -402,10 +463,13 @@ test("a webhook the receiver rejects twice is delivered on the third attempt", a
   expect(receiver.deliveries.map((d) => d.answeredWith)).toEqual([500, 500, 200]);
   // Every attempt carries the same event, each signed afresh.
   expect(new Set(receiver.deliveries.map((d) => d.event.id)).size).toBe(1);
-  for (const d of receiver.deliveries) expect(() => stripe.webhooks.constructEvent(d.rawBody, d.signature, WEBHOOK_SECRET)).not.toThrow();
+  for (const d of receiver.deliveries)
+    expect(() => stripe.webhooks.constructEvent(d.rawBody, d.signature, WEBHOOK_SECRET)).not.toThrow();
 
   const { json } = await control(fake, "deliveries");
-  expect(json.data.map((a: { status: number; attempt: number; outcome: string }) => [a.attempt, a.status, a.outcome])).toEqual([
+  expect(
+    json.data.map((a: { status: number; attempt: number; outcome: string }) => [a.attempt, a.status, a.outcome]),
+  ).toEqual([
     [1, 500, "retry_scheduled"],
     [2, 500, "retry_scheduled"],
     [3, 200, "delivered"],
@@ -422,11 +486,15 @@ test("fail-next makes the SDK throw StripeAPIError and keeps nothing for the key
   expect(failed.statusCode).toBe(500);
   expect(failed.type).toBe("StripeAPIError");
   // The retry under the same key runs for real.
-  const retried = await stripe.checkout.sessions.create(consultCheckout("bk_112"), { idempotencyKey: "checkout:bk_112" });
+  const retried = await stripe.checkout.sessions.create(consultCheckout("bk_112"), {
+    idempotencyKey: "checkout:bk_112",
+  });
   expect(retried.status).toBe("open");
 
   await control(fake, "fail-next", { down: true });
-  const down = (await stripe.checkout.sessions.retrieve(retried.id).catch((e: unknown) => e)) as Stripe.errors.StripeError;
+  const down = (await stripe.checkout.sessions
+    .retrieve(retried.id)
+    .catch((e: unknown) => e)) as Stripe.errors.StripeError;
   expect(down).toBeInstanceOf(Stripe.errors.StripeAPIError);
   expect(down.statusCode).toBe(503);
   await control(fake, "fail-next", { down: false });
@@ -460,7 +528,9 @@ test("held events are delivered in reverse order when released that way", async 
 
 test("a restart from the state file keeps sessions, idempotency records and the pending deliveries", async () => {
   receiver.fallbackStatus = 503;
-  const session = await stripe.checkout.sessions.create(consultCheckout("bk_115"), { idempotencyKey: "checkout:bk_115" });
+  const session = await stripe.checkout.sessions.create(consultCheckout("bk_115"), {
+    idempotencyKey: "checkout:bk_115",
+  });
   await control(fake, `sessions/${session.id}/pay`, { card: "4242424242424242" });
   await waitFor(() => receiver.deliveries.length >= 1);
   await fake.close();
@@ -471,7 +541,9 @@ test("a restart from the state file keeps sessions, idempotency records and the 
   const client = stripeFor(restarted);
   const retrieved = await client.checkout.sessions.retrieve(session.id);
   expect(retrieved).toMatchObject({ id: session.id, status: "complete", payment_status: "paid" });
-  const replay = await client.checkout.sessions.create(consultCheckout("bk_115"), { idempotencyKey: "checkout:bk_115" });
+  const replay = await client.checkout.sessions.create(consultCheckout("bk_115"), {
+    idempotencyKey: "checkout:bk_115",
+  });
   expect(replay.id).toBe(session.id);
 
   const delivered = await waitFor(() => receiver.deliveries.find((d) => d.answeredWith === 200));
@@ -509,7 +581,9 @@ test("hostile API bodies answer 4xx in the error shape and the fake keeps servin
   }
   expect(({} as Record<string, unknown>).polluted).toBeUndefined();
   for (const path of ["__proto__", "constructor", "%E0%A4%A"]) {
-    const response = await fetch(`${fake.url}/v1/checkout/sessions/${path}`, { headers: { Authorization: `Bearer ${SECRET_KEY}` } });
+    const response = await fetch(`${fake.url}/v1/checkout/sessions/${path}`, {
+      headers: { Authorization: `Bearer ${SECRET_KEY}` },
+    });
     expect(response.status, path).toBeGreaterThanOrEqual(400);
     expect(response.status, path).toBeLessThan(500);
     expect((await fetch(`${fake.url}/pay/${path}`)).status, path).toBe(404);

@@ -10,11 +10,29 @@ afterEach(cleanup);
 
 // 14 units of 12/8/8: a 36.575 in (36 9/16 in) bowl, 52.575 in outside (derived here from the
 // regular-polygon formulas; see the ring tests).
-const ring = planRing({ target: { unitCount: 14 }, wallUnit: { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 }, courses: 3 });
+const ring = planRing({
+  target: { unitCount: 14 },
+  wallUnit: { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 },
+  courses: 3,
+});
 const INPUT: PitSceneInput = {
   wallUnit: { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, colourHex: "#978873" },
-  ring: { unitCount: 14, courses: 3, edgeDistanceIn: ring.edgeDistanceIn, runningBondDeg: ring.runningBondDeg, closure: null },
-  caps: { count: 12, innerWidthIn: 8.38, outerWidthIn: 14.811, innerEdgeDistanceIn: ring.edgeDistanceIn - 2, outerEdgeDistanceIn: ring.edgeDistanceIn + 10, thicknessIn: 2.5, colourHex: "#d6c9b7" },
+  ring: {
+    unitCount: 14,
+    courses: 3,
+    edgeDistanceIn: ring.edgeDistanceIn,
+    runningBondDeg: ring.runningBondDeg,
+    closure: null,
+  },
+  caps: {
+    count: 12,
+    innerWidthIn: 8.38,
+    outerWidthIn: 14.811,
+    innerEdgeDistanceIn: ring.edgeDistanceIn - 2,
+    outerEdgeDistanceIn: ring.edgeDistanceIn + 10,
+    thicknessIn: 2.5,
+    colourHex: "#d6c9b7",
+  },
   liner: { kind: "steel-ring", outsideDiameterIn: 36, heightIn: 10 },
   patio: null,
   basePadRadiusIn: ring.outsideCornerRadiusIn + 6,

@@ -22,7 +22,12 @@ const INPUT: PitSceneInput = {
 };
 
 const preview = () => (
-  <PitPreview input={INPUT} caption="14 units a course, 3 courses" unit="in" formatLength={(n) => formatLength(n, "in")} />
+  <PitPreview
+    input={INPUT}
+    caption="14 units a course, 3 courses"
+    unit="in"
+    formatLength={(n) => formatLength(n, "in")}
+  />
 );
 
 test("on the server the preview is the plan drawing with its caption: no canvas, no 3D code", () => {

@@ -11,7 +11,12 @@ const mode = process.env.MODE;
 if (mode === "migrate") {
   // Load everything but the database module first, so that after "go" the processes reach the
   // file within a few milliseconds of each other (starting tsx takes seconds on a busy machine).
-  await Promise.all([import("drizzle-orm/libsql"), import("drizzle-orm/libsql/migrator"), import("~/db/schema"), import("~/lib/platform/env.server")]);
+  await Promise.all([
+    import("drizzle-orm/libsql"),
+    import("drizzle-orm/libsql/migrator"),
+    import("~/db/schema"),
+    import("~/lib/platform/env.server"),
+  ]);
   console.log("ready");
   await new Promise<void>((resolve) => process.stdin.once("data", () => resolve()));
   process.stdin.pause();

@@ -21,7 +21,16 @@ export async function createCompanyWithStaff(name = "Test Masonry") {
   }
   const [item] = await db
     .insert(catalogItems)
-    .values({ companyId: company!.id, kind: "wall-unit", name: "Test Taper", faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4, priceCents: 500 })
+    .values({
+      companyId: company!.id,
+      kind: "wall-unit",
+      name: "Test Taper",
+      faceIn: 12,
+      backIn: 8,
+      depthIn: 8,
+      heightIn: 4,
+      priceCents: 500,
+    })
     .returning();
   return { company: company!, people, item: item! };
 }

@@ -16,7 +16,23 @@ export function createTestPlanRecord(): StoredPlanRecord {
     liner: { kind: "none" },
     patio: null,
   };
-  const choices = { stoneId: 1, unitCount: 14, fitToRing: false, courses: 3, capId: null, innerOverhangIn: 1, linerKind: "none", ringId: null, patioRadiusFt: 0, paverId: null, borderId: null, setbackFt: null, propertyLineFt: null, branchesFt: null, unit: "in" } as const;
+  const choices = {
+    stoneId: 1,
+    unitCount: 14,
+    fitToRing: false,
+    courses: 3,
+    capId: null,
+    innerOverhangIn: 1,
+    linerKind: "none",
+    ringId: null,
+    patioRadiusFt: 0,
+    paverId: null,
+    borderId: null,
+    setbackFt: null,
+    propertyLineFt: null,
+    branchesFt: null,
+    unit: "in",
+  } as const;
   return {
     design: {
       version: STORED_PLAN_VERSION,
@@ -32,9 +48,25 @@ export function createTestPlanRecord(): StoredPlanRecord {
 export async function createTestLead(company: Company, email = `lead${Date.now()}-${++n}@example.test`) {
   return createLead({
     company,
-    form: { customerName: "Wren Castellano", email, phone: "555 010 1234", street: "3 Hollow Oak Way", town: "Millbrook Falls", buildWindow: "this-season", notes: "", consent: "on" },
+    form: {
+      customerName: "Wren Castellano",
+      email,
+      phone: "555 010 1234",
+      street: "3 Hollow Oak Way",
+      town: "Millbrook Falls",
+      buildWindow: "this-season",
+      notes: "",
+      consent: "on",
+    },
     photos: [],
     origin: "http://localhost",
-    snapshot: { record: createTestPlanRecord(), stoneName: "Hearthline Taper", bowlDiameterIn: 36.575, priceLowCents: 200000, priceHighCents: 250000, summary: [] },
+    snapshot: {
+      record: createTestPlanRecord(),
+      stoneName: "Hearthline Taper",
+      bowlDiameterIn: 36.575,
+      priceLowCents: 200000,
+      priceHighCents: 250000,
+      summary: [],
+    },
   });
 }

@@ -14,13 +14,24 @@ export async function copyDemoLead(ref = "demo-cinder-slate-07", status: LeadSta
   const { id: _id, ...rest } = template!;
   const [copy] = await db
     .insert(leads)
-    .values({ ...rest, ref: `copy-${randomUUID()}`, status, email: `copy.${randomUUID().slice(0, 8)}@example.test`, crewUserId: null, stopReason: null, pausedStage: null })
+    .values({
+      ...rest,
+      ref: `copy-${randomUUID()}`,
+      status,
+      email: `copy.${randomUUID().slice(0, 8)}@example.test`,
+      crewUserId: null,
+      stopReason: null,
+      pausedStage: null,
+    })
     .returning();
   return copy!;
 }
 
 export async function officeUser(companyId: number, role: "owner" | "estimator" = "estimator"): Promise<SessionUser> {
-  const [person] = await db.select().from(users).where(and(eq(users.companyId, companyId), eq(users.role, role)));
+  const [person] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, companyId), eq(users.role, role)));
   return person as unknown as SessionUser;
 }
 
@@ -40,7 +51,13 @@ export async function sentProposal(input: Partial<SendInput> = {}, ref?: string)
   const lead = await copyDemoLead(ref);
   const company = await getCompany(lead.companyId);
   const user = await officeUser(lead.companyId);
-  const proposal = await sendProposal({ user, lead, company, input: { ...SEND, ...input }, origin: "http://localhost" });
+  const proposal = await sendProposal({
+    user,
+    lead,
+    company,
+    input: { ...SEND, ...input },
+    origin: "http://localhost",
+  });
   const [fresh] = await db.select().from(leads).where(eq(leads.id, lead.id));
   return { lead: fresh!, proposal, company, user };
 }
