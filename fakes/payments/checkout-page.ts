@@ -12,32 +12,34 @@ export function escapeHtml(value: string): string {
     .replace(/'/g, "&#39;");
 }
 
+// A plain page of its own: a test stand-in, and it says so on every screen. Monospace ticket look, no logo.
 const STYLE = `
 *{box-sizing:border-box}
-body{margin:0;font:16px/1.5 system-ui,-apple-system,"Segoe UI",Roboto,sans-serif;background:#f4efe9;color:#2b2420}
-main{max-width:30rem;margin:2rem auto;padding:0 1rem}
-.sheet{background:#fffdfa;border:1px solid #dccfc2;border-radius:10px;padding:1.5rem}
-.mode{display:inline-block;margin:0 0 1rem;padding:.15rem .6rem;border-radius:999px;background:#fde7c8;color:#6b3a06;font-size:.85rem;font-weight:600}
-h1{font-size:1.35rem;margin:0 0 .25rem}
-h2{font-size:1rem;margin:1.25rem 0 .5rem}
-.payee{margin:0;color:#6a5d53}
-.items{list-style:none;margin:0;padding:0;border-top:1px solid #eadfd4}
-.items li{display:flex;justify-content:space-between;gap:1rem;padding:.6rem 0;border-bottom:1px solid #eadfd4}
-.items small{display:block;color:#6a5d53}
-.total{display:flex;justify-content:space-between;font-weight:700;font-size:1.1rem;margin:.75rem 0 0}
-label{display:block;font-weight:600;margin:.9rem 0 .25rem}
-input{width:100%;font:inherit;padding:.55rem .7rem;border:1px solid #a8998c;border-radius:6px;background:#fff}
-input:focus{outline:3px solid #f0a04b;outline-offset:1px}
-input[aria-invalid=true]{border-color:#b3261e}
+body{margin:0;font:16px/1.5 ui-monospace,"DejaVu Sans Mono",Menlo,Consolas,monospace;background:#e9ecef;color:#1d2329}
+.standin{margin:0;padding:.5rem 1rem;background:#1d2329;color:#f8f9fa;font-size:.85rem;text-align:center;letter-spacing:.02em}
+main{max-width:32rem;margin:1.5rem auto;padding:0 1rem}
+.sheet{background:#fff;border:2px dashed #6c7781;padding:1.25rem}
+h1{font-size:1.2rem;margin:0 0 .25rem;text-transform:uppercase;letter-spacing:.04em}
+h2{font-size:.95rem;margin:1.25rem 0 .5rem;text-transform:uppercase;letter-spacing:.04em}
+.payee{margin:0;color:#4a545e}
+.items{list-style:none;margin:0;padding:0;border-top:1px dashed #adb5bd}
+.items li{display:flex;justify-content:space-between;gap:1rem;padding:.5rem 0;border-bottom:1px dashed #adb5bd}
+.items small{display:block;color:#4a545e}
+.total{display:flex;justify-content:space-between;font-weight:700;margin:.75rem 0 0}
+label{display:block;font-weight:700;margin:.9rem 0 .25rem}
+input{width:100%;font:inherit;padding:.5rem .6rem;border:2px solid #4a545e;border-radius:0;background:#fff}
+input:focus{outline:3px solid #0b5cad;outline-offset:1px}
+input[aria-invalid=true]{border-color:#a61b1b}
 .row{display:flex;gap:.75rem;align-items:flex-start}
 .row>div{flex:1}
-.field-error{color:#b3261e;margin:.2rem 0 0;font-size:.9rem}
-.alert{border:1px solid #b3261e;background:#fdeceb;color:#7a1410;border-radius:6px;padding:.6rem .8rem;margin:1rem 0 0}
-.note{background:#f1ebe4;border-radius:6px;padding:.6rem .8rem;font-size:.9rem;color:#4f443c;margin:1rem 0 0}
-button{margin-top:1.25rem;width:100%;font:inherit;font-weight:700;padding:.7rem;border:0;border-radius:6px;background:#b8501d;color:#fff;cursor:pointer}
-button:hover{background:#9c4113}
-button:focus-visible{outline:3px solid #2b2420;outline-offset:2px}
-.back{display:inline-block;margin-top:1rem;color:#7a3510}
+.field-error{color:#a61b1b;margin:.2rem 0 0;font-size:.9rem}
+.alert{border:2px solid #a61b1b;background:#fdecec;color:#7a1010;padding:.6rem .8rem;margin:1rem 0 0}
+.note{border-left:4px solid #6c7781;background:#f1f3f5;padding:.5rem .8rem;font-size:.85rem;color:#343a40;margin:1rem 0 0}
+.submit-message{margin:1rem 0 0;font-size:.9rem;color:#343a40}
+button{margin-top:1rem;width:100%;font:inherit;font-weight:700;padding:.7rem;border:2px solid #1d2329;border-radius:0;background:#1d2329;color:#fff;cursor:pointer;text-transform:uppercase;letter-spacing:.04em}
+button:hover{background:#343a40}
+button:focus-visible{outline:3px solid #0b5cad;outline-offset:2px}
+.back{display:inline-block;margin-top:1rem;color:#0b5cad}
 `;
 
 function layout(title: string, body: string): string {
@@ -50,9 +52,9 @@ function layout(title: string, body: string): string {
 <style>${STYLE}</style>
 </head>
 <body>
+<p class="standin">Local payments stand-in for development and tests: no real card is charged</p>
 <main>
 <div class="sheet">
-<p class="mode">Test payments: no real card is charged</p>
 ${body}
 </div>
 </main>
@@ -163,7 +165,11 @@ export function renderCheckoutPage({ record, form, errors = {}, alert }: Checkou
   const cancel = session.cancel_url
     ? `<a class="back" href="${escapeHtml(session.cancel_url)}">Cancel and go back</a>`
     : "";
-  const body = `<h1>Pay Emberwright ${escapeHtml(total)}</h1>
+  // Who is paid is whatever the line items and the submit note say (the business names itself there).
+  const payee = record.lineItems[0]?.name ?? "";
+  const submitNote = record.submitMessage ? `<p class="submit-message">${escapeHtml(record.submitMessage)}</p>` : "";
+  const body = `<h1>Test checkout: ${escapeHtml(total)}</h1>
+${payee ? `<p class="payee">For ${escapeHtml(payee)}</p>` : ""}
 ${payer}
 ${summary(record)}
 <h2 id="card-heading">Card details</h2>
@@ -175,6 +181,7 @@ ${field(FIELDS.expiry, values, errors)}
 ${field(FIELDS.cvc, values, errors)}
 </div>
 ${field(FIELDS.name, values, errors)}
+${submitNote}
 <button type="submit">Pay ${escapeHtml(total)}</button>
 </form>
 <p class="note">Test cards: 4242 4242 4242 4242 pays; 4000 0000 0000 0002 is declined. Use any future expiry date and any three digits.</p>

@@ -121,6 +121,7 @@ const SESSION_MODELLED_PARAMS = new Set([
   "cancel_url",
   "client_reference_id",
   "currency",
+  "custom_text",
   "customer_email",
   "expand",
   "expires_at",
@@ -456,6 +457,14 @@ export class PaymentsLedger {
       throw invalidRequest(`Invalid email address: ${customerEmail}`, "customer_email", "email_invalid");
     }
     const metadata = readMetadata(params.metadata, "metadata");
+    // The note shown beside the pay button (custom_text[submit][message], at most 1,200 characters as
+    // the real endpoint allows); the stand-in's page draws it like the hosted page would.
+    const submitMessage =
+      asString(
+        asObject(asObject(params.custom_text, "custom_text")?.submit, "custom_text[submit]")?.message,
+        "custom_text[submit][message]",
+        1200,
+      ) || null;
     const created = nowSeconds();
     const expiresAt =
       asInteger(params.expires_at, "expires_at", 0, Number.MAX_SAFE_INTEGER) ?? created + DEFAULT_EXPIRY_SECONDS;
@@ -551,6 +560,7 @@ export class PaymentsLedger {
       },
       attempts: [],
       ignoredParams,
+      submitMessage,
     };
     this.state.sessions[session.id] = record;
     this.store.save();

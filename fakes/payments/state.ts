@@ -65,6 +65,8 @@ export interface SessionRecord {
   attempts: PaymentAttempt[];
   // Parameters the real API accepts but this fake does not act on, kept so a test can see them.
   ignoredParams: string[];
+  // custom_text[submit][message]: shown beside the pay button (absent in state saved before it was kept).
+  submitMessage?: string | null;
 }
 
 export interface PaymentIntentObject {

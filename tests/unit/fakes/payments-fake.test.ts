@@ -198,6 +198,32 @@ test("a checkout session made through the SDK is open, unpaid and points at the 
   expect(retrieved.line_items?.data[0].description).toBe("Fire pit design consult");
 });
 
+test("the hosted page is the stand-in's own: labelled as local, naming what is paid for and showing the business's note beside the button", async () => {
+  const created = await stripe.checkout.sessions.create({
+    ...consultCheckout("bk_110"),
+    custom_text: {
+      submit: { message: "You are paying Cinder & Slate Works <b>(555)</b>. Credited toward the build." },
+    },
+  });
+  const page = await (await fetch(`${fake.url}/pay/${created.id}`)).text();
+  expect(page).toContain("Local payments stand-in");
+  expect(page).toContain("no real card is charged");
+  // The note is escaped, never markup (custom_text[submit][message] is plain text at the service).
+  expect(page).toContain(
+    "You are paying Cinder &amp; Slate Works &lt;b&gt;(555)&lt;/b&gt;. Credited toward the build.",
+  );
+  // The payee comes from the session's own line item, not from the stand-in.
+  const item = consultCheckout("bk_110").line_items![0]!.price_data!.product_data!.name;
+  expect(page).toContain(`For ${item.replace(/&/g, "&amp;")}`);
+  expect(page).not.toMatch(/Pay Emberwright/);
+  // A note longer than the service's 1,200 characters is refused, naming the parameter.
+  const error = (await stripe.checkout.sessions
+    .create({ ...consultCheckout("bk_111"), custom_text: { submit: { message: "x".repeat(1201) } } })
+    .catch((e: unknown) => e)) as Stripe.errors.StripeError;
+  expect(error.statusCode).toBe(400);
+  expect(error.param).toBe("custom_text[submit][message]");
+});
+
 test("expires_at is honoured from 30 minutes to 24 hours ahead; outside that range it is a 400 naming expires_at, as the service answers", async () => {
   // Stripe docs, "Manage limited inventory": "The value must be between 30 minutes and 24 hours after the current time."
   const now = Math.floor(Date.now() / 1000);
