@@ -20,7 +20,10 @@ type SeedItem = {
   thicknessIn?: number;
   diameterIn?: number;
   priceCents: number;
-  /** Ordering: the supplier's name (from the company's `suppliers`), how it is sold, pack size or step, weight of one order unit (lb). */
+  /**
+   * Ordering: the supplier's name (from the company's `suppliers`), how it is sold, pack size or step, weight of one
+   * order unit (lb).
+   */
   supplier?: string;
   orderUnit?: OrderUnit;
   unitsPerOrderUnit?: number;

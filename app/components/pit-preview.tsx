@@ -74,7 +74,9 @@ function detectSupport(): Support {
   return PitScene && detectWebGl() ? "webgl" : "none";
 }
 
-/** The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle. */
+/**
+ * The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle.
+ */
 export function PitPreview({
   input,
   caption,

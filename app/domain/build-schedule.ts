@@ -122,7 +122,9 @@ export type Clash =
   | { kind: "day-off"; date: CalendarDate }
   | { kind: "not-a-working-day"; date: CalendarDate };
 
-/** What stands in the way of a build's days: the same person booked elsewhere that day, days off, weekdays not worked. */
+/**
+ * What stands in the way of a build's days: the same person booked elsewhere that day, days off, weekdays not worked.
+ */
 export function findClashes(build: ScheduledBuild, others: readonly ScheduledBuild[], calendar: WorkCalendar): Clash[] {
   const clashes: Clash[] = [];
   for (const date of build.dates) {

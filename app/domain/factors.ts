@@ -70,7 +70,10 @@ export type CompanyFactors = {
 
   /** A cap's overhang past the wall's outside face should not pass this anywhere along the cap, in. */
   capMaxOuterOverhangIn: number;
-  /** A cap count matching the wall's units may waste at most this many points more of each blank than the fewest caps, %. */
+  /**
+   * A cap count matching the wall's units may waste at most this many points more of each blank than the fewest caps,
+   * %.
+   */
   capMatchMaxExtraOffcutPct: number;
   /** No mark closer than this to a blank's corner (factory corners chip and are rarely square), in. */
   minMarkFromCornerIn: number;
@@ -276,7 +279,10 @@ export type SupplyPrices = {
 
 const isChoiceKey = (key: keyof CompanyFactors): key is ChoiceFactorKey => Object.hasOwn(FACTOR_CHOICES, key);
 
-/** Merges company overrides over the defaults (no rounding); unknown, non-finite or unlisted-choice overrides are ignored. */
+/**
+ * Merges company overrides over the defaults (no rounding); unknown, non-finite or unlisted-choice overrides are
+ * ignored.
+ */
 export function resolveFactors(overrides?: Partial<CompanyFactors>): CompanyFactors {
   const factors: CompanyFactors = { ...DEFAULT_FACTORS };
   const chosen: Record<string, unknown> = factors;

@@ -126,7 +126,8 @@ export function estimateLabour(args: {
   const capBlankLb = caps
     ? weighConcrete(caps.blankLengthIn * caps.blankDepthIn * caps.thicknessIn, factors.concreteLbPerFt3)
     : null;
-  // Firebrick is weighed at the concrete figure too: a 9 in straight comes to about 8 lb (close to suppliers' figures, from memory).
+  // Firebrick is weighed at the concrete figure too: a 9 in straight comes to about 8 lb (close to suppliers' figures,
+  // from memory).
   const brickLb =
     liner?.kind === "firebrick" && liner.fits
       ? weighConcrete(brickLength(liner) * liner.rowHeightIn * liner.thicknessIn, factors.concreteLbPerFt3)

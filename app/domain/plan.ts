@@ -72,7 +72,10 @@ export type Plan = {
   cautions: Caution[];
 };
 
-/** Computes the full plan (in, ft², yd³, integer cents; see each part for its rounding); throws PlanGeometryError when it cannot be built. */
+/**
+ * Computes the full plan (in, ft², yd³, integer cents; see each part for its rounding); throws PlanGeometryError when
+ * it cannot be built.
+ */
 export function computePlan(input: PlanInput, options: PlanOptions = {}): Plan {
   const factors = resolveFactors(options.factors);
   const jointIn = input.jointIn ?? DEFAULT_JOINT_IN;

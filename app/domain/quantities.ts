@@ -39,7 +39,9 @@ export type BaseEstimate = {
   radiusIn: number;
   /** Area of that disc, ft² (the patio's base is counted separately). */
   pitAreaFt2: number;
-  /** Radius of the patio's base: the paver edge plus max(patio base depth, the minimum reach), in; null without a patio. */
+  /**
+   * Radius of the patio's base: the paver edge plus max(patio base depth, the minimum reach), in; null without a patio.
+   */
   patioRadiusIn: number | null;
   /** Area of the patio's base outside the pit's disc, ft² (0 without a patio). */
   patioAreaFt2: number;

@@ -73,11 +73,17 @@ export type RingPlan = {
    * the joints below (the closures of alternate courses then sit apart).
    */
   runningBondDeg: number;
-  /** Smallest distance along the outside face between a joint and the nearest joint of the course above or below, in; null for one course. */
+  /**
+   * Smallest distance along the outside face between a joint and the nearest joint of the course above or below, in;
+   * null for one course.
+   */
   bondOffsetIn: number | null;
   /** Angle each whole unit spans round the centre, degrees (360/N without closure units). */
   unitAngleDeg: number;
-  /** With closure units: how far round the even courses' closure starts from the odd courses', in whole units plus a part of one (null without closures). */
+  /**
+   * With closure units: how far round the even courses' closure starts from the odd courses', in whole units plus a
+   * part of one (null without closures).
+   */
   bondClosureShift: { wholeUnits: number; partFaceIn: number } | null;
   /** ID* = 2BT/(F − B): the tightest bowl with both joints closed; null for rectangular units. */
   tightestBowlDiameterIn: number | null;
@@ -386,7 +392,9 @@ function layExactRing(wallUnit: WallUnitSize, bowlDiameterIn: number): BareLayou
   };
 }
 
-/** Lays out the wall ring (all lengths in, angles degrees, unrounded); throws PlanGeometryError when it cannot be built. */
+/**
+ * Lays out the wall ring (all lengths in, angles degrees, unrounded); throws PlanGeometryError when it cannot be built.
+ */
 export function planRing(args: {
   target: RingTarget;
   wallUnit: WallUnitSize;

@@ -46,7 +46,10 @@ export function formatLength(lengthIn: number, unit: LengthUnit): string {
   return unit === "mm" ? formatMm(lengthIn) : formatInches(lengthIn);
 }
 
-/** Inches in one of each unit a length may be typed in, as exact fractions (NIST SP 811: 1 in = 25.4 mm = 127/5 mm, 1 ft = 12 in). */
+/**
+ * Inches in one of each unit a length may be typed in, as exact fractions (NIST SP 811: 1 in = 25.4 mm = 127/5 mm, 1 ft
+ * = 12 in).
+ */
 const UNIT_TO_IN: Record<string, Fraction> = {
   in: new Fraction(1),
   inch: new Fraction(1),

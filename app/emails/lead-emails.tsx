@@ -35,7 +35,10 @@ export function StaffAssignedEmail(props: {
   );
 }
 
-/** To the homeowner when staff send them a revised design: what changed in words, the new price, where to see the drawing. */
+/**
+ * To the homeowner when staff send them a revised design: what changed in words, the new price, where to see the
+ * drawing.
+ */
 export function RevisionSentEmail(props: {
   companyName: string;
   companyPhone: string;

@@ -162,7 +162,9 @@ export default function LeadDesignRoute({ loaderData, actionData }: Route.Compon
   );
 }
 
-/** What the revision comes to, for staff: the price range at today's prices, the key sizes and anything worth a look. */
+/**
+ * What the revision comes to, for staff: the price range at today's prices, the key sizes and anything worth a look.
+ */
 function RevisionSummary({ plan, unit, isUpdating }: { plan: PublicPlan; unit: LengthUnit; isUpdating: boolean }) {
   const f = (inches: number) => formatLength(inches, unit);
   const facts: [string, string][] = [

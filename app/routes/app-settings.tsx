@@ -65,7 +65,8 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
         </p>
       ) : null}
       <PublicLink url={publicUrl} qrSvg={qrSvg} fileName={`${company.slug}-qr-code.svg`} />
-      {/* Keyed on the saved values: after a save the fields show what was stored (e.g. the phone formatted); a refused save keeps what was typed. */}
+      {/* Keyed on the saved values: after a save the fields show what was stored (e.g. the phone
+          formatted); a refused save keeps what was typed. */}
       <Form key={JSON.stringify(company)} method="post" className="flex flex-col gap-6" noValidate>
         {Object.keys(errors).length ? <FormAlert>Nothing was saved. Fix the fields marked below.</FormAlert> : null}
         <section className="grid gap-4 card p-6 sm:grid-cols-2">

@@ -110,7 +110,10 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 const dateOf = (iso: string) => new Date(iso).toLocaleDateString("en-US", { dateStyle: "medium" });
 
-/** One design as the homeowner sees it: the plan drawing from its own stored record, its summary (in their unit) and price. */
+/**
+ * One design as the homeowner sees it: the plan drawing from its own stored record, its summary (in their unit) and
+ * price.
+ */
 function drawing(key: string, title: string, when: string, record: StoredPlanRecord, price: string | null) {
   const unit = record.design.choices.unit;
   return {

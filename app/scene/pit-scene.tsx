@@ -3,7 +3,8 @@
  *
  * One scene unit is one inch (see app/domain/pit-layout.ts). Every repeated part is one instanced mesh, so a pit
  * with closures, caps, a liner and a patio costs at most 9 draw calls: ground, gravel, patio field
- * (or the base pad without a patio), border units and the border's cut piece, whole wall units, closure units, caps, and
+ * (or the base pad without a patio), border units and the border's cut piece, whole wall units, closure units, caps,
+ * and
  * firebrick or the steel ring.
  * Frames are drawn on demand only: after a change of input, of camera, or of canvas size.
  */

@@ -11,7 +11,9 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   if (password === DEMO_PASSWORD) await expect(page).not.toHaveURL(/\/login/);
 }
 
-/** Saves a full-page screenshot at desktop and phone width under data/screens (kept between runs, unlike test-results/). */
+/**
+ * Saves a full-page screenshot at desktop and phone width under data/screens (kept between runs, unlike test-results/).
+ */
 export async function screenshotBothWidths(page: Page, name: string) {
   for (const [label, width, height] of [
     ["desktop", 1280, 900],
@@ -107,7 +109,9 @@ export async function holdConsultTime(page: Page, n = 0): Promise<{ day: string;
   return chosen;
 }
 
-/** Full-page screenshots at 1366, 390 and 360 px under data/screens; at each width the page must not scroll sideways. */
+/**
+ * Full-page screenshots at 1366, 390 and 360 px under data/screens; at each width the page must not scroll sideways.
+ */
 export async function screenshotThreeWidths(page: Page, name: string) {
   for (const width of [1366, 390, 360]) {
     await page.setViewportSize({ width, height: width > 400 ? 900 : 800 });

@@ -438,7 +438,8 @@ test("a homeowner moves a paid consult to another time: nothing more is charged,
   // No second checkout was opened.
   expect(await sessionCount()).toBe(sessionsBefore);
 
-  // The homeowner's file replaces the event: the same UID, SEQUENCE 1, the new start (RFC 5545 3.8.4.7, 3.8.7.4, 3.3.5).
+  // The homeowner's file replaces the event: the same UID, SEQUENCE 1, the new start (RFC 5545 3.8.4.7, 3.8.7.4,
+  // 3.3.5).
   const moved = await waitForMail((m) => m.to.includes(email) && m.subject.startsWith("Design consult moved to"));
   const ics = icsText(moved, "design-consult.ics");
   expect(icsValue(ics, "UID")).toBe(uid);

@@ -8,7 +8,9 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { listMail, MAIL_FAKE, signIn } from "./helpers";
 
-/** Screenshots at 1366, 390 and 360 px into data/screens; no axe violations at 1366 and 390; no sideways scroll at 360. */
+/**
+ * Screenshots at 1366, 390 and 360 px into data/screens; no axe violations at 1366 and 390; no sideways scroll at 360.
+ */
 async function checkPage(page: Page, name: string) {
   for (const width of [1366, 390, 360]) {
     await page.setViewportSize({ width, height: width > 400 ? 900 : 800 });

@@ -136,7 +136,8 @@ test("the configurator's browser sees geometry and quantity factors, never rates
 });
 
 test("a breakdown stored before markup and margin were told apart reads as a markup on cost", () => {
-  // The old engine: materials $522.00, labour 10 h $750.00, overhead $190.80, "margin" $292.56 (20 % on cost), total $1,755.36.
+  // The old engine: materials $522.00, labour 10 h $750.00, overhead $190.80, "margin" $292.56 (20 % on cost), total
+  // $1,755.36.
   const old = {
     materialsCents: 52_200,
     labourHours: 10,

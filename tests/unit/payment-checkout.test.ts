@@ -245,7 +245,8 @@ test("two cancels of one paid consult at the same moment: one cancels, the other
   ]);
   expect(results.filter((r) => r.ok)).toHaveLength(1);
   const refused = results.find((r) => !r.ok);
-  // Told it changed, or (had the first already finished when it read) that it is no longer booked: a conflict either way.
+  // Told it changed, or (had the first already finished when it read) that it is no longer booked: a conflict either
+  // way.
   expect(refused && !refused.ok && cancelRefusalStatus(refused)).toBe(409);
 
   await processRefunds(client);

@@ -14,7 +14,10 @@ import {
 import { describeSeat } from "~/lib/design/design-plan";
 import { speakLengths } from "~/lib/format/length-text";
 
-/** A distance field's consequence, said beside the field: what the contractor works to, and a note when the spot is closer. */
+/**
+ * A distance field's consequence, said beside the field: what the contractor works to, and a note when the spot is
+ * closer.
+ */
 export type SiteFieldNote = { requiredFt: number | null; note: string | null };
 export type SiteFieldNotes = Record<"setback" | "propertyLine" | "branches", SiteFieldNote>;
 
@@ -40,7 +43,9 @@ function Section({ title, hint, children }: { title: string; hint?: ReactNode; c
   );
 }
 
-/** A patio's width across, from its radius in feet: feet for inches, metres for millimetres (1 ft = 0.3048 m exactly). */
+/**
+ * A patio's width across, from its radius in feet: feet for inches, metres for millimetres (1 ft = 0.3048 m exactly).
+ */
 const patioAcross = (radiusFt: number, unit: LengthUnit) =>
   unit === "mm"
     ? `${(Math.round(radiusFt * 2 * 0.3048 * 10) / 10).toLocaleString("en-US")} m across`
@@ -109,8 +114,9 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
                   {s.colourName} · {sizeText(s, unit)}
                 </span>
               </span>
-              {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1). Keyboard focus is a dark dashed ring outside
-                  the card, so it cannot be mistaken for the orange border that marks the chosen stone (WCAG 2.1 SC 2.4.7). */}
+              {/* Chosen is shown by a mark too, not by colour alone (WCAG 2.1 SC 1.4.1). Keyboard focus
+                  is a dark dashed ring outside the card, so it cannot be mistaken for the orange border
+                  that marks the chosen stone (WCAG 2.1 SC 2.4.7). */}
               {s.id === design.stoneId ? (
                 <span
                   className="absolute -top-2.5 right-2 rounded-full bg-action px-2 py-0.5 text-[0.7rem] font-extrabold text-white"

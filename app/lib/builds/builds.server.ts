@@ -609,7 +609,10 @@ export async function hasCalendarFeed(userId: number): Promise<boolean> {
   return Boolean(row?.hash);
 }
 
-/** The feed of a link's owner: their booked builds from 30 days back on; null for an unknown or revoked link or an inactive person. */
+/**
+ * The feed of a link's owner: their booked builds from 30 days back on; null for an unknown or revoked link or an
+ * inactive person.
+ */
 export async function calendarFeedFor(token: string, now = new Date()): Promise<string | null> {
   if (!/^[A-Za-z0-9_-]{20,64}$/.test(token)) return null;
   const [person] = await db

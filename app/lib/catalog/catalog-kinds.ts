@@ -62,7 +62,10 @@ const d = (
   short = label.toLowerCase(),
 ): DimensionRule => ({ key, label, short, hint, min, max });
 
-/** The dimensions each kind needs, with the range accepted (inches). Ranges cover every unit sold for this work with room to spare. */
+/**
+ * The dimensions each kind needs, with the range accepted (inches). Ranges cover every unit sold for this work with
+ * room to spare.
+ */
 export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
   "wall-unit": [
     d("faceIn", "Face length", "The outer, exposed face", 2, 36, "face"),
@@ -101,7 +104,9 @@ export const KIND_DIMENSIONS: Record<CatalogKind, DimensionRule[]> = {
   "edge-spike": [],
 };
 
-/** An item's sizes with what each one is: [{ name: "face", value: "11 in" }, { name: "back", value: "7 1/2 in" }, …]. */
+/**
+ * An item's sizes with what each one is: [{ name: "face", value: "11 in" }, { name: "back", value: "7 1/2 in" }, …].
+ */
 export function describeSizes(
   kind: CatalogKind,
   sizes: Partial<Record<DimensionKey, number | null>>,

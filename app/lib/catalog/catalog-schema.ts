@@ -7,7 +7,10 @@ import { fieldErrors, formId, formLength, formNumber } from "~/lib/format/form-f
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { formatInches } from "~/domain/units";
 
-/** A form field that may be left blank (or left out): blank gives `blank`, anything else must pass `schema`, whose message is kept. */
+/**
+ * A form field that may be left blank (or left out): blank gives `blank`, anything else must pass `schema`, whose
+ * message is kept.
+ */
 function blankOr<T, B>(schema: z.ZodType<T, string>, blank: B) {
   return z
     .string()

@@ -60,7 +60,9 @@ const versionBySlug = db
   .limit(1)
   .prepare();
 
-/** A company by slug with its active catalog, as stored now (kept in memory while unchanged); null for no such company. */
+/**
+ * A company by slug with its active catalog, as stored now (kept in memory while unchanged); null for no such company.
+ */
 export async function loadOfferedCatalog(slug: string): Promise<Offered | null> {
   const head = await versionBySlug.get({ slug });
   if (!head) return null;
@@ -79,7 +81,10 @@ export async function loadOfferedCatalog(slug: string): Promise<Offered | null> 
   return value;
 }
 
-/** Forgets cached companies and catalogs. Not needed for correctness (the version check sees every change); frees memory. */
+/**
+ * Forgets cached companies and catalogs. Not needed for correctness (the version check sees every change); frees
+ * memory.
+ */
 export function forgetOfferedCatalogs(): void {
   offeredCache.clear();
 }

@@ -868,7 +868,9 @@ export const cancelRefusalStatus = (refusal: CancelRefusal): 404 | 409 => (refus
 
 const REFUND_BATCH_SIZE = 10;
 
-/** Cancelled consults that were paid, refunded through the shared refund worker (app/lib/jobs/refund-queue.server.ts). */
+/**
+ * Cancelled consults that were paid, refunded through the shared refund worker (app/lib/jobs/refund-queue.server.ts).
+ */
 function consultRefundQueue(database: Db): RefundQueue {
   return {
     label: "booking",

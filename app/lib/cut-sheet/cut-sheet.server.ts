@@ -30,7 +30,9 @@ export type CutSheet = {
   sceneInput: PitSceneInput;
 };
 
-/** The cut sheet of a lead the user may open (null otherwise: callers answer 404), built to its latest design version. */
+/**
+ * The cut sheet of a lead the user may open (null otherwise: callers answer 404), built to its latest design version.
+ */
 export async function loadCutSheet(user: SessionUser, leadId: number | null): Promise<CutSheet | null> {
   const lead = await findLeadFor(user, leadId);
   if (!lead) return null;

@@ -35,7 +35,9 @@ export async function planForDesign(
   }
 }
 
-/** The record saved with a request or a revision: the design, the parts and prices the plan was made from, and the plan. */
+/**
+ * The record saved with a request or a revision: the design, the parts and prices the plan was made from, and the plan.
+ */
 export function recordPlan(args: {
   design: Design;
   summary: SummaryLine[];

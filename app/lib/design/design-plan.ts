@@ -104,7 +104,10 @@ export function designToPlanInput(
   };
 }
 
-/** The geometry of a design computed in the browser with the company's public factors (no prices); null when it cannot be built. */
+/**
+ * The geometry of a design computed in the browser with the company's public factors (no prices); null when it cannot
+ * be built.
+ */
 export function planLocally(
   design: Design,
   catalog: CatalogChoice[],

@@ -1,7 +1,9 @@
 import type { PriceBreakdown } from "~/domain/pricing";
 import { formatMoney } from "~/lib/format/money";
 
-/** A price breakdown as stored with a plan; plans saved before markup and margin were told apart carry `marginCents`. */
+/**
+ * A price breakdown as stored with a plan; plans saved before markup and margin were told apart carry `marginCents`.
+ */
 export type StoredBreakdown = Partial<PriceBreakdown> &
   Pick<
     PriceBreakdown,

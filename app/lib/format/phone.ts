@@ -7,7 +7,10 @@ import { parsePhoneNumberFromString } from "libphonenumber-js/min";
  */
 export const DEFAULT_PHONE_REGION = "US" as const;
 
-/** "(217) 555-0142" for a North American number, "+44 20 7946 0958" for others; text that is not a number is shown as stored. */
+/**
+ * "(217) 555-0142" for a North American number, "+44 20 7946 0958" for others; text that is not a number is shown as
+ * stored.
+ */
 export function formatPhone(stored: string): string {
   const parsed = parsePhoneNumberFromString(stored, DEFAULT_PHONE_REGION);
   if (!parsed) return stored;

@@ -42,7 +42,10 @@ export function zoneOffsetMinutes(date: Date, timeZone: string): number {
   return Math.round((asUtc - Math.floor(date.getTime() / 1000) * 1000) / 60_000);
 }
 
-/** The UTC instant of a local wall-clock time (minutes after midnight) in a zone; across a fall-back hour the later offset wins. */
+/**
+ * The UTC instant of a local wall-clock time (minutes after midnight) in a zone; across a fall-back hour the later
+ * offset wins.
+ */
 export function zonedTimeToUtc(year: number, month: number, day: number, minutes: number, timeZone: string): Date {
   const guess = Date.UTC(year, month - 1, day, 0, minutes);
   let result = guess - zoneOffsetMinutes(new Date(guess), timeZone) * 60_000;

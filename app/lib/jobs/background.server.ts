@@ -43,7 +43,10 @@ export async function sweepStrayUploads(
   return true;
 }
 
-/** One pass of the background work: due e-mails, owed refunds, lapsed consult holds, proposals past their date, deposit refunds, and now and then photos left by a crash. */
+/**
+ * One pass of the background work: due e-mails, owed refunds, lapsed consult holds, proposals past their date, deposit
+ * refunds, and now and then photos left by a crash.
+ */
 export async function runBackgroundPass(): Promise<void> {
   await deliverDueEmails();
   await processRefunds();

@@ -69,7 +69,8 @@ export async function deliverDueEmails(
         // Its last worker stopped mid-send (the lease lapsed) and it has no tries left.
         failure = { status: null, message: "no tries left after the worker stopped mid-send" };
       } else {
-        // A row that does not parse fails like any other send (a ZodError, caught below), never as a half-read attachment.
+        // A row that does not parse fails like any other send (a ZodError, caught below), never as a half-read
+        // attachment.
         const attachments = outboxAttachmentsSchema.parse(JSON.parse(row.attachmentsJson));
         const sender = senderHeaders({
           sendingFrom: env.EMAIL_FROM,

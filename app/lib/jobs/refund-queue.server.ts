@@ -9,7 +9,10 @@ import { iso, isPermanentStatus, retryDelayMs, type Backoff } from "~/lib/jobs/j
  * app/lib/jobs/jobs.server.ts (lease, attempt counted at claim, backoff, cap, owner told) live here once.
  */
 
-/** Refunds wait 30 s, 1 min, 2 min … at most an hour between tries: eight tries span about two hours before the owner is told. */
+/**
+ * Refunds wait 30 s, 1 min, 2 min … at most an hour between tries: eight tries span about two hours before the owner is
+ * told.
+ */
 export const REFUND_BACKOFF: Backoff = { baseMs: 30_000, maxMs: 60 * 60_000, maxAttempts: 8 };
 
 /** A claimed row: what the worker needs to send its refund. */

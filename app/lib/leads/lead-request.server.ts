@@ -31,7 +31,10 @@ export type LeadRequestOutcome =
       headers?: Record<string, string>;
     };
 
-/** A contractor by its public slug, with its active catalog as the configurator sees it and the factors the browser may see; 404 when unknown. */
+/**
+ * A contractor by its public slug, with its active catalog as the configurator sees it and the factors the browser may
+ * see; 404 when unknown.
+ */
 export async function loadCompanyCatalog(slug: string) {
   const company = await findCompanyBySlug(slug);
   if (!company) throw new Response("Not found", { status: 404 });
@@ -112,7 +115,8 @@ export async function receiveLeadRequest({
   const stored = await storeReceivedPhotos(received);
   if (!stored.ok) return refused(400, { photos: stored.message }, values);
   const { plan } = result;
-  // The stored record (lead page, cut sheet, PDF) stays in inches for the crew; the e-mails speak the homeowner's chosen unit.
+  // The stored record (lead page, cut sheet, PDF) stays in inches for the crew; the e-mails speak the homeowner's
+  // chosen unit.
   const summary = summarizeDesign(publicPlan(plan) as PublicPlan, design, catalog, "in");
   const summaryInChosenUnit = summaryInUnit(summary, design.unit);
   let lead: Awaited<ReturnType<typeof createLead>>;

@@ -75,7 +75,10 @@ export type PlannedGroup = {
 };
 export type PlannedOrder = { groups: PlannedGroup[]; problems: RoundingProblem[] };
 
-/** The catalog item behind each line of the material order: the design's choice, else the first offered item of the kind. */
+/**
+ * The catalog item behind each line of the material order: the design's choice, else the first offered item of the
+ * kind.
+ */
 function itemFor(
   key: string,
   choices: {

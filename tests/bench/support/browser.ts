@@ -6,7 +6,9 @@ import { chromium, type Page } from "@playwright/test";
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? "/usr/bin/chromium";
 
-/** One slider step: keydown to painted frame, split into the wait before the plan request, the request, and the rest. */
+/**
+ * One slider step: keydown to painted frame, split into the wait before the plan request, the request, and the rest.
+ */
 export type StepTiming = { totalMs: number; waitMs: number; requestMs: number; renderMs: number };
 
 export type BrowserFigures = { drawCalls: number; triangles: number; steps: StepTiming[] };

@@ -266,7 +266,8 @@ test("inside a three-sided wall the fill is measured against the triangle, 3·a�
     planSteelRing({ bowlDiameterIn: 40, insert: { outsideDiameterIn: 36, heightIn: 10 }, minGapIn: 0.5, wallSides: 3 })
       .fillFt3,
   ).toBeCloseTo(6.1376, 3);
-  // Firebrick, 12 a row (a_in + t = 19.294 in): (2078.46 − 1196.97) in² × 10 in lined (2 rows and a 1 in rip) = 8814.9 in³ = 5.101 ft³.
+  // Firebrick, 12 a row (a_in + t = 19.294 in): (2078.46 − 1196.97) in² × 10 in lined (2 rows and a 1 in rip) = 8814.9
+  // in³ = 5.101 ft³.
   expect(planFirebrick({ bowlDiameterIn: 40, linedHeightIn: 10, brick: STRAIGHT, wallSides: 3 }).fillFt3).toBeCloseTo(
     5.101,
     2,

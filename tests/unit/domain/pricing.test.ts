@@ -106,7 +106,8 @@ test("job B, by hand: 20 % margin of price, a $95/h billed labour rate, site cos
   // 4 × $8.50 = $34.00; total $713.40. Sales tax 8 % on materials: $57.072 → $57.07.
   // Price factor: overhead then margin, 1.10 ÷ (1 − 0.20) = 1.375. The billed $95/h is worked back to
   // a cost of 95 ÷ 1.375 = $69.0909…/h; 11.25 h × 6,909.0909… = 77,727.27 → $777.27.
-  // Site costs: delivery $120 + equipment $85 + disposal $60 = $265. Job cost 71,340 + 5,707 + 77,727 + 26,500 = $1,812.74.
+  // Site costs: delivery $120 + equipment $85 + disposal $60 = $265. Job cost 71,340 + 5,707 + 77,727 + 26,500 =
+  // $1,812.74.
   // Overhead 10 % = 18,127.4 → $181.27. Cost $1,994.01.
   // Margin 20 % of the price: profit = cost × 20/80 = 49,850.25 → $498.50. Price of the work $2,492.51.
   // Check: 498.50 ÷ 2,492.51 = 20.00 % of the price, 498.50 ÷ 1,994.01 = 25.00 % on cost.

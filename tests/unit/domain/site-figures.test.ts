@@ -69,10 +69,12 @@ test("cap overhangs along a straight cap: least outside where the cap's middle p
   const plan = computePlan(TYPICAL_PIT);
   const caps = plan.caps!;
   const a = plan.ring.edgeDistanceIn;
-  // a2 = 28.2877; wall corner √(26.2877² + 6²) = 26.9638 → 1.324 in; cap corner √(28.2877² + 7.4826²) = 29.2606 − 26.2877 = 2.973 in.
+  // a2 = 28.2877; wall corner √(26.2877² + 6²) = 26.9638 → 1.324 in; cap corner √(28.2877² + 7.4826²) = 29.2606 −
+  // 26.2877 = 2.973 in.
   expect(caps.overhangRange.outerMinIn).toBeCloseTo(1.324, 3);
   expect(caps.overhangRange.outerMaxIn).toBeCloseTo(2.973, 3);
-  // Inside: back corner a / cos(π/14) = 18.7577 − a1 16.2877 = 2.470; cap corner √(16.2877² + 4.2672²) = 16.8374: a − that = 1.450.
+  // Inside: back corner a / cos(π/14) = 18.7577 − a1 16.2877 = 2.470; cap corner √(16.2877² + 4.2672²) = 16.8374: a −
+  // that = 1.450.
   expect(caps.overhangRange.innerMaxIn).toBeCloseTo(2.47, 3);
   expect(caps.overhangRange.innerMinIn).toBeCloseTo(1.45, 3);
   expect(a / Math.cos(Math.PI / 14) - caps.innerEdgeDistanceIn).toBeCloseTo(2.47, 3);

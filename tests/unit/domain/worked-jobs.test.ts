@@ -5,7 +5,8 @@ import { PATIO, SUPPLY_PRICES, TYPICAL_PIT } from "./fixtures";
 /*
  * Three jobs worked by hand (with a calculator, from the formulas in shared trade notes, not from
  * the engine), every quantity and labour line pinned. Factors are the defaults, each with its source:
- *  - spares: wall units +5 % (at least 1), caps +1, firebrick +5 %, border +5 % (at least 1): common practice, no source
+ *  - spares: wall units +5 % (at least 1), caps +1, firebrick +5 %, border +5 % (at least 1): common practice, no
+ * source
  *  - base 6 in deep, 6 in past the outside corners, patio base 4 in and max(4, 6) = 6 in past the
  *    paver edge (ICPI Tech Spec 2); loose 1.25 × compacted, +10 %, 1.4 t/yd³ (from memory);
  *    1 yd³ = 46,656 in³, 1 ft² = 144 in², 1 ft³ = 1728 in³, 1 gal = 231 in³ (NIST SP 811)
@@ -122,7 +123,8 @@ test("job B, an exact 40 in bowl: 4 courses of 14 whole units and a closure, 13 
     adhesive: 5,
   });
   expect(plan.liner).toMatchObject({ kind: "firebrick", bricksPerRow: 12, fullRows: 3, rippedRows: 1, ripCuts: 12 });
-  // The order's notes: one closure a course × 4 courses; 410.8 in³ of mortar; 0.720 ft³ of sand; 0.4847 yd³; 596.2 in of bead.
+  // The order's notes: one closure a course × 4 courses; 410.8 in³ of mortar; 0.720 ft³ of sand; 0.4847 yd³; 596.2 in
+  // of bead.
   expect(plan.materials.map((m) => [m.key, m.item, m.unit, m.note])).toEqual([
     ["wall-unit", "Wall units", "each", "4 courses of 15, 4 of them cut down as closure units, plus 3 spare"],
     ["cap", "Cap blanks", "each", "13 caps cut from 16 in × 12 in blanks, plus 1 spare"],

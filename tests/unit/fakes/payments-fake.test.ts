@@ -225,7 +225,8 @@ test("the hosted page is the stand-in's own: labelled as local, naming what is p
 });
 
 test("expires_at is honoured from 30 minutes to 24 hours ahead; outside that range it is a 400 naming expires_at, as the service answers", async () => {
-  // Stripe docs, "Manage limited inventory": "The value must be between 30 minutes and 24 hours after the current time."
+  // Stripe docs, "Manage limited inventory": "The value must be between 30 minutes and 24 hours after the current
+  // time."
   const now = Math.floor(Date.now() / 1000);
   const inRange = await stripe.checkout.sessions.create({ ...consultCheckout("bk_120"), expires_at: now + 35 * 60 });
   expect(inRange.expires_at).toBe(now + 35 * 60);
