@@ -1,4 +1,4 @@
-import { formatPhone, phoneHref } from "~/lib/format/phone";
+import type { PhoneDisplay } from "~/lib/format/phone";
 
 /** "1 hour", "90 minutes", "2 hours". */
 export function visitLength(minutes: number): string {
@@ -30,7 +30,7 @@ export function VisitFacts(props: { minutes: number; address: string; fee: strin
  * What happens at the visit and what to have ready: the homeowner's side of the consult, in plain
  * words. Trade practice, no source: these are the things a site visit for a masonry pit settles.
  */
-export function VisitBrief(props: { companyName: string; phone: string; minutes: number }) {
+export function VisitBrief(props: { companyName: string; phone: PhoneDisplay; minutes: number }) {
   return (
     <aside
       aria-labelledby="visit-title"
@@ -72,11 +72,8 @@ export function VisitBrief(props: { companyName: string; phone: string; minutes:
           <>
             {" "}
             at{" "}
-            <a
-              href={phoneHref(props.phone)}
-              className="font-bold whitespace-nowrap text-white underline underline-offset-2"
-            >
-              {formatPhone(props.phone)}
+            <a href={props.phone.href} className="font-bold whitespace-nowrap text-white underline underline-offset-2">
+              {props.phone.text}
             </a>
           </>
         ) : null}

@@ -18,7 +18,7 @@ import { designToSearchParams, parseDesign } from "~/lib/design/design";
 import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design/design-plan";
 import { publicPlan } from "~/lib/design/plan.server";
 import { speakLengths, summaryInUnit } from "~/lib/format/length-text";
-import { formatPhone, phoneHref } from "~/lib/format/phone";
+import { phoneDisplay } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Design your fire pit · ${loaderData.company.name}` : "Design your fire pit" },
@@ -34,7 +34,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const design = parseDesign(new URL(request.url).searchParams, catalog);
   const result = design ? await planForDesign(company.slug, design, catalog, factors) : { plan: null, errors: [] };
   return {
-    company: { slug: company.slug, name: company.name, town: company.town, phone: company.phone },
+    company: { slug: company.slug, name: company.name, town: company.town, phone: phoneDisplay(company.phone) },
     catalog,
     factors,
     design,
@@ -117,8 +117,8 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
             {company.phone ? (
               <p className="mt-1 text-sm text-char-700">
                 Questions first? Call {company.name}:{" "}
-                <a href={phoneHref(company.phone)} className="font-bold text-ember-700 underline underline-offset-2">
-                  {formatPhone(company.phone)}
+                <a href={company.phone.href} className="font-bold text-ember-700 underline underline-offset-2">
+                  {company.phone.text}
                 </a>
               </p>
             ) : null}

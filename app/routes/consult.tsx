@@ -24,6 +24,7 @@ import { findLeadByRef } from "~/lib/leads/leads.server";
 import { formatMoney } from "~/lib/format/money";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
 import { possessive } from "~/lib/format/wording";
+import { phoneDisplay } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = () => [{ title: "Book a design consult · Emberwright" }];
 
@@ -62,7 +63,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       name: company.name,
       timeZone: company.timeZone,
       fee: formatMoney(company.consultFeeCents),
-      phone: company.phone,
+      phone: phoneDisplay(company.phone),
       visitMinutes: company.consultSlotMinutes,
     },
     firstName: lead.customerName.split(" ")[0],

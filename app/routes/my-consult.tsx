@@ -9,7 +9,7 @@ import { FormAlert } from "~/components/ui/field";
 import { designLine, loadHomeownerConsult, listCompanySlots, rescheduleBooking } from "~/lib/consults/booking.server";
 import { groupSlotsByDay, HOMEOWNER_CHANGE_CUTOFF_HOURS } from "~/lib/consults/consult-slots";
 import { formatMoney } from "~/lib/format/money";
-import { formatPhone } from "~/lib/format/phone";
+import { phoneDisplay } from "~/lib/format/phone";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
 
@@ -45,7 +45,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     company: {
       name: company.name,
       timeZone: company.timeZone,
-      phone: company.phone,
+      phone: phoneDisplay(company.phone),
       visitMinutes: company.consultSlotMinutes,
     },
     booking: { startsAt: booking.startsAt, fee: formatMoney(booking.amountCents), isBooked, canMove },
@@ -111,7 +111,7 @@ export default function MoveConsultRoute({ loaderData, actionData }: Route.Compo
           ) : !booking.canMove ? (
             <p className="card p-6">
               Less than a day to go: please call {company.name}
-              {company.phone ? ` at ${formatPhone(company.phone)}` : ""} to change it.
+              {company.phone ? ` at ${company.phone.text}` : ""} to change it.
             </p>
           ) : days.length === 0 ? (
             <p className="card p-6">No other times are free in the coming weeks. Call {company.name} to find one.</p>

@@ -8,7 +8,7 @@ import { FormAlert } from "~/components/ui/field";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { describePreview, planToSceneInput } from "~/lib/design/design-plan";
-import { formatPhone, phoneHref } from "~/lib/format/phone";
+import { phoneDisplay } from "~/lib/format/phone";
 import { cancelBooking, cancelRefusalStatus, HOMEOWNER_CANCEL_CUTOFF_HOURS } from "~/lib/consults/booking.server";
 import { findHomeownerBooking, loadHomeownerRequestDetails } from "~/lib/leads/homeowner.server";
 import { HOMEOWNER_STATUS_LABEL } from "~/lib/leads/lead-status";
@@ -58,7 +58,7 @@ export async function loader({ request }: Route.LoaderArgs) {
         id: lead.id,
         companyName: company.name,
         companyTimeZone: company.timeZone,
-        companyPhone: company.phone,
+        companyPhone: phoneDisplay(company.phone),
         // Newest first: every revision sent to them, then their own request as they sent it.
         designs: [
           ...sentRevisions
@@ -190,10 +190,10 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
               <p className="-mt-2 text-sm text-char-700">
                 Questions about it? Call {req.companyName} at{" "}
                 <a
-                  href={phoneHref(req.companyPhone)}
+                  href={req.companyPhone.href}
                   className="font-bold whitespace-nowrap text-ember-700 underline underline-offset-2"
                 >
-                  {formatPhone(req.companyPhone)}
+                  {req.companyPhone.text}
                 </a>{" "}
                 or reply to any of their e-mails.
               </p>
@@ -260,7 +260,7 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                 ) : (
                   <span className="text-char-600">
                     Less than a day to go: call {req.companyName}
-                    {req.companyPhone ? ` at ${formatPhone(req.companyPhone)}` : ""} to change it.
+                    {req.companyPhone ? ` at ${req.companyPhone.text}` : ""} to change it.
                   </span>
                 )}
               </div>
