@@ -7,7 +7,7 @@
 //   (and no 100 Continue), a chunked body is cut off the moment it passes the cap;
 // - built files and the favicon carry nosniff, and answers the app never shaped (the framework's
 //   400 for a malformed Origin, a 500) still carry the security headers;
-// - the access log never shows a query string or a one-time link's token.
+// - the access log never shows a query string or the secret of a link that is its own credential.
 import { createServer } from "node:http";
 import path from "node:path";
 import { Transform } from "node:stream";
@@ -39,10 +39,8 @@ function pathnameOf(rawUrl) {
   return q === -1 ? rawUrl : rawUrl.slice(0, q);
 }
 
-/** The log line's path: no query string, and a one-time link's token replaced. */
-function loggedPath(rawUrl) {
-  return pathnameOf(rawUrl).replace(/^\/welcome\/[^/]+/, "/welcome/…");
-}
+/** The log line's path: no query string, and the secret of a link that is its own credential replaced. */
+const loggedPath = hooks.accessLogPath;
 
 function sendPlain(res, status, headers, body) {
   const web = new Headers(headers);

@@ -11,6 +11,7 @@ import { socketAddressContext } from "~/lib/platform/rate-limit.server";
 import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.server";
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
+import { accessLogPath } from "~/lib/platform/access-log";
 
 export const streamTimeout = 5_000;
 
@@ -31,6 +32,7 @@ export const serverHooks = {
   bodyLimitFor,
   bodyTooLarge,
   applyBaselineHeaders,
+  accessLogPath,
   /** The request context for one request: the socket's peer address, for per-address limits. */
   createLoadContext(socketAddress: string | undefined): RouterContextProvider {
     const context = new RouterContextProvider();

@@ -152,6 +152,12 @@ test("every supplier page the owner sees has no accessibility violations and fit
   );
 });
 
+test("the build pages have no accessibility violations and fit a 360 px phone", async ({ page }) => {
+  await signIn(page, "owner@cinder-slate.test");
+  const job = await leadPathFrom(page, "/app/jobs");
+  expectClean(await auditPaths(page, [`${job}/build`, "/app/calendar"]));
+});
+
 test("every page the estimator sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
   await signIn(page, "estimator@cinder-slate.test");
   const lead = await leadPathFrom(page, "/app/inbox");
@@ -171,5 +177,7 @@ test("every page the estimator sees has no accessibility violations and fits a 3
 test("every page the crew sees has no accessibility violations and fits a 360 px phone", async ({ page }) => {
   await signIn(page, "crew@cinder-slate.test");
   const job = await leadPathFrom(page, "/app/jobs");
-  expectClean(await auditPaths(page, ["/app/jobs", job, `${job}/cut-sheet`, "/app/catalog", "/app/catalog/1"]));
+  expectClean(
+    await auditPaths(page, ["/app/jobs", job, `${job}/cut-sheet`, "/app/catalog", "/app/catalog/1", "/app/calendar"]),
+  );
 });
