@@ -129,12 +129,8 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
                 </p>
               </div>
               {canBook ? (
-                <Link
-                  to={`/app/leads/${b.leadId}/build`}
-                  className="btn-quiet"
-                  aria-label={`Change the build dates of ${b.customerName}`}
-                >
-                  Change dates
+                <Link to={`/app/leads/${b.leadId}/build`} className="btn-quiet">
+                  Change dates<span className="sr-only"> of {b.customerName}</span>
                 </Link>
               ) : null}
             </li>

@@ -67,7 +67,7 @@ test("the owner books a signed job's build, sees it on the schedule, moves it, a
   await expect(builds).toContainText(bookedDays);
 
   // Moved a week later by a new first day: same event, raised sequence.
-  await builds.getByRole("link", { name: "Change the build dates of Tobias Wren" }).click();
+  await builds.getByRole("link", { name: "Change dates of Tobias Wren" }).click();
   const startField = page.getByLabel("New first day");
   const oldStart = await startField.inputValue();
   const later = new Date(`${oldStart}T12:00:00Z`);
