@@ -91,8 +91,11 @@ const leaveSchema = z.object({
     .positive({ error: "Booking must be a positive id." }),
 });
 
-/** Back from the payment page without paying: frees the held time once the page is shown. */
-function useLeaveCheckout(bookingId: number | null) {
+/**
+ * Back from the payment page without paying: frees the held time once the page is shown. True once
+ * the time is free and the page's times are read again (the post and its revalidation are done).
+ */
+function useLeaveCheckout(bookingId: number | null): boolean {
   const fetcher = useFetcher();
   const sent = useRef<number | null>(null);
   const leave = useEffectEvent(
@@ -103,6 +106,7 @@ function useLeaveCheckout(bookingId: number | null) {
     sent.current = bookingId;
     leave(bookingId);
   }, [bookingId]);
+  return fetcher.state === "idle" && fetcher.data !== undefined;
 }
 
 // Per company and address, like the request form.
@@ -172,7 +176,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 
 export default function ConsultRoute({ loaderData, actionData }: Route.ComponentProps) {
   const { company, firstName, booking, days, didLeave, address, design } = loaderData;
-  useLeaveCheckout(loaderData.leftBookingId);
+  // Said only once it is true: the held time is free and the times below include it again.
+  const isFreed = useLeaveCheckout(loaderData.leftBookingId);
   const navigation = useNavigation();
   const isPaying = navigation.state !== "idle" && navigation.formMethod === "POST";
   return (
@@ -188,7 +193,7 @@ export default function ConsultRoute({ loaderData, actionData }: Route.Component
         </div>
         <VisitFacts minutes={company.visitMinutes} address={address} fee={company.fee} design={design} />
         {actionData?.error ? <FormAlert>{actionData.error}</FormAlert> : null}
-        {didLeave && !actionData ? (
+        {didLeave && isFreed && !actionData ? (
           <p role="status" className="rounded-lg bg-ash-100 px-4 py-3 text-sm font-semibold text-char-700">
             You left the payment page, so nothing was charged and that time is free again.
           </p>

@@ -166,10 +166,8 @@ export function renderCheckoutPage({ record, form, errors = {}, alert }: Checkou
     ? `<a class="back" href="${escapeHtml(session.cancel_url)}">Cancel and go back</a>`
     : "";
   // Who is paid is whatever the line items and the submit note say (the business names itself there).
-  const payee = record.lineItems[0]?.name ?? "";
   const submitNote = record.submitMessage ? `<p class="submit-message">${escapeHtml(record.submitMessage)}</p>` : "";
   const body = `<h1>Test checkout: ${escapeHtml(total)}</h1>
-${payee ? `<p class="payee">For ${escapeHtml(payee)}</p>` : ""}
 ${payer}
 ${summary(record)}
 <h2 id="card-heading">Card details</h2>

@@ -140,7 +140,8 @@ test("the owner blocks a day with a paid consult: warned at once, cancels and re
 }) => {
   await signIn(page, "owner@north-ridge.test");
   await page.goto("/app/schedule");
-  const firstDay = page.getByRole("main").getByRole("heading", { level: 2 }).first();
+  // Consult days are headed under "Design consults", after the builds.
+  const firstDay = page.getByRole("main").getByRole("heading", { level: 3 }).first();
   const day = (await firstDay.locator("time").getAttribute("datetime"))!;
   const dayLabel = new Intl.DateTimeFormat("en-US", {
     weekday: "long",

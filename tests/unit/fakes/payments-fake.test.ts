@@ -214,7 +214,7 @@ test("the hosted page is the stand-in's own: labelled as local, naming what is p
   );
   // The payee comes from the session's own line item, not from the stand-in.
   const item = consultCheckout("bk_110").line_items![0]!.price_data!.product_data!.name;
-  expect(page).toContain(`For ${item.replace(/&/g, "&amp;")}`);
+  expect(page).toContain(`<span>${item.replace(/&/g, "&amp;")}`);
   expect(page).not.toMatch(/Pay Emberwright/);
   // A note longer than the service's 1,200 characters is refused, naming the parameter.
   const error = (await stripe.checkout.sessions
