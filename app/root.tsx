@@ -3,18 +3,13 @@ import type { Route } from "./+types/root";
 import { ProblemPage } from "~/components/problem-page";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
-import nunitoBody from "@fontsource/nunito/files/nunito-latin-400-normal.woff2?url";
-import nunitoHeading from "@fontsource/nunito/files/nunito-latin-800-normal.woff2?url";
 import "./app.css";
 
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
-// The body and heading weights load with the page, so text does not jump when they swap in.
-export const links: Route.LinksFunction = () => [
-  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
-  { rel: "preload", href: nunitoBody, as: "font", type: "font/woff2", crossOrigin: "anonymous" },
-  { rel: "preload", href: nunitoHeading, as: "font", type: "font/woff2", crossOrigin: "anonymous" },
-];
+// Nunito is not preloaded: its faces use font-display: swap, so the first paint never waits for
+// them, and preloads would queue ahead of the stylesheet that the first paint does wait for.
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const nonce = useNonce();
