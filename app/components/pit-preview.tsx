@@ -20,7 +20,7 @@ export type PitPreviewProps = {
 // The server build drops the branch entirely, so no 3D code lands in the server bundle either.
 const PitScene = import.meta.env.SSR ? null : lazy(() => import("~/scene/pit-scene"));
 
-/** How long the page stays as it loaded (plan drawing) before the 3D code starts, unless the visitor reaches for the preview. */
+/** How long the page stays as loaded (plan drawing) before the 3D code starts, unless the visitor reaches for it. */
 const SETTLE_MS = 2500;
 /** How long the browser may stay busy after that before the 3D preview starts loading anyway. */
 const IDLE_TIMEOUT_MS = 3000;
