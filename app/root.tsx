@@ -3,18 +3,13 @@ import type { Route } from "./+types/root";
 import { ProblemPage } from "~/components/problem-page";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
-import nunitoBody from "@fontsource/nunito/files/nunito-latin-400-normal.woff2?url";
-import nunitoHeading from "@fontsource/nunito/files/nunito-latin-800-normal.woff2?url";
-import "./app.css";
+import stylesheet from "./app.css?url";
 
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
-// The body and heading weights load with the page, so text does not jump when they swap in.
-export const links: Route.LinksFunction = () => [
-  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
-  { rel: "preload", href: nunitoBody, as: "font", type: "font/woff2", crossOrigin: "anonymous" },
-  { rel: "preload", href: nunitoHeading, as: "font", type: "font/woff2", crossOrigin: "anonymous" },
-];
+// Nunito is not preloaded: its faces use font-display: swap with a metric-matched fallback (app.css),
+// so the first paint never waits for them.
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const nonce = useNonce();
@@ -24,6 +19,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <meta charSet="utf-8" />
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         <meta name="theme-color" content="#1f1b19" />
+        {/* Ahead of <Links /> and its module preloads: the first paint waits for this file and nothing else. */}
+        <link rel="stylesheet" href={stylesheet} precedence="default" />
         <Meta />
         <Links />
       </head>

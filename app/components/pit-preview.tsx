@@ -1,4 +1,4 @@
-import { Component, Suspense, lazy, useState, type ErrorInfo, type ReactNode } from "react";
+import { Component, Suspense, lazy, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
 import { useBrowserValue } from "~/components/use-browser-value";
 import type { LengthUnit } from "~/domain/units";
@@ -19,6 +19,55 @@ export type PitPreviewProps = {
 // three.js and react-three-fiber arrive only through this import, after hydration, on the client.
 // The server build drops the branch entirely, so no 3D code lands in the server bundle either.
 const PitScene = import.meta.env.SSR ? null : lazy(() => import("~/scene/pit-scene"));
+
+/** How long the page stays as loaded (plan drawing) before the 3D code starts, unless the visitor reaches for it. */
+const SETTLE_MS = 2500;
+/** How long the browser may stay busy after that before the 3D preview starts loading anyway. */
+const IDLE_TIMEOUT_MS = 3000;
+
+let sceneModule: Promise<unknown> | undefined;
+let hurry = () => {};
+
+/**
+ * Loads the 3D code once the page has loaded, settled for a moment and the browser is idle, in two steps
+ * (three.js first, then the scene with react-three-fiber), so neither the first paint nor hydration
+ * waits for it and its parsing is split over two tasks instead of one long one. Shared by every
+ * preview on the page.
+ */
+function loadSceneWhenIdle(): Promise<unknown> {
+  sceneModule ??= new Promise<void>((resolve) => {
+    hurry = resolve;
+    void afterLoad()
+      .then(() => new Promise((settled) => setTimeout(settled, SETTLE_MS)))
+      .then(idle)
+      .then(resolve);
+  })
+    .then(() => import("three"))
+    .then(idle)
+    .then(() => import("~/scene/pit-scene"));
+  return sceneModule;
+}
+
+/** The visitor reached for the preview: stop waiting for the page to settle. */
+function loadSceneSoon() {
+  void loadSceneWhenIdle();
+  hurry();
+}
+
+function afterLoad(): Promise<void> {
+  return new Promise((resolve) => {
+    if (document.readyState === "complete") resolve();
+    else window.addEventListener("load", () => resolve(), { once: true });
+  });
+}
+
+function idle(): Promise<void> {
+  return new Promise((resolve) => {
+    if (typeof window.requestIdleCallback === "function")
+      window.requestIdleCallback(() => resolve(), { timeout: IDLE_TIMEOUT_MS });
+    else setTimeout(resolve, 200);
+  });
+}
 
 const UNAVAILABLE_NOTE = "3D preview unavailable on this device; showing the plan";
 
@@ -89,9 +138,26 @@ export function PitPreview({
   const [view, setView] = useState<"3d" | "plan">("3d");
   const [hasSceneFailed, setHasSceneFailed] = useState(false);
   const [resetSignal, setResetSignal] = useState(0);
+  // The plan drawing (same frame, same size) stays until the 3D code has arrived in an idle moment.
+  const [isSceneLoaded, setIsSceneLoaded] = useState(false);
+  const wantsScene = support === "webgl" && !hasSceneFailed && view === "3d";
+  useEffect(() => {
+    if (!wantsScene || isSceneLoaded) return;
+    let isCurrent = true;
+    loadSceneWhenIdle().then(
+      () => isCurrent && setIsSceneLoaded(true),
+      () => isCurrent && setHasSceneFailed(true),
+    );
+    return () => {
+      isCurrent = false;
+    };
+  }, [wantsScene, isSceneLoaded]);
+  const loadSceneNow = () => {
+    if (wantsScene && !isSceneLoaded) loadSceneSoon();
+  };
 
   const can3d = support === "webgl" && !hasSceneFailed && PitScene !== null;
-  const shows3d = can3d && view === "3d";
+  const shows3d = can3d && view === "3d" && isSceneLoaded;
   const showsNote = support === "none" || hasSceneFailed;
   const plan = (
     <PitPlanSvg input={input} unit={unit} formatLength={formatLength} className="h-full w-full" tabIndex={0} />
@@ -107,7 +173,12 @@ export function PitPreview({
 
   return (
     <figure className="overflow-hidden card" id={id}>
-      <div className={`relative w-full bg-ash-100 ${frameClassName}`} data-preview={shows3d ? "3d" : "plan"}>
+      <div
+        className={`relative w-full bg-ash-100 ${frameClassName}`}
+        data-preview={shows3d ? "3d" : "plan"}
+        onPointerEnter={loadSceneNow}
+        onFocus={loadSceneNow}
+      >
         {shows3d && PitScene ? (
           <SceneBoundary fallback={planWithNote} onError={() => setHasSceneFailed(true)}>
             <Suspense fallback={plan}>
@@ -133,8 +204,8 @@ export function PitPreview({
           </button>
           <button
             type="button"
-            className={shows3d ? "btn-quiet" : "btn-primary"}
-            aria-pressed={!shows3d}
+            className={view === "3d" && can3d ? "btn-quiet" : "btn-primary"}
+            aria-pressed={!(view === "3d" && can3d)}
             onClick={() => setView("plan")}
           >
             Plan view
