@@ -42,7 +42,7 @@ function loadSceneWhenIdle(): Promise<unknown> {
       .then(idle)
       .then(resolve);
   })
-    .then(() => import("three"))
+    .then(() => import("~/scene/three-core"))
     .then(idle)
     .then(() => import("~/scene/pit-scene"));
   return sceneModule;
