@@ -273,7 +273,7 @@ async function buildMail(args: {
     if (reminderAt.getTime() > Date.now()) {
       rows.push(
         await prepareOutboxRow({
-          idempotencyKey: `build-reminder/${build.id}/${build.sequence}`,
+          idempotencyKey: reminderKey(build.id, build.sequence),
           companyId: company.id,
           to: lead.email,
           subject: `Tomorrow: ${company.name} starts your fire pit`,
@@ -284,6 +284,28 @@ async function buildMail(args: {
     }
   }
   return rows;
+}
+
+/** The day-before reminder's outbox key: one per build and sequence, so a move queues a new one. */
+const reminderKey = (buildId: number, sequence: number) => `build-reminder/${buildId}/${sequence}`;
+
+/** Withdraws the reminders of every earlier sequence of the build that have not gone out yet. */
+function withdrawEarlierReminders(
+  tx: Pick<typeof db, "update">,
+  companyId: number,
+  build: { id: number; sequence: number },
+) {
+  const keys = Array.from({ length: build.sequence }, (_, s) => reminderKey(build.id, s));
+  return tx
+    .update(emailOutbox)
+    .set({ status: "cancelled" })
+    .where(
+      and(
+        eq(emailOutbox.companyId, companyId),
+        inArray(emailOutbox.idempotencyKey, keys),
+        eq(emailOutbox.status, "pending"),
+      ),
+    );
 }
 
 type BookInput = {
@@ -469,19 +491,7 @@ export async function moveBuild(
     await tx.delete(buildCrew).where(eq(buildCrew.buildId, row.id));
     await tx.insert(buildCrew).values(crew.map((c) => ({ buildId: row.id, userId: c.id, companyId: company.id })));
     // The reminder for the old first day is withdrawn; the new one comes with the new sequence.
-    await tx
-      .update(emailOutbox)
-      .set({ status: "cancelled" })
-      .where(
-        and(
-          eq(emailOutbox.companyId, company.id),
-          inArray(
-            emailOutbox.idempotencyKey,
-            Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`),
-          ),
-          eq(emailOutbox.status, "pending"),
-        ),
-      );
+    await withdrawEarlierReminders(tx, company.id, row);
     await tx.insert(leadEvents).values({
       companyId: company.id,
       leadId: lead.id,
@@ -542,19 +552,7 @@ export async function cancelBuild(
       .where(and(eq(builds.id, current.id), eq(builds.status, "booked"), eq(builds.sequence, input.sequence)))
       .returning();
     if (!row) return null;
-    await tx
-      .update(emailOutbox)
-      .set({ status: "cancelled" })
-      .where(
-        and(
-          eq(emailOutbox.companyId, company.id),
-          inArray(
-            emailOutbox.idempotencyKey,
-            Array.from({ length: row.sequence }, (_, s) => `build-reminder/${row.id}/${s}`),
-          ),
-          eq(emailOutbox.status, "pending"),
-        ),
-      );
+    await withdrawEarlierReminders(tx, company.id, row);
     await tx
       .update(leads)
       .set({ status: row.stageBefore, updatedAt: at })
