@@ -24,6 +24,21 @@ export * from "~/db/enums";
 const NOW_ISO = sql`(strftime('%Y-%m-%dT%H:%M:%fZ','now'))`;
 const createdAt = () => text("created_at").notNull().default(NOW_ISO);
 const updatedAt = () => text("updated_at").notNull().default(NOW_ISO);
+/**
+ * The refund a row may owe and the refund job's bookkeeping (app/lib/jobs/refund-queue.server.ts): the
+ * refund made, tries so far, when the next may run, why the last one failed, when it gave up (shown to
+ * the owner), and the lease of the process sending it. Every table with money to give back has them.
+ */
+const refundColumns = () => ({
+  refundId: text("refund_id"),
+  refundedAt: text("refunded_at"),
+  refundAttempts: integer("refund_attempts").notNull().default(0),
+  refundNextAt: text("refund_next_at"),
+  refundLastError: text("refund_last_error"),
+  refundFailedAt: text("refund_failed_at"),
+  refundLeaseOwner: text("refund_lease_owner"),
+  refundLeaseExpiresAt: text("refund_lease_expires_at"),
+});
 const serialId = () => integer("id").primaryKey({ autoIncrement: true });
 // Every company-owned row carries this; queries in app/lib scope by it.
 const companyId = () =>
@@ -379,16 +394,7 @@ export const bookings = sqliteTable(
     checkoutSessionId: text("checkout_session_id").unique(),
     paymentIntentId: text("payment_intent_id"),
     isPaid: integer("is_paid", { mode: "boolean" }).notNull().default(false),
-    refundId: text("refund_id"),
-    refundedAt: text("refunded_at"),
-    // The refund job (app/lib/jobs/jobs.server.ts): tries so far, when the next may run, why the last
-    // one failed, when it gave up (shown to the owner), and the lease of the process sending it.
-    refundAttempts: integer("refund_attempts").notNull().default(0),
-    refundNextAt: text("refund_next_at"),
-    refundLastError: text("refund_last_error"),
-    refundFailedAt: text("refund_failed_at"),
-    refundLeaseOwner: text("refund_lease_owner"),
-    refundLeaseExpiresAt: text("refund_lease_expires_at"),
+    ...refundColumns(),
     cancelledBy: text("cancelled_by"),
     cancelReason: text("cancel_reason"),
     // The consult's calendar file revision (RFC 5545 3.8.7.4 SEQUENCE): 0 when booked, raised by
@@ -518,15 +524,7 @@ export const proposals = sqliteTable(
     // A refund owed (asked for by the owner with a reason, or a payment that arrived too late).
     refundReason: text("refund_reason"),
     refundOwedAt: text("refund_owed_at"),
-    refundId: text("refund_id"),
-    refundedAt: text("refunded_at"),
-    // The refund job (app/lib/jobs/refund-queue.server.ts), as on bookings.
-    refundAttempts: integer("refund_attempts").notNull().default(0),
-    refundNextAt: text("refund_next_at"),
-    refundLastError: text("refund_last_error"),
-    refundFailedAt: text("refund_failed_at"),
-    refundLeaseOwner: text("refund_lease_owner"),
-    refundLeaseExpiresAt: text("refund_lease_expires_at"),
+    ...refundColumns(),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
