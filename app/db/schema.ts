@@ -274,8 +274,9 @@ export const leadPhotos = sqliteTable(
     originalName: text("original_name").notNull(),
     mimeType: text("mime_type").notNull(),
     sizeBytes: integer("size_bytes").notNull(),
-    // Sent by the homeowner with the request, or taken by the estimator at the site visit.
-    source: text("source", { enum: ["homeowner", "site-visit"] })
+    // Sent by the homeowner with the request, taken by the estimator at the site visit, by the crew
+    // during the build, or as the finished job's photo set.
+    source: text("source", { enum: ["homeowner", "site-visit", "progress", "final"] })
       .notNull()
       .default("homeowner"),
     createdAt: createdAt(),
@@ -665,3 +666,77 @@ export const buildCrew = sqliteTable(
 );
 
 export type Build = typeof builds.$inferSelect;
+
+/*
+ * The crew's record of a job on site. Rows a phone sends carry the phone's own id for the change
+ * (`clientId`), so a change queued with no signal and sent twice is kept once.
+ */
+
+// A build step ticked (or unticked) on site; the latest change by the phone's clock wins.
+export const jobStepTicks = sqliteTable(
+  "job_step_ticks",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    stepKey: text("step_key").notNull(),
+    done: integer("done", { mode: "boolean" }).notNull(),
+    // When the phone recorded the change (ISO-8601 UTC), which orders changes sent late.
+    changedAt: text("changed_at").notNull(),
+    clientId: text("client_id").notNull(),
+    byUserId: integer("by_user_id").references(() => users.id),
+    updatedAt: updatedAt(),
+  },
+  (t) => [uniqueIndex("job_step_ticks_lead_step_idx").on(t.leadId, t.stepKey)],
+);
+
+// Hours one person worked on a job on one calendar day (company time zone).
+export const jobHours = sqliteTable(
+  "job_hours",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    workerUserId: integer("worker_user_id")
+      .notNull()
+      .references(() => users.id),
+    day: text("day").notNull(),
+    hours: real("hours").notNull(),
+    clientId: text("client_id").notNull(),
+    recordedByUserId: integer("recorded_by_user_id").references(() => users.id),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("job_hours_lead_worker_day_idx").on(t.leadId, t.workerUserId, t.day),
+    index("job_hours_company_day_idx").on(t.companyId, t.day),
+  ],
+);
+
+// Material used beyond the order (a broken cap, another bag of base), at its cost.
+export const jobExtras = sqliteTable(
+  "job_extras",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    catalogItemId: integer("catalog_item_id").references(() => catalogItems.id),
+    description: text("description").notNull(),
+    quantity: real("quantity").notNull(),
+    costCents: integer("cost_cents").notNull(),
+    clientId: text("client_id").notNull().unique(),
+    recordedByUserId: integer("recorded_by_user_id").references(() => users.id),
+    createdAt: createdAt(),
+  },
+  (t) => [index("job_extras_lead_idx").on(t.leadId)],
+);
+
+export type JobStepTick = typeof jobStepTicks.$inferSelect;
+export type JobHours = typeof jobHours.$inferSelect;
+export type JobExtra = typeof jobExtras.$inferSelect;
