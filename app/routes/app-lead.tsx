@@ -962,7 +962,15 @@ function SiteVisitCard({
   );
 }
 
-function PhotoList({ photos }: { photos: { id: number; originalName: string; source: "homeowner" | "site-visit" }[] }) {
+type PhotoSource = "homeowner" | "site-visit" | "progress" | "final";
+const PHOTO_ORIGIN: Record<PhotoSource, { alt: string; caption: string }> = {
+  homeowner: { alt: "Homeowner's", caption: "From the homeowner" },
+  "site-visit": { alt: "Site visit", caption: "At the visit" },
+  progress: { alt: "Build progress", caption: "During the build" },
+  final: { alt: "Finished job", caption: "The finished job" },
+};
+
+function PhotoList({ photos }: { photos: { id: number; originalName: string; source: PhotoSource }[] }) {
   return (
     <section aria-labelledby="photos-title" className="card p-5">
       <h2 id="photos-title" className="text-lg font-extrabold">
@@ -980,14 +988,12 @@ function PhotoList({ photos }: { photos: { id: number; originalName: string; sou
               >
                 <img
                   src={`/photos/${p.id}`}
-                  alt={`${p.source === "site-visit" ? "Site visit" : "Homeowner's"} photo: ${p.originalName}`}
+                  alt={`${PHOTO_ORIGIN[p.source].alt} photo: ${p.originalName}`}
                   loading="lazy"
                   className="aspect-square w-full object-cover"
                 />
               </a>
-              <p className="mt-0.5 text-xs text-char-600">
-                {p.source === "site-visit" ? "At the visit" : "From the homeowner"}
-              </p>
+              <p className="mt-0.5 text-xs text-char-600">{PHOTO_ORIGIN[p.source].caption}</p>
             </li>
           ))}
         </ul>
