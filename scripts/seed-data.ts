@@ -525,7 +525,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Priya Vandermolen",
       email: "priya.vandermolen@example.test",
-      phone: "(555) 010-3318",
+      phone: "+12175550100",
       street: "41 Thistledown Court",
       town: "Harrow Bend",
       buildWindow: "one-to-three-months",
@@ -546,7 +546,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Wendell Ashgrove",
       email: "wendell.ashgrove@example.test",
-      phone: "(555) 010-7724",
+      phone: "+12175550101",
       street: "9 Larkin Hollow Road",
       town: "Millbrook Falls",
       buildWindow: "this-season",
@@ -566,7 +566,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Consuela Brightwater",
       email: "consuela.b@example.test",
-      phone: "(555) 014-0092",
+      phone: "+12175550102",
       street: "1208 Orchard Spur",
       town: "Quillan Park",
       buildWindow: "within-a-month",
@@ -588,7 +588,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Marcus Oyelaran",
       email: "m.oyelaran@example.test",
-      phone: "(555) 016-4410",
+      phone: "+12175550103",
       street: "77 Wicklow Lane",
       town: "Stoneleigh",
       buildWindow: "one-to-three-months",
@@ -609,7 +609,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Hattie Lindqvist",
       email: "hattie.lindqvist@example.test",
-      phone: "(555) 012-8836",
+      phone: "+12175550104",
       street: "3 Copper Kettle Way",
       town: "Copperfield Mills",
       buildWindow: "next-year",
@@ -622,7 +622,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Benedikt Farrow",
       email: "benedikt.farrow@example.test",
-      phone: "(555) 019-2275",
+      phone: "+12175550105",
       street: "560 Quarry Ridge Drive",
       town: "Millbrook Falls",
       buildWindow: "within-a-month",
@@ -644,7 +644,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Ingrid Sola-Martens",
       email: "ingrid.sm@example.test",
-      phone: "(555) 013-6601",
+      phone: "+12175550106",
       street: "18 Bramble Terrace",
       town: "Harrow Bend",
       buildWindow: "this-season",
@@ -665,7 +665,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Rafael Okonkwo-Reyes",
       email: "rafael.or@example.test",
-      phone: "(555) 017-9043",
+      phone: "+12175550107",
       street: "2204 Foundry Street",
       town: "Quillan Park",
       buildWindow: "one-to-three-months",
@@ -705,7 +705,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Delphine Achterberg",
       email: "delphine.a@example.test",
-      phone: "(555) 011-5528",
+      phone: "+12175550108",
       street: "64 Millrace Road",
       town: "Stoneleigh",
       buildWindow: "this-season",
@@ -736,7 +736,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Tobias Wren",
       email: "tobias.wren@example.test",
-      phone: "(555) 018-3307",
+      phone: "+12175550109",
       street: "11 Cinderbrook Lane",
       town: "Millbrook Falls",
       buildWindow: "within-a-month",
@@ -769,7 +769,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Mirela Castellanos",
       email: "mirela.c@example.test",
-      phone: "(555) 015-4471",
+      phone: "+12175550110",
       street: "305 Kestrel Avenue",
       town: "Copperfield Mills",
       buildWindow: "one-to-three-months",
@@ -801,7 +801,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Gunnar Halvorsen",
       email: "gunnar.h@example.test",
-      phone: "(555) 012-0186",
+      phone: "+12175550111",
       street: "47 Ironwood Bend",
       town: "Harrow Bend",
       buildWindow: "not-sure",
@@ -816,7 +816,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Odile Branscombe",
       email: "odile.b@example.test",
-      phone: "(555) 016-2209",
+      phone: "+12175550112",
       street: "8 Saltmarsh Lane",
       town: "Stoneleigh",
       buildWindow: "this-season",
@@ -845,7 +845,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Lachlan Ferreira-Moss",
       email: "lachlan.fm@example.test",
-      phone: "(555) 018-6614",
+      phone: "+12175550113",
       street: "19 Tanners Row",
       town: "Quillan Park",
       buildWindow: "within-a-month",
@@ -867,7 +867,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Sunniva Okoro",
       email: "sunniva.okoro@example.test",
-      phone: "(555) 013-4480",
+      phone: "+12175550114",
       street: "2 Bellfounder Close",
       town: "Harrow Bend",
       buildWindow: "within-a-month",
@@ -889,7 +889,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Perpetua Vance",
       email: "perpetua.vance@example.test",
-      phone: "(555) 015-9031",
+      phone: "+12175550115",
       street: "77 Cooper's Field",
       town: "Millbrook Falls",
       buildWindow: "within-a-month",
@@ -903,7 +903,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Hollis Drummond",
       email: "hollis.drummond@example.test",
-      phone: "(555) 011-7752",
+      phone: "+12175550116",
       street: "140 Weir Road",
       town: "Copperfield Mills",
       buildWindow: "within-a-month",
@@ -917,7 +917,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Anouk Steenberg",
       email: "anouk.s@example.test",
-      phone: "(555) 019-0418",
+      phone: "+12175550117",
       street: "5 Lantern Hill",
       town: "Stoneleigh",
       buildWindow: "next-year",
@@ -933,7 +933,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     {
       customerName: "Ferdinand Lisle",
       email: "ferdinand.lisle@example.test",
-      phone: "(555) 014-3356",
+      phone: "+12175550118",
       street: "63 Orchard Spur",
       town: "Quillan Park",
       buildWindow: "this-season",
@@ -972,7 +972,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
     return {
       customerName: String(name),
       email: `${first}.${last}@example.test`,
-      phone: `(555) 017-${String(2100 + i * 37).padStart(4, "0")}`,
+      phone: `+1970555${String(150 + i).padStart(4, "0")}`,
       street: `${120 + i * 14} ${["Aspen", "Juniper", "Ridgeview", "Granite"][i % 4]} ${["Road", "Court", "Way"][i % 3]}`,
       town: String(town),
       buildWindow: (["within-a-month", "one-to-three-months", "this-season", "next-year"] as const)[i % 4]!,

@@ -316,6 +316,27 @@ test("a homeowner in millimetres designs a tall wall: the notes speak millimetre
   await screenshotBothWidths(page, "configurator-mm-tall");
 });
 
+test("a homeowner in millimetres types the distances from the fire in metres and the checks answer in metres", async ({
+  page,
+}) => {
+  await page.goto("/c/cinder-slate?unit=mm");
+  const building = page.getByLabel("Distance to the nearest building, deck or fence");
+  await expect(building).toBeVisible();
+  const field = building.locator("..");
+  await expect(field).toContainText("m");
+  await expect(field).not.toContainText("ft");
+  // 2 m is 6.6 ft (0.3048 m to the foot, NIST SP 811): inside any usual setback of 10 ft or more
+  // (common practice, no source), so the field's own note speaks up, in metres.
+  await building.fill("2");
+  await expect(building).toHaveValue("2");
+  const section = page.getByRole("group", { name: "Where it goes" });
+  await expect(section.getByText(/at least [\d.]+ m\./)).toBeVisible();
+  const words = (await section.textContent())!;
+  expect(words).not.toMatch(/\d (?:in|ft)\b/);
+  // The design keeps the distance in feet, to a tenth: 2 m = 6.56 ft, kept as 6.6.
+  await expect(page).toHaveURL(/setback=6\.6\b/);
+});
+
 test("the owner types 'call me' as the company phone: refused with a message, nothing saved; a real number is stored in E.164 and shown formatted", async ({
   page,
 }) => {

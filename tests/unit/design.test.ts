@@ -61,6 +61,18 @@ test("hostile or unknown values in the address fall back to valid choices", asyn
   expect(design.innerOverhangIn).toBeGreaterThanOrEqual(0);
 });
 
+test("a distance typed in metres keeps its tenth of a foot, so it reads back as the same metres", async () => {
+  const catalog = await demoCatalog();
+  // 3 m = 9.843 ft (0.3048 m to the foot exactly, NIST SP 811), kept as 9.8 ft; 9.8 ft = 2.987 m,
+  // 3.0 m to a tenth. Whole feet (10 ft = 3.048 m) would have shown the reader 3.0 then 3.0 but
+  // 2.5 m (8.2 ft) would have come back as 8 ft = 2.4 m.
+  const design = parseDesign(new URLSearchParams("setback=9.8&propertyLine=8.2&branches=8.24"), catalog)!;
+  expect(design.setbackFt).toBe(9.8);
+  expect(design.propertyLineFt).toBe(8.2);
+  expect(design.branchesFt).toBe(8.2);
+  expect(Math.round(design.propertyLineFt! * 0.3048 * 10) / 10).toBe(2.5);
+});
+
 test("the bowl slider offers one whole-unit ring per unit count, each bowl larger than the last", async () => {
   const catalog = await demoCatalog();
   const stone = catalog.find((i) => i.name === "Hearthline Taper")!;

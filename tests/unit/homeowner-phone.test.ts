@@ -42,3 +42,19 @@ test("a stored number is shown the way people write it", () => {
   expect(formatPhone("+19705550123")).toBe("(970) 555-0123");
   expect(formatPhone("+442079460958")).toBe("+44 20 7946 0958");
 });
+
+test("every phone number in the demo data is a valid number in E.164, in the 555-01xx range set aside for fiction", async () => {
+  const { isValidPhoneNumber } = await import("libphonenumber-js/max");
+  const { DEMO_COMPANIES, DEMO_LEADS } = await import("../../scripts/seed-data");
+  const numbers = [
+    ...DEMO_COMPANIES.flatMap((c) => [c.phone, ...c.suppliers.map((s) => s.phone)]),
+    ...Object.values(DEMO_LEADS).flatMap((leads) => leads.map((l) => l.phone)),
+  ];
+  expect(numbers.length).toBeGreaterThan(20);
+  for (const n of numbers) {
+    expect(n, n).toMatch(/^\+1\d{3}5550[1]\d{2}$/);
+    expect(isValidPhoneNumber(n), n).toBe(true);
+    // Shown formatted, not as stored.
+    expect(formatPhone(n)).toMatch(/^\(\d{3}\) 555-01\d{2}$/);
+  }
+});

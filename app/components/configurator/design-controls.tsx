@@ -12,7 +12,7 @@ import {
   type LinerKind,
 } from "~/lib/design/design";
 import { describeSeat } from "~/lib/design/design-plan";
-import { speakLengths } from "~/lib/format/length-text";
+import { FT_TO_M, speakLengths } from "~/lib/format/length-text";
 
 /**
  * A distance field's consequence, said beside the field: what the contractor works to, and a note when the spot is
@@ -42,6 +42,9 @@ function Section({ title, hint, children }: { title: string; hint?: ReactNode; c
     </fieldset>
   );
 }
+
+// The farthest distance from the fire the form takes, in feet (the plan's own limit).
+const MAX_DISTANCE_FT = 500;
 
 /**
  * A patio's width across, from its radius in feet: feet for inches, metres for millimetres (1 ft = 0.3048 m exactly).
@@ -463,28 +466,16 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
                 {label}
               </label>
               <div className="relative mt-1 max-w-48">
-                <input
+                <DistanceInput
                   id={`${ids}-${name}`}
-                  aria-describedby={describedBy || undefined}
-                  aria-invalid={site?.note ? true : undefined}
-                  type="number"
                   name={name}
-                  min={0}
-                  max={500}
-                  inputMode="numeric"
-                  value={design[key] ?? ""}
-                  placeholder={example}
-                  onChange={(e) =>
-                    onChange({
-                      [key]:
-                        e.target.value === "" ? null : Math.max(0, Math.min(500, Math.round(Number(e.target.value)))),
-                    })
-                  }
-                  className="field-input mt-0 pr-10"
+                  describedBy={describedBy || undefined}
+                  invalid={Boolean(site?.note)}
+                  feet={design[key]}
+                  example={example}
+                  unit={unit}
+                  onFeet={(feet) => onChange({ [key]: feet })}
                 />
-                <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">
-                  ft
-                </span>
               </div>
               {site?.requiredFt != null ? (
                 <p id={`${ids}-${name}-needs`} className="mt-1 text-xs text-char-600">
@@ -508,5 +499,63 @@ export function DesignControls({ design, catalog, plannedUnitCount, outsideDiame
         })}
       </Section>
     </div>
+  );
+}
+
+/*
+ * A distance from the fire. Stored in feet (to a tenth, what a tape reads on a yard); with millimetres
+ * chosen it is typed and shown in metres to a tenth, so a metric reader never meets feet here.
+ */
+function DistanceInput({
+  id,
+  name,
+  describedBy,
+  invalid,
+  feet,
+  example,
+  unit,
+  onFeet,
+}: {
+  id: string;
+  name: string;
+  describedBy: string | undefined;
+  invalid: boolean;
+  feet: number | null;
+  example: string;
+  unit: LengthUnit;
+  onFeet: (feet: number | null) => void;
+}) {
+  const metric = unit === "mm";
+  const shown = feet === null ? "" : metric ? String(Math.round(feet * FT_TO_M * 10) / 10) : String(feet);
+  const max = metric ? Math.floor(MAX_DISTANCE_FT * FT_TO_M) : MAX_DISTANCE_FT;
+  return (
+    <>
+      <input
+        id={id}
+        aria-describedby={describedBy}
+        aria-invalid={invalid || undefined}
+        type="number"
+        name={metric ? `${name}M` : name}
+        min={0}
+        max={max}
+        step={0.1}
+        inputMode="decimal"
+        value={shown}
+        placeholder={metric ? `e.g. ${Math.round(Number(example.replace(/\D/g, "")) * FT_TO_M)}` : example}
+        onChange={(e) => {
+          if (e.target.value === "") return onFeet(null);
+          const typed = Number(e.target.value);
+          if (!Number.isFinite(typed)) return;
+          const inFeet = metric ? typed / FT_TO_M : typed;
+          onFeet(Math.max(0, Math.min(MAX_DISTANCE_FT, Math.round(inFeet * 10) / 10)));
+        }}
+        className="field-input mt-0 pr-10"
+      />
+      {/* The form posts feet whatever the reader typed in. */}
+      {metric ? <input type="hidden" name={name} value={feet ?? ""} /> : null}
+      <span className="pointer-events-none absolute inset-y-0 right-3 flex items-center text-sm text-char-500">
+        {metric ? "m" : "ft"}
+      </span>
+    </>
   );
 }

@@ -163,7 +163,8 @@ export function parseDesign(params: URLSearchParams, catalog: CatalogChoice[]): 
 
   const distance = (key: string) => {
     const value = numberParam(params, key);
-    return value === null ? null : clamp(Math.round(value), 0, 500);
+    // To a tenth of a foot: a distance typed in metres comes back as the same metres.
+    return value === null ? null : clamp(Math.round(value * 10) / 10, 0, 500);
   };
   return {
     stoneId: stone.id,

@@ -14,7 +14,7 @@ const RANGE_OR_ONE = new RegExp(
   "g",
 );
 
-const FT_TO_M = 0.3048;
+export const FT_TO_M = 0.3048;
 const FT2_TO_M2 = FT_TO_M * FT_TO_M;
 
 function parseQuantity(text: string): number {
