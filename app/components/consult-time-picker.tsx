@@ -16,6 +16,25 @@ const dayParts = (day: string) => {
   return { weekday: part({ weekday: "short" }), date: part({ day: "numeric" }), month: part({ month: "short" }) };
 };
 
+const WEEKDAYS = ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"];
+
+/**
+ * The days from the first with free times to the last, whole weeks from Monday: `null` before the
+ * first day, and days with no free time kept (with no slots) so every day sits under its weekday.
+ */
+export function calendarCells(days: PickerDay[]): (PickerDay | null)[] {
+  if (days.length === 0) return [];
+  const byDay = new Map(days.map((d) => [d.day, d]));
+  const first = new Date(`${days[0]!.day}T12:00:00Z`);
+  const last = new Date(`${days.at(-1)!.day}T12:00:00Z`);
+  const cells: (PickerDay | null)[] = Array.from({ length: (first.getUTCDay() + 6) % 7 }, () => null);
+  for (let at = first; at <= last; at = new Date(at.getTime() + 86_400_000)) {
+    const day = at.toISOString().slice(0, 10);
+    cells.push(byDay.get(day) ?? { day, slots: [] });
+  }
+  return cells;
+}
+
 const clock = (iso: string, timeZone: string) =>
   new Intl.DateTimeFormat("en-US", { timeZone, hour: "numeric", minute: "2-digit" }).format(new Date(iso));
 const localHour = (iso: string, timeZone: string) =>
@@ -71,39 +90,65 @@ export function ConsultTimePicker(props: {
           Pick a day
         </h2>
         <p className="-mt-1 text-sm text-char-600">
-          {longDay(days[0]!.day)} to {longDay(days.at(-1)!.day)}; days with no free time are left out.
+          {longDay(days[0]!.day)} to {longDay(days.at(-1)!.day)}; days with no free time are greyed out.
         </p>
-        <ul className="grid grid-cols-4 gap-2 min-[420px]:grid-cols-5 sm:grid-cols-7" aria-label="Days with free times">
-          {days.map(({ day, slots }) => {
-            const parts = dayParts(day);
-            const isChosen = day === chosenDay.day;
+        <div
+          aria-hidden="true"
+          className="grid grid-cols-7 gap-1 text-center text-xs font-bold text-char-600 uppercase sm:gap-2"
+        >
+          {WEEKDAYS.map((w) => (
+            <span key={w}>{w}</span>
+          ))}
+        </div>
+        {/* Whole weeks, Monday first, so each day sits under its weekday; days with no time are shown, not links. */}
+        <ul className="-mt-1 grid grid-cols-7 gap-1 sm:gap-2" aria-label="Days with free times">
+          {calendarCells(days).map((cell, index) => {
+            if (cell === null) return <li key={`blank-${index}`} aria-hidden="true" />;
+            const parts = dayParts(cell.day);
+            const showMonth = parts.date === "1" || cell.day === days[0]!.day;
+            const label = (
+              <span className="text-base font-extrabold tabular-nums sm:text-lg">
+                <span className="sr-only">{parts.weekday}, </span>
+                <span className={showMonth ? "mr-0.5 text-[11px] font-bold" : "sr-only"}>{parts.month} </span>
+                {parts.date}
+              </span>
+            );
+            if (cell.slots.length === 0)
+              return (
+                <li key={cell.day}>
+                  <span className="flex flex-col items-center rounded-xl border-2 border-transparent bg-ash-100 px-0.5 py-1.5 leading-tight text-char-500">
+                    {label}
+                    <span className="text-[11px] font-semibold">
+                      <span aria-hidden="true">–</span>
+                      <span className="sr-only">: no free time</span>
+                    </span>
+                  </span>
+                </li>
+              );
+            const isChosen = cell.day === chosenDay.day;
             return (
-              <li key={day}>
+              <li key={cell.day}>
                 <Link
-                  to={dayHref(day)}
+                  to={dayHref(cell.day)}
                   replace
                   preventScrollReset
                   aria-current={isChosen ? "date" : undefined}
-                  className={`flex flex-col items-center rounded-xl border-2 px-1 py-1.5 leading-tight transition-colors ${
+                  className={`flex flex-col items-center rounded-xl border-2 px-0.5 py-1.5 leading-tight transition-colors ${
                     isChosen
                       ? "border-char-800 bg-char-800 text-white"
                       : "border-ash-200 bg-white text-char-800 hover:border-ember-500"
                   }`}
                 >
                   {/* Read as "Thu, Dec 3: 6 free times"; the month is shown on the first day and each 1st. */}
-                  <span className="text-xs font-bold tracking-wide uppercase">{parts.weekday}</span>
-                  <span className="sr-only">, </span>
-                  <span className="text-lg font-extrabold tabular-nums">
-                    <span
-                      className={parts.date === "1" || day === days[0]!.day ? "mr-0.5 text-xs font-bold" : "sr-only"}
-                    >
-                      {parts.month}{" "}
-                    </span>
-                    {parts.date}
-                  </span>
+                  {label}
                   <span className="sr-only">: </span>
                   <span className={`text-[11px] font-semibold ${isChosen ? "text-ash-100" : "text-moss-700"}`}>
-                    {slots.length} free<span className="sr-only"> {slots.length === 1 ? "time" : "times"}</span>
+                    {cell.slots.length}
+                    <span aria-hidden="true" className="hidden min-[400px]:inline">
+                      {" "}
+                      free
+                    </span>
+                    <span className="sr-only"> free {cell.slots.length === 1 ? "time" : "times"}</span>
                   </span>
                 </Link>
               </li>

@@ -143,6 +143,15 @@ test("a homeowner on a phone picks a day, then a time: the page says how long th
   expect((await dayList.boundingBox())!.height).toBeLessThan(844 / 2);
   const freeOn = (i: number) => freeTimesOn(days.nth(i));
   await expect(days.first()).toHaveAttribute("aria-current", "date");
+  // Each day sits under its own weekday, Monday first, whatever days have no free time.
+  const columns = ["Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun"];
+  for (let i = 0; i < 6; i++) {
+    const day = /day=(\d{4}-\d{2}-\d{2})/.exec((await days.nth(i).getAttribute("href"))!)![1]!;
+    const column = (new Date(`${day}T12:00:00Z`).getUTCDay() + 6) % 7;
+    const header = (await page.getByText(columns[column]!, { exact: true }).first().boundingBox())!;
+    const cell = (await days.nth(i).boundingBox())!;
+    expect(Math.abs(header.x + header.width / 2 - (cell.x + cell.width / 2)), day).toBeLessThan(cell.width / 2);
+  }
   await expect(page.getByRole("radio")).toHaveCount(await freeOn(0));
   await screenshotThreeWidths(page, "consult-booking");
 
