@@ -116,7 +116,7 @@ export function ConsultTimePicker(props: {
             if (cell.slots.length === 0)
               return (
                 <li key={cell.day}>
-                  <span className="flex flex-col items-center rounded-xl border-2 border-transparent bg-ash-100 px-0.5 py-1.5 leading-tight text-char-500">
+                  <span className="flex flex-col items-center rounded-xl border-2 border-transparent bg-ash-100 px-0.5 py-1.5 leading-tight text-char-600">
                     {label}
                     <span className="text-[11px] font-semibold">
                       <span aria-hidden="true">–</span>
