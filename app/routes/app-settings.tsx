@@ -4,8 +4,10 @@ import { WorkspaceProblem } from "~/components/workspace-problem";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { TextField, FormAlert } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
-import { saveCompanySettings } from "~/lib/settings/company-settings.server";
+import { saveCompanySettings, saveCrewSettings } from "~/lib/settings/company-settings.server";
 import { companySettingsSchema } from "~/lib/settings/company-schema";
+import { CREW_DEFAULTS, crewSettingsSchema, WEEKDAY_CHOICES } from "~/lib/settings/crew-schema";
+import { parseWorkWeekdays } from "~/lib/builds/builds.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { formatPhone } from "~/lib/format/phone";
 import QRCode from "qrcode";
@@ -28,23 +30,41 @@ export async function loader({ request }: Route.LoaderArgs) {
     margin: 4,
     color: { dark: "#1c1917", light: "#ffffff" },
   });
-  return { company, timeZones: groupTimeZones(new Date()), publicUrl, qrSvg };
+  const crew = {
+    crewSize: company.crewSize,
+    crewDayHours: company.crewDayHours,
+    workWeekdays: parseWorkWeekdays(company.workWeekdaysJson),
+  };
+  return { company, crew, timeZones: groupTimeZones(new Date()), publicUrl, qrSvg };
 }
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const form = Object.fromEntries(await request.formData());
-  const parsed = companySettingsSchema.safeParse(form);
+  const form = await request.formData();
+  const noErrors: Record<string, string> = {};
+  if (form.get("intent") === "crew") {
+    // The crew form posts on its own: a refusal here leaves the company's other settings as they were.
+    const crew = crewSettingsSchema.safeParse({
+      crewSize: form.get("crewSize") ?? undefined,
+      crewDayHours: form.get("crewDayHours") ?? undefined,
+      workWeekdays: form.getAll("workWeekdays"),
+    });
+    if (!crew.success) return data({ errors: noErrors, crewErrors: fieldErrors(crew.error) }, { status: 400 });
+    await saveCrewSettings(user.companyId, crew.data);
+    return redirect("/app/settings?saved=crew");
+  }
+  const parsed = companySettingsSchema.safeParse(Object.fromEntries(form));
   if (!parsed.success) {
-    return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
+    return data({ errors: fieldErrors(parsed.error), crewErrors: noErrors }, { status: 400 });
   }
   await saveCompanySettings(user.companyId, parsed.data);
   return redirect("/app/settings?saved=1");
 }
 
 export default function SettingsRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { company, timeZones, publicUrl, qrSvg } = loaderData;
+  const { company, crew, timeZones, publicUrl, qrSvg } = loaderData;
   const errors: Record<string, string> = actionData?.errors ?? {};
+  const crewErrors: Record<string, string> = actionData?.crewErrors ?? {};
   const [params] = useSearchParams();
   const navigation = useNavigation();
   return (
@@ -61,7 +81,9 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
       </div>
       {params.get("saved") && !actionData ? (
         <p role="status" className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
-          Settings saved.
+          {params.get("saved") === "crew"
+            ? "Crew and working week saved: new build bookings use them."
+            : "Settings saved."}
         </p>
       ) : null}
       <PublicLink url={publicUrl} qrSvg={qrSvg} fileName={`${company.slug}-qr-code.svg`} />
@@ -127,6 +149,79 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
         <div>
           <button type="submit" className="btn-primary" disabled={navigation.state === "submitting"}>
             Save settings
+          </button>
+        </div>
+      </Form>
+      <Form
+        key={`crew-${JSON.stringify(crew)}`}
+        method="post"
+        className="flex flex-col gap-4 card p-6"
+        aria-labelledby="crew-heading"
+        noValidate
+      >
+        <input type="hidden" name="intent" value="crew" />
+        <div>
+          <h2 id="crew-heading" className="text-lg font-extrabold">
+            Build crew and working week
+          </h2>
+          <p className="text-sm text-char-600">
+            A job's build days are its labour-hours ÷ (people × hours a day), rounded up, laid on the ticked weekdays
+            and skipping days off. Booked builds keep their dates until moved.
+          </p>
+        </div>
+        {Object.keys(crewErrors).length ? (
+          <FormAlert>Nothing was saved. Fix the crew fields marked below.</FormAlert>
+        ) : null}
+        <div className="grid gap-4 sm:grid-cols-2">
+          <TextField
+            label="Crew size"
+            name="crewSize"
+            inputMode="numeric"
+            suffix="people"
+            defaultValue={String(crew.crewSize)}
+            error={crewErrors.crewSize}
+            hint={`1 to 12 people. Default: ${CREW_DEFAULTS.crewSize}.`}
+          />
+          <TextField
+            label="Crew day"
+            name="crewDayHours"
+            inputMode="decimal"
+            suffix="hours"
+            defaultValue={String(crew.crewDayHours)}
+            error={crewErrors.crewDayHours}
+            hint={`Hours on site, 4 to 12. Default: ${CREW_DEFAULTS.crewDayHours}.`}
+          />
+        </div>
+        <fieldset aria-describedby={crewErrors.workWeekdays ? "work-weekdays-error" : "work-weekdays-hint"}>
+          <legend className="field-label">Working weekdays</legend>
+          <div className="mt-1 flex flex-wrap gap-2">
+            {WEEKDAY_CHOICES.map((d) => (
+              <label
+                key={d.value}
+                className="flex items-center gap-2 rounded-lg border border-ash-300 px-3 py-2 text-sm font-semibold"
+              >
+                <input
+                  type="checkbox"
+                  name="workWeekdays"
+                  value={d.value}
+                  defaultChecked={crew.workWeekdays.includes(d.value)}
+                />
+                {d.label}
+              </label>
+            ))}
+          </div>
+          <p id="work-weekdays-hint" className="field-hint">
+            At least one. Default: Monday to Friday.
+          </p>
+          {crewErrors.workWeekdays ? (
+            <p id="work-weekdays-error" className="field-error">
+              {crewErrors.workWeekdays}
+            </p>
+          ) : null}
+        </fieldset>
+        <div>
+          <button type="submit" className="btn-primary" disabled={navigation.state === "submitting"}>
+            Save crew and week
           </button>
         </div>
       </Form>

@@ -140,6 +140,18 @@ export async function listBuilds(companyId: number, fromDay: CalendarDate, toDay
   }));
 }
 
+/** A booked build of the company with its job, or null (another company's build, a cancelled one, no such id). */
+export async function findCompanyBuild(companyId: number, buildId: number) {
+  const [row] = await db
+    .select({ build: builds, lead: leads })
+    .from(builds)
+    .innerJoin(leads, eq(leads.id, builds.leadId))
+    .where(and(eq(builds.id, buildId), eq(builds.companyId, companyId), eq(leads.companyId, companyId)))
+    .limit(1);
+  if (!row || row.build.status !== "booked") return null;
+  return { build: { ...row.build, dates: parseBuildDates(row.build) }, lead: row.lead };
+}
+
 /** The job's booked build, if any. */
 export async function findBookedBuild(lead: Lead) {
   const [build] = await db

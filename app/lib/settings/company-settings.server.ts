@@ -3,6 +3,7 @@ import { companies } from "~/db/schema";
 import { forgetOfferedCatalogs } from "~/lib/catalog/catalog.server";
 import { db } from "~/lib/platform/db.server";
 import type { CompanySettingsInput } from "~/lib/settings/company-schema";
+import type { CrewSettingsInput } from "~/lib/settings/crew-schema";
 import type { WeeklyHours } from "~/lib/consults/consult-slots";
 
 /** Saves the owner's company settings form (the consult fee arrives in cents). */
@@ -13,6 +14,18 @@ export async function saveCompanySettings(companyId: number, input: CompanySetti
     .set({ ...rest, consultFeeCents: consultFee })
     .where(eq(companies.id, companyId));
   forgetOfferedCatalogs();
+}
+
+/** Saves the crew's size, day length and working weekdays in one write (bookings read them from here). */
+export async function saveCrewSettings(companyId: number, input: CrewSettingsInput): Promise<void> {
+  await db
+    .update(companies)
+    .set({
+      crewSize: input.crewSize,
+      crewDayHours: input.crewDayHours,
+      workWeekdaysJson: JSON.stringify(input.workWeekdays),
+    })
+    .where(eq(companies.id, companyId));
 }
 
 /** Saves when consults may be booked: the weekly hours, the slot length and how far ahead. */
