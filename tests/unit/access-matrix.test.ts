@@ -7,7 +7,8 @@
 import { eq } from "drizzle-orm";
 import { PDFParse } from "pdf-parse";
 import { beforeAll, describe, expect, test } from "vitest";
-import { bookings, leadPhotos, leads, users, type Role } from "~/db/schema";
+import { bookings, builds, leadPhotos, leads, users, type Role } from "~/db/schema";
+import { addCalendarDays, weekdayOf } from "~/domain/build-schedule";
 import { db } from "~/lib/platform/db.server";
 import { startSession } from "~/lib/auth/session.server";
 import { storePhotoBytes } from "~/lib/platform/uploads.server";
@@ -27,7 +28,7 @@ import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
 import { loader as cutSheetPdfLoader } from "~/routes/app-lead-cut-sheet-pdf";
 import { loader as jobsLoader } from "~/routes/app-jobs";
 import { loader as layoutLoader } from "~/routes/app-layout";
-import { loader as scheduleLoader } from "~/routes/app-schedule";
+import { action as scheduleAction, loader as scheduleLoader } from "~/routes/app-schedule";
 import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
 import { action as visitAction, loader as visitLoader } from "~/routes/app-lead-visit";
 import { action as composeAction, loader as composeLoader } from "~/routes/app-lead-proposal";
@@ -70,6 +71,8 @@ const ids = {
   token: "",
   order: 0,
   booking: 0,
+  build: 0,
+  buildMoveTo: "",
 };
 
 async function addPhoto(companyId: number, leadId: number): Promise<number> {
@@ -136,6 +139,13 @@ beforeAll(async () => {
   );
   if (!drafted.ok) throw new Error(JSON.stringify(drafted.errors));
   ids.order = drafted.orderIds[0]!;
+  // The seeded booked build (Sunniva Okoro's), and a Monday a month or more ahead to drop it on.
+  ids.build = (await db.select().from(builds).where(eq(builds.status, "booked")).orderBy(builds.firstDay)).find(
+    (b) => b.lastDay >= zonedDay(new Date(), company.timeZone),
+  )!.id;
+  let monday = addCalendarDays(zonedDay(new Date(), company.timeZone), 35);
+  while (weekdayOf(monday) !== 1) monday = addCalendarDays(monday, 1);
+  ids.buildMoveTo = monday;
   // A seeded consult, on a request that is not the matrix homeowner's.
   ids.booking = (await db.select({ id: bookings.id }).from(bookings).limit(1))[0]!.id;
 });
@@ -222,6 +232,32 @@ const CASES: Case[] = [
       homeowner: SIGN_IN,
       anonymous: SIGN_IN,
       "other company's owner": "200",
+    },
+  },
+  {
+    // A build dropped on another day of the grid, with its sequence as the page drew it: owners only,
+    // and another company's owner is told the build does not exist.
+    name: "POST /app/schedule (move a build to a new first day)",
+    call: async (c) => {
+      const [build] = await db.select().from(builds).where(eq(builds.id, ids.build));
+      return scheduleAction(
+        routeArgs(
+          post("/app/schedule", c, {
+            intent: "move-build",
+            buildId: String(ids.build),
+            sequence: String(build!.sequence),
+            start: ids.buildMoveTo,
+          }),
+        ),
+      );
+    },
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
     },
   },
   {
