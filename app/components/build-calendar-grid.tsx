@@ -116,7 +116,7 @@ export function BuildCalendarGrid({
   return (
     <>
       <div
-        className="overflow-x-auto overscroll-x-contain"
+        className="relative overflow-x-auto overscroll-x-contain"
         role="region"
         aria-label="Calendar weeks (scrolls sideways on narrow screens)"
         tabIndex={0}

@@ -328,7 +328,13 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
             </Link>
           </nav>
         </div>
-        <p className="px-4 pt-2 text-sm font-semibold text-char-700">{grid.rangeText}</p>
+        <p className="px-4 pt-2 text-sm font-semibold text-char-700">
+          {grid.rangeText}
+          <span className="font-normal text-char-600 md:hidden">
+            {" "}
+            · swipe the calendar sideways for the rest of the week
+          </span>
+        </p>
         <div className="p-2">
           <BuildCalendarGrid
             weeks={grid.weeks}
