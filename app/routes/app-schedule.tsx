@@ -386,7 +386,7 @@ export default function ScheduleRoute({ loaderData, actionData }: Route.Componen
                     <input type="hidden" name="sequence" value={b.sequence} />
                     <div>
                       <label htmlFor={`move-to-${b.id}`} className="field-label">
-                        Move to…<span className="sr-only"> new first day for {b.customerName}</span>
+                        Move to…<span className="sr-only"> start day for {b.customerName}</span>
                       </label>
                       <input
                         key={`${b.id}-${b.sequence}`}

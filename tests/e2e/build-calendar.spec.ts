@@ -92,7 +92,7 @@ test("the owner drags a build to another day; the new dates show and the homeown
   await expect(page.getByRole("status")).toContainText(`${CUSTOMER}'s build moved to`);
   await expect(page.locator(`td[data-day="${target}"]`).getByRole("button", { name: CHIP, exact: true })).toBeVisible();
   // The list beside the grid shows the same first day.
-  await expect(page.getByLabel(`Move to… new first day for ${CUSTOMER}`)).toHaveValue(target);
+  await expect(page.getByLabel(`Move to… start day for ${CUSTOMER}`)).toHaveValue(target);
 
   const [moved] = await movedMails(1);
   const first = await calendarOf(moved!);
@@ -109,7 +109,7 @@ test("the owner drags a build to another day; the new dates show and the homeown
 
   // The keyboard's way: a day typed into the build's "Move to…" field.
   const later = (await cellDays(page, true)).find((d) => d > target && d >= plusDays(10))!;
-  const field = page.getByLabel(`Move to… new first day for ${CUSTOMER}`);
+  const field = page.getByLabel(`Move to… start day for ${CUSTOMER}`);
   await field.fill(later);
   await field.press("Enter");
   await expect(page.getByRole("status")).toContainText(`${CUSTOMER}'s build moved to`);
