@@ -172,3 +172,33 @@ test("the owner sets the crew and the working week; a bad value is refused besid
   await expect(page.getByRole("status")).toContainText("Crew and working week saved");
   await expect(crew.getByLabel("Crew size")).toHaveValue("2");
 });
+
+test.describe("on a touch screen", () => {
+  test.use({ hasTouch: true, isMobile: true, viewport: { width: 390, height: 844 } });
+
+  test("the owner drags a build with a finger to the same weekday a week later", async ({ page }) => {
+    await signIn(page, "owner@cinder-slate.test");
+    await page.goto("/app/schedule");
+    const chip = page.getByRole("button", { name: CHIP, exact: true });
+    await chip.scrollIntoViewIfNeeded();
+    const from = await firstDayOf(page);
+    const weekLater = new Date(`${from}T12:00:00Z`);
+    weekLater.setUTCDate(weekLater.getUTCDate() + 7);
+    const target = weekLater.toISOString().slice(0, 10);
+    const cell = page.locator(`td[data-day="${target}"]`);
+    const a = (await chip.boundingBox())!;
+    const b = (await cell.boundingBox())!;
+    // Chromium turns these touches into pointer events of type "touch", as a phone's would be.
+    const cdp = await page.context().newCDPSession(page);
+    const at = (x: number, y: number) => [{ x: Math.round(x), y: Math.round(y) }];
+    await cdp.send("Input.dispatchTouchEvent", { type: "touchStart", touchPoints: at(a.x + a.width / 2, a.y + 8) });
+    for (let i = 1; i <= 10; i++) {
+      const x = a.x + a.width / 2 + ((b.x + b.width / 2 - (a.x + a.width / 2)) * i) / 10;
+      const y = a.y + 8 + ((b.y + b.height / 2 - (a.y + 8)) * i) / 10;
+      await cdp.send("Input.dispatchTouchEvent", { type: "touchMove", touchPoints: at(x, y) });
+    }
+    await cdp.send("Input.dispatchTouchEvent", { type: "touchEnd", touchPoints: [] });
+    await expect(page.getByRole("status")).toContainText(`${CUSTOMER}'s build moved to`);
+    await expect(cell.getByRole("button", { name: CHIP, exact: true })).toBeVisible();
+  });
+});
