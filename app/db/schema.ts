@@ -740,3 +740,53 @@ export const jobExtras = sqliteTable(
 export type JobStepTick = typeof jobStepTicks.$inferSelect;
 export type JobHours = typeof jobHours.$inferSelect;
 export type JobExtra = typeof jobExtras.$inferSelect;
+
+/*
+ * The balance a job owes once built: the signed proposal's total (add-ons included) plus its signed
+ * change orders, less the deposit paid, worked out when the job is marked built (app/domain/job-money.ts).
+ * Its parts are kept beside the amount so the homeowner and the office see how it was reached. Paid
+ * through Checkout like the deposit (own idempotency keys, every webhook applied once, session,
+ * amount and currency checked); a payment that arrives when nothing is owed is refunded by the worker.
+ */
+export const jobBalances = sqliteTable(
+  "job_balances",
+  {
+    id: serialId(),
+    companyId: companyId(),
+    leadId: integer("lead_id")
+      .notNull()
+      .references(() => leads.id),
+    proposalId: integer("proposal_id")
+      .notNull()
+      .references(() => proposals.id),
+    // The parts, cents: the proposal's price before add-ons, the add-ons chosen, the signed change
+    // orders' differences (negative is a credit), the deposit paid; amount = the first three − deposit.
+    proposalPriceCents: integer("proposal_price_cents").notNull(),
+    addOnsCents: integer("add_ons_cents").notNull(),
+    changeOrdersCents: integer("change_orders_cents").notNull(),
+    depositCents: integer("deposit_cents").notNull(),
+    amountCents: integer("amount_cents").notNull(),
+    // When the job was marked built and the balance fell due.
+    openedAt: text("opened_at").notNull(),
+    checkoutSessionId: text("checkout_session_id").unique(),
+    checkoutAttempt: integer("checkout_attempt").notNull().default(0),
+    paymentIntentId: text("payment_intent_id"),
+    paidAt: text("paid_at"),
+    // A second payment for a balance already paid: its payment intent, and why it goes back.
+    refundPaymentIntentId: text("refund_payment_intent_id"),
+    refundReason: text("refund_reason"),
+    refundOwedAt: text("refund_owed_at"),
+    ...refundColumns(),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    uniqueIndex("job_balances_lead_unique").on(t.leadId),
+    index("job_balances_company_opened_idx").on(t.companyId, t.openedAt),
+    index("job_balances_refund_due_idx")
+      .on(t.refundNextAt)
+      .where(sql`refund_owed_at is not null and refund_id is null and refund_failed_at is null`),
+  ],
+);
+
+export type JobBalance = typeof jobBalances.$inferSelect;
