@@ -1,4 +1,4 @@
-import { data, Form, Link } from "react-router";
+import { data, Form, Link, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/my";
 import { LocalTime } from "~/components/local-time";
@@ -18,6 +18,14 @@ import { formatMoney, formatMoneyWhole } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { readStoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
 import { summaryInUnit } from "~/lib/format/length-text";
+import { CARE_NOTES } from "~/lib/builds/care-notes";
+import {
+  BalanceCheckoutError,
+  balanceLines,
+  listBalancesFor,
+  startBalanceCheckout,
+} from "~/lib/builds/job-balance.server";
+import { formatZonedDate } from "~/lib/format/zoned-time";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
@@ -40,7 +48,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     proposals: proposalRows,
     sentRevisions,
   } = await loadHomeownerRequestDetails(rows);
+  const balances = await listBalancesFor(rows.map((l) => l.id));
   const now = Date.now();
+  const paidParam = Number(new URL(request.url).searchParams.get("paid"));
   const movedId = Number(new URL(request.url).searchParams.get("moved"));
   const moved = liveBookings.find((b) => b.id === movedId && b.status === "confirmed");
   return {
@@ -83,7 +93,14 @@ export async function loader({ request }: Route.LoaderArgs) {
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
-        photos: photos.filter((p) => p.leadId === lead.id),
+        photos: photos.filter((p) => p.leadId === lead.id && p.source !== "final"),
+        finalPhotos: photos.filter((p) => p.leadId === lead.id && p.source === "final"),
+        balance: balanceView(
+          balances.find((b) => b.leadId === lead.id),
+          company.timeZone,
+          paidParam === lead.id,
+        ),
+        isBuilt: lead.status === "built" || lead.status === "paid-in-full",
         proposals: proposalRows
           .filter((p) => p.leadId === lead.id && p.status !== "withdrawn")
           .map((p) => ({
@@ -105,6 +122,24 @@ export async function loader({ request }: Route.LoaderArgs) {
         isOpen: lead.status === "request" || lead.status === "called-back",
       };
     }),
+  };
+}
+
+/** The balance as the homeowner reads it: its parts, what is due, and whether it is paid. */
+function balanceView(
+  balance: Awaited<ReturnType<typeof listBalancesFor>>[number] | undefined,
+  timeZone: string,
+  justPaid: boolean,
+) {
+  if (!balance) return null;
+  return {
+    lines: balanceLines(balance),
+    due: formatMoney(Math.max(0, balance.amountCents)),
+    credit: balance.amountCents < 0 ? formatMoney(-balance.amountCents) : null,
+    paidOn: balance.paidAt && balance.amountCents > 0 ? formatZonedDate(balance.paidAt, timeZone) : null,
+    canPay: !balance.paidAt && balance.amountCents > 0,
+    // Back from the payment page before the payment service's notice arrived.
+    isConfirming: justPaid && !balance.paidAt,
   };
 }
 
@@ -130,10 +165,27 @@ function drawing(key: string, title: string, when: string, record: StoredPlanRec
 }
 
 const cancelSchema = z.object({ bookingId: formId("Choose a consult to cancel.") });
+const payBalanceSchema = z.object({ leadId: formId("Choose the job whose balance to pay.") });
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
-  const parsed = cancelSchema.safeParse(Object.fromEntries(await request.formData()));
+  const form = Object.fromEntries(await request.formData());
+  if (form.intent === "pay-balance") {
+    const wanted = payBalanceSchema.safeParse(form);
+    if (!wanted.success) return data({ error: wanted.error.issues[0]!.message }, { status: 400 });
+    // Only one of this homeowner's own jobs; anything else is "not found".
+    const lead = (await listHomeownerLeads(user.id)).find((l) => l.id === wanted.data.leadId);
+    const [balance] = lead ? await listBalancesFor([lead.id]) : [];
+    if (!lead || !balance) return data({ error: "There is no balance to pay on that job." }, { status: 404 });
+    const { companies: companyRows } = await loadHomeownerRequestDetails([lead]);
+    try {
+      return redirect(await startBalanceCheckout({ balance, lead, company: companyRows[0]! }));
+    } catch (error) {
+      if (error instanceof BalanceCheckoutError) return data({ error: error.message }, { status: 409 });
+      throw error;
+    }
+  }
+  const parsed = cancelSchema.safeParse(form);
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
   // Only a booking on one of this homeowner's own requests; anything else is "not found".
   const booking = await findHomeownerBooking(user.id, parsed.data.bookingId);
@@ -269,6 +321,36 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                 Book a design consult
               </Link>
             ) : null}
+            {req.balance ? <BalanceSection leadId={req.id} balance={req.balance} /> : null}
+            {req.finalPhotos.length ? (
+              <section aria-label="Your finished fire pit" className="flex flex-col gap-2">
+                <h3 className="font-extrabold">Your finished fire pit</h3>
+                <ul className="flex flex-wrap gap-3">
+                  {req.finalPhotos.map((photo, i) => (
+                    <li key={photo.id}>
+                      <a href={`/photos/${photo.id}`} className="block rounded-lg focus-visible:outline-2">
+                        <img
+                          src={`/photos/${photo.id}`}
+                          alt={`The finished pit, photo ${i + 1}`}
+                          className="h-32 w-44 rounded-lg object-cover"
+                          loading="lazy"
+                        />
+                      </a>
+                    </li>
+                  ))}
+                </ul>
+              </section>
+            ) : null}
+            {req.isBuilt ? (
+              <details className="rounded-lg border border-ash-200 px-4 py-3 text-sm">
+                <summary className="cursor-pointer font-bold text-char-700">Looking after your fire pit</summary>
+                <ul className="mt-2 flex list-disc flex-col gap-1 pl-5">
+                  {CARE_NOTES.map((note) => (
+                    <li key={note}>{note}</li>
+                  ))}
+                </ul>
+              </details>
+            ) : null}
             {req.proposals.length ? (
               <ul className="flex flex-col gap-1 text-sm" aria-label="Proposals">
                 {req.proposals.map((p) => (
@@ -299,5 +381,61 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
         ))}
       </main>
     </PublicShell>
+  );
+}
+
+type BalanceView = NonNullable<Route.ComponentProps["loaderData"]["requests"][number]["balance"]>;
+
+/** The balance on completion: how it was reached, and the button that opens the payment page. */
+function BalanceSection({ leadId, balance }: { leadId: number; balance: BalanceView }) {
+  return (
+    <section
+      id={`balance-${leadId}`}
+      aria-labelledby={`balance-${leadId}-title`}
+      className="flex flex-col gap-3 rounded-xl border border-ember-300 bg-ember-50 p-4"
+    >
+      <h3 id={`balance-${leadId}-title`} className="text-lg font-extrabold">
+        Balance on completion
+      </h3>
+      <dl className="grid max-w-sm grid-cols-[1fr_auto] gap-x-4 gap-y-1 text-sm">
+        {balance.lines.map((line) => (
+          <div key={line.label} className="contents">
+            <dt>{line.label}</dt>
+            <dd className="text-right tabular-nums">{line.amount}</dd>
+          </div>
+        ))}
+        <div className="contents font-extrabold">
+          <dt className="border-t border-ash-300 pt-1">{balance.paidOn ? "Balance" : "Balance due"}</dt>
+          <dd className="border-t border-ash-300 pt-1 text-right tabular-nums" data-testid="balance-due">
+            {balance.due}
+          </dd>
+        </div>
+      </dl>
+      {balance.paidOn ? (
+        <p role="status" className="font-bold text-moss-700">
+          Paid in full on {balance.paidOn}. Thank you.
+        </p>
+      ) : null}
+      {balance.credit ? (
+        <p className="text-sm">
+          The change orders left a credit of {balance.credit} in your favour; your contractor pays it back to you.
+        </p>
+      ) : null}
+      {balance.isConfirming ? (
+        <p role="status" className="text-sm font-semibold">
+          Thank you: your payment is being confirmed and shows here in a moment.
+        </p>
+      ) : null}
+      {balance.canPay ? (
+        <Form method="post" className="flex flex-wrap items-center gap-3">
+          <input type="hidden" name="intent" value="pay-balance" />
+          <input type="hidden" name="leadId" value={leadId} />
+          <button type="submit" className="btn-primary">
+            Pay the balance of {balance.due}
+          </button>
+          <span className="text-sm text-char-600">By card, on a secure payment page.</span>
+        </Form>
+      ) : null}
+    </section>
   );
 }

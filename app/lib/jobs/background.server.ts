@@ -5,6 +5,7 @@ import { claimJob, releaseJob, WORKER_ID } from "~/lib/jobs/jobs.server";
 import { deliverDueEmails } from "~/lib/jobs/outbox-worker.server";
 import { sweepUnrecordedPhotos } from "~/lib/leads/leads.server";
 import { expireProposals, processDepositRefunds } from "~/lib/proposals/proposal-payments.server";
+import { processBalanceRefunds } from "~/lib/builds/job-balance.server";
 
 let timer: NodeJS.Timeout | null = null;
 let isRunning = false;
@@ -45,7 +46,7 @@ export async function sweepStrayUploads(
 
 /**
  * One pass of the background work: due e-mails, owed refunds, lapsed consult holds, proposals past their date, deposit
- * refunds, and now and then photos left by a crash.
+ * and balance refunds, and now and then photos left by a crash.
  */
 export async function runBackgroundPass(): Promise<void> {
   await deliverDueEmails();
@@ -55,6 +56,7 @@ export async function runBackgroundPass(): Promise<void> {
   // own idempotency key, so several processes running these at once cannot double either.
   await expireProposals();
   await processDepositRefunds();
+  await processBalanceRefunds();
   await sweepStrayUploads();
 }
 

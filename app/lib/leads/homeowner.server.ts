@@ -11,7 +11,12 @@ export async function loadHomeownerRequestDetails(ownLeads: Pick<Lead, "id" | "c
   if (!ids.length) return { photos: [], liveBookings: [], companies: [], proposals: [], sentRevisions: [] };
   const [photoRows, liveBookings, companyRows, proposalRows, sentRevisions] = await Promise.all([
     db
-      .select({ id: leadPhotos.id, leadId: leadPhotos.leadId, originalName: leadPhotos.originalName })
+      .select({
+        id: leadPhotos.id,
+        leadId: leadPhotos.leadId,
+        originalName: leadPhotos.originalName,
+        source: leadPhotos.source,
+      })
       .from(leadPhotos)
       .where(inArray(leadPhotos.leadId, ids)),
     db

@@ -4,6 +4,7 @@ import { applyPaymentEvent, bookingIdForPaymentIntent } from "~/lib/consults/boo
 import { env } from "~/lib/platform/env.server";
 import { stripe } from "~/lib/platform/payments.server";
 import { applyDepositEvent, isDepositEvent } from "~/lib/proposals/proposal-payments.server";
+import { applyBalanceEvent, isBalanceEvent } from "~/lib/builds/job-balance.server";
 
 const MAX_BODY_BYTES = 256 * 1024;
 
@@ -28,6 +29,8 @@ export async function action({ request }: Route.ActionArgs) {
   }
   // Deposits on proposals carry metadata.kind = "deposit" and are applied by their own handler.
   if (isDepositEvent(event)) return Response.json({ received: true, outcome: await applyDepositEvent(event) });
+  // A built job's balance: metadata.kind = "balance".
+  if (isBalanceEvent(event)) return Response.json({ received: true, outcome: await applyBalanceEvent(event) });
   if (event.type === "charge.refunded") {
     const charge = event.data.object;
     const paymentIntent = typeof charge.payment_intent === "string" ? charge.payment_intent : charge.payment_intent?.id;
