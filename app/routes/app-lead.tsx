@@ -51,6 +51,9 @@ import { isOfficeRole, OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth
 import { listTeam } from "~/lib/auth/team.server";
 import { describeAge, formatZonedDateTime } from "~/lib/format/zoned-time";
 import { formatPhone, phoneHref } from "~/lib/format/phone";
+import { BalanceCard, JobCostCard } from "~/components/job-money-cards";
+import { describeBalance, findJobBalance } from "~/lib/builds/job-balance.server";
+import { describeJobCost, jobCostFor } from "~/lib/builds/job-cost.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" },
@@ -95,6 +98,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     ) ?? null;
   const signedProposal = allProposals.find((p) => p.kind === "proposal" && p.status === "signed") ?? null;
   const totals = signedProposal ? await jobTotalsFor(signedProposal) : null;
+  const isOwner = user.role === "owner";
+  const [balance, cost] = await Promise.all([
+    isOffice ? findJobBalance(lead) : null,
+    isOwner && signedProposal ? jobCostFor(lead) : null,
+  ]);
   const nextStep = describeNextStep(lead.status, lead.pausedStage, isOffice, {
     firstName: lead.customerName.split(" ")[0] ?? lead.customerName,
     consultLabel: booking?.status === "confirmed" ? formatZonedDateTime(booking.startsAt, tz) : null,
@@ -109,7 +117,9 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     isOffice,
     nextStep,
     moves: isOffice ? allowedMoves(lead.status, lead.pausedStage) : [],
-    isOwner: user.role === "owner",
+    isOwner,
+    balance: balance ? describeBalance(balance, tz) : null,
+    jobCost: cost ? describeJobCost(cost) : null,
     proposals: allProposals.map((p) => {
       const document = parseProposalDocument(p.documentJson);
       return {
@@ -283,6 +293,9 @@ const kindLabel: Record<string, string> = {
   "build-cancelled": "Build cancelled",
   "consult-moved": "Consult moved",
   "revision-sent": "Revision sent to the homeowner",
+  balance: "Balance due",
+  "balance-paid": "Balance paid",
+  "balance-refund": "Balance refund",
 };
 
 /** A heading for an event kind this page has no words for yet: "site-visit" reads "Site visit", never the raw code. */
@@ -304,6 +317,8 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
     proposals,
     totals,
     isOwner,
+    balance,
+    jobCost,
   } = loaderData;
   const errorsFor = (intent: string): Record<string, string> =>
     actionData && actionData.intent === intent ? actionData.errors : {};
@@ -692,6 +707,9 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               isBusy={isBusy}
             />
           ) : null}
+
+          {balance ? <BalanceCard balance={balance} /> : null}
+          {jobCost ? <JobCostCard cost={jobCost} /> : null}
 
           {isOffice ? (
             <section aria-labelledby="timeline-title" className="card p-5">

@@ -560,3 +560,18 @@ export async function retryFailedBalanceRefund(balanceId: number, companyId: num
     .returning({ id: jobBalances.id });
   return rows.length > 0;
 }
+
+/** The balance as the office reads it on the lead page. */
+export function describeBalance(balance: JobBalance, timeZone: string) {
+  return {
+    lines: balanceLines(balance),
+    amount:
+      balance.amountCents >= 0 ? formatMoney(balance.amountCents) : `${formatMoney(-balance.amountCents)} credit`,
+    dueSince: formatZonedDate(balance.openedAt, timeZone),
+    paidOn: balance.paidAt ? formatZonedDate(balance.paidAt, timeZone) : null,
+    how: balance.paidAt ? (balance.paymentIntentId ? "by card" : "recorded by the office") : null,
+    refund: balance.refundOwedAt
+      ? `${balance.refundReason ?? "A payment is being refunded."}${balance.refundedAt ? " Refunded." : " Refund on its way."}`
+      : null,
+  };
+}

@@ -1,4 +1,6 @@
 import { and, asc, desc, eq, inArray, isNull, like, or } from "drizzle-orm";
+import { markJobBuilt } from "~/lib/builds/mark-built.server";
+import { findJobBalance, recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
 import { alias } from "drizzle-orm/sqlite-core";
 import {
   bookings,
@@ -221,6 +223,15 @@ export async function changeStage(
         reason: `Say why (3 to 200 characters), e.g. “waiting for the town's permit” or “went with another contractor”.`,
       },
     };
+  }
+  // Built and paid in full have their own effects (the balance falls due; the balance is settled).
+  if (to === "built") {
+    const built = await markJobBuilt({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id });
+    return built.ok ? { ok: true } : { ok: false, status: built.status, errors: { status: built.message } };
+  }
+  if (to === "paid-in-full" && (await findJobBalance(lead))) {
+    const refused = await recordBalancePaidByHand({ lead, actorUserId: user.id, how: "marked paid in full by the office" });
+    return refused ? { ok: false, status: 409, errors: { status: refused } } : { ok: true };
   }
   const isStopping = to === "on-hold" || to === "not-going-ahead";
   const at = now();
