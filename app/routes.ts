@@ -44,6 +44,7 @@ export default [
       route("consult-hours", "routes/app-consult-hours.tsx"),
       route("attention", "routes/app-attention.tsx"),
       route("calendar", "routes/app-calendar.tsx"),
+      route("reports", "routes/app-reports.tsx"),
     ]),
     route("inbox.csv", "routes/app-inbox-csv.ts"),
     route("inbox/seen", "routes/app-inbox-seen.ts"),

@@ -11,6 +11,7 @@ export const WORKSPACE_NAV: NavItem[] = [
   { to: "/app/jobs", label: "Jobs", roles: ["crew"] },
   { to: "/app/schedule", label: "Schedule", roles: ["owner", "estimator"] },
   { to: "/app/supplier-orders", label: "Orders", roles: ["owner"] },
+  { to: "/app/reports", label: "Reports", roles: ["owner"] },
   { to: "/app/catalog", label: "Catalog", roles: ["owner", "estimator", "crew"] },
   { to: "/app/team", label: "Team", roles: ["owner"] },
   { to: "/app/settings", label: "Company settings", roles: ["owner"] },
