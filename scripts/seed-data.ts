@@ -477,6 +477,8 @@ export type SeedLead = {
   design: SeedDesign;
   /** The job's papers: the site visit, the proposal and how far it got, a change order. */
   papers?: SeedPapers;
+  /** The homeowner has an account (the demo password) holding this request, so "My requests" shows it. */
+  homeownerAccount?: boolean;
 };
 
 export type SeedVisit = {
@@ -875,6 +877,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       status: "build-booked",
       ageHours: 42 * 24,
       assignee: CS_OWNER,
+      homeownerAccount: true,
       papers: { visit: VISIT_OK, proposal: { fixedPrice: 2900, addOns: [], state: "signed" } },
       design: {
         stone: "Kilnstone Grand Taper",
@@ -897,6 +900,7 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       status: "built",
       ageHours: 50 * 24,
       assignee: CS_EST,
+      homeownerAccount: true,
       papers: { visit: VISIT_OK, proposal: { fixedPrice: 2200, addOns: [], state: "signed" } },
       design: { stone: "Ridgeback Taper", units: 15, courses: 3, cap: "Sill Cap 16", liner: "none", setbackFt: 26 },
     },
@@ -913,6 +917,43 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       assignee: CS_OWNER,
       papers: { visit: VISIT_OK, proposal: { fixedPrice: 2600, addOns: [], state: "signed" } },
       design: { stone: "Fieldcut Taper", units: 16, courses: 4, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 40 },
+    },
+    {
+      customerName: "Wilhelmina Arkwright",
+      email: "wilhelmina.arkwright@example.test",
+      phone: "(555) 012-8830",
+      street: "8 Saltmarsh Lane",
+      town: "Harrow Bend",
+      buildWindow: "within-a-month",
+      notes: "",
+      status: "paid-in-full",
+      ageHours: 200 * 24,
+      assignee: CS_OWNER,
+      homeownerAccount: true,
+      papers: {
+        visit: VISIT_OK,
+        proposal: {
+          fixedPrice: 2450,
+          addOns: [{ label: "Spark screen, hinged", price: 240 }],
+          chosen: [0],
+          state: "signed",
+        },
+      },
+      design: { stone: "Ridgeback Taper", units: 14, courses: 3, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 30 },
+    },
+    {
+      customerName: "Caspian Thorne",
+      email: "caspian.thorne@example.test",
+      phone: "(555) 016-2207",
+      street: "31 Gristmill Road",
+      town: "Millbrook Falls",
+      buildWindow: "one-to-three-months",
+      notes: "",
+      status: "paid-in-full",
+      ageHours: 160 * 24,
+      assignee: CS_EST,
+      papers: { visit: VISIT_OK, proposal: { fixedPrice: 2750, addOns: [], state: "signed" } },
+      design: { stone: "Hearthline Taper", units: 14, courses: 3, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 29 },
     },
     {
       customerName: "Anouk Steenberg",

@@ -2,6 +2,9 @@ import { and, eq, inArray } from "drizzle-orm";
 import {
   bookings,
   buildCrew,
+  jobBalances,
+  jobExtras,
+  jobHours,
   builds,
   catalogItems,
   companies,
@@ -48,6 +51,7 @@ import {
 } from "./seed-data";
 import { addCalendarDays, buildDates, buildDaysNeeded } from "~/domain/build-schedule";
 import { jobLabourHours, workCalendarFor } from "~/lib/builds/builds.server";
+import { balanceFromPapers } from "~/lib/builds/job-balance.server";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -107,6 +111,7 @@ export async function seedDemo() {
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
     await seedSupplierOrders(companyId);
     await seedBuilds(companyId);
+    await seedJobMoney(companyId);
     await seedConsults(companyId);
   }
 }
@@ -193,7 +198,13 @@ async function seedBuilds(companyId: number) {
     if ((await db.select({ id: builds.id }).from(builds).where(eq(builds.leadId, job.id)).limit(1)).length) continue;
     const labourHours = await jobLabourHours(job);
     const days = buildDaysNeeded({ labourHours, crewSize: company.crewSize, dayHours: company.crewDayHours });
-    const start = job.status === "build-booked" ? addCalendarDays(today, 14) : addCalendarDays(today, -21 - 7 * i);
+    // A finished job was built some while after its deposit (paid at 62 % of its age): older jobs longer
+    // ago, so the monthly report has more than one month to show.
+    const ageDays = Math.round((Date.now() - new Date(job.createdAt).getTime()) / 86_400_000);
+    const start =
+      job.status === "build-booked"
+        ? addCalendarDays(today, 14)
+        : addCalendarDays(today, -Math.max(21 + 7 * i, Math.round(ageDays * 0.3)));
     const dates = buildDates(start, days, calendar);
     const [row] = await db
       .insert(builds)
@@ -209,6 +220,90 @@ async function seedBuilds(companyId: number) {
       })
       .returning();
     await db.insert(buildCrew).values({ buildId: row!.id, userId: job.crewUserId ?? crew.id, companyId });
+  }
+}
+
+// How the hours worked compared with the plan's, job by job (invented), and an extra bought on site.
+const WORKED_FACTORS = [1.15, 0.95, 1.05, 1.25];
+const DEMO_EXTRAS = [
+  { description: "Spare cap: one cracked on the saw", quantity: 1, costCents: 2_850 },
+  { description: "Another bag of base stone", quantity: 1, costCents: 1_200 },
+];
+
+/**
+ * The money of the demo jobs past "built": the hours the crew logged each build day, an extra, and
+ * the balance (worked out from the signed papers as marking a job built does), opened the evening
+ * of the last build day and, for jobs paid in full, paid three days later. A job with a balance is
+ * left alone.
+ */
+async function seedJobMoney(companyId: number) {
+  const jobs = await db
+    .select({ lead: leads, build: builds })
+    .from(leads)
+    .innerJoin(builds, and(eq(builds.leadId, leads.id), eq(builds.status, "booked")))
+    .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["built", "paid-in-full"])));
+  const [crew] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, companyId), eq(users.role, "crew")))
+    .limit(1);
+  for (const [i, { lead, build }] of jobs.entries()) {
+    if ((await db.select({ id: jobBalances.id }).from(jobBalances).where(eq(jobBalances.leadId, lead.id))).length)
+      continue;
+    const figures = await balanceFromPapers(db, lead);
+    if (!figures || !crew) continue;
+    const days = JSON.parse(build.datesJson) as string[];
+    const worker = lead.crewUserId ?? crew.id;
+    // Quarter hours, split over the build days.
+    const perDay = Math.round(((build.labourHours * WORKED_FACTORS[i % WORKED_FACTORS.length]!) / days.length) * 4) / 4;
+    for (const day of days)
+      await db
+        .insert(jobHours)
+        .values({ companyId, leadId: lead.id, workerUserId: worker, day, hours: perDay, clientId: `seed-${lead.id}-${day}` })
+        .onConflictDoNothing();
+    const extra = DEMO_EXTRAS[i % DEMO_EXTRAS.length]!;
+    await db
+      .insert(jobExtras)
+      .values({ companyId, leadId: lead.id, ...extra, clientId: `seed-extra-${lead.id}`, recordedByUserId: worker })
+      .onConflictDoNothing();
+    const openedAt = `${build.lastDay}T23:00:00.000Z`;
+    const paidAt =
+      lead.status === "paid-in-full" ? new Date(new Date(openedAt).getTime() + 3 * 86_400_000).toISOString() : null;
+    const { balance } = figures;
+    await db.insert(jobBalances).values({
+      companyId,
+      leadId: lead.id,
+      proposalId: figures.proposalId,
+      proposalPriceCents: balance.proposalPriceCents,
+      addOnsCents: balance.addOnsCents,
+      changeOrdersCents: balance.changeOrdersCents,
+      depositCents: balance.depositCents,
+      amountCents: balance.amountCents,
+      openedAt,
+      paidAt,
+      createdAt: openedAt,
+      updatedAt: paidAt ?? openedAt,
+    });
+    await db.insert(leadEvents).values([
+      {
+        companyId,
+        leadId: lead.id,
+        kind: "balance",
+        detail: `Balance of ${formatMoney(balance.amountCents)} due.`,
+        createdAt: openedAt,
+      },
+      ...(paidAt
+        ? [
+            {
+              companyId,
+              leadId: lead.id,
+              kind: "balance-paid",
+              detail: `Balance of ${formatMoney(balance.amountCents)} recorded as paid: cheque.`,
+              createdAt: paidAt,
+            },
+          ]
+        : []),
+    ]);
   }
 }
 
@@ -340,6 +435,20 @@ async function seedLeads(companyId: number, slug: string, companyEmail: string, 
       })
       .returning({ id: leads.id });
     const leadId = lead!.id;
+    if (seed.homeownerAccount) {
+      await db
+        .insert(users)
+        .values({
+          companyId,
+          email: seed.email,
+          name: seed.customerName,
+          role: "homeowner",
+          passwordHash: await hashPassword(DEMO_PASSWORD),
+        })
+        .onConflictDoNothing({ target: users.email });
+      const [account] = await db.select({ id: users.id }).from(users).where(eq(users.email, seed.email));
+      await db.update(leads).set({ homeownerId: account!.id }).where(eq(leads.id, leadId));
+    }
 
     const events: (typeof leadEvents.$inferInsert)[] = [
       {
