@@ -1,0 +1,354 @@
+/*
+ * A built job's balance: opened when the job is marked built (signed proposal with its add-ons +
+ * signed change orders − deposit, worked by hand below), the homeowner's completion e-mail queued in
+ * the same transaction, paid through Checkout with every signed webhook applied once and only when
+ * its session, amount and currency match (the payment service's guidance on fulfilling from
+ * webhooks), a second payment refunded once; and the job's cost and the monthly sums for owners.
+ */
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { and, eq } from "drizzle-orm";
+import Stripe from "stripe";
+import { afterAll, beforeAll, expect, test } from "vitest";
+import {
+  emailOutbox,
+  jobBalances,
+  jobExtras,
+  jobHours,
+  leadEvents,
+  leadPhotos,
+  leads,
+  paymentEvents,
+  proposals,
+  users,
+  type JobBalance,
+} from "~/db/schema";
+import {
+  processBalanceRefunds,
+  recordBalancePaidByHand,
+  startBalanceCheckout,
+} from "~/lib/builds/job-balance.server";
+import { jobCostFor, monthlyJobReport } from "~/lib/builds/job-cost.server";
+import { markJobBuilt } from "~/lib/builds/mark-built.server";
+import { db } from "~/lib/platform/db.server";
+import { env } from "~/lib/platform/env.server";
+import { createStripe } from "~/lib/platform/payments.server";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
+import { action as webhookAction } from "~/routes/api/webhooks-stripe";
+import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
+import { routeArgs } from "./support/demo";
+import { sentProposal } from "./support/proposals";
+
+let fake: PaymentsFake;
+beforeAll(async () => {
+  fake = await startPaymentsFake({
+    port: 0,
+    webhookUrl: null,
+    stateFile: path.join(mkdtempSync(path.join(tmpdir(), "ew-bal-")), "state.json"),
+    log: () => {},
+  });
+});
+afterAll(() => fake.close());
+
+const stripe = new Stripe("sk_test_local");
+let seq = 0;
+const balanceOf = async (leadId: number) =>
+  (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0];
+const stageOf = async (leadId: number) => (await db.select().from(leads).where(eq(leads.id, leadId)))[0]!.status;
+
+/**
+ * A signed job at "build booked": the support proposal ($4,850 fixed price, add-ons a1 $640 and
+ * a2 $395), signed with a2 chosen, deposit recorded as paid.
+ */
+async function bookedJob(chosenKeys = ["a2"]) {
+  const sent = await sentProposal();
+  const accepted = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document: parseProposalDocument(sent.proposal.documentJson),
+    input: { name: sent.lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys },
+  });
+  if (!accepted.ok) throw new Error(accepted.message);
+  await db
+    .update(proposals)
+    .set({ status: "signed", depositPaidAt: new Date().toISOString() })
+    .where(eq(proposals.id, sent.proposal.id));
+  await db.update(leads).set({ status: "build-booked" }).where(eq(leads.id, sent.lead.id));
+  const [proposal] = await db.select().from(proposals).where(eq(proposals.id, sent.proposal.id));
+  return { ...sent, proposal: proposal! };
+}
+
+function balanceEvent(balance: JobBalance, type: string, object: Record<string, unknown>) {
+  seq += 1;
+  return {
+    id: `evt_balance_${Date.now()}_${seq}`,
+    object: "event",
+    type,
+    created: Math.floor(Date.now() / 1000),
+    data: {
+      object: {
+        metadata: { kind: "balance", balance_id: String(balance.id), lead_id: String(balance.leadId) },
+        ...object,
+      },
+    },
+  };
+}
+
+const completed = (balance: JobBalance, overrides: Record<string, unknown> = {}) =>
+  balanceEvent(balance, "checkout.session.completed", {
+    id: balance.checkoutSessionId,
+    object: "checkout.session",
+    payment_status: "paid",
+    status: "complete",
+    amount_total: balance.amountCents,
+    currency: "usd",
+    payment_intent: `pi_bal_${balance.id}_${seq}`,
+    ...overrides,
+  });
+
+async function deliver(event: unknown) {
+  const payload = JSON.stringify(event);
+  const signature = stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
+  const response = (await webhookAction(
+    routeArgs(
+      new Request("http://localhost/api/webhooks/stripe", {
+        method: "POST",
+        body: payload,
+        headers: { "Stripe-Signature": signature },
+      }),
+    ),
+  )) as Response;
+  return { status: response.status, outcome: ((await response.json()) as { outcome: string }).outcome };
+}
+
+async function crewOf(companyId: number) {
+  const [crew] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, companyId), eq(users.role, "crew")))
+    .limit(1);
+  return crew!;
+}
+
+/** Marks the job built and gives its balance a checkout session, as the homeowner's Pay button would. */
+async function builtJobWithSession() {
+  const job = await bookedJob();
+  const crew = await crewOf(job.lead.companyId);
+  expect(await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id })).toEqual({
+    ok: true,
+    from: "build-booked",
+  });
+  seq += 1;
+  await db
+    .update(jobBalances)
+    .set({ checkoutSessionId: `cs_balance_${job.lead.id}_${seq}`, checkoutAttempt: 1 })
+    .where(eq(jobBalances.leadId, job.lead.id));
+  return { ...job, balance: (await balanceOf(job.lead.id))! };
+}
+
+test("marking a job built opens its balance and queues the completion e-mail in the same step; a second call changes nothing", async () => {
+  const job = await bookedJob();
+  const crew = await crewOf(job.lead.companyId);
+  await db.insert(leadPhotos).values({
+    companyId: job.lead.companyId,
+    leadId: job.lead.id,
+    storedName: `final-${job.lead.id}.jpg`,
+    originalName: "done.jpg",
+    mimeType: "image/jpeg",
+    sizeBytes: 1000,
+    source: "final",
+  });
+  const result = await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  expect(result).toEqual({ ok: true, from: "build-booked" });
+  expect(await stageOf(job.lead.id)).toBe("built");
+  // $4,850 + $395 add-on = $5,245 signed; 30 % deposit = $1,573.50; $5,245 − $1,573.50 = $3,671.50 due.
+  const balance = (await balanceOf(job.lead.id))!;
+  expect(balance).toMatchObject({
+    proposalPriceCents: 485_000,
+    addOnsCents: 39_500,
+    changeOrdersCents: 0,
+    depositCents: 157_350,
+    amountCents: 367_150,
+    paidAt: null,
+  });
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `job-completed/${job.lead.id}`));
+  expect(mail!.toAddress).toBe(job.lead.email);
+  expect(mail!.companyId).toBe(job.lead.companyId);
+  expect(mail!.text).toContain("$3,671.50");
+  expect(mail!.text).toContain("Add-ons you chose");
+  expect(mail!.text).toMatch(new RegExp(`/photos/\\d+`));
+  expect(mail!.text).toContain(`/my#balance-${job.lead.id}`);
+  expect(mail!.text).toMatch(/metal can/);
+  expect(mail!.text).toMatch(/adhesive cure/);
+  expect(mail!.text).toMatch(/local fire authority/);
+
+  const again = await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  expect(again).toMatchObject({ ok: false, status: 409 });
+  expect(await db.select().from(jobBalances).where(eq(jobBalances.leadId, job.lead.id))).toHaveLength(1);
+  // Another company's id is "not found".
+  expect(await markJobBuilt({ companyId: 999_999, leadId: job.lead.id, actorUserId: crew.id })).toMatchObject({
+    status: 404,
+  });
+});
+
+test("a signed change order counts: $5,245 + $380 = $5,625 − $1,573.50 = $4,051.50", async () => {
+  const job = await bookedJob();
+  await db.insert(proposals).values({
+    ...job.proposal,
+    id: undefined,
+    token: `co-${job.proposal.id}-${Date.now()}`,
+    kind: "change-order",
+    parentId: job.proposal.id,
+    priceCents: 38_000,
+    checkoutSessionId: null,
+    signedAt: new Date().toISOString(),
+  });
+  const crew = await crewOf(job.lead.companyId);
+  await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  expect((await balanceOf(job.lead.id))!).toMatchObject({ changeOrdersCents: 38_000, amountCents: 405_150 });
+});
+
+test("the balance's signed webhook pays it once: job paid in full, timeline and receipts; a repeat changes nothing", async () => {
+  const { lead, balance } = await builtJobWithSession();
+  const event = completed(balance);
+  expect(await deliver(event)).toEqual({ status: 200, outcome: "applied" });
+  const paid = (await balanceOf(lead.id))!;
+  expect(paid.paidAt).not.toBeNull();
+  expect(paid.paymentIntentId).toMatch(/^pi_bal_/);
+  expect(await stageOf(lead.id)).toBe("paid-in-full");
+  const receipts = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `balance-paid/${lead.id}`));
+  expect(receipts).toHaveLength(1);
+  expect(receipts[0]!.text).toContain("$3,671.50");
+
+  expect(await deliver(event)).toEqual({ status: 200, outcome: "duplicate" });
+  expect(
+    await db
+      .select()
+      .from(leadEvents)
+      .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "balance-paid"))),
+  ).toHaveLength(1);
+});
+
+test.each([
+  ["another amount", { amount_total: 100 }],
+  ["another currency", { currency: "eur" }],
+  ["another checkout session", { id: "cs_someone_else" }],
+])("a completed balance event with %s than stored is rejected, logged and not recorded", async (_label, overrides) => {
+  const { lead, balance } = await builtJobWithSession();
+  const event = completed(balance, overrides);
+  const warnings: string[] = [];
+  const original = console.warn;
+  console.warn = (message: string) => warnings.push(message);
+  try {
+    expect(await deliver(event)).toEqual({ status: 200, outcome: "rejected" });
+  } finally {
+    console.warn = original;
+  }
+  expect(warnings.join("\n")).toContain(`balance ${balance.id}`);
+  expect((await balanceOf(lead.id))!.paidAt).toBeNull();
+  expect(await stageOf(lead.id)).toBe("built");
+  expect(await db.select().from(paymentEvents).where(eq(paymentEvents.id, event.id))).toHaveLength(0);
+});
+
+test("a card payment landing after the office recorded the balance paid is refunded once, keyed refund:balance:<id>", async () => {
+  const { lead, balance } = await builtJobWithSession();
+  const expired: string[] = [];
+  const client = {
+    checkout: { sessions: { expire: async (id: string) => expired.push(id) } },
+  } as unknown as Stripe;
+  expect(await recordBalancePaidByHand({ lead, actorUserId: lead.assignedUserId!, how: "cheque", client })).toBeNull();
+  expect(expired).toEqual([balance.checkoutSessionId]);
+  expect(await stageOf(lead.id)).toBe("paid-in-full");
+  expect(await recordBalancePaidByHand({ lead, actorUserId: lead.assignedUserId!, how: "cheque", client })).toMatch(
+    /already paid/,
+  );
+
+  const late = completed(balance);
+  expect(await deliver(late)).toEqual({ status: 200, outcome: "applied" });
+  const owed = (await balanceOf(lead.id))!;
+  expect(owed.refundOwedAt).not.toBeNull();
+  expect(owed.refundPaymentIntentId).toBe(late.data.object.payment_intent);
+
+  const calls: { params: unknown; key: string | undefined }[] = [];
+  const refunds = {
+    refunds: {
+      create: async (params: unknown, options?: { idempotencyKey?: string }) => {
+        calls.push({ params, key: options?.idempotencyKey });
+        return { id: `re_${calls.length}` };
+      },
+    },
+  } as unknown as Pick<Stripe, "refunds">;
+  await processBalanceRefunds(refunds);
+  await processBalanceRefunds(refunds);
+  const mine = calls.filter((c) => c.key === `refund:balance:${balance.id}`);
+  expect(mine).toHaveLength(1);
+  expect(mine[0]!.params).toEqual({ payment_intent: late.data.object.payment_intent });
+  expect((await balanceOf(lead.id))!.refundId).toBe(`re_${calls.indexOf(mine[0]!) + 1}`);
+});
+
+test("the Pay button opens Checkout on the payment service for the exact balance, and reuses the open session", async () => {
+  const job = await bookedJob([]);
+  const crew = await crewOf(job.lead.companyId);
+  await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  const balance = (await balanceOf(job.lead.id))!;
+  const client = createStripe(fake.url);
+  const url = await startBalanceCheckout({ balance, lead: job.lead, company: job.company, client });
+  const stored = (await balanceOf(job.lead.id))!;
+  expect(stored.checkoutAttempt).toBe(1);
+  const session = await client.checkout.sessions.retrieve(stored.checkoutSessionId!);
+  // $4,850 signed, no add-ons; 30 % deposit $1,455; $4,850 − $1,455 = $3,395.
+  expect(session.amount_total).toBe(339_500);
+  expect(session.metadata).toMatchObject({ kind: "balance", balance_id: String(balance.id) });
+  expect(await startBalanceCheckout({ balance: stored, lead: job.lead, company: job.company, client })).toBe(url);
+});
+
+test("job cost: the plan's hours and material against hours logged, material and extras; the monthly report sums built jobs", async () => {
+  const { lead, balance } = await builtJobWithSession();
+  const crew = await crewOf(lead.companyId);
+  const before = await jobCostFor(lead);
+  expect(before!.actual.labourHours).toBe(0);
+  await db.insert(jobHours).values([
+    { companyId: lead.companyId, leadId: lead.id, workerUserId: crew.id, day: "2026-11-03", hours: 6.5, clientId: `h1-${lead.id}` },
+    { companyId: lead.companyId, leadId: lead.id, workerUserId: crew.id, day: "2026-11-04", hours: 5, clientId: `h2-${lead.id}` },
+  ]);
+  await db.insert(jobExtras).values({
+    companyId: lead.companyId,
+    leadId: lead.id,
+    description: "Spare cap",
+    quantity: 1,
+    costCents: 2_850,
+    clientId: `x-${lead.id}`,
+  });
+  const cost = (await jobCostFor(lead))!;
+  // 6.5 + 5 = 11.5 h at the plan's cost rate; extras $28.50; material as planned (no supplier order).
+  expect(cost.actual.labourHours).toBe(11.5);
+  expect(cost.actual.labourCents).toBe(Math.round(11.5 * cost.labourCostRateCents));
+  expect(cost.actual.extrasCents).toBe(2_850);
+  expect(cost.materialSource).toBe("the plan");
+  expect(cost.actual.materialCents).toBe(cost.estimated.materialCents);
+  // Revenue is the job's total: $5,245.
+  expect(cost.revenueCents).toBe(524_500);
+  expect(cost.grossProfitCents).toBe(524_500 - cost.actual.totalCents);
+  expect(cost.differenceCents).toBe(cost.actual.totalCents - cost.estimated.totalCents);
+
+  // Move this job into a month of its own, far back, and read the report's row for it.
+  await db.update(jobBalances).set({ openedAt: "2001-03-10T18:00:00.000Z" }).where(eq(jobBalances.id, balance.id));
+  const report = await monthlyJobReport(lead.companyId);
+  const march = report.rows.find((r) => r.month === "2001-03")!;
+  expect(march).toMatchObject({
+    jobsBuilt: 1,
+    revenueCents: 524_500,
+    actualCents: cost.actual.totalCents,
+    estimatedCents: cost.estimated.totalCents,
+    grossProfitCents: cost.grossProfitCents,
+  });
+  expect(march.accuracy).toBeCloseTo(cost.actual.totalCents / cost.estimated.totalCents, 10);
+  // Every built job of the company is counted once across the months.
+  const balances = await db.select().from(jobBalances).where(eq(jobBalances.companyId, lead.companyId));
+  expect(report.rows.reduce((n, r) => n + r.jobsBuilt, 0)).toBe(balances.length);
+});
