@@ -36,7 +36,8 @@ import { action as changeOrderAction, loader as changeOrderLoader } from "~/rout
 import { loader as termsLoader } from "~/routes/app-settings-proposals";
 import { loader as proposalPageLoader } from "~/routes/proposal";
 import { loader as proposalPdfLoader } from "~/routes/proposal-pdf";
-import { loader as myLoader } from "~/routes/my";
+import { action as myAction, loader as myLoader } from "~/routes/my";
+import { loader as reportsLoader } from "~/routes/app-reports";
 import { action as moveConsultAction, loader as moveConsultLoader } from "~/routes/my-consult";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { sendProposal } from "~/lib/proposals/proposals.server";
@@ -627,6 +628,31 @@ const CASES: Case[] = [
       homeowner: SIGN_IN,
       anonymous: SIGN_IN,
       "other company's owner": "200",
+    },
+  },
+  {
+    name: "GET /app/reports",
+    call: (c) => reportsLoader(routeArgs(get("/app/reports", c))),
+    expected: {
+      owner: "200",
+      estimator: "403",
+      crew: "403",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "200",
+    },
+  },
+  {
+    // A homeowner may pay only the balance of their own job: another's is "not found".
+    name: "POST /my (pay the balance of someone else's job)",
+    call: (c) => myAction(routeArgs(post("/my", c, { intent: "pay-balance", leadId: String(ids.wonLead) }))),
+    expected: {
+      owner: "403",
+      estimator: "403",
+      crew: "403",
+      homeowner: "404",
+      anonymous: SIGN_IN,
+      "other company's owner": "403",
     },
   },
   {
