@@ -58,13 +58,13 @@ export function JobCostCard({ cost }: { cost: JobCostCardView }) {
       <p className="text-char-600">
         Owners only. Labour at the plan&apos;s cost rate of {cost.rate}; the estimate is the signed plan.
       </p>
-      <div className="overflow-x-auto">
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Estimated against actual cost, scrolls sideways">
         <table className="w-full min-w-[18rem] text-left">
           <caption className="sr-only">Estimated against actual cost</caption>
           <thead>
             <tr className="border-b border-ash-300">
               <th scope="col" className="py-1 pr-2">
-                &nbsp;
+                Cost
               </th>
               <th scope="col" className="py-1 pr-2 text-right">
                 Estimated

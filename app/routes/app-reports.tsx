@@ -61,7 +61,7 @@ export default function ReportsRoute({ loaderData }: Route.ComponentProps) {
             <h2 id="table-title" className="text-lg font-extrabold">
               The figures
             </h2>
-            <div className="mt-2 overflow-x-auto">
+            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Monthly figures, scrolls sideways">
               <table className="w-full min-w-[36rem] text-left text-sm">
                 <caption className="sr-only">Jobs built, revenue, cost, gross profit and estimate accuracy by month</caption>
                 <thead>
