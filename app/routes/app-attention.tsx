@@ -5,6 +5,7 @@ import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert } from "~/components/ui/field";
 import {
   listFailedWork,
+  retryFailedBalanceRefund,
   retryFailedDepositRefund,
   retryFailedEmail,
   retryFailedRefund,
@@ -19,7 +20,7 @@ export const meta: Route.MetaFunction = () => [{ title: "Needs attention · Embe
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const company = await getCompany(user.companyId);
-  const { mail, refunds, deposits } = await listFailedWork(user.companyId);
+  const { mail, refunds, deposits, balances } = await listFailedWork(user.companyId);
   return {
     mail,
     refunds: [
@@ -45,12 +46,25 @@ export async function loader({ request }: Route.LoaderArgs) {
         attempts: r.attempts,
         lastError: r.lastError,
       })),
+      ...balances.map((r) => ({
+        key: `balance-${r.id}`,
+        intent: "retry-balance-refund" as const,
+        id: r.id,
+        leadId: r.leadId,
+        customerName: r.customerName,
+        what: "Second payment of the balance",
+        amount: formatMoney(r.amountCents),
+        attempts: r.attempts,
+        lastError: r.lastError,
+      })),
     ],
   };
 }
 
 const retrySchema = z.object({
-  intent: z.enum(["retry-email", "retry-refund", "retry-deposit-refund"], { error: "Choose what to try again." }),
+  intent: z.enum(["retry-email", "retry-refund", "retry-deposit-refund", "retry-balance-refund"], {
+    error: "Choose what to try again.",
+  }),
   id: z.coerce.number().int().positive({ error: "Choose what to try again." }),
 });
 
@@ -63,6 +77,7 @@ export async function action({ request }: Route.ActionArgs) {
     "retry-email": retryFailedEmail,
     "retry-refund": retryFailedRefund,
     "retry-deposit-refund": retryFailedDepositRefund,
+    "retry-balance-refund": retryFailedBalanceRefund,
   }[intent];
   const isQueued = await retry(id, user.companyId);
   // Another company's row, or one already back in the queue, is simply not found here.

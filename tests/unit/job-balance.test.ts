@@ -24,9 +24,11 @@ import {
   users,
   type JobBalance,
 } from "~/db/schema";
+import { countFailedWork } from "~/lib/jobs/attention.server";
 import {
   processBalanceRefunds,
   recordBalancePaidByHand,
+  retryFailedBalanceRefund,
   startBalanceCheckout,
 } from "~/lib/builds/job-balance.server";
 import { jobCostFor, monthlyJobReport } from "~/lib/builds/job-cost.server";
@@ -255,7 +257,7 @@ test.each([
   expect(await db.select().from(paymentEvents).where(eq(paymentEvents.id, event.id))).toHaveLength(0);
 });
 
-test("a card payment landing after the office recorded the balance paid is refunded once, keyed refund:balance:<id>", async () => {
+test("a card payment landing after the office recorded the balance paid is refunded once (two workers at once), keyed refund:balance:<id>", async () => {
   const { lead, balance } = await builtJobWithSession();
   const expired: string[] = [];
   const client = {
@@ -269,10 +271,11 @@ test("a card payment landing after the office recorded the balance paid is refun
   );
 
   const late = completed(balance);
+  const lateIntent = (late.data.object as Record<string, unknown>).payment_intent;
   expect(await deliver(late)).toEqual({ status: 200, outcome: "applied" });
   const owed = (await balanceOf(lead.id))!;
   expect(owed.refundOwedAt).not.toBeNull();
-  expect(owed.refundPaymentIntentId).toBe(late.data.object.payment_intent);
+  expect(owed.refundPaymentIntentId).toBe(lateIntent);
 
   const calls: { params: unknown; key: string | undefined }[] = [];
   const refunds = {
@@ -283,12 +286,43 @@ test("a card payment landing after the office recorded the balance paid is refun
       },
     },
   } as unknown as Pick<Stripe, "refunds">;
-  await processBalanceRefunds(refunds);
-  await processBalanceRefunds(refunds);
+  // Two workers at once (leases), then a later pass: the refund goes out once.
+  await Promise.all([
+    processBalanceRefunds(refunds, { owner: "worker-a" }),
+    processBalanceRefunds(refunds, { owner: "worker-b" }),
+  ]);
+  await processBalanceRefunds(refunds, { owner: "worker-a" });
   const mine = calls.filter((c) => c.key === `refund:balance:${balance.id}`);
   expect(mine).toHaveLength(1);
-  expect(mine[0]!.params).toEqual({ payment_intent: late.data.object.payment_intent });
+  expect(mine[0]!.params).toEqual({ payment_intent: lateIntent });
   expect((await balanceOf(lead.id))!.refundId).toBe(`re_${calls.indexOf(mine[0]!) + 1}`);
+});
+
+test("a balance refund refused for good is counted for the owner and can be tried again", async () => {
+  const { lead, balance } = await builtJobWithSession();
+  const client = { checkout: { sessions: { expire: async () => undefined } } } as unknown as Stripe;
+  await recordBalancePaidByHand({ lead, actorUserId: lead.assignedUserId!, how: "bank transfer", client });
+  await deliver(completed(balance));
+  const before = await countFailedWork(lead.companyId);
+  const refusing = {
+    refunds: {
+      create: async () => {
+        throw Object.assign(new Error("No such payment_intent"), { statusCode: 404, code: "resource_missing" });
+      },
+    },
+  } as unknown as Pick<Stripe, "refunds">;
+  const errors = console.error;
+  console.error = () => undefined;
+  try {
+    await processBalanceRefunds(refusing);
+  } finally {
+    console.error = errors;
+  }
+  expect((await balanceOf(lead.id))!.refundFailedAt).not.toBeNull();
+  expect(await countFailedWork(lead.companyId)).toBe(before + 1);
+  expect(await retryFailedBalanceRefund(balance.id, 999_999)).toBe(false);
+  expect(await retryFailedBalanceRefund(balance.id, lead.companyId)).toBe(true);
+  expect(await countFailedWork(lead.companyId)).toBe(before);
 });
 
 test("the Pay button opens Checkout on the payment service for the exact balance, and reuses the open session", async () => {

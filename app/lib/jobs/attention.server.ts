@@ -1,5 +1,6 @@
 import { and, count, desc, eq, isNotNull, isNull } from "drizzle-orm";
-import { bookings, emailOutbox, leads, proposals } from "~/db/schema";
+import { bookings, emailOutbox, jobBalances, leads, proposals } from "~/db/schema";
+import { retryFailedBalanceRefund } from "~/lib/builds/job-balance.server";
 import { retryFailedRefund } from "~/lib/consults/booking.server";
 import { db } from "~/lib/platform/db.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
@@ -12,7 +13,7 @@ import { retryFailedDepositRefund } from "~/lib/proposals/proposal-payments.serv
 
 /** How many e-mails and refunds of a company have failed for good (for the workspace banner). */
 export async function countFailedWork(companyId: number): Promise<number> {
-  const [[mail], [refunds], [deposits]] = await Promise.all([
+  const [[mail], [refunds], [deposits], [balances]] = await Promise.all([
     db
       .select({ n: count() })
       .from(emailOutbox)
@@ -25,12 +26,18 @@ export async function countFailedWork(companyId: number): Promise<number> {
       .select({ n: count() })
       .from(proposals)
       .where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId))),
+    db
+      .select({ n: count() })
+      .from(jobBalances)
+      .where(
+        and(eq(jobBalances.companyId, companyId), isNotNull(jobBalances.refundFailedAt), isNull(jobBalances.refundId)),
+      ),
   ]);
-  return (mail?.n ?? 0) + (refunds?.n ?? 0) + (deposits?.n ?? 0);
+  return (mail?.n ?? 0) + (refunds?.n ?? 0) + (deposits?.n ?? 0) + (balances?.n ?? 0);
 }
 
 export async function listFailedWork(companyId: number) {
-  const [mail, refunds, deposits] = await Promise.all([
+  const [mail, refunds, deposits, balances] = await Promise.all([
     db
       .select({
         id: emailOutbox.id,
@@ -76,10 +83,28 @@ export async function listFailedWork(companyId: number) {
       .where(and(eq(proposals.companyId, companyId), isNotNull(proposals.refundFailedAt), isNull(proposals.refundId)))
       .orderBy(desc(proposals.refundFailedAt))
       .limit(100),
+    db
+      .select({
+        id: jobBalances.id,
+        leadId: jobBalances.leadId,
+        customerName: leads.customerName,
+        amountCents: jobBalances.amountCents,
+        attempts: jobBalances.refundAttempts,
+        lastError: jobBalances.refundLastError,
+        failedAt: jobBalances.refundFailedAt,
+      })
+      .from(jobBalances)
+      .innerJoin(leads, eq(leads.id, jobBalances.leadId))
+      .where(
+        and(eq(jobBalances.companyId, companyId), isNotNull(jobBalances.refundFailedAt), isNull(jobBalances.refundId)),
+      )
+      .orderBy(desc(jobBalances.refundFailedAt))
+      .limit(100),
   ]);
   return {
     mail,
     refunds,
+    balances,
     deposits: deposits.map(({ documentJson, amountCents, ...row }) => ({
       ...row,
       amountCents: amountCents ?? 0,
@@ -105,4 +130,4 @@ export async function retryFailedEmail(id: number, companyId: number, now = new 
   return rows.length > 0;
 }
 
-export { retryFailedDepositRefund, retryFailedRefund };
+export { retryFailedBalanceRefund, retryFailedDepositRefund, retryFailedRefund };
