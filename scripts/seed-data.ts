@@ -939,7 +939,14 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
           state: "signed",
         },
       },
-      design: { stone: "Ridgeback Taper", units: 14, courses: 3, cap: "Sill Cap 16", liner: "firebrick", setbackFt: 30 },
+      design: {
+        stone: "Ridgeback Taper",
+        units: 14,
+        courses: 3,
+        cap: "Sill Cap 16",
+        liner: "firebrick",
+        setbackFt: 30,
+      },
     },
     {
       customerName: "Caspian Thorne",
@@ -953,7 +960,15 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       ageHours: 160 * 24,
       assignee: CS_EST,
       papers: { visit: VISIT_OK, proposal: { fixedPrice: 2750, addOns: [], state: "signed" } },
-      design: { stone: "Hearthline Taper", units: 14, courses: 3, cap: "Sill Cap 16", liner: "steel-ring", ring: "Heavy Ring 36", setbackFt: 29 },
+      design: {
+        stone: "Hearthline Taper",
+        units: 14,
+        courses: 3,
+        cap: "Sill Cap 16",
+        liner: "steel-ring",
+        ring: "Heavy Ring 36",
+        setbackFt: 29,
+      },
     },
     {
       customerName: "Anouk Steenberg",

@@ -259,7 +259,14 @@ async function seedJobMoney(companyId: number) {
     for (const day of days)
       await db
         .insert(jobHours)
-        .values({ companyId, leadId: lead.id, workerUserId: worker, day, hours: perDay, clientId: `seed-${lead.id}-${day}` })
+        .values({
+          companyId,
+          leadId: lead.id,
+          workerUserId: worker,
+          day,
+          hours: perDay,
+          clientId: `seed-${lead.id}-${day}`,
+        })
         .onConflictDoNothing();
     const extra = DEMO_EXTRAS[i % DEMO_EXTRAS.length]!;
     await db

@@ -22,7 +22,9 @@ export function BalanceCard({ balance }: { balance: BalanceCardView }) {
             <dd className="text-right tabular-nums">{line.amount}</dd>
           </div>
         ))}
-        <dt className="border-t border-ash-300 pt-1 font-extrabold">{balance.paidOn ? "Balance paid" : "Balance due"}</dt>
+        <dt className="border-t border-ash-300 pt-1 font-extrabold">
+          {balance.paidOn ? "Balance paid" : "Balance due"}
+        </dt>
         <dd className="border-t border-ash-300 pt-1 text-right font-extrabold tabular-nums">{balance.amount}</dd>
       </dl>
       <p>
@@ -58,7 +60,12 @@ export function JobCostCard({ cost }: { cost: JobCostCardView }) {
       <p className="text-char-600">
         Owners only. Labour at the plan&apos;s cost rate of {cost.rate}; the estimate is the signed plan.
       </p>
-      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Estimated against actual cost, scrolls sideways">
+      <div
+        className="overflow-x-auto"
+        tabIndex={0}
+        role="region"
+        aria-label="Estimated against actual cost, scrolls sideways"
+      >
         <table className="w-full min-w-[18rem] text-left">
           <caption className="sr-only">Estimated against actual cost</caption>
           <thead>
@@ -116,7 +123,9 @@ export function JobCostCard({ cost }: { cost: JobCostCardView }) {
       </dl>
       <p>{cost.verdict}</p>
       {cost.unpriced.length ? (
-        <p className="text-char-700">Ordered items without a price in the plan (counted at nothing): {cost.unpriced.join(", ")}.</p>
+        <p className="text-char-700">
+          Ordered items without a price in the plan (counted at nothing): {cost.unpriced.join(", ")}.
+        </p>
       ) : null}
     </section>
   );

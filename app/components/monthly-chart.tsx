@@ -54,7 +54,14 @@ export function MonthlyChart({ months }: { months: ChartMonth[] }) {
         <desc id={`${id}-desc`}>{description}.</desc>
         {ticks.map((t) => (
           <g key={t}>
-            <line x1={PAD.left} x2={WIDTH - PAD.right} y1={y(t)} y2={y(t)} stroke="#d9d0c4" strokeWidth={t === 0 ? 1.5 : 0.75} />
+            <line
+              x1={PAD.left}
+              x2={WIDTH - PAD.right}
+              y1={y(t)}
+              y2={y(t)}
+              stroke="#d9d0c4"
+              strokeWidth={t === 0 ? 1.5 : 0.75}
+            />
             <text x={PAD.left - 6} y={y(t) + 4} textAnchor="end" fontSize="12" fill="#4a423c">
               {formatMoneyWhole(Math.round(t))}
             </text>
@@ -66,14 +73,14 @@ export function MonthlyChart({ months }: { months: ChartMonth[] }) {
           const profitHeight = Math.abs(y(m.grossProfitCents) - y(0));
           return (
             <g key={m.month}>
-              <rect x={cx - bar - 2} y={y(m.revenueCents)} width={bar} height={y(0) - y(m.revenueCents)} fill="#b14c12" />
               <rect
-                x={cx + 2}
-                y={profitTop}
+                x={cx - bar - 2}
+                y={y(m.revenueCents)}
                 width={bar}
-                height={profitHeight}
-                fill="#4d6b3c"
+                height={y(0) - y(m.revenueCents)}
+                fill="#b14c12"
               />
+              <rect x={cx + 2} y={profitTop} width={bar} height={profitHeight} fill="#4d6b3c" />
               <text x={cx} y={HEIGHT - PAD.bottom + 18} textAnchor="middle" fontSize="12" fill="#2d2825">
                 {m.label.replace(/ (\d{4})$/, " ’$1").replace(/’(\d\d)(\d\d)$/, "’$2")}
               </text>

@@ -83,7 +83,13 @@ export function orderedMaterialCents(
   return { cents, unpriced };
 }
 
-export type CostSide = { labourHours: number; labourCents: number; materialCents: number; extrasCents: number; totalCents: number };
+export type CostSide = {
+  labourHours: number;
+  labourCents: number;
+  materialCents: number;
+  extrasCents: number;
+  totalCents: number;
+};
 
 export type JobCost = {
   estimated: CostSide;

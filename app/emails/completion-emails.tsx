@@ -7,7 +7,6 @@ export type BalanceLine = { label: string; amount: string };
 const heading = { fontSize: "16px", fontWeight: 800, margin: "20px 0 8px" };
 const small = { ...emailText, fontSize: "14px", lineHeight: "20px", margin: "0 0 6px" };
 
-
 /** To the homeowner: the pit is built, here are the photos, the balance and how to look after it. */
 export function JobCompletedEmail(props: {
   companyName: string;

@@ -18,7 +18,9 @@ export async function loader({ request }: Route.LoaderArgs) {
   const signedMoney = (cents: number) => (cents < 0 ? `−${formatMoney(-cents)}` : formatMoney(cents));
   return {
     months: rows.map(
-      (row): ChartMonth & { revenue: string; grossProfit: string; cost: string; estimated: string; accuracy: string } => ({
+      (
+        row,
+      ): ChartMonth & { revenue: string; grossProfit: string; cost: string; estimated: string; accuracy: string } => ({
         month: row.month,
         label: monthName(row.month),
         jobsBuilt: row.jobsBuilt,
@@ -41,10 +43,10 @@ export default function ReportsRoute({ loaderData }: Route.ComponentProps) {
       <div>
         <h1 className="text-2xl font-extrabold">Jobs built by month</h1>
         <p className="text-char-600">
-          Each job counts in the month it was marked built. Revenue is the job&apos;s total (signed proposal with add-ons
-          and change orders); gross profit is revenue less the actual cost (hours worked at the labour cost rate,
-          material as ordered, extras); accuracy is actual ÷ estimated cost, so 100 % means the estimate was right and
-          more means the jobs cost more than planned.
+          Each job counts in the month it was marked built. Revenue is the job&apos;s total (signed proposal with
+          add-ons and change orders); gross profit is revenue less the actual cost (hours worked at the labour cost
+          rate, material as ordered, extras); accuracy is actual ÷ estimated cost, so 100 % means the estimate was right
+          and more means the jobs cost more than planned.
         </p>
       </div>
       {months.length === 0 ? (
@@ -61,9 +63,16 @@ export default function ReportsRoute({ loaderData }: Route.ComponentProps) {
             <h2 id="table-title" className="text-lg font-extrabold">
               The figures
             </h2>
-            <div className="mt-2 overflow-x-auto" tabIndex={0} role="region" aria-label="Monthly figures, scrolls sideways">
+            <div
+              className="mt-2 overflow-x-auto"
+              tabIndex={0}
+              role="region"
+              aria-label="Monthly figures, scrolls sideways"
+            >
               <table className="w-full min-w-[36rem] text-left text-sm">
-                <caption className="sr-only">Jobs built, revenue, cost, gross profit and estimate accuracy by month</caption>
+                <caption className="sr-only">
+                  Jobs built, revenue, cost, gross profit and estimate accuracy by month
+                </caption>
                 <thead>
                   <tr className="border-b border-ash-300">
                     <th scope="col" className="py-2 pr-3">

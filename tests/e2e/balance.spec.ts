@@ -18,7 +18,9 @@ async function expectNoAxeViolations(page: Page, label: string) {
     await page.setViewportSize({ width, height: 900 });
     const result = await new AxeBuilder({ page }).analyze();
     expect(
-      result.violations.map((v) => `${label} at ${width}: ${v.id} ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`),
+      result.violations.map(
+        (v) => `${label} at ${width}: ${v.id} ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`,
+      ),
     ).toEqual([]);
   }
   await page.setViewportSize({ width: 1366, height: 900 });
@@ -51,7 +53,9 @@ test("the owner marks a job built; the homeowner pays the balance from her page;
   await expect
     .poll(
       async () => {
-        const message = (await listMail()).find((m) => m.to.includes(EMAIL) && /Your fire pit is built/.test(m.subject));
+        const message = (await listMail()).find(
+          (m) => m.to.includes(EMAIL) && /Your fire pit is built/.test(m.subject),
+        );
         mailText = message?.text ?? "";
         return mailText;
       },

@@ -223,7 +223,10 @@ test("the balance's signed webhook pays it once: job paid in full, timeline and 
   expect(paid.paidAt).not.toBeNull();
   expect(paid.paymentIntentId).toMatch(/^pi_bal_/);
   expect(await stageOf(lead.id)).toBe("paid-in-full");
-  const receipts = await db.select().from(emailOutbox).where(eq(emailOutbox.idempotencyKey, `balance-paid/${lead.id}`));
+  const receipts = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `balance-paid/${lead.id}`));
   expect(receipts).toHaveLength(1);
   expect(receipts[0]!.text).toContain("$3,671.50");
 
@@ -347,8 +350,22 @@ test("job cost: the plan's hours and material against hours logged, material and
   const before = await jobCostFor(lead);
   expect(before!.actual.labourHours).toBe(0);
   await db.insert(jobHours).values([
-    { companyId: lead.companyId, leadId: lead.id, workerUserId: crew.id, day: "2026-11-03", hours: 6.5, clientId: `h1-${lead.id}` },
-    { companyId: lead.companyId, leadId: lead.id, workerUserId: crew.id, day: "2026-11-04", hours: 5, clientId: `h2-${lead.id}` },
+    {
+      companyId: lead.companyId,
+      leadId: lead.id,
+      workerUserId: crew.id,
+      day: "2026-11-03",
+      hours: 6.5,
+      clientId: `h1-${lead.id}`,
+    },
+    {
+      companyId: lead.companyId,
+      leadId: lead.id,
+      workerUserId: crew.id,
+      day: "2026-11-04",
+      hours: 5,
+      clientId: `h2-${lead.id}`,
+    },
   ]);
   await db.insert(jobExtras).values({
     companyId: lead.companyId,

@@ -123,7 +123,9 @@ export async function prepareCompletion(lead: Lead, company: Company): Promise<P
   const photos = await db
     .select({ id: leadPhotos.id, originalName: leadPhotos.originalName })
     .from(leadPhotos)
-    .where(and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId), eq(leadPhotos.source, "final")))
+    .where(
+      and(eq(leadPhotos.leadId, lead.id), eq(leadPhotos.companyId, lead.companyId), eq(leadPhotos.source, "final")),
+    )
     .orderBy(asc(leadPhotos.id));
   const origin = linkOrigin();
   const page = `${origin}/my#balance-${lead.id}`;
@@ -241,7 +243,8 @@ export async function startBalanceCheckout(args: {
   if (balance.checkoutSessionId) {
     const existing = await client.checkout.sessions.retrieve(balance.checkoutSessionId);
     if (existing.status === "open" && existing.url) return existing.url;
-    if (existing.status === "complete") throw new BalanceCheckoutError("The balance is paid; it shows here in a moment.");
+    if (existing.status === "complete")
+      throw new BalanceCheckoutError("The balance is paid; it shows here in a moment.");
     attempt += 1;
   } else if (attempt === 0) {
     attempt = 1;
@@ -565,8 +568,7 @@ export async function retryFailedBalanceRefund(balanceId: number, companyId: num
 export function describeBalance(balance: JobBalance, timeZone: string) {
   return {
     lines: balanceLines(balance),
-    amount:
-      balance.amountCents >= 0 ? formatMoney(balance.amountCents) : `${formatMoney(-balance.amountCents)} credit`,
+    amount: balance.amountCents >= 0 ? formatMoney(balance.amountCents) : `${formatMoney(-balance.amountCents)} credit`,
     dueSince: formatZonedDate(balance.openedAt, timeZone),
     paidOn: balance.paidAt ? formatZonedDate(balance.paidAt, timeZone) : null,
     how: balance.paidAt ? (balance.paymentIntentId ? "by card" : "recorded by the office") : null,

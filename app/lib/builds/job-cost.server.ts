@@ -10,7 +10,14 @@ import {
   type JobBalance,
   type Lead,
 } from "~/db/schema";
-import { contractOf, jobCost, monthlyReport, orderedMaterialCents, type JobCost, type MonthRow } from "~/domain/job-money";
+import {
+  contractOf,
+  jobCost,
+  monthlyReport,
+  orderedMaterialCents,
+  type JobCost,
+  type MonthRow,
+} from "~/domain/job-money";
 import type { RoundedLine } from "~/domain/supplier-order";
 import { readBreakdown } from "~/lib/design/price-breakdown";
 import { readStoredPlan } from "~/lib/design/stored-plan";
@@ -93,7 +100,12 @@ export async function jobCostFor(lead: Pick<Lead, "id" | "companyId">): Promise<
   const prices = breakdown?.lines ?? [];
   const ordered = drops.length
     ? orderedMaterialCents(
-        drops.flatMap((d) => (JSON.parse(d.linesJson) as RoundedLine[]).map((l) => ({ item: l.item, suppliedQuantity: l.suppliedQuantity }))),
+        drops.flatMap((d) =>
+          (JSON.parse(d.linesJson) as RoundedLine[]).map((l) => ({
+            item: l.item,
+            suppliedQuantity: l.suppliedQuantity,
+          })),
+        ),
         prices,
       )
     : null;
@@ -124,7 +136,10 @@ export type MonthlyJobReport = { rows: MonthRow[]; timeZone: string };
  * zone), with their revenue, gross profit and estimate accuracy. Oldest month first.
  */
 export async function monthlyJobReport(companyId: number): Promise<MonthlyJobReport> {
-  const [company] = await db.select({ timeZone: companies.timeZone }).from(companies).where(eq(companies.id, companyId));
+  const [company] = await db
+    .select({ timeZone: companies.timeZone })
+    .from(companies)
+    .where(eq(companies.id, companyId));
   const timeZone = company!.timeZone;
   const balances: JobBalance[] = await db
     .select()

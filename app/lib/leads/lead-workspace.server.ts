@@ -230,7 +230,11 @@ export async function changeStage(
     return built.ok ? { ok: true } : { ok: false, status: built.status, errors: { status: built.message } };
   }
   if (to === "paid-in-full" && (await findJobBalance(lead))) {
-    const refused = await recordBalancePaidByHand({ lead, actorUserId: user.id, how: "marked paid in full by the office" });
+    const refused = await recordBalancePaidByHand({
+      lead,
+      actorUserId: user.id,
+      how: "marked paid in full by the office",
+    });
     return refused ? { ok: false, status: 409, errors: { status: refused } } : { ok: true };
   }
   const isStopping = to === "on-hold" || to === "not-going-ahead";

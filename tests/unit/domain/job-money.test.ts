@@ -47,7 +47,12 @@ test("balance: a credit larger than what is left comes out negative (owed back):
 });
 
 test("balance: fractions of a cent, a total below the price and a negative deposit are refused", () => {
-  const base = { proposalPriceCents: 100_000, proposalTotalCents: 100_000, changeOrderDeltasCents: [], depositPaidCents: 0 };
+  const base = {
+    proposalPriceCents: 100_000,
+    proposalTotalCents: 100_000,
+    changeOrderDeltasCents: [],
+    depositPaidCents: 0,
+  };
   expect(() => balanceDue({ ...base, depositPaidCents: 10.5 })).toThrow(RangeError);
   expect(() => balanceDue({ ...base, changeOrderDeltasCents: [0.1] })).toThrow(RangeError);
   expect(() => balanceDue({ ...base, proposalTotalCents: 99_999 })).toThrow(/less than its price/);
