@@ -181,3 +181,13 @@ test("every page the crew sees has no accessibility violations and fits a 360 px
     await auditPaths(page, ["/app/jobs", job, `${job}/cut-sheet`, "/app/catalog", "/app/catalog/1", "/app/calendar"]),
   );
 });
+
+test("the monthly report and the seeded built jobs' pages have no accessibility violations and fit a 360 px phone", async ({
+  page,
+}) => {
+  await signIn(page, "owner@cinder-slate.test");
+  // A built job with its balance due and job cost (seeded), found through the inbox's stage tab.
+  await page.goto("/app/inbox?status=built");
+  const built = await page.getByRole("main").getByRole("link", { name: "Perpetua Vance" }).first().getAttribute("href");
+  expectClean(await auditPaths(page, ["/app/reports", built!]));
+});
