@@ -6,7 +6,6 @@
  */
 import type { AdhesiveEstimate, BaseEstimate } from "~/domain/quantities";
 import type { CapPlan } from "~/domain/caps";
-import type { LinerPlan } from "~/domain/liner";
 import type { PatioPlan } from "~/domain/patio";
 import type { RingPlan } from "~/domain/ring";
 import { formatInches } from "~/domain/units";
@@ -20,10 +19,14 @@ export type BuildStep = { key: BuildStepKey; title: string; detail: string };
 export type BuildStepsInput = {
   ring: Pick<RingPlan, "courses" | "unitsPerCourse" | "edgeDistanceIn" | "runningBondDeg" | "closure">;
   caps: Pick<CapPlan, "count"> | null;
-  liner: LinerPlan | null;
+  liner:
+    | { kind: "steel-ring"; outsideDiameterIn: number; bedDepthIn?: number }
+    | { kind: "firebrick"; rows: number; bricksPerRow: number; rippedRows?: number; ripHeightIn?: number | null }
+    | null;
   patio: Pick<PatioPlan, "outsideRadiusIn" | "borderUnitCount"> | null;
-  base: Pick<BaseEstimate, "radiusIn" | "patioRadiusIn">;
-  adhesive: Pick<AdhesiveEstimate, "gluedCourses" | "gluedCaps">;
+  /** Plans saved by older engines may lack the patio's base radius and the adhesive's layers. */
+  base: Pick<BaseEstimate, "radiusIn"> & Partial<Pick<BaseEstimate, "patioRadiusIn">>;
+  adhesive: Partial<Pick<AdhesiveEstimate, "gluedCourses" | "gluedCaps">>;
   /** Compacted base depth under the pit and under a patio, in (the plan's factors). */
   baseDepthIn: number;
   patioBaseDepthIn: number;
@@ -35,7 +38,12 @@ const degrees = (deg: number) => `${Math.round(deg * 10) / 10}°`;
 
 /** The ordered steps of the build: base, each course, liner, caps, cure, patio, clean-up (absent parts left out). */
 export function listBuildSteps(input: BuildStepsInput): BuildStep[] {
-  const { ring, caps, liner, patio, base, adhesive } = input;
+  const { ring, caps, liner, patio, base } = input;
+  // Older plans did not record the glued layers: the top course and the caps, as the engine glues them.
+  const adhesive = {
+    gluedCourses: input.adhesive.gluedCourses ?? Math.min(1, ring.courses - 1),
+    gluedCaps: input.adhesive.gluedCaps ?? caps !== null,
+  };
   const steps: BuildStep[] = [
     {
       key: "dig-base",
@@ -68,13 +76,12 @@ export function listBuildSteps(input: BuildStepsInput): BuildStep[] {
       key: "liner",
       title: "Set the steel ring",
       detail:
-        liner.bedDepthIn > 0
+        liner.bedDepthIn !== undefined && liner.bedDepthIn > 0
           ? `Lay a ${f(liner.bedDepthIn)} gravel bed in the bowl, set the ${f(liner.outsideDiameterIn)} ring on it, centred, and fill the gap round it with gravel.`
           : `Set the ${f(liner.outsideDiameterIn)} ring in the bowl, centred, and fill the gap round it with gravel.`,
     });
   } else if (liner?.kind === "firebrick") {
-    const rip =
-      liner.rippedRows > 0 && liner.ripHeightIn !== null ? `, the top row ripped to ${f(liner.ripHeightIn)}` : "";
+    const rip = liner.rippedRows && liner.ripHeightIn ? `, the top row ripped to ${f(liner.ripHeightIn)}` : "";
     steps.push({
       key: "liner",
       title: "Line the bowl with firebrick",
