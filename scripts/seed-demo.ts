@@ -9,6 +9,8 @@ import {
   supplierOrderDrops,
   supplierOrders,
   emailOutbox,
+  jobHours,
+  jobStepTicks,
   leadEvents,
   leads,
   proposals,
@@ -47,7 +49,8 @@ import {
   type SeedPapers,
 } from "./seed-data";
 import { addCalendarDays, buildDates, buildDaysNeeded } from "~/domain/build-schedule";
-import { jobLabourHours, workCalendarFor } from "~/lib/builds/builds.server";
+import { jobLabourHours, parseBuildDates, workCalendarFor } from "~/lib/builds/builds.server";
+import { jobBuildSteps } from "~/lib/builds/job-site.server";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -107,6 +110,7 @@ export async function seedDemo() {
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
     await seedSupplierOrders(companyId);
     await seedBuilds(companyId);
+    await seedCrewRecords(companyId);
     await seedConsults(companyId);
   }
 }
@@ -209,6 +213,67 @@ async function seedBuilds(companyId: number) {
       })
       .returning();
     await db.insert(buildCrew).values({ buildId: row!.id, userId: job.crewUserId ?? crew.id, companyId });
+  }
+}
+
+/**
+ * The crew's records of the demo jobs already built: every checklist step ticked on the build's
+ * last day, and each crew member's hours for each build day (a full day, a short last day). A job
+ * with records is left alone.
+ */
+async function seedCrewRecords(companyId: number) {
+  const done = await db
+    .select({ lead: leads, build: builds })
+    .from(leads)
+    .innerJoin(builds, and(eq(builds.leadId, leads.id), eq(builds.status, "booked")))
+    .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["built", "paid-in-full"])));
+  for (const { lead, build } of done) {
+    if ((await db.select({ id: jobStepTicks.id }).from(jobStepTicks).where(eq(jobStepTicks.leadId, lead.id))).length)
+      continue;
+    const days = parseBuildDates(build);
+    const crew = await db.select({ userId: buildCrew.userId }).from(buildCrew).where(eq(buildCrew.buildId, build.id));
+    const { steps } = await jobBuildSteps(lead);
+    const lastDay = days.at(-1) ?? build.lastDay;
+    const byUserId = crew[0]?.userId ?? null;
+    await db
+      .insert(jobStepTicks)
+      .values(
+        steps.map((step, i) => ({
+          companyId,
+          leadId: lead.id,
+          stepKey: step.key,
+          done: true,
+          // Through the last day, an hour apart from 08:00 local (about 14:00 UTC in Chicago).
+          changedAt: `${lastDay}T${String(14 + (i % 8)).padStart(2, "0")}:00:00.000Z`,
+          clientId: `seed-${lead.id}-${step.key}`,
+          byUserId,
+        })),
+      )
+      .onConflictDoNothing();
+    for (const { userId } of crew) {
+      await db
+        .insert(jobHours)
+        .values(
+          days.map((day, i) => ({
+            companyId,
+            leadId: lead.id,
+            workerUserId: userId,
+            day,
+            hours: i === days.length - 1 ? 5.5 : 8,
+            clientId: `seed-${lead.id}-${userId}-${day}`,
+            recordedByUserId: userId,
+          })),
+        )
+        .onConflictDoNothing();
+    }
+    await db.insert(leadEvents).values({
+      companyId,
+      leadId: lead.id,
+      actorUserId: byUserId,
+      kind: "build-step",
+      detail: `Checklist done: all ${steps.length} steps, and the crew's hours for ${days.length} build day${days.length === 1 ? "" : "s"} (demo data).`,
+      createdAt: `${lastDay}T22:00:00.000Z`,
+    });
   }
 }
 
