@@ -218,7 +218,7 @@ async function seedBuilds(companyId: number) {
 
 /**
  * The crew's records of the demo jobs already built: every checklist step ticked on the build's
- * last day, and each crew member's hours for each build day (a full day, a short last day). A job
+ * last day, and each crew member's hours for each build day (full days, a short last one). A job
  * with records is left alone.
  */
 async function seedCrewRecords(companyId: number) {
@@ -259,7 +259,7 @@ async function seedCrewRecords(companyId: number) {
             leadId: lead.id,
             workerUserId: userId,
             day,
-            hours: i === days.length - 1 ? 5.5 : 8,
+            hours: i > 0 && i === days.length - 1 ? 5.5 : 8,
             clientId: `seed-${lead.id}-${userId}-${day}`,
             recordedByUserId: userId,
           })),
