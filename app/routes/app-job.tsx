@@ -317,6 +317,8 @@ export default function JobRoute({ loaderData, actionData }: Route.ComponentProp
         <PhotoGrid photos={buildPhotos} empty="No build photos yet." />
         {canRecord ? (
           <PhotoForm
+            // A new photo list starts an empty form (the saved files are not offered again).
+            key={buildPhotos.length}
             leadId={job.id}
             intent="progress"
             label="Add progress photos"
