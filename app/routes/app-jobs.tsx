@@ -90,16 +90,18 @@ export default function JobsRoute({ loaderData }: Route.ComponentProps) {
 }
 
 function JobList({ jobs, isOffice }: { jobs: Job[]; isOffice: boolean }) {
+  // The office's list sits under the page title; the crew's under a group's heading.
+  const Heading = isOffice ? "h2" : "h3";
   return (
     <ul className="grid gap-4 md:grid-cols-2">
       {jobs.map((job) => (
         <li key={job.id} className="flex flex-col gap-3 card p-5">
           <div>
-            <h3 className="text-lg font-extrabold">
+            <Heading className="text-lg font-extrabold">
               <Link to={`/app/leads/${job.id}`} className="hover:underline">
                 {job.customerName}
               </Link>
-            </h3>
+            </Heading>
             <p className="text-sm text-char-700">
               {job.street}, {job.town}
             </p>
