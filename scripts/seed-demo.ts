@@ -12,6 +12,7 @@ import {
   supplierOrderDrops,
   supplierOrders,
   emailOutbox,
+  jobStepTicks,
   leadEvents,
   leads,
   proposals,
@@ -50,8 +51,9 @@ import {
   type SeedPapers,
 } from "./seed-data";
 import { addCalendarDays, buildDates, buildDaysNeeded } from "~/domain/build-schedule";
-import { jobLabourHours, workCalendarFor } from "~/lib/builds/builds.server";
+import { jobLabourHours, parseBuildDates, workCalendarFor } from "~/lib/builds/builds.server";
 import { balanceFromPapers } from "~/lib/builds/job-balance.server";
+import { jobBuildSteps } from "~/lib/builds/job-site.server";
 
 /** Fills DATABASE_URL with the demo scenario; running it twice changes nothing. */
 export async function seedDemo() {
@@ -111,6 +113,7 @@ export async function seedDemo() {
     await seedLeads(companyId, company.slug, company.email, DEMO_LEADS[company.slug] ?? []);
     await seedSupplierOrders(companyId);
     await seedBuilds(companyId);
+    await seedCrewRecords(companyId);
     await seedJobMoney(companyId);
     await seedConsults(companyId);
   }
@@ -231,7 +234,73 @@ const DEMO_EXTRAS = [
 ];
 
 /**
- * The money of the demo jobs past "built": the hours the crew logged each build day, an extra, and
+ * The crew's records of the demo jobs already built: every checklist step ticked on the build's
+ * last day, and each crew member's hours for each build day: the plan's hours times the job's
+ * worked factor, shared over the days and the crew, in quarter hours. A job with records is left alone.
+ */
+async function seedCrewRecords(companyId: number) {
+  const done = await db
+    .select({ lead: leads, build: builds })
+    .from(leads)
+    .innerJoin(builds, and(eq(builds.leadId, leads.id), eq(builds.status, "booked")))
+    .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["built", "paid-in-full"])));
+  for (const [index, { lead, build }] of done.entries()) {
+    if ((await db.select({ id: jobStepTicks.id }).from(jobStepTicks).where(eq(jobStepTicks.leadId, lead.id))).length)
+      continue;
+    const days = parseBuildDates(build);
+    const crew = await db.select({ userId: buildCrew.userId }).from(buildCrew).where(eq(buildCrew.buildId, build.id));
+    const { steps } = await jobBuildSteps(lead);
+    const lastDay = days.at(-1) ?? build.lastDay;
+    const byUserId = crew[0]?.userId ?? null;
+    await db
+      .insert(jobStepTicks)
+      .values(
+        steps.map((step, i) => ({
+          companyId,
+          leadId: lead.id,
+          stepKey: step.key,
+          done: true,
+          // Through the last day, an hour apart from 08:00 local (about 14:00 UTC in Chicago).
+          changedAt: `${lastDay}T${String(14 + (i % 8)).padStart(2, "0")}:00:00.000Z`,
+          clientId: `seed-${lead.id}-${step.key}`,
+          byUserId,
+        })),
+      )
+      .onConflictDoNothing();
+    const worked = build.labourHours * WORKED_FACTORS[index % WORKED_FACTORS.length]!;
+    const perPersonDay = Math.min(
+      12,
+      Math.max(0.25, Math.round((worked / days.length / Math.max(1, crew.length)) * 4) / 4),
+    );
+    for (const { userId } of crew) {
+      await db
+        .insert(jobHours)
+        .values(
+          days.map((day) => ({
+            companyId,
+            leadId: lead.id,
+            workerUserId: userId,
+            day,
+            hours: perPersonDay,
+            clientId: `seed-${lead.id}-${userId}-${day}`,
+            recordedByUserId: userId,
+          })),
+        )
+        .onConflictDoNothing();
+    }
+    await db.insert(leadEvents).values({
+      companyId,
+      leadId: lead.id,
+      actorUserId: byUserId,
+      kind: "build-step",
+      detail: `Checklist done: all ${steps.length} steps, and the crew's hours for ${days.length} build day${days.length === 1 ? "" : "s"} (demo data).`,
+      createdAt: `${lastDay}T22:00:00.000Z`,
+    });
+  }
+}
+
+/**
+ * The money of the demo jobs past "built": an extra bought on site, and
  * the balance (worked out from the signed papers as marking a job built does), opened the evening
  * of the last build day and, for jobs paid in full, paid three days later. A job with a balance is
  * left alone.
@@ -252,22 +321,7 @@ async function seedJobMoney(companyId: number) {
       continue;
     const figures = await balanceFromPapers(db, lead);
     if (!figures || !crew) continue;
-    const days = JSON.parse(build.datesJson) as string[];
     const worker = lead.crewUserId ?? crew.id;
-    // Quarter hours, split over the build days.
-    const perDay = Math.round(((build.labourHours * WORKED_FACTORS[i % WORKED_FACTORS.length]!) / days.length) * 4) / 4;
-    for (const day of days)
-      await db
-        .insert(jobHours)
-        .values({
-          companyId,
-          leadId: lead.id,
-          workerUserId: worker,
-          day,
-          hours: perDay,
-          clientId: `seed-${lead.id}-${day}`,
-        })
-        .onConflictDoNothing();
     const extra = DEMO_EXTRAS[i % DEMO_EXTRAS.length]!;
     await db
       .insert(jobExtras)

@@ -27,6 +27,9 @@ import { action as designAction, loader as designLoader } from "~/routes/app-lea
 import { loader as cutSheetLoader } from "~/routes/app-lead-cut-sheet";
 import { loader as cutSheetPdfLoader } from "~/routes/app-lead-cut-sheet-pdf";
 import { loader as jobsLoader } from "~/routes/app-jobs";
+import { action as jobAction, loader as jobLoader } from "~/routes/app-job";
+import { action as jobTicksAction } from "~/routes/app-job-ticks";
+import { action as jobPhotosAction } from "~/routes/app-job-photos";
 import { loader as layoutLoader } from "~/routes/app-layout";
 import { action as scheduleAction, loader as scheduleLoader } from "~/routes/app-schedule";
 import { loader as consultHoursLoader } from "~/routes/app-consult-hours";
@@ -653,6 +656,87 @@ const CASES: Case[] = [
       homeowner: "404",
       anonymous: SIGN_IN,
       "other company's owner": "403",
+    },
+  },
+  {
+    name: "GET /app/jobs/:id",
+    call: (c) => jobLoader(routeArgs(get(`/app/jobs/${lead()}`, c), { leadId: lead() })),
+    expected: {
+      owner: "200",
+      estimator: "200",
+      crew: "200",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
+  },
+  {
+    // A request not signed yet has no site page, for anyone.
+    name: "GET /app/jobs/:id (not the crew's, not signed)",
+    call: (c) => jobLoader(routeArgs(get(`/app/jobs/${ids.otherLead}`, c), { leadId: String(ids.otherLead) })),
+    expected: {
+      owner: "404",
+      estimator: "404",
+      crew: "404",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
+  },
+  {
+    // Hours out of range: refused with nothing saved, so every role can be asked.
+    name: "POST /app/jobs/:id (hours)",
+    call: (c) =>
+      jobAction(
+        routeArgs(
+          post(`/app/jobs/${lead()}`, c, { intent: "hours", workerUserId: "1", day: "2026-01-05", hours: "99" }),
+          {
+            leadId: lead(),
+          },
+        ),
+      ),
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "400",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
+    },
+  },
+  {
+    name: "POST /app/jobs/:id/ticks (no changes)",
+    call: (c) =>
+      jobTicksAction(
+        routeArgs(
+          requestWithCookie(`/app/jobs/${lead()}/ticks`, c, {
+            method: "POST",
+            body: JSON.stringify({ changes: [] }),
+            headers: { "Content-Type": "application/json" },
+          }),
+          { leadId: lead() },
+        ),
+      ),
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "400",
+      homeowner: "403",
+      anonymous: "401",
+      "other company's owner": "404",
+    },
+  },
+  {
+    name: "POST /app/jobs/:id/photos (no photos)",
+    call: (c) =>
+      jobPhotosAction(routeArgs(post(`/app/jobs/${lead()}/photos`, c, { intent: "progress" }), { leadId: lead() })),
+    expected: {
+      owner: "400",
+      estimator: "403",
+      crew: "400",
+      homeowner: SIGN_IN,
+      anonymous: SIGN_IN,
+      "other company's owner": "404",
     },
   },
   {

@@ -1,5 +1,5 @@
-import { and, eq } from "drizzle-orm";
-import { leads, type Lead, type Role } from "~/db/schema";
+import { and, eq, exists, inArray, or, type SQL } from "drizzle-orm";
+import { buildCrew, builds, leads, SIGNED_STAGES, type Lead, type Role } from "~/db/schema";
 import { db } from "~/lib/platform/db.server";
 import { isSignedStage } from "~/lib/leads/lead-status";
 import { getSessionUser, type SessionUser } from "~/lib/auth/session.server";
@@ -34,18 +34,36 @@ export function parseLeadId(raw: string | undefined): number | null {
 }
 
 /**
+ * The crew member's jobs, as a condition on `leads`: signed jobs given to them, or whose booked
+ * build has them on its crew. Callers add the company.
+ */
+export function crewJobCondition(userId: number): SQL {
+  const onBuild = db
+    .select({ one: buildCrew.userId })
+    .from(buildCrew)
+    .innerJoin(builds, eq(builds.id, buildCrew.buildId))
+    .where(and(eq(builds.leadId, leads.id), eq(builds.status, "booked"), eq(buildCrew.userId, userId)));
+  return and(inArray(leads.status, SIGNED_STAGES), or(eq(leads.crewUserId, userId), exists(onBuild)))!;
+}
+
+/**
  * A lead the user may open, or null: callers answer 404 (never 403, so ids of other companies' leads
- * reveal nothing). Owners and estimators: any lead of their company. Crew: only signed jobs assigned to them.
+ * reveal nothing). Owners and estimators: any lead of their company. Crew: only signed jobs given to
+ * them or whose booked build they are on.
  */
 export async function findLeadFor(user: SessionUser, leadId: number | null): Promise<Lead | null> {
   if (leadId === null) return null;
+  if (!isOfficeRole(user.role) && user.role !== "crew") return null;
   const [lead] = await db
     .select()
     .from(leads)
-    .where(and(eq(leads.id, leadId), eq(leads.companyId, user.companyId)))
+    .where(
+      and(
+        eq(leads.id, leadId),
+        eq(leads.companyId, user.companyId),
+        user.role === "crew" ? crewJobCondition(user.id) : undefined,
+      ),
+    )
     .limit(1);
-  const isAllowed =
-    lead !== undefined &&
-    (isOfficeRole(user.role) || (user.role === "crew" && lead.crewUserId === user.id && isSignedStage(lead.status)));
-  return lead && isAllowed ? lead : null;
+  return lead && (isOfficeRole(user.role) || isSignedStage(lead.status)) ? lead : null;
 }

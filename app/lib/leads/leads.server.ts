@@ -10,7 +10,7 @@ import {
   type LeadPhoto,
 } from "~/db/schema";
 import type { SessionUser } from "~/lib/auth/session.server";
-import { isSignedStage } from "~/lib/leads/lead-status";
+import { crewJobCondition } from "~/lib/auth/staff.server";
 import type { DesignSummaryLine } from "~/emails/design-summary";
 import { LeadReceivedEmail } from "~/emails/lead-received";
 import { NewLeadEmail } from "~/emails/new-lead";
@@ -215,8 +215,9 @@ export async function sweepUnrecordedPhotos(olderThanMs?: number): Promise<numbe
 }
 
 /**
- * A yard photo the user may see, or null: the lead's company staff (crew only for their own signed
- * jobs) or the homeowner who sent it. Anyone else gets the same null as a photo that does not exist.
+ * A yard photo the user may see, or null: the lead's company staff (crew only for signed jobs given
+ * to them or whose booked build they are on) or the homeowner who sent it. Anyone else gets the same
+ * null as a photo that does not exist.
  */
 export async function findPhotoFor(
   user: Pick<SessionUser, "id" | "role" | "companyId">,
@@ -228,8 +229,6 @@ export async function findPhotoFor(
       lead: {
         companyId: leads.companyId,
         homeownerId: leads.homeownerId,
-        crewUserId: leads.crewUserId,
-        status: leads.status,
       },
     })
     .from(leadPhotos)
@@ -237,10 +236,14 @@ export async function findPhotoFor(
     .where(eq(leadPhotos.id, photoId))
     .limit(1);
   if (!row) return null;
-  const isAllowed =
-    user.role === "homeowner"
-      ? row.lead.homeownerId === user.id
-      : row.lead.companyId === user.companyId &&
-        (user.role !== "crew" || (row.lead.crewUserId === user.id && isSignedStage(row.lead.status)));
-  return isAllowed ? row.photo : null;
+  if (user.role === "homeowner") return row.lead.homeownerId === user.id ? row.photo : null;
+  if (row.lead.companyId !== user.companyId) return null;
+  if (user.role !== "crew") return row.photo;
+  // Crew: a signed job given to them, or whose booked build they are on.
+  const [job] = await db
+    .select({ id: leads.id })
+    .from(leads)
+    .where(and(eq(leads.id, row.photo.leadId), eq(leads.companyId, user.companyId), crewJobCondition(user.id)))
+    .limit(1);
+  return job ? row.photo : null;
 }

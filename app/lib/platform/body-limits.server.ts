@@ -24,6 +24,9 @@ export function bodyLimitFor(pathname: string): BodyLimit {
   if (path.startsWith("/api/")) return { bytes: JSON_BODY_LIMIT, kind: "json" };
   // The configurator's own form post, and the upload endpoint its enhanced form posts to.
   if (/^\/c\/[^/]+(?:\/request)?\/?$/.test(path)) return { bytes: LEAD_FORM_LIMIT, kind: "lead-form" };
+  // Staff photo uploads (the site visit, a job's build photos) take the same photos as the request form.
+  if (/^\/app\/(?:leads\/\d+\/visit|jobs\/\d+\/photos)\/?$/.test(path))
+    return { bytes: LEAD_FORM_LIMIT, kind: "lead-form" };
   if (path === "/app" || path.startsWith("/app/")) return { bytes: WORKSPACE_FORM_LIMIT, kind: "workspace-form" };
   return { bytes: FORM_BODY_LIMIT, kind: "form" };
 }
