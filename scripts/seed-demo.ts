@@ -197,7 +197,10 @@ async function seedBuilds(companyId: number) {
     .select()
     .from(leads)
     .where(and(eq(leads.companyId, companyId), inArray(leads.status, ["build-booked", "built", "paid-in-full"])));
+  // Booked builds two weeks out, then a week apart, so the demo crew is never on two at once.
+  let booked = 0;
   for (const [i, job] of jobs.entries()) {
+    const waiting = job.status === "build-booked" ? booked++ : 0;
     if ((await db.select({ id: builds.id }).from(builds).where(eq(builds.leadId, job.id)).limit(1)).length) continue;
     const labourHours = await jobLabourHours(job);
     const days = buildDaysNeeded({ labourHours, crewSize: company.crewSize, dayHours: company.crewDayHours });
@@ -206,7 +209,7 @@ async function seedBuilds(companyId: number) {
     const ageDays = Math.round((Date.now() - new Date(job.createdAt).getTime()) / 86_400_000);
     const start =
       job.status === "build-booked"
-        ? addCalendarDays(today, 14)
+        ? addCalendarDays(today, 14 + 7 * waiting)
         : addCalendarDays(today, -Math.max(21 + 7 * i, Math.round(ageDays * 0.3)));
     const dates = buildDates(start, days, calendar);
     const [row] = await db

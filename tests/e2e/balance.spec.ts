@@ -1,5 +1,5 @@
 /*
- * Completion and the balance, end to end, on a seeded job no other spec touches (Sunniva Okoro,
+ * Completion and the balance, end to end, on a seeded job no other spec touches (Oriel Fenwick,
  * build booked; her proposal is $2,900 with no add-ons and a 30 % deposit of $870, so $2,030 is
  * left to pay). The owner marks the job built; the homeowner gets the completion e-mail, follows its
  * link to her page and pays on the payment stand-in; the job becomes paid in full from the signed
@@ -10,8 +10,8 @@ import AxeBuilder from "@axe-core/playwright";
 import { expect, test, type Page } from "@playwright/test";
 import { listMail, PAYMENTS_FAKE, screenshotThreeWidths, signIn } from "./helpers";
 
-const CUSTOMER = "Sunniva Okoro";
-const EMAIL = "sunniva.okoro@example.test";
+const CUSTOMER = "Oriel Fenwick";
+const EMAIL = "oriel.fenwick@example.test";
 
 async function expectNoAxeViolations(page: Page, label: string) {
   for (const width of [1366, 390]) {
@@ -27,7 +27,7 @@ async function expectNoAxeViolations(page: Page, label: string) {
 }
 
 async function openLead(page: Page) {
-  await page.goto(`/app/inbox?q=Okoro`);
+  await page.goto(`/app/inbox?q=Fenwick`);
   await page.getByRole("link", { name: CUSTOMER }).click();
   await expect(page.getByRole("heading", { level: 1 })).toHaveText(CUSTOMER);
 }

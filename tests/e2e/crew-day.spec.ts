@@ -1,7 +1,7 @@
 /*
  * A crew member's day on site, on a phone (390 × 844): the job booked for them, its checklist ticked
  * with no signal and sent when the signal returns, hours, a progress photo, and "built" with the
- * finished photos. Uses Sunniva Okoro's job (build booked, the demo crew member on the build, the
+ * finished photos. Uses Leontyne Marsh's job (build booked, the demo crew member on the build, the
  * job given to nobody), which no other spec changes.
  */
 import AxeBuilder from "@axe-core/playwright";
@@ -25,13 +25,13 @@ test("a crew member ticks two steps with no signal, sees them kept and then save
   await expect(page).toHaveURL(/\/app\/jobs$/);
   // The booked build comes first, under "Coming up", with its days.
   const coming = page.getByRole("region", { name: "Coming up" });
-  const card = coming.getByRole("listitem").filter({ hasText: "Sunniva Okoro" });
+  const card = coming.getByRole("listitem").filter({ hasText: "Leontyne Marsh" });
   await expect(card).toContainText("Build days:");
   await screenshotThreeWidths(page, "crew-day-jobs");
   await card.getByRole("link", { name: "On site" }).click();
 
-  await expect(page.getByRole("heading", { level: 1 })).toHaveText("Sunniva Okoro");
-  await expect(page.getByRole("link", { name: "Directions" })).toHaveAttribute("href", /^geo:0,0\?q=2%20Bellfounder/);
+  await expect(page.getByRole("heading", { level: 1 })).toHaveText("Leontyne Marsh");
+  await expect(page.getByRole("link", { name: "Directions" })).toHaveAttribute("href", /^geo:0,0\?q=15%20Tallowmere/);
   await expect(page.getByRole("region", { name: "Safety on site" })).toContainText("Call 811");
   const dig = page.getByRole("checkbox", { name: /Dig and lay the base/ });
   const first = page.getByRole("checkbox", { name: /Set the first course level/ });
@@ -108,7 +108,7 @@ test("the owner sees every signed job with its build days, and the crew's record
   await perpetua.getByRole("link", { name: "On site" }).click();
   // The seed ticked every step of the built job and recorded the crew's hours.
   await expect(page.getByRole("region", { name: "Checklist" })).toContainText(/(\d+) of \1 done\./);
-  await expect(page.getByRole("region", { name: "Hours" })).toContainText(/Dario Quist: (8|5\.5) h/);
+  await expect(page.getByRole("region", { name: "Hours" })).toContainText(/Dario Quist: \d+(\.\d+)? h/);
   await screenshotThreeWidths(page, "crew-day-owner-job");
   const axe = await new AxeBuilder({ page }).analyze();
   expect(axe.violations.map((v) => v.id)).toEqual([]);
