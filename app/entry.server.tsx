@@ -12,6 +12,7 @@ import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.serv
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
+import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
 
 export const streamTimeout = 5_000;
 
@@ -33,6 +34,9 @@ export const serverHooks = {
   bodyTooLarge,
   applyBaselineHeaders,
   accessLogPath,
+  /** GET and HEAD of this path the server answers with `health` itself, without the router. */
+  healthPath: HEALTH_PATH,
+  health: healthWithHeaders,
   /** The request context for one request: the socket's peer address, for per-address limits. */
   createLoadContext(socketAddress: string | undefined): RouterContextProvider {
     const context = new RouterContextProvider();
