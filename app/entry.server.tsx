@@ -1,9 +1,11 @@
+import { readFileSync } from "node:fs";
 import { PassThrough } from "node:stream";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { RouterContextProvider, ServerRouter, type EntryContext } from "react-router";
+import { InlineStylesProvider } from "~/components/inline-styles";
 import { NonceProvider } from "~/components/nonce";
 import { bodyLimitFor, bodyTooLarge } from "~/lib/platform/body-limits.server";
 import { env } from "~/lib/platform/env.server";
@@ -14,7 +16,25 @@ import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
 import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
 
+import stylesheetHref from "./app.css?url";
+
 export const streamTimeout = 5_000;
+
+/**
+ * The built stylesheet's text, read once at start from the client build beside this server build
+ * (build/client/assets/…), to be set inline in every page's head. Null under the dev server or when
+ * the file cannot be read: then pages link it as before.
+ */
+const inlineStyles: string | null = (() => {
+  if (import.meta.env.DEV || !stylesheetHref.startsWith("/assets/")) return null;
+  try {
+    // A "</style" inside the text would end the element early; a built stylesheet has none, but never risk it.
+    const text = readFileSync(new URL(`../client${stylesheetHref}`, import.meta.url), "utf8");
+    return /<\/style/i.test(text) ? null : text;
+  } catch {
+    return null;
+  }
+})();
 
 // The framework answers a malformed Origin header with a bare 400 (the server adds the security
 // headers); that is the client's fault and not worth a stack trace in the log per request.
@@ -66,7 +86,9 @@ export default function handleRequest(
 
     const { pipe, abort } = renderToPipeableStream(
       <NonceProvider value={nonce}>
-        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        <InlineStylesProvider value={inlineStyles}>
+          <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        </InlineStylesProvider>
       </NonceProvider>,
       {
         nonce,
