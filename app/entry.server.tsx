@@ -1,5 +1,4 @@
 import { readFileSync } from "node:fs";
-import { PassThrough } from "node:stream";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
@@ -14,6 +13,7 @@ import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.serv
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
+import { lowPriorityModulePreloads } from "~/lib/platform/module-preload-priority.server";
 import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
 
 import stylesheetHref from "./app.css?url";
@@ -94,12 +94,9 @@ export default function handleRequest(
         nonce,
         [readyOption]() {
           shellRendered = true;
-          const body = new PassThrough({
-            final(callback) {
-              clearTimeout(timeoutId);
-              timeoutId = undefined;
-              callback();
-            },
+          const body = lowPriorityModulePreloads(() => {
+            clearTimeout(timeoutId);
+            timeoutId = undefined;
           });
           responseHeaders.set("Content-Type", "text/html; charset=utf-8");
           pipe(body);

@@ -5,25 +5,13 @@ import { INLINE_STYLES_ID, useInlineStyles } from "~/components/inline-styles";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
 import stylesheet from "./app.css?url";
-import nunito400 from "@fontsource/nunito/files/nunito-latin-400-normal.woff2?url";
-import nunito700 from "@fontsource/nunito/files/nunito-latin-700-normal.woff2?url";
-import nunito800 from "@fontsource/nunito/files/nunito-latin-800-normal.woff2?url";
 
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
-// The three Nunito faces every page sets above the fold (body 400, buttons 700, headings 800) are
-// preloaded: fetched with the document's first requests instead of after the first layout. The
-// first paint still never waits for them (font-display: swap with a metric-matched fallback, app.css).
-export const links: Route.LinksFunction = () => [
-  { rel: "icon", href: "/favicon.svg", type: "image/svg+xml" },
-  ...[nunito400, nunito700, nunito800].map((href) => ({
-    rel: "preload",
-    href,
-    as: "font",
-    type: "font/woff2",
-    crossOrigin: "anonymous" as const,
-  })),
-];
+// Nunito is not preloaded: its faces use font-display: swap with a metric-matched fallback (app.css),
+// so the first paint never waits for them, and fetched by the first layout they mostly arrive after
+// it rather than competing with the document for a slow connection.
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const nonce = useNonce();
