@@ -7,7 +7,8 @@
 //   (and no 100 Continue), a chunked body is cut off the moment it passes the cap;
 // - built files and the favicon carry nosniff, and answers the app never shaped (the framework's
 //   400 for a malformed Origin, a 500) still carry the security headers;
-// - the access log never shows a query string or the secret of a link that is its own credential.
+// - the access log never shows a query string or the secret of a link that is its own credential;
+// - GET and HEAD /api/health are answered before the router, with the route's own JSON and headers.
 import { createServer } from "node:http";
 import path from "node:path";
 import { Transform } from "node:stream";
@@ -156,6 +157,11 @@ async function handleApp(req, res) {
     await response.body?.cancel().catch(() => undefined);
     return;
   }
+  await sendResponse(req, res, response);
+}
+
+/** Writes a web Response to the Node response; answers the app never shaped get the baseline headers. */
+async function sendResponse(req, res, response) {
   if (!response.headers.has("X-Content-Type-Options")) hooks.applyBaselineHeaders(response.headers);
   const raw = [];
   for (const [name, value] of response.headers) {
@@ -186,6 +192,24 @@ app.use((req, res, next) => {
   });
   next();
 });
+// GET and HEAD /api/health are answered here, without the router: the same JSON and the same
+// headers as the route (the app builds both: `hooks.health`), without the route matching, the
+// middleware chain and the request object a load balancer's frequent checks would otherwise pay
+// for. Any other spelling or method goes on to the app as before.
+if (hooks.health && hooks.healthPath) {
+  app.use((req, res, next) => {
+    if ((req.method !== "GET" && req.method !== "HEAD") || pathnameOf(req.url) !== hooks.healthPath) return next();
+    hooks
+      .health(req.headers.cookie)
+      .then((response) => sendResponse(req, res, response))
+      .catch((error) => {
+        console.error(error);
+        if (!res.headersSent)
+          sendPlain(res, 500, { "Content-Type": "text/plain; charset=utf-8" }, "Internal Server Error");
+        else res.destroy();
+      });
+  });
+}
 const clientDir = path.resolve(path.dirname(buildPath), "..", "client");
 app.use(
   "/assets",

@@ -1,9 +1,10 @@
-import { PassThrough } from "node:stream";
+import { readFileSync } from "node:fs";
 import { createReadableStreamFromReadable } from "@react-router/node";
 import { isbot } from "isbot";
 import type { RenderToPipeableStreamOptions } from "react-dom/server";
 import { renderToPipeableStream } from "react-dom/server";
 import { RouterContextProvider, ServerRouter, type EntryContext } from "react-router";
+import { InlineStylesProvider } from "~/components/inline-styles";
 import { NonceProvider } from "~/components/nonce";
 import { bodyLimitFor, bodyTooLarge } from "~/lib/platform/body-limits.server";
 import { env } from "~/lib/platform/env.server";
@@ -12,8 +13,28 @@ import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.serv
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
+import { lowPriorityModulePreloads } from "~/lib/platform/module-preload-priority.server";
+import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
+
+import stylesheetHref from "./app.css?url";
 
 export const streamTimeout = 5_000;
+
+/**
+ * The built stylesheet's text, read once at start from the client build beside this server build
+ * (build/client/assets/…), to be set inline in every page's head. Null under the dev server or when
+ * the file cannot be read: then pages link it as before.
+ */
+const inlineStyles: string | null = (() => {
+  if (import.meta.env.DEV || !stylesheetHref.startsWith("/assets/")) return null;
+  try {
+    // A "</style" inside the text would end the element early; a built stylesheet has none, but never risk it.
+    const text = readFileSync(new URL(`../client${stylesheetHref}`, import.meta.url), "utf8");
+    return /<\/style/i.test(text) ? null : text;
+  } catch {
+    return null;
+  }
+})();
 
 // The framework answers a malformed Origin header with a bare 400 (the server adds the security
 // headers); that is the client's fault and not worth a stack trace in the log per request.
@@ -33,6 +54,9 @@ export const serverHooks = {
   bodyTooLarge,
   applyBaselineHeaders,
   accessLogPath,
+  /** GET and HEAD of this path the server answers with `health` itself, without the router. */
+  healthPath: HEALTH_PATH,
+  health: healthWithHeaders,
   /** The request context for one request: the socket's peer address, for per-address limits. */
   createLoadContext(socketAddress: string | undefined): RouterContextProvider {
     const context = new RouterContextProvider();
@@ -62,18 +86,17 @@ export default function handleRequest(
 
     const { pipe, abort } = renderToPipeableStream(
       <NonceProvider value={nonce}>
-        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        <InlineStylesProvider value={inlineStyles}>
+          <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+        </InlineStylesProvider>
       </NonceProvider>,
       {
         nonce,
         [readyOption]() {
           shellRendered = true;
-          const body = new PassThrough({
-            final(callback) {
-              clearTimeout(timeoutId);
-              timeoutId = undefined;
-              callback();
-            },
+          const body = lowPriorityModulePreloads(() => {
+            clearTimeout(timeoutId);
+            timeoutId = undefined;
           });
           responseHeaders.set("Content-Type", "text/html; charset=utf-8");
           pipe(body);

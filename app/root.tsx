@@ -1,6 +1,7 @@
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import { ProblemPage } from "~/components/problem-page";
+import { INLINE_STYLES_ID, useInlineStyles } from "~/components/inline-styles";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
 import stylesheet from "./app.css?url";
@@ -8,19 +9,26 @@ import stylesheet from "./app.css?url";
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
 // Nunito is not preloaded: its faces use font-display: swap with a metric-matched fallback (app.css),
-// so the first paint never waits for them.
+// so the first paint never waits for them, and fetched by the first layout they mostly arrive after
+// it rather than competing with the document for a slow connection.
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const nonce = useNonce();
+  const inlineStyles = useInlineStyles();
   return (
     <html lang="en">
       <head>
         <meta charSet="utf-8" />
         <meta name="viewport" content="width=device-width, initial-scale=1" />
         <meta name="theme-color" content="#1f1b19" />
-        {/* Ahead of <Links /> and its module preloads: the first paint waits for this file and nothing else. */}
-        <link rel="stylesheet" href={stylesheet} precedence="default" />
+        {/* Ahead of <Links /> and its module preloads. Inline (production): the first paint waits for no
+            request; linked (the dev server, or the built file unreadable): for this file and nothing else. */}
+        {inlineStyles === null ? (
+          <link rel="stylesheet" href={stylesheet} precedence="default" />
+        ) : (
+          <style id={INLINE_STYLES_ID} dangerouslySetInnerHTML={{ __html: inlineStyles }} />
+        )}
         <Meta />
         <Links />
       </head>

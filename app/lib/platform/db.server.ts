@@ -2,7 +2,6 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { createClient, type Client, type InStatement, type Transaction, type TransactionMode } from "@libsql/client";
 import { drizzle, type LibSQLDatabase } from "drizzle-orm/libsql";
-import { sql } from "drizzle-orm";
 import { migrate } from "drizzle-orm/libsql/migrator";
 import { readMigrationFiles } from "drizzle-orm/migrator";
 import * as schema from "~/db/schema";
@@ -295,5 +294,5 @@ export function writeTransaction<T>(
 
 /** One round trip to the database (the health check); throws when it cannot be reached. */
 export async function pingDatabase(): Promise<void> {
-  await db.run(sql`select 1`);
+  await client.execute("select 1");
 }

@@ -1,4 +1,4 @@
-import { randomBytes } from "node:crypto";
+import { randomFillSync } from "node:crypto";
 import { createContext, type MiddlewareFunction } from "react-router";
 import { bodyLimitFor, bodyTooLarge } from "~/lib/platform/body-limits.server";
 import { env } from "~/lib/platform/env.server";
@@ -29,12 +29,35 @@ export function isCrossOriginWrite(request: Request): boolean {
   return false;
 }
 
-/** The Content-Security-Policy for a response; strict in production, relaxed for Vite's dev server. */
-export function contentSecurityPolicy(nonce: string): string {
+// Nonces come from one CSPRNG buffer refilled 256 at a time: one call into OpenSSL per 256
+// responses rather than one per response. Every nonce is 16 fresh random bytes, used once.
+const NONCE_BYTES = 16;
+const noncePool = Buffer.alloc(NONCE_BYTES * 256);
+let nonceOffset = noncePool.length;
+
+/** A fresh CSP nonce: 16 random bytes, base64. */
+export function newNonce(): string {
+  if (nonceOffset === noncePool.length) {
+    randomFillSync(noncePool);
+    nonceOffset = 0;
+  }
+  const nonce = noncePool.toString("base64", nonceOffset, nonceOffset + NONCE_BYTES);
+  nonceOffset += NONCE_BYTES;
+  return nonce;
+}
+
+/** The policy around the nonce, built once per setting (the settings do not change while the server runs). */
+let policyParts: { key: string; before: string; after: string } | null = null;
+
+function policyAroundNonce(): { before: string; after: string } {
+  const key = `${env.NODE_ENV}|${env.STRIPE_API_BASE ?? ""}`;
+  if (policyParts?.key === key) return policyParts;
   const isDev = env.NODE_ENV === "development";
   const checkoutOrigin = env.STRIPE_API_BASE ? new URL(env.STRIPE_API_BASE).origin : "https://checkout.stripe.com";
-  const scriptSrc = isDev ? "'self' 'unsafe-inline' 'unsafe-eval'" : `'self' 'nonce-${nonce}'`;
-  return [
+  // A character no policy contains marks where the nonce goes.
+  const NONCE = "\u0000";
+  const scriptSrc = isDev ? "'self' 'unsafe-inline' 'unsafe-eval'" : `'self' 'nonce-${NONCE}'`;
+  const policy = [
     "default-src 'self'",
     `script-src ${scriptSrc}`,
     // React renders style="" attributes into the server HTML; styles cannot run code.
@@ -48,6 +71,16 @@ export function contentSecurityPolicy(nonce: string): string {
     `form-action 'self' ${checkoutOrigin}`,
     "frame-ancestors 'none'",
   ].join("; ");
+  const at = policy.indexOf(NONCE);
+  policyParts =
+    at === -1 ? { key, before: policy, after: "" } : { key, before: policy.slice(0, at), after: policy.slice(at + 1) };
+  return policyParts;
+}
+
+/** The Content-Security-Policy for a response; strict in production, relaxed for Vite's dev server. */
+export function contentSecurityPolicy(nonce: string): string {
+  const { before, after } = policyAroundNonce();
+  return after ? `${before}${nonce}${after}` : before;
 }
 
 /** Strict-Transport-Security for the configured origin: only when it is https and HSTS_MAX_AGE > 0. */
@@ -102,8 +135,12 @@ const PRIVATE_PATHS = [
 
 /** `Cache-Control: private, no-store` on private paths and signed-in requests, and wherever a route set none. */
 export function applyCachePolicy(request: Request, headers: Headers): void {
-  const path = new URL(request.url).pathname;
-  const signedIn = /(?:^|;\s*)ew_session=/.test(request.headers.get("cookie") ?? "");
+  applyCachePolicyFor(new URL(request.url).pathname, request.headers.get("cookie"), headers);
+}
+
+/** The same policy from a path and the request's Cookie header. */
+export function applyCachePolicyFor(path: string, cookie: string | null | undefined, headers: Headers): void {
+  const signedIn = /(?:^|;\s*)ew_session=/.test(cookie ?? "");
   if (signedIn || PRIVATE_PATHS.some((re) => re.test(path)) || !headers.has("Cache-Control")) {
     headers.set("Cache-Control", "private, no-store");
   }
@@ -122,17 +159,20 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
     applySecurityHeaders(response.headers, "");
     return response;
   }
-  const limit = bodyLimitFor(new URL(request.url).pathname);
-  const declared = Number(request.headers.get("content-length") ?? "0");
-  if (!SAFE_METHODS.has(request.method) && declared > limit.bytes) {
-    const response = bodyTooLarge(limit);
-    applyBaselineHeaders(response.headers);
-    return response;
+  const path = new URL(request.url).pathname;
+  if (!SAFE_METHODS.has(request.method)) {
+    const limit = bodyLimitFor(path);
+    const declared = Number(request.headers.get("content-length") ?? "0");
+    if (declared > limit.bytes) {
+      const response = bodyTooLarge(limit);
+      applyBaselineHeaders(response.headers);
+      return response;
+    }
   }
-  const nonce = randomBytes(16).toString("base64");
+  const nonce = newNonce();
   context.set(nonceContext, nonce);
   const response = await next();
   applySecurityHeaders(response.headers, nonce);
-  applyCachePolicy(request, response.headers);
+  applyCachePolicyFor(path, request.headers.get("cookie"), response.headers);
   return response;
 };

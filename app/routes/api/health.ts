@@ -1,10 +1,7 @@
-import { pingDatabase } from "~/lib/platform/health.server";
+import { healthResponse } from "~/lib/platform/health.server";
 
+// server.mjs answers GET and HEAD /api/health itself with the same answer (healthWithHeaders);
+// this route serves every other way in (a trailing slash, other letter case, the dev server).
 export async function loader() {
-  try {
-    await pingDatabase();
-    return Response.json({ ok: true, db: true }, { headers: { "Cache-Control": "no-store" } });
-  } catch {
-    return Response.json({ ok: false, db: false }, { status: 503, headers: { "Cache-Control": "no-store" } });
-  }
+  return healthResponse();
 }
