@@ -57,8 +57,10 @@ async function homeownerWithAccount(page: Page, name: string): Promise<{ email: 
 async function homeownerWithPaidConsult(page: Page, name: string): Promise<{ email: string }> {
   const { email, consultPath } = await homeownerWithAccount(page, name);
   await page.goto(consultPath);
-  // A later slot than the other journeys take, so they do not compete for the same time.
-  await holdConsultTime(page, 4);
+  // A later slot than the other journeys take, so they do not compete for the same time, and on the
+  // third day or later: more than a day away whatever the hour the suite runs, so it can be moved or
+  // cancelled from /my.
+  await holdConsultTime(page, 24);
   await expect(page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));
   await page.getByLabel("Card number").fill("4242 4242 4242 4242");
   await page.getByLabel("Expiry (MM / YY)").fill("12 / 30");
