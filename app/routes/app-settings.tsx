@@ -6,7 +6,8 @@ import { TextField, FormAlert } from "~/components/ui/field";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { saveCompanySettings, saveCrewSettings } from "~/lib/settings/company-settings.server";
 import { companySettingsSchema } from "~/lib/settings/company-schema";
-import { CREW_DEFAULTS, crewSettingsSchema, WEEKDAY_CHOICES } from "~/lib/settings/crew-schema";
+import { crewSettingsSchema } from "~/lib/settings/crew-schema";
+import { CREW_DEFAULTS, WEEKDAY_CHOICES } from "~/lib/settings/crew-options";
 import { parseWorkWeekdays } from "~/lib/builds/builds.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { formatPhone } from "~/lib/format/phone";
@@ -35,7 +36,9 @@ export async function loader({ request }: Route.LoaderArgs) {
     crewDayHours: company.crewDayHours,
     workWeekdays: parseWorkWeekdays(company.workWeekdaysJson),
   };
-  return { company, crew, timeZones: groupTimeZones(new Date()), publicUrl, qrSvg };
+  // The phone is formatted here so the page does not ship the numbering plans.
+  const phoneText = formatPhone(company.phone);
+  return { company, crew, phoneText, timeZones: groupTimeZones(new Date()), publicUrl, qrSvg };
 }
 
 export async function action({ request }: Route.ActionArgs) {
@@ -62,7 +65,7 @@ export async function action({ request }: Route.ActionArgs) {
 }
 
 export default function SettingsRoute({ loaderData, actionData }: Route.ComponentProps) {
-  const { company, crew, timeZones, publicUrl, qrSvg } = loaderData;
+  const { company, crew, phoneText, timeZones, publicUrl, qrSvg } = loaderData;
   const errors: Record<string, string> = actionData?.errors ?? {};
   const crewErrors: Record<string, string> = actionData?.crewErrors ?? {};
   const [params] = useSearchParams();
@@ -112,7 +115,7 @@ export default function SettingsRoute({ loaderData, actionData }: Route.Componen
             name="phone"
             type="tel"
             autoComplete="tel"
-            defaultValue={formatPhone(company.phone)}
+            defaultValue={phoneText}
             error={errors.phone}
             hint="Homeowners see it on your page and in e-mails. Include the area code."
           />

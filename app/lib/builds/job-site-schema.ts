@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { MAX_HOURS, MIN_HOURS } from "~/lib/builds/job-site-limits";
 import { formId } from "~/lib/format/form-fields";
 
 /*
@@ -6,9 +7,7 @@ import { formId } from "~/lib/format/form-fields";
  * hours per person per day, and material used beyond the order. Shared by the page and the server.
  */
 
-/** Hours one person may record for one day: a quarter hour up to a double shift, in quarter hours. */
-export const MIN_HOURS = 0.25;
-export const MAX_HOURS = 16;
+export { MAX_HOURS, MIN_HOURS } from "~/lib/builds/job-site-limits";
 /** How many queued tick changes one sync may carry. */
 export const MAX_TICK_CHANGES = 200;
 
