@@ -937,6 +937,41 @@ export const DEMO_LEADS: Record<string, SeedLead[]> = {
       },
     },
     {
+      // Signed and nothing more, for the whole job's journey from the stone order to paid in full:
+      // $3,200 + the $240 add-on chosen = $3,440 signed, then a $380 change order for a fourth course.
+      customerName: "Isolde Penhallow",
+      email: "isolde.penhallow@example.test",
+      phone: "+12175550138",
+      street: "26 Quarrystone Walk",
+      town: "Quillan Park",
+      buildWindow: "within-a-month",
+      notes: "Beside the lower terrace, clear of the shed.",
+      status: "signed",
+      ageHours: 30 * 24,
+      assignee: CS_OWNER,
+      crew: "crew@cinder-slate.test",
+      homeownerAccount: true,
+      papers: {
+        visit: VISIT_OK,
+        proposal: {
+          fixedPrice: 3200,
+          addOns: [{ label: "Spark screen, hinged", price: 240 }],
+          chosen: [0],
+          state: "signed",
+          changeOrder: { delta: 380, courses: 4 },
+        },
+      },
+      design: {
+        stone: "Hearthline Taper",
+        units: 14,
+        courses: 3,
+        cap: "Sill Cap 16",
+        liner: "steel-ring",
+        ring: "Heavy Ring 36",
+        setbackFt: 30,
+      },
+    },
+    {
       customerName: "Perpetua Vance",
       email: "perpetua.vance@example.test",
       phone: "+12175550115",
