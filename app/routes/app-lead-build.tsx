@@ -239,7 +239,13 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
             <p className="text-lg font-extrabold">{build.daysText}</p>
             <p className="text-sm text-char-600">Crew: {build.crew.map((c) => c.name).join(", ")}</p>
           </section>
-          <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="move-build">
+          {/* Keyed by the sequence: after a move the fields show the booked days, not what was typed. */}
+          <Form
+            key={build.sequence}
+            method="post"
+            className="flex flex-col gap-4 card p-4"
+            aria-labelledby="move-build"
+          >
             <h2 id="move-build" className="font-extrabold">
               Move the build
             </h2>

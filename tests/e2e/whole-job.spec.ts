@@ -192,13 +192,17 @@ test("a signed job all the way to paid in full: stone ordered, build booked and 
   await expect(crew.getByRole("region", { name: "Hours" })).toContainText("Dario Quist: 7.5 h");
 
   const photos = crew.getByRole("region", { name: "Build photos" });
-  await photos.getByLabel("Add progress photos").setInputFiles({ name: "course-3.png", mimeType: "image/png", buffer: PNG });
+  await photos
+    .getByLabel("Add progress photos")
+    .setInputFiles({ name: "course-3.png", mimeType: "image/png", buffer: PNG });
   await photos.getByRole("button", { name: "Save the photos" }).click();
   await expect(crew.getByRole("status").filter({ hasText: "Photos saved." })).toBeVisible();
   await expect(crew.getByRole("img", { name: "During the build: course-3.png" })).toBeVisible();
 
   const built = crew.getByRole("region", { name: "Built", exact: true });
-  await built.getByLabel("Photos of the finished pit").setInputFiles({ name: "done.png", mimeType: "image/png", buffer: PNG });
+  await built
+    .getByLabel("Photos of the finished pit")
+    .setInputFiles({ name: "done.png", mimeType: "image/png", buffer: PNG });
   await built.getByRole("button", { name: "Mark the job built" }).click();
   await expect(crew.getByRole("status").filter({ hasText: "Marked built." })).toBeVisible();
   await expect(built).toContainText("This job is marked built.");
