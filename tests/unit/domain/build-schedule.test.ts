@@ -182,3 +182,61 @@ describe("clashes", () => {
     ).toEqual([]);
   });
 });
+
+describe("edges of the calendar and the refusals in words", () => {
+  test("day 00, a date with anything before or after it, and a date that is not one are refused by name", () => {
+    // ISO 8601 calendar dates: days run from 01; a date is exactly YYYY-MM-DD.
+    expect(isCalendarDate("2026-12-00")).toBe(false);
+    expect(isCalendarDate("2026-12-01")).toBe(true);
+    expect(isCalendarDate("12026-12-02")).toBe(false);
+    expect(isCalendarDate("x2026-12-02")).toBe(false);
+    // 29 February 2027 does not exist (2027 is not a leap year), so it has no weekday.
+    expect(() => weekdayOf("2027-02-29")).toThrow(new RangeError("not a calendar date: 2027-02-29"));
+    expect(() => addCalendarDays("2026-02-30", 1)).toThrow(new RangeError("not a calendar date: 2026-02-30"));
+  });
+
+  test("the last day of a 400-year Gregorian cycle and years before 1000 (checked against ECMAScript Date)", () => {
+    // 29 February 2000 closes the 400-year cycle that started 1 March 1600 (day 146,096 of it).
+    const viaDate = (y: number, m: number, d: number) => {
+      const date = new Date(Date.UTC(2000, m - 1, d));
+      date.setUTCFullYear(y, m - 1, d);
+      return date.toISOString().slice(0, 10);
+    };
+    expect(addCalendarDays("2000-02-28", 1)).toBe(viaDate(2000, 2, 29));
+    expect(addCalendarDays("2400-03-01", -1)).toBe(viaDate(2400, 2, 29));
+    expect(addCalendarDays("2000-03-01", -1)).toBe("2000-02-29");
+    // A four-digit year keeps its leading zero.
+    expect(addCalendarDays("0999-12-30", 1)).toBe(viaDate(999, 12, 31));
+    expect(addCalendarDays("0999-12-30", 1)).toBe("0999-12-31");
+  });
+
+  test("each refusal says what is allowed; a 24-hour day is the longest allowed", () => {
+    expect(() => buildDaysNeeded({ labourHours: -1, crewSize: 2, dayHours: 8 })).toThrow(
+      new RangeError("labour hours must be a number of hours, 0 or more"),
+    );
+    expect(() => buildDaysNeeded({ labourHours: 10, crewSize: 0, dayHours: 8 })).toThrow(
+      new RangeError("a crew is one person or more"),
+    );
+    expect(() => buildDaysNeeded({ labourHours: 10, crewSize: 2, dayHours: 24.5 })).toThrow(
+      new RangeError("a working day is more than 0 and at most 24 hours"),
+    );
+    // 48 labour-hours for one person on 24-hour days: 48 / 24 = 2 days.
+    expect(buildDaysNeeded({ labourHours: 48, crewSize: 1, dayHours: 24 })).toBe(2);
+    expect(() => buildDates("2026-12-04", 0, MON_TO_FRI)).toThrow(
+      new RangeError("a build takes at least one whole day"),
+    );
+  });
+
+  test("a build after exactly a year of days off (366 in a row) still finds its day; one more and it gives up", () => {
+    const everyDay = [0, 1, 2, 3, 4, 5, 6];
+    const offFrom = (start: string, count: number) =>
+      new Set(Array.from({ length: count }, (_, i) => addCalendarDays(start, i)));
+    // 2027-01-01 plus 366 days is 2028-01-02 (2027 has 365 days).
+    expect(buildDates("2027-01-01", 1, { workWeekdays: everyDay, daysOff: offFrom("2027-01-01", 366) })).toEqual([
+      "2028-01-02",
+    ]);
+    expect(() => buildDates("2027-01-01", 1, { workWeekdays: everyDay, daysOff: offFrom("2027-01-01", 367) })).toThrow(
+      new RangeError("no working day within a year: check the working weekdays and days off"),
+    );
+  });
+});
