@@ -114,6 +114,23 @@ test("no liner means liner null and no liner on the order", () => {
   expect(plan.materials.some((m) => m.key === "steel-ring" || m.key === "firebrick")).toBe(false);
   const unset = computePlan({ ...TYPICAL_PIT, liner: undefined });
   expect(unset.liner).toBeNull();
+  // A bowl left unlined is told to line it, not to keep a liner it does not have.
+  const lineTheBowl = (plan: Plan) => plan.cautions.find((c) => c.code === "line-the-bowl")?.message;
+  expect(lineTheBowl(unset)).toMatch(/^This bowl has no liner\./);
+  expect(lineTheBowl(plan)).toMatch(/^This bowl has no liner\./);
+  expect(lineTheBowl(computePlan(TYPICAL_PIT))).toMatch(/^Keep the liner in place/);
+});
+
+test("a sundry whose price is not a number counts as unpriced: it is named and left out, and the job is still priced", () => {
+  // The steel ring's gravel fill is a sundry (bags of pea gravel); the fixture's supply prices leave it out.
+  const notANumber = computePlan(TYPICAL_PIT, { supplyPrices: { ...SUPPLY_PRICES, fillPerBagCents: Number.NaN } });
+  expect(notANumber.unpricedItems).toEqual(["Pea gravel"]);
+  expect(notANumber.price).not.toBeNull();
+  // The same price as leaving the fill unpriced; a real price puts it on the bill.
+  expect(notANumber.price).toEqual(computePlan(TYPICAL_PIT, { supplyPrices: SUPPLY_PRICES }).price);
+  const priced = computePlan(TYPICAL_PIT, { supplyPrices: { ...SUPPLY_PRICES, fillPerBagCents: 600 } });
+  expect(priced.unpricedItems).toEqual([]);
+  expect(priced.price!.breakdown.materialsCents).toBeGreaterThan(notANumber.price!.breakdown.materialsCents);
 });
 
 test("a firebrick liner lines the wall below the caps", () => {
