@@ -170,3 +170,93 @@ test("the 16 ft patio's areas and sand: field π(90² − 26.288²) = 23,275 in�
   expect(patio.jointSandBags).toBe(4);
   expect(patio.edgeRestraintIn).toBeCloseTo(603.19, 2);
 });
+
+/*
+ * Reference grid count, worked independently of the engine: every cell of the whole plane (not one
+ * quadrant times four) with integer corners, compared in exact integer arithmetic (squared
+ * distances), so a cell touching a circle at one corner is decided exactly. A cell is whole when its
+ * nearest point is at or outside the inner circle and its farthest corner at or inside the outer one;
+ * cut when the outer circle passes through it (nearest point inside it) and the inner circle does not
+ * leave it wholly inside the pit.
+ */
+function referenceGrid(cellX: number, cellY: number, inner: number, outer: number) {
+  let whole = 0;
+  let cut = 0;
+  const reach = outer + Math.max(cellX, cellY);
+  const nearest = (lo: number, hi: number) => (lo > 0 ? lo : hi < 0 ? -hi : 0);
+  for (let x0 = -Math.ceil(reach / cellX) * cellX; x0 < reach; x0 += cellX) {
+    for (let y0 = -Math.ceil(reach / cellY) * cellY; y0 < reach; y0 += cellY) {
+      const nx = nearest(x0, x0 + cellX);
+      const ny = nearest(y0, y0 + cellY);
+      const fx = Math.max(Math.abs(x0), Math.abs(x0 + cellX));
+      const fy = Math.max(Math.abs(y0), Math.abs(y0 + cellY));
+      const near2 = nx * nx + ny * ny;
+      const far2 = fx * fx + fy * fy;
+      if (near2 >= outer * outer || far2 <= inner * inner) continue;
+      if (near2 >= inner * inner && far2 <= outer * outer) whole++;
+      else cut++;
+    }
+  }
+  return { whole, cut };
+}
+
+test("grid counts where circles touch cell corners exactly: 1 in cells and the 3-4-5 right triangle (5² = 3² + 4²), counted by hand and over the whole plane in integers", () => {
+  // Radius 5, quadrant cells (i, k) whole when (i+1)² + (k+1)² ≤ 25: 4 + 4 + 4 + 3 = 15 (the 4 × 3 and
+  // 3 × 4 corners land exactly on the circle and are whole). Cells with i² + k² < 25: 5 + 5 + 5 + 4 + 3
+  // = 22, so 7 cut; the cells (3, 4) and (4, 3) only touch the circle at a corner and take no paver.
+  expect(countGridPavers({ lengthIn: 1, widthIn: 1 }, 0, 5)).toEqual({ whole: 60, cut: 28 });
+  // A 5 in circle as the pit's edge and the field's: only the cells it passes through, 7 a quadrant;
+  // those whose far corner is exactly on it are inside the pit, no paver.
+  expect(countGridPavers({ lengthIn: 1, widthIn: 1 }, 5, 5)).toEqual({ whole: 0, cut: 28 });
+  // Half-inch cells in a 1 in circle: (0,0) reaches 0.707, whole; (1,0), (0,1), (1,1) are cut.
+  expect(countGridPavers({ lengthIn: 0.5, widthIn: 0.5 }, 0, 1)).toEqual({ whole: 4, cut: 12 });
+  for (const [x, y, inner, outer] of [
+    [1, 1, 5, 7],
+    [1, 1, 5, 10],
+    [2, 1, 5, 13],
+    [1, 2, 10, 13],
+    [3, 4, 5, 25],
+    [4, 8, 13, 30],
+  ] as const) {
+    expect(countGridPavers({ lengthIn: x, widthIn: y }, inner, outer)).toEqual(referenceGrid(x, y, inner, outer));
+  }
+});
+
+test("a border V-joint exactly at the 3/16 in limit stays square-ended: 4 × 12 in units on r = 256 in open 12 × 4 / 256 = 0.1875 in (ICPI joints, from memory)", () => {
+  const patio = planPatio({
+    patio: { outsideRadiusIn: 260, border: { widthIn: 4, lengthIn: 12 }, paver: { lengthIn: 8, widthIn: 4 } },
+    ...PIT,
+    factors: FACTORS,
+  });
+  expect(patio.borderOuterJointIn).toBe(0.1875);
+  expect(patio.borderLayout).toBe("square");
+  expect(patio.borderTaperDeg).toBeNull();
+});
+
+test("a border that closes to within 1/8 in needs no cut piece: 6 × 12 in units tapered on a 114.5 in circle span 2·atan(6 / 114.5) = 5.99931° each, 60 of them leave 0.0414°, 0.083 in at the face (regular-polygon chord; closure rule common practice, no source)", () => {
+  const patio = planPatio({
+    patio: { outsideRadiusIn: 114.5, border: { widthIn: 6, lengthIn: 12 }, paver: { lengthIn: 8, widthIn: 4 } },
+    ...PIT,
+    factors: FACTORS,
+  });
+  // Square ends would open 12 × 6 / 108.5 = 0.66 in, so every unit is tapered.
+  expect(patio.borderLayout).toBe("tapered");
+  expect(patio.borderUnitAngleDeg).toBeCloseTo(5.99931, 5);
+  expect(patio.borderWholeCount).toBe(60);
+  expect(patio.borderClosureCount).toBe(0);
+  expect(patio.borderUnitCount).toBe(60);
+  expect(patio.lastBorderUnitLengthIn).toBe(12);
+  // One taper cut on each of the 60 units, and no closure cuts.
+  expect(patio.borderCuts).toBe(60);
+});
+
+test("bedding sand 1 1/2 in deep and joint sand at 1/2 lb/ft² on the 16 ft patio: 185.98 ft² × 144 × 1.5 / 46,656 = 0.8610 yd³ (× 1.35 = 1.162 t); 92.99 lb ÷ 50 lb → 2 bags (NIST SP 811; rates from memory)", () => {
+  const patio = planPatio({
+    patio: PATIO,
+    ...PIT,
+    factors: { ...FACTORS, beddingSandDepthIn: 1.5, jointSandLbPerFt2: 0.5 },
+  });
+  expect(patio.beddingSandYd3).toBeCloseTo(0.861, 3);
+  expect(patio.beddingSandTons).toBeCloseTo(1.1624, 3);
+  expect(patio.jointSandBags).toBe(2);
+});
