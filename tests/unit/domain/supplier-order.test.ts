@@ -227,3 +227,153 @@ describe("combining", () => {
     expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-13"] }])).toBeNull();
   });
 });
+
+describe("every line's working and every refusal, word for word", () => {
+  const result = (line: PlanLine, terms: OrderTerms, density: number | null = null) =>
+    roundOrderLine(line, terms, density);
+
+  test("the working says how each line was rounded, with the figures worked above", () => {
+    expect(rounded(wallUnits(62), pallet(72, 3200)).working).toBe("62 each ÷ 72 a pallet, rounded up to whole pallets");
+    expect(rounded(wallUnits(62), { orderUnit: "piece", unitsPerOrderUnit: 1, orderUnitWeightLb: 28 })).toEqual({
+      key: "wall-unit",
+      item: "Taper unit",
+      planQuantity: 62,
+      planUnit: "each",
+      orderQuantity: 62,
+      orderUnit: "piece",
+      suppliedQuantity: 62,
+      // 62 × 28 lb = 1,736 lb.
+      weightLb: 1736,
+      working: "62 each, as planned",
+    });
+    expect(
+      rounded(tons("aggregate", 2.3), { orderUnit: "ton", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }).working,
+    ).toBe("2.3 t rounded up to a step of 0.5 t");
+    expect(
+      rounded(tons("aggregate", 2.3), { orderUnit: "cubic-yard", unitsPerOrderUnit: 0.5, orderUnitWeightLb: null }, 1.4)
+        .working,
+    ).toBe("2.3 t ÷ 1.4 t/yd³ = 1.64 yd³, rounded up to a step of 0.5 yd³");
+    expect(
+      rounded(tons("bedding-sand", 0.41), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: 50 }).working,
+    ).toBe("0.41 t × 2,000 lb ÷ 50 lb a bag, rounded up");
+  });
+
+  test("a bag, a pail and a cartridge are each ordered as themselves; a bag of wall units is not", () => {
+    for (const unit of ["bag", "pail", "cartridge"] as const) {
+      const line: PlanLine = { key: "fill", item: "Item", quantity: 3, unit };
+      expect(rounded(line, { orderUnit: unit, unitsPerOrderUnit: 1, orderUnitWeightLb: null }).orderQuantity).toBe(3);
+    }
+    expect(result(wallUnits(3), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: 50 })).toEqual({
+      ok: false,
+      problem: {
+        key: "wall-unit",
+        item: "Taper unit",
+        message:
+          "Taper unit is counted (each) but the catalog sells it by the bag: choose each, pallet, cube, bundle or case.",
+      },
+    });
+  });
+
+  test("each refusal names the item and what to change", () => {
+    const message = (line: PlanLine, terms: OrderTerms, density: number | null = null) => {
+      const r = result(line, terms, density);
+      return r.ok ? "" : r.problem.message;
+    };
+    expect(message(wallUnits(60), pallet(Number.POSITIVE_INFINITY, 3200))).toBe(
+      "Taper unit: units per order unit must be more than 0.",
+    );
+    const sandBags: PlanLine = { key: "bedding-sand", item: "Sand in bags", quantity: 60, unit: "bag" };
+    expect(message(sandBags, pallet(40.5, 3200))).toBe("Sand in bags: a pallet holds a whole number of bags.");
+    expect(message(wallUnits(60), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toBe(
+      "Taper unit is counted (each) but the catalog sells it by the cubic yard: choose each, pallet, cube, bundle or case.",
+    );
+    expect(
+      message(tons("aggregate", 2), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null }, 0),
+    ).toBe("Base aggregate: no density is known to turn tons into cubic yards; sell it by the ton.");
+    expect(message(tons("bedding-sand", 2), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: 0 })).toBe(
+      "Bedding sand: give the weight of one bag to order tons in bags.",
+    );
+    expect(message(tons("aggregate", 2), pallet(40, 3000))).toBe(
+      "Base aggregate is planned in tons but the catalog sells it by the pallet: choose ton, cubic yard or bag.",
+    );
+  });
+
+  test("delivered weight of no lines is 0 lb with nothing unknown; 0.1 + 0.2 t of weights adds without float noise", () => {
+    expect(deliveredWeight([])).toEqual({ weightLb: 0, unknown: [] });
+    const sand = (quantity: number) =>
+      rounded(tons("bedding-sand", quantity), { orderUnit: "ton", unitsPerOrderUnit: 0.05, orderUnitWeightLb: null });
+    // 0.05 t = 100 lb and 0.1 t = 200 lb: 300 lb exactly.
+    expect(deliveredWeight([sand(0.05), sand(0.1)]).weightLb).toBe(300);
+  });
+});
+
+describe("every move from every state", () => {
+  test("a draft can be discarded or combined; nothing else can, and the refusal says what the order is", () => {
+    expect(moveSupplierOrder("drafted", "discard")).toEqual({ ok: true, to: "discarded" });
+    expect(moveSupplierOrder("drafted", "combine")).toEqual({ ok: true, to: "combined" });
+    expect(moveSupplierOrder("confirmed", "discard")).toEqual({
+      ok: false,
+      message: "This order is confirmed by the supplier; only a draft can be discarded.",
+    });
+    expect(moveSupplierOrder("combined", "combine")).toEqual({
+      ok: false,
+      message: "This order is combined into another order; only a draft can be combined.",
+    });
+    expect(moveSupplierOrder("discarded", "send")).toEqual({
+      ok: false,
+      message: "This order is discarded; only a draft can be sent.",
+    });
+    expect(moveSupplierOrder("delivered", "deliver")).toEqual({
+      ok: false,
+      message: "This order is delivered; only an order confirmed by the supplier can be marked delivered.",
+    });
+    // States never go backwards: from each state, exactly the moves listed forward are allowed.
+    const allowed: Record<string, string[]> = {
+      drafted: ["send", "discard", "combine"],
+      sent: ["confirm"],
+      confirmed: ["deliver"],
+      delivered: [],
+      combined: [],
+      discarded: [],
+    };
+    const moves = ["send", "confirm", "deliver", "discard", "combine"] as const;
+    for (const [state, list] of Object.entries(allowed)) {
+      const ok = moves.filter((move) => moveSupplierOrder(state as "drafted", move).ok);
+      expect(ok).toEqual(list);
+    }
+  });
+});
+
+describe("combining, the edges", () => {
+  test("drafts with no delivery day, or with days in two weeks, are left out of every group; groups keep ids ascending", () => {
+    const groups = findCombinable([
+      { id: 9, supplierId: 1, state: "drafted", requestedOn: ["2026-12-08"] },
+      { id: 4, supplierId: 1, state: "drafted", requestedOn: ["2026-12-09", "2026-12-10"] },
+      { id: 6, supplierId: 1, state: "drafted", requestedOn: [] },
+      { id: 7, supplierId: 1, state: "drafted", requestedOn: ["2026-12-11", "2026-12-14"] },
+      { id: 8, supplierId: 2, state: "drafted", requestedOn: ["2026-12-15"] },
+      { id: 5, supplierId: 2, state: "drafted", requestedOn: ["2026-12-16"] },
+      { id: 3, supplierId: 3, state: "drafted", requestedOn: ["2026-12-16"] },
+    ]);
+    expect(groups).toEqual([
+      { supplierId: 1, week: "2026-W50", orderIds: [4, 9] },
+      { supplierId: 2, week: "2026-W51", orderIds: [5, 8] },
+    ]);
+    expect(findCombinable([{ id: 6, supplierId: 1, state: "drafted", requestedOn: [] }])).toEqual([]);
+  });
+
+  test("the weeks in a refusal are listed in order; a refusal names a combined or discarded order", () => {
+    const a = { id: 1, supplierId: 1, state: "drafted" as const, requestedOn: ["2026-12-21"] };
+    expect(checkCombine([a, { ...a, id: 2, requestedOn: ["2026-12-07"] }])).toBe(
+      "Only deliveries in the same week can be combined; these fall in 2026-W50, 2026-W52.",
+    );
+    expect(checkCombine([])).toBe("Choose at least two draft orders to combine.");
+    expect(checkCombine([a, { ...a, id: 2, supplierId: 2 }])).toBe("Only orders to the same supplier can be combined.");
+    expect(checkCombine([a, { ...a, id: 12, state: "combined" }])).toBe(
+      "Order 12 is combined into another order; only drafts can be combined.",
+    );
+    expect(checkCombine([{ ...a, state: "discarded", label: "SO-0001" }, a])).toBe(
+      "SO-0001 is discarded; only drafts can be combined.",
+    );
+  });
+});
