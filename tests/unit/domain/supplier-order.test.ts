@@ -263,6 +263,18 @@ describe("every line's working and every refusal, word for word", () => {
       const line: PlanLine = { key: "fill", item: "Item", quantity: 3, unit };
       expect(rounded(line, { orderUnit: unit, unitsPerOrderUnit: 1, orderUnitWeightLb: null }).orderQuantity).toBe(3);
     }
+    // Edge restraint is planned in pieces: a yard may call them pieces or sell them each, or in bundles.
+    const edging: PlanLine = { key: "edge-restraint", item: "Edging", quantity: 7, unit: "piece" };
+    expect(rounded(edging, { orderUnit: "each", unitsPerOrderUnit: 1, orderUnitWeightLb: null }).orderQuantity).toBe(7);
+    expect(rounded(edging, { orderUnit: "piece", unitsPerOrderUnit: 1, orderUnitWeightLb: null }).orderQuantity).toBe(
+      7,
+    );
+    // 7 ÷ 10 a bundle → 1 bundle of 10.
+    expect(rounded(edging, { orderUnit: "bundle", unitsPerOrderUnit: 10, orderUnitWeightLb: 40 })).toMatchObject({
+      orderQuantity: 1,
+      suppliedQuantity: 10,
+      weightLb: 40,
+    });
     expect(result(wallUnits(3), { orderUnit: "bag", unitsPerOrderUnit: 1, orderUnitWeightLb: 50 })).toEqual({
       ok: false,
       problem: {
