@@ -1,7 +1,14 @@
 import fc from "fast-check";
 import { expect, test } from "vitest";
 import { PlanGeometryError } from "~/domain/plan-geometry-error";
-import { bowlDiameterForCount, planRing, type RingPlan, type WallUnitSize } from "~/domain/ring";
+import {
+  bowlDiameterForCount,
+  findNeighbourRings,
+  findRingForBowl,
+  planRing,
+  type RingPlan,
+  type WallUnitSize,
+} from "~/domain/ring";
 import { clip, gapBetween, overlapArea, sectorPolygon, wallUnitPolygon, type FlatPolygon } from "./flatten-shapes";
 
 // Illustrative tapered unit: 12 in face, 8 in back, 8 in deep, 4 in high.
@@ -389,4 +396,66 @@ test("an exact 36.5 in bowl just under the 14-unit ring: 13 whole units of 25.75
   expect(plan.closure?.angleDeg).toBeCloseTo(25.25, 4);
   expect(plan.closure?.faceWidthIn).toBeCloseTo(11.759, 3);
   expect(plan.closure?.backWidthIn).toBe(8);
+});
+
+test("the 200-unit ring is the last neighbour and the last ring that reaches a target; past it there is no ring above (regular-polygon apothem, 12/tan(π/N) − 16)", () => {
+  const ring199 = 12 / Math.tan(Math.PI / 199) - 16;
+  const ring200 = 12 / Math.tan(Math.PI / 200) - 16;
+  expect(bowlDiameterForCount(UNIT, 200)).toBeCloseTo(ring200, 9);
+  const between = (ring199 + ring200) / 2;
+  expect(findNeighbourRings(UNIT, between)).toEqual({
+    below: { unitCount: 199, bowlDiameterIn: expect.closeTo(ring199, 9) as number },
+    above: { unitCount: 200, bowlDiameterIn: expect.closeTo(ring200, 9) as number },
+  });
+  expect(findRingForBowl(UNIT, between)).toEqual({
+    unitCount: 200,
+    bowlDiameterIn: expect.closeTo(ring200, 9) as number,
+  });
+  // Past the largest ring: the 200-unit ring is below and nothing is above; no ring reaches it.
+  expect(findNeighbourRings(UNIT, 760)).toEqual({
+    below: { unitCount: 200, bowlDiameterIn: expect.closeTo(ring200, 9) as number },
+    above: null,
+  });
+  expect(findRingForBowl(UNIT, 760)).toBeNull();
+  // The 200-unit ring itself has only a neighbour below.
+  expect(planRing({ target: { unitCount: 200 }, wallUnit: UNIT, courses: 1 }).neighbours).toEqual({
+    below: { unitCount: 199, bowlDiameterIn: expect.closeTo(ring199, 9) as number },
+    above: null,
+  });
+  // A target exactly the largest ring's bowl is met by it.
+  expect(
+    planRing({
+      target: { bowlDiameterIn: bowlDiameterForCount(UNIT, 200), fit: "at-least" },
+      wallUnit: UNIT,
+      courses: 1,
+    }).unitCount,
+  ).toBe(200);
+});
+
+test("an exact bowl equal to the largest or the smallest whole ring is laid as that ring: 200 units of 12/8/8, 3 units with 100 in faces (2·atan(50 / 28.87) = 120° each)", () => {
+  const largest = planRing({
+    target: { bowlDiameterIn: bowlDiameterForCount(UNIT, 200), fit: "exact" },
+    wallUnit: UNIT,
+    courses: 1,
+  });
+  expect([largest.unitCount, largest.unitsPerCourse, largest.closure]).toEqual([200, 200, null]);
+  const wide = { faceIn: 100, backIn: 1, depthIn: 0.5, heightIn: 4 };
+  // Face corners touching: a = 100 / (2·tan 60°) − 0.5 = 28.3675 in, a 56.735 in bowl.
+  expect(bowlDiameterForCount(wide, 3)).toBeCloseTo(56.735, 3);
+  const smallest = planRing({
+    target: { bowlDiameterIn: bowlDiameterForCount(wide, 3), fit: "exact" },
+    wallUnit: wide,
+    courses: 1,
+  });
+  expect([smallest.unitCount, smallest.unitsPerCourse, smallest.closure]).toEqual([3, 3, null]);
+});
+
+test("an exact bowl just past the largest ring is refused on ring.bowlDiameterIn: at 748 in each unit spans 2·atan(6 / 382) = 1.7998°, 200 leave 0.374 in, and the closure would be the 201st piece (regular-polygon chord)", () => {
+  for (const bowlDiameterIn of [748, 750, 760]) {
+    const error = thrown(() => planRing({ target: { bowlDiameterIn, fit: "exact" }, wallUnit: UNIT, courses: 1 }));
+    expect([error.path, error.message]).toEqual([
+      "ring.bowlDiameterIn",
+      `A ${bowlDiameterIn} in bowl needs more than 200 of these units a course.`,
+    ]);
+  }
 });
