@@ -302,3 +302,96 @@ test("why this count: the fewest that fit when the wall is not given; the wall's
   expect(plan(13, 50).count).toBe(13);
   expect(plan(2, 50).countReason).toBe("fewest");
 });
+
+test("a wall of exactly the fewest caps' count matches them; a 22-unit wall takes 22 caps (61.6 % offcut, within 28.4 + 50 points), never 11, which would not fit the blank (derived here from the formulas)", () => {
+  const plan = (wallSides: number, matchMaxExtraOffcutPct?: number) =>
+    planCaps({
+      edgeDistanceIn: 18,
+      wallDepthIn: 8,
+      cap: BLANK,
+      jointIn: 3 / 16,
+      spares: 1,
+      wallSides,
+      matchMaxExtraOffcutPct,
+    });
+  expect([plan(12).count, plan(12).countReason]).toEqual([12, "matches-wall"]);
+  expect([plan(36).count, plan(36).countReason]).toEqual([12, "matches-wall"]);
+  // 22 caps: c1 = 32·tan(π/22) − 0.1875/cos(π/22) = 4.601 − 0.189 = 4.412 in, c2 = 56·tan(π/22) − 0.189
+  // = 7.862 in, (4.412 + 7.862) / 2 × 12 = 73.64 in² of a 192 in² blank: 61.6 % offcut.
+  const wide = plan(22, 50);
+  expect([wide.count, wide.countReason]).toEqual([22, "matches-wall"]);
+  expect(wide.offcutShare).toBeCloseTo(0.6164, 3);
+  // 11 caps would be 2 × 28 × tan(π/11) − 0.1875/cos(π/11) = 16.25 in outside: longer than the 16 in blank.
+  expect(wide.outerWidthIn).toBeLessThanOrEqual(16);
+});
+
+test("an outer overhang of 0 in is allowed: the blank is ripped to T + o_i = 8 + 2 = 10 in, flush with the wall's face", () => {
+  const caps = planCaps({
+    edgeDistanceIn: 18,
+    wallDepthIn: 8,
+    cap: { ...BLANK, outerOverhangIn: 0 },
+    jointIn: 3 / 16,
+    spares: 1,
+  });
+  expect(caps.capDepthIn).toBe(10);
+  expect(caps.ripToDepthIn).toBe(10);
+  expect(caps.outerOverhangIn).toBe(0);
+});
+
+test("marks kept so far from the corners that nothing is left of the blank are refused, not searched for ever: 16 in blanks with 9 in each end leave −2 in", () => {
+  const error = thrown(() =>
+    planCaps({ edgeDistanceIn: 18, wallDepthIn: 8, cap: BLANK, jointIn: 3 / 16, spares: 1, minMarkIn: 9 }),
+  );
+  expect([error.path, error.message]).toEqual(["cap.lengthIn", "The cap blanks are too short for this ring."]);
+});
+
+test("the outer corner trim runs along the side cut from the outer corner to where the arc at a2 = 28 in meets it: 0.963 in on the worked example; half-widths are 4.190 and 7.406 in (line-circle intersection solved here)", () => {
+  const caps = example();
+  const [x1, y1, x2, y2] = [
+    caps.innerWidthIn / 2,
+    caps.innerEdgeDistanceIn,
+    caps.outerWidthIn / 2,
+    caps.outerEdgeDistanceIn,
+  ];
+  const [dx, dy] = [x2 - x1, y2 - y1];
+  const qa = dx * dx + dy * dy;
+  const qb = 2 * (x1 * dx + y1 * dy);
+  const qc = x1 * x1 + y1 * y1 - 28 * 28;
+  const s = (-qb + Math.sqrt(qb * qb - 4 * qa * qc)) / (2 * qa);
+  const meets = [x1 + s * dx, y1 + s * dy];
+  expect(caps.outerCornerTrimIn).toBeCloseTo(Math.hypot(x2 - meets[0]!, y2 - meets[1]!), 9);
+  expect(caps.outerCornerTrimIn).toBeCloseTo(0.963, 3);
+  expect(caps.innerHalfWidthIn).toBeCloseTo(8.38 / 2, 3);
+  expect(caps.outerHalfWidthIn).toBeCloseTo(14.811 / 2, 3);
+});
+
+test("arced caps over a whole ring: the overhangs measured point by point round the wall's face and back (14 units of 12/8/8, a = 18.288 in) against arcs at a2 and the inner radius", () => {
+  const a = 6 / Math.tan(Math.PI / 14) - 8; // face corners touching: 12 / (2·tan(π/14)) − 8
+  const outsideCorner = Math.hypot(a + 8, 6);
+  const backCorner = Math.hypot(a, 4);
+  const caps = planCaps({
+    edgeDistanceIn: a,
+    wallDepthIn: 8,
+    cap: BLANK,
+    jointIn: 3 / 16,
+    spares: 1,
+    wallOutsideCornerRadiusIn: outsideCorner,
+    wallBackCornerRadiusIn: backCorner,
+  });
+  // Walk one unit's face (x = a + 8, y from −6 to 6) and back (x = a, y from −4 to 4): every unit is the same.
+  const face: number[] = [];
+  const back: number[] = [];
+  for (let i = 0; i <= 1000; i++) {
+    face.push(Math.hypot(a + 8, -6 + (12 * i) / 1000));
+    back.push(Math.hypot(a, -4 + (8 * i) / 1000));
+  }
+  const r2 = caps.outerEdgeDistanceIn;
+  const ri = caps.innerRadiusIn;
+  const range = caps.arcedOverhangRange;
+  expect(range.outerMinIn).toBeCloseTo(r2 - Math.max(...face), 9);
+  expect(range.outerMaxIn).toBeCloseTo(r2 - Math.min(...face), 9);
+  expect(range.innerMinIn).toBeCloseTo(Math.min(...back) - ri, 9);
+  expect(range.innerMaxIn).toBeCloseTo(Math.max(...back) - ri, 9);
+  // An arced outer edge overhangs the middle of each face by the outer overhang, 12 − 8 − 2 = 2 in.
+  expect(range.outerMaxIn).toBeCloseTo(2, 9);
+});
