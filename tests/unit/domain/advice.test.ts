@@ -1,7 +1,13 @@
 import { expect, test } from "vitest";
-import { listCautions } from "~/domain/advice";
+import { listCautions, listWarnings } from "~/domain/advice";
+import { planCaps } from "~/domain/caps";
+import { planSteelRing } from "~/domain/liner";
 import { computePlan } from "~/domain/plan";
+import { planRing, type WallUnitSize } from "~/domain/ring";
 import { TYPICAL_PIT } from "./fixtures";
+
+// Illustrative tapered unit: 12 in face, 8 in back, 8 in deep, 4 in high.
+const UNIT: WallUnitSize = { faceIn: 12, backIn: 8, depthIn: 8, heightIn: 4 };
 
 const codes = (items: { code: string }[]) => items.map((item) => item.code);
 
@@ -287,5 +293,112 @@ test("the lifting caution gives the weights (26.3 lb units and 39.4 lb blanks at
   });
   expect(noCaps.find((c) => c.code === "heavy-lifting")?.message).toMatch(
     /^Each wall unit weighs about 26 lb \(at about 142 lb\/ft³/,
+  );
+});
+
+// Warnings at their edges: the limits are the engine's stated ones (ADVICE_LIMITS: bowls under 30 in
+// or over 48 in, walls under 12 in or over 20 in, 1/16 in face joints, 2 in inward overhang; common
+// practice or from memory, as noted there); a value exactly at a limit is within it.
+test("a bowl of exactly 30 in or 48 in and a wall of exactly 12 in or 20 in raise no size warning", () => {
+  const sized = (ring: { bowlDiameterIn: number; fit: "exact" }, courses = 3) =>
+    codes(computePlan({ ...TYPICAL_PIT, ring, courses, cap: null, liner: { kind: "none" } }).warnings);
+  expect(sized({ bowlDiameterIn: 30, fit: "exact" })).not.toContain("bowl-small");
+  expect(sized({ bowlDiameterIn: 29.9, fit: "exact" })).toContain("bowl-small");
+  expect(sized({ bowlDiameterIn: 48, fit: "exact" })).not.toContain("bowl-large");
+  expect(sized({ bowlDiameterIn: 48.1, fit: "exact" })).toContain("bowl-large");
+  // 3 courses of 4 in without caps: 12 in; 5 courses: 20 in.
+  expect(sized({ bowlDiameterIn: 36, fit: "exact" }, 3)).not.toContain("seat-height");
+  expect(sized({ bowlDiameterIn: 36, fit: "exact" }, 5)).not.toContain("seat-height");
+});
+
+test("warnings without company limits use the engine's own, and a one-course wall has no bond to warn of", () => {
+  const ring = planRing({ target: { bowlDiameterIn: 34, fit: "exact" }, wallUnit: UNIT, courses: 1 });
+  expect(ring.bondOffsetIn).toBeNull();
+  // One course of 4 in: closures and a low wall, nothing about the bond.
+  expect(codes(listWarnings({ ring, caps: null, liner: null }))).toEqual(["closure-units", "seat-height"]);
+  const limits = { capMaxOuterOverhangIn: 3, minBondOffsetIn: 3 };
+  expect(codes(listWarnings({ ring, caps: null, liner: null, limits }))).toEqual(["closure-units", "seat-height"]);
+});
+
+test("joints set too close between courses are said with the figures: an exact 34 in bowl's nearest joints are 3.971 in apart, said to the nearest 1/16 in as 4 in, under a 5 in limit", () => {
+  const ring = planRing({ target: { bowlDiameterIn: 34, fit: "exact" }, wallUnit: UNIT, courses: 2 });
+  const warning = listWarnings({
+    ring,
+    caps: null,
+    liner: null,
+    limits: { capMaxOuterOverhangIn: 3, minBondOffsetIn: 5 },
+  }).find((w) => w.code === "bond-offset-small");
+  expect(warning?.message).toBe(
+    "Even with the closures of alternate courses set apart, some joints fall only 4 in from the joints below; at least 5 in is usual. A whole-unit ring or a different bowl size lays a better bond.",
+  );
+});
+
+test("face joints open less than a sanded joint are not flagged: 12 units of 12/7.75/8 meet at the back and open 2 × 22.462 × tan 15° − 12 = 0.037 in at the face (derived here from the formulas)", () => {
+  const unit = { faceIn: 12, backIn: 7.75, depthIn: 8, heightIn: 4 };
+  const ring = planRing({ target: { unitCount: 12 }, wallUnit: unit, courses: 3 });
+  expect(ring.limitedBy).toBe("back");
+  expect(ring.faceGapIn).toBeCloseTo(0.0372, 4);
+  expect(codes(listWarnings({ ring, caps: null, liner: null }))).not.toContain("open-face-joints");
+});
+
+test("caps flush with the wall's face at their middle still show the wall's corners: the message says 0 in at the middle, not that the caps stop short", () => {
+  const plan = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, outerOverhangIn: 0 } });
+  const warning = plan.warnings.find((w) => w.code === "cap-overhang-outside-negative");
+  expect(warning?.message).toMatch(
+    /^The caps overhang the wall by 0 in at their middle, but where a cap's middle passes/,
+  );
+});
+
+test("the inward overhang is flagged at the middle past 2 in, or at a back corner past 2 1/2 in, either alone (common practice, no source)", () => {
+  // 14 units of 12/8/8 (a = 18.288 in): back corners sit a/cos(π/14) − a = 0.470 in beyond the middle of the back.
+  const middle = computePlan({ ...TYPICAL_PIT, cap: { ...TYPICAL_PIT.cap!, innerOverhangIn: 2.02 } });
+  expect(middle.caps!.overhangRange.innerMaxIn).toBeLessThan(2.5);
+  expect(codes(middle.warnings)).toContain("cap-inner-overhang-large");
+  // A wall whose back corners stand 1 in past the middle of its backs: 2 in at the middle, 3 in at a corner.
+  const ring = planRing({ target: { unitCount: 14 }, wallUnit: UNIT, courses: 3 });
+  const caps = planCaps({
+    edgeDistanceIn: ring.edgeDistanceIn,
+    wallDepthIn: 8,
+    cap: TYPICAL_PIT.cap!,
+    jointIn: 3 / 16,
+    spares: 1,
+    wallBackCornerRadiusIn: ring.edgeDistanceIn + 1,
+  });
+  expect(caps.overhangRange.innerMaxIn).toBeCloseTo(3, 9);
+  expect(codes(listWarnings({ ring, caps, liner: null }))).toContain("cap-inner-overhang-large");
+});
+
+test("a small opening inside a steel ring says so, and a ring no whole-unit ring clears is said without a suggestion", () => {
+  // A 28 in ring in an exact 30 in bowl: 28 + 2 × 1/2 in = 29 in needed, so it fits, and the fire is 28 in across.
+  const small = computePlan({
+    ...TYPICAL_PIT,
+    ring: { bowlDiameterIn: 30, fit: "exact" },
+    liner: { kind: "steel-ring", outsideDiameterIn: 28, heightIn: 8 },
+  });
+  expect(small.warnings.find((w) => w.code === "bowl-small")?.message).toBe(
+    "The fire's opening (28 in inside the ring) is small for a wood fire: 36 to 44 in is usual, and small bowls push flames onto the walls.",
+  );
+  const ring = planRing({ target: { unitCount: 14 }, wallUnit: UNIT, courses: 3 });
+  const liner = planSteelRing({
+    bowlDiameterIn: ring.bowlDiameterIn,
+    insert: { outsideDiameterIn: 800, heightIn: 10 },
+    minGapIn: 0.5,
+    linedHeightIn: 12,
+    wallSides: 14,
+    raiseOverIn: 1,
+  });
+  expect(
+    listWarnings({ ring, caps: null, liner, ringForLiner: null }).find((w) => w.code === "liner-does-not-fit")?.message,
+  ).toBe("The 800 in steel ring needs a bowl of at least 801 in; this bowl is 36 9/16 in.");
+});
+
+test("the setback caution adds the company's property-line and branch distances when it has them", () => {
+  const message = (limits?: { requiredPropertyLineFt?: number; requiredBranchClearanceFt?: number }) =>
+    listCautions({ linerKind: "none", requiredSetbackFt: 25, limits })[0]!.message;
+  expect(message()).toMatch(
+    /^Keep the fire at least 25 ft from buildings, fences, decks and anything that burns\. The International/,
+  );
+  expect(message({ requiredPropertyLineFt: 10, requiredBranchClearanceFt: 21 })).toMatch(
+    /^Keep the fire at least 25 ft from buildings, fences, decks and anything that burns, 10 ft from the property line and 21 ft from overhanging branches and wires\. /,
   );
 });
