@@ -26,6 +26,7 @@ import {
   planAngleOf,
   projectPoint,
   sampleSceneOutline,
+  shadeInstance,
   toPlanPolygon,
   type PartPlacement,
   type PitSceneInput,
@@ -375,4 +376,50 @@ test("the camera's view holds the whole pit and patio, in portrait and landscape
       expect(reach).toBeGreaterThan(FRAME_FILL - 1e-3);
     }
   }
+});
+
+test("the plan drawing holds the first course, its closure, the caps, the first firebrick row and the steel ring's circle, and nothing that is not there", () => {
+  // An exact 40 in bowl: 14 whole units and one closure a course (worked in the ring tests).
+  const input = { ...withCaps(exactRing(40)), liner: FIREBRICK };
+  const drawing = drawPitPlan(input);
+  expect(drawing.wallUnits).toHaveLength(input.ring.unitCount);
+  expect(drawing.closureUnits).toHaveLength(1);
+  expect(drawing.caps).toHaveLength(input.caps!.count);
+  expect(drawing.firebrick).toHaveLength(11);
+  expect(drawing.steelRingRadiusIn).toBeNull();
+  // Every piece is a real polygon whose corners lie between the bowl and the caps' outer corners.
+  const reach = Math.hypot(input.caps!.outerEdgeDistanceIn, input.caps!.outerWidthIn / 2);
+  for (const polygon of [...drawing.wallUnits, ...drawing.closureUnits, ...drawing.caps]) {
+    expect(polygon.length).toBeGreaterThanOrEqual(4);
+    for (const [x, y] of polygon) {
+      expect(Math.hypot(x, y)).toBeGreaterThanOrEqual(input.caps!.innerEdgeDistanceIn - 1e-9);
+      expect(Math.hypot(x, y)).toBeLessThanOrEqual(reach + 1e-9);
+    }
+  }
+  // The firebrick's fire-side corners touch: a_in = 9 / (2·tan(π/11)) from the centre to each brick's inner face.
+  const aIn = 9 / (2 * Math.tan(Math.PI / 11));
+  for (const brick of drawing.firebrick) {
+    const nearest = Math.min(...brick.map(([x, y]) => Math.hypot(x, y)));
+    expect(nearest).toBeGreaterThanOrEqual(aIn - 1e-9);
+    expect(nearest).toBeLessThanOrEqual(aIn / Math.cos(Math.PI / 11) + 1e-9);
+  }
+  // A 35 in steel ring is drawn as a circle of radius 17.5 in.
+  const ring = drawPitPlan({ ...wholeRing(14), liner: { kind: "steel-ring", outsideDiameterIn: 35, heightIn: 10 } });
+  expect(ring.steelRingRadiusIn).toBe(17.5);
+  // A whole ring with nothing else: no closures, caps, firebrick or border.
+  const bare = drawPitPlan(wholeRing(14));
+  expect([bare.closureUnits, bare.caps, bare.firebrick, bare.borderUnits]).toEqual([[], [], [], []]);
+  expect(bare.wallUnits).toHaveLength(14);
+});
+
+test("each unit's shade is steady and stays within 0.92–1.06, spread over the range: index 0 is the darkest, 0.92", () => {
+  expect(shadeInstance(0)).toBe(0.92);
+  const shades = Array.from({ length: 2000 }, (_, i) => shadeInstance(i));
+  expect(Math.min(...shades)).toBeGreaterThanOrEqual(0.92);
+  expect(Math.max(...shades)).toBeLessThanOrEqual(1.06);
+  expect(new Set(shades).size).toBeGreaterThan(1990);
+  // Spread: the mean of a well-mixed hash sits near the middle of the range, 0.99.
+  expect(shades.reduce((s, x) => s + x, 0) / shades.length).toBeCloseTo(0.99, 2);
+  expect(shadeInstance(7, 3)).toBe(shadeInstance(7, 3));
+  expect(shadeInstance(7, 3)).not.toBe(shadeInstance(7, 0));
 });
