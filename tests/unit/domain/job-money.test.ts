@@ -175,3 +175,44 @@ test("monthly report: jobs summed by month, oldest first, accuracy a ratio of th
     /not a month/,
   );
 });
+
+test("each refusal names the figure that is not whole cents; a deposit of 0 is allowed", () => {
+  const balance = {
+    proposalPriceCents: 300_000,
+    proposalTotalCents: 320_000,
+    changeOrderDeltasCents: [],
+    depositPaidCents: 0,
+  };
+  // No deposit taken: the whole contract is due on completion.
+  expect(balanceDue(balance).amountCents).toBe(320_000);
+  expect(() => balanceDue({ ...balance, proposalPriceCents: 0.5 })).toThrow(
+    new RangeError("proposal price must be whole cents, got 0.5"),
+  );
+  expect(() => balanceDue({ ...balance, proposalTotalCents: 1.5 })).toThrow(/^proposal total must be whole cents/);
+  expect(() => balanceDue({ ...balance, depositPaidCents: 2.5 })).toThrow(/^deposit must be whole cents/);
+  expect(() => balanceDue({ ...balance, changeOrderDeltasCents: [10, 0.25] })).toThrow(
+    /^change order must be whole cents, got 0.25/,
+  );
+  const cost = {
+    plannedHours: 10,
+    labourCostRateCents: 4_800,
+    plannedMaterialCents: 100_000,
+    workedHours: 10,
+    orderedMaterialCents: null,
+    extrasCents: 0,
+    revenueCents: 300_000,
+  };
+  expect(() => jobCost({ ...cost, labourCostRateCents: 48.5 })).toThrow(/^labour cost rate must be whole cents/);
+  expect(() => jobCost({ ...cost, plannedMaterialCents: 0.1 })).toThrow(/^planned material must be whole cents/);
+  expect(() => jobCost({ ...cost, extrasCents: 0.1 })).toThrow(/^extras must be whole cents/);
+  expect(() => jobCost({ ...cost, revenueCents: 0.1 })).toThrow(/^revenue must be whole cents/);
+});
+
+test("a month is exactly YYYY-MM (ISO 8601): nothing before or after it, months 01–12; a month with no estimate has no accuracy", () => {
+  const job = { revenueCents: 100, estimatedCents: 80, actualCents: 90 };
+  for (const month of ["x2026-12", "2026-12-01", "2026-00", "2026-13"]) {
+    expect(() => monthlyReport([{ ...job, month }])).toThrow(new RangeError(`not a month: ${month}`));
+  }
+  expect(monthlyReport([{ ...job, month: "2026-09" }])[0]!.accuracy).toBeCloseTo(90 / 80, 12);
+  expect(monthlyReport([{ ...job, month: "2026-09", estimatedCents: 0 }])[0]!.accuracy).toBeNull();
+});
