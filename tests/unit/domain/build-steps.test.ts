@@ -118,3 +118,37 @@ test("a pit without caps has no caps step, and the keys of the courses it keeps 
   // Every key appears once.
   expect(new Set(without).size).toBe(without.length);
 });
+
+test("each step's title, in the order of the work; a plan saved without its glued layers reads as the engine glues them (the top course and the caps)", () => {
+  const plan = computePlan(TYPICAL_PIT);
+  const list = steps(plan);
+  expect(list.map((s) => s.title)).toEqual([
+    "Dig and lay the base",
+    "Set the first course level",
+    "Course 2 of 3",
+    "Course 3 of 3",
+    "Set the steel ring",
+    "Glue the caps",
+    "Leave the adhesive to cure before the first fire",
+    "Clean up",
+  ]);
+  expect(list.at(-1)!.detail).toBe(
+    "Clear offcuts, spoil and packaging; sweep the site and rinse saw slurry away from drains.",
+  );
+  const older = listBuildSteps({
+    ...plan,
+    adhesive: {},
+    baseDepthIn: DEFAULT_FACTORS.baseDepthIn,
+    patioBaseDepthIn: DEFAULT_FACTORS.patioBaseDepthIn,
+  });
+  expect(older).toEqual(list);
+  // One course: nothing below it to glue to, so only the caps are glued.
+  const one = computePlan({ ...TYPICAL_PIT, courses: 1, liner: { kind: "none" } });
+  const oneOlder = listBuildSteps({
+    ...one,
+    adhesive: {},
+    baseDepthIn: DEFAULT_FACTORS.baseDepthIn,
+    patioBaseDepthIn: DEFAULT_FACTORS.patioBaseDepthIn,
+  });
+  expect(oneOlder).toEqual(steps(one));
+});
