@@ -57,6 +57,8 @@ const ceilTo = (value: number, step: number) => Math.ceil(value / step - EPSILON
 const tidy = (value: number) => Math.round(value * 1e6) / 1e6;
 
 const COUNT_UNITS: readonly MaterialUnit[] = ["each", "piece", "bag", "pail", "cartridge"];
+/** A counted unit named in the plural: "bags", "cartridges"; things sold each are "pieces". */
+const countedAs = (unit: MaterialUnit) => (unit === "each" || unit === "piece" ? "pieces" : `${unit}s`);
 // The plan's count units and the order units that mean one of the same thing.
 const SAME_COUNT: Record<string, readonly OrderUnit[]> = {
   each: ["each", "piece"],
@@ -102,7 +104,8 @@ export function roundOrderLine(line: PlanLine, terms: OrderTerms, tonsPerYd3: nu
       };
     }
     if (PACK_UNITS.includes(orderUnit)) {
-      if (!Number.isInteger(per)) return problem(`${line.item}: a ${orderUnit} holds a whole number of ${line.unit}s.`);
+      if (!Number.isInteger(per))
+        return problem(`${line.item}: a ${orderUnit} holds a whole number of ${countedAs(line.unit)}.`);
       const packs = Math.ceil(line.quantity / per - EPSILON);
       return {
         ok: true,

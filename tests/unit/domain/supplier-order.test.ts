@@ -296,6 +296,10 @@ describe("every line's working and every refusal, word for word", () => {
     );
     const sandBags: PlanLine = { key: "bedding-sand", item: "Sand in bags", quantity: 60, unit: "bag" };
     expect(message(sandBags, pallet(40.5, 3200))).toBe("Sand in bags: a pallet holds a whole number of bags.");
+    // Things sold each are counted as pieces in the message, never "eachs".
+    expect(message({ ...sandBags, item: "Broad Cap 20", unit: "each" }, pallet(40.5, 3200))).toBe(
+      "Broad Cap 20: a pallet holds a whole number of pieces.",
+    );
     expect(message(wallUnits(60), { orderUnit: "cubic-yard", unitsPerOrderUnit: 1, orderUnitWeightLb: null })).toBe(
       "Taper unit is counted (each) but the catalog sells it by the cubic yard: choose each, pallet, cube, bundle or case.",
     );
