@@ -187,10 +187,13 @@ describe("who sees the job", () => {
   });
 });
 
+// The phone's clock as the server sees it: changes from over a year back or from the future are refused.
+const minutesAgo = (minutes: number) => new Date(Date.now() - minutes * 60_000).toISOString();
+
 describe("the checklist's sync", () => {
   test("each clientId is kept once; the latest change by the phone's clock wins in whatever order they arrive", async () => {
-    const first = { clientId: randomUUID(), stepKey: "course-1", done: true, changedAt: "2026-12-02T15:00:00.000Z" };
-    const later = { clientId: randomUUID(), stepKey: "course-1", done: false, changedAt: "2026-12-02T15:05:00.000Z" };
+    const first = { clientId: randomUUID(), stepKey: "course-1", done: true, changedAt: minutesAgo(30) };
+    const later = { clientId: randomUUID(), stepKey: "course-1", done: false, changedAt: minutesAgo(25) };
     // The later change arrives first (its phone had signal), the earlier one after, and then again.
     const a = await sync(ids.booked, people.crew, [later]);
     expect(a.status).toBe(200);
@@ -209,9 +212,9 @@ describe("the checklist's sync", () => {
   });
 
   test("a batch with two changes of one step ends on the later; a resent batch writes no second event", async () => {
-    const on = { clientId: randomUUID(), stepKey: "dig-base", done: true, changedAt: "2026-12-02T16:00:00.000Z" };
-    const off = { clientId: randomUUID(), stepKey: "dig-base", done: false, changedAt: "2026-12-02T16:01:00.000Z" };
-    const on2 = { clientId: randomUUID(), stepKey: "dig-base", done: true, changedAt: "2026-12-02T16:02:00.000Z" };
+    const on = { clientId: randomUUID(), stepKey: "dig-base", done: true, changedAt: minutesAgo(20) };
+    const off = { clientId: randomUUID(), stepKey: "dig-base", done: false, changedAt: minutesAgo(19) };
+    const on2 = { clientId: randomUUID(), stepKey: "dig-base", done: true, changedAt: minutesAgo(18) };
     const eventsBefore = await db
       .select()
       .from(leadEvents)

@@ -194,31 +194,60 @@ export type TickSyncResult = {
   ticks: Record<string, StepState>;
 };
 
+/** How far ahead of the server's clock a phone's changedAt may be (clocks drift a little). */
+export const TICK_CLOCK_SKEW_MS = 5 * 60_000;
+/** How far back a queued change may be: a phone kept offline longer has the wrong date. */
+export const TICK_MAX_AGE_MS = 366 * 86_400_000;
+
 /**
  * Records tick changes sent by a phone, each clientId once; per step the change the phone made
  * last (by its changedAt) wins, whatever order they arrive in. Ties go to the larger clientId so
- * every server decides alike. The whole batch and its timeline events are one transaction.
+ * every server decides alike. Times are compared as instants and stored in one form
+ * (toISOString): "10:00:00Z" and "10:00:00.500Z" do not sort as text. A changedAt more than a few
+ * minutes ahead of the server, or over a year back, is refused: a phone with a wrong clock would
+ * otherwise hold the step against every later change. The whole batch and its timeline events are
+ * one transaction.
  */
 export async function applyTickChanges(
   user: Pick<SessionUser, "id">,
   lead: Lead,
   changes: TickChange[],
   stepKeys: readonly BuildStep[],
+  now: Date = new Date(),
 ): Promise<TickSyncResult> {
   const titles = new Map(stepKeys.map((s) => [s.key, s.title]));
   const result: TickSyncResult = { applied: [], superseded: [], refused: [], ticks: {} };
+  const latest = now.getTime() + TICK_CLOCK_SKEW_MS;
+  const earliest = now.getTime() - TICK_MAX_AGE_MS;
+  const accepted: (TickChange & { at: number })[] = [];
+  const seen = new Map<string, string>();
+  for (const change of changes) {
+    const at = Date.parse(change.changedAt);
+    const refuse = (message: string) => result.refused.push({ clientId: change.clientId, message });
+    const fingerprint = `${change.stepKey}|${change.done}|${at}`;
+    const earlier = seen.get(change.clientId);
+    if (earlier !== undefined) {
+      // The same change sent twice in one batch counts once; one id for two changes is refused.
+      if (earlier !== fingerprint)
+        refuse(`clientId ${change.clientId} names two different changes: give each change its own id.`);
+      continue;
+    }
+    seen.set(change.clientId, fingerprint);
+    if (!titles.has(change.stepKey)) refuse(`This job has no step "${change.stepKey}".`);
+    else if (at > latest)
+      refuse(
+        `changedAt ${change.changedAt} is ahead of the server's clock (${now.toISOString()}): check the phone's date and time.`,
+      );
+    else if (at < earliest)
+      refuse(`changedAt ${change.changedAt} is more than a year ago: check the phone's date and time.`);
+    else accepted.push({ ...change, changedAt: new Date(at).toISOString(), at });
+  }
   // Oldest first, so a batch holding two changes of one step ends on the later.
-  const ordered = [...changes].sort((a, b) =>
-    a.changedAt === b.changedAt ? (a.clientId < b.clientId ? -1 : 1) : a.changedAt < b.changedAt ? -1 : 1,
-  );
-  const at = new Date().toISOString();
+  accepted.sort((a, b) => (a.at === b.at ? (a.clientId < b.clientId ? -1 : 1) : a.at - b.at));
+  const updatedAt = now.toISOString();
   await writeTransaction(async (tx) => {
-    for (const change of ordered) {
-      const title = titles.get(change.stepKey);
-      if (!title) {
-        result.refused.push({ clientId: change.clientId, message: `This job has no step "${change.stepKey}".` });
-        continue;
-      }
+    for (const change of accepted) {
+      const title = titles.get(change.stepKey)!;
       const [held] = await tx
         .select()
         .from(jobStepTicks)
@@ -228,10 +257,12 @@ export async function applyTickChanges(
         result.applied.push(change.clientId);
         continue;
       }
+      const heldAt = held ? Date.parse(held.changedAt) : null;
       const isNewer =
-        !held ||
-        held.changedAt < change.changedAt ||
-        (held.changedAt === change.changedAt && held.clientId < change.clientId);
+        heldAt === null ||
+        Number.isNaN(heldAt) ||
+        heldAt < change.at ||
+        (heldAt === change.at && held!.clientId < change.clientId);
       if (!isNewer) {
         result.superseded.push(change.clientId);
         continue;
@@ -241,7 +272,7 @@ export async function applyTickChanges(
         changedAt: change.changedAt,
         clientId: change.clientId,
         byUserId: user.id,
-        updatedAt: at,
+        updatedAt,
       };
       await tx
         .insert(jobStepTicks)
@@ -255,7 +286,7 @@ export async function applyTickChanges(
         actorUserId: user.id,
         kind: "build-step",
         detail: `${change.done ? "Done" : "Not done after all"}: ${title}.`,
-        createdAt: at,
+        createdAt: updatedAt,
       });
     }
   });
