@@ -391,6 +391,16 @@ export async function applyBalanceEvent(event: Stripe.Event, now = new Date()): 
     if (event.type === "checkout.session.expired") return "applied";
     if (event.type === "charge.refunded") {
       const charge = event.data.object;
+      const refundedIntent =
+        typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
+      // Only the refund of the second payment settles what is owed: the refund of another payment
+      // (the balance's own, from the dashboard) must not mark the owed refund as sent.
+      if (!balance.refundOwedAt || refundedIntent !== balance.refundPaymentIntentId) {
+        console.warn(
+          `balance event ${event.id} refunds a payment balance ${balance.id} does not owe back; not applied`,
+        );
+        throw new MismatchRollback();
+      }
       await tx
         .update(jobBalances)
         .set({

@@ -27,6 +27,9 @@ export async function action({ request }: Route.ActionArgs) {
   } catch {
     return Response.json({ error: "Signature check failed." }, { status: 400 });
   }
+  // Signed but not an event (no id, type or data.object): nothing to apply, and no handler may read it.
+  if (!isEventShaped(event))
+    return Response.json({ error: "The event has no id, type or data.object." }, { status: 400 });
   // Deposits on proposals carry metadata.kind = "deposit" and are applied by their own handler.
   if (isDepositEvent(event)) return Response.json({ received: true, outcome: await applyDepositEvent(event) });
   // A built job's balance: metadata.kind = "balance".
@@ -41,4 +44,18 @@ export async function action({ request }: Route.ActionArgs) {
   }
   const outcome = await applyPaymentEvent(event);
   return Response.json({ received: true, outcome });
+}
+
+function isEventShaped(event: unknown): event is Stripe.Event {
+  if (!event || typeof event !== "object") return false;
+  const { id, type, data } = event as { id?: unknown; type?: unknown; data?: { object?: unknown } | null };
+  return (
+    typeof id === "string" &&
+    id.length > 0 &&
+    typeof type === "string" &&
+    !!data &&
+    typeof data === "object" &&
+    !!data.object &&
+    typeof data.object === "object"
+  );
 }

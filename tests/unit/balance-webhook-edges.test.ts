@@ -1,0 +1,149 @@
+/*
+ * Signed webhook deliveries for a job's balance that do not match it. The payment service's
+ * guidance on webhooks: verify the signature, then check the event against what you stored before
+ * fulfilling or settling anything. Here: a signed body that is not an event at all, and a refund
+ * of a payment other than the one the balance owes back.
+ */
+import { and, eq } from "drizzle-orm";
+import Stripe from "stripe";
+import { expect, test } from "vitest";
+import { jobBalances, leads, paymentEvents, proposals, users, type JobBalance } from "~/db/schema";
+import { recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
+import { markJobBuilt } from "~/lib/builds/mark-built.server";
+import { db } from "~/lib/platform/db.server";
+import { env } from "~/lib/platform/env.server";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
+import { action as webhookAction } from "~/routes/api/webhooks-stripe";
+import { routeArgs } from "./support/demo";
+import { sentProposal } from "./support/proposals";
+
+const stripe = new Stripe("sk_test_local");
+let seq = 0;
+
+async function deliverRaw(payload: string) {
+  const signature = stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
+  const response = (await webhookAction(
+    routeArgs(
+      new Request("http://localhost/api/webhooks/stripe", {
+        method: "POST",
+        body: payload,
+        headers: { "Stripe-Signature": signature },
+      }),
+    ),
+  )) as Response;
+  return { status: response.status, body: (await response.json()) as { outcome?: string; error?: string } };
+}
+
+const balanceOf = async (leadId: number) =>
+  (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0]!;
+
+/** A built job whose balance the office recorded as paid, then a card payment landed: a refund is owed. */
+async function balanceOwingARefund(): Promise<{ balance: JobBalance; cardIntent: string }> {
+  const sent = await sentProposal();
+  const accepted = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document: parseProposalDocument(sent.proposal.documentJson),
+    input: { name: sent.lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys: [] },
+  });
+  if (!accepted.ok) throw new Error(accepted.message);
+  await db
+    .update(proposals)
+    .set({ status: "signed", depositPaidAt: new Date().toISOString() })
+    .where(eq(proposals.id, sent.proposal.id));
+  await db.update(leads).set({ status: "build-booked" }).where(eq(leads.id, sent.lead.id));
+  const [crew] = await db
+    .select()
+    .from(users)
+    .where(and(eq(users.companyId, sent.lead.companyId), eq(users.role, "crew")))
+    .limit(1);
+  expect((await markJobBuilt({ companyId: sent.lead.companyId, leadId: sent.lead.id, actorUserId: crew!.id })).ok).toBe(
+    true,
+  );
+  seq += 1;
+  await db
+    .update(jobBalances)
+    .set({ checkoutSessionId: `cs_edge_${sent.lead.id}_${seq}`, checkoutAttempt: 1 })
+    .where(eq(jobBalances.leadId, sent.lead.id));
+  const client = { checkout: { sessions: { expire: async () => ({}) } } } as unknown as Stripe;
+  const [lead] = await db.select().from(leads).where(eq(leads.id, sent.lead.id));
+  expect(await recordBalancePaidByHand({ lead: lead!, actorUserId: crew!.id, how: "cheque", client })).toBeNull();
+  const balance = await balanceOf(sent.lead.id);
+  const cardIntent = `pi_edge_card_${balance.id}`;
+  const late = await deliverRaw(
+    JSON.stringify(
+      event("checkout.session.completed", balance, {
+        id: balance.checkoutSessionId,
+        object: "checkout.session",
+        payment_status: "paid",
+        status: "complete",
+        amount_total: balance.amountCents,
+        currency: "usd",
+        payment_intent: cardIntent,
+      }),
+    ),
+  );
+  expect(late).toEqual({ status: 200, body: { received: true, outcome: "applied" } });
+  return { balance: await balanceOf(sent.lead.id), cardIntent };
+}
+
+function event(type: string, balance: JobBalance, object: Record<string, unknown>) {
+  seq += 1;
+  return {
+    id: `evt_edge_${Date.now()}_${seq}`,
+    object: "event",
+    type,
+    created: Math.floor(Date.now() / 1000),
+    data: {
+      object: {
+        metadata: { kind: "balance", balance_id: String(balance.id), lead_id: String(balance.leadId) },
+        ...object,
+      },
+    },
+  };
+}
+
+test.each([
+  ["{}", "no id, type or data"],
+  ['{"id":"evt_edge_nodata","object":"event","type":"checkout.session.completed","data":{}}', "no data.object"],
+  ['{"id":"evt_edge_null","object":"event","type":"charge.refunded","data":{"object":null}}', "a null data.object"],
+  ["[]", "an array"],
+  ["7", "a number"],
+])("a signed body %s (%s) is a 400 that records nothing, never a 500", async (payload) => {
+  const before = (await db.select().from(paymentEvents)).length;
+  const answer = await deliverRaw(payload);
+  expect(answer).toEqual({ status: 400, body: { error: "The event has no id, type or data.object." } });
+  expect(await db.select().from(paymentEvents)).toHaveLength(before);
+});
+
+test("a refund of another payment does not settle the refund owed; the refund of the second payment does", async () => {
+  const { balance, cardIntent } = await balanceOwingARefund();
+  expect(balance.refundOwedAt).not.toBeNull();
+  expect(balance.refundPaymentIntentId).toBe(cardIntent);
+
+  const stray = event("charge.refunded", balance, {
+    id: `ch_edge_other_${balance.id}`,
+    object: "charge",
+    payment_intent: `pi_edge_someone_else_${balance.id}`,
+    refunds: { data: [{ id: `re_edge_other_${balance.id}` }] },
+  });
+  expect(await deliverRaw(JSON.stringify(stray))).toEqual({
+    status: 200,
+    body: { received: true, outcome: "rejected" },
+  });
+  const after = await balanceOf(balance.leadId);
+  expect(after.refundId).toBeNull();
+  expect(after.refundedAt).toBeNull();
+  // Not applied, so not recorded: a corrected delivery may still apply.
+  expect(await db.select().from(paymentEvents).where(eq(paymentEvents.id, stray.id))).toEqual([]);
+
+  const own = event("charge.refunded", balance, {
+    id: `ch_edge_own_${balance.id}`,
+    object: "charge",
+    payment_intent: cardIntent,
+    refunds: { data: [{ id: `re_edge_own_${balance.id}` }] },
+  });
+  expect((await deliverRaw(JSON.stringify(own))).body.outcome).toBe("applied");
+  expect((await balanceOf(balance.leadId)).refundId).toBe(`re_edge_own_${balance.id}`);
+});
