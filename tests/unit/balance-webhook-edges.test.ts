@@ -2,13 +2,16 @@
  * Signed webhook deliveries for a job's balance that do not match it. The payment service's
  * guidance on webhooks: verify the signature, then check the event against what you stored before
  * fulfilling or settling anything. Here: a signed body that is not an event at all, and a refund
- * of a payment other than the one the balance owes back.
+ * of a payment other than the one the balance owes back. And a built job put on hold: picked up
+ * again it is still built (its balance as opened), and a balance paid by card during the hold still
+ * lets the office move it on to "paid in full".
  */
 import { and, eq } from "drizzle-orm";
 import Stripe from "stripe";
 import { expect, test } from "vitest";
-import { jobBalances, leads, paymentEvents, proposals, users, type JobBalance } from "~/db/schema";
+import { jobBalances, leadEvents, leads, paymentEvents, proposals, users, type JobBalance } from "~/db/schema";
 import { recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
+import { changeStage } from "~/lib/leads/lead-workspace.server";
 import { markJobBuilt } from "~/lib/builds/mark-built.server";
 import { db } from "~/lib/platform/db.server";
 import { env } from "~/lib/platform/env.server";
@@ -16,7 +19,7 @@ import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { routeArgs } from "./support/demo";
-import { sentProposal } from "./support/proposals";
+import { officeUser, sentProposal } from "./support/proposals";
 
 const stripe = new Stripe("sk_test_local");
 let seq = 0;
@@ -38,8 +41,8 @@ async function deliverRaw(payload: string) {
 const balanceOf = async (leadId: number) =>
   (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0]!;
 
-/** A built job whose balance the office recorded as paid, then a card payment landed: a refund is owed. */
-async function balanceOwingARefund(): Promise<{ balance: JobBalance; cardIntent: string }> {
+/** A job marked built by its crew, its balance open with a checkout session (the homeowner pressed Pay). */
+async function builtJob() {
   const sent = await sentProposal();
   const accepted = await acceptProposal({
     proposal: sent.proposal,
@@ -66,26 +69,33 @@ async function balanceOwingARefund(): Promise<{ balance: JobBalance; cardIntent:
     .update(jobBalances)
     .set({ checkoutSessionId: `cs_edge_${sent.lead.id}_${seq}`, checkoutAttempt: 1 })
     .where(eq(jobBalances.leadId, sent.lead.id));
-  const client = { checkout: { sessions: { expire: async () => ({}) } } } as unknown as Stripe;
   const [lead] = await db.select().from(leads).where(eq(leads.id, sent.lead.id));
-  expect(await recordBalancePaidByHand({ lead: lead!, actorUserId: crew!.id, how: "cheque", client })).toBeNull();
-  const balance = await balanceOf(sent.lead.id);
+  return { lead: lead!, crew: crew!, balance: await balanceOf(sent.lead.id) };
+}
+
+const noCheckout = { checkout: { sessions: { expire: async () => ({}) } } } as unknown as Stripe;
+
+/** A card payment of the balance, as the payment service reports it. */
+const cardPayment = (balance: JobBalance, paymentIntent: string) =>
+  event("checkout.session.completed", balance, {
+    id: balance.checkoutSessionId,
+    object: "checkout.session",
+    payment_status: "paid",
+    status: "complete",
+    amount_total: balance.amountCents,
+    currency: "usd",
+    payment_intent: paymentIntent,
+  });
+
+/** A built job whose balance the office recorded as paid, then a card payment landed: a refund is owed. */
+async function balanceOwingARefund(): Promise<{ balance: JobBalance; cardIntent: string }> {
+  const { lead, crew } = await builtJob();
+  expect(await recordBalancePaidByHand({ lead, actorUserId: crew.id, how: "cheque", client: noCheckout })).toBeNull();
+  const balance = await balanceOf(lead.id);
   const cardIntent = `pi_edge_card_${balance.id}`;
-  const late = await deliverRaw(
-    JSON.stringify(
-      event("checkout.session.completed", balance, {
-        id: balance.checkoutSessionId,
-        object: "checkout.session",
-        payment_status: "paid",
-        status: "complete",
-        amount_total: balance.amountCents,
-        currency: "usd",
-        payment_intent: cardIntent,
-      }),
-    ),
-  );
+  const late = await deliverRaw(JSON.stringify(cardPayment(balance, cardIntent)));
   expect(late).toEqual({ status: 200, body: { received: true, outcome: "applied" } });
-  return { balance: await balanceOf(sent.lead.id), cardIntent };
+  return { balance: await balanceOf(lead.id), cardIntent };
 }
 
 function event(type: string, balance: JobBalance, object: Record<string, unknown>) {
@@ -146,4 +156,31 @@ test("a refund of another payment does not settle the refund owed; the refund of
   });
   expect((await deliverRaw(JSON.stringify(own))).body.outcome).toBe("applied");
   expect((await balanceOf(balance.leadId)).refundId).toBe(`re_edge_own_${balance.id}`);
+});
+
+test("a built job put on hold is picked up again as built; a balance paid by card meanwhile lets it move to paid in full", async () => {
+  const { lead, balance } = await builtJob();
+  const owner = await officeUser(lead.companyId, "owner");
+  const stage = async () => (await db.select().from(leads).where(eq(leads.id, lead.id)))[0]!;
+  expect(await changeStage(owner, lead, "on-hold", "homeowner away until spring")).toEqual({ ok: true });
+  // The homeowner pays from /my while the job is on hold: the balance is paid, the stage stays on hold.
+  expect((await deliverRaw(JSON.stringify(cardPayment(balance, `pi_edge_hold_${balance.id}`)))).body.outcome).toBe(
+    "applied",
+  );
+  expect((await balanceOf(lead.id)).paidAt).not.toBeNull();
+  expect((await stage()).status).toBe("on-hold");
+
+  expect(await changeStage(owner, await stage(), "built", "")).toEqual({ ok: true });
+  expect((await stage()).status).toBe("built");
+  // Still the one balance, as it was opened.
+  expect(await db.select().from(jobBalances).where(eq(jobBalances.leadId, lead.id))).toHaveLength(1);
+
+  expect(await changeStage(owner, await stage(), "paid-in-full", "")).toEqual({ ok: true });
+  expect((await stage()).status).toBe("paid-in-full");
+  const events = await db.select().from(leadEvents).where(eq(leadEvents.leadId, lead.id));
+  expect(events.at(-1)!.detail).toMatch(/^The balance of \$[\d,.]+ was paid already by card\. Built → Paid in full\.$/);
+  // Once there, a second "paid in full" is refused as before.
+  expect(
+    await recordBalancePaidByHand({ lead: await stage(), actorUserId: owner.id, how: "cheque", client: noCheckout }),
+  ).toBe("The balance is already paid.");
 });

@@ -476,7 +476,24 @@ export async function recordBalancePaidByHand(args: {
       .set({ paidAt: at, updatedAt: at })
       .where(and(eq(jobBalances.id, balance.id), isNull(jobBalances.paidAt)))
       .returning({ id: jobBalances.id });
-    if (!paid.length) return { error: "The balance is already paid." };
+    if (!paid.length) {
+      // Paid by card while the job was on hold: the job still moves on to "paid in full", once.
+      const settled = await tx
+        .update(leads)
+        .set({ status: "paid-in-full", updatedAt: at })
+        .where(and(eq(leads.id, args.lead.id), eq(leads.companyId, args.lead.companyId), eq(leads.status, "built")))
+        .returning({ id: leads.id });
+      if (!settled.length) return { error: "The balance is already paid." };
+      await tx.insert(leadEvents).values({
+        companyId: balance.companyId,
+        leadId: balance.leadId,
+        actorUserId: args.actorUserId,
+        kind: "status",
+        detail: `The balance of ${formatMoney(balance.amountCents)} was paid already${balance.paymentIntentId ? " by card" : ""}. ${STATUS_LABEL.built} → ${STATUS_LABEL["paid-in-full"]}.`,
+        createdAt: at,
+      });
+      return { sessionId: null };
+    }
     const moved = await tx
       .update(leads)
       .set({ status: "paid-in-full", updatedAt: at })

@@ -225,7 +225,8 @@ export async function changeStage(
     };
   }
   // Built and paid in full have their own effects (the balance falls due; the balance is settled).
-  if (to === "built") {
+  // A built job picked up again after a hold is built already: its balance stays as it was opened.
+  if (to === "built" && lead.status !== "on-hold") {
     const built = await markJobBuilt({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id });
     return built.ok ? { ok: true } : { ok: false, status: built.status, errors: { status: built.message } };
   }
