@@ -182,7 +182,14 @@ export async function action({ request }: Route.ActionArgs) {
       return redirect(await startBalanceCheckout({ balance, lead, company: companyRows[0]! }));
     } catch (error) {
       if (error instanceof BalanceCheckoutError) return data({ error: error.message }, { status: 409 });
-      throw error;
+      console.error("balance checkout could not start", (error as Error).message);
+      return data(
+        {
+          error:
+            "The payment service is not answering right now. Nothing was charged: try “Pay the balance” again in a moment.",
+        },
+        { status: 503 },
+      );
     }
   }
   const parsed = cancelSchema.safeParse(form);
