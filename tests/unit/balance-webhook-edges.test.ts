@@ -4,7 +4,8 @@
  * fulfilling or settling anything. Here: a signed body that is not an event at all, and a refund
  * of a payment other than the one the balance owes back. And a built job put on hold: picked up
  * again it is still built (its balance as opened), and a balance paid by card during the hold still
- * lets the office move it on to "paid in full".
+ * lets the office move it on to "paid in full". A change order on a built job: its balance was
+ * fixed when it was marked built, so a change order is neither sent nor signed after that.
  */
 import { and, eq } from "drizzle-orm";
 import Stripe from "stripe";
@@ -12,6 +13,8 @@ import { expect, test } from "vitest";
 import { jobBalances, leadEvents, leads, paymentEvents, proposals, users, type JobBalance } from "~/db/schema";
 import { recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
 import { changeStage } from "~/lib/leads/lead-workspace.server";
+import { getCompany } from "~/lib/catalog/catalog.server";
+import { FINISHED_JOB_MESSAGE, sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import { markJobBuilt } from "~/lib/builds/mark-built.server";
 import { db } from "~/lib/platform/db.server";
 import { env } from "~/lib/platform/env.server";
@@ -42,7 +45,7 @@ const balanceOf = async (leadId: number) =>
   (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0]!;
 
 /** A job marked built by its crew, its balance open with a checkout session (the homeowner pressed Pay). */
-async function builtJob() {
+async function builtJob(beforeBuilt: (lead: typeof leads.$inferSelect) => Promise<void> = async () => {}) {
   const sent = await sentProposal();
   const accepted = await acceptProposal({
     proposal: sent.proposal,
@@ -61,6 +64,7 @@ async function builtJob() {
     .from(users)
     .where(and(eq(users.companyId, sent.lead.companyId), eq(users.role, "crew")))
     .limit(1);
+  await beforeBuilt((await db.select().from(leads).where(eq(leads.id, sent.lead.id)))[0]!);
   expect((await markJobBuilt({ companyId: sent.lead.companyId, leadId: sent.lead.id, actorUserId: crew!.id })).ok).toBe(
     true,
   );
@@ -183,4 +187,44 @@ test("a built job put on hold is picked up again as built; a balance paid by car
   expect(
     await recordBalancePaidByHand({ lead: await stage(), actorUserId: owner.id, how: "cheque", client: noCheckout }),
   ).toBe("The balance is already paid.");
+});
+
+test("a built job takes no change order: none is sent, and one sent before it was built can no longer be signed", async () => {
+  let pending: typeof proposals.$inferSelect | null = null;
+  const { lead, balance } = await builtJob(async (signedLead) => {
+    const owner = await officeUser(signedLead.companyId, "owner");
+    const sent = await sendChangeOrder({
+      user: owner,
+      lead: signedLead,
+      company: await getCompany(signedLead.companyId),
+      deltaCents: 50_000,
+      validUntil: "2099-06-30",
+      origin: "http://localhost",
+    });
+    if (typeof sent === "string") throw new Error(sent);
+    pending = sent;
+  });
+  const owner = await officeUser(lead.companyId, "owner");
+  const company = await getCompany(lead.companyId);
+  const again = await sendChangeOrder({
+    user: owner,
+    lead,
+    company,
+    deltaCents: 20_000,
+    validUntil: "2099-06-30",
+    origin: "http://localhost",
+  });
+  expect(again).toBe(FINISHED_JOB_MESSAGE);
+
+  const change = pending!;
+  const signing = await acceptProposal({
+    proposal: change,
+    lead,
+    document: parseProposalDocument(change.documentJson),
+    input: { name: lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys: [] },
+  });
+  expect(signing).toMatchObject({ ok: false, status: 409 });
+  expect((await db.select().from(proposals).where(eq(proposals.id, change.id)))[0]!.status).toBe("sent");
+  // The balance stays what it was when the job was marked built.
+  expect((await balanceOf(lead.id)).amountCents).toBe(balance.amountCents);
 });

@@ -65,6 +65,15 @@ export function isSignedStage(stage: LeadStatus): boolean {
   return (SIGNED_STAGES as readonly LeadStatus[]).includes(stage);
 }
 
+/**
+ * A job marked built (or paid in full), also while on hold from there: its balance was fixed from the
+ * papers signed before, so it takes no more change orders.
+ */
+export function isFinishedJob(lead: { status: LeadStatus; pausedStage: LeadStatus | null }): boolean {
+  const stage = lead.status === "on-hold" ? lead.pausedStage : lead.status;
+  return stage === "built" || stage === "paid-in-full";
+}
+
 /** Where a job stands on the line of steps: a stopped job shows the step it stopped at. */
 export function stepOf(stage: LeadStatus, pausedStage: LeadStatus | null): JobStep {
   if (stage === "on-hold" || stage === "not-going-ahead") {

@@ -22,6 +22,10 @@ import { findSiteVisit } from "~/lib/leads/site-visit.server";
 import { SPOIL_LABEL } from "~/lib/leads/site-visit-schema";
 import { createToken } from "~/lib/auth/tokens.server";
 import { formatZonedDate } from "~/lib/format/zoned-time";
+import { isFinishedJob } from "~/lib/leads/lead-status";
+
+export const FINISHED_JOB_MESSAGE =
+  "This job is marked built: its balance was worked out from the papers signed before, so it takes no more change orders.";
 
 /*
  * After signing, a staff revision of the design becomes a change order: the difference in scope and
@@ -149,6 +153,7 @@ export async function sendChangeOrder(args: {
 }): Promise<Proposal | string> {
   const { user, lead, company, origin } = args;
   const now = args.now ?? new Date();
+  if (isFinishedJob(lead)) return FINISHED_JOB_MESSAGE;
   const draft = await draftChangeOrder(lead, company, now);
   if (!draft) return "This job has no signed proposal to change.";
   if (draft.added.length === 0 && draft.removed.length === 0 && args.deltaCents === 0)

@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { and, eq, inArray } from "drizzle-orm";
+import { and, eq, inArray, notExists } from "drizzle-orm";
 import {
   companies,
   emailOutbox,
@@ -13,7 +13,7 @@ import {
 import { ProposalSignedEmail } from "~/emails/proposal-emails";
 import { db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
-import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { isFinishedJob, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoney } from "~/lib/format/money";
 import type { ProposalDocument } from "~/lib/proposals/proposal-document";
 import { proposalFigures, renderProposalPdf, type SignatureFacts } from "~/lib/proposals/proposal-pdf.server";
@@ -63,6 +63,19 @@ export async function acceptProposal(args: {
           : `This ${document.kind === "change-order" ? "change order" : "proposal"} can no longer be signed.`,
     };
   }
+  const isChange = document.kind === "change-order";
+  // A change order cannot move a balance already fixed: refused once the job is marked built.
+  const [current] = await db
+    .select({ status: leads.status, pausedStage: leads.pausedStage })
+    .from(leads)
+    .where(eq(leads.id, lead.id));
+  if (isChange && current && isFinishedJob(current))
+    return {
+      ok: false,
+      status: 409,
+      message:
+        "The job is built and its balance is set, so this change order can no longer be signed: ask the contractor.",
+    };
   let figures: ReturnType<typeof proposalFigures>;
   try {
     figures = proposalFigures(document, input.chosenKeys);
@@ -86,7 +99,6 @@ export async function acceptProposal(args: {
   };
   const signedPdf = await renderProposalPdf(document, { chosenKeys, createdAt: proposal.sentAt, signature });
 
-  const isChange = document.kind === "change-order";
   const totalCents = isChange ? document.change!.previousContractCents + document.change!.deltaCents : figures.total;
   const deposit = isChange ? 0 : figures.deposit;
   const signsNow = deposit === 0;
@@ -143,7 +155,21 @@ export async function acceptProposal(args: {
         ...(signsNow && !isChange ? { depositPaidAt: at } : {}),
         updatedAt: at,
       })
-      .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "sent")))
+      .where(
+        and(
+          eq(proposals.id, proposal.id),
+          eq(proposals.status, "sent"),
+          // Checked again in the write itself: the job may be marked built while the PDFs render.
+          isChange
+            ? notExists(
+                db
+                  .select({ id: leads.id })
+                  .from(leads)
+                  .where(and(eq(leads.id, lead.id), inArray(leads.status, ["built", "paid-in-full"]))),
+              )
+            : undefined,
+        ),
+      )
       .returning(),
     db.insert(leadEvents).values({
       companyId: lead.companyId,
