@@ -24,12 +24,17 @@ async function attachmentOf(key: string) {
   return { row: row!, ics: Buffer.from(file!.content, "base64").toString() };
 }
 
-/** A paid, confirmed consult on a fresh company's first free time (nothing else competes for its slots). */
+/**
+ * A paid, confirmed consult on a fresh company's free times (nothing else competes for its slots),
+ * counted from the first more than a day away: a consult can be moved up to a day before, whatever
+ * the hour the suite runs.
+ */
 async function paidConsult(company?: Company, slotIndex = 0) {
   company ??= (await createCompanyWithStaff("Flintrow Masonry")).company;
   const { id } = await createTestLead(company);
   const [lead] = await db.select().from(leads).where(eq(leads.id, id));
-  const slot = (await listCompanySlots(company))[slotIndex]!;
+  const dayAway = new Date(Date.now() + 26 * 3_600_000).toISOString();
+  const slot = (await listCompanySlots(company)).filter((s) => s.startsAt > dayAway)[slotIndex]!;
   const held = await holdSlot({ company, lead: lead!, startsAt: slot.startsAt, customerTimeZone: "America/New_York" });
   await db
     .update(bookings)
