@@ -136,106 +136,125 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
       : [];
   const at = now.toISOString();
 
-  return writeTransaction(async (tx) => {
-    const recorded = await tx
-      .insert(paymentEvents)
-      .values({ id: event.id, type: event.type, bookingId: null })
-      .onConflictDoNothing()
-      .returning({ id: paymentEvents.id });
-    if (recorded.length === 0) return "duplicate";
-    if (!context) return "ignored";
-    const [proposal] = await tx.select().from(proposals).where(eq(proposals.id, context.proposal.id));
-    if (!proposal) return "ignored";
-    const document = parseProposalDocument(proposal.documentJson);
+  // A mismatched event is rolled back whole, so it is not recorded as applied (and a correct one with
+  // the same id could still be applied).
+  try {
+    return await writeTransaction(async (tx): Promise<DepositOutcome> => {
+      const recorded = await tx
+        .insert(paymentEvents)
+        .values({ id: event.id, type: event.type, bookingId: null })
+        .onConflictDoNothing()
+        .returning({ id: paymentEvents.id });
+      if (recorded.length === 0) return "duplicate";
+      if (!context) return "ignored";
+      const [proposal] = await tx.select().from(proposals).where(eq(proposals.id, context.proposal.id));
+      if (!proposal) return "ignored";
+      const document = parseProposalDocument(proposal.documentJson);
 
-    if (event.type === "checkout.session.completed") {
-      const session = event.data.object;
-      if (session.payment_status !== "paid") return "ignored";
-      if (
-        session.id !== proposal.checkoutSessionId ||
-        session.amount_total !== proposal.depositCents ||
-        session.currency !== "usd"
-      ) {
-        console.error(
-          `deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`,
-        );
-        return "mismatch";
+      if (event.type === "checkout.session.completed") {
+        const session = event.data.object;
+        if (session.payment_status !== "paid") return "ignored";
+        if (
+          session.id !== proposal.checkoutSessionId ||
+          session.amount_total !== proposal.depositCents ||
+          session.currency !== "usd"
+        ) {
+          console.error(
+            `deposit event ${event.id} does not match proposal ${proposal.id} (session, amount or currency); not applied`,
+          );
+          throw new DepositMismatch();
+        }
+        const paymentIntentId =
+          typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+        if (proposal.status === "accepted") {
+          await tx
+            .update(proposals)
+            .set({ status: "signed", paymentIntentId, depositPaidAt: at, updatedAt: at })
+            .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
+          const moved = await tx
+            .update(leads)
+            .set({ status: "signed", stopReason: null, pausedStage: null, updatedAt: at })
+            .where(
+              and(
+                eq(leads.id, proposal.leadId),
+                inArray(leads.status, [
+                  "request",
+                  "called-back",
+                  "consult-booked",
+                  "measured",
+                  "proposal-out",
+                  "on-hold",
+                ]),
+              ),
+            )
+            .returning({ id: leads.id });
+          await tx.insert(leadEvents).values({
+            companyId: proposal.companyId,
+            leadId: proposal.leadId,
+            kind: "deposit-paid",
+            detail: `Deposit of ${formatMoney(proposal.depositCents!)} paid on ${document.number}.${moved.length ? ` ${STATUS_LABEL["proposal-out"]} → ${STATUS_LABEL.signed}.` : ""}`,
+            createdAt: at,
+          });
+          if (paidMails.length) await tx.insert(emailOutbox).values(paidMails).onConflictDoNothing();
+          return "applied";
+        }
+        if (proposal.status === "expired" || proposal.status === "withdrawn") {
+          // Paid for a proposal no longer open: the money goes back, and the timeline says why.
+          await tx
+            .update(proposals)
+            .set({
+              paymentIntentId,
+              refundOwedAt: at,
+              refundReason: `The deposit arrived after the proposal was ${proposal.status}.`,
+              updatedAt: at,
+            })
+            .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt)));
+          await tx.insert(leadEvents).values({
+            companyId: proposal.companyId,
+            leadId: proposal.leadId,
+            kind: "deposit-refund",
+            detail: `A deposit arrived after ${document.number} was ${proposal.status}; it is being refunded.`,
+            createdAt: at,
+          });
+          return "applied";
+        }
+        return "ignored";
       }
-      const paymentIntentId =
-        typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
-      if (proposal.status === "accepted") {
-        await tx
-          .update(proposals)
-          .set({ status: "signed", paymentIntentId, depositPaidAt: at, updatedAt: at })
-          .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
-        const moved = await tx
-          .update(leads)
-          .set({ status: "signed", stopReason: null, pausedStage: null, updatedAt: at })
-          .where(
-            and(
-              eq(leads.id, proposal.leadId),
-              inArray(leads.status, [
-                "request",
-                "called-back",
-                "consult-booked",
-                "measured",
-                "proposal-out",
-                "on-hold",
-              ]),
-            ),
-          )
-          .returning({ id: leads.id });
-        await tx.insert(leadEvents).values({
-          companyId: proposal.companyId,
-          leadId: proposal.leadId,
-          kind: "deposit-paid",
-          detail: `Deposit of ${formatMoney(proposal.depositCents!)} paid on ${document.number}.${moved.length ? ` ${STATUS_LABEL["proposal-out"]} → ${STATUS_LABEL.signed}.` : ""}`,
-          createdAt: at,
-        });
-        if (paidMails.length) await tx.insert(emailOutbox).values(paidMails).onConflictDoNothing();
+      if (event.type === "checkout.session.expired") {
+        // Forward only: an expired session leaves an accepted proposal accepted; the homeowner can pay again.
         return "applied";
       }
-      if (proposal.status === "expired" || proposal.status === "withdrawn") {
-        // Paid for a proposal no longer open: the money goes back, and the timeline says why.
+      if (event.type === "charge.refunded") {
+        const charge = event.data.object;
+        const refundedIntent =
+          typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
+        // Only the refund of the deposit's own payment, owed back, settles it: a refund of some other
+        // payment must not mark the deposit as given back.
+        if (!proposal.refundOwedAt || !refundedIntent || refundedIntent !== proposal.paymentIntentId) {
+          console.warn(
+            `deposit event ${event.id} refunds a payment proposal ${proposal.id} does not owe back; not applied`,
+          );
+          throw new DepositMismatch();
+        }
         await tx
           .update(proposals)
           .set({
-            paymentIntentId,
-            refundOwedAt: at,
-            refundReason: `The deposit arrived after the proposal was ${proposal.status}.`,
+            refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded",
+            refundedAt: proposal.refundedAt ?? at,
             updatedAt: at,
           })
-          .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt)));
-        await tx.insert(leadEvents).values({
-          companyId: proposal.companyId,
-          leadId: proposal.leadId,
-          kind: "deposit-refund",
-          detail: `A deposit arrived after ${document.number} was ${proposal.status}; it is being refunded.`,
-          createdAt: at,
-        });
+          .where(eq(proposals.id, proposal.id));
         return "applied";
       }
       return "ignored";
-    }
-    if (event.type === "checkout.session.expired") {
-      // Forward only: an expired session leaves an accepted proposal accepted; the homeowner can pay again.
-      return "applied";
-    }
-    if (event.type === "charge.refunded") {
-      const charge = event.data.object;
-      await tx
-        .update(proposals)
-        .set({
-          refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded",
-          refundedAt: proposal.refundedAt ?? at,
-          updatedAt: at,
-        })
-        .where(eq(proposals.id, proposal.id));
-      return "applied";
-    }
-    return "ignored";
-  });
+    });
+  } catch (error) {
+    if (error instanceof DepositMismatch) return "mismatch";
+    throw error;
+  }
 }
+
+class DepositMismatch extends Error {}
 
 async function depositPaidEmails(proposal: Proposal, lead: Lead, company: Company) {
   const document = parseProposalDocument(proposal.documentJson);
