@@ -22,7 +22,7 @@ const NAV_BY_ROLE = [
     email: "owner@cinder-slate.test",
     role: "Owner",
     home: /\/app\/inbox$/,
-    links: ["Inbox", "Schedule", "Orders", "Catalog", "Team", "Company settings"],
+    links: ["Inbox", "Schedule", "Orders", "Reports", "Catalog", "Team", "Company settings"],
   },
   {
     email: "estimator@cinder-slate.test",
