@@ -68,7 +68,8 @@ function filterConditions(companyId: number, timeZone: string, filters: InboxFil
     const pattern = `%${escapeLike(filters.q)}%`;
     const like = (column: SQLWrapper) => sql`${column} LIKE ${pattern} ESCAPE '\\'`;
     const matches = [like(leads.customerName), like(leads.email), like(leads.phone), like(leads.town)];
-    // "2175550101" should find "+12175550101" (shown as "(217) 555-0101"): compare digits only when the search looks like a phone number.
+    // "2175550101" should find "+12175550101" (shown as "(217) 555-0101"): compare digits only when the
+    // search looks like a phone number.
     const digits = filters.q.replace(/\D/g, "");
     if (digits.length >= 3 && /^[\d\s()+.-]+$/.test(filters.q)) {
       matches.push(
