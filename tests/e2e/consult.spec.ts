@@ -64,7 +64,9 @@ test("a homeowner books a consult: the declined card leaves the slot free, the g
   const staffPage = await staff.newPage();
   await signIn(staffPage, "estimator@cinder-slate.test");
   await staffPage.goto("/app/schedule");
-  await expect(staffPage.getByRole("link", { name: "Juno Marsh" })).toBeVisible();
+  // Named in the calendar grid and in the list of consults below it.
+  await expect(staffPage.getByRole("link", { name: "Juno Marsh", exact: true }).first()).toBeVisible();
+  await expect(staffPage.getByRole("link", { name: /consult: Juno Marsh$/ }).first()).toBeVisible();
   await screenshotBothWidths(staffPage, "schedule");
   const refundsBefore = ((await (await fetch(`${PAYMENTS_FAKE}/_fake/refunds`)).json()) as { data: unknown[] }).data
     .length;
