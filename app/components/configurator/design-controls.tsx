@@ -1,4 +1,4 @@
-import { useId, useLayoutEffect, useRef, useState, type ReactNode } from "react";
+import { useId, useState, type ReactNode } from "react";
 import { MAX_COURSES } from "~/domain/ring";
 import { formatLength, type LengthUnit } from "~/domain/units";
 import {
@@ -528,25 +528,9 @@ function DistanceInput({
   const metric = unit === "mm";
   const shown = feet === null ? "" : metric ? String(Math.round(feet * FT_TO_M * 10) / 10) : String(feet);
   const max = metric ? Math.floor(MAX_DISTANCE_FT * FT_TO_M) : MAX_DISTANCE_FT;
-  const inputRef = useRef<HTMLInputElement>(null);
-  const takeTyped = (value: string) => {
-    if (value === "") return onFeet(null);
-    const typed = Number(value);
-    if (!Number.isFinite(typed)) return;
-    const inFeet = metric ? typed / FT_TO_M : typed;
-    onFeet(Math.max(0, Math.min(MAX_DISTANCE_FT, Math.round(inFeet * 10) / 10)));
-  };
-  // A distance typed while the page was shown but not yet interactive is in the field but not in the
-  // design: take it in once, as the page becomes interactive, before the design's value replaces it.
-  useLayoutEffect(() => {
-    const typed = inputRef.current?.value;
-    if (typed !== undefined && typed !== shown) takeTyped(typed);
-    // eslint-disable-next-line react-hooks/exhaustive-deps -- once, when the field first runs in the browser
-  }, []);
   return (
     <>
       <input
-        ref={inputRef}
         id={id}
         aria-describedby={describedBy}
         aria-invalid={invalid || undefined}
@@ -558,7 +542,13 @@ function DistanceInput({
         inputMode="decimal"
         value={shown}
         placeholder={metric ? `e.g. ${Math.round(Number(example.replace(/\D/g, "")) * FT_TO_M)}` : example}
-        onChange={(e) => takeTyped(e.target.value)}
+        onChange={(e) => {
+          if (e.target.value === "") return onFeet(null);
+          const typed = Number(e.target.value);
+          if (!Number.isFinite(typed)) return;
+          const inFeet = metric ? typed / FT_TO_M : typed;
+          onFeet(Math.max(0, Math.min(MAX_DISTANCE_FT, Math.round(inFeet * 10) / 10)));
+        }}
         className="field-input mt-0 pr-10"
       />
       {/* The form posts feet whatever the reader typed in. */}
