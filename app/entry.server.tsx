@@ -13,7 +13,7 @@ import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.serv
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
-import { lowPriorityModulePreloads } from "~/lib/platform/module-preload-priority.server";
+import { scriptsAfterFirstPaint } from "~/lib/platform/scripts-after-paint.server";
 import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
 
 import stylesheetHref from "./app.css?url";
@@ -94,7 +94,7 @@ export default function handleRequest(
         nonce,
         [readyOption]() {
           shellRendered = true;
-          const body = lowPriorityModulePreloads(() => {
+          const body = scriptsAfterFirstPaint(() => {
             clearTimeout(timeoutId);
             timeoutId = undefined;
           });

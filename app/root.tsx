@@ -1,5 +1,7 @@
+import { useEffect } from "react";
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
+import { EARLY_INPUT_RECORDER, replayEarlyInput } from "~/components/early-input";
 import { ProblemPage } from "~/components/problem-page";
 import { INLINE_STYLES_ID, useInlineStyles } from "~/components/inline-styles";
 import { useNonce } from "~/components/nonce";
@@ -33,6 +35,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="min-h-dvh">
+        {/* First in the body: notes what the visitor does before the page's code runs (early-input.tsx). */}
+        <script nonce={nonce} dangerouslySetInnerHTML={{ __html: EARLY_INPUT_RECORDER }} />
         {children}
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />
@@ -42,6 +46,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
 }
 
 export default function App() {
+  // Runs once, after every route below has hydrated and attached its handlers.
+  useEffect(() => void replayEarlyInput(), []);
   return <Outlet />;
 }
 
