@@ -31,9 +31,11 @@ test("choices made before the configurator is interactive are all kept: a select
   const priceBefore = await page.getByTestId("price-range").textContent();
 
   const cap = page.getByLabel("Cap stone");
-  const capOptions = await cap.locator("option").evaluateAll((options) =>
-    options.map((o) => ({ value: (o as HTMLOptionElement).value, label: o.textContent ?? "" })),
-  );
+  const capOptions = await cap
+    .locator("option")
+    .evaluateAll((options) =>
+      options.map((o) => ({ value: (o as HTMLOptionElement).value, label: o.textContent ?? "" })),
+    );
   const otherCap = capOptions.find((o) => o.value !== "none" && o.value !== "") ?? capOptions[0]!;
   const capBefore = await cap.inputValue();
   const chosenCap = capOptions.find((o) => o.value !== capBefore && o.value !== "none") ?? otherCap;

@@ -36,7 +36,10 @@ describe("formatNumber (checked against Intl.NumberFormat en-US)", () => {
       [0.1 + 0.2, 2, 2],
       [1e20, 0, 0],
     ];
-    for (const [value, min, max] of cases) expect(formatNumber(value, { minFractionDigits: min, maxFractionDigits: max }), `${value}`).toBe(intl(value, min, max));
+    for (const [value, min, max] of cases)
+      expect(formatNumber(value, { minFractionDigits: min, maxFractionDigits: max }), `${value}`).toBe(
+        intl(value, min, max),
+      );
   });
 
   it("agrees with Intl for any finite number below 1e15 and 0–3 fraction digits", () => {
