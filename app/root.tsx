@@ -7,12 +7,13 @@ import { INLINE_STYLES_ID, useInlineStyles } from "~/components/inline-styles";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
 import stylesheet from "./app.css?url";
+import fontsStylesheet from "./fonts.css?url";
 
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
-// Nunito is not preloaded: its faces use font-display: swap with a metric-matched fallback (app.css),
-// so the first paint never waits for them, and fetched by the first layout they mostly arrive after
-// it rather than competing with the document for a slow connection.
+// Nunito's faces (fonts.css) are added by the page's start script once the first paint is done
+// (entry.server.tsx); the first paint is set in the metric-matched fallback (app.css) and the swap
+// moves nothing. Without JavaScript the <noscript> link below loads them.
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
@@ -31,6 +32,9 @@ export function Layout({ children }: { children: React.ReactNode }) {
         ) : (
           <style id={INLINE_STYLES_ID} dangerouslySetInnerHTML={{ __html: inlineStyles }} />
         )}
+        <noscript>
+          <link rel="stylesheet" href={fontsStylesheet} />
+        </noscript>
         <Meta />
         <Links />
       </head>

@@ -183,7 +183,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
           <div className="flex min-w-0 flex-col gap-6">
             <Form
               method="get"
-              className="card p-5"
+              className="card p-5 render-when-near"
               aria-label="Design choices"
               onSubmit={(e) => isHydrated && e.preventDefault()}
             >
@@ -223,7 +223,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
 /** The design in short, a part of its own so React can pause between it and the rest while hydrating. */
 function DesignSummary({ plan, design, catalog }: { plan: PublicPlan; design: Design; catalog: CatalogChoice[] }) {
   return (
-    <section aria-label="What you will get" className="card p-5 text-sm">
+    <section aria-label="What you will get" className="card p-5 text-sm render-when-near">
       <h2 className="text-lg font-extrabold">Your design in short</h2>
       <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1">
         {summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit).map((line) => (

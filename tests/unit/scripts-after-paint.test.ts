@@ -17,10 +17,10 @@ const HTML =
   `<script nonce="n+/=" type="module" async="">${MODULE_CODE}</script>` +
   '<script nonce="n+/=">window.__later = 1;</script></body></html>';
 
-async function through(chunks: Buffer[]): Promise<string> {
+async function through(chunks: Buffer[], stylesheets?: string[]): Promise<string> {
   let finals = 0;
   const out: Buffer[] = [];
-  const stream = Readable.from(chunks).pipe(scriptsAfterFirstPaint(() => finals++));
+  const stream = Readable.from(chunks).pipe(scriptsAfterFirstPaint(() => finals++, { stylesheets }));
   for await (const chunk of stream) out.push(chunk as Buffer);
   expect(finals).toBe(1);
   return Buffer.concat(out).toString("utf8");
@@ -33,7 +33,7 @@ type Added = { tag: string; rel?: string; href?: string; type?: string; nonce?: 
  * callbacks it left waiting (timers, animation frames, a paint observer).
  */
 function runStartScript(html: string, browser: { visible: boolean; paintTiming: boolean; painted?: boolean }) {
-  const script = /<script nonce="n\+\/=">(\(function\(p,c,n\)[\s\S]*?)<\/script>/.exec(html)?.[1];
+  const script = /<script nonce="n\+\/=">(\(function\(p,c,n,q\)[\s\S]*?)<\/script>/.exec(html)?.[1];
   expect(script).toBeDefined();
   const added: Added[] = [];
   const timers: { fn: () => void; ms: number }[] = [];
@@ -76,7 +76,7 @@ test("the head loses its module preloads; the module script becomes a start scri
   expect(result).toContain('const s = \'<link rel="modulepreload" href="/x.js">\';</script>');
   expect(result).toContain('<script nonce="n+/=">window.__later = 1;</script></body></html>');
   // The start script cannot end early: "</" inside the module's text is escaped.
-  const start = result.slice(result.indexOf("(function(p,c,n)"));
+  const start = result.slice(result.indexOf("(function(p,c,n,q)"));
   expect(start.indexOf("</script>")).toBe(start.indexOf(')</script><script nonce="n+/=">window.__later') + 1);
 });
 
@@ -104,6 +104,19 @@ test("after the first contentful paint the preloads and the module script come b
   // The fallback timer later does not add them twice.
   page.timers[0]!.fn();
   expect(page.added).toHaveLength(3);
+});
+
+test("stylesheets given to the start script (the web fonts) are added first, after the first paint too", async () => {
+  const result = await through([Buffer.from(HTML)], ["/assets/fonts-C.css"]);
+  expect(result.slice(0, result.indexOf("</head>"))).not.toContain("fonts-C.css");
+  const page = runStartScript(result, { visible: true, paintTiming: true });
+  expect(page.added).toHaveLength(0);
+  page.observers[0]!({ getEntriesByName: () => [{}] }, { disconnect: () => undefined });
+  page.timers[1]!.fn();
+  expect(page.added.slice(0, 2)).toEqual([
+    { tag: "link", rel: "stylesheet", href: "/assets/fonts-C.css" },
+    { tag: "script", type: "module", nonce: "n+/=", textContent: MODULE_CODE },
+  ]);
 });
 
 test("a hidden page starts at once; without paint timing, one frame after the start script ran", async () => {

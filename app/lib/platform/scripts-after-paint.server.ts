@@ -15,12 +15,16 @@ const SCRIPT_END = "</script>";
  * React Router's module preload links are taken out of the head, and its module script (the one
  * that imports the route modules and hydrates) becomes a small classic script with the same nonce
  * that, once the first frame is painted (a timer set in an animation frame), adds the module script
- * back and then the preload links, one per task: added all at once they made one long task (65–130 ms
- * with the CPU slowed four times, measured in Chromium's trace). A page that is not visible paints no frame and starts at once.
- * Everything else streams through untouched. `onFinal` runs when the stream ends (the caller's
- * render timeout).
+ * back and then the preload links, one per task: added all at once they made one long task
+ * (65–130 ms with the CPU slowed four times, measured in Chromium's trace). A page that is not
+ * visible paints no frame and starts at once. Everything else streams through untouched. `onFinal`
+ * runs when the stream ends (the caller's render timeout). `stylesheets` (the web fonts) are added
+ * by the start script too, first.
  */
-export function scriptsAfterFirstPaint(onFinal: () => void = () => undefined): Transform {
+export function scriptsAfterFirstPaint(
+  onFinal: () => void = () => undefined,
+  { stylesheets = [] }: { stylesheets?: string[] } = {},
+): Transform {
   const decoder = new StringDecoder("utf8");
   const preloads: string[] = [];
   let state: "head" | "body" | "module" | "rest" = "head";
@@ -69,7 +73,7 @@ export function scriptsAfterFirstPaint(onFinal: () => void = () => undefined): T
       // state === "module": the script's text runs to the first "</script>" (a script cannot contain one).
       const end = rest.indexOf(SCRIPT_END);
       if (end === -1) return ((pending = rest), out);
-      out += startAfterFirstPaint(rest.slice(0, end), preloads, nonce);
+      out += startAfterFirstPaint(rest.slice(0, end), preloads, nonce, stylesheets);
       state = "rest";
       rest = rest.slice(end + SCRIPT_END.length);
     }
@@ -107,15 +111,22 @@ const scriptString = (value: unknown) =>
 export const START_AT_THE_LATEST_MS = 2000;
 
 /**
- * The classic script that puts the module script and then the preloads back once the first contentful
+ * The classic script that adds `stylesheets` (the web fonts), then puts the module script and the
+ * preloads back once the first contentful
  * paint is done (seen through a PerformanceObserver; where the browser reports no paint timing, one
  * frame later), at the latest after START_AT_THE_LATEST_MS, and at once in a page that is not visible.
  */
-export function startAfterFirstPaint(moduleCode: string, preloads: string[], nonce: string): string {
+export function startAfterFirstPaint(
+  moduleCode: string,
+  preloads: string[],
+  nonce: string,
+  stylesheets: string[] = [],
+): string {
   const attribute = nonce ? ` nonce="${nonce}"` : "";
   return (
-    `<script${attribute}>(function(p,c,n){var d=document,w=window,O=w.PerformanceObserver,f="first-contentful-paint",done=0;` +
+    `<script${attribute}>(function(p,c,n,q){var d=document,w=window,O=w.PerformanceObserver,f="first-contentful-paint",done=0;` +
     `function s(){if(done)return;done=1;` +
+    `q.forEach(function(h){var l=d.createElement("link");l.rel="stylesheet";l.href=h;d.head.appendChild(l)});` +
     `var e=d.createElement("script");e.type="module";if(n)e.nonce=n;e.textContent=c;d.head.appendChild(e);` +
     `var i=0;(function a(){if(i>=p.length)return;var l=d.createElement("link");l.rel="modulepreload";l.href=p[i++];d.head.appendChild(l);setTimeout(a,0)})()}` +
     `if(d.visibilityState!=="visible")return s();` +
@@ -123,6 +134,6 @@ export function startAfterFirstPaint(moduleCode: string, preloads: string[], non
     `if(!O||!O.supportedEntryTypes||O.supportedEntryTypes.indexOf("paint")<0||performance.getEntriesByName(f).length)` +
     `return requestAnimationFrame(function(){setTimeout(s,0)});` +
     `new O(function(l,o){if(l.getEntriesByName(f).length){o.disconnect();setTimeout(s,0)}}).observe({type:"paint",buffered:true})})` +
-    `(${scriptString(preloads)},${scriptString(moduleCode)},${scriptString(nonce)})</script>`
+    `(${scriptString(preloads)},${scriptString(moduleCode)},${scriptString(nonce)},${scriptString(stylesheets)})</script>`
   );
 }
