@@ -13,10 +13,11 @@ import { applyBaselineHeaders, nonceContext } from "~/lib/platform/security.serv
 import "~/lib/platform/db.server";
 import "~/lib/jobs/background.server";
 import { accessLogPath } from "~/lib/platform/access-log";
-import { lowPriorityModulePreloads } from "~/lib/platform/module-preload-priority.server";
+import { scriptsAfterFirstPaint } from "~/lib/platform/scripts-after-paint.server";
 import { HEALTH_PATH, healthWithHeaders } from "~/lib/platform/health.server";
 
 import stylesheetHref from "./app.css?url";
+import fontsHref from "./fonts.css?url";
 
 export const streamTimeout = 5_000;
 
@@ -94,10 +95,14 @@ export default function handleRequest(
         nonce,
         [readyOption]() {
           shellRendered = true;
-          const body = lowPriorityModulePreloads(() => {
-            clearTimeout(timeoutId);
-            timeoutId = undefined;
-          });
+          // Nunito comes after the first paint too (app/fonts.css; root.tsx has the no-JavaScript link).
+          const body = scriptsAfterFirstPaint(
+            () => {
+              clearTimeout(timeoutId);
+              timeoutId = undefined;
+            },
+            { stylesheets: [fontsHref] },
+          );
           responseHeaders.set("Content-Type", "text/html; charset=utf-8");
           pipe(body);
           resolve(

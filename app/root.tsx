@@ -1,16 +1,19 @@
+import { useEffect } from "react";
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
+import { EARLY_INPUT_RECORDER, replayEarlyInput } from "~/components/early-input";
 import { ProblemPage } from "~/components/problem-page";
 import { INLINE_STYLES_ID, useInlineStyles } from "~/components/inline-styles";
 import { useNonce } from "~/components/nonce";
 import { securityMiddleware } from "~/lib/platform/security.server";
 import stylesheet from "./app.css?url";
+import fontsStylesheet from "./fonts.css?url";
 
 export const middleware: Route.MiddlewareFunction[] = [securityMiddleware];
 
-// Nunito is not preloaded: its faces use font-display: swap with a metric-matched fallback (app.css),
-// so the first paint never waits for them, and fetched by the first layout they mostly arrive after
-// it rather than competing with the document for a slow connection.
+// Nunito's faces (fonts.css) are added by the page's start script once the first paint is done
+// (entry.server.tsx); the first paint is set in the metric-matched fallback (app.css) and the swap
+// moves nothing. Without JavaScript the <noscript> link below loads them.
 export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
 
 export function Layout({ children }: { children: React.ReactNode }) {
@@ -29,10 +32,15 @@ export function Layout({ children }: { children: React.ReactNode }) {
         ) : (
           <style id={INLINE_STYLES_ID} dangerouslySetInnerHTML={{ __html: inlineStyles }} />
         )}
+        <noscript>
+          <link rel="stylesheet" href={fontsStylesheet} />
+        </noscript>
         <Meta />
         <Links />
       </head>
       <body className="min-h-dvh">
+        {/* First in the body: notes what the visitor does before the page's code runs (early-input.tsx). */}
+        <script nonce={nonce} dangerouslySetInnerHTML={{ __html: EARLY_INPUT_RECORDER }} />
         {children}
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />
@@ -42,6 +50,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
 }
 
 export default function App() {
+  // Runs once, after every route below has hydrated and attached its handlers.
+  useEffect(() => void replayEarlyInput(), []);
   return <Outlet />;
 }
 

@@ -1,6 +1,5 @@
-import { Component, Suspense, lazy, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
+import { Component, Suspense, lazy, startTransition, useEffect, useState, type ErrorInfo, type ReactNode } from "react";
 import { PitPlanSvg } from "~/components/pit-plan-svg";
-import { useBrowserValue } from "~/components/use-browser-value";
 import type { LengthUnit } from "~/domain/units";
 import type { PitSceneInput } from "~/domain/pit-layout";
 
@@ -124,6 +123,28 @@ function detectSupport(): Support {
 }
 
 /**
+ * What this browser can show, asked in the first idle moment after hydration rather than while
+ * rendering: creating a WebGL context to find out takes one long task on a phone, and the plan
+ * drawing the server sent stays in place until then either way.
+ */
+function useSupport(): Support {
+  const [support, setSupport] = useState<Support>(() => (hasWebGl === undefined ? "checking" : detectSupport()));
+  useEffect(() => {
+    if (support !== "checking") return;
+    const ask = () => startTransition(() => setSupport(detectSupport()));
+    if (typeof window.requestIdleCallback === "function") {
+      const id = window.requestIdleCallback(ask, { timeout: IDLE_TIMEOUT_MS });
+      return () => window.cancelIdleCallback(id);
+    }
+    const id = window.setTimeout(ask, 200);
+    return () => window.clearTimeout(id);
+    // Once, when the preview first runs in the browser.
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, []);
+  return support;
+}
+
+/**
  * The pit preview on a page: the plan on the server and until the 3D view is ready, then a 3D view with a plan toggle.
  */
 export function PitPreview({
@@ -134,7 +155,7 @@ export function PitPreview({
   frameClassName = "aspect-square sm:aspect-[4/3]",
   id,
 }: PitPreviewProps) {
-  const support = useBrowserValue<Support>(detectSupport, "checking");
+  const support = useSupport();
   const [view, setView] = useState<"3d" | "plan">("3d");
   const [hasSceneFailed, setHasSceneFailed] = useState(false);
   const [resetSignal, setResetSignal] = useState(0);

@@ -9,6 +9,7 @@
  * sides: two passes, the same cut face.
  */
 import type { CapPlan } from "~/domain/caps";
+import { formatNumber } from "~/domain/number-text";
 import type { CompanyFactors } from "~/domain/factors";
 import type { LinerPlan } from "~/domain/liner";
 import type { PatioPlan } from "~/domain/patio";
@@ -154,7 +155,7 @@ export function estimateLabour(args: {
     },
     {
       task: "carry",
-      label: `Unload and carry units, caps and brick to the pit (${Math.round(carriedLb).toLocaleString("en-US")} lb)`,
+      label: `Unload and carry units, caps and brick to the pit (${formatNumber(Math.round(carriedLb))} lb)`,
       hours: (carriedLb / 2000) * factors.carryHoursPerTon,
     },
     {

@@ -41,6 +41,9 @@ export function formatMm(lengthIn: number): string {
   return mm === 0 ? "0 mm" : `${lengthIn < 0 ? "-" : ""}${mm} mm`;
 }
 
+/** How a length may be typed (what parseLength reads), said once for every length field's hint and messages. */
+export const LENGTH_EXAMPLES = "12 1/4, 12-1/4, 49/4, 12.25 or 311 mm";
+
 /** Formats inches in the chosen unit: 1/16 in fractions or whole millimetres. */
 export function formatLength(lengthIn: number, unit: LengthUnit): string {
   return unit === "mm" ? formatMm(lengthIn) : formatInches(lengthIn);

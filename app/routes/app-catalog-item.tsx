@@ -10,8 +10,7 @@ import { createCatalogItem, findCatalogItem, updateCatalogItem } from "~/lib/cat
 import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSupplier, listSuppliers } from "~/lib/suppliers/suppliers.server";
-import { LENGTH_EXAMPLES } from "~/lib/format/form-fields";
-import { formatLengthInput } from "~/domain/units";
+import { formatLengthInput, LENGTH_EXAMPLES } from "~/domain/units";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: `${loaderData?.item ? loaderData.item.name : "New item"} · Catalog · Emberwright` },

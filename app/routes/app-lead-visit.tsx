@@ -3,7 +3,7 @@ import type { Route } from "./+types/app-lead-visit";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, SelectField, TextField } from "~/components/ui/field";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
-import { fieldErrors, LENGTH_EXAMPLES } from "~/lib/format/form-fields";
+import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSiteVisit, saveSiteVisit } from "~/lib/leads/site-visit.server";
 import { SLOPE_LABEL, SOIL_LABEL, SPOIL_LABEL, UTILITY_LABEL, siteVisitSchema } from "~/lib/leads/site-visit-schema";
@@ -15,7 +15,7 @@ import {
   readLeadForm,
   storeReceivedPhotos,
 } from "~/lib/platform/uploads.server";
-import { formatLengthInput } from "~/domain/units";
+import { formatLengthInput, LENGTH_EXAMPLES } from "~/domain/units";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Site visit: ${loaderData.customerName} · Emberwright` : "Site visit · Emberwright" },

@@ -1,4 +1,4 @@
-import { useRef } from "react";
+import { useMemo, useRef } from "react";
 import { useHydrated } from "~/components/use-browser-value";
 import { data, Form, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/configurator";
@@ -14,7 +14,7 @@ import { PublicShell } from "~/components/public-shell";
 import { formatLength } from "~/domain/units";
 import { planForDesign } from "~/lib/design/configurator.server";
 import { loadCompanyCatalog, receiveLeadRequest } from "~/lib/leads/lead-request.server";
-import { designToSearchParams, parseDesign } from "~/lib/design/design";
+import { designToSearchParams, parseDesign, type CatalogChoice, type Design } from "~/lib/design/design";
 import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan } from "~/lib/design/design-plan";
 import { publicPlan } from "~/lib/design/plan.server";
 import { speakLengths, summaryInUnit } from "~/lib/format/length-text";
@@ -73,6 +73,12 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
       ),
   });
 
+  // Kept across the re-render that follows hydration (and any that leaves the design as it was).
+  const sceneInput = useMemo(
+    () => (plan && design ? designToSceneInput(plan, design, catalog) : null),
+    [plan, design, catalog],
+  );
+
   if (!design) {
     return (
       <PublicShell>
@@ -86,7 +92,6 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
 
   const designQuery = designToSearchParams(design).toString();
   const f = (inches: number) => formatLength(inches, design.unit);
-  const sceneInput = plan ? designToSceneInput(plan, design, catalog) : null;
   // Each distance's consequence, said beside its field (the full list stays under "Safety first").
   const cautionFor = (code: string) => {
     const caution = plan?.cautions.find((c) => c.code === code);
@@ -178,7 +183,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
           <div className="flex min-w-0 flex-col gap-6">
             <Form
               method="get"
-              className="card p-5"
+              className="card p-5 render-when-near"
               aria-label="Design choices"
               onSubmit={(e) => isHydrated && e.preventDefault()}
             >
@@ -200,19 +205,7 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
 
             {plan ? <PlanCautions plan={plan} unit={design.unit} /> : null}
 
-            {plan ? (
-              <section aria-label="What you will get" className="card p-5 text-sm">
-                <h2 className="text-lg font-extrabold">Your design in short</h2>
-                <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1">
-                  {summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit).map((line) => (
-                    <div key={line.label} className="flex gap-2">
-                      <dt className="font-bold text-char-700">{line.label}:</dt>
-                      <dd>{line.value}</dd>
-                    </div>
-                  ))}
-                </dl>
-              </section>
-            ) : null}
+            {plan ? <DesignSummary plan={plan} design={design} catalog={catalog} /> : null}
 
             <RequestForm
               designQuery={designQuery}
@@ -224,5 +217,22 @@ export default function ConfiguratorRoute({ loaderData, actionData }: Route.Comp
         </div>
       </main>
     </PublicShell>
+  );
+}
+
+/** The design in short, a part of its own so React can pause between it and the rest while hydrating. */
+function DesignSummary({ plan, design, catalog }: { plan: PublicPlan; design: Design; catalog: CatalogChoice[] }) {
+  return (
+    <section aria-label="What you will get" className="card p-5 text-sm render-when-near">
+      <h2 className="text-lg font-extrabold">Your design in short</h2>
+      <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1">
+        {summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit).map((line) => (
+          <div key={line.label} className="flex gap-2">
+            <dt className="font-bold text-char-700">{line.label}:</dt>
+            <dd>{line.value}</dd>
+          </div>
+        ))}
+      </dl>
+    </section>
   );
 }

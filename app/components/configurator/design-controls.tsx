@@ -1,5 +1,6 @@
 import { useId, useState, type ReactNode } from "react";
 import { MAX_COURSES } from "~/domain/ring";
+import { formatNumber } from "~/domain/number-text";
 import { formatLength, type LengthUnit } from "~/domain/units";
 import {
   MAX_INNER_OVERHANG_IN,
@@ -51,7 +52,7 @@ const MAX_DISTANCE_FT = 500;
  */
 const patioAcross = (radiusFt: number, unit: LengthUnit) =>
   unit === "mm"
-    ? `${(Math.round(radiusFt * 2 * 0.3048 * 10) / 10).toLocaleString("en-US")} m across`
+    ? `${formatNumber(Math.round(radiusFt * 2 * 0.3048 * 10) / 10, { maxFractionDigits: 1 })} m across`
     : `${radiusFt * 2} ft across`;
 
 const sizeText = (item: CatalogChoice, unit: LengthUnit) =>

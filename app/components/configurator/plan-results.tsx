@@ -96,7 +96,7 @@ export function PlanWarnings({ plan, unit }: { plan: PublicPlan; unit: LengthUni
 export function PlanCautions({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
   const cautions = plan.cautions.filter((c) => c.audience !== "crew");
   return (
-    <div className="card p-4">
+    <div className="card p-4 render-when-near">
       <h2 className="font-extrabold">Safety first</h2>
       <ul className="mt-2 flex flex-col gap-2 text-sm text-char-700">
         {cautions.map((c) => (

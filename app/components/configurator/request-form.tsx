@@ -96,7 +96,7 @@ export function RequestForm({
     <Form
       method="post"
       encType="multipart/form-data"
-      className="flex flex-col gap-5 card p-5 sm:p-6"
+      className="flex flex-col gap-5 card p-5 render-when-near sm:p-6"
       noValidate
       id="request"
       onSubmit={send}

@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { formatLengthInput, formatMm, parseLength, type TypedLengthUnit } from "~/domain/units";
+import { formatLengthInput, formatMm, LENGTH_EXAMPLES, parseLength, type TypedLengthUnit } from "~/domain/units";
 
 /** Field name → its first message, for showing each error beside its field. */
 export function fieldErrors(error: z.ZodError, fallbackKey = "form"): Record<string, string> {
@@ -30,8 +30,8 @@ export function formNumber(label: string, min: number, max: number, unit = "") {
     .pipe(z.number().min(min, range).max(max, range));
 }
 
-/** How a length may be typed, said once for every length field's hint and messages. */
-export const LENGTH_EXAMPLES = "12 1/4, 12-1/4, 49/4, 12.25 or 311 mm";
+// Said once for every length field's hint and messages; kept beside the parser, out of this zod module.
+export { LENGTH_EXAMPLES };
 
 /**
  * A length typed into a form field: a tape reading in inches ("12 1/4", "12-1/4", "49/4", "12.25"),

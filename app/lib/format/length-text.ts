@@ -1,4 +1,5 @@
 import Fraction from "fraction.js";
+import { formatNumber } from "~/domain/number-text";
 import { formatMm, type LengthUnit } from "~/domain/units";
 
 /*
@@ -22,7 +23,7 @@ function parseQuantity(text: string): number {
 }
 
 function metres(value: number, digits = 1): string {
-  return (Math.round(value * 10 ** digits) / 10 ** digits).toLocaleString("en-US", { maximumFractionDigits: digits });
+  return formatNumber(Math.round(value * 10 ** digits) / 10 ** digits, { maxFractionDigits: digits });
 }
 
 function sayInMetric(value: number, unit: "in" | "ft", isArea: boolean): { number: string; unit: string } {

@@ -2,6 +2,7 @@ import { z } from "zod";
 import type { StoredPlan } from "~/lib/design/stored-plan";
 import type { AddOn, DepositRule } from "~/domain/proposal-money";
 import { formatInches } from "~/domain/units";
+import { formatNumber } from "~/domain/number-text";
 
 /*
  * A proposal as a document: everything the homeowner reads and signs, frozen when it is sent. The
@@ -61,7 +62,7 @@ export function parseProposalDocument(json: string): ProposalDocument {
 /** The deposit rule as a homeowner reads it. */
 export function describeDeposit(rule: DepositRule): string {
   return rule.kind === "percent"
-    ? `${(rule.basisPoints / 100).toLocaleString("en-US", { maximumFractionDigits: 2 })} % of the total`
+    ? `${formatNumber(rule.basisPoints / 100, { maxFractionDigits: 2 })} % of the total`
     : "a fixed amount";
 }
 

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { AddOn } from "~/domain/proposal-money";
+import { formatNumber } from "~/domain/number-text";
 
 /*
  * The office's proposal forms. Money is typed in dollars ("4,850" or "4850.00") and kept in integer
@@ -10,7 +11,7 @@ export const MAX_ADD_ONS = 4;
 
 /** Dollars as typed → integer cents, within a range of whole dollars. */
 export function formMoneyCents(label: string, minDollars: number, maxDollars: number) {
-  const range = `${label} must be between $${minDollars.toLocaleString("en-US")} and $${maxDollars.toLocaleString("en-US")}.`;
+  const range = `${label} must be between $${formatNumber(minDollars, { maxFractionDigits: 3 })} and $${formatNumber(maxDollars, { maxFractionDigits: 3 })}.`;
   return z
     .string({ error: `Enter the ${label.toLowerCase()}.` })
     .trim()

@@ -1,5 +1,6 @@
 import type { OrderUnit } from "~/db/enums";
 import type { OrderUnit as DomainOrderUnit } from "~/domain/supplier-order";
+import { formatNumber } from "~/domain/number-text";
 
 // The schema's order units and the rounding's must be the same list.
 type Same<A, B> = [A] extends [B] ? ([B] extends [A] ? true : never) : never;
@@ -59,5 +60,5 @@ export function formatDeliveryDay(day: string): string {
 
 /** Pounds as people write them: "9,600 lb". */
 export function formatPounds(lb: number): string {
-  return `${Math.round(lb).toLocaleString("en-US")} lb`;
+  return `${formatNumber(Math.round(lb))} lb`;
 }

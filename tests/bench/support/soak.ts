@@ -50,7 +50,7 @@ export async function runSoak(
       multipartBody({
         customerName: "Soak Homeowner",
         email: `soak-${process.pid}-${++sequence}@example.test`,
-        phone: "555-010-2030",
+        phone: "(970) 555-0131",
         street: "12 Quarry Lane",
         town: "Millbrook",
         buildWindow: "this-season",

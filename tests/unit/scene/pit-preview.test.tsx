@@ -38,9 +38,10 @@ test("on the server the preview is the plan drawing with its caption: no canvas,
   expect(html).not.toContain("<canvas");
 });
 
-test("without WebGL (happy-dom has none) the plan stays, with a short note, and the 3D toggle is off", () => {
+test("without WebGL (happy-dom has none) the plan stays, with a short note, and the 3D toggle is off", async () => {
   render(preview());
-  expect(screen.getByText("3D preview unavailable on this device; showing the plan")).toBeTruthy();
+  // The browser is asked in its first idle moment, not while the page hydrates.
+  expect(await screen.findByText("3D preview unavailable on this device; showing the plan")).toBeTruthy();
   expect(screen.getByRole("img", { name: /bowl diameter 36 9\/16 in/ })).toBeTruthy();
   expect(screen.getByRole("button", { name: "3D view" }).hasAttribute("disabled")).toBe(true);
   expect(screen.getByRole("button", { name: "Plan view" }).getAttribute("aria-pressed")).toBe("true");
