@@ -13,7 +13,7 @@
  * Bodies are read whole before forwarding so that a refused connection can be retried; the limit
  * is MAX_BODY_BYTES.
  */
-import { createServer, type IncomingMessage, type Server, type ServerResponse } from "node:http";
+import { Agent, createServer, type IncomingMessage, type Server, type ServerResponse } from "node:http";
 import { Readable } from "node:stream";
 import { pathToFileURL } from "node:url";
 import { createProxyServer } from "http-proxy-3";
@@ -35,13 +35,25 @@ export type Balancer = {
 const isNotConnected = (error: NodeJS.ErrnoException) =>
   error.code === "ECONNREFUSED" || error.code === "EHOSTUNREACH" || error.code === "ENOTFOUND";
 
-export async function startBalancer(options: { targets: string[]; port: number; host?: string }): Promise<Balancer> {
+/**
+ * `keepAlive` reuses connections to the app processes, as nginx's upstream keepalive does: less CPU
+ * per request on both sides. Off by default: a reused connection to a process that was just killed
+ * fails with a reset rather than a refusal, and the balancer retries only refusals (the request may
+ * have reached the process), so the crash tests run without it; the speed bench runs with it.
+ */
+export async function startBalancer(options: {
+  targets: string[];
+  port: number;
+  host?: string;
+  keepAlive?: boolean;
+}): Promise<Balancer> {
   const host = options.host ?? "127.0.0.1";
   const targets = options.targets.map((t) => new URL(t).origin);
   const down = new Set<string>();
   const served = new Map(targets.map((t) => [t, 0]));
   let next = 0;
-  const proxy = createProxyServer({ xfwd: true, proxyTimeout: 60_000 });
+  const agent = options.keepAlive ? new Agent({ keepAlive: true, maxSockets: 256 }) : undefined;
+  const proxy = createProxyServer({ xfwd: true, proxyTimeout: 60_000, ...(agent ? { agent } : {}) });
   proxy.on("proxyRes", (proxyRes, req) => {
     const target = (req as IncomingMessage & { emberwrightTarget?: string }).emberwrightTarget;
     if (!target) return;
@@ -132,11 +144,12 @@ export async function startBalancer(options: { targets: string[]; port: number; 
       server.closeAllConnections();
       await new Promise<void>((resolve) => server.close(() => resolve()));
       proxy.close();
+      agent?.destroy();
     },
   };
 }
 
-// Run by hand: npx tsx scripts/balancer.ts --port 3000 http://127.0.0.1:3001 http://127.0.0.1:3002
+// Run by hand: npx tsx scripts/balancer.ts --port 3000 [--keep-alive] http://127.0.0.1:3001 http://127.0.0.1:3002
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
   const args = process.argv.slice(2);
   const portAt = args.indexOf("--port");
@@ -146,6 +159,6 @@ if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) 
     console.error("Usage: npx tsx scripts/balancer.ts --port 3000 http://127.0.0.1:3001 http://127.0.0.1:3002 …");
     process.exit(2);
   }
-  const balancer = await startBalancer({ targets, port });
+  const balancer = await startBalancer({ targets, port, keepAlive: args.includes("--keep-alive") });
   console.log(`Balancer on ${balancer.origin} → ${targets.join(", ")}`);
 }

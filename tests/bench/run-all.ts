@@ -467,10 +467,20 @@ async function benchCluster() {
   try {
     const second = await startBenchServer(ROOT, { joins: first });
     try {
-      const lbOne = startProcess(TSX, ["scripts/balancer.ts", "--port", String(onePort), first.origin], { cwd: ROOT });
-      const lbTwo = startProcess(TSX, ["scripts/balancer.ts", "--port", String(twoPort), first.origin, second.origin], {
-        cwd: ROOT,
-      });
+      const lbOne = startProcess(
+        TSX,
+        ["scripts/balancer.ts", "--port", String(onePort), "--keep-alive", first.origin],
+        {
+          cwd: ROOT,
+        },
+      );
+      const lbTwo = startProcess(
+        TSX,
+        ["scripts/balancer.ts", "--port", String(twoPort), "--keep-alive", first.origin, second.origin],
+        {
+          cwd: ROOT,
+        },
+      );
       try {
         await waitForHealth(`http://127.0.0.1:${onePort}`, lbOne);
         await waitForHealth(appOrigin, lbTwo);
