@@ -131,13 +131,11 @@ function useSupport(): Support {
   const [support, setSupport] = useState<Support>(() => (hasWebGl === undefined ? "checking" : detectSupport()));
   useEffect(() => {
     if (support !== "checking") return;
-    const ask = () => startTransition(() => setSupport(detectSupport()));
-    if (typeof window.requestIdleCallback === "function") {
-      const id = window.requestIdleCallback(ask, { timeout: IDLE_TIMEOUT_MS });
-      return () => window.cancelIdleCallback(id);
-    }
-    const id = window.setTimeout(ask, 200);
-    return () => window.clearTimeout(id);
+    let isCurrent = true;
+    void idle().then(() => isCurrent && startTransition(() => setSupport(detectSupport())));
+    return () => {
+      isCurrent = false;
+    };
     // Once, when the preview first runs in the browser.
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, []);
