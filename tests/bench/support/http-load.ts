@@ -76,14 +76,17 @@ export async function loadTest(target: Target, seconds: number, warmupS = 1): Pr
  * Loads compared by their ratios, run in alternating slices (a, b, c, a, b, c, …) so that a change
  * in what else the machine is doing falls on all of them alike. With `meter`, its readings (e.g.
  * CPU seconds per process) are taken around every slice and their differences summed per target.
+ * Each target first gets `warmupS` seconds of unrecorded load, so that freshly started processes
+ * are compared once their code is compiled.
  */
 export async function loadInterleaved(
   targets: Target[],
   seconds: number,
   slices = 4,
   meter?: () => Promise<Record<string, number>>,
+  warmupS = 1,
 ): Promise<(LoadResult & { metered: Record<string, number> })[]> {
-  for (const target of targets) await runSlice(target, 1, null);
+  for (const target of targets) await runSlice(target, warmupS, null);
   const tallies = targets.map(emptyTally);
   const metered = targets.map((): Record<string, number> => ({}));
   for (let i = 0; i < slices; i++) {
