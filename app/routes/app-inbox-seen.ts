@@ -2,10 +2,13 @@ import { z } from "zod";
 import type { Route } from "./+types/app-inbox-seen";
 import { requireApiUser, OFFICE_ROLES } from "~/lib/auth/staff.server";
 import { markInboxSeen } from "~/lib/leads/inbox.server";
+import { postOnly } from "~/lib/platform/post-only.server";
 
 const seenSchema = z.object({
   at: z.iso.datetime({ error: "At must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." }),
 });
+
+export const loader = postOnly("The inbox page posts here when its list is shown.");
 
 /**
  * POST /app/inbox/seen: the inbox page, once shown, records the moment its list was read, so the

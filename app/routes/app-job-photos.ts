@@ -11,6 +11,9 @@ import {
   readLeadForm,
   storeReceivedPhotos,
 } from "~/lib/platform/uploads.server";
+import { postOnly } from "~/lib/platform/post-only.server";
+
+export const loader = postOnly("The job page posts its photos here.");
 
 /*
  * Photos from the build, posted by the job page: progress photos, or the finished job's photos that

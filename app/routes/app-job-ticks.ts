@@ -3,6 +3,7 @@ import { findLeadFor, parseLeadId, requireApiUser } from "~/lib/auth/staff.serve
 import { tickSyncSchema } from "~/lib/builds/job-site-schema";
 import { applyTickChanges, jobBuildSteps } from "~/lib/builds/job-site.server";
 import { isSignedStage } from "~/lib/leads/lead-status";
+import { postOnly } from "~/lib/platform/post-only.server";
 
 /*
  * The checklist's sync: a phone posts the tick changes it kept (JSON), each with its own id and the
@@ -34,6 +35,4 @@ export async function action({ request, params }: Route.ActionArgs) {
 }
 
 /** The sync takes posts only. */
-export function loader() {
-  return Response.json({ errors: [{ path: "", message: "Post tick changes here." }] }, { status: 405 });
-}
+export const loader = postOnly("The job page posts its checklist ticks here.");

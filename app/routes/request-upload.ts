@@ -1,5 +1,6 @@
 import type { Route } from "./+types/request-upload";
 import { receiveLeadRequest } from "~/lib/leads/lead-request.server";
+import { postOnly } from "~/lib/platform/post-only.server";
 
 /*
  * The request form's upload endpoint for browsers with JavaScript: the same checks as the
@@ -8,12 +9,7 @@ import { receiveLeadRequest } from "~/lib/leads/lead-request.server";
  * refusal beside each field without a reload.
  */
 
-export function loader() {
-  return Response.json(
-    { errors: { form: "Send the request form from the contractor's page." } },
-    { status: 405, headers: { Allow: "POST" } },
-  );
-}
+export const loader = postOnly("Send the request form from the contractor's page.");
 
 export async function action({ request, params, context }: Route.ActionArgs) {
   const outcome = await receiveLeadRequest({ request, companySlug: params.companySlug, context });

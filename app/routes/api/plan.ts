@@ -2,14 +2,13 @@ import type { Route } from "./+types/plan";
 import { formatPlanErrors, planRequestSchema } from "~/lib/design/plan-schema";
 import { PlanRequestError, publicPlan, resolvePlanRequest, runPlan } from "~/lib/design/plan.server";
 import { getSessionUser } from "~/lib/auth/session.server";
+import { postOnly } from "~/lib/platform/post-only.server";
 
 const MAX_BODY_BYTES = 64 * 1024;
 
 const json = (body: unknown, status = 200) => Response.json(body, { status, headers: { "Cache-Control": "no-store" } });
 
-export function loader() {
-  return json({ errors: [{ path: "", message: "Send the design with POST as JSON." }] }, 405);
-}
+export const loader = postOnly("Send the design with POST as JSON.");
 
 // The estimating engine over HTTP: the configurator, the inbox and outside clients call this.
 export async function action({ request }: Route.ActionArgs) {

@@ -5,12 +5,11 @@ import { env } from "~/lib/platform/env.server";
 import { stripe } from "~/lib/platform/payments.server";
 import { applyDepositEvent, isDepositEvent } from "~/lib/proposals/proposal-payments.server";
 import { applyBalanceEvent, isBalanceEvent } from "~/lib/builds/job-balance.server";
+import { postOnly } from "~/lib/platform/post-only.server";
 
 const MAX_BODY_BYTES = 256 * 1024;
 
-export function loader() {
-  return Response.json({ error: "Webhooks arrive by POST." }, { status: 405 });
-}
+export const loader = postOnly("Payment notices arrive here by POST.");
 
 // The one route other machines post to: no session, no origin check. The HMAC signature over the
 // raw body is the proof; anything unsigned, stale (over 300 s) or altered answers 400 and changes nothing.
