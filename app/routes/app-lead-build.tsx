@@ -9,6 +9,7 @@ import { findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { listTeam } from "~/lib/auth/team.server";
 import {
   bookBuild,
+  BOOKING_DAYS_AHEAD,
   cancelBuild,
   describeBuildDays,
   findBookedBuild,
@@ -60,6 +61,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     suggestedDays,
     suggestedStart,
     today,
+    lastBookable: addCalendarDays(today, BOOKING_DAYS_AHEAD),
     crew: team
       .filter((m) => m.isActive && (m.role === "crew" || m.role === "owner"))
       .map((m) => ({ id: m.id, name: m.name, role: m.role })),
@@ -258,6 +260,7 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
                 name="start"
                 type="date"
                 min={loaderData.today}
+                max={loaderData.lastBookable}
                 defaultValue={build.dates[0]}
                 error={errors.start}
                 required
@@ -312,6 +315,7 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
               name="start"
               type="date"
               min={loaderData.today}
+              max={loaderData.lastBookable}
               defaultValue={loaderData.suggestedStart}
               error={errors.start}
               required

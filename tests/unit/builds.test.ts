@@ -9,6 +9,7 @@ import { beforeAll, expect, test } from "vitest";
 import { buildCrew, builds, companies, emailOutbox, leads, users, type Company } from "~/db/schema";
 import { addCalendarDays, buildDates, weekdayOf } from "~/domain/build-schedule";
 import {
+  BOOKING_DAYS_AHEAD,
   bookBuild,
   calendarFeedFor,
   cancelBuild,
@@ -18,6 +19,7 @@ import {
   revokeCalendarFeed,
   workCalendarFor,
 } from "~/lib/builds/builds.server";
+import { zonedDay } from "~/lib/format/zoned-time";
 import { db } from "~/lib/platform/db.server";
 import { action as buildAction, loader as buildLoader } from "~/routes/app-lead-build";
 import { demoCompany, routeArgs } from "./support/demo";
@@ -44,11 +46,14 @@ beforeAll(async () => {
   crewB = b!;
 });
 
-/** A working day far ahead, so these builds never meet the seed's or each other's. */
+/**
+ * A Monday half a year ahead (past the seed's builds, inside the two years a build may be booked),
+ * two weeks after the last one handed out, so these builds never meet the seed's or each other's.
+ */
 let weekOffset = 0;
 async function farMonday(): Promise<string> {
   weekOffset += 2;
-  let day = addCalendarDays("2091-01-01", weekOffset * 7);
+  let day = addCalendarDays(new Date().toISOString().slice(0, 10), 180 + weekOffset * 7);
   while (weekdayOf(day) !== 1) day = addCalendarDays(day, 1);
   return day;
 }
@@ -221,6 +226,40 @@ test("moving keeps the UID and raises SEQUENCE; two moves at once: one wins, the
   expect(newReminder!.status).toBe("pending");
 });
 
+test("a first build day before today or more than two years ahead is refused, booking or moving, and nothing changes", async () => {
+  // Common practice, no source: nobody books a build for a day gone by, and a date years out is a typo.
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const today = zonedDay(new Date(), company.timeZone);
+  const book = (start: string) =>
+    bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true }, ORIGIN);
+  const yesterday = await book(addCalendarDays(today, -1));
+  expect(yesterday).toMatchObject({ ok: false, status: 400, errors: { start: /today or a later day/ } });
+  const tooFar = await book(addCalendarDays(today, BOOKING_DAYS_AHEAD + 1));
+  expect(tooFar).toMatchObject({ ok: false, status: 400, errors: { start: /within two years/ } });
+  expect(await db.select().from(builds).where(eq(builds.leadId, lead.id))).toEqual([]);
+  // The last day inside the window is taken (the window's edge, not one day short of it).
+  const edge = await book(addCalendarDays(today, BOOKING_DAYS_AHEAD));
+  if (!edge.ok) throw new Error(JSON.stringify(edge));
+  const move = (start: string) =>
+    moveBuild(
+      owner,
+      lead,
+      company,
+      { buildId: edge.build.id, sequence: 0, start, days: null, crewUserIds: null, allowClash: true },
+      ORIGIN,
+    );
+  expect(await move(addCalendarDays(today, -3))).toMatchObject({ ok: false, status: 400 });
+  expect(await move(addCalendarDays(today, BOOKING_DAYS_AHEAD + 30))).toMatchObject({ ok: false, status: 400 });
+  const [row] = await db.select().from(builds).where(eq(builds.id, edge.build.id));
+  expect([row!.sequence, row!.firstDay >= addCalendarDays(today, BOOKING_DAYS_AHEAD)]).toEqual([0, true]);
+  // Today itself is allowed.
+  const moved = await move(today);
+  expect(
+    moved.ok || ("status" in moved && moved.status === 400 && /working day/.test(String(moved.errors.start))),
+  ).toBe(true);
+});
+
 test("cancelling sends METHOD:CANCEL under the same UID, withdraws the reminder and puts the job back to signed", async () => {
   const owner = await officeUser(company.id, "owner");
   const lead = await signedJob();
@@ -332,14 +371,15 @@ test("the build page: owners only, 404 for another company's job, and bad input 
   };
   const badDay = (await post({
     intent: "book",
-    start: "2091-02-30",
+    start: "2027-02-30",
     days: "",
     crewUserIds: String(crewA.id),
     notes: "",
   })) as { init: { status: number }; data: { errors: Record<string, string> } };
   expect(badDay.init.status).toBe(400);
   expect(badDay.data.errors.start).toMatch(/first build day/);
-  const noCrew = (await post({ intent: "book", start: "2091-03-05", days: "2", notes: "" })) as {
+  const inRange = await farMonday();
+  const noCrew = (await post({ intent: "book", start: inRange, days: "2", notes: "" })) as {
     init: { status: number };
     data: { errors: Record<string, string> };
   };
@@ -347,7 +387,7 @@ test("the build page: owners only, 404 for another company's job, and bad input 
   expect(noCrew.data.errors.crewUserIds).toMatch(/crew member/);
   const tooLong = (await post({
     intent: "book",
-    start: "2091-03-05",
+    start: inRange,
     days: "31",
     crewUserIds: String(crewA.id),
     notes: "",
@@ -360,7 +400,7 @@ test("the build page: owners only, 404 for another company's job, and bad input 
     .returning();
   const foreign = (await post({
     intent: "book",
-    start: "2091-03-05",
+    start: inRange,
     days: "1",
     crewUserIds: String(otherCrew!.id),
     notes: "",

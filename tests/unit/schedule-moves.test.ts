@@ -39,10 +39,13 @@ beforeAll(async () => {
 });
 
 let weekOffset = 0;
-/** A Monday far ahead, two weeks after the last one handed out, so no two tests' builds meet. */
+/**
+ * A Monday half a year ahead (inside the two years a build may be booked), two weeks after the last
+ * one handed out, so no two tests' builds meet.
+ */
 function farMonday(): string {
   weekOffset += 2;
-  let day = addCalendarDays("2091-06-01", weekOffset * 7);
+  let day = addCalendarDays(new Date().toISOString().slice(0, 10), 180 + weekOffset * 7);
   while (weekdayOf(day) !== 1) day = addCalendarDays(day, 1);
   return day;
 }
@@ -176,7 +179,7 @@ describe("dropping a build on another day", () => {
     const past = await drop(ownerCookie, { buildId: String(build.id), sequence: "0", start: "2020-03-02" });
     expect(statusOf(past)).toBe(400);
     expect(past.data.move!.message).toMatch(/today or a later day/);
-    const notADate = await drop(ownerCookie, { buildId: String(build.id), sequence: "0", start: "2091-02-29" });
+    const notADate = await drop(ownerCookie, { buildId: String(build.id), sequence: "0", start: "2027-02-29" });
     expect(statusOf(notADate)).toBe(400);
     expect(notADate.data.move!.message).toMatch(/must be a date/);
     const noSequence = await drop(ownerCookie, { buildId: String(build.id), start: addCalendarDays(monday, 1) });

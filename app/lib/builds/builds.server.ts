@@ -19,6 +19,7 @@ import {
   addCalendarDays,
   buildDates,
   buildDaysNeeded,
+  daysBetween,
   findClashes,
   isCalendarDate,
   type CalendarDate,
@@ -328,6 +329,9 @@ type BookInput = {
   allowClash: boolean;
 };
 
+/** How far ahead a build can be booked: a date years out is a typo (2062 for 2026), not a plan. */
+export const BOOKING_DAYS_AHEAD = 730;
+
 /** Works out the days and checks the crew; shared by booking and moving. */
 async function prepareDays(
   company: Company,
@@ -335,6 +339,20 @@ async function prepareDays(
   input: Omit<BookInput, "notes">,
   labourHours: number,
 ): Promise<BuildFailure | { ok: true; dates: CalendarDate[]; crew: { id: number; name: string; email: string }[] }> {
+  const today = zonedDay(new Date(), company.timeZone);
+  const ahead = daysBetween(today, input.start);
+  if (ahead < 0 || ahead > BOOKING_DAYS_AHEAD) {
+    return {
+      ok: false as const,
+      status: 400 as const,
+      errors: {
+        start:
+          ahead < 0
+            ? "Choose today or a later day as the first build day."
+            : `Choose a first build day within two years, by ${describeBuildDays([addCalendarDays(today, BOOKING_DAYS_AHEAD)])}.`,
+      },
+    };
+  }
   const calendar = await workCalendarFor(company);
   const crew = await activeCrew(company.id, input.crewUserIds);
   if (input.crewUserIds.length === 0 || crew.length !== new Set(input.crewUserIds).size) {
