@@ -15,7 +15,7 @@ import { recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
 import { changeStage } from "~/lib/leads/lead-workspace.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { FINISHED_JOB_MESSAGE, sendChangeOrder } from "~/lib/proposals/change-orders.server";
-import { markJobBuilt } from "~/lib/builds/mark-built.server";
+import { markJobBuilt, OPEN_CHANGE_ORDER_REASON } from "~/lib/builds/mark-built.server";
 import { db } from "~/lib/platform/db.server";
 import { env } from "~/lib/platform/env.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
@@ -189,7 +189,7 @@ test("a built job put on hold is picked up again as built; a balance paid by car
   ).toBe("The balance is already paid.");
 });
 
-test("a built job takes no change order: none is sent, and one sent before it was built can no longer be signed", async () => {
+test("a built job takes no change order: none is sent, and one sent before it was built is withdrawn and can no longer be signed", async () => {
   let pending: typeof proposals.$inferSelect | null = null;
   const { lead, balance } = await builtJob(async (signedLead) => {
     const owner = await officeUser(signedLead.companyId, "owner");
@@ -224,7 +224,23 @@ test("a built job takes no change order: none is sent, and one sent before it wa
     input: { name: lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys: [] },
   });
   expect(signing).toMatchObject({ ok: false, status: 409 });
-  expect((await db.select().from(proposals).where(eq(proposals.id, change.id)))[0]!.status).toBe("sent");
+  // Marking it built withdrew it, with the reason on the homeowner's page and a line on the timeline.
+  const [stored] = await db.select().from(proposals).where(eq(proposals.id, change.id));
+  expect([stored!.status, stored!.withdrawReason]).toEqual(["withdrawn", OPEN_CHANGE_ORDER_REASON]);
+  const withdrawnEvents = await db
+    .select()
+    .from(leadEvents)
+    .where(and(eq(leadEvents.leadId, lead.id), eq(leadEvents.kind, "change-order-withdrawn")));
+  expect(withdrawnEvents.map((e) => e.detail)).toEqual([
+    `${parseProposalDocument(change.documentJson).number} withdrawn unsigned: ${OPEN_CHANGE_ORDER_REASON}`,
+  ]);
+  const signingStored = await acceptProposal({
+    proposal: stored!,
+    lead,
+    document: parseProposalDocument(stored!.documentJson),
+    input: { name: lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys: [] },
+  });
+  expect(signingStored).toMatchObject({ ok: false, status: 409, message: /can no longer be signed/ });
   // The balance stays what it was when the job was marked built.
   expect((await balanceOf(lead.id)).amountCents).toBe(balance.amountCents);
 });

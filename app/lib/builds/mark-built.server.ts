@@ -1,5 +1,6 @@
 import { and, eq, inArray } from "drizzle-orm";
-import { companies, leadEvents, leads, type LeadStatus } from "~/db/schema";
+import { companies, leadEvents, leads, proposals, type LeadStatus } from "~/db/schema";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { writeTransaction, db } from "~/lib/platform/db.server";
 import { openBalanceInTx, prepareCompletion } from "~/lib/builds/job-balance.server";
@@ -8,6 +9,8 @@ import { openBalanceInTx, prepareCompletion } from "~/lib/builds/job-balance.ser
 const BUILDABLE: LeadStatus[] = ["signed", "stone-ordered", "build-booked"];
 
 export type MarkBuiltResult = { ok: true; from: LeadStatus } | { ok: false; status: 404 | 409; message: string };
+
+export const OPEN_CHANGE_ORDER_REASON = "The job was marked built before it was signed; its balance is set.";
 
 /** Thrown inside the transaction to undo its writes when the job's papers changed while it ran. */
 class PapersChanged extends Error {}
@@ -69,6 +72,22 @@ export async function markJobBuilt(args: {
         });
         if (opened === "changed") throw new PapersChanged();
       }
+      // A change order still out can no longer be signed (the balance is set): withdraw it, so the
+      // homeowner's page and the office's list stop offering it.
+      const withdrawn = await tx
+        .update(proposals)
+        .set({ status: "withdrawn", withdrawnAt: at, withdrawReason: OPEN_CHANGE_ORDER_REASON, updatedAt: at })
+        .where(and(eq(proposals.leadId, args.leadId), eq(proposals.kind, "change-order"), eq(proposals.status, "sent")))
+        .returning({ documentJson: proposals.documentJson });
+      if (withdrawn.length)
+        await tx.insert(leadEvents).values({
+          companyId: args.companyId,
+          leadId: args.leadId,
+          actorUserId: args.actorUserId,
+          kind: "change-order-withdrawn",
+          detail: `${withdrawn.map((w) => parseProposalDocument(w.documentJson).number).join(", ")} withdrawn unsigned: ${OPEN_CHANGE_ORDER_REASON}`,
+          createdAt: at,
+        });
       return { ok: true, from: lead.status } as const;
     });
   } catch (error) {
