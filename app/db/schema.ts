@@ -772,8 +772,11 @@ export const jobBalances = sqliteTable(
     checkoutAttempt: integer("checkout_attempt").notNull().default(0),
     paymentIntentId: text("payment_intent_id"),
     paidAt: text("paid_at"),
-    // A second payment for a balance already paid: its payment intent, and why it goes back.
+    // Money owed back on the job: a second payment for a balance already paid (the whole of it), or
+    // a credit the change orders left (refund_amount_cents of the deposit's payment). The payment
+    // intent it goes back to, and why.
     refundPaymentIntentId: text("refund_payment_intent_id"),
+    refundAmountCents: integer("refund_amount_cents"),
     refundReason: text("refund_reason"),
     refundOwedAt: text("refund_owed_at"),
     ...refundColumns(),

@@ -136,6 +136,15 @@ function balanceView(
     lines: balanceLines(balance),
     due: formatMoney(Math.max(0, balance.amountCents)),
     credit: balance.amountCents < 0 ? formatMoney(-balance.amountCents) : null,
+    // The part of a credit going back to the deposit's card (null: the contractor pays it by hand).
+    creditToCard:
+      balance.amountCents < 0 && balance.refundAmountCents && balance.refundPaymentIntentId
+        ? {
+            amount: formatMoney(balance.refundAmountCents),
+            isWhole: balance.refundAmountCents === -balance.amountCents,
+            refundedOn: balance.refundedAt ? formatZonedDate(balance.refundedAt, timeZone) : null,
+          }
+        : null,
     paidOn: balance.paidAt && balance.amountCents > 0 ? formatZonedDate(balance.paidAt, timeZone) : null,
     canPay: !balance.paidAt && balance.amountCents > 0,
     // Back from the payment page before the payment service's notice arrived.
@@ -425,7 +434,14 @@ function BalanceSection({ leadId, balance }: { leadId: number; balance: BalanceV
       ) : null}
       {balance.credit ? (
         <p className="text-sm">
-          The change orders left a credit of {balance.credit} in your favour; your contractor pays it back to you.
+          The change orders left a credit of {balance.credit} in your favour;{" "}
+          {balance.creditToCard
+            ? `${balance.creditToCard.isWhole ? "it" : balance.creditToCard.amount} ${
+                balance.creditToCard.refundedOn
+                  ? `was refunded to the card that paid the deposit on ${balance.creditToCard.refundedOn}`
+                  : "is being refunded to the card that paid the deposit"
+              }${balance.creditToCard.isWhole ? "." : ", and your contractor pays you the rest."}`
+            : "your contractor pays it back to you."}
         </p>
       ) : null}
       {balance.isConfirming ? (

@@ -26,6 +26,7 @@ import {
 } from "~/db/schema";
 import { countFailedWork } from "~/lib/jobs/attention.server";
 import {
+  creditRefundCents,
   processBalanceRefunds,
   recordBalancePaidByHand,
   retryFailedBalanceRefund,
@@ -37,6 +38,7 @@ import { db } from "~/lib/platform/db.server";
 import { env } from "~/lib/platform/env.server";
 import { createStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
@@ -326,6 +328,134 @@ test("a balance refund refused for good is counted for the owner and can be trie
   expect(await retryFailedBalanceRefund(balance.id, 999_999)).toBe(false);
   expect(await retryFailedBalanceRefund(balance.id, lead.companyId)).toBe(true);
   expect(await countFailedWork(lead.companyId)).toBe(before);
+});
+
+/** Events the payments fake recorded of one type, newest last (its webhooks are off in this file). */
+async function fakeEvents(type: string) {
+  const answer = (await (await fetch(`${fake.url}/_fake/events?type=${type}`)).json()) as {
+    data: { id: string; type: string; data: { object: Record<string, unknown> } }[];
+  };
+  return answer.data;
+}
+
+/** A signed job whose deposit was paid by card on the payments fake, applied by its own signed webhook. */
+async function jobWithCardDeposit() {
+  const sent = await sentProposal();
+  const accepted = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document: parseProposalDocument(sent.proposal.documentJson),
+    input: { name: sent.lead.customerName, ip: "203.0.113.9", userAgent: "test", chosenKeys: [] },
+  });
+  if (!accepted.ok) throw new Error(accepted.message);
+  const client = createStripe(fake.url);
+  await startDepositCheckout({
+    proposal: accepted.proposal,
+    lead: sent.lead,
+    company: sent.company,
+    origin: "http://localhost",
+    client,
+  });
+  const [withSession] = await db.select().from(proposals).where(eq(proposals.id, sent.proposal.id));
+  const paid = await fetch(`${fake.url}/_fake/sessions/${withSession!.checkoutSessionId}/pay`, {
+    method: "POST",
+    body: JSON.stringify({ card: "4242424242424242" }),
+    headers: { "Content-Type": "application/json" },
+  });
+  expect(paid.status).toBe(200);
+  const completedEvent = (await fakeEvents("checkout.session.completed")).find(
+    (e) => e.data.object.id === withSession!.checkoutSessionId,
+  )!;
+  expect(await deliver(completedEvent)).toEqual({ status: 200, outcome: "applied" });
+  const [proposal] = await db.select().from(proposals).where(eq(proposals.id, sent.proposal.id));
+  expect([proposal!.status, proposal!.paymentIntentId]).toEqual(["signed", expect.stringMatching(/^pi_/)]);
+  await db.update(leads).set({ status: "build-booked" }).where(eq(leads.id, sent.lead.id));
+  return { ...sent, proposal: proposal!, client };
+}
+
+/** A signed change order on the job for `deltaCents` (negative: a credit). */
+async function signedChange(proposal: typeof proposals.$inferSelect, deltaCents: number) {
+  await db.insert(proposals).values({
+    ...proposal,
+    id: undefined,
+    token: `co-${proposal.id}-${Date.now()}-${deltaCents}`,
+    kind: "change-order",
+    parentId: proposal.id,
+    priceCents: deltaCents,
+    checkoutSessionId: null,
+    paymentIntentId: null,
+    signedAt: new Date().toISOString(),
+  });
+}
+
+test("a credit left by the change orders goes back to the deposit's card once, for that amount; the webhook confirms it", async () => {
+  // $4,850 signed, no add-ons, 30 % deposit $1,455 paid by card; a change order credits $3,500:
+  // $4,850 − $3,500 − $1,455 = −$105, a credit of $105 (worked by hand).
+  const job = await jobWithCardDeposit();
+  await signedChange(job.proposal, -350_000);
+  const crew = await crewOf(job.lead.companyId);
+  await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  const balance = (await balanceOf(job.lead.id))!;
+  expect(balance).toMatchObject({
+    amountCents: -10_500,
+    refundAmountCents: 10_500,
+    refundPaymentIntentId: job.proposal.paymentIntentId,
+    refundId: null,
+  });
+  expect(balance.paidAt).not.toBeNull();
+  expect(balance.refundOwedAt).not.toBeNull();
+  expect(await stageOf(job.lead.id)).toBe("paid-in-full");
+  const [timeline] = await db
+    .select()
+    .from(leadEvents)
+    .where(and(eq(leadEvents.leadId, job.lead.id), eq(leadEvents.kind, "balance")));
+  expect(timeline!.detail).toContain("a credit of $105.00 is owed to the homeowner; $105.00 is being refunded");
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `job-completed/${job.lead.id}`));
+  expect(mail!.text).toContain("it is being refunded to the card that paid the deposit");
+
+  // Two workers at once, then a later pass: one refund of $105 on the deposit's payment.
+  await Promise.all([
+    processBalanceRefunds(job.client, { owner: "worker-a" }),
+    processBalanceRefunds(job.client, { owner: "worker-b" }),
+  ]);
+  await processBalanceRefunds(job.client, { owner: "worker-a" });
+  const refunds = (
+    (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
+      data: { id: string; amount: number; payment_intent: string }[];
+    }
+  ).data.filter((r) => r.payment_intent === job.proposal.paymentIntentId);
+  expect(refunds.map((r) => r.amount)).toEqual([10_500]);
+  expect((await balanceOf(job.lead.id))!.refundId).toBe(refunds[0]!.id);
+
+  // The payment service's notice of it reaches the deposit's handler: applied to the balance, not a mismatch.
+  const refundedNotice = (await fakeEvents("charge.refunded")).find(
+    (e) => e.data.object.payment_intent === job.proposal.paymentIntentId,
+  )!;
+  expect(await deliver(refundedNotice)).toEqual({ status: 200, outcome: "applied" });
+  const [deposit] = await db.select().from(proposals).where(eq(proposals.id, job.proposal.id));
+  expect([deposit!.refundOwedAt, deposit!.refundId]).toEqual([null, null]);
+});
+
+test("a credit on a deposit not paid by card here is left to the office, and says so; a credit beyond the deposit refunds the deposit only", async () => {
+  const job = await bookedJob([]);
+  await signedChange(job.proposal, -350_000);
+  const crew = await crewOf(job.lead.companyId);
+  await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  const balance = (await balanceOf(job.lead.id))!;
+  expect(balance).toMatchObject({ amountCents: -10_500, refundOwedAt: null, refundAmountCents: null });
+  const [timeline] = await db
+    .select()
+    .from(leadEvents)
+    .where(and(eq(leadEvents.leadId, job.lead.id), eq(leadEvents.kind, "balance")));
+  expect(timeline!.detail).toContain("to pay back by hand");
+  // Worked by hand: a $2,000 credit on a $1,455 deposit paid by card sends $1,455 back to the card.
+  expect(creditRefundCents(-200_000, 145_500, "pi_x")).toBe(145_500);
+  expect(creditRefundCents(-10_500, 145_500, "pi_x")).toBe(10_500);
+  expect(creditRefundCents(-10_500, 145_500, null)).toBeNull();
+  expect(creditRefundCents(0, 145_500, "pi_x")).toBeNull();
 });
 
 test("the Pay button opens Checkout on the payment service for the exact balance, and reuses the open session", async () => {

@@ -59,7 +59,7 @@ function linkOrigin(): string {
 export async function balanceFromPapers(
   reader: Reader,
   lead: Pick<Lead, "id" | "companyId">,
-): Promise<{ proposalId: number; balance: Balance } | null> {
+): Promise<{ proposalId: number; balance: Balance; depositPaymentIntentId: string | null } | null> {
   const [signed] = await reader
     .select()
     .from(proposals)
@@ -80,6 +80,7 @@ export async function balanceFromPapers(
     .where(and(eq(proposals.parentId, signed.id), eq(proposals.kind, "change-order"), eq(proposals.status, "signed")));
   return {
     proposalId: signed.id,
+    depositPaymentIntentId: signed.paymentIntentId,
     balance: balanceDue({
       proposalPriceCents: signed.priceCents,
       proposalTotalCents: signed.totalCents,
@@ -113,6 +114,16 @@ export type PreparedCompletion = {
 };
 
 /**
+ * What of a credit (a balance below zero) goes back to the card that paid the deposit: all of it up
+ * to the deposit, when the deposit was paid by card here; null when it was paid some other way (the
+ * office pays the credit back by hand).
+ */
+export function creditRefundCents(amountCents: number, depositCents: number, depositPaymentIntentId: string | null) {
+  if (amountCents >= 0 || !depositPaymentIntentId) return null;
+  return Math.min(-amountCents, depositCents);
+}
+
+/**
  * Works out the balance and renders the completion e-mail ahead of the transaction that marks the
  * job built (rendering is slow; the transaction holds only writes). Null without a signed proposal.
  */
@@ -120,6 +131,7 @@ export async function prepareCompletion(lead: Lead, company: Company): Promise<P
   const figures = await balanceFromPapers(db, lead);
   if (!figures) return null;
   const { balance } = figures;
+  const toCard = creditRefundCents(balance.amountCents, balance.depositCents, figures.depositPaymentIntentId);
   const photos = await db
     .select({ id: leadPhotos.id, originalName: leadPhotos.originalName })
     .from(leadPhotos)
@@ -147,9 +159,13 @@ export async function prepareCompletion(lead: Lead, company: Company): Promise<P
       balanceDue: formatMoney(Math.max(0, balance.amountCents)),
       payLink: balance.amountCents > 0 ? page : null,
       creditNote:
-        balance.amountCents < 0
-          ? `The change orders left a credit of ${formatMoney(-balance.amountCents)} in your favour: ${company.name} will pay it back to you.`
-          : null,
+        balance.amountCents >= 0
+          ? null
+          : toCard === -balance.amountCents
+            ? `The change orders left a credit of ${formatMoney(-balance.amountCents)} in your favour: it is being refunded to the card that paid the deposit, and shows on your statement within a few days.`
+            : toCard
+              ? `The change orders left a credit of ${formatMoney(-balance.amountCents)} in your favour: ${formatMoney(toCard)} is being refunded to the card that paid the deposit, and ${company.name} will pay you the rest.`
+              : `The change orders left a credit of ${formatMoney(-balance.amountCents)} in your favour: ${company.name} will pay it back to you.`,
     }),
   });
   return { ...figures, mail };
@@ -170,6 +186,7 @@ export async function openBalanceInTx(
     return "changed";
   const { balance } = now;
   const settled = balance.amountCents <= 0;
+  const toCard = creditRefundCents(balance.amountCents, balance.depositCents, now.depositPaymentIntentId);
   await tx.insert(jobBalances).values({
     companyId: lead.companyId,
     leadId: lead.id,
@@ -181,6 +198,14 @@ export async function openBalanceInTx(
     amountCents: balance.amountCents,
     openedAt: at,
     paidAt: settled ? at : null,
+    ...(toCard
+      ? {
+          refundPaymentIntentId: now.depositPaymentIntentId,
+          refundAmountCents: toCard,
+          refundOwedAt: at,
+          refundReason: `A credit of ${formatMoney(toCard)} left by the change orders goes back to the card that paid the deposit.`,
+        }
+      : {}),
     createdAt: at,
     updatedAt: at,
   });
@@ -195,7 +220,7 @@ export async function openBalanceInTx(
     detail:
       balance.amountCents > 0
         ? `Balance of ${formatMoney(balance.amountCents)} due (${parts}); the homeowner is e-mailed the photos, the balance and care notes.`
-        : `Nothing left to pay (${parts})${balance.amountCents < 0 ? `: a credit of ${formatMoney(-balance.amountCents)} is owed to the homeowner` : ""}. ${STATUS_LABEL.built} → ${STATUS_LABEL["paid-in-full"]}.`,
+        : `Nothing left to pay (${parts})${creditWords(balance.amountCents, toCard)}. ${STATUS_LABEL.built} → ${STATUS_LABEL["paid-in-full"]}.`,
     createdAt: at,
   });
   if (settled)
@@ -205,6 +230,16 @@ export async function openBalanceInTx(
       .where(and(eq(leads.id, lead.id), eq(leads.status, "built")));
   await tx.insert(emailOutbox).values(prepared.mail).onConflictDoNothing();
   return settled ? "paid-in-full" : "opened";
+}
+
+/** The timeline's words for a credit: what goes back to the card, and what the office pays by hand. */
+function creditWords(amountCents: number, toCard: number | null): string {
+  if (amountCents >= 0) return "";
+  const credit = formatMoney(-amountCents);
+  if (!toCard)
+    return `: a credit of ${credit} is owed to the homeowner, to pay back by hand (the deposit was not paid by card here)`;
+  const rest = -amountCents - toCard;
+  return `: a credit of ${credit} is owed to the homeowner; ${formatMoney(toCard)} is being refunded to the deposit's card${rest > 0 ? ` and ${formatMoney(rest)} is to pay back by hand` : ""}`;
 }
 
 /** The job's balance row, scoped by company; null before the job is built. */
@@ -517,7 +552,10 @@ export async function recordBalancePaidByHand(args: {
 
 const BALANCE_REFUND_BATCH_SIZE = 10;
 
-/** Second payments of a paid balance, refunded through the shared refund worker. */
+/**
+ * Money a built job owes back, refunded through the shared refund worker: a second payment of a paid
+ * balance (the whole of it), or the credit the change orders left (that amount of the deposit).
+ */
 function balanceRefundQueue(database: Db): RefundQueue {
   return {
     label: "balance",
@@ -551,6 +589,7 @@ function balanceRefundQueue(database: Db): RefundQueue {
           id: jobBalances.id,
           paymentIntentId: jobBalances.refundPaymentIntentId,
           refundAttempts: jobBalances.refundAttempts,
+          amountCents: jobBalances.refundAmountCents,
         });
     },
     settle: (id, owner, outcome) =>

@@ -15,8 +15,13 @@ import { iso, isPermanentStatus, retryDelayMs, type Backoff } from "~/lib/jobs/j
  */
 export const REFUND_BACKOFF: Backoff = { baseMs: 30_000, maxMs: 60 * 60_000, maxAttempts: 8 };
 
-/** A claimed row: what the worker needs to send its refund. */
-export type OwedRefund = { id: number; paymentIntentId: string | null; refundAttempts: number };
+/** A claimed row: what the worker needs to send its refund; no amount refunds the whole payment. */
+export type OwedRefund = {
+  id: number;
+  paymentIntentId: string | null;
+  refundAttempts: number;
+  amountCents?: number | null;
+};
 
 /** The columns a refund try writes back. */
 export type RefundOutcome =
@@ -63,7 +68,10 @@ export async function sendOwedRefunds(
         failure = { status: 400, message: "no payment to refund" };
       } else {
         const refund = await client.refunds.create(
-          { payment_intent: row.paymentIntentId },
+          {
+            payment_intent: row.paymentIntentId,
+            ...(row.amountCents != null ? { amount: row.amountCents } : {}),
+          },
           { idempotencyKey: queue.idempotencyKey(row.id) },
         );
         await queue.settle(row.id, owner, {

@@ -3,6 +3,7 @@ import type Stripe from "stripe";
 import {
   companies,
   emailOutbox,
+  jobBalances,
   leadEvents,
   leads,
   paymentEvents,
@@ -228,6 +229,26 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
         const charge = event.data.object;
         const refundedIntent =
           typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
+        // A built job's credit goes back on the deposit's payment: the balance owes that refund, and
+        // the worker recorded it when it was made; this notice confirms it.
+        if (!proposal.refundOwedAt && refundedIntent && refundedIntent === proposal.paymentIntentId) {
+          const owedByBalance = await tx
+            .update(jobBalances)
+            .set({
+              refundId: sql`coalesce(${jobBalances.refundId}, ${charge.refunds?.data?.[0]?.id ?? "refunded"})`,
+              refundedAt: sql`coalesce(${jobBalances.refundedAt}, ${at})`,
+              updatedAt: at,
+            })
+            .where(
+              and(
+                eq(jobBalances.proposalId, proposal.id),
+                eq(jobBalances.refundPaymentIntentId, refundedIntent),
+                isNotNull(jobBalances.refundOwedAt),
+              ),
+            )
+            .returning({ id: jobBalances.id });
+          if (owedByBalance.length) return "applied";
+        }
         // Only the refund of the deposit's own payment, owed back, settles it: a refund of some other
         // payment must not mark the deposit as given back.
         if (!proposal.refundOwedAt || !refundedIntent || refundedIntent !== proposal.paymentIntentId) {

@@ -1,0 +1,1 @@
+ALTER TABLE `job_balances` ADD `refund_amount_cents` integer;
