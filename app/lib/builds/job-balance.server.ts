@@ -1,4 +1,4 @@
-import { and, asc, desc, eq, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import type Stripe from "stripe";
 import {
   companies,
@@ -17,8 +17,8 @@ import { balanceDue, contractOf, type Balance } from "~/domain/job-money";
 import { BalancePaidEmail, JobCompletedEmail, type BalanceLine } from "~/emails/completion-emails";
 import { formatMoney } from "~/lib/format/money";
 import { formatZonedDate } from "~/lib/format/zoned-time";
-import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import { WORKER_ID } from "~/lib/jobs/jobs.server";
+import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
@@ -550,54 +550,20 @@ export async function recordBalancePaidByHand(args: {
   return null;
 }
 
-const BALANCE_REFUND_BATCH_SIZE = 10;
-
 /**
  * Money a built job owes back, refunded through the shared refund worker: a second payment of a paid
  * balance (the whole of it), or the credit the change orders left (that amount of the deposit).
  */
 function balanceRefundQueue(database: Db): RefundQueue {
-  return {
+  return tableRefundQueue({
+    database,
+    table: jobBalances,
     label: "balance",
     idempotencyKey: (id) => `refund:balance:${id}`,
-    claim: async (owner, now) => {
-      const nowIso = now.toISOString();
-      const due = database
-        .select({ id: jobBalances.id })
-        .from(jobBalances)
-        .where(
-          and(
-            isNotNull(jobBalances.refundOwedAt),
-            isNull(jobBalances.refundId),
-            isNotNull(jobBalances.refundPaymentIntentId),
-            isNull(jobBalances.refundFailedAt),
-            or(isNull(jobBalances.refundNextAt), lte(jobBalances.refundNextAt, nowIso)),
-            or(isNull(jobBalances.refundLeaseExpiresAt), lt(jobBalances.refundLeaseExpiresAt, nowIso)),
-          ),
-        )
-        .orderBy(asc(sql`coalesce(${jobBalances.refundNextAt}, '')`), asc(jobBalances.id))
-        .limit(BALANCE_REFUND_BATCH_SIZE);
-      return database
-        .update(jobBalances)
-        .set({
-          refundLeaseOwner: owner,
-          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
-          refundAttempts: sql`${jobBalances.refundAttempts} + 1`,
-        })
-        .where(and(inArray(jobBalances.id, due), isNull(jobBalances.refundId)))
-        .returning({
-          id: jobBalances.id,
-          paymentIntentId: jobBalances.refundPaymentIntentId,
-          refundAttempts: jobBalances.refundAttempts,
-          amountCents: jobBalances.refundAmountCents,
-        });
-    },
-    settle: (id, owner, outcome) =>
-      database
-        .update(jobBalances)
-        .set(outcome)
-        .where(and(eq(jobBalances.id, id), eq(jobBalances.refundLeaseOwner, owner))),
-  };
+    owed: isNotNull(jobBalances.refundOwedAt),
+    paymentIntent: jobBalances.refundPaymentIntentId,
+    amount: jobBalances.refundAmountCents,
+  });
 }
 
 /** Sends the balance refunds owed, each once, keyed `refund:balance:<balanceId>`, under a lease. */

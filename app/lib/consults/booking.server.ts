@@ -1,4 +1,4 @@
-import { and, asc, eq, gt, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
+import { and, eq, gt, inArray, isNotNull, isNull, lt, sql } from "drizzle-orm";
 import { createEvent } from "ics";
 import type Stripe from "stripe";
 import {
@@ -23,8 +23,8 @@ import {
 } from "~/emails/consult-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
-import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import { WORKER_ID } from "~/lib/jobs/jobs.server";
+import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
 import {
   checkReschedule,
   CONSULT_HOLD_MINUTES,
@@ -866,54 +866,18 @@ export async function rescheduleBooking(args: {
 /** The HTTP status a cancel refusal answers with. */
 export const cancelRefusalStatus = (refusal: CancelRefusal): 404 | 409 => (refusal.reason === "not-found" ? 404 : 409);
 
-const REFUND_BATCH_SIZE = 10;
-
 /**
  * Cancelled consults that were paid, refunded through the shared refund worker (app/lib/jobs/refund-queue.server.ts).
  */
 function consultRefundQueue(database: Db): RefundQueue {
-  return {
+  return tableRefundQueue({
+    database,
+    table: bookings,
     label: "booking",
     idempotencyKey: (id) => `refund:${id}`,
-    claim: async (owner, now) => {
-      const nowIso = now.toISOString();
-      const due = database
-        .select({ id: bookings.id })
-        .from(bookings)
-        .where(
-          and(
-            eq(bookings.status, "cancelled"),
-            eq(bookings.isPaid, true),
-            isNull(bookings.refundId),
-            isNotNull(bookings.paymentIntentId),
-            isNull(bookings.refundFailedAt),
-            or(isNull(bookings.refundNextAt), lte(bookings.refundNextAt, nowIso)),
-            or(isNull(bookings.refundLeaseExpiresAt), lt(bookings.refundLeaseExpiresAt, nowIso)),
-          ),
-        )
-        // Never tried first, then by when each may try again: a failing refund waits behind the rest.
-        .orderBy(asc(sql`coalesce(${bookings.refundNextAt}, '')`), asc(bookings.id))
-        .limit(REFUND_BATCH_SIZE);
-      return database
-        .update(bookings)
-        .set({
-          refundLeaseOwner: owner,
-          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
-          refundAttempts: sql`${bookings.refundAttempts} + 1`,
-        })
-        .where(and(inArray(bookings.id, due), isNull(bookings.refundId)))
-        .returning({
-          id: bookings.id,
-          paymentIntentId: bookings.paymentIntentId,
-          refundAttempts: bookings.refundAttempts,
-        });
-    },
-    settle: (id, owner, outcome) =>
-      database
-        .update(bookings)
-        .set(outcome)
-        .where(and(eq(bookings.id, id), eq(bookings.refundLeaseOwner, owner))),
-  };
+    owed: and(eq(bookings.status, "cancelled"), eq(bookings.isPaid, true)),
+    paymentIntent: bookings.paymentIntentId,
+  });
 }
 
 /**

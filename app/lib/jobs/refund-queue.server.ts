@@ -1,5 +1,8 @@
+import { and, asc, eq, inArray, isNotNull, isNull, lt, lte, or, sql, type SQL } from "drizzle-orm";
+import type { SQLiteColumn, SQLiteTable } from "drizzle-orm/sqlite-core";
 import type Stripe from "stripe";
-import { iso, isPermanentStatus, retryDelayMs, type Backoff } from "~/lib/jobs/jobs.server";
+import { iso, isPermanentStatus, LEASE_MS, retryDelayMs, type Backoff } from "~/lib/jobs/jobs.server";
+import type { Db } from "~/lib/platform/db.server";
 
 /*
  * One refund worker for every kind of payment that can be owed back (a cancelled consult, a refunded
@@ -44,6 +47,88 @@ export type RefundQueue = {
   /** Writes a try's outcome, only while this process still holds the row's lease. */
   settle: (id: number, owner: string, outcome: RefundOutcome) => Promise<unknown>;
 };
+
+/** A table that keeps the refund bookkeeping columns (`refundColumns()` in the schema) beside its id. */
+type RefundTable = SQLiteTable & {
+  id: SQLiteColumn;
+  refundId: SQLiteColumn;
+  refundAttempts: SQLiteColumn;
+  refundNextAt: SQLiteColumn;
+  refundFailedAt: SQLiteColumn;
+  refundLeaseOwner: SQLiteColumn;
+  refundLeaseExpiresAt: SQLiteColumn;
+};
+
+const REFUND_BATCH_SIZE = 10;
+
+/**
+ * The queue of one table's owed refunds: rows where `owed` holds, with a payment to refund, not yet
+ * refunded nor given up, due, and not leased by a live process. Claimed oldest first (never tried,
+ * then by when each may try again, so a failing refund waits behind the rest), up to a batch, in one
+ * UPDATE … RETURNING that takes the lease and counts the attempt.
+ */
+export function tableRefundQueue<T extends RefundTable>(args: {
+  database: Db;
+  table: T;
+  label: string;
+  idempotencyKey: (id: number) => string;
+  /** What makes a row owe its refund (besides the bookkeeping), e.g. `isNotNull(t.refundOwedAt)`. */
+  owed: SQL | undefined;
+  /** The payment it goes back to. */
+  paymentIntent: SQLiteColumn;
+  /** How much of it, in cents; absent or null refunds the whole payment. */
+  amount?: SQLiteColumn;
+}): RefundQueue {
+  const { database, table: t } = args;
+  // Drizzle types a generic table's set() and returning() loosely; the columns above are the contract.
+  const update = () =>
+    database.update(t as SQLiteTable) as unknown as {
+      set: (values: Record<string, unknown>) => {
+        where: (condition: SQL | undefined) => {
+          returning: (shape: Record<string, SQLiteColumn>) => Promise<OwedRefund[]>;
+        } & Promise<unknown>;
+      };
+    };
+  return {
+    label: args.label,
+    idempotencyKey: args.idempotencyKey,
+    claim: async (owner, now) => {
+      const nowIso = now.toISOString();
+      const due = database
+        .select({ id: t.id })
+        .from(t as SQLiteTable)
+        .where(
+          and(
+            args.owed,
+            isNull(t.refundId),
+            isNotNull(args.paymentIntent),
+            isNull(t.refundFailedAt),
+            or(isNull(t.refundNextAt), lte(t.refundNextAt, nowIso)),
+            or(isNull(t.refundLeaseExpiresAt), lt(t.refundLeaseExpiresAt, nowIso)),
+          ),
+        )
+        .orderBy(asc(sql`coalesce(${t.refundNextAt}, '')`), asc(t.id))
+        .limit(REFUND_BATCH_SIZE);
+      return update()
+        .set({
+          refundLeaseOwner: owner,
+          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
+          refundAttempts: sql`${t.refundAttempts} + 1`,
+        })
+        .where(and(inArray(t.id, due), isNull(t.refundId)))
+        .returning({
+          id: t.id,
+          paymentIntentId: args.paymentIntent,
+          refundAttempts: t.refundAttempts,
+          ...(args.amount ? { amountCents: args.amount } : {}),
+        });
+    },
+    settle: (id, owner, outcome) =>
+      update()
+        .set(outcome)
+        .where(and(eq(t.id, id), eq(t.refundLeaseOwner, owner))),
+  };
+}
 
 /**
  * Sends the refunds a queue owes, each once, under a lease so two processes never send the same one.

@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray, isNotNull, isNull, lt, lte, or, sql } from "drizzle-orm";
+import { and, eq, inArray, isNotNull, isNull, lte, sql } from "drizzle-orm";
 import type Stripe from "stripe";
 import {
   companies,
@@ -14,8 +14,8 @@ import {
 } from "~/db/schema";
 import { DepositPaidEmail } from "~/emails/proposal-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
-import { iso, LEASE_MS, WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import { WORKER_ID } from "~/lib/jobs/jobs.server";
+import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
@@ -355,51 +355,16 @@ export async function requestDepositRefund(args: {
   return null;
 }
 
-const DEPOSIT_REFUND_BATCH_SIZE = 10;
-
 /** Deposits the owner refunded (or paid too late), refunded through the shared refund worker. */
 function depositRefundQueue(database: Db): RefundQueue {
-  return {
+  return tableRefundQueue({
+    database,
+    table: proposals,
     label: "deposit of proposal",
     idempotencyKey: (id) => `refund:deposit:${id}`,
-    claim: async (owner, now) => {
-      const nowIso = now.toISOString();
-      const due = database
-        .select({ id: proposals.id })
-        .from(proposals)
-        .where(
-          and(
-            isNotNull(proposals.refundOwedAt),
-            isNull(proposals.refundId),
-            isNotNull(proposals.paymentIntentId),
-            isNull(proposals.refundFailedAt),
-            or(isNull(proposals.refundNextAt), lte(proposals.refundNextAt, nowIso)),
-            or(isNull(proposals.refundLeaseExpiresAt), lt(proposals.refundLeaseExpiresAt, nowIso)),
-          ),
-        )
-        // Never tried first, then by when each may try again: a failing refund waits behind the rest.
-        .orderBy(asc(sql`coalesce(${proposals.refundNextAt}, '')`), asc(proposals.id))
-        .limit(DEPOSIT_REFUND_BATCH_SIZE);
-      return database
-        .update(proposals)
-        .set({
-          refundLeaseOwner: owner,
-          refundLeaseExpiresAt: iso(now.getTime() + LEASE_MS),
-          refundAttempts: sql`${proposals.refundAttempts} + 1`,
-        })
-        .where(and(inArray(proposals.id, due), isNull(proposals.refundId)))
-        .returning({
-          id: proposals.id,
-          paymentIntentId: proposals.paymentIntentId,
-          refundAttempts: proposals.refundAttempts,
-        });
-    },
-    settle: (id, owner, outcome) =>
-      database
-        .update(proposals)
-        .set(outcome)
-        .where(and(eq(proposals.id, id), eq(proposals.refundLeaseOwner, owner))),
-  };
+    owed: isNotNull(proposals.refundOwedAt),
+    paymentIntent: proposals.paymentIntentId,
+  });
 }
 
 /**
