@@ -13,6 +13,7 @@ import { canRecordOnJob, isBuildable, loadJobSite, recordExtra, recordHours } fr
 import { fieldErrors } from "~/lib/format/form-fields";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { MAX_PHOTOS } from "~/lib/platform/uploads.server";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `On site: ${loaderData.job.customerName} · Emberwright` : "On site · Emberwright" },
@@ -147,14 +148,12 @@ export default function JobRoute({ loaderData, actionData }: Route.ComponentProp
       </Section>
 
       <Section id="figures" title="Key figures">
-        <dl className="grid grid-cols-1 gap-x-4 gap-y-1 text-base sm:grid-cols-2">
-          {figures.map((f) => (
-            <div key={f.label} className="flex flex-wrap gap-x-2">
-              <dt className="font-extrabold">{f.label}:</dt>
-              <dd>{f.value}</dd>
-            </div>
-          ))}
-        </dl>
+        <LabelledLines
+          lines={figures}
+          className="grid grid-cols-1 gap-x-4 gap-y-1 text-base sm:grid-cols-2"
+          labelClassName="font-extrabold"
+          wrap
+        />
       </Section>
 
       <Section id="checklist" title="Checklist">
@@ -163,14 +162,12 @@ export default function JobRoute({ loaderData, actionData }: Route.ComponentProp
 
       <Section id="site" title="Site notes">
         {visit ? (
-          <dl className="flex flex-col gap-1 text-base">
-            {visit.lines.map((l) => (
-              <div key={l.label} className="flex flex-wrap gap-x-2">
-                <dt className="font-extrabold">{l.label}:</dt>
-                <dd>{l.value}</dd>
-              </div>
-            ))}
-          </dl>
+          <LabelledLines
+            lines={visit.lines}
+            className="flex flex-col gap-1 text-base"
+            labelClassName="font-extrabold"
+            wrap
+          />
         ) : (
           <p className="text-base">No site visit was recorded.</p>
         )}

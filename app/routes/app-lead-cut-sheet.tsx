@@ -9,6 +9,7 @@ import { formatInches } from "~/domain/units";
 import { loadCutSheet } from "~/lib/cut-sheet/cut-sheet.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { isOfficeRole, parseLeadId } from "~/lib/auth/staff.server";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Cut sheet: ${loaderData.sheet.customerName} · Emberwright` : "Cut sheet · Emberwright" },
@@ -69,14 +70,10 @@ export default function CutSheetRoute({ loaderData }: Route.ComponentProps) {
         <h2 id="sheet-design" className="text-lg font-extrabold">
           The design
         </h2>
-        <dl className="mt-1 grid gap-x-6 gap-y-0.5 text-sm sm:grid-cols-2 print:grid-cols-2">
-          {sheet.summary.map((line) => (
-            <div key={line.label} className="flex gap-2">
-              <dt className="font-bold text-char-700">{line.label}:</dt>
-              <dd>{line.value}</dd>
-            </div>
-          ))}
-        </dl>
+        <LabelledLines
+          lines={sheet.summary}
+          className="mt-1 grid gap-x-6 gap-y-0.5 text-sm sm:grid-cols-2 print:grid-cols-2"
+        />
       </section>
 
       <section aria-labelledby="sheet-cuts" className="mt-5">

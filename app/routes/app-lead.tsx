@@ -54,6 +54,7 @@ import { formatPhone, phoneHref } from "~/lib/format/phone";
 import { BalanceCard, JobCostCard } from "~/components/job-money-cards";
 import { describeBalance, findJobBalance } from "~/lib/builds/job-balance.server";
 import { describeJobCost, jobCostFor } from "~/lib/builds/job-cost.server";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" },
@@ -479,14 +480,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
                 </figcaption>
               </figure>
             </div>
-            <dl className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2">
-              {shown.summary.map((line) => (
-                <div key={line.label} className="flex gap-2">
-                  <dt className="font-bold text-char-700">{line.label}:</dt>
-                  <dd>{line.value}</dd>
-                </div>
-              ))}
-            </dl>
+            <LabelledLines lines={shown.summary} className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2" />
             {shown.warnings.length ? (
               <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4 text-sm">
                 <h3 className="font-extrabold text-ember-700">Worth a second look</h3>

@@ -19,6 +19,7 @@ import { describePreview, designToSceneInput, summarizeDesign, type PublicPlan }
 import { publicPlan } from "~/lib/design/plan.server";
 import { speakLengths, summaryInUnit } from "~/lib/format/length-text";
 import { phoneDisplay } from "~/lib/format/phone";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Design your fire pit · ${loaderData.company.name}` : "Design your fire pit" },
@@ -225,14 +226,10 @@ function DesignSummary({ plan, design, catalog }: { plan: PublicPlan; design: De
   return (
     <section aria-label="What you will get" className="card p-5 text-sm render-when-near">
       <h2 className="text-lg font-extrabold">Your design in short</h2>
-      <dl className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1">
-        {summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit).map((line) => (
-          <div key={line.label} className="flex gap-2">
-            <dt className="font-bold text-char-700">{line.label}:</dt>
-            <dd>{line.value}</dd>
-          </div>
-        ))}
-      </dl>
+      <LabelledLines
+        lines={summaryInUnit(summarizeDesign(plan, design, catalog, "in"), design.unit)}
+        className="mt-2 grid gap-x-6 gap-y-1 sm:grid-cols-2 lg:grid-cols-1"
+      />
     </section>
   );
 }

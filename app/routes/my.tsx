@@ -26,6 +26,7 @@ import {
   startBalanceCheckout,
 } from "~/lib/builds/job-balance.server";
 import { formatZonedDate } from "~/lib/format/zoned-time";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
@@ -293,14 +294,7 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                   </p>
                   <details className="border-t border-ash-200 px-4 py-3 text-sm">
                     <summary className="cursor-pointer font-bold text-char-700">Every choice in this design</summary>
-                    <dl className="mt-2 grid gap-y-1">
-                      {d.summary.map((line) => (
-                        <div key={line.label} className="flex flex-wrap gap-x-2">
-                          <dt className="font-bold text-char-700">{line.label}:</dt>
-                          <dd>{line.value}</dd>
-                        </div>
-                      ))}
-                    </dl>
+                    <LabelledLines lines={d.summary} className="mt-2 grid gap-y-1" wrap />
                   </details>
                 </figure>
               ))}

@@ -25,6 +25,7 @@ import { clientAddress, createLimiter, socketAddressContext, spendLimit } from "
 import { getSessionUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
+import { LabelledLines } from "~/components/labelled-lines";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   {
@@ -289,14 +290,7 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
                 </figcaption>
               </figure>
             </div>
-            <dl className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2">
-              {document.design.map((line) => (
-                <div key={line.label} className="flex gap-2">
-                  <dt className="font-bold text-char-700">{line.label}:</dt>
-                  <dd>{line.value}</dd>
-                </div>
-              ))}
-            </dl>
+            <LabelledLines lines={document.design} className="grid gap-x-6 gap-y-1 card p-4 text-sm sm:grid-cols-2" />
           </section>
         ) : null}
 
