@@ -19,12 +19,8 @@ import { requireUser } from "~/lib/auth/session.server";
 import { readStoredPlan, type StoredPlanRecord } from "~/lib/design/stored-plan";
 import { summaryInUnit } from "~/lib/format/length-text";
 import { CARE_NOTES } from "~/lib/builds/care-notes";
-import {
-  BalanceCheckoutError,
-  balanceLines,
-  listBalancesFor,
-  startBalanceCheckout,
-} from "~/lib/builds/job-balance.server";
+import { CheckoutRefused } from "~/lib/platform/payments.server";
+import { balanceLines, listBalancesFor, startBalanceCheckout } from "~/lib/builds/job-balance.server";
 import { formatZonedDate } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
 
@@ -191,7 +187,7 @@ export async function action({ request }: Route.ActionArgs) {
     try {
       return redirect(await startBalanceCheckout({ balance, lead, company: companyRows[0]! }));
     } catch (error) {
-      if (error instanceof BalanceCheckoutError) return data({ error: error.message }, { status: 409 });
+      if (error instanceof CheckoutRefused) return data({ error: error.message }, { status: 409 });
       console.error("balance checkout could not start", (error as Error).message);
       return data(
         {

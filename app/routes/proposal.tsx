@@ -16,7 +16,8 @@ import { formatMoney } from "~/lib/format/money";
 import { jobTotalsFor } from "~/lib/proposals/change-orders.server";
 import { describeDeposit } from "~/lib/proposals/proposal-document";
 import { chosenAddOnsSchema } from "~/lib/proposals/proposal-schema";
-import { DepositCheckoutError, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
+import { startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
+import { CheckoutRefused } from "~/lib/platform/payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { countsAsOpen, findProposalByToken, linkStateOf } from "~/lib/proposals/proposals.server";
 import { readStoredPlan } from "~/lib/design/stored-plan";
@@ -156,7 +157,7 @@ async function payDeposit(
     const url = await startDepositCheckout({ proposal: found.proposal, lead: found.lead, company, origin });
     return redirect(url, 303);
   } catch (error) {
-    if (error instanceof DepositCheckoutError)
+    if (error instanceof CheckoutRefused)
       return data({ errors: { form: error.message }, fields, chosen }, { status: 409 });
     console.error("deposit checkout could not start", (error as Error).message);
     return data(

@@ -23,7 +23,7 @@ import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { env } from "~/lib/platform/env.server";
-import { stripe as defaultStripe } from "~/lib/platform/payments.server";
+import { CheckoutRefused, openHostedCheckout, stripe as defaultStripe } from "~/lib/platform/payments.server";
 
 /*
  * The balance of a built job, paid through Checkout exactly like the deposit: our own idempotency
@@ -37,8 +37,6 @@ export const BALANCE_METADATA_KIND = "balance";
 
 type Tx = Parameters<Parameters<typeof writeTransaction>[0]>[0];
 type Reader = Db | Tx;
-
-export class BalanceCheckoutError extends Error {}
 
 /** Whether a payment event belongs to a job's balance. */
 export function isBalanceEvent(event: Stripe.Event): boolean {
@@ -269,57 +267,34 @@ export async function startBalanceCheckout(args: {
   client?: Stripe;
   now?: Date;
 }): Promise<string> {
-  const client = args.client ?? defaultStripe;
   const { balance, lead, company } = args;
   const now = args.now ?? new Date();
-  if (balance.paidAt) throw new BalanceCheckoutError("The balance is paid. Thank you.");
-  if (balance.amountCents <= 0) throw new BalanceCheckoutError("Nothing is owed on this job.");
-  let attempt = balance.checkoutAttempt;
-  if (balance.checkoutSessionId) {
-    const existing = await client.checkout.sessions.retrieve(balance.checkoutSessionId);
-    if (existing.status === "open" && existing.url) return existing.url;
-    if (existing.status === "complete")
-      throw new BalanceCheckoutError("The balance is paid; it shows here in a moment.");
-    attempt += 1;
-  } else if (attempt === 0) {
-    attempt = 1;
-  }
+  if (balance.paidAt) throw new CheckoutRefused("The balance is paid. Thank you.");
+  if (balance.amountCents <= 0) throw new CheckoutRefused("Nothing is owed on this job.");
   const origin = linkOrigin();
-  const metadata = {
-    kind: BALANCE_METADATA_KIND,
-    balance_id: String(balance.id),
-    lead_id: String(lead.id),
-    attempt: String(attempt),
-  };
-  const session = await client.checkout.sessions.create(
-    {
-      mode: "payment",
-      line_items: [
-        {
-          price_data: {
-            currency: "usd",
-            unit_amount: balance.amountCents,
-            product_data: { name: `Balance on completion: fire pit by ${company.name}` },
-          },
-          quantity: 1,
-        },
-      ],
-      customer_email: lead.email,
-      // Not a bare number: the consult handler reads client_reference_id as a booking id.
-      client_reference_id: `balance-${balance.id}`,
-      metadata,
-      payment_intent_data: { metadata },
-      success_url: `${origin}/my?paid=${lead.id}#balance-${lead.id}`,
-      cancel_url: `${origin}/my#balance-${lead.id}`,
-    },
-    { idempotencyKey: `balance-checkout:${balance.id}:${attempt}` },
-  );
-  await db
-    .update(jobBalances)
-    .set({ checkoutSessionId: session.id, checkoutAttempt: attempt, updatedAt: now.toISOString() })
-    .where(and(eq(jobBalances.id, balance.id), isNull(jobBalances.paidAt)));
-  if (!session.url) throw new Error("The payment service returned no checkout page.");
-  return session.url;
+  return openHostedCheckout({
+    client: args.client ?? defaultStripe,
+    stored: { sessionId: balance.checkoutSessionId, attempt: balance.checkoutAttempt },
+    paidMessage: "The balance is paid; it shows here in a moment.",
+    amountCents: balance.amountCents,
+    productName: `Balance on completion: fire pit by ${company.name}`,
+    email: lead.email,
+    clientReference: `balance-${balance.id}`,
+    metadata: (attempt) => ({
+      kind: BALANCE_METADATA_KIND,
+      balance_id: String(balance.id),
+      lead_id: String(lead.id),
+      attempt: String(attempt),
+    }),
+    successUrl: `${origin}/my?paid=${lead.id}#balance-${lead.id}`,
+    cancelUrl: `${origin}/my#balance-${lead.id}`,
+    idempotencyKey: (attempt) => `balance-checkout:${balance.id}:${attempt}`,
+    save: (sessionId, attempt) =>
+      db
+        .update(jobBalances)
+        .set({ checkoutSessionId: sessionId, checkoutAttempt: attempt, updatedAt: now.toISOString() })
+        .where(and(eq(jobBalances.id, balance.id), isNull(jobBalances.paidAt))),
+  });
 }
 
 function balanceIdOf(event: Stripe.Event): number | null {

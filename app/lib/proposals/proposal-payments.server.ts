@@ -20,7 +20,7 @@ import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoney } from "~/lib/format/money";
-import { stripe as defaultStripe } from "~/lib/platform/payments.server";
+import { CheckoutRefused, openHostedCheckout, stripe as defaultStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 
 /*
@@ -32,8 +32,6 @@ import { parseProposalDocument } from "~/lib/proposals/proposal-document";
  */
 
 export const DEPOSIT_METADATA_KIND = "deposit";
-
-export class DepositCheckoutError extends Error {}
 
 /** Whether a payment event belongs to a proposal's deposit. */
 export function isDepositEvent(event: Stripe.Event): boolean {
@@ -53,54 +51,32 @@ export async function startDepositCheckout(args: {
   client?: Stripe;
   now?: Date;
 }): Promise<string> {
-  const client = args.client ?? defaultStripe;
   const { proposal, lead, company, origin } = args;
   const now = args.now ?? new Date();
-  if (proposal.status !== "accepted" || proposal.depositCents === null)
-    throw new DepositCheckoutError("This proposal has no deposit to pay.");
+  const depositCents = proposal.depositCents;
+  if (proposal.status !== "accepted" || depositCents === null)
+    throw new CheckoutRefused("This proposal has no deposit to pay.");
   if (now.toISOString() >= proposal.expiresAt)
-    throw new DepositCheckoutError("This proposal has expired: ask the contractor for a new one.");
-  let attempt = proposal.checkoutAttempt;
-  if (proposal.checkoutSessionId) {
-    const existing = await client.checkout.sessions.retrieve(proposal.checkoutSessionId);
-    if (existing.status === "open" && existing.url) return existing.url;
-    if (existing.status === "complete")
-      throw new DepositCheckoutError("The deposit is paid; it shows here in a moment.");
-    attempt += 1;
-  } else if (attempt === 0) {
-    attempt = 1;
-  }
+    throw new CheckoutRefused("This proposal has expired: ask the contractor for a new one.");
   const document = parseProposalDocument(proposal.documentJson);
-  const metadata = { kind: DEPOSIT_METADATA_KIND, proposal_id: String(proposal.id), lead_id: String(lead.id) };
-  const session = await client.checkout.sessions.create(
-    {
-      mode: "payment",
-      line_items: [
-        {
-          price_data: {
-            currency: "usd",
-            unit_amount: proposal.depositCents,
-            product_data: { name: `Deposit: ${document.number}, fire pit by ${company.name}` },
-          },
-          quantity: 1,
-        },
-      ],
-      customer_email: lead.email,
-      // Not a bare number: the consult handler reads client_reference_id as a booking id.
-      client_reference_id: `proposal-${proposal.id}`,
-      metadata,
-      payment_intent_data: { metadata },
-      success_url: `${origin}/p/${proposal.token}?paid=1`,
-      cancel_url: `${origin}/p/${proposal.token}?left=1`,
-    },
-    { idempotencyKey: `deposit-checkout:${proposal.id}:${attempt}` },
-  );
-  await db
-    .update(proposals)
-    .set({ checkoutSessionId: session.id, checkoutAttempt: attempt, updatedAt: now.toISOString() })
-    .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
-  if (!session.url) throw new Error("The payment service returned no checkout page.");
-  return session.url;
+  return openHostedCheckout({
+    client: args.client ?? defaultStripe,
+    stored: { sessionId: proposal.checkoutSessionId, attempt: proposal.checkoutAttempt },
+    paidMessage: "The deposit is paid; it shows here in a moment.",
+    amountCents: depositCents,
+    productName: `Deposit: ${document.number}, fire pit by ${company.name}`,
+    email: lead.email,
+    clientReference: `proposal-${proposal.id}`,
+    metadata: () => ({ kind: DEPOSIT_METADATA_KIND, proposal_id: String(proposal.id), lead_id: String(lead.id) }),
+    successUrl: `${origin}/p/${proposal.token}?paid=1`,
+    cancelUrl: `${origin}/p/${proposal.token}?left=1`,
+    idempotencyKey: (attempt) => `deposit-checkout:${proposal.id}:${attempt}`,
+    save: (sessionId, attempt) =>
+      db
+        .update(proposals)
+        .set({ checkoutSessionId: sessionId, checkoutAttempt: attempt, updatedAt: now.toISOString() })
+        .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted"))),
+  });
 }
 
 function proposalIdOf(event: Stripe.Event): number | null {
