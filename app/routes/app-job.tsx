@@ -2,7 +2,7 @@ import { data, Form, Link, redirect, useFetcher, useNavigation, useSearchParams 
 import type { Route } from "./+types/app-job";
 import { JobChecklist } from "~/components/job-checklist";
 import { CrewCautions } from "~/components/job-sheets";
-import { FormAlert, SelectField, TextField } from "~/components/ui/field";
+import { FormAlert, PhotoField, SelectField, TextField } from "~/components/ui/field";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { STAFF_ROLES } from "~/db/enums";
 import { requireUser } from "~/lib/auth/session.server";
@@ -404,7 +404,6 @@ function PhotoForm({
 }) {
   const fetcher = useFetcher<{ errors: Record<string, string> }>();
   const errors = fetcher.data?.errors ?? {};
-  const id = `photos-${intent}`;
   return (
     <fetcher.Form
       method="post"
@@ -415,31 +414,7 @@ function PhotoForm({
     >
       {errors.form ? <FormAlert>{errors.form}</FormAlert> : null}
       <input type="hidden" name="intent" value={intent} />
-      <div>
-        <label htmlFor={id} className="field-label text-base">
-          {label}
-        </label>
-        <input
-          id={id}
-          name="photos"
-          type="file"
-          accept="image/jpeg,image/png,image/webp"
-          capture="environment"
-          multiple
-          aria-describedby={errors.photos ? `${id}-error` : `${id}-hint`}
-          aria-invalid={errors.photos ? true : undefined}
-          className="field-input min-h-12 text-base"
-        />
-        {errors.photos ? (
-          <p id={`${id}-error`} className="field-error">
-            {errors.photos}
-          </p>
-        ) : (
-          <p id={`${id}-hint`} className="field-hint text-sm">
-            Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.
-          </p>
-        )}
-      </div>
+      <PhotoField label={label} error={errors.photos} maxPhotos={maxPhotos} large />
       <button type="submit" className="btn-primary min-h-12 text-base" disabled={fetcher.state !== "idle"}>
         {fetcher.state !== "idle" ? "Sending…" : button}
       </button>

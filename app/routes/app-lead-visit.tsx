@@ -1,7 +1,7 @@
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-visit";
 import { WorkspaceProblem } from "~/components/workspace-problem";
-import { FormAlert, SelectField, TextField } from "~/components/ui/field";
+import { FormAlert, PhotoField, SelectField, TextField } from "~/components/ui/field";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
@@ -187,31 +187,7 @@ export default function SiteVisitRoute({ loaderData, actionData }: Route.Compone
             ))}
           </SelectField>
         </fieldset>
-        <div>
-          <label htmlFor="visit-photos" className="field-label">
-            Photos of the spot and the way in
-          </label>
-          <input
-            id="visit-photos"
-            name="photos"
-            type="file"
-            accept="image/jpeg,image/png,image/webp"
-            capture="environment"
-            multiple
-            aria-describedby={errors.photos ? "visit-photos-error" : "visit-photos-hint"}
-            aria-invalid={errors.photos ? true : undefined}
-            className="field-input"
-          />
-          {errors.photos ? (
-            <p id="visit-photos-error" className="field-error">
-              {errors.photos}
-            </p>
-          ) : (
-            <p id="visit-photos-hint" className="field-hint">
-              Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.
-            </p>
-          )}
-        </div>
+        <PhotoField label="Photos of the spot and the way in" error={errors.photos} maxPhotos={maxPhotos} />
         <div>
           <label htmlFor="visit-notes" className="field-label">
             Notes

@@ -123,3 +123,50 @@ export function FormAlert({ children, className = "" }: { children: ReactNode; c
     </div>
   );
 }
+
+/**
+ * The staff's photo picker (site visit, build progress, the finished pit): several JPEG, PNG or
+ * WebP photos, the back camera offered on a phone, the limits as its hint, the refusal in its place.
+ * `large` sizes it for a crew member's thumb on site.
+ */
+export function PhotoField({
+  label,
+  error,
+  maxPhotos,
+  large = false,
+}: {
+  label: ReactNode;
+  error?: string;
+  maxPhotos: number;
+  large?: boolean;
+}) {
+  const id = useId();
+  const noteId = error ? `${id}-error` : `${id}-hint`;
+  return (
+    <div>
+      <label htmlFor={id} className={large ? "field-label text-base" : "field-label"}>
+        {label}
+      </label>
+      <input
+        id={id}
+        name="photos"
+        type="file"
+        accept="image/jpeg,image/png,image/webp"
+        capture="environment"
+        multiple
+        aria-describedby={noteId}
+        aria-invalid={error ? true : undefined}
+        className={large ? "field-input min-h-12 text-base" : "field-input"}
+      />
+      {error ? (
+        <p id={noteId} className="field-error">
+          {error}
+        </p>
+      ) : (
+        <p id={noteId} className={large ? "field-hint text-sm" : "field-hint"}>
+          Up to {maxPhotos} JPEG, PNG or WebP photos, 10 MB each.
+        </p>
+      )}
+    </div>
+  );
+}
