@@ -19,6 +19,7 @@ import {
   allowedMoves,
   BUILD_WINDOW_LABEL,
   describeNextStep,
+  isFinishedJob,
   isSignedStage,
   STATUS_LABEL,
 } from "~/lib/leads/lead-status";
@@ -140,7 +141,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
         refund: p.refundOwedAt ? `deposit refunded${p.refundedAt ? "" : " (on its way)"}: ${p.refundReason}` : null,
         canWithdraw: p.status === "sent" || p.status === "accepted",
         canRefund:
-          p.kind === "proposal" && p.status === "signed" && p.paymentIntentId !== null && p.refundOwedAt === null,
+          p.kind === "proposal" &&
+          p.status === "signed" &&
+          p.paymentIntentId !== null &&
+          p.refundOwedAt === null &&
+          !isFinishedJob(lead) &&
+          !balance,
         expires: p.status === "sent" || p.status === "accepted" ? formatZonedDateTime(p.expiresAt, tz) : null,
       };
     }),

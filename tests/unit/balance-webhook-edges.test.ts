@@ -131,7 +131,7 @@ test.each([
   expect(await db.select().from(paymentEvents)).toHaveLength(before);
 });
 
-test("a refund of another payment does not settle the refund owed; the refund of the second payment does", async () => {
+test("a refund of another payment, or of a part of the second, does not settle the refund owed; the whole second payment refunded does", async () => {
   const { balance, cardIntent } = await balanceOwingARefund();
   expect(balance.refundOwedAt).not.toBeNull();
   expect(balance.refundPaymentIntentId).toBe(cardIntent);
@@ -152,9 +152,23 @@ test("a refund of another payment does not settle the refund owed; the refund of
   // Not applied, so not recorded: a corrected delivery may still apply.
   expect(await db.select().from(paymentEvents).where(eq(paymentEvents.id, stray.id))).toEqual([]);
 
+  // A part of the second payment refunded by hand is not the refund owed: it stays owed for the worker.
+  const part = event("charge.refunded", balance, {
+    id: `ch_edge_own_${balance.id}`,
+    object: "charge",
+    amount: balance.amountCents,
+    amount_refunded: 5_000,
+    payment_intent: cardIntent,
+    refunds: { data: [{ id: `re_edge_part_${balance.id}` }] },
+  });
+  expect((await deliverRaw(JSON.stringify(part))).body.outcome).toBe("applied");
+  expect((await balanceOf(balance.leadId)).refundId).toBeNull();
+
   const own = event("charge.refunded", balance, {
     id: `ch_edge_own_${balance.id}`,
     object: "charge",
+    amount: balance.amountCents,
+    amount_refunded: balance.amountCents,
     payment_intent: cardIntent,
     refunds: { data: [{ id: `re_edge_own_${balance.id}` }] },
   });

@@ -230,34 +230,58 @@ test("a first build day before today or more than two years ahead is refused, bo
   // Common practice, no source: nobody books a build for a day gone by, and a date years out is a typo.
   const owner = await officeUser(company.id, "owner");
   const lead = await signedJob();
-  const today = zonedDay(new Date(), company.timeZone);
-  const book = (start: string) =>
-    bookBuild(owner, lead, company, { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true }, ORIGIN);
-  const yesterday = await book(addCalendarDays(today, -1));
+  // 03:30 UTC on 10 March 2027 is the evening of Tuesday 9 March in the company's zone (America/Chicago,
+  // UTC−6 before the clocks change on 14 March): "today" is the company's day, not the server's.
+  expect(company.timeZone).toBe("America/Chicago");
+  const now = new Date("2027-03-10T03:30:00Z");
+  const today = "2027-03-09";
+  expect(zonedDay(now, company.timeZone)).toBe(today);
+  // Two years on: 2027-03-09 + 730 days = 2029-03-08 (29 February 2028 between), a Thursday, worked by hand.
+  const edge = addCalendarDays(today, BOOKING_DAYS_AHEAD);
+  expect([edge, weekdayOf(edge)]).toEqual(["2029-03-08", 4]);
+  const book = (start: string, at = now) =>
+    bookBuild(
+      owner,
+      lead,
+      company,
+      { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true, now: at },
+      ORIGIN,
+    );
+  const yesterday = await book("2027-03-08");
   expect(yesterday).toMatchObject({ ok: false, status: 400, errors: { start: /today or a later day/ } });
-  const tooFar = await book(addCalendarDays(today, BOOKING_DAYS_AHEAD + 1));
-  expect(tooFar).toMatchObject({ ok: false, status: 400, errors: { start: /within two years/ } });
+  const tooFar = await book("2029-03-09");
+  expect(tooFar).toMatchObject({ ok: false, status: 400, errors: { start: /within two years, by .*2029/ } });
+  // A start inside the window that the working week pushes past it: Saturday 2029-03-10 seen from
+  // 2027-03-11 (edge 2029-03-10) would start on Monday 2029-03-12, outside.
+  const laterNow = new Date("2027-03-11T18:00:00Z");
+  expect(addCalendarDays(zonedDay(laterNow, company.timeZone), BOOKING_DAYS_AHEAD)).toBe("2029-03-10");
+  expect(weekdayOf("2029-03-10")).toBe(6);
+  expect(await book("2029-03-10", laterNow)).toMatchObject({
+    ok: false,
+    status: 400,
+    errors: { start: /within two years/ },
+  });
   expect(await db.select().from(builds).where(eq(builds.leadId, lead.id))).toEqual([]);
   // The last day inside the window is taken (the window's edge, not one day short of it).
-  const edge = await book(addCalendarDays(today, BOOKING_DAYS_AHEAD));
-  if (!edge.ok) throw new Error(JSON.stringify(edge));
+  const booked = await book(edge);
+  if (!booked.ok) throw new Error(JSON.stringify(booked));
+  expect(booked.build.firstDay).toBe(edge);
   const move = (start: string) =>
     moveBuild(
       owner,
       lead,
       company,
-      { buildId: edge.build.id, sequence: 0, start, days: null, crewUserIds: null, allowClash: true },
+      { buildId: booked.build.id, sequence: 0, start, days: null, crewUserIds: null, allowClash: true, now },
       ORIGIN,
     );
-  expect(await move(addCalendarDays(today, -3))).toMatchObject({ ok: false, status: 400 });
-  expect(await move(addCalendarDays(today, BOOKING_DAYS_AHEAD + 30))).toMatchObject({ ok: false, status: 400 });
-  const [row] = await db.select().from(builds).where(eq(builds.id, edge.build.id));
-  expect([row!.sequence, row!.firstDay >= addCalendarDays(today, BOOKING_DAYS_AHEAD)]).toEqual([0, true]);
-  // Today itself is allowed.
-  const moved = await move(today);
-  expect(
-    moved.ok || ("status" in moved && moved.status === 400 && /working day/.test(String(moved.errors.start))),
-  ).toBe(true);
+  expect(await move("2027-03-06")).toMatchObject({ ok: false, status: 400 });
+  expect(await move("2029-04-07")).toMatchObject({ ok: false, status: 400 });
+  const [row] = await db.select().from(builds).where(eq(builds.id, booked.build.id));
+  expect([row!.sequence, row!.firstDay]).toEqual([0, edge]);
+  // Today itself (a working Tuesday) is allowed.
+  expect(await move(today)).toMatchObject({ ok: true });
+  const [moved] = await db.select().from(builds).where(eq(builds.id, booked.build.id));
+  expect([moved!.sequence, moved!.firstDay]).toEqual([1, today]);
 });
 
 test("cancelling sends METHOD:CANCEL under the same UID, withdraws the reminder and puts the job back to signed", async () => {

@@ -38,12 +38,12 @@ import { db } from "~/lib/platform/db.server";
 import { env } from "~/lib/platform/env.server";
 import { createStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
-import { startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
+import { requestDepositRefund, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
 import { routeArgs } from "./support/demo";
-import { sentProposal } from "./support/proposals";
+import { officeUser, sentProposal } from "./support/proposals";
 
 let fake: PaymentsFake;
 beforeAll(async () => {
@@ -338,6 +338,36 @@ async function fakeEvents(type: string) {
   return answer.data;
 }
 
+/** The payments fake's refunds of one payment. */
+async function fakeRefundsOf(paymentIntent: string) {
+  const answer = (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
+    data: { id: string; amount: number; payment_intent: string }[];
+  };
+  return answer.data.filter((r) => r.payment_intent === paymentIntent);
+}
+
+/** The newest refund notice the payments fake recorded for one payment. */
+async function newestRefundNotice(paymentIntent: string) {
+  const notices = (await fakeEvents("charge.refunded")).filter((e) => e.data.object.payment_intent === paymentIntent);
+  expect(notices.length).toBeGreaterThan(0);
+  return notices.at(-1)!;
+}
+
+/** A payments client that counts the refunds asked of it on one payment (other tests' rows share the queue). */
+function countingRefunds(client: Stripe, paymentIntent: string) {
+  const counter = { calls: 0, client: client as Pick<Stripe, "refunds"> };
+  counter.client = {
+    refunds: {
+      ...client.refunds,
+      create: ((...args: Parameters<Stripe["refunds"]["create"]>) => {
+        if (args[0]?.payment_intent === paymentIntent) counter.calls += 1;
+        return client.refunds.create(...args);
+      }) as Stripe["refunds"]["create"],
+    } as Stripe["refunds"],
+  };
+  return counter;
+}
+
 /** A signed job whose deposit was paid by card on the payments fake, applied by its own signed webhook. */
 async function jobWithCardDeposit() {
   const sent = await sentProposal();
@@ -416,17 +446,16 @@ test("a credit left by the change orders goes back to the deposit's card once, f
     .where(eq(emailOutbox.idempotencyKey, `job-completed/${job.lead.id}`));
   expect(mail!.text).toContain("it is being refunded to the card that paid the deposit");
 
-  // Two workers at once, then a later pass: one refund of $105 on the deposit's payment.
+  // Two workers at once, then a later pass: one refund of $105 on the deposit's payment, asked for
+  // once (the lease, not the service's idempotency key, keeps the second worker off it).
+  const counting = countingRefunds(job.client, job.proposal.paymentIntentId!);
   await Promise.all([
-    processBalanceRefunds(job.client, { owner: "worker-a" }),
-    processBalanceRefunds(job.client, { owner: "worker-b" }),
+    processBalanceRefunds(counting.client, { owner: "worker-a" }),
+    processBalanceRefunds(counting.client, { owner: "worker-b" }),
   ]);
-  await processBalanceRefunds(job.client, { owner: "worker-a" });
-  const refunds = (
-    (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
-      data: { id: string; amount: number; payment_intent: string }[];
-    }
-  ).data.filter((r) => r.payment_intent === job.proposal.paymentIntentId);
+  await processBalanceRefunds(counting.client, { owner: "worker-a" });
+  expect(counting.calls).toBe(1);
+  const refunds = await fakeRefundsOf(job.proposal.paymentIntentId!);
   expect(refunds.map((r) => r.amount)).toEqual([10_500]);
   expect((await balanceOf(job.lead.id))!.refundId).toBe(refunds[0]!.id);
 
@@ -437,6 +466,79 @@ test("a credit left by the change orders goes back to the deposit's card once, f
   expect(await deliver(refundedNotice)).toEqual({ status: 200, outcome: "applied" });
   const [deposit] = await db.select().from(proposals).where(eq(proposals.id, job.proposal.id));
   expect([deposit!.refundOwedAt, deposit!.refundId]).toEqual([null, null]);
+  expect((await balanceOf(job.lead.id))!.refundId).toBe(refunds[0]!.id);
+
+  // The job is built and its balance counts the deposit: the owner cannot refund the deposit on top.
+  const owner = await officeUser(job.lead.companyId, "owner");
+  const [lead] = await db.select().from(leads).where(eq(leads.id, job.lead.id));
+  expect(
+    await requestDepositRefund({
+      actorUserId: owner.id,
+      lead: lead!,
+      proposalId: job.proposal.id,
+      reason: "changed mind",
+    }),
+  ).toMatch(/^The job is built/);
+  const [still] = await db.select().from(proposals).where(eq(proposals.id, job.proposal.id));
+  expect(still!.refundOwedAt).toBeNull();
+  expect(await stageOf(job.lead.id)).toBe("paid-in-full");
+});
+
+test("a part of the deposit refunded by hand does not settle the credit; the whole credit refunded by hand does, and the worker sends nothing more", async () => {
+  // Same job: a $105 credit on a $1,455 card deposit (worked by hand above).
+  const partJob = await jobWithCardDeposit();
+  await signedChange(partJob.proposal, -350_000);
+  const crew = await crewOf(partJob.lead.companyId);
+  await markJobBuilt({ companyId: partJob.lead.companyId, leadId: partJob.lead.id, actorUserId: crew.id });
+  const intent = partJob.proposal.paymentIntentId!;
+  // $50 back by hand from the payment service's dashboard, its notice delivered before any worker pass.
+  await partJob.client.refunds.create({ payment_intent: intent, amount: 5_000 });
+  expect(await deliver(await newestRefundNotice(intent))).toEqual({ status: 200, outcome: "applied" });
+  expect((await balanceOf(partJob.lead.id))!.refundId).toBeNull();
+  await processBalanceRefunds(partJob.client, { owner: "worker-a" });
+  expect((await fakeRefundsOf(intent)).map((r) => r.amount).sort((a, b) => a - b)).toEqual([5_000, 10_500]);
+
+  const handJob = await jobWithCardDeposit();
+  await signedChange(handJob.proposal, -350_000);
+  await markJobBuilt({ companyId: handJob.lead.companyId, leadId: handJob.lead.id, actorUserId: crew.id });
+  const handIntent = handJob.proposal.paymentIntentId!;
+  await handJob.client.refunds.create({ payment_intent: handIntent, amount: 10_500 });
+  expect(await deliver(await newestRefundNotice(handIntent))).toEqual({ status: 200, outcome: "applied" });
+  expect((await balanceOf(handJob.lead.id))!.refundId).not.toBeNull();
+  const counting = countingRefunds(handJob.client, handIntent);
+  await processBalanceRefunds(counting.client, { owner: "worker-a" });
+  expect(counting.calls).toBe(0);
+  expect((await fakeRefundsOf(handIntent)).map((r) => r.amount)).toEqual([10_500]);
+});
+
+test("a deposit refunded before the job goes ahead again no longer counts: the balance is the whole contract, with no credit on its card", async () => {
+  // $4,850 signed, no add-ons; the owner refunds the $1,455 deposit, then the job resumes and is built.
+  const job = await jobWithCardDeposit();
+  const owner = await officeUser(job.lead.companyId, "owner");
+  const [lead] = await db.select().from(leads).where(eq(leads.id, job.lead.id));
+  expect(
+    await requestDepositRefund({
+      actorUserId: owner.id,
+      lead: lead!,
+      proposalId: job.proposal.id,
+      reason: "on hold a year",
+    }),
+  ).toBeNull();
+  expect(await stageOf(job.lead.id)).toBe("not-going-ahead");
+  await db.update(leads).set({ status: "build-booked" }).where(eq(leads.id, job.lead.id));
+  const crew = await crewOf(job.lead.companyId);
+  await markJobBuilt({ companyId: job.lead.companyId, leadId: job.lead.id, actorUserId: crew.id });
+  expect(await balanceOf(job.lead.id)).toMatchObject({
+    depositCents: 0,
+    amountCents: 485_000,
+    refundOwedAt: null,
+    refundPaymentIntentId: null,
+  });
+  const [mail] = await db
+    .select()
+    .from(emailOutbox)
+    .where(eq(emailOutbox.idempotencyKey, `job-completed/${job.lead.id}`));
+  expect(mail!.text).not.toContain("Deposit paid");
 });
 
 test("a credit on a deposit not paid by card here is left to the office, and says so; a credit beyond the deposit refunds the deposit only", async () => {

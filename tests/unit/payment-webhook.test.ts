@@ -242,6 +242,39 @@ test.each([
   expect((await deliver(JSON.stringify(completedEvent(booking.id)))).json.outcome).toBe("applied");
 });
 
+test("a part of a paid consult refunded by hand does not mark it refunded; the whole payment refunded does", async () => {
+  const { booking } = await heldBooking();
+  await deliver(JSON.stringify(completedEvent(booking.id)));
+  const [paid] = await db.select().from(bookings).where(eq(bookings.id, booking.id));
+  const refundNotice = (amountRefunded: number, refundId: string) => {
+    eventSeq += 1;
+    return {
+      id: `evt_test_${Date.now()}_${eventSeq}`,
+      object: "event",
+      type: "charge.refunded",
+      created: Math.floor(Date.now() / 1000),
+      data: {
+        object: {
+          id: `ch_part_${booking.id}`,
+          object: "charge",
+          amount: paid!.amountCents,
+          amount_refunded: amountRefunded,
+          payment_intent: paid!.paymentIntentId,
+          metadata: { booking_id: String(booking.id) },
+          refunds: { data: [{ id: refundId }] },
+        },
+      },
+    };
+  };
+  expect((await deliver(JSON.stringify(refundNotice(1_000, "re_part")))).json.outcome).toBe("applied");
+  expect((await db.select().from(bookings).where(eq(bookings.id, booking.id)))[0]).toMatchObject({
+    refundId: null,
+    refundedAt: null,
+  });
+  expect((await deliver(JSON.stringify(refundNotice(paid!.amountCents, "re_whole")))).json.outcome).toBe("applied");
+  expect((await db.select().from(bookings).where(eq(bookings.id, booking.id)))[0]!.refundId).toBe("re_whole");
+});
+
 test("a signed refund event naming another payment does not mark a paid consult refunded", async () => {
   const { booking } = await heldBooking();
   await deliver(JSON.stringify(completedEvent(booking.id)));

@@ -327,6 +327,8 @@ type BookInput = {
   days: number | null;
   notes: string;
   allowClash: boolean;
+  /** The moment "today" is taken from (the company's day); now when absent. */
+  now?: Date;
 };
 
 /** How far ahead a build can be booked: a date years out is a typo (2062 for 2026), not a plan. */
@@ -339,20 +341,22 @@ async function prepareDays(
   input: Omit<BookInput, "notes">,
   labourHours: number,
 ): Promise<BuildFailure | { ok: true; dates: CalendarDate[]; crew: { id: number; name: string; email: string }[] }> {
-  const today = zonedDay(new Date(), company.timeZone);
+  const today = zonedDay(input.now ?? new Date(), company.timeZone);
+  const tooFar = (): BuildFailure => ({
+    ok: false as const,
+    status: 400 as const,
+    errors: {
+      start: `Choose a first build day within two years, by ${describeBuildDays([addCalendarDays(today, BOOKING_DAYS_AHEAD)])}.`,
+    },
+  });
   const ahead = daysBetween(today, input.start);
-  if (ahead < 0 || ahead > BOOKING_DAYS_AHEAD) {
+  if (ahead < 0)
     return {
       ok: false as const,
       status: 400 as const,
-      errors: {
-        start:
-          ahead < 0
-            ? "Choose today or a later day as the first build day."
-            : `Choose a first build day within two years, by ${describeBuildDays([addCalendarDays(today, BOOKING_DAYS_AHEAD)])}.`,
-      },
+      errors: { start: "Choose today or a later day as the first build day." },
     };
-  }
+  if (ahead > BOOKING_DAYS_AHEAD) return tooFar();
   const calendar = await workCalendarFor(company);
   const crew = await activeCrew(company.id, input.crewUserIds);
   if (input.crewUserIds.length === 0 || crew.length !== new Set(input.crewUserIds).size) {
@@ -375,6 +379,8 @@ async function prepareDays(
       errors: { start: "No working day to start on: check the working weekdays and days off." },
     };
   }
+  // Days off and non-working weekdays may push the first day past the window.
+  if (daysBetween(today, dates[0]!) > BOOKING_DAYS_AHEAD) return tooFar();
   const names = new Map(crew.map((c) => [c.id, c.name]));
   const clashes = await clashesFor(
     company,
@@ -477,6 +483,7 @@ export async function moveBuild(
     days: number | null;
     crewUserIds: number[] | null;
     allowClash: boolean;
+    now?: Date;
   },
   origin: string,
 ): Promise<BuildResult> {
@@ -494,6 +501,7 @@ export async function moveBuild(
       crewUserIds: crewIds,
       days: input.days ?? current.dates.length,
       allowClash: input.allowClash,
+      now: input.now,
     },
     current.labourHours,
   );

@@ -18,7 +18,12 @@ import { BalancePaidEmail, JobCompletedEmail, type BalanceLine } from "~/emails/
 import { formatMoney } from "~/lib/format/money";
 import { formatZonedDate } from "~/lib/format/zoned-time";
 import { WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import {
+  noticeCoversRefund,
+  sendOwedRefunds,
+  tableRefundQueue,
+  type RefundQueue,
+} from "~/lib/jobs/refund-queue.server";
 import { STATUS_LABEL } from "~/lib/leads/lead-status";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
@@ -76,15 +81,17 @@ export async function balanceFromPapers(
     .select({ priceCents: proposals.priceCents })
     .from(proposals)
     .where(and(eq(proposals.parentId, signed.id), eq(proposals.kind, "change-order"), eq(proposals.status, "signed")));
+  // A deposit refunded (or on its way back) no longer counts as paid, and no credit goes back on its card.
+  const depositKept = signed.refundOwedAt === null;
   return {
     proposalId: signed.id,
-    depositPaymentIntentId: signed.paymentIntentId,
+    depositPaymentIntentId: depositKept ? signed.paymentIntentId : null,
     balance: balanceDue({
       proposalPriceCents: signed.priceCents,
       proposalTotalCents: signed.totalCents,
       changeOrderDeltasCents: changes.map((c) => c.priceCents),
       // A demo or legacy deposit without a recorded payment still counts as paid once the proposal is signed.
-      depositPaidCents: signed.depositCents ?? 0,
+      depositPaidCents: depositKept ? (signed.depositCents ?? 0) : 0,
     }),
   };
 }
@@ -101,7 +108,7 @@ export function balanceLines(parts: Omit<Balance, "contractCents" | "amountCents
           ? formatMoney(parts.changeOrdersCents)
           : `−${formatMoney(-parts.changeOrdersCents)}`,
     });
-  lines.push({ label: "Deposit paid", amount: `−${formatMoney(parts.depositCents)}` });
+  if (parts.depositCents > 0) lines.push({ label: "Deposit paid", amount: `−${formatMoney(parts.depositCents)}` });
   return lines;
 }
 
@@ -411,14 +418,16 @@ export async function applyBalanceEvent(event: Stripe.Event, now = new Date()): 
         );
         throw new MismatchRollback();
       }
-      await tx
-        .update(jobBalances)
-        .set({
-          refundId: balance.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded",
-          refundedAt: balance.refundedAt ?? at,
-          updatedAt: at,
-        })
-        .where(and(eq(jobBalances.id, balance.id), isNotNull(jobBalances.refundOwedAt)));
+      // A part refunded by hand is not the refund owed: the worker still sends it.
+      if (!balance.refundId && noticeCoversRefund(charge, balance.refundAmountCents))
+        await tx
+          .update(jobBalances)
+          .set({
+            refundId: charge.refunds?.data?.[0]?.id ?? "refunded",
+            refundedAt: balance.refundedAt ?? at,
+            updatedAt: at,
+          })
+          .where(and(eq(jobBalances.id, balance.id), isNull(jobBalances.refundId)));
       return "applied";
     }
     return "ignored";

@@ -24,7 +24,12 @@ import {
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import {
+  noticeCoversRefund,
+  sendOwedRefunds,
+  tableRefundQueue,
+  type RefundQueue,
+} from "~/lib/jobs/refund-queue.server";
 import {
   checkReschedule,
   CONSULT_HOLD_MINUTES,
@@ -649,11 +654,16 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
     }
     if (event.type === "charge.refunded") {
       const charge = event.data.object;
-      const refundId = charge.refunds?.data?.[0]?.id ?? booking.refundId ?? "refunded";
-      await tx
-        .update(bookings)
-        .set({ refundId, refundedAt: booking.refundedAt ?? now, updatedAt: now })
-        .where(eq(bookings.id, booking.id));
+      // The consult is refunded whole: a part refunded by hand leaves a refund owed for the worker.
+      if (!booking.refundId && noticeCoversRefund(charge, null))
+        await tx
+          .update(bookings)
+          .set({
+            refundId: charge.refunds?.data?.[0]?.id ?? "refunded",
+            refundedAt: booking.refundedAt ?? now,
+            updatedAt: now,
+          })
+          .where(and(eq(bookings.id, booking.id), isNull(bookings.refundId)));
       return "applied";
     }
     return "ignored";

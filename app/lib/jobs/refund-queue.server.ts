@@ -62,6 +62,19 @@ type RefundTable = SQLiteTable & {
 const REFUND_BATCH_SIZE = 10;
 
 /**
+ * Whether a refund notice shows an owed refund made: the charge carries at least that much back (the
+ * whole payment when no amount is owed). A smaller refund (made by hand, or of something else) settles
+ * nothing, and the worker still sends what is owed.
+ */
+export function noticeCoversRefund(
+  charge: Pick<Stripe.Charge, "amount" | "amount_refunded">,
+  owedCents: number | null | undefined,
+): boolean {
+  const back = Number(charge.amount_refunded);
+  return Number.isFinite(back) && back > 0 && back >= (owedCents ?? Number(charge.amount));
+}
+
+/**
  * The queue of one table's owed refunds: rows where `owed` holds, with a payment to refund, not yet
  * refunded nor given up, due, and not leased by a live process. Claimed oldest first (never tried,
  * then by when each may try again, so a failing refund waits behind the rest), up to a batch, in one

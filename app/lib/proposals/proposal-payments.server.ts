@@ -1,4 +1,4 @@
-import { and, eq, inArray, isNotNull, isNull, lte, sql } from "drizzle-orm";
+import { and, eq, inArray, isNotNull, isNull, lte } from "drizzle-orm";
 import type Stripe from "stripe";
 import {
   companies,
@@ -15,10 +15,15 @@ import {
 import { DepositPaidEmail } from "~/emails/proposal-emails";
 import { db, writeTransaction, type Db } from "~/lib/platform/db.server";
 import { WORKER_ID } from "~/lib/jobs/jobs.server";
-import { sendOwedRefunds, tableRefundQueue, type RefundQueue } from "~/lib/jobs/refund-queue.server";
+import {
+  noticeCoversRefund,
+  sendOwedRefunds,
+  tableRefundQueue,
+  type RefundQueue,
+} from "~/lib/jobs/refund-queue.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
-import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { isFinishedJob, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoney } from "~/lib/format/money";
 import { CheckoutRefused, openHostedCheckout, stripe as defaultStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
@@ -205,42 +210,44 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
         const charge = event.data.object;
         const refundedIntent =
           typeof charge.payment_intent === "string" ? charge.payment_intent : (charge.payment_intent?.id ?? null);
-        // A built job's credit goes back on the deposit's payment: the balance owes that refund, and
-        // the worker recorded it when it was made; this notice confirms it.
-        if (!proposal.refundOwedAt && refundedIntent && refundedIntent === proposal.paymentIntentId) {
-          const owedByBalance = await tx
-            .update(jobBalances)
-            .set({
-              refundId: sql`coalesce(${jobBalances.refundId}, ${charge.refunds?.data?.[0]?.id ?? "refunded"})`,
-              refundedAt: sql`coalesce(${jobBalances.refundedAt}, ${at})`,
-              updatedAt: at,
-            })
-            .where(
-              and(
-                eq(jobBalances.proposalId, proposal.id),
-                eq(jobBalances.refundPaymentIntentId, refundedIntent),
-                isNotNull(jobBalances.refundOwedAt),
-              ),
-            )
-            .returning({ id: jobBalances.id });
-          if (owedByBalance.length) return "applied";
+        // Only a refund of the deposit's own payment can settle anything here.
+        if (!refundedIntent || refundedIntent !== proposal.paymentIntentId) {
+          console.warn(`deposit event ${event.id} refunds a payment proposal ${proposal.id} did not take; not applied`);
+          throw new DepositMismatch();
         }
-        // Only the refund of the deposit's own payment, owed back, settles it: a refund of some other
-        // payment must not mark the deposit as given back.
-        if (!proposal.refundOwedAt || !refundedIntent || refundedIntent !== proposal.paymentIntentId) {
+        const noticeRefundId = charge.refunds?.data?.[0]?.id ?? "refunded";
+        // A built job's credit goes back on the deposit's payment: the balance owes that refund (never
+        // beside a deposit refund: a built job's deposit is not refunded on its own), and the notice
+        // confirms it once the card carries at least the credit back.
+        const [credit] = await tx
+          .select({ id: jobBalances.id, refundId: jobBalances.refundId, amountCents: jobBalances.refundAmountCents })
+          .from(jobBalances)
+          .where(
+            and(
+              eq(jobBalances.proposalId, proposal.id),
+              eq(jobBalances.refundPaymentIntentId, refundedIntent),
+              isNotNull(jobBalances.refundOwedAt),
+            ),
+          );
+        if (credit) {
+          if (!credit.refundId && noticeCoversRefund(charge, credit.amountCents))
+            await tx
+              .update(jobBalances)
+              .set({ refundId: noticeRefundId, refundedAt: at, updatedAt: at })
+              .where(and(eq(jobBalances.id, credit.id), isNull(jobBalances.refundId)));
+          return "applied";
+        }
+        if (!proposal.refundOwedAt) {
           console.warn(
-            `deposit event ${event.id} refunds a payment proposal ${proposal.id} does not owe back; not applied`,
+            `deposit event ${event.id} refunds a deposit proposal ${proposal.id} does not owe back; not applied`,
           );
           throw new DepositMismatch();
         }
-        await tx
-          .update(proposals)
-          .set({
-            refundId: proposal.refundId ?? charge.refunds?.data?.[0]?.id ?? "refunded",
-            refundedAt: proposal.refundedAt ?? at,
-            updatedAt: at,
-          })
-          .where(eq(proposals.id, proposal.id));
+        if (!proposal.refundId && noticeCoversRefund(charge, null))
+          await tx
+            .update(proposals)
+            .set({ refundId: noticeRefundId, refundedAt: proposal.refundedAt ?? at, updatedAt: at })
+            .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundId)));
         return "applied";
       }
       return "ignored";
@@ -291,26 +298,43 @@ export async function requestDepositRefund(args: {
   reason: string;
   now?: Date;
 }): Promise<string | null> {
-  const { lead, reason } = args;
+  const { reason } = args;
   const at = (args.now ?? new Date()).toISOString();
-  const [proposal] = await db
-    .select()
-    .from(proposals)
-    .where(
-      and(eq(proposals.id, args.proposalId), eq(proposals.leadId, lead.id), eq(proposals.companyId, lead.companyId)),
-    )
-    .limit(1);
-  if (!proposal || proposal.kind !== "proposal") return "That proposal is not one of this job's.";
-  if (proposal.status !== "signed" || !proposal.paymentIntentId)
-    return "Only a deposit paid through the payment service can be refunded here.";
-  if (proposal.refundOwedAt) return "That deposit is already being refunded.";
-  const document = parseProposalDocument(proposal.documentJson);
-  await db.batch([
-    db
+  // One write transaction: a job marked built meanwhile (its balance counts this deposit) or a second
+  // refund of the same deposit sees the other's writes and is refused.
+  return writeTransaction(async (tx) => {
+    const [lead] = await tx
+      .select()
+      .from(leads)
+      .where(and(eq(leads.id, args.lead.id), eq(leads.companyId, args.lead.companyId)));
+    const [proposal] = await tx
+      .select()
+      .from(proposals)
+      .where(
+        and(
+          eq(proposals.id, args.proposalId),
+          eq(proposals.leadId, args.lead.id),
+          eq(proposals.companyId, args.lead.companyId),
+        ),
+      )
+      .limit(1);
+    if (!lead || !proposal || proposal.kind !== "proposal") return "That proposal is not one of this job's.";
+    if (proposal.status !== "signed" || !proposal.paymentIntentId)
+      return "Only a deposit paid through the payment service can be refunded here.";
+    if (proposal.refundOwedAt) return "That deposit is already being refunded.";
+    const [balance] = await tx
+      .select({ id: jobBalances.id })
+      .from(jobBalances)
+      .where(eq(jobBalances.leadId, lead.id))
+      .limit(1);
+    if (balance || isFinishedJob(lead))
+      return "The job is built: its balance counts this deposit, so the deposit is not refunded on its own. A credit goes back through the balance.";
+    const document = parseProposalDocument(proposal.documentJson);
+    await tx
       .update(proposals)
       .set({ refundOwedAt: at, refundReason: reason, updatedAt: at })
-      .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt))),
-    db
+      .where(and(eq(proposals.id, proposal.id), isNull(proposals.refundOwedAt)));
+    await tx
       .update(leads)
       .set({
         status: "not-going-ahead",
@@ -318,17 +342,17 @@ export async function requestDepositRefund(args: {
         pausedStage: lead.status === "on-hold" ? lead.pausedStage : lead.status,
         updatedAt: at,
       })
-      .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId))),
-    db.insert(leadEvents).values({
+      .where(and(eq(leads.id, lead.id), eq(leads.companyId, lead.companyId)));
+    await tx.insert(leadEvents).values({
       companyId: lead.companyId,
       leadId: lead.id,
       actorUserId: args.actorUserId,
       kind: "deposit-refund",
       detail: `Deposit of ${formatMoney(proposal.depositCents ?? 0)} on ${document.number} refunded: ${reason}. ${STATUS_LABEL[lead.status]} → ${STATUS_LABEL["not-going-ahead"]}.`,
       createdAt: at,
-    }),
-  ]);
-  return null;
+    });
+    return null;
+  });
 }
 
 /** Deposits the owner refunded (or paid too late), refunded through the shared refund worker. */
