@@ -171,8 +171,20 @@ async function sendResponse(req, res, response) {
   for (const cookie of response.headers.getSetCookie()) raw.push("Set-Cookie", cookie);
   res.statusMessage = response.statusText || "";
   res.writeHead(response.status, raw);
-  if (response.body && req.method !== "HEAD") await writeReadableStreamToWritable(response.body, res);
-  else res.end();
+  if (!response.body || req.method === "HEAD") {
+    res.end();
+    return;
+  }
+  try {
+    await writeReadableStreamToWritable(response.body, res);
+  } catch (error) {
+    // The client went away mid-answer (a closed tab, a click elsewhere): nobody to tell, nothing to log.
+    if (res.destroyed || req.destroyed) {
+      await response.body.cancel().catch(() => undefined);
+      return;
+    }
+    throw error;
+  }
 }
 
 function staticHeaders(res) {
