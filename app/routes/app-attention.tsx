@@ -14,6 +14,7 @@ import { getCompany } from "~/lib/catalog/catalog.server";
 import { formatSlot } from "~/lib/consults/consult-slots";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Needs attention · Emberwright" }];
 
@@ -70,7 +71,7 @@ const retrySchema = z.object({
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const parsed = retrySchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = retrySchema.safeParse(await readTextFields(request));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message, done: null }, { status: 400 });
   const { intent, id } = parsed.data;
   const retry = {

@@ -5,6 +5,7 @@ import { FormAlert } from "~/components/ui/field";
 import { requireUser } from "~/lib/auth/session.server";
 import { hasCalendarFeed, issueCalendarFeed, revokeCalendarFeed } from "~/lib/builds/builds.server";
 import { appOrigin } from "~/lib/platform/email.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "My build calendar · Emberwright" }];
 
@@ -21,7 +22,7 @@ const intentSchema = z.object({
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: CALENDAR_ROLES });
-  const parsed = intentSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = intentSchema.safeParse(await readTextFields(request));
   if (!parsed.success)
     return data({ error: parsed.error.issues[0]!.message, link: null, revoked: false }, { status: 400 });
   if (parsed.data.intent === "revoke") {

@@ -11,6 +11,7 @@ import { ORDER_UNIT_LABEL } from "~/lib/suppliers/order-units";
 import { requireUser } from "~/lib/auth/session.server";
 import { findSupplier, listSuppliers } from "~/lib/suppliers/suppliers.server";
 import { formatLengthInput, LENGTH_EXAMPLES } from "~/domain/units";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: `${loaderData?.item ? loaderData.item.name : "New item"} · Catalog · Emberwright` },
@@ -37,7 +38,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
   const itemId = parseItemId(params.itemId);
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = parseCatalogForm(form);
   if (!parsed.ok) {
     return data({ errors: parsed.errors }, { status: 400 });

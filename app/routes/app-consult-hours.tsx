@@ -13,6 +13,7 @@ import { saveConsultHours } from "~/lib/settings/company-settings.server";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Consult hours · Emberwright" }];
 
@@ -67,7 +68,7 @@ const hoursSchema = z.object({
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const form = await request.formData();
+  const form = await readForm(request);
   const intent = form.get("intent");
   if (intent === "block") {
     const company = await getCompany(user.companyId);

@@ -16,6 +16,7 @@ import { saveCompanyFactors } from "~/lib/settings/factor-settings.server";
 import { fieldErrors } from "~/lib/format/form-fields";
 import { requireUser } from "~/lib/auth/session.server";
 import { formatLengthInput } from "~/domain/units";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Estimating factors · Emberwright" }];
 
@@ -32,7 +33,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const form = await request.formData();
+  const form = await readForm(request);
   const fields: Record<string, string> = {};
   for (const row of FACTOR_ROWS) {
     const value = form.get(row.key);

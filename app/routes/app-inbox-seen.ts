@@ -3,6 +3,7 @@ import type { Route } from "./+types/app-inbox-seen";
 import { requireApiUser, OFFICE_ROLES } from "~/lib/auth/staff.server";
 import { markInboxSeen } from "~/lib/leads/inbox.server";
 import { postOnly } from "~/lib/platform/post-only.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 const seenSchema = z.object({
   at: z.iso.datetime({ error: "At must be an ISO 8601 UTC time like 2026-12-02T14:00:00.000Z." }),
@@ -16,7 +17,7 @@ export const loader = postOnly("The inbox page posts here when its list is shown
  */
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireApiUser(request, OFFICE_ROLES);
-  const parsed = seenSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = seenSchema.safeParse(await readTextFields(request));
   if (!parsed.success)
     return Response.json({ errors: [{ path: "at", message: parsed.error.issues[0]!.message }] }, { status: 400 });
   const now = new Date();

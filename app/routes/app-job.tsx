@@ -14,6 +14,7 @@ import { fieldErrors } from "~/lib/format/form-fields";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { MAX_PHOTOS } from "~/lib/platform/uploads.server";
 import { LabelledLines } from "~/components/labelled-lines";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `On site: ${loaderData.job.customerName} · Emberwright` : "On site · Emberwright" },
@@ -51,9 +52,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: RECORD_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead || !isSignedStage(lead.status)) throw new Response("Not found", { status: 404 });
-  const form = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const form = await readTextFields(request);
   const intent = form.intent;
   const clientId = UUID.test(form.clientId ?? "") ? form.clientId! : crypto.randomUUID();
   if (intent === "hours") {

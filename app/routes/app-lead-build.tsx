@@ -22,6 +22,7 @@ import { toCleanLines, toSingleLine } from "~/lib/format/clean-text";
 import { fieldErrors, formId } from "~/lib/format/form-fields";
 import { zonedDay } from "~/lib/format/zoned-time";
 import { appOrigin } from "~/lib/platform/email.server";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Build dates: ${loaderData.customerName} · Emberwright` : "Build dates · Emberwright" },
@@ -134,7 +135,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
   const company = await getCompany(user.companyId);
-  const form = await request.formData();
+  const form = await readForm(request);
   const values = { ...Object.fromEntries(form), crewUserIds: form.getAll("crewUserIds") };
   const parsed = actionSchema.safeParse(values);
   if (!parsed.success)

@@ -9,6 +9,7 @@ import { appOrigin } from "~/lib/platform/email.server";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" },
@@ -65,9 +66,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   const parsed = changeSchema.safeParse(fields);
   const company = await getCompany(user.companyId);
   const today = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date());

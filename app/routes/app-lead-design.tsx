@@ -20,6 +20,7 @@ import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { speakLengths } from "~/lib/format/length-text";
 import { possessive } from "~/lib/format/wording";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   {
@@ -57,7 +58,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, lead, company, catalog, factors } = await loadContext(request, params.leadId);
-  const form = await request.formData();
+  const form = await readForm(request);
   const query = String(form.get("design") ?? "");
   const errors = checkDesignParams(query, catalog);
   if (Object.keys(errors).length) return data({ errors }, { status: 400 });

@@ -12,6 +12,7 @@ import { MAX_ADD_ONS, parseComposeForm, withdrawSchema } from "~/lib/proposals/p
 import { draftProposal, sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Proposal: ${loaderData.customerName} · Emberwright` : "Proposal · Emberwright" },
@@ -52,9 +53,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   if (fields.intent === "withdraw") {
     const parsed = withdrawSchema.safeParse(fields);
     if (!parsed.success)

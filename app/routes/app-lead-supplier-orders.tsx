@@ -16,6 +16,7 @@ import {
   planSupplierOrders,
 } from "~/lib/suppliers/supplier-orders.server";
 import { nextDay, zonedDay } from "~/lib/format/zoned-time";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `Supplier orders · ${data.lead.customerName} · Emberwright` : "Supplier orders · Emberwright" },
@@ -63,7 +64,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const form = await request.formData();
+  const form = await readForm(request);
   const requestedOn = String(form.get("requestedOn") ?? "").trim();
   const result = await draftSupplierOrders(user, lead, requestedOn);
   if (!result.ok) return data({ errors: result.errors, requestedOn }, { status: result.status });

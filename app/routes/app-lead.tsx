@@ -56,6 +56,7 @@ import { BalanceCard, JobCostCard } from "~/components/job-money-cards";
 import { describeBalance, findJobBalance } from "~/lib/builds/job-balance.server";
 import { describeJobCost, jobCostFor } from "~/lib/builds/job-cost.server";
 import { LabelledLines } from "~/components/labelled-lines";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `${loaderData.lead.customerName} · Emberwright` : "Request · Emberwright" },
@@ -239,9 +240,7 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: OFFICE_ROLES });
   const lead = await findLeadFor(user, parseLeadId(params.leadId));
   if (!lead) throw new Response("Not found", { status: 404 });
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   const parsed = leadActionSchema.safeParse(fields);
   if (!parsed.success) {
     return data({ intent: fields.intent ?? null, fields, errors: leadActionErrors(parsed.error) }, { status: 400 });

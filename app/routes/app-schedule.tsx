@@ -23,6 +23,7 @@ import { appOrigin } from "~/lib/platform/email.server";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Schedule · Emberwright" }];
 
@@ -219,7 +220,7 @@ async function moveFromSchedule(request: Request, fields: Record<string, FormDat
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: SCHEDULE_ROLES });
-  const fields = Object.fromEntries(await request.formData());
+  const fields = await readTextFields(request);
   if (fields.intent === "move-build") return moveFromSchedule(request, fields);
   const parsed = cancelSchema.safeParse(fields);
   if (!parsed.success)

@@ -8,6 +8,7 @@ import { getProposalTerms, saveProposalTerms } from "~/lib/proposals/proposal-te
 import { formMoneyCents } from "~/lib/proposals/proposal-schema";
 import { requireUser } from "~/lib/auth/session.server";
 import { formatLengthInput } from "~/domain/units";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Proposal terms · Emberwright" }];
 
@@ -56,9 +57,7 @@ const termsSchema = z.object({
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const values = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const values = await readTextFields(request);
   const parsed = termsSchema.safeParse(values);
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error), values }, { status: 400 });
   const v = parsed.data;

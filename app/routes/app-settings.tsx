@@ -16,6 +16,7 @@ import { appOrigin } from "~/lib/platform/email.server";
 import { currentTimeZoneName, groupTimeZones } from "~/lib/settings/time-zones";
 import { TimeZoneField } from "~/components/time-zone-field";
 import { PublicLink } from "~/components/public-link";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Company settings · Emberwright" }];
 
@@ -43,7 +44,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const form = await request.formData();
+  const form = await readForm(request);
   const noErrors: Record<string, string> = {};
   if (form.get("intent") === "crew") {
     // The crew form posts on its own: a refusal here leaves the company's other settings as they were.

@@ -10,6 +10,7 @@ import { requireUser } from "~/lib/auth/session.server";
 import { orderMoveSchema } from "~/lib/suppliers/supplier-order-schema";
 import { moveOrder, ORDER_STATE_LABEL, orderNumber, requireOrder } from "~/lib/suppliers/supplier-orders.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: data ? `${data.order.number} · Supplier orders · Emberwright` : "Supplier order · Emberwright" },
@@ -64,9 +65,7 @@ const SAVED: Record<string, string> = {
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
   const order = await requireOrder(user.companyId, params.orderId);
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   const parsed = orderMoveSchema.safeParse(fields);
   if (!parsed.success) return data({ errors: fieldErrors(parsed.error) }, { status: 400 });
   const result = await moveOrder(user, order, parsed.data.intent, parsed.data.note);

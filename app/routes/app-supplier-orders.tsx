@@ -13,6 +13,7 @@ import {
   ORDER_STATE_LABEL,
   orderNumber,
 } from "~/lib/suppliers/supplier-orders.server";
+import { readForm } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Supplier orders · Emberwright" }];
 
@@ -49,7 +50,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ROLES });
-  const form = await request.formData();
+  const form = await readForm(request);
   const parsed = combineSchema.safeParse({
     orderIds: form.getAll("orderId").filter((v): v is string => typeof v === "string"),
   });

@@ -6,6 +6,7 @@ import { formatPhone } from "~/lib/format/phone";
 import { requireUser } from "~/lib/auth/session.server";
 import { parseSupplierForm } from "~/lib/suppliers/supplier-schema";
 import { listSuppliers, saveSupplier } from "~/lib/suppliers/suppliers.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Suppliers · Emberwright" }];
 
@@ -24,9 +25,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   // "" adds a supplier; an id changes that one (another company's id is a 404).
   const target = fields.supplierId ? formId("No such supplier.").safeParse(fields.supplierId) : null;
   if (target && !target.success) throw new Response("Not found", { status: 404 });

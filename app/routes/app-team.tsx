@@ -10,6 +10,7 @@ import { appOrigin } from "~/lib/platform/email.server";
 import { requireUser } from "~/lib/auth/session.server";
 import { teamActionSchema } from "~/lib/auth/team-schema";
 import { changeRole, inviteStaff, listTeam, setActive, type TeamResult } from "~/lib/auth/team.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Team · Emberwright" }];
 
@@ -27,9 +28,7 @@ const SAVED: Record<string, string> = {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["owner"] });
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   const parsed = teamActionSchema.safeParse(fields);
   const userId = fields.userId ?? null;
   if (!parsed.success) {

@@ -25,6 +25,7 @@ import { formatMoney } from "~/lib/format/money";
 import { clientAddress, createLimiter, spendLimit } from "~/lib/platform/rate-limit.server";
 import { possessive } from "~/lib/format/wording";
 import { phoneDisplay } from "~/lib/format/phone";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Book a design consult · Emberwright" }];
 
@@ -121,7 +122,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
     );
   }
-  const form = Object.fromEntries(await request.formData());
+  const form = await readTextFields(request);
   if (form.intent === "leave") {
     const left = leaveSchema.safeParse(form);
     if (!left.success) return data({ error: left.error.issues[0]!.message }, { status: 400 });

@@ -12,6 +12,7 @@ import { formatMoney } from "~/lib/format/money";
 import { phoneDisplay } from "~/lib/format/phone";
 import { requireUser } from "~/lib/auth/session.server";
 import { possessive } from "~/lib/format/wording";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Move your design consult · Emberwright" }];
 
@@ -62,7 +63,7 @@ const moveSchema = z.object({ startsAt: z.iso.datetime({ offset: true, error: "C
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, booking } = await loadOwnBooking(request, params);
-  const parsed = moveSchema.safeParse(Object.fromEntries(await request.formData()));
+  const parsed = moveSchema.safeParse(await readTextFields(request));
   if (!parsed.success) return data({ error: parsed.error.issues[0]!.message }, { status: 400 });
   const moved = await rescheduleBooking({
     bookingId: booking.id,

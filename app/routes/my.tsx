@@ -23,6 +23,7 @@ import { CheckoutRefused } from "~/lib/platform/payments.server";
 import { balanceLines, listBalancesFor, startBalanceCheckout } from "~/lib/builds/job-balance.server";
 import { formatZonedDate } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "My fire-pit requests · Emberwright" }];
 
@@ -175,7 +176,7 @@ const payBalanceSchema = z.object({ leadId: formId("Choose the job whose balance
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request, { roles: ["homeowner"] });
-  const form = Object.fromEntries(await request.formData());
+  const form = await readTextFields(request);
   if (form.intent === "pay-balance") {
     const wanted = payBalanceSchema.safeParse(form);
     if (!wanted.success) return data({ error: wanted.error.issues[0]!.message }, { status: 400 });

@@ -27,6 +27,7 @@ import { getSessionUser } from "~/lib/auth/session.server";
 import { isOfficeRole } from "~/lib/auth/staff.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
+import { readForm, textFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   {
@@ -115,8 +116,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       { status: 429, headers: { "Retry-After": String(limit.retryAfterSeconds) } },
     );
   const found = await load(params.token);
-  const form = await request.formData();
-  const fields = Object.fromEntries([...form.entries()].filter((e): e is [string, string] => typeof e[1] === "string"));
+  const form = await readForm(request);
+  const fields = textFields(form);
   const chosen = form.getAll("addOn").filter((v): v is string => typeof v === "string");
   const company = await getCompany(found.proposal.companyId);
   const origin = appOrigin(request);

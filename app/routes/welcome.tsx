@@ -9,6 +9,7 @@ import { FormAlert, TextField } from "~/components/ui/field";
 import { hashPassword } from "~/lib/auth/password.server";
 import { endAllSessions, startSession } from "~/lib/auth/session.server";
 import { confirmRequestWithToken, findLiveToken, setPasswordWithToken } from "~/lib/auth/tokens.server";
+import { readTextFields } from "~/lib/platform/forms.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Set your password · Emberwright" }];
 
@@ -64,9 +65,7 @@ export async function loader({ params }: Route.LoaderArgs) {
 }
 
 export async function action({ request }: Route.ActionArgs) {
-  const fields = Object.fromEntries(
-    [...(await request.formData()).entries()].filter((e): e is [string, string] => typeof e[1] === "string"),
-  );
+  const fields = await readTextFields(request);
   const parsed = welcomeSchema.safeParse(fields);
   if (!parsed.success) {
     const errors = fieldErrors(parsed.error);

@@ -159,6 +159,15 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
     applySecurityHeaders(response.headers, "");
     return response;
   }
+  // Every form and API here takes POST: another write method is refused before any action reads it.
+  if (!SAFE_METHODS.has(request.method) && request.method !== "POST") {
+    const response = Response.json(
+      { errors: [{ path: "", message: `${request.method} is not accepted here: use GET to read and POST to send.` }] },
+      { status: 405, headers: { Allow: "GET, HEAD, POST" } },
+    );
+    applySecurityHeaders(response.headers, "");
+    return response;
+  }
   const path = new URL(request.url).pathname;
   if (!SAFE_METHODS.has(request.method)) {
     const limit = bodyLimitFor(path);
