@@ -3,13 +3,14 @@ import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/app-lead-change-order";
 import { WorkspaceProblem } from "~/components/workspace-problem";
 import { FormAlert, TextField } from "~/components/ui/field";
-import { draftChangeOrder, sendChangeOrder } from "~/lib/proposals/change-orders.server";
+import { CREDIT_TOO_LARGE, draftChangeOrder, sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { appOrigin } from "~/lib/platform/email.server";
 import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { readTextFields } from "~/lib/platform/forms.server";
+import { validUntilProblem } from "~/lib/proposals/proposal-schema";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" },
@@ -44,7 +45,7 @@ const changeSchema = z.object({
   delta: z
     .string()
     .trim()
-    .regex(/^-?\$?[\d,]+(\.\d{1,2})?$/, {
+    .regex(/^-?\$?(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/, {
       error: "Price difference must be an amount in dollars, like 450 or -120.50 for a credit.",
     })
     .transform((s) => {
@@ -59,7 +60,7 @@ const changeSchema = z.object({
         .min(-10_000_000, "Price difference must be between −$100,000 and $100,000.")
         .max(10_000_000, "Price difference must be between −$100,000 and $100,000."),
     ),
-  validUntil: z.iso.date({ error: "Valid until must be a date like 2026-12-31." }),
+  validUntil: z.string({ error: "Valid until must be a date like 2026-12-31." }),
 });
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -72,7 +73,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const today = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date());
   const errors: Record<string, string> = {};
   if (!parsed.success) for (const issue of parsed.error.issues) errors[String(issue.path[0])] ??= issue.message;
-  else if (parsed.data.validUntil <= today) errors.validUntil = "Valid until must be after today.";
+  else {
+    const problem = validUntilProblem(parsed.data.validUntil, today);
+    if (problem) errors.validUntil = problem;
+  }
   if (!parsed.success || Object.keys(errors).length) return data({ errors, fields }, { status: 400 });
   const sent = await sendChangeOrder({
     user,
@@ -82,7 +86,10 @@ export async function action({ request, params }: Route.ActionArgs) {
     validUntil: parsed.data.validUntil,
     origin: appOrigin(request),
   });
-  if (typeof sent === "string") return data({ errors: { form: sent }, fields }, { status: 409 });
+  if (typeof sent === "string")
+    return sent.startsWith(CREDIT_TOO_LARGE)
+      ? data({ errors: { delta: sent }, fields }, { status: 400 })
+      : data({ errors: { form: sent }, fields }, { status: 409 });
   return redirect(`/app/leads/${lead.id}`);
 }
 

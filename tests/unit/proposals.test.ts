@@ -31,8 +31,12 @@ import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { expireProposals, processDepositRefunds, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { renderProposalPdf } from "~/lib/proposals/proposal-pdf.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
-import { withdrawProposal } from "~/lib/proposals/proposals.server";
+import { sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server";
+import { changeStage } from "~/lib/leads/lead-workspace.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
+import { action as changeOrderAction } from "~/routes/app-lead-change-order";
+import { parseComposeForm } from "~/lib/proposals/proposal-schema";
+import { addCalendarDays } from "~/domain/build-schedule";
 import { action as proposalAction, loader as proposalLoader } from "~/routes/proposal";
 import { action as openedAction } from "~/routes/proposal-opened";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
@@ -502,4 +506,213 @@ test("a homeowner named in Chinese and Greek gets their name on the proposal PDF
   await parser.destroy();
   expect(text).toContain("王小明 Παπαδόπουλος");
   expect(sha256(await renderProposalPdf(named, { chosenKeys: [], createdAt: proposal.sentAt }))).toBe(sha256(pdf));
+});
+
+/** A proposal accepted on the payments fake, with its real checkout session open. */
+async function acceptedWithCheckout() {
+  const client = createStripe(fake.url);
+  const sent = await sentProposal();
+  const result = await acceptProposal({
+    proposal: sent.proposal,
+    lead: sent.lead,
+    document: parseProposalDocument(sent.proposal.documentJson),
+    input: { ...SIGNER, chosenKeys: [] },
+  });
+  if (!result.ok) throw new Error(result.message);
+  const [lead] = await db.select().from(leads).where(eq(leads.id, sent.lead.id));
+  await startDepositCheckout({
+    proposal: result.proposal,
+    lead: lead!,
+    company: sent.company,
+    origin: "http://localhost",
+    client,
+  });
+  const proposal = await reload(sent.proposal.id);
+  expect(proposal.checkoutSessionId).toMatch(/^cs_/);
+  return { ...sent, lead: lead!, proposal, client };
+}
+
+const sessionStatus = async (client: Stripe, id: string) => (await client.checkout.sessions.retrieve(id)).status;
+
+test("a job marked not going ahead withdraws the proposal still out and closes its checkout; no deposit can be started on it", async () => {
+  const { proposal, lead, client, company } = await acceptedWithCheckout();
+  const owner = await officeUser(lead.companyId, "owner");
+  expect(await changeStage(owner, lead, "not-going-ahead", "Went with another contractor", client)).toEqual({
+    ok: true,
+  });
+  const row = await reload(proposal.id);
+  expect([row.status, row.withdrawReason]).toEqual([
+    "withdrawn",
+    "The job is not going ahead: Went with another contractor",
+  ]);
+  expect(await sessionStatus(client, proposal.checkoutSessionId!)).toBe("expired");
+  const kinds = (await db.select().from(leadEvents).where(eq(leadEvents.leadId, lead.id))).map((e) => e.kind);
+  expect(kinds.filter((k) => k === "proposal-withdrawn")).toHaveLength(1);
+  // The homeowner's page can no longer start a payment.
+  const [stopped] = await db.select().from(leads).where(eq(leads.id, lead.id));
+  await expect(
+    startDepositCheckout({ proposal: { ...row, status: "accepted" }, lead: stopped!, company, origin: "", client }),
+  ).rejects.toThrow(/not going ahead/);
+  // A second move from the stage the job was at changes nothing and writes no timeline entry.
+  const events = kinds.length;
+  expect(await changeStage(owner, lead, "not-going-ahead", "Again", client)).toMatchObject({ ok: false, status: 409 });
+  expect(await db.select().from(leadEvents).where(eq(leadEvents.leadId, lead.id))).toHaveLength(events);
+});
+
+test("a deposit paid on a job stopped meanwhile is owed back: the proposal is withdrawn, the job stays stopped, the refund goes out once", async () => {
+  const { proposal, lead, client } = await acceptedWithCheckout();
+  // Stopped without the checkout closing (an older stop, or a payment already under way).
+  await db
+    .update(leads)
+    .set({ status: "not-going-ahead", stopReason: "Moved away", pausedStage: "proposal-out" })
+    .where(eq(leads.id, lead.id));
+  const paid = await fetch(`${fake.url}/_fake/sessions/${proposal.checkoutSessionId}/pay`, {
+    method: "POST",
+    body: JSON.stringify({ card: "4242424242424242" }),
+    headers: { "Content-Type": "application/json" },
+  });
+  expect(paid.status).toBe(200);
+  const events = (await (await fetch(`${fake.url}/_fake/events?type=checkout.session.completed`)).json()) as {
+    data: { data: { object: { id: string; payment_intent: string } } }[];
+  };
+  const notice = events.data.find((e) => e.data.object.id === proposal.checkoutSessionId)!;
+  expect(await deliver(notice)).toEqual({ status: 200, outcome: "applied" });
+  const owed = await reload(proposal.id);
+  expect([owed.status, owed.paymentIntentId, owed.refundReason]).toEqual([
+    "withdrawn",
+    notice.data.object.payment_intent,
+    "The deposit arrived after the job was marked not going ahead.",
+  ]);
+  expect(owed.refundOwedAt).not.toBeNull();
+  expect(await stageOf(lead.id)).toBe("not-going-ahead");
+  expect(
+    await db
+      .select()
+      .from(emailOutbox)
+      .where(like(emailOutbox.idempotencyKey, `deposit-paid%/${proposal.id}`)),
+  ).toHaveLength(0);
+  await processDepositRefunds(client);
+  await processDepositRefunds(client);
+  const refunds = (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
+    data: { amount: number; payment_intent: string }[];
+  };
+  expect(refunds.data.filter((r) => r.payment_intent === owed.paymentIntentId).map((r) => r.amount)).toEqual([
+    owed.depositCents,
+  ]);
+});
+
+test("withdrawing or replacing a proposal closes its open checkout", async () => {
+  const first = await acceptedWithCheckout();
+  expect(
+    await withdrawProposal(first.user, first.lead, first.proposal.id, "Price to be revised.", first.client),
+  ).toBeNull();
+  expect(await sessionStatus(first.client, first.proposal.checkoutSessionId!)).toBe("expired");
+
+  const second = await acceptedWithCheckout();
+  await sendProposal({
+    user: second.user,
+    lead: second.lead,
+    company: second.company,
+    input: { fixedPriceCents: 510_000, addOns: [], validUntil: "2099-12-31", included: "Base", excluded: "Permits" },
+    origin: "http://localhost",
+    payments: second.client,
+  });
+  expect((await reload(second.proposal.id)).status).toBe("withdrawn");
+  expect(await sessionStatus(second.client, second.proposal.checkoutSessionId!)).toBe("expired");
+});
+
+test("a credit may take the job down to nothing, not below: refused when sent, and refused at signing when another credit was signed first", async () => {
+  // Signed $4,850 + a1 $640 = $5,490 (worked by hand in the change-order test above).
+  const { proposal, lead, company } = await accepted(["a1"]);
+  await deliver(completed(proposal));
+  const user = await officeUser(lead.companyId);
+  const fresh = (await db.select().from(leads).where(eq(leads.id, lead.id)))[0]!;
+  const send = (deltaCents: number) =>
+    sendChangeOrder({ user, lead: fresh, company, deltaCents, validUntil: "2099-06-30", origin: "http://localhost" });
+  expect(await send(-549_001)).toBe(
+    "A credit can be at most the job's current contract of $5,490.00, so the price difference can go no lower than −$5,490.00.",
+  );
+  expect(await db.select().from(proposals).where(eq(proposals.parentId, proposal.id))).toEqual([]);
+  // A $3,000 credit fits the $5,490 contract; signed, it leaves $2,490, and a second $3,000 credit is
+  // then refused when sent.
+  const first = await send(-300_000);
+  if (typeof first === "string") throw new Error(first);
+  const sign = (change: Proposal) =>
+    acceptProposal({
+      proposal: change,
+      lead: fresh,
+      document: parseProposalDocument(change.documentJson),
+      input: { ...SIGNER, chosenKeys: [] },
+    });
+  expect(await sign(first)).toMatchObject({ ok: true });
+  expect(await jobTotalsFor(await reload(proposal.id))).toMatchObject({ contractCents: 249_000 });
+  expect(await send(-300_000)).toMatch(/^A credit can be at most the job's current contract of \$2,490\.00/);
+  // A $2,000 credit sent now fits; if another change were signed meanwhile (another $1,000 credit,
+  // leaving $1,490), it no longer does and is refused at signing.
+  const second = await send(-200_000);
+  if (typeof second === "string") throw new Error(second);
+  await db.insert(proposals).values({
+    ...(await reload(first.id)),
+    id: undefined,
+    token: `credit-meanwhile-${first.id}`,
+    priceCents: -100_000,
+  });
+  expect(await sign(second)).toMatchObject({ ok: false, status: 409, message: /more than the job's total/ });
+  expect((await reload(second.id)).status).toBe("sent");
+  expect(await jobTotalsFor(await reload(proposal.id))).toMatchObject({ contractCents: 149_000 });
+});
+
+test("the change-order form: a credit beyond the contract names the price difference; amounts with stray commas and offers open past a year are refused", async () => {
+  const { proposal, lead } = await accepted(["a1"]);
+  await deliver(completed(proposal));
+  const cookie = await loginAs(lead.companyId, "owner");
+  const { company } = await sentProposal();
+  const today = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date());
+  const post = async (fields: Record<string, string>) => {
+    const body = new URLSearchParams(fields);
+    const answer = (await changeOrderAction(
+      routeArgs(
+        requestWithCookie(`/app/leads/${lead.id}/change-order`, cookie, {
+          method: "POST",
+          body,
+          headers: { "Content-Type": "application/x-www-form-urlencoded" },
+        }),
+        { leadId: String(lead.id) },
+      ),
+    )) as { init: { status: number } | null; data: { errors: Record<string, string> } };
+    return { status: answer.init?.status, errors: answer.data.errors };
+  };
+  const validUntil = addCalendarDays(today, 30);
+  expect(await post({ delta: "-100,000", validUntil })).toEqual({
+    status: 400,
+    errors: {
+      delta:
+        "A credit can be at most the job's current contract of $5,490.00, so the price difference can go no lower than −$5,490.00.",
+    },
+  });
+  for (const delta of [",", "1,2,3", "12,34"])
+    expect((await post({ delta, validUntil })).errors.delta, delta).toMatch(/^Price difference must be an amount/);
+  // A year ahead is the last day allowed; a day more, or the year 9999, names the field (no 500).
+  expect((await post({ delta: "1", validUntil: addCalendarDays(today, 366) })).errors).toEqual({
+    validUntil: `Valid until must be within a year, by ${addCalendarDays(today, 365)}.`,
+  });
+  expect((await post({ delta: "1", validUntil: "9999-12-31" })).status).toBe(400);
+  expect(await db.select().from(proposals).where(eq(proposals.parentId, proposal.id))).toEqual([]);
+});
+
+test("the proposal form refuses an offer open past a year, naming the field", () => {
+  const today = "2026-12-03";
+  const fields = { fixedPrice: "4850", included: "Base", excluded: "Permits" };
+  expect(parseComposeForm({ ...fields, validUntil: "2027-12-03" }, today)).toMatchObject({ ok: true });
+  expect(parseComposeForm({ ...fields, validUntil: "2027-12-04" }, today)).toEqual({
+    ok: false,
+    errors: { validUntil: "Valid until must be within a year, by 2027-12-03." },
+  });
+  expect(parseComposeForm({ ...fields, validUntil: "9999-12-31" }, today)).toMatchObject({
+    ok: false,
+    errors: { validUntil: /within a year/ },
+  });
+  expect(parseComposeForm({ ...fields, validUntil: "2026-12-03" }, today)).toMatchObject({
+    errors: { validUntil: "Valid until must be after today." },
+  });
 });

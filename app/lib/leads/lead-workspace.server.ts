@@ -1,4 +1,5 @@
 import { and, asc, desc, eq, inArray, isNull, like, or } from "drizzle-orm";
+import type Stripe from "stripe";
 import { markJobBuilt } from "~/lib/builds/mark-built.server";
 import { findJobBalance, recordBalancePaidByHand } from "~/lib/builds/job-balance.server";
 import { alias } from "drizzle-orm/sqlite-core";
@@ -9,6 +10,7 @@ import {
   leadPhotos,
   leadRevisions,
   leads,
+  proposals,
   users,
   type Lead,
   type LeadStatus,
@@ -29,6 +31,8 @@ import { findActiveStaff } from "~/lib/auth/team.server";
 import { RevisionSentEmail, StaffAssignedEmail } from "~/emails/lead-emails";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { writeTransaction } from "~/lib/platform/db.server";
+import { expireCheckoutSessions } from "~/lib/platform/payments.server";
+import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { moveMailKeys } from "~/lib/consults/booking.server";
 
@@ -201,6 +205,7 @@ export async function changeStage(
   lead: Lead,
   to: LeadStatus,
   reason: string,
+  payments?: Pick<Stripe, "checkout">,
 ): Promise<ActionResult> {
   const move = allowedMoves(lead.status, lead.pausedStage).find((m) => m.to === to);
   if (!move) {
@@ -241,8 +246,8 @@ export async function changeStage(
   const isStopping = to === "on-hold" || to === "not-going-ahead";
   const at = now();
   const detail = `${STATUS_LABEL[lead.status]} → ${STATUS_LABEL[to]}${move.needsReason ? `: ${reason}` : ""}`;
-  await db.batch([
-    db
+  const result = await writeTransaction(async (tx) => {
+    const moved = await tx
       .update(leads)
       .set({
         status: to,
@@ -252,16 +257,49 @@ export async function changeStage(
         ...(to === "called-back" && !lead.calledBackAt ? { calledBackAt: at } : {}),
         updatedAt: at,
       })
-      .where(and(scoped(lead), eq(leads.status, lead.status))),
-    db.insert(leadEvents).values({
+      .where(and(scoped(lead), eq(leads.status, lead.status)))
+      .returning({ id: leads.id });
+    // Moved meanwhile by someone else (or a payment): nothing is written, the timeline included.
+    if (moved.length === 0) return null;
+    await tx.insert(leadEvents).values({
       companyId: lead.companyId,
       leadId: lead.id,
       actorUserId: user.id,
       kind: "status",
       detail,
       createdAt: at,
-    }),
-  ]);
+    });
+    if (to !== "not-going-ahead") return [];
+    // A job not going ahead takes its proposals and change orders still out off the table, so no
+    // deposit or change is paid for or signed on it.
+    const withdrawn = await tx
+      .update(proposals)
+      .set({
+        status: "withdrawn",
+        withdrawnAt: at,
+        withdrawReason: `The job is not going ahead: ${reason}`,
+        updatedAt: at,
+      })
+      .where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, ["sent", "accepted"])))
+      .returning({ documentJson: proposals.documentJson, checkoutSessionId: proposals.checkoutSessionId });
+    for (const row of withdrawn)
+      await tx.insert(leadEvents).values({
+        companyId: lead.companyId,
+        leadId: lead.id,
+        actorUserId: user.id,
+        kind: "proposal-withdrawn",
+        detail: `${parseProposalDocument(row.documentJson).number} withdrawn: the job is not going ahead.`,
+        createdAt: at,
+      });
+    return withdrawn.map((row) => row.checkoutSessionId);
+  });
+  if (result === null)
+    return {
+      ok: false,
+      status: 409,
+      errors: { status: "This job changed a moment ago: reload the page to see where it stands." },
+    };
+  await expireCheckoutSessions(result, payments);
   return { ok: true };
 }
 

@@ -79,3 +79,16 @@ export async function openHostedCheckout(args: {
   if (!session.url) throw new Error("The payment service returned no checkout page.");
   return session.url;
 }
+
+/**
+ * Closes checkout pages nobody should pay on any more (a withdrawn or replaced proposal, a stopped
+ * job). Best effort, after the change is saved: a payment that lands anyway is refunded when its
+ * notice arrives.
+ */
+export async function expireCheckoutSessions(
+  sessionIds: (string | null | undefined)[],
+  client: Pick<Stripe, "checkout"> = stripe,
+): Promise<void> {
+  const open = [...new Set(sessionIds.filter((id): id is string => Boolean(id)))];
+  await Promise.all(open.map((id) => client.checkout.sessions.expire(id).catch(() => undefined)));
+}

@@ -61,6 +61,18 @@ export function listSignedChangeOrders(proposal: Pick<Proposal, "id">) {
     .orderBy(asc(proposals.signedAt));
 }
 
+/**
+ * Why a change cannot be made: a credit larger than the job's whole contract as it stands would
+ * leave a job worth less than nothing. Null when the change is allowed.
+ */
+export function creditBeyondContract(contractCents: number, deltaCents: number): string | null {
+  if (contractCents + deltaCents >= 0) return null;
+  return `${CREDIT_TOO_LARGE} ${formatMoney(contractCents)}, so the price difference can go no lower than −${formatMoney(contractCents)}.`;
+}
+
+/** How a refusal of too large a credit begins (the form shows it beside the price difference). */
+export const CREDIT_TOO_LARGE = "A credit can be at most the job's current contract of";
+
 /** The job's totals from the signed proposal and its signed change orders, cents. */
 export async function jobTotalsFor(signed: Proposal): Promise<JobTotals> {
   const changes = await listSignedChangeOrders(signed);
@@ -158,6 +170,8 @@ export async function sendChangeOrder(args: {
   if (!draft) return "This job has no signed proposal to change.";
   if (draft.added.length === 0 && draft.removed.length === 0 && args.deltaCents === 0)
     return "Nothing changes: revise the design or set a price difference first.";
+  const credit = creditBeyondContract(draft.totals.contractCents, args.deltaCents);
+  if (credit) return credit;
   const at = now.toISOString();
   const parent = parseProposalDocument(draft.signed.documentJson);
   const count = (

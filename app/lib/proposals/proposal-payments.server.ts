@@ -63,6 +63,10 @@ export async function startDepositCheckout(args: {
     throw new CheckoutRefused("This proposal has no deposit to pay.");
   if (now.toISOString() >= proposal.expiresAt)
     throw new CheckoutRefused("This proposal has expired: ask the contractor for a new one.");
+  if (lead.status === "not-going-ahead")
+    throw new CheckoutRefused(
+      `${company.name} has marked this job as not going ahead: ask them before paying anything.`,
+    );
   const document = parseProposalDocument(proposal.documentJson);
   return openHostedCheckout({
     client: args.client ?? defaultStripe,
@@ -148,6 +152,30 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
         }
         const paymentIntentId =
           typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
+        const [stage] = await tx.select({ status: leads.status }).from(leads).where(eq(leads.id, proposal.leadId));
+        if (proposal.status === "accepted" && stage?.status === "not-going-ahead") {
+          // Paid on a job stopped meanwhile: the proposal is off the table and the money goes back.
+          await tx
+            .update(proposals)
+            .set({
+              status: "withdrawn",
+              withdrawnAt: at,
+              withdrawReason: "The job is not going ahead.",
+              paymentIntentId,
+              refundOwedAt: at,
+              refundReason: "The deposit arrived after the job was marked not going ahead.",
+              updatedAt: at,
+            })
+            .where(and(eq(proposals.id, proposal.id), eq(proposals.status, "accepted")));
+          await tx.insert(leadEvents).values({
+            companyId: proposal.companyId,
+            leadId: proposal.leadId,
+            kind: "deposit-refund",
+            detail: `A deposit arrived on ${document.number} after the job was marked not going ahead; it is being refunded.`,
+            createdAt: at,
+          });
+          return "applied";
+        }
         if (proposal.status === "accepted") {
           await tx
             .update(proposals)

@@ -1,6 +1,7 @@
 import { z } from "zod";
 import type { AddOn } from "~/domain/proposal-money";
 import { formatNumber } from "~/domain/number-text";
+import { addCalendarDays } from "~/domain/build-schedule";
 
 /*
  * The office's proposal forms. Money is typed in dollars ("4,850" or "4850.00") and kept in integer
@@ -8,6 +9,19 @@ import { formatNumber } from "~/domain/number-text";
  */
 
 export const MAX_ADD_ONS = 4;
+
+/** How long a proposal or change order may stay open: a year at most (a date years out is a typo). */
+export const MAX_VALID_DAYS = 365;
+const VALID_UNTIL_FORMAT = "Valid until must be a date like 2026-12-31.";
+
+/** What is wrong with an offer's last day, seen from the company's today; null when it is fine. */
+export function validUntilProblem(value: string, today: string): string | null {
+  if (!z.iso.date().safeParse(value).success) return VALID_UNTIL_FORMAT;
+  if (value <= today) return "Valid until must be after today.";
+  const last = addCalendarDays(today, MAX_VALID_DAYS);
+  if (value > last) return `Valid until must be within a year, by ${last}.`;
+  return null;
+}
 
 /** Dollars as typed → integer cents, within a range of whole dollars. */
 export function formMoneyCents(label: string, minDollars: number, maxDollars: number) {
@@ -54,9 +68,10 @@ export function parseComposeForm(
   const base = z
     .object({
       fixedPrice: formMoneyCents("Fixed price", 100, 500_000),
-      validUntil: z.iso
-        .date({ error: "Valid until must be a date like 2026-12-31." })
-        .refine((d) => d > today, { message: "Valid until must be after today." }),
+      validUntil: z.string({ error: VALID_UNTIL_FORMAT }).superRefine((value, context) => {
+        const problem = validUntilProblem(value, today);
+        if (problem) context.addIssue({ code: "custom", message: problem });
+      }),
       included: textBlock("included"),
       excluded: textBlock("not included"),
     })

@@ -18,6 +18,7 @@ import { formatMoney } from "~/lib/format/money";
 import type { ProposalDocument } from "~/lib/proposals/proposal-document";
 import { proposalFigures, renderProposalPdf, type SignatureFacts } from "~/lib/proposals/proposal-pdf.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
+import { creditBeyondContract, jobTotalsFor } from "~/lib/proposals/change-orders.server";
 
 /*
  * Electronic signature (US ESIGN Act, 15 U.S.C. §7001, and UETA): the homeowner consents to sign
@@ -76,6 +77,18 @@ export async function acceptProposal(args: {
       message:
         "The job is built and its balance is set, so this change order can no longer be signed: ask the contractor.",
     };
+  // Two credits sent on the same contract may each fit alone and not together: the one signed second
+  // is refused when it would take the job below nothing.
+  if (isChange && document.change!.deltaCents < 0 && proposal.parentId !== null) {
+    const [parent] = await db.select().from(proposals).where(eq(proposals.id, proposal.parentId));
+    if (parent && creditBeyondContract((await jobTotalsFor(parent)).contractCents, document.change!.deltaCents))
+      return {
+        ok: false,
+        status: 409,
+        message:
+          "This credit is more than the job's total now that other changes are signed, so it can no longer be signed: ask the contractor.",
+      };
+  }
   let figures: ReturnType<typeof proposalFigures>;
   try {
     figures = proposalFigures(document, input.chosenKeys);

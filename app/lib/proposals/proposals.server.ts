@@ -1,4 +1,5 @@
 import { and, desc, eq, inArray, sql } from "drizzle-orm";
+import type Stripe from "stripe";
 import {
   emailOutbox,
   leadEvents,
@@ -15,6 +16,7 @@ import { basePriceCents, type AddOn, type DepositRule } from "~/domain/proposal-
 import { checkSite, siteAllowances } from "~/domain/site-checks";
 import { listCatalog } from "~/lib/catalog/catalog.server";
 import { db, writeTransaction } from "~/lib/platform/db.server";
+import { expireCheckoutSessions } from "~/lib/platform/payments.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { settleStageStatements } from "~/lib/leads/job-stage.server";
 import { isSignedStage, STATUS_LABEL } from "~/lib/leads/lead-status";
@@ -169,6 +171,8 @@ export async function sendProposal(args: {
   input: SendInput;
   origin: string;
   now?: Date;
+  /** Where the replaced proposal's checkout is closed; the configured payment service when absent. */
+  payments?: Pick<Stripe, "checkout">;
 }): Promise<Proposal> {
   const { user, lead, company, input, origin } = args;
   const now = args.now ?? new Date();
@@ -219,7 +223,7 @@ export async function sendProposal(args: {
     }),
   });
   const open = await db
-    .select({ id: proposals.id })
+    .select({ id: proposals.id, checkoutSessionId: proposals.checkoutSessionId })
     .from(proposals)
     .where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, [...OPEN_STATES])));
   const movesStage = lead.status !== "proposal-out" && lead.status !== "on-hold" && lead.status !== "not-going-ahead";
@@ -271,6 +275,11 @@ export async function sendProposal(args: {
     }),
     db.insert(emailOutbox).values(mail),
   ]);
+  // The replaced proposal's payment page closes with it.
+  await expireCheckoutSessions(
+    open.map((o) => o.checkoutSessionId),
+    args.payments,
+  );
   return inserted[0]!;
 }
 
@@ -334,6 +343,7 @@ export async function withdrawProposal(
   lead: Lead,
   proposalId: number,
   reason: string,
+  payments?: Pick<Stripe, "checkout">,
 ): Promise<string | null> {
   const [row] = await db
     .select()
@@ -365,5 +375,7 @@ export async function withdrawProposal(
         await statement;
     return true;
   });
-  return changed ? null : "That proposal changed meanwhile: reload the page.";
+  if (!changed) return "That proposal changed meanwhile: reload the page.";
+  await expireCheckoutSessions([row.checkoutSessionId], payments);
+  return null;
 }
