@@ -436,3 +436,68 @@ test("the build page: owners only, 404 for another company's job, and bad input 
   const [after] = await db.select().from(companies).where(eq(companies.id, company.id));
   expect(after!.crewSize).toBe(2);
 });
+
+test("a built job's build days are a record: moving or cancelling them is refused (409), nothing is e-mailed, the crew keeps the job", async () => {
+  // Common practice, no source: once the pit is built, its build days are history, not a plan.
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const start = await farMonday();
+  const booked = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start, crewUserIds: [crewA.id], days: 1, notes: "", allowClash: true },
+    ORIGIN,
+  );
+  if (!booked.ok) throw new Error(JSON.stringify(booked));
+  await db.update(leads).set({ status: "built" }).where(eq(leads.id, lead.id));
+  const [built] = await db.select().from(leads).where(eq(leads.id, lead.id));
+  const mailBefore = (await mailFor(`build-%/${booked.build.id}/%`)).length;
+  const cancelled = await cancelBuild(
+    owner,
+    built!,
+    company,
+    { buildId: booked.build.id, sequence: 0, reason: "test" },
+    ORIGIN,
+  );
+  expect(cancelled).toMatchObject({ ok: false, status: 409, errors: { reason: /job is built/ } });
+  const moved = await moveBuild(
+    owner,
+    built!,
+    company,
+    {
+      buildId: booked.build.id,
+      sequence: 0,
+      start: addCalendarDays(start, 7),
+      days: null,
+      crewUserIds: null,
+      allowClash: true,
+    },
+    ORIGIN,
+  );
+  expect(moved).toMatchObject({ ok: false, status: 409, errors: { start: /job is built/ } });
+  // Marked built between the page loading and the post (the lead read before): refused inside the write.
+  const stale = { ...built!, status: "build-booked" as const };
+  expect(
+    await cancelBuild(owner, stale, company, { buildId: booked.build.id, sequence: 0, reason: "late" }, ORIGIN),
+  ).toMatchObject({ ok: false, status: 409 });
+  expect(
+    await moveBuild(
+      owner,
+      stale,
+      company,
+      {
+        buildId: booked.build.id,
+        sequence: 0,
+        start: addCalendarDays(start, 7),
+        days: null,
+        crewUserIds: null,
+        allowClash: true,
+      },
+      ORIGIN,
+    ),
+  ).toMatchObject({ ok: false, status: 409 });
+  const [row] = await db.select().from(builds).where(eq(builds.id, booked.build.id));
+  expect([row!.status, row!.sequence, row!.firstDay]).toEqual(["booked", 0, start]);
+  expect(await mailFor(`build-%/${booked.build.id}/%`)).toHaveLength(mailBefore);
+});

@@ -30,7 +30,7 @@ import { buildCalendarFeed, buildCalendarFile, type BuildEvent } from "~/lib/bui
 import { readStoredPlan } from "~/lib/design/stored-plan";
 import { zonedDay, zonedTimeToUtc } from "~/lib/format/zoned-time";
 import { currentVersion } from "~/lib/leads/lead-workspace.server";
-import { STATUS_LABEL } from "~/lib/leads/lead-status";
+import { isFinishedJob, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { db, writeTransaction } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 
@@ -490,6 +490,7 @@ export async function moveBuild(
   const current = await findBookedBuild(lead);
   if (!current || current.id !== input.buildId)
     return { ok: false, status: 404, errors: { start: "That build was not found." } };
+  if (isFinishedJob(lead)) return { ok: false, status: 409, errors: { start: FINISHED_BUILD_MESSAGE } };
   if (current.sequence !== input.sequence)
     return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
   const crewIds = input.crewUserIds ?? current.crew.map((c) => c.id);
@@ -513,14 +514,37 @@ export async function moveBuild(
     company.id,
     removed.map((c) => c.id),
   );
+  // Rendered ahead (slow, local): the transaction holds only writes.
+  const next = { id: current.id, sequence: current.sequence + 1 };
+  const mail = await buildMail({ kind: "moved", build: next, dates, company, lead, crew, origin });
+  if (removedWithMail.length)
+    mail.push(
+      ...(
+        await buildMail({
+          kind: "cancelled",
+          build: next,
+          dates: current.dates,
+          company,
+          lead,
+          crew: removedWithMail,
+          origin,
+        })
+      ).slice(1),
+    );
   const build = await writeTransaction(async (tx) => {
+    // A job marked built meanwhile keeps its build days: the check is made again inside the write.
+    const [stage] = await tx
+      .select({ status: leads.status, pausedStage: leads.pausedStage })
+      .from(leads)
+      .where(eq(leads.id, lead.id));
+    if (!stage || isFinishedJob(stage)) return "finished" as const;
     const [row] = await tx
       .update(builds)
       .set({
         datesJson: JSON.stringify(dates),
         firstDay: dates[0]!,
         lastDay: dates.at(-1)!,
-        sequence: current.sequence + 1,
+        sequence: next.sequence,
         updatedAt: at,
       })
       .where(and(eq(builds.id, current.id), eq(builds.status, "booked"), eq(builds.sequence, input.sequence)))
@@ -538,24 +562,10 @@ export async function moveBuild(
       detail: `Build moved from ${describeBuildDays(current.dates)} to ${describeBuildDays(dates)}.`,
       createdAt: at,
     });
-    const mail = await buildMail({ kind: "moved", build: row, dates, company, lead, crew, origin });
-    if (removedWithMail.length)
-      mail.push(
-        ...(
-          await buildMail({
-            kind: "cancelled",
-            build: row,
-            dates: current.dates,
-            company,
-            lead,
-            crew: removedWithMail,
-            origin,
-          })
-        ).slice(1),
-      );
     await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
     return row;
   });
+  if (build === "finished") return { ok: false, status: 409, errors: { start: FINISHED_BUILD_MESSAGE } };
   if (!build)
     return { ok: false, status: 409, errors: { start: "This build changed a moment ago. Reload to see its dates." } };
   return { ok: true, build };
@@ -572,12 +582,30 @@ export async function cancelBuild(
   const current = await findBookedBuild(lead);
   if (!current || current.id !== input.buildId)
     return { ok: false, status: 404, errors: { reason: "That build was not found." } };
+  if (isFinishedJob(lead)) return { ok: false, status: 409, errors: { reason: FINISHED_BUILD_MESSAGE } };
   const crew = await activeCrew(
     company.id,
     current.crew.map((c) => c.id),
   );
   const at = new Date().toISOString();
+  // Rendered ahead (slow, local): the transaction holds only writes.
+  const mail = await buildMail({
+    kind: "cancelled",
+    build: { id: current.id, sequence: current.sequence + 1 },
+    dates: current.dates,
+    company,
+    lead,
+    crew,
+    origin,
+    reason: input.reason,
+  });
   const build = await writeTransaction(async (tx) => {
+    // A job marked built meanwhile keeps its build: the check is made again inside the write.
+    const [stage] = await tx
+      .select({ status: leads.status, pausedStage: leads.pausedStage })
+      .from(leads)
+      .where(eq(leads.id, lead.id));
+    if (!stage || isFinishedJob(stage)) return "finished" as const;
     const [row] = await tx
       .update(builds)
       .set({
@@ -603,23 +631,18 @@ export async function cancelBuild(
       detail: `Build of ${describeBuildDays(current.dates)} cancelled: ${input.reason}`,
       createdAt: at,
     });
-    const mail = await buildMail({
-      kind: "cancelled",
-      build: row,
-      dates: current.dates,
-      company,
-      lead,
-      crew,
-      origin,
-      reason: input.reason,
-    });
     await tx.insert(emailOutbox).values(mail).onConflictDoNothing();
     return row;
   });
+  if (build === "finished") return { ok: false, status: 409, errors: { reason: FINISHED_BUILD_MESSAGE } };
   if (!build)
     return { ok: false, status: 409, errors: { reason: "This build changed a moment ago. Reload to see it." } };
   return { ok: true, build };
 }
+
+/** Why a finished job's build stays as it is. */
+const FINISHED_BUILD_MESSAGE =
+  "The job is built: its build days are a record of the work now, and can no longer be moved or cancelled.";
 
 const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 
