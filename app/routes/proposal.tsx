@@ -28,6 +28,7 @@ import { isOfficeRole } from "~/lib/auth/staff.server";
 import { formatZonedDateTime } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
 import { readForm, textFields } from "~/lib/platform/forms.server";
+import { toSingleLine } from "~/lib/format/clean-text";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   {
@@ -89,6 +90,7 @@ const signSchema = z.object({
   intent: z.literal("sign"),
   signerName: z
     .string()
+    .overwrite(toSingleLine)
     .trim()
     .min(3, "Type your full name as your signature (3 to 120 characters).")
     .max(120, "Type your full name as your signature (3 to 120 characters).")
@@ -480,9 +482,13 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
             <h2 id="sign-title" className="text-xl font-extrabold">
               Sign {isChange ? "the change order" : "the proposal"}
             </h2>
-            {errors.form ? (
+            {errors.form || errors.signerName || errors.consent ? (
               <div className="mt-2">
-                <FormAlert>{errors.form}</FormAlert>
+                {/* Takes focus after a refused signature, so keyboard and screen-reader users hear why. */}
+                <FormAlert>
+                  {errors.form ??
+                    `Not signed yet: ${[errors.signerName, errors.consent].filter(Boolean).join(" ")} Fix the marked ${errors.signerName && errors.consent ? "fields" : "field"} below.`}
+                </FormAlert>
               </div>
             ) : null}
             <Form id="sign-form" method="post" className="mt-3 flex flex-col gap-3" noValidate>

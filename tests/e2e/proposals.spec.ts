@@ -93,7 +93,13 @@ test("visit, proposal, signature and deposit: the estimator measures the yard an
   await page.reload();
   await expect(page.getByText("Benedikt has opened the proposal.")).toBeVisible();
 
+  // A signature without the consent ticked is refused, and focus goes to the summary saying why
+  // (WCAG 2.1 SC 3.3.1), not back to the top of the page.
   await home.page.getByLabel("Your full name, as your signature").fill("Benedikt Farrow");
+  await home.page.getByRole("button", { name: "Sign and pay the deposit of $1,647.00" }).click();
+  const summary = home.page.getByRole("alert").filter({ hasText: "Not signed yet" });
+  await expect(summary).toContainText("Tick the box to agree to sign electronically.");
+  await expect(summary).toBeFocused();
   await home.page.getByRole("checkbox", { name: /I agree to sign this proposal electronically/ }).check();
   await home.page.getByRole("button", { name: "Sign and pay the deposit of $1,647.00" }).click();
   await expect(home.page).toHaveURL(new RegExp(`^${PAYMENTS_FAKE}/pay/`));

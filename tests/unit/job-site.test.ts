@@ -12,6 +12,8 @@ import { db } from "~/lib/platform/db.server";
 import { startSession } from "~/lib/auth/session.server";
 import { findLeadFor } from "~/lib/auth/staff.server";
 import { hoursSchema } from "~/lib/builds/job-site-schema";
+import { markBuiltWithPhotos } from "~/lib/builds/job-site.server";
+import { storePhotoBytes } from "~/lib/platform/uploads.server";
 import { findPhotoFor } from "~/lib/leads/leads.server";
 import { listWonJobs, orderCrewJobs } from "~/lib/leads/won-jobs.server";
 import { zonedDay } from "~/lib/format/zoned-time";
@@ -414,6 +416,25 @@ describe("built", () => {
     const again = await postPhotos(ids.booked, people.crew, "built", [TINY_PNG]);
     expect(again.status).toBe(409);
     expect(await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, ids.booked))).toHaveLength(count);
+
+    // A "built" that read the job before it was marked built (two phones at once) gets past the first
+    // check, saves its photos, then loses: its photos and its timeline line are both taken back.
+    const finalLines = async () =>
+      (
+        await db
+          .select()
+          .from(leadEvents)
+          .where(and(eq(leadEvents.leadId, ids.booked), eq(leadEvents.kind, "build-final-photos")))
+      ).length;
+    const linesBefore = await finalLines();
+    const [lead] = await db.select().from(leads).where(eq(leads.id, ids.booked));
+    const [crewUser] = await db.select().from(users).where(eq(users.email, "crew@cinder-slate.test"));
+    const late = await markBuiltWithPhotos({ ...crewUser!, sessionId: "late" }, { ...lead!, status: "build-booked" }, [
+      await storePhotoBytes(TINY_PNG, "late.png"),
+    ]);
+    expect(late).toMatchObject({ ok: false, status: 409 });
+    expect(await db.select().from(leadPhotos).where(eq(leadPhotos.leadId, ids.booked))).toHaveLength(count);
+    expect(await finalLines()).toBe(linesBefore);
   });
 
   test("a file that is not a picture is refused beside the photo field", async () => {

@@ -10,7 +10,7 @@ import { beforeAll, describe, expect, test } from "vitest";
 import { leads, proposals, users } from "~/db/schema";
 import { startSession } from "~/lib/auth/session.server";
 import { db } from "~/lib/platform/db.server";
-import { NOT_A_FORM } from "~/lib/platform/forms.server";
+import { NOT_A_FORM, readForm, textFields } from "~/lib/platform/forms.server";
 import { securityMiddleware } from "~/lib/platform/security.server";
 import { action as leadAction } from "~/routes/app-lead";
 import { action as designAction } from "~/routes/app-lead-design";
@@ -163,3 +163,24 @@ test.each(["PUT", "PATCH", "DELETE"])(
     expect([response.status, response.headers.get("Allow"), ran]).toEqual([405, "GET, HEAD, POST", false]);
   },
 );
+
+test("readForm hands actions text as a reader sees it: control, bidirectional and zero-width characters gone, line breaks kept; passwords exactly as typed", async () => {
+  // Unicode Standard Annex #9 for the bidirectional controls; C0 controls per ISO/IEC 6429.
+  const body = new URLSearchParams({
+    reason: "\u200b\u200b\u200b\u200b",
+    note: "Line one\r\nLine\u0007 two\u202e\u2066\ufeff",
+    password: "pa\u200bss\u0007word",
+  });
+  const form = await readForm(
+    new Request("http://localhost/x", {
+      method: "POST",
+      body,
+      headers: { "Content-Type": "application/x-www-form-urlencoded" },
+    }),
+  );
+  expect(textFields(form)).toEqual({
+    reason: "",
+    note: "Line one\nLine two",
+    password: "pa\u200bss\u0007word",
+  });
+});

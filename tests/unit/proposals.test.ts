@@ -35,6 +35,7 @@ import { sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server
 import { changeStage } from "~/lib/leads/lead-workspace.server";
 import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { action as changeOrderAction } from "~/routes/app-lead-change-order";
+import { action as composeAction } from "~/routes/app-lead-proposal";
 import { parseComposeForm } from "~/lib/proposals/proposal-schema";
 import { addCalendarDays } from "~/domain/build-schedule";
 import { action as proposalAction, loader as proposalLoader } from "~/routes/proposal";
@@ -714,5 +715,57 @@ test("the proposal form refuses an offer open past a year, naming the field", ()
   });
   expect(parseComposeForm({ ...fields, validUntil: "2026-12-03" }, today)).toMatchObject({
     errors: { validUntil: "Valid until must be after today." },
+  });
+});
+
+test("hidden characters do not count: a signature of a reversed name and a zero-width space is stored as a reader sees it, and a one-word name padded with them is refused", async () => {
+  // Unicode Standard Annex #9 (bidirectional overrides reorder what a reader sees) and the
+  // zero-width space U+200B, which shows nothing.
+  const { proposal } = await sentProposal();
+  const post = (fields: Record<string, string>) =>
+    proposalAction(
+      routeArgs(
+        requestWithCookie(`/p/${proposal.token}`, undefined, { method: "POST", body: new URLSearchParams(fields) }),
+        { token: proposal.token },
+      ),
+    ) as Promise<{ data: { errors: Record<string, string> }; init: { status: number } } | Response>;
+  const padded = (await post({ intent: "sign", signerName: "Ingrid\u200b \u200b", consent: "on" })) as {
+    data: { errors: Record<string, string> };
+    init: { status: number };
+  };
+  expect([padded.init.status, padded.data.errors.signerName]).toEqual([
+    400,
+    "Type your full name, first and last, as your signature.",
+  ]);
+  await post({ intent: "sign", signerName: "\u202eIngrid\u202c Sola\u0007-Mar\u200btens\u2066", consent: "on" });
+  expect((await reload(proposal.id)).signerName).toBe("Ingrid Sola-Martens");
+});
+
+test("the proposal form reads text as a reader sees it: a 'not included' of one zero-width space is empty, control characters are dropped from the rest", async () => {
+  const { lead } = await sentProposal();
+  const cookie = await loginAs(lead.companyId, "owner");
+  const body = new URLSearchParams({
+    intent: "send",
+    fixedPrice: "4850",
+    validUntil: "2099-01-01",
+    included: "Base\u001b[31m and \u202ewalls",
+    excluded: "\u200b",
+    addOnLabel1: "\u200b\u200b\u200b",
+    addOnPrice1: "5",
+  });
+  const answer = (await composeAction(
+    routeArgs(
+      requestWithCookie(`/app/leads/${lead.id}/proposal`, cookie, {
+        method: "POST",
+        body,
+        headers: { "Content-Type": "application/x-www-form-urlencoded" },
+      }),
+      { leadId: String(lead.id) },
+    ),
+  )) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(answer.init.status).toBe(400);
+  expect(answer.data.errors).toMatchObject({
+    excluded: "Write what is not included (one line each).",
+    addOnLabel1: "Add-on 1 needs a name of 3 to 120 characters.",
   });
 });

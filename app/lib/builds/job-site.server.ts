@@ -414,7 +414,7 @@ export async function recordJobPhotos(
   lead: Lead,
   photos: StoredPhoto[],
   source: "progress" | "final",
-): Promise<number[]> {
+): Promise<{ photoIds: number[]; eventId: number }> {
   const storedNames = photos.map((p) => p.storedName);
   const incoming = photos.reduce((total, p) => total + p.sizeBytes, 0);
   try {
@@ -436,15 +436,18 @@ export async function recordJobPhotos(
         )
         .returning({ id: leadPhotos.id });
       const count = `${photos.length} photo${photos.length === 1 ? "" : "s"}`;
-      await tx.insert(leadEvents).values({
-        companyId: lead.companyId,
-        leadId: lead.id,
-        actorUserId: user.id,
-        kind: source === "final" ? "build-final-photos" : "build-photos",
-        detail: source === "final" ? `Finished job: ${count} of the built pit.` : `Build progress: ${count} added.`,
-        createdAt: new Date().toISOString(),
-      });
-      return rows.map((r) => r.id);
+      const [event] = await tx
+        .insert(leadEvents)
+        .values({
+          companyId: lead.companyId,
+          leadId: lead.id,
+          actorUserId: user.id,
+          kind: source === "final" ? "build-final-photos" : "build-photos",
+          detail: source === "final" ? `Finished job: ${count} of the built pit.` : `Build progress: ${count} added.`,
+          createdAt: new Date().toISOString(),
+        })
+        .returning({ id: leadEvents.id });
+      return { photoIds: rows.map((r) => r.id), eventId: event!.id };
     });
   } catch (error) {
     await deleteStoredPhotos(storedNames);
@@ -461,16 +464,22 @@ export async function markBuiltWithPhotos(user: SessionUser, lead: Lead, photos:
     await deleteStoredPhotos(photos.map((p) => p.storedName));
     return { ok: false, status: 409, errors: { form: "This job is marked built already." } };
   }
-  let ids: number[];
+  let recorded: { photoIds: number[]; eventId: number };
   try {
-    ids = await recordJobPhotos(user, lead, photos, "final");
+    recorded = await recordJobPhotos(user, lead, photos, "final");
   } catch (error) {
     if (error instanceof PhotoQuotaExceeded) return { ok: false, status: 429, errors: { photos: error.message } };
     throw error;
   }
   const moved = await markJobBuilt({ companyId: lead.companyId, leadId: lead.id, actorUserId: user.id });
   if (!moved.ok) {
-    await db.delete(leadPhotos).where(and(eq(leadPhotos.companyId, lead.companyId), inArray(leadPhotos.id, ids)));
+    // Taken back whole: the photos and the timeline line that announced them.
+    await db.batch([
+      db
+        .delete(leadPhotos)
+        .where(and(eq(leadPhotos.companyId, lead.companyId), inArray(leadPhotos.id, recorded.photoIds))),
+      db.delete(leadEvents).where(and(eq(leadEvents.companyId, lead.companyId), eq(leadEvents.id, recorded.eventId))),
+    ]);
     await deleteStoredPhotos(photos.map((p) => p.storedName));
     return { ok: false, status: moved.status, errors: { form: moved.message } };
   }
