@@ -14,7 +14,7 @@ export function PublicShell({ children, right }: { children: ReactNode; right?: 
           <nav aria-label="Site" className="flex items-center gap-2 text-sm font-bold">
             {right ?? (
               <Link to="/login" className="btn-quiet">
-                Staff sign-in
+                Sign in
               </Link>
             )}
           </nav>

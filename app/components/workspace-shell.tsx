@@ -36,6 +36,12 @@ export function WorkspaceShell({
   const items = WORKSPACE_NAV.filter((item) => item.roles.includes(user.role));
   return (
     <div className="flex min-h-dvh flex-col">
+      <a
+        href="#content"
+        className="no-print sr-only focus:not-sr-only focus:absolute focus:top-3 focus:left-3 focus:z-50 focus:rounded-lg focus:bg-white focus:px-4 focus:py-2 focus:font-bold focus:text-char-900 focus:shadow"
+      >
+        Skip to the content
+      </a>
       <header className="no-print bg-char-900 text-ash-100">
         <div className="mx-auto flex max-w-7xl flex-wrap items-center justify-between gap-3 px-4 py-3 sm:px-6">
           <div className="flex items-center gap-4">
@@ -78,7 +84,9 @@ export function WorkspaceShell({
           </ul>
         </nav>
       </header>
-      <main className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 sm:px-6">{children}</main>
+      <main id="content" tabIndex={-1} className="mx-auto w-full max-w-7xl flex-1 px-4 py-6 outline-none sm:px-6">
+        {children}
+      </main>
     </div>
   );
 }

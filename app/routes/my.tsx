@@ -21,6 +21,7 @@ import { summaryInUnit } from "~/lib/format/length-text";
 import { CARE_NOTES } from "~/lib/builds/care-notes";
 import { CheckoutRefused } from "~/lib/platform/payments.server";
 import { balanceLines, listBalancesFor, startBalanceCheckout } from "~/lib/builds/job-balance.server";
+import { bookedDaysByLead, describeBuildDays } from "~/lib/builds/builds.server";
 import { formatZonedDate } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
 import { readTextFields } from "~/lib/platform/forms.server";
@@ -46,7 +47,10 @@ export async function loader({ request }: Route.LoaderArgs) {
     proposals: proposalRows,
     sentRevisions,
   } = await loadHomeownerRequestDetails(rows);
-  const balances = await listBalancesFor(rows.map((l) => l.id));
+  const [balances, buildDays] = await Promise.all([
+    listBalancesFor(rows.map((l) => l.id)),
+    bookedDaysByLead(rows.map((l) => l.id)),
+  ]);
   const now = Date.now();
   const paidParam = Number(new URL(request.url).searchParams.get("paid"));
   const movedId = Number(new URL(request.url).searchParams.get("moved"));
@@ -90,6 +94,10 @@ export async function loader({ request }: Route.LoaderArgs) {
         ],
         consultPath: `/c/${company.slug}/consult/${lead.ref}`,
         status: HOMEOWNER_STATUS_LABEL[lead.status],
+        buildDays:
+          lead.status === "build-booked" && buildDays.get(lead.id)?.length
+            ? describeBuildDays(buildDays.get(lead.id)!)
+            : null,
         sentOn: new Date(lead.createdAt).toLocaleDateString("en-US", { dateStyle: "medium" }),
         photos: photos.filter((p) => p.leadId === lead.id && p.source !== "final"),
         finalPhotos: photos.filter((p) => p.leadId === lead.id && p.source === "final"),
@@ -264,6 +272,13 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                 or reply to any of their e-mails.
               </p>
             ) : null}
+            {req.buildDays ? (
+              <p className="rounded-lg bg-moss-100 px-4 py-3 text-sm font-semibold text-moss-700">
+                Your fire pit is booked to be built on {req.buildDays}.
+              </p>
+            ) : null}
+            {/* What is due comes first: on a phone the designs below run long. */}
+            {req.balance ? <BalanceSection leadId={req.id} balance={req.balance} /> : null}
             <section aria-label={`Designs for the request sent ${req.sentOn}`} className="grid gap-4 md:grid-cols-2">
               {req.designs.map((d, i) => (
                 <figure
@@ -328,7 +343,6 @@ export default function MyRequestsRoute({ loaderData, actionData }: Route.Compon
                 Book a design consult
               </Link>
             ) : null}
-            {req.balance ? <BalanceSection leadId={req.id} balance={req.balance} /> : null}
             {req.finalPhotos.length ? (
               <section aria-label="Your finished fire pit" className="flex flex-col gap-2">
                 <h3 className="font-extrabold">Your finished fire pit</h3>

@@ -29,6 +29,7 @@ import { formatZonedDateTime } from "~/lib/format/zoned-time";
 import { LabelledLines } from "~/components/labelled-lines";
 import { readForm, textFields } from "~/lib/platform/forms.server";
 import { toSingleLine } from "~/lib/format/clean-text";
+import { formatPhone } from "~/lib/format/phone";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   {
@@ -209,7 +210,7 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
           <p className="text-char-700">
             For {document.customer.name}, {document.customer.street}, {document.customer.town}. From{" "}
             {document.letterhead.name}
-            {document.letterhead.phone ? ` (${document.letterhead.phone})` : ""}
+            {document.letterhead.phone ? ` (${formatPhone(document.letterhead.phone)})` : ""}
             {document.letterhead.licence ? `, licence ${document.letterhead.licence}` : ""}. Prepared{" "}
             {document.preparedOn}; open to sign until {document.validUntil}.
           </p>
@@ -224,7 +225,7 @@ export default function ProposalRoute({ loaderData, actionData }: Route.Componen
           <StateNotice title={`This ${what} has expired`}>
             It was open to sign until {document.validUntil} and can no longer be signed. Ask {document.letterhead.name}{" "}
             for a new one
-            {document.letterhead.phone ? ` at ${document.letterhead.phone}` : ""}.
+            {document.letterhead.phone ? ` at ${formatPhone(document.letterhead.phone)}` : ""}.
           </StateNotice>
         ) : null}
         {state === "withdrawn" ? (

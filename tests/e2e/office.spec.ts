@@ -243,3 +243,17 @@ test("the owner reads the inbox on a 390 and a 360 px phone: every section, stag
   // Not reloaded: a second visit would mark the request seen.
   await screenshotThreeWidths(page, "inbox", { reload: false });
 });
+
+test("a keyboard user skips the workspace's menu: the first Tab stop is the skip link, and it lands on the page's content", async ({
+  page,
+}) => {
+  // WCAG 2.1 SC 2.4.1 Bypass Blocks.
+  await signIn(page, "owner@cinder-slate.test");
+  await page.goto("/app/inbox");
+  await page.keyboard.press("Tab");
+  const skip = page.getByRole("link", { name: "Skip to the content" });
+  await expect(skip).toBeFocused();
+  await expect(skip).toBeVisible();
+  await page.keyboard.press("Enter");
+  await expect(page.locator("main#content")).toBeFocused();
+});

@@ -11,6 +11,7 @@ import { addCalendarDays, buildDates, weekdayOf } from "~/domain/build-schedule"
 import {
   BOOKING_DAYS_AHEAD,
   bookBuild,
+  describeBuildDays,
   calendarFeedFor,
   cancelBuild,
   issueCalendarFeed,
@@ -22,6 +23,9 @@ import {
 import { zonedDay } from "~/lib/format/zoned-time";
 import { db } from "~/lib/platform/db.server";
 import { action as buildAction, loader as buildLoader } from "~/routes/app-lead-build";
+import { loader as myLoader } from "~/routes/my";
+import { loader as leadLoader } from "~/routes/app-lead";
+import { startSession } from "~/lib/auth/session.server";
 import { demoCompany, routeArgs } from "./support/demo";
 import { createCompanyWithStaff, requestWithCookie } from "./support/fixtures";
 import { loginAs } from "./support/login";
@@ -500,4 +504,40 @@ test("a built job's build days are a record: moving or cancelling them is refuse
   const [row] = await db.select().from(builds).where(eq(builds.id, booked.build.id));
   expect([row!.status, row!.sequence, row!.firstDay]).toEqual(["booked", 0, start]);
   expect(await mailFor(`build-%/${booked.build.id}/%`)).toHaveLength(mailBefore);
+});
+
+test("the booked days show where people look: on the homeowner's /my and on the lead page with the crew on the build", async () => {
+  const owner = await officeUser(company.id, "owner");
+  const lead = await signedJob();
+  const start = await farMonday();
+  const booked = await bookBuild(
+    owner,
+    lead,
+    company,
+    { start, crewUserIds: [crewA.id, crewB.id], days: 2, notes: "", allowClash: true },
+    ORIGIN,
+  );
+  if (!booked.ok) throw new Error(JSON.stringify(booked));
+  const days = describeBuildDays(JSON.parse(booked.build.datesJson) as string[]);
+  expect(days).toMatch(/^Monday, .+; Tuesday, /);
+  const [homeowner] = await db
+    .insert(users)
+    .values({
+      companyId: company.id,
+      email: `build.days.${lead.id}@example.test`,
+      name: "Build Days Homeowner",
+      role: "homeowner",
+    })
+    .returning();
+  await db.update(leads).set({ homeownerId: homeowner!.id }).where(eq(leads.id, lead.id));
+  const mine = (await myLoader(
+    routeArgs(requestWithCookie("/my", (await startSession(homeowner!.id)).split(";")[0])),
+  )) as { requests: { id: number; buildDays: string | null }[] };
+  expect(mine.requests.find((r) => r.id === lead.id)!.buildDays).toBe(days);
+  const page = (await leadLoader(
+    routeArgs(requestWithCookie(`/app/leads/${lead.id}`, await loginAs(company.id, "owner")), {
+      leadId: String(lead.id),
+    }),
+  )) as { build: { days: string; crew: string } | null };
+  expect(page.build).toEqual({ days, crew: `${crewA.name}, ${crewB.name}` });
 });

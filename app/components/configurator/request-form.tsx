@@ -211,12 +211,17 @@ export function RequestForm({
             name="consent"
             className="mt-0.5 h-5 w-5 shrink-0 accent-ember-500"
             aria-invalid={errors.consent ? true : undefined}
+            aria-describedby={errors.consent ? "request-consent-error" : undefined}
           />
           <span>
             {companyName} may contact me by e-mail or phone about this request. My details are used for nothing else.
           </span>
         </label>
-        {errors.consent ? <p className="field-error">{errors.consent}</p> : null}
+        {errors.consent ? (
+          <p id="request-consent-error" className="field-error">
+            {errors.consent}
+          </p>
+        ) : null}
       </div>
       <div>
         <button type="submit" className="btn-primary px-6 py-3 text-base" disabled={isSending}>

@@ -169,6 +169,16 @@ export async function findBookedBuild(lead: Lead) {
   return { ...build, dates: parseBuildDates(build), crew };
 }
 
+/** The booked build days of each of these leads, by lead (what a homeowner sees on /my). */
+export async function bookedDaysByLead(leadIds: readonly number[]): Promise<Map<number, CalendarDate[]>> {
+  if (leadIds.length === 0) return new Map();
+  const rows = await db
+    .select({ leadId: builds.leadId, datesJson: builds.datesJson })
+    .from(builds)
+    .where(and(inArray(builds.leadId, [...leadIds]), eq(builds.status, "booked")));
+  return new Map(rows.map((row) => [row.leadId, parseBuildDates(row)]));
+}
+
 async function activeCrew(companyId: number, ids: readonly number[]) {
   if (ids.length === 0) return [];
   return db

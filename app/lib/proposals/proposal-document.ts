@@ -80,7 +80,7 @@ export function writeScope(
   const f = formatInches;
   const aggregate = plan.materials.find((m) => m.key === "aggregate");
   const lines = [
-    `Lay out the pit and excavate, then compact a base of crushed stone ${f(plan.base.radiusIn * 2)} across${aggregate ? ` (about ${aggregate.quantity} t)` : ""}.`,
+    `Lay out the pit and excavate, then compact a base of crushed stone ${f(plan.base.radiusIn * 2)} across${aggregate ? ` (about ${aggregate.quantity} tons)` : ""}.`,
     `Build ${plural(plan.ring.courses, "course")} of ${names.stone}, ${plan.ring.unitsPerCourse} units a course, in running bond: a ${f(plan.ring.bowlDiameterIn)} bowl, ${f(plan.ring.outsideDiameterIn)} outside, ${f(plan.ring.wallHeightIn)} high${plan.caps ? " with the caps" : ""}.`,
   ];
   if (plan.ring.closure) lines.push("Cut a closure unit in each course so the ring closes at the size drawn.");
