@@ -11,7 +11,9 @@ export type ChartMonth = {
 
 const WIDTH = 640;
 const HEIGHT = 280;
-const PAD = { top: 16, right: 12, bottom: 40, left: 64 };
+const PAD = { top: 16, right: 12, bottom: 50, left: 78 };
+// Text in viewBox units: the chart never draws narrower than 30rem, so it reads at 12 px or more.
+const TEXT = 16;
 
 /** A round top for the value axis: 1, 2 or 5 × a power of ten at or above the largest value. */
 function niceCeiling(value: number): number {
@@ -44,50 +46,58 @@ export function MonthlyChart({ months }: { months: ChartMonth[] }) {
     .join("; ");
   return (
     <figure className="mt-3 flex flex-col gap-2">
-      <svg
-        viewBox={`0 0 ${WIDTH} ${HEIGHT}`}
-        className="h-auto w-full max-w-3xl"
-        role="img"
-        aria-labelledby={`${id}-title ${id}-desc`}
-      >
-        <title id={`${id}-title`}>Revenue and gross profit by month</title>
-        <desc id={`${id}-desc`}>{description}.</desc>
-        {ticks.map((t) => (
-          <g key={t}>
-            <line
-              x1={PAD.left}
-              x2={WIDTH - PAD.right}
-              y1={y(t)}
-              y2={y(t)}
-              stroke="#d9d0c4"
-              strokeWidth={t === 0 ? 1.5 : 0.75}
-            />
-            <text x={PAD.left - 6} y={y(t) + 4} textAnchor="end" fontSize="12" fill="#4a423c">
-              {formatMoneyWhole(Math.round(t))}
-            </text>
-          </g>
-        ))}
-        {months.map((m, i) => {
-          const cx = PAD.left + band * i + band / 2;
-          const profitTop = y(Math.max(0, m.grossProfitCents));
-          const profitHeight = Math.abs(y(m.grossProfitCents) - y(0));
-          return (
-            <g key={m.month}>
-              <rect
-                x={cx - bar - 2}
-                y={y(m.revenueCents)}
-                width={bar}
-                height={y(0) - y(m.revenueCents)}
-                fill="#b14c12"
+      {/* On a phone the chart keeps a readable size and scrolls sideways. */}
+      <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Chart of revenue and gross profit">
+        <svg
+          viewBox={`0 0 ${WIDTH} ${HEIGHT}`}
+          className="h-auto w-full max-w-3xl min-w-[30rem]"
+          role="img"
+          aria-labelledby={`${id}-title ${id}-desc`}
+        >
+          <title id={`${id}-title`}>Revenue and gross profit by month</title>
+          <desc id={`${id}-desc`}>{description}.</desc>
+          {ticks.map((t) => (
+            <g key={t}>
+              <line
+                x1={PAD.left}
+                x2={WIDTH - PAD.right}
+                y1={y(t)}
+                y2={y(t)}
+                stroke="#d9d0c4"
+                strokeWidth={t === 0 ? 1.5 : 0.75}
               />
-              <rect x={cx + 2} y={profitTop} width={bar} height={profitHeight} fill="#4d6b3c" />
-              <text x={cx} y={HEIGHT - PAD.bottom + 18} textAnchor="middle" fontSize="12" fill="#2d2825">
-                {m.label.replace(/ (\d{4})$/, " ’$1").replace(/’(\d\d)(\d\d)$/, "’$2")}
+              <text x={PAD.left - 6} y={y(t) + 5} textAnchor="end" fontSize={TEXT} fill="#4a423c">
+                {formatMoneyWhole(Math.round(t))}
               </text>
             </g>
-          );
-        })}
-      </svg>
+          ))}
+          {months.map((m, i) => {
+            const cx = PAD.left + band * i + band / 2;
+            const profitTop = y(Math.max(0, m.grossProfitCents));
+            const profitHeight = Math.abs(y(m.grossProfitCents) - y(0));
+            return (
+              <g key={m.month}>
+                <rect
+                  x={cx - bar - 2}
+                  y={y(m.revenueCents)}
+                  width={bar}
+                  height={y(0) - y(m.revenueCents)}
+                  fill="#b14c12"
+                />
+                <rect x={cx + 2} y={profitTop} width={bar} height={profitHeight} fill="#4d6b3c" />
+                <text x={cx} y={HEIGHT - PAD.bottom + 20} textAnchor="middle" fontSize={TEXT} fill="#2d2825">
+                  {m.label.slice(0, 3)}
+                  {i === 0 || m.month.endsWith("-01") ? (
+                    <tspan x={cx} dy={TEXT + 2} fill="#4a423c">
+                      {m.month.slice(0, 4)}
+                    </tspan>
+                  ) : null}
+                </text>
+              </g>
+            );
+          })}
+        </svg>
+      </div>
       <figcaption className="flex flex-wrap gap-4 text-sm">
         <span className="flex items-center gap-2">
           <span aria-hidden="true" className="inline-block h-3 w-3 rounded-sm bg-[#b14c12]" /> Revenue
