@@ -160,6 +160,13 @@ async function handleApp(req, res) {
   await sendResponse(req, res, response);
 }
 
+const CLIENT_GONE = new Set(["ECONNRESET", "EPIPE", "ERR_STREAM_PREMATURE_CLOSE", "ERR_STREAM_DESTROYED"]);
+
+/** Whether a write failed because the client closed the connection, not because the answer broke. */
+function clientLeft(error) {
+  return error?.constructor?.name === "WritableClosedError" || CLIENT_GONE.has(error?.code);
+}
+
 /** Writes a web Response to the Node response; answers the app never shaped get the baseline headers. */
 async function sendResponse(req, res, response) {
   if (!response.headers.has("X-Content-Type-Options")) hooks.applyBaselineHeaders(response.headers);
@@ -178,8 +185,9 @@ async function sendResponse(req, res, response) {
   try {
     await writeReadableStreamToWritable(response.body, res);
   } catch (error) {
-    // The client went away mid-answer (a closed tab, a click elsewhere): nobody to tell, nothing to log.
-    if (res.destroyed || req.destroyed) {
+    // The client went away mid-answer (a closed tab, a click elsewhere): nobody to tell, nothing to
+    // log. Any other failure (the answer's own source breaking) is logged by the caller.
+    if (clientLeft(error)) {
       await response.body.cancel().catch(() => undefined);
       return;
     }

@@ -1,5 +1,6 @@
 import { data, Form, Link, useNavigation } from "react-router";
 import { z } from "zod";
+import { isFinishedJob } from "~/lib/leads/lead-status";
 import type { Route } from "./+types/app-lead-build";
 import { FormAlert, TextField } from "~/components/ui/field";
 import { WorkspaceProblem } from "~/components/workspace-problem";
@@ -74,6 +75,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
           dates: build.dates,
           daysText: describeBuildDays(build.dates),
           crew: build.crew,
+          // Once the job is built its days are a record, not a plan.
+          canChange: !isFinishedJob(lead),
         }
       : null,
   };
@@ -242,67 +245,75 @@ export default function LeadBuildRoute({ loaderData, actionData }: Route.Compone
             <p className="text-lg font-extrabold">{build.daysText}</p>
             <p className="text-sm text-char-600">Crew: {build.crew.map((c) => c.name).join(", ")}</p>
           </section>
-          {/* Keyed by the sequence: after a move the fields show the booked days, not what was typed. */}
-          <Form
-            key={build.sequence}
-            method="post"
-            className="flex flex-col gap-4 card p-4"
-            aria-labelledby="move-build"
-          >
-            <h2 id="move-build" className="font-extrabold">
-              Move the build
-            </h2>
-            <input type="hidden" name="intent" value="move" />
-            <input type="hidden" name="buildId" value={build.id} />
-            <input type="hidden" name="sequence" value={build.sequence} />
-            <div className="grid gap-4 sm:grid-cols-2">
-              <TextField
-                label="New first day"
-                name="start"
-                type="date"
-                min={loaderData.today}
-                max={loaderData.lastBookable}
-                defaultValue={build.dates[0]}
-                error={errors.start}
-                required
-              />
-              <TextField
-                label="Days on site"
-                name="days"
-                type="number"
-                min={1}
-                max={30}
-                defaultValue={build.dates.length}
-                error={errors.days}
-              />
-            </div>
-            {clashes.length ? (
-              <label className="flex items-center gap-2 text-sm font-semibold">
-                <input type="checkbox" name="allowClash" /> Move anyway, clashes and all
-              </label>
-            ) : null}
-            <button type="submit" className="btn-primary self-start" disabled={isBusy}>
-              Move and tell everyone
-            </button>
-          </Form>
-          <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="cancel-build">
-            <h2 id="cancel-build" className="font-extrabold">
-              Cancel the build
-            </h2>
-            <input type="hidden" name="intent" value="cancel" />
-            <input type="hidden" name="buildId" value={build.id} />
-            <input type="hidden" name="sequence" value={build.sequence} />
-            <TextField
-              label="Reason (sent to the homeowner)"
-              name="reason"
-              error={errors.reason}
-              required
-              maxLength={500}
-            />
-            <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
-              Cancel the build dates
-            </button>
-          </Form>
+          {build.canChange ? (
+            <>
+              {/* Keyed by the sequence: after a move the fields show the booked days, not what was typed. */}
+              <Form
+                key={build.sequence}
+                method="post"
+                className="flex flex-col gap-4 card p-4"
+                aria-labelledby="move-build"
+              >
+                <h2 id="move-build" className="font-extrabold">
+                  Move the build
+                </h2>
+                <input type="hidden" name="intent" value="move" />
+                <input type="hidden" name="buildId" value={build.id} />
+                <input type="hidden" name="sequence" value={build.sequence} />
+                <div className="grid gap-4 sm:grid-cols-2">
+                  <TextField
+                    label="New first day"
+                    name="start"
+                    type="date"
+                    min={loaderData.today}
+                    max={loaderData.lastBookable}
+                    defaultValue={build.dates[0]}
+                    error={errors.start}
+                    required
+                  />
+                  <TextField
+                    label="Days on site"
+                    name="days"
+                    type="number"
+                    min={1}
+                    max={30}
+                    defaultValue={build.dates.length}
+                    error={errors.days}
+                  />
+                </div>
+                {clashes.length ? (
+                  <label className="flex items-center gap-2 text-sm font-semibold">
+                    <input type="checkbox" name="allowClash" /> Move anyway, clashes and all
+                  </label>
+                ) : null}
+                <button type="submit" className="btn-primary self-start" disabled={isBusy}>
+                  Move and tell everyone
+                </button>
+              </Form>
+              <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="cancel-build">
+                <h2 id="cancel-build" className="font-extrabold">
+                  Cancel the build
+                </h2>
+                <input type="hidden" name="intent" value="cancel" />
+                <input type="hidden" name="buildId" value={build.id} />
+                <input type="hidden" name="sequence" value={build.sequence} />
+                <TextField
+                  label="Reason (sent to the homeowner)"
+                  name="reason"
+                  error={errors.reason}
+                  required
+                  maxLength={500}
+                />
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                  Cancel the build dates
+                </button>
+              </Form>
+            </>
+          ) : (
+            <p className="card p-4 text-sm text-char-700">
+              The job is built: these days are a record of the work and can no longer be moved or cancelled.
+            </p>
+          )}
         </>
       ) : loaderData.canBook ? (
         <Form method="post" className="flex flex-col gap-4 card p-4" aria-labelledby="book-build">

@@ -126,7 +126,12 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     balance: balance ? describeBalance(balance, tz) : null,
     jobCost: cost ? describeJobCost(cost) : null,
     build: booked
-      ? { days: describeBuildDays(booked.dates), crew: booked.crew.map((c) => c.name).join(", ") || "no crew yet" }
+      ? {
+          days: describeBuildDays(booked.dates),
+          crew: booked.crew.map((c) => c.name).join(", ") || "no crew yet",
+          // Once the job is built its days are a record, not a plan.
+          canChange: !isFinishedJob(lead),
+        }
       : null,
     proposals: allProposals.map((p) => {
       const document = parseProposalDocument(p.documentJson);
@@ -429,6 +434,13 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
 
       {Object.keys(formErrors).length ? <FormAlert>{Object.values(formErrors).join(" ")}</FormAlert> : null}
 
+      {isOffice && team ? (
+        // On a phone the design and cut list come first and run long: a way straight to the work.
+        <a href="#work" className="btn-quiet self-start lg:hidden">
+          Go to “Work the request”
+        </a>
+      ) : null}
+
       <div className="grid items-start gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:grid-rows-[auto_1fr]">
         <div className="flex min-w-0 flex-col gap-6 lg:col-start-2 lg:row-start-1">
           <CustomerCard lead={lead} isOffice={isOffice} />
@@ -439,7 +451,7 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
               </h2>
               <p className="mt-2 font-bold">{loaderData.build.days}</p>
               <p className="text-char-700">Crew: {loaderData.build.crew}</p>
-              {isOwner ? (
+              {isOwner && loaderData.build.canChange ? (
                 <Link
                   to={`/app/leads/${lead.id}/build`}
                   className="mt-2 inline-block font-bold text-ember-700 hover:underline"
@@ -453,141 +465,6 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
           <PhotoList photos={photos} />
         </div>
 
-        {/* The work comes before the design in reading order: on a phone it is not 8,000 px down. */}
-        <aside className="flex flex-col gap-6 lg:col-start-2 lg:row-start-2">
-          {isOffice && team ? (
-            <section aria-labelledby="work-title" className="flex flex-col gap-5 card p-5">
-              <h2 id="work-title" className="text-lg font-extrabold">
-                Work the request
-              </h2>
-              <StageForm
-                key={`${formKey}-status`}
-                stageLabel={lead.stageLabel}
-                moves={moves}
-                errors={errorsFor("status")}
-                submitted={actionData?.intent === "status" ? actionData.fields : null}
-                isBusy={isBusy}
-              />
-
-              <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
-                <input type="hidden" name="intent" value="assign" />
-                <NotSaved errors={errorsFor("assign")} />
-                <SelectField
-                  label="Estimator"
-                  name="assigneeId"
-                  defaultValue={
-                    typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))
-                  }
-                  error={errorsFor("assign").assigneeId}
-                >
-                  <option value="">Unassigned</option>
-                  {team.estimators.map((m) => (
-                    <option key={m.id} value={m.id}>
-                      {m.name}
-                      {m.isActive ? "" : " (inactive)"}
-                    </option>
-                  ))}
-                </SelectField>
-                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
-                  Assign
-                </button>
-              </Form>
-
-              {lead.isSigned ? (
-                <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
-                  <input type="hidden" name="intent" value="crew" />
-                  <NotSaved errors={errorsFor("crew")} />
-                  <SelectField
-                    label="Crew"
-                    name="crewUserId"
-                    hint={
-                      loaderData.build
-                        ? `On the booked build: ${loaderData.build.crew}. The one chosen here leads the job and gets the cut sheet.`
-                        : "The one chosen here leads the job and gets the cut sheet."
-                    }
-                    defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))}
-                    error={errorsFor("crew").crewUserId}
-                  >
-                    <option value="">No crew yet</option>
-                    {team.crew.map((m) => (
-                      <option key={m.id} value={m.id}>
-                        {m.name}
-                        {m.isActive ? "" : " (inactive)"}
-                      </option>
-                    ))}
-                  </SelectField>
-                  <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
-                    Give the job to the crew
-                  </button>
-                </Form>
-              ) : (
-                <p className="text-sm text-char-600">
-                  Once the job is signed and the deposit paid, give it to a crew here.
-                </p>
-              )}
-
-              <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
-                <input type="hidden" name="intent" value="note" />
-                <NotSaved errors={errorsFor("note")} />
-                <label htmlFor="note" className="field-label">
-                  Add a note
-                </label>
-                <textarea
-                  id="note"
-                  name="note"
-                  rows={3}
-                  maxLength={2000}
-                  defaultValue={typed("note").note ?? ""}
-                  aria-invalid={errorsFor("note").note ? true : undefined}
-                  aria-describedby={errorsFor("note").note ? "note-error" : undefined}
-                  className="field-input"
-                />
-                {errorsFor("note").note ? (
-                  <p id="note-error" className="field-error">
-                    {errorsFor("note").note}
-                  </p>
-                ) : null}
-                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
-                  Add note
-                </button>
-              </Form>
-            </section>
-          ) : null}
-
-          {isOffice && (proposals.length || totals) ? (
-            <ProposalsCard
-              leadId={lead.id}
-              proposals={proposals}
-              totals={totals}
-              isOwner={isOwner}
-              errors={errorsFor("refund")}
-              isBusy={isBusy}
-            />
-          ) : null}
-
-          {balance ? <BalanceCard balance={balance} /> : null}
-          {jobCost ? <JobCostCard cost={jobCost} /> : null}
-
-          {isOffice ? (
-            <section aria-labelledby="timeline-title" className="card p-5">
-              <h2 id="timeline-title" className="text-lg font-extrabold">
-                Timeline
-              </h2>
-              <ol className="mt-2 flex flex-col gap-3 text-sm">
-                {timeline.map((t) => (
-                  <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
-                    <p className="font-bold text-char-800">{describeKind(t.kind)}</p>
-                    <p className="break-words whitespace-pre-line">{t.detail}</p>
-                    <p className="text-xs text-char-500">
-                      {t.when}
-                      {t.actorName ? ` · ${t.actorName}` : ""}
-                    </p>
-                  </li>
-                ))}
-              </ol>
-            </section>
-          ) : null}
-        </aside>
         <div className="flex min-w-0 flex-col gap-6 lg:col-start-1 lg:row-span-2 lg:row-start-1">
           <section aria-labelledby="design-title" className="flex flex-col gap-4">
             <div className="flex flex-wrap items-baseline justify-between gap-2">
@@ -757,6 +634,141 @@ export default function LeadRoute({ loaderData, actionData }: Route.ComponentPro
             <CrewCautions cautions={shown.cautions} />
           </section>
         </div>
+
+        <aside className="flex flex-col gap-6 lg:col-start-2 lg:row-start-2">
+          {isOffice && team ? (
+            <section id="work" aria-labelledby="work-title" className="flex scroll-mt-4 flex-col gap-5 card p-5">
+              <h2 id="work-title" className="text-lg font-extrabold">
+                Work the request
+              </h2>
+              <StageForm
+                key={`${formKey}-status`}
+                stageLabel={lead.stageLabel}
+                moves={moves}
+                errors={errorsFor("status")}
+                submitted={actionData?.intent === "status" ? actionData.fields : null}
+                isBusy={isBusy}
+              />
+
+              <Form key={`${formKey}-assign`} method="post" className="flex flex-col gap-2" noValidate>
+                <input type="hidden" name="intent" value="assign" />
+                <NotSaved errors={errorsFor("assign")} />
+                <SelectField
+                  label="Estimator"
+                  name="assigneeId"
+                  defaultValue={
+                    typed("assign").assigneeId ?? (lead.assignedUserId === null ? "" : String(lead.assignedUserId))
+                  }
+                  error={errorsFor("assign").assigneeId}
+                >
+                  <option value="">Unassigned</option>
+                  {team.estimators.map((m) => (
+                    <option key={m.id} value={m.id}>
+                      {m.name}
+                      {m.isActive ? "" : " (inactive)"}
+                    </option>
+                  ))}
+                </SelectField>
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                  Assign
+                </button>
+              </Form>
+
+              {lead.isSigned ? (
+                <Form key={`${formKey}-crew`} method="post" className="flex flex-col gap-2" noValidate>
+                  <input type="hidden" name="intent" value="crew" />
+                  <NotSaved errors={errorsFor("crew")} />
+                  <SelectField
+                    label="Crew"
+                    name="crewUserId"
+                    hint={
+                      loaderData.build
+                        ? `On the booked build: ${loaderData.build.crew}. The one chosen here leads the job and gets the cut sheet.`
+                        : "The one chosen here leads the job and gets the cut sheet."
+                    }
+                    defaultValue={typed("crew").crewUserId ?? (lead.crewUserId === null ? "" : String(lead.crewUserId))}
+                    error={errorsFor("crew").crewUserId}
+                  >
+                    <option value="">No crew yet</option>
+                    {team.crew.map((m) => (
+                      <option key={m.id} value={m.id}>
+                        {m.name}
+                        {m.isActive ? "" : " (inactive)"}
+                      </option>
+                    ))}
+                  </SelectField>
+                  <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                    Give the job to the crew
+                  </button>
+                </Form>
+              ) : (
+                <p className="text-sm text-char-600">
+                  Once the job is signed and the deposit paid, give it to a crew here.
+                </p>
+              )}
+
+              <Form key={`${formKey}-note`} method="post" className="flex flex-col gap-2" noValidate>
+                <input type="hidden" name="intent" value="note" />
+                <NotSaved errors={errorsFor("note")} />
+                <label htmlFor="note" className="field-label">
+                  Add a note
+                </label>
+                <textarea
+                  id="note"
+                  name="note"
+                  rows={3}
+                  maxLength={2000}
+                  defaultValue={typed("note").note ?? ""}
+                  aria-invalid={errorsFor("note").note ? true : undefined}
+                  aria-describedby={errorsFor("note").note ? "note-error" : undefined}
+                  className="field-input"
+                />
+                {errorsFor("note").note ? (
+                  <p id="note-error" className="field-error">
+                    {errorsFor("note").note}
+                  </p>
+                ) : null}
+                <button type="submit" className="btn-quiet self-start" disabled={isBusy}>
+                  Add note
+                </button>
+              </Form>
+            </section>
+          ) : null}
+
+          {isOffice && (proposals.length || totals) ? (
+            <ProposalsCard
+              leadId={lead.id}
+              proposals={proposals}
+              totals={totals}
+              isOwner={isOwner}
+              errors={errorsFor("refund")}
+              isBusy={isBusy}
+            />
+          ) : null}
+
+          {balance ? <BalanceCard balance={balance} /> : null}
+          {jobCost ? <JobCostCard cost={jobCost} /> : null}
+
+          {isOffice ? (
+            <section aria-labelledby="timeline-title" className="card p-5">
+              <h2 id="timeline-title" className="text-lg font-extrabold">
+                Timeline
+              </h2>
+              <ol className="mt-2 flex flex-col gap-3 text-sm">
+                {timeline.map((t) => (
+                  <li key={t.key} data-kind={t.kind} className="border-l-3 border-ash-300 pl-3">
+                    <p className="font-bold text-char-800">{describeKind(t.kind)}</p>
+                    <p className="break-words whitespace-pre-line">{t.detail}</p>
+                    <p className="text-xs text-char-500">
+                      {t.when}
+                      {t.actorName ? ` · ${t.actorName}` : ""}
+                    </p>
+                  </li>
+                ))}
+              </ol>
+            </section>
+          ) : null}
+        </aside>
       </div>
     </div>
   );

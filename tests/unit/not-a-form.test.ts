@@ -148,7 +148,7 @@ test("no route reads a form body except through readForm (the sign-in reads a co
 });
 
 test.each(["PUT", "PATCH", "DELETE"])(
-  "%s is refused with 405 and Allow: GET, HEAD, POST, before any action runs",
+  "%s is refused with 405 and Allow, before any action runs",
   async (method) => {
     const request = requestWithCookie(`/app/leads/${leadId}`, owner, {
       method,
@@ -160,7 +160,7 @@ test.each(["PUT", "PATCH", "DELETE"])(
       ran = true;
       return new Response("ran");
     })) as Response;
-    expect([response.status, response.headers.get("Allow"), ran]).toEqual([405, "GET, HEAD, POST", false]);
+    expect([response.status, response.headers.get("Allow"), ran]).toEqual([405, "GET, HEAD, OPTIONS, POST", false]);
   },
 );
 
@@ -170,6 +170,7 @@ test("readForm hands actions text as a reader sees it: control, bidirectional an
     reason: "\u200b\u200b\u200b\u200b",
     note: "Line one\r\nLine\u0007 two\u202e\u2066\ufeff",
     password: "pa\u200bss\u0007word",
+    confirm: "pa\u200bss\u0007word",
   });
   const form = await readForm(
     new Request("http://localhost/x", {
@@ -182,5 +183,6 @@ test("readForm hands actions text as a reader sees it: control, bidirectional an
     reason: "",
     note: "Line one\nLine two",
     password: "pa\u200bss\u0007word",
+    confirm: "pa\u200bss\u0007word",
   });
 });

@@ -742,30 +742,72 @@ test("hidden characters do not count: a signature of a reversed name and a zero-
 });
 
 test("the proposal form reads text as a reader sees it: a 'not included' of one zero-width space is empty, control characters are dropped from the rest", async () => {
-  const { lead } = await sentProposal();
+  const { lead, company } = await sentProposal();
   const cookie = await loginAs(lead.companyId, "owner");
-  const body = new URLSearchParams({
-    intent: "send",
-    fixedPrice: "4850",
-    validUntil: "2099-01-01",
-    included: "Base\u001b[31m and \u202ewalls",
+  const today = new Intl.DateTimeFormat("en-CA", { timeZone: company.timeZone }).format(new Date());
+  const post = async (fields: Record<string, string>) =>
+    (await composeAction(
+      routeArgs(
+        requestWithCookie(`/app/leads/${lead.id}/proposal`, cookie, {
+          method: "POST",
+          body: new URLSearchParams({
+            intent: "send",
+            fixedPrice: "4850",
+            validUntil: addCalendarDays(today, 30),
+            ...fields,
+          }),
+          headers: { "Content-Type": "application/x-www-form-urlencoded" },
+        }),
+        { leadId: String(lead.id) },
+      ),
+    )) as { init: { status: number }; data: { errors: Record<string, string> } } | Response;
+  const refused = (await post({
+    included: "Base",
     excluded: "\u200b",
     addOnLabel1: "\u200b\u200b\u200b",
     addOnPrice1: "5",
-  });
-  const answer = (await composeAction(
-    routeArgs(
-      requestWithCookie(`/app/leads/${lead.id}/proposal`, cookie, {
-        method: "POST",
-        body,
-        headers: { "Content-Type": "application/x-www-form-urlencoded" },
-      }),
-      { leadId: String(lead.id) },
-    ),
-  )) as { init: { status: number }; data: { errors: Record<string, string> } };
-  expect(answer.init.status).toBe(400);
-  expect(answer.data.errors).toMatchObject({
+  })) as { init: { status: number }; data: { errors: Record<string, string> } };
+  expect(refused.init.status).toBe(400);
+  expect(refused.data.errors).toEqual({
     excluded: "Write what is not included (one line each).",
     addOnLabel1: "Add-on 1 needs a name of 3 to 120 characters.",
   });
+  const sent = await post({ included: "Base\u001b[31m and \u202ewalls", excluded: "Permits" });
+  expect((sent as Response).status).toBe(302);
+  const [newest] = await db
+    .select()
+    .from(proposals)
+    .where(and(eq(proposals.leadId, lead.id), eq(proposals.status, "sent")));
+  expect(parseProposalDocument(newest!.documentJson).included).toEqual(["Base[31m and walls"]);
+});
+
+test("a proposal sent on a job marked not going ahead picks it up again; one left out on a stopped job cannot be signed", async () => {
+  const { lead, user, company } = await sentProposal();
+  await db
+    .update(leads)
+    .set({ status: "not-going-ahead", stopReason: "Went quiet", pausedStage: "proposal-out" })
+    .where(eq(leads.id, lead.id));
+  const stopped = (await db.select().from(leads).where(eq(leads.id, lead.id)))[0]!;
+  const again = await sendProposal({
+    user,
+    lead: stopped,
+    company,
+    input: { fixedPriceCents: 470_000, addOns: [], validUntil: "2099-12-31", included: "Base", excluded: "Permits" },
+    origin: "http://localhost",
+  });
+  expect((await db.select().from(leads).where(eq(leads.id, lead.id)))[0]).toMatchObject({
+    status: "proposal-out",
+    stopReason: null,
+    pausedStage: null,
+  });
+  // Stopped again with this proposal still out (an older stop): signing it is refused and records nothing.
+  await db.update(leads).set({ status: "not-going-ahead" }).where(eq(leads.id, lead.id));
+  const refused = await acceptProposal({
+    proposal: again,
+    lead: stopped,
+    document: parseProposalDocument(again.documentJson),
+    input: { ...SIGNER, chosenKeys: [] },
+  });
+  expect(refused).toMatchObject({ ok: false, status: 409, message: /not going ahead/ });
+  expect((await reload(again.id)).status).toBe("sent");
 });

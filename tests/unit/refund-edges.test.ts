@@ -63,7 +63,11 @@ async function deliver(event: unknown) {
   return ((await response.json()) as { outcome: string }).outcome;
 }
 
-type FakeEvent = { id: string; type: string; data: { object: Record<string, unknown> } };
+type FakeEvent = {
+  id: string;
+  type: string;
+  data: { object: Record<string, unknown>; previous_attributes?: Record<string, unknown> };
+};
 async function fakeEvents(type: string): Promise<FakeEvent[]> {
   return ((await (await fetch(`${fake.url}/_fake/events?type=${type}`)).json()) as { data: FakeEvent[] }).data;
 }
@@ -395,4 +399,26 @@ test("a balance refund owed is not sent by the deposit worker, and the balance w
   await processBalanceRefunds(client);
   // $4,850 − $3,500 − $1,455 = −$105: $105 back on the deposit's card.
   expect(await refundsOn(job.intent)).toEqual([10_500]);
+});
+
+test("a credit owed is settled by a notice of a refund of that much, not by refunds made by hand before it, nor by a smaller one after", async () => {
+  // $4,850 − $3,500 − $1,455 = −$105 owed back on the deposit's card.
+  const job = await cardDepositJob();
+  // $200 back by hand before the build (its notice does not match anything owed then).
+  await client.refunds.create({ payment_intent: job.intent, amount: 20_000 });
+  expect(await deliver(await newestRefundNotice(job.intent))).toBe("mismatch");
+  await change(job.proposal, -350_000, "signed");
+  expect(await built(job)).toMatchObject({ ok: true });
+  expect(await balanceOf(job.lead.id)).toMatchObject({ refundAmountCents: 10_500, refundId: null });
+  // $50 more by hand: the charge now shows $250 back, more than the $105 owed, but this refund is $50.
+  await client.refunds.create({ payment_intent: job.intent, amount: 5_000 });
+  expect(await deliver(await newestRefundNotice(job.intent))).toBe("applied");
+  expect((await balanceOf(job.lead.id))!.refundId).toBeNull();
+  // The worker sends the $105, and its own notice confirms it.
+  await processBalanceRefunds(client);
+  expect((await refundsOn(job.intent)).sort((a, b) => a - b)).toEqual([5_000, 10_500, 20_000]);
+  const own = await newestRefundNotice(job.intent);
+  expect(own.data.previous_attributes).toMatchObject({ amount_refunded: 25_000 });
+  expect(await deliver(own)).toBe("applied");
+  expect((await balanceOf(job.lead.id))!.refundId).toMatch(/^re_/);
 });

@@ -419,7 +419,7 @@ export async function applyBalanceEvent(event: Stripe.Event, now = new Date()): 
         throw new MismatchRollback();
       }
       // A part refunded by hand is not the refund owed: the worker still sends it.
-      if (!balance.refundId && noticeCoversRefund(charge, balance.refundAmountCents))
+      if (!balance.refundId && noticeCoversRefund(event, charge, balance.refundAmountCents))
         await tx
           .update(jobBalances)
           .set({

@@ -655,7 +655,7 @@ export async function applyPaymentEvent(event: Stripe.Event): Promise<WebhookOut
     if (event.type === "charge.refunded") {
       const charge = event.data.object;
       // The consult is refunded whole: a part refunded by hand leaves a refund owed for the worker.
-      if (!booking.refundId && noticeCoversRefund(charge, null))
+      if (!booking.refundId && noticeCoversRefund(event, charge, null))
         await tx
           .update(bookings)
           .set({

@@ -62,16 +62,25 @@ type RefundTable = SQLiteTable & {
 const REFUND_BATCH_SIZE = 10;
 
 /**
- * Whether a refund notice shows an owed refund made: the charge carries at least that much back (the
- * whole payment when no amount is owed). A smaller refund (made by hand, or of something else) settles
- * nothing, and the worker still sends what is owed.
+ * Whether a refund notice (`charge.refunded`) shows the refund owed made. A whole-payment refund is
+ * made once the charge is refunded in full: nothing is left to send. A refund of part of a payment (a
+ * built job's credit) is made only by a refund of at least that amount: the notice's own refund, the
+ * rise in `amount_refunded` over its `previous_attributes`, never the charge's running total (which
+ * counts earlier refunds made by hand for other reasons). Anything less settles nothing and the
+ * worker still sends what is owed.
  */
 export function noticeCoversRefund(
+  event: { data: { previous_attributes?: unknown } },
   charge: Pick<Stripe.Charge, "amount" | "amount_refunded">,
   owedCents: number | null | undefined,
 ): boolean {
-  const back = Number(charge.amount_refunded);
-  return Number.isFinite(back) && back > 0 && back >= (owedCents ?? Number(charge.amount));
+  const total = Number(charge.amount_refunded);
+  if (!Number.isFinite(total) || total <= 0) return false;
+  if (owedCents == null) return total >= Number(charge.amount);
+  const previous = (event.data.previous_attributes as { amount_refunded?: unknown } | undefined)?.amount_refunded;
+  const before = Number(previous);
+  if (previous === undefined || previous === null || !Number.isFinite(before)) return false;
+  return total - before >= owedCents;
 }
 
 /**

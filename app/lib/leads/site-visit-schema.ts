@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { toCleanLines } from "~/lib/format/clean-text";
 import { SLOPES, SOILS, SPOIL_PLANS, UTILITY_MARKS } from "~/db/enums";
 import { formLength } from "~/lib/format/form-fields";
 import { parseLength } from "~/domain/units";
@@ -54,7 +55,7 @@ export const siteVisitSchema = z.object({
   accessWidthIn: formLength("Access width", 12, 240),
   utilityMarks: z.enum(UTILITY_MARKS, { error: "Say whether the utilities are marked." }),
   spoil: z.enum(SPOIL_PLANS, { error: "Say where the dug soil goes." }),
-  notes: z.string().trim().max(2000, "Notes must be at most 2,000 characters.").default(""),
+  notes: z.string().overwrite(toCleanLines).trim().max(2000, "Notes must be at most 2,000 characters.").default(""),
 });
 
 export type SiteVisitInput = z.output<typeof siteVisitSchema>;

@@ -13,6 +13,9 @@ export const NOT_A_FORM = "Send the form as application/x-www-form-urlencoded or
  * characters" counts characters a reader sees, and nothing hidden reaches a PDF, an e-mail or a
  * signature. Passwords are left exactly as typed.
  */
+/** Fields kept exactly as typed: a password and its confirmation must match what is hashed. */
+const KEPT_AS_TYPED = /password|^confirm$/i;
+
 export async function readForm(request: Request): Promise<FormData> {
   let raw: FormData;
   try {
@@ -22,7 +25,7 @@ export async function readForm(request: Request): Promise<FormData> {
   }
   const form = new FormData();
   for (const [name, value] of raw.entries())
-    form.append(name, typeof value === "string" && !/password/i.test(name) ? toCleanLines(value) : value);
+    form.append(name, typeof value === "string" && !KEPT_AS_TYPED.test(name) ? toCleanLines(value) : value);
   return form;
 }
 

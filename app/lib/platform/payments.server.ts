@@ -90,5 +90,17 @@ export async function expireCheckoutSessions(
   client: Pick<Stripe, "checkout"> = stripe,
 ): Promise<void> {
   const open = [...new Set(sessionIds.filter((id): id is string => Boolean(id)))];
-  await Promise.all(open.map((id) => client.checkout.sessions.expire(id).catch(() => undefined)));
+  await Promise.all(
+    open.map((id) =>
+      // Short and without retries: the change is saved already, and the office is waiting for the page.
+      client.checkout.sessions.expire(id, {}, { timeout: 5_000, maxNetworkRetries: 0 }).catch((error: unknown) => {
+        const code = (error as { code?: string }).code;
+        // Paid or expired already: nothing left open.
+        if (code !== "checkout_session_not_open" && !/not open|is (complete|expired)/i.test(String(error)))
+          console.warn(
+            `payments: could not close checkout ${id}; a payment on it is refunded when it lands: ${String(error)}`,
+          );
+      }),
+    ),
+  );
 }

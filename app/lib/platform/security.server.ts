@@ -163,7 +163,7 @@ export const securityMiddleware: MiddlewareFunction<Response> = async ({ request
   if (!SAFE_METHODS.has(request.method) && request.method !== "POST") {
     const response = Response.json(
       { errors: [{ path: "", message: `${request.method} is not accepted here: use GET to read and POST to send.` }] },
-      { status: 405, headers: { Allow: "GET, HEAD, POST" } },
+      { status: 405, headers: { Allow: "GET, HEAD, OPTIONS, POST" } },
     );
     applySecurityHeaders(response.headers, "");
     return response;

@@ -258,7 +258,7 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
             ),
           );
         if (credit) {
-          if (!credit.refundId && noticeCoversRefund(charge, credit.amountCents))
+          if (!credit.refundId && noticeCoversRefund(event, charge, credit.amountCents))
             await tx
               .update(jobBalances)
               .set({ refundId: noticeRefundId, refundedAt: at, updatedAt: at })
@@ -271,7 +271,7 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
           );
           throw new DepositMismatch();
         }
-        if (!proposal.refundId && noticeCoversRefund(charge, null))
+        if (!proposal.refundId && noticeCoversRefund(event, charge, null))
           await tx
             .update(proposals)
             .set({ refundId: noticeRefundId, refundedAt: proposal.refundedAt ?? at, updatedAt: at })
@@ -379,6 +379,32 @@ export async function requestDepositRefund(args: {
       detail: `Deposit of ${formatMoney(proposal.depositCents ?? 0)} on ${document.number} refunded: ${reason}. ${STATUS_LABEL[lead.status]} → ${STATUS_LABEL["not-going-ahead"]}.`,
       createdAt: at,
     });
+    // The job stops here: a change order still out can no longer be signed.
+    const withdrawn = await tx
+      .update(proposals)
+      .set({
+        status: "withdrawn",
+        withdrawnAt: at,
+        withdrawReason: `The deposit was refunded: ${reason}`,
+        updatedAt: at,
+      })
+      .where(
+        and(
+          eq(proposals.leadId, lead.id),
+          eq(proposals.kind, "change-order"),
+          inArray(proposals.status, ["sent", "accepted"]),
+        ),
+      )
+      .returning({ documentJson: proposals.documentJson });
+    for (const row of withdrawn)
+      await tx.insert(leadEvents).values({
+        companyId: lead.companyId,
+        leadId: lead.id,
+        actorUserId: args.actorUserId,
+        kind: "proposal-withdrawn",
+        detail: `${parseProposalDocument(row.documentJson).number} withdrawn: the deposit was refunded.`,
+        createdAt: at,
+      });
     return null;
   });
 }

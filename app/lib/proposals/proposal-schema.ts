@@ -31,7 +31,9 @@ export function formMoneyCents(label: string, minDollars: number, maxDollars: nu
     .trim()
     .min(1, `Enter the ${label.toLowerCase()}.`)
     .transform((s, ctx) => {
-      const cleaned = s.replace(/^\$/, "").replace(/,/g, "");
+      const dollars = s.replace(/^\$/, "");
+      // Commas only between thousands: "4,850" is a price, "4,8,5,0" a slip.
+      const cleaned = /^(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/.test(dollars) ? dollars.replace(/,/g, "") : "";
       if (!/^\d+(\.\d{1,2})?$/.test(cleaned)) {
         ctx.addIssue({ code: "custom", message: `${label} must be an amount in dollars, like 4,850 or 4850.00.` });
         return z.NEVER;

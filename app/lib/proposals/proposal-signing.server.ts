@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import { and, eq, inArray, notExists } from "drizzle-orm";
+import { and, eq, inArray, notExists, sql } from "drizzle-orm";
 import {
   companies,
   emailOutbox,
@@ -11,7 +11,7 @@ import {
   type Proposal,
 } from "~/db/schema";
 import { ProposalSignedEmail } from "~/emails/proposal-emails";
-import { db } from "~/lib/platform/db.server";
+import { db, writeTransaction } from "~/lib/platform/db.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { isFinishedJob, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoney } from "~/lib/format/money";
@@ -70,6 +70,12 @@ export async function acceptProposal(args: {
     .select({ status: leads.status, pausedStage: leads.pausedStage })
     .from(leads)
     .where(eq(leads.id, lead.id));
+  if (current?.status === "not-going-ahead")
+    return {
+      ok: false,
+      status: 409,
+      message: "The contractor has marked this job as not going ahead, so it can no longer be signed: ask them.",
+    };
   if (isChange && current && isFinishedJob(current))
     return {
       ok: false,
@@ -150,8 +156,10 @@ export async function acceptProposal(args: {
     }),
   ]);
 
-  const [updated] = await db.batch([
-    db
+  // One write transaction: a signature that loses (signed a moment ago, the job built meanwhile, a
+  // credit past the contract) writes nothing at all, no timeline line and no e-mail.
+  const updated = await writeTransaction(async (tx) => {
+    const rows = await tx
       .update(proposals)
       .set({
         status: signsNow ? "signed" : "accepted",
@@ -181,10 +189,18 @@ export async function acceptProposal(args: {
                   .where(and(eq(leads.id, lead.id), inArray(leads.status, ["built", "paid-in-full"]))),
               )
             : undefined,
+          // A credit signed at the same moment as another is checked against the papers as written.
+          isChange && document.change!.deltaCents < 0 && proposal.parentId !== null
+            ? sql`(select coalesce(p.total_cents, 0) from proposals p where p.id = ${proposal.parentId})
+                + coalesce((select sum(c.price_cents) from proposals c
+                    where c.parent_id = ${proposal.parentId} and c.kind = 'change-order' and c.status = 'signed'), 0)
+                + ${document.change!.deltaCents} >= 0`
+            : undefined,
         ),
       )
-      .returning(),
-    db.insert(leadEvents).values({
+      .returning();
+    if (rows.length === 0) return rows;
+    await tx.insert(leadEvents).values({
       companyId: lead.companyId,
       leadId: lead.id,
       kind: isChange ? "change-order-signed" : "proposal-accepted",
@@ -192,10 +208,10 @@ export async function acceptProposal(args: {
         ? `${document.number} signed by ${input.name}: ${formatMoney(document.change!.deltaCents)}; the job is now ${formatMoney(totalCents)}.`
         : `${document.number} signed by ${input.name} for ${formatMoney(totalCents)}${chosenKeys.length ? ` with ${figures.chosen.map((a) => a.label).join(", ")}` : ""}; ${signsNow ? "no deposit asked." : `deposit of ${formatMoney(deposit)} to pay.`}`,
       createdAt: at,
-    }),
-    db.insert(emailOutbox).values(mails).onConflictDoNothing(),
+    });
+    await tx.insert(emailOutbox).values(mails).onConflictDoNothing();
     // A proposal signed with no deposit signs the job at once.
-    db
+    await tx
       .update(leads)
       .set({ status: "signed", updatedAt: at })
       .where(
@@ -203,8 +219,9 @@ export async function acceptProposal(args: {
           eq(leads.id, lead.id),
           signsNow && !isChange ? inArray(leads.status, ["proposal-out", "on-hold"]) : eq(leads.id, -1),
         ),
-      ),
-  ]);
+      );
+    return rows;
+  });
   if (updated.length === 0)
     return { ok: false, status: 409, message: "This proposal was signed or changed a moment ago: reload the page." };
   return { ok: true, proposal: updated[0]! };

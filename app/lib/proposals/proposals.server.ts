@@ -226,7 +226,8 @@ export async function sendProposal(args: {
     .select({ id: proposals.id, checkoutSessionId: proposals.checkoutSessionId })
     .from(proposals)
     .where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, [...OPEN_STATES])));
-  const movesStage = lead.status !== "proposal-out" && lead.status !== "on-hold" && lead.status !== "not-going-ahead";
+  // Sending a proposal picks a job marked not going ahead up again; one on hold stays on hold.
+  const movesStage = lead.status !== "proposal-out" && lead.status !== "on-hold";
   const [inserted] = await db.batch([
     db
       .insert(proposals)
@@ -261,6 +262,7 @@ export async function sendProposal(args: {
       .update(leads)
       .set({
         ...(movesStage ? { status: "proposal-out" as const } : {}),
+        ...(lead.status === "not-going-ahead" ? { stopReason: null, pausedStage: null } : {}),
         calledBackAt: lead.calledBackAt ?? at,
         updatedAt: at,
       })
