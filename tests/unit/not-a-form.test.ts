@@ -147,22 +147,19 @@ test("no route reads a form body except through readForm (the sign-in reads a co
   expect(offenders).toEqual([]);
 });
 
-test.each(["PUT", "PATCH", "DELETE"])(
-  "%s is refused with 405 and Allow, before any action runs",
-  async (method) => {
-    const request = requestWithCookie(`/app/leads/${leadId}`, owner, {
-      method,
-      body: "intent=note&note=hello",
-      headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: "http://localhost" },
-    });
-    let ran = false;
-    const response = (await securityMiddleware(routeArgs(request, { leadId }) as never, async () => {
-      ran = true;
-      return new Response("ran");
-    })) as Response;
-    expect([response.status, response.headers.get("Allow"), ran]).toEqual([405, "GET, HEAD, OPTIONS, POST", false]);
-  },
-);
+test.each(["PUT", "PATCH", "DELETE"])("%s is refused with 405 and Allow, before any action runs", async (method) => {
+  const request = requestWithCookie(`/app/leads/${leadId}`, owner, {
+    method,
+    body: "intent=note&note=hello",
+    headers: { "Content-Type": "application/x-www-form-urlencoded", Origin: "http://localhost" },
+  });
+  let ran = false;
+  const response = (await securityMiddleware(routeArgs(request, { leadId }) as never, async () => {
+    ran = true;
+    return new Response("ran");
+  })) as Response;
+  expect([response.status, response.headers.get("Allow"), ran]).toEqual([405, "GET, HEAD, OPTIONS, POST", false]);
+});
 
 test("readForm hands actions text as a reader sees it: control, bidirectional and zero-width characters gone, line breaks kept; passwords exactly as typed", async () => {
   // Unicode Standard Annex #9 for the bidirectional controls; C0 controls per ISO/IEC 6429.
