@@ -538,6 +538,6 @@ test("the booked days show where people look: on the homeowner's /my and on the 
     routeArgs(requestWithCookie(`/app/leads/${lead.id}`, await loginAs(company.id, "owner")), {
       leadId: String(lead.id),
     }),
-  )) as { build: { days: string; crew: string } | null };
-  expect(page.build).toEqual({ days, crew: `${crewA.name}, ${crewB.name}` });
+  )) as { build: { days: string; crew: string; canChange: boolean } | null };
+  expect(page.build).toEqual({ days, crew: `${crewA.name}, ${crewB.name}`, canChange: true });
 });
