@@ -304,7 +304,9 @@ test("a homeowner in millimetres designs a tall wall: the notes speak millimetre
 }) => {
   await page.goto("/c/cinder-slate?unit=mm&courses=8");
   await expect(page.getByRole("button", { name: "Update the design" })).toHaveCount(0);
-  const notes = page.getByRole("status").filter({ has: page.getByRole("heading", { name: "Worth a second look" }) });
+  const notes = page
+    .getByRole("status")
+    .filter({ has: page.getByRole("heading", { name: "Notes for your contractor" }) });
   await expect(notes).toBeVisible();
   const text = (await notes.textContent())!;
   expect(text).toMatch(/\d+ mm/);

@@ -76,11 +76,14 @@ export function PlanPrice({ plan, unit, isUpdating }: { plan: PublicPlan; unit: 
   );
 }
 
-/** The engine's notes on this design ("worth a second look"), said in the chosen unit. */
+/** The engine's notes on this design, for the contractor to check, said in the chosen unit. */
 export function PlanWarnings({ plan, unit }: { plan: PublicPlan; unit: LengthUnit }) {
   return plan.warnings.length ? (
     <div className="rounded-(--radius-card) border border-ember-300 bg-ember-50 p-4" role="status">
-      <h2 className="font-extrabold text-ember-700">Worth a second look</h2>
+      <h2 className="font-extrabold text-ember-700">Notes for your contractor</h2>
+      <p className="mt-1 text-sm text-char-700">
+        Nothing for you to do: your contractor checks these when they measure the yard, and may suggest a change.
+      </p>
       <ul className="mt-2 flex list-disc flex-col gap-1.5 pl-5 text-sm text-char-800">
         {plan.warnings.map((w) => (
           <li key={w.code} data-code={w.code}>
