@@ -10,7 +10,7 @@ import { formatMoney } from "~/lib/format/money";
 import { requireUser } from "~/lib/auth/session.server";
 import { OFFICE_ROLES, findLeadFor, parseLeadId } from "~/lib/auth/staff.server";
 import { readTextFields } from "~/lib/platform/forms.server";
-import { validUntilProblem } from "~/lib/proposals/proposal-schema";
+import { DOLLARS_TYPED, validUntilProblem } from "~/lib/proposals/proposal-schema";
 
 export const meta: Route.MetaFunction = ({ loaderData }) => [
   { title: loaderData ? `Change order: ${loaderData.customerName} · Emberwright` : "Change order · Emberwright" },
@@ -45,7 +45,7 @@ const changeSchema = z.object({
   delta: z
     .string()
     .trim()
-    .regex(/^-?\$?(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/, {
+    .refine((s) => DOLLARS_TYPED.test(s.replace(/^-?\$?/, "")), {
       error: "Price difference must be an amount in dollars, like 450 or -120.50 for a credit.",
     })
     .transform((s) => {

@@ -543,11 +543,7 @@ export async function moveBuild(
     );
   const build = await writeTransaction(async (tx) => {
     // A job marked built meanwhile keeps its build days: the check is made again inside the write.
-    const [stage] = await tx
-      .select({ status: leads.status, pausedStage: leads.pausedStage })
-      .from(leads)
-      .where(eq(leads.id, lead.id));
-    if (!stage || isFinishedJob(stage)) return "finished" as const;
+    if (await isFinishedInWrite(tx, lead.id)) return "finished" as const;
     const [row] = await tx
       .update(builds)
       .set({
@@ -610,12 +606,8 @@ export async function cancelBuild(
     reason: input.reason,
   });
   const build = await writeTransaction(async (tx) => {
-    // A job marked built meanwhile keeps its build: the check is made again inside the write.
-    const [stage] = await tx
-      .select({ status: leads.status, pausedStage: leads.pausedStage })
-      .from(leads)
-      .where(eq(leads.id, lead.id));
-    if (!stage || isFinishedJob(stage)) return "finished" as const;
+    // A job marked built meanwhile keeps its build days: the check is made again inside the write.
+    if (await isFinishedInWrite(tx, lead.id)) return "finished" as const;
     const [row] = await tx
       .update(builds)
       .set({
@@ -648,6 +640,15 @@ export async function cancelBuild(
   if (!build)
     return { ok: false, status: 409, errors: { reason: "This build changed a moment ago. Reload to see it." } };
   return { ok: true, build };
+}
+
+/** Whether the job is built (or paid in full), read inside the write that would change its build. */
+async function isFinishedInWrite(tx: Pick<typeof db, "select">, leadId: number): Promise<boolean> {
+  const [stage] = await tx
+    .select({ status: leads.status, pausedStage: leads.pausedStage })
+    .from(leads)
+    .where(eq(leads.id, leadId));
+  return !stage || isFinishedJob(stage);
 }
 
 /** Why a finished job's build stays as it is. */

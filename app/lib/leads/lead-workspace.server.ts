@@ -10,7 +10,6 @@ import {
   leadPhotos,
   leadRevisions,
   leads,
-  proposals,
   users,
   type Lead,
   type LeadStatus,
@@ -32,7 +31,7 @@ import { RevisionSentEmail, StaffAssignedEmail } from "~/emails/lead-emails";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { writeTransaction } from "~/lib/platform/db.server";
 import { expireCheckoutSessions } from "~/lib/platform/payments.server";
-import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { withdrawOpenPapers } from "~/lib/proposals/withdraw-open.server";
 import { prepareOutboxRow } from "~/lib/platform/email.server";
 import { moveMailKeys } from "~/lib/consults/booking.server";
 
@@ -272,26 +271,13 @@ export async function changeStage(
     if (to !== "not-going-ahead") return [];
     // A job not going ahead takes its proposals and change orders still out off the table, so no
     // deposit or change is paid for or signed on it.
-    const withdrawn = await tx
-      .update(proposals)
-      .set({
-        status: "withdrawn",
-        withdrawnAt: at,
-        withdrawReason: `The job is not going ahead: ${reason}`,
-        updatedAt: at,
-      })
-      .where(and(eq(proposals.leadId, lead.id), inArray(proposals.status, ["sent", "accepted"])))
-      .returning({ documentJson: proposals.documentJson, checkoutSessionId: proposals.checkoutSessionId });
-    for (const row of withdrawn)
-      await tx.insert(leadEvents).values({
-        companyId: lead.companyId,
-        leadId: lead.id,
-        actorUserId: user.id,
-        kind: "proposal-withdrawn",
-        detail: `${parseProposalDocument(row.documentJson).number} withdrawn: the job is not going ahead.`,
-        createdAt: at,
-      });
-    return withdrawn.map((row) => row.checkoutSessionId);
+    return withdrawOpenPapers(tx, {
+      lead,
+      actorUserId: user.id,
+      at,
+      reason: `The job is not going ahead: ${reason}`,
+      because: "the job is not going ahead.",
+    });
   });
   if (result === null)
     return {

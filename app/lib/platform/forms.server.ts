@@ -4,6 +4,9 @@ import { toCleanLines } from "~/lib/format/clean-text";
 /** What a form post must be; said with the 415 when a body is something else. */
 export const NOT_A_FORM = "Send the form as application/x-www-form-urlencoded or multipart/form-data.";
 
+/** Fields kept exactly as typed: a password and its confirmation must match what is hashed. */
+const KEPT_AS_TYPED = /password|^confirm$/i;
+
 /**
  * The request's form, its text cleaned. A body that is not a form (none, JSON, plain text, a broken
  * multipart) is a 415 saying what is accepted, never an error from deep in the action.
@@ -11,11 +14,8 @@ export const NOT_A_FORM = "Send the form as application/x-www-form-urlencoded or
  * Every text field loses its control characters (tabs and line breaks stay, CRLF becomes LF), its
  * bidirectional overrides and its zero-width spaces before any check reads it, so "at least 3
  * characters" counts characters a reader sees, and nothing hidden reaches a PDF, an e-mail or a
- * signature. Passwords are left exactly as typed.
+ * signature. A password and its confirmation are left exactly as typed.
  */
-/** Fields kept exactly as typed: a password and its confirmation must match what is hashed. */
-const KEPT_AS_TYPED = /password|^confirm$/i;
-
 export async function readForm(request: Request): Promise<FormData> {
   let raw: FormData;
   try {

@@ -27,6 +27,7 @@ import { isFinishedJob, STATUS_LABEL } from "~/lib/leads/lead-status";
 import { formatMoney } from "~/lib/format/money";
 import { CheckoutRefused, openHostedCheckout, stripe as defaultStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
+import { withdrawOpenPapers } from "~/lib/proposals/withdraw-open.server";
 
 /*
  * The deposit on a signed proposal, paid through Checkout like the consult fee: our own idempotency
@@ -380,31 +381,14 @@ export async function requestDepositRefund(args: {
       createdAt: at,
     });
     // The job stops here: a change order still out can no longer be signed.
-    const withdrawn = await tx
-      .update(proposals)
-      .set({
-        status: "withdrawn",
-        withdrawnAt: at,
-        withdrawReason: `The deposit was refunded: ${reason}`,
-        updatedAt: at,
-      })
-      .where(
-        and(
-          eq(proposals.leadId, lead.id),
-          eq(proposals.kind, "change-order"),
-          inArray(proposals.status, ["sent", "accepted"]),
-        ),
-      )
-      .returning({ documentJson: proposals.documentJson });
-    for (const row of withdrawn)
-      await tx.insert(leadEvents).values({
-        companyId: lead.companyId,
-        leadId: lead.id,
-        actorUserId: args.actorUserId,
-        kind: "proposal-withdrawn",
-        detail: `${parseProposalDocument(row.documentJson).number} withdrawn: the deposit was refunded.`,
-        createdAt: at,
-      });
+    await withdrawOpenPapers(tx, {
+      lead,
+      actorUserId: args.actorUserId,
+      at,
+      reason: `The deposit was refunded: ${reason}`,
+      because: "the deposit was refunded.",
+      changeOrdersOnly: true,
+    });
     return null;
   });
 }

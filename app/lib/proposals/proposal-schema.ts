@@ -23,6 +23,9 @@ export function validUntilProblem(value: string, today: string): string | null {
   return null;
 }
 
+/** Dollars as typed, without sign or "$": commas only between thousands ("4,850", not "4,8,5,0"). */
+export const DOLLARS_TYPED = /^(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/;
+
 /** Dollars as typed → integer cents, within a range of whole dollars. */
 export function formMoneyCents(label: string, minDollars: number, maxDollars: number) {
   const range = `${label} must be between $${formatNumber(minDollars, { maxFractionDigits: 3 })} and $${formatNumber(maxDollars, { maxFractionDigits: 3 })}.`;
@@ -32,8 +35,7 @@ export function formMoneyCents(label: string, minDollars: number, maxDollars: nu
     .min(1, `Enter the ${label.toLowerCase()}.`)
     .transform((s, ctx) => {
       const dollars = s.replace(/^\$/, "");
-      // Commas only between thousands: "4,850" is a price, "4,8,5,0" a slip.
-      const cleaned = /^(\d{1,3}(,\d{3})+|\d+)(\.\d{1,2})?$/.test(dollars) ? dollars.replace(/,/g, "") : "";
+      const cleaned = DOLLARS_TYPED.test(dollars) ? dollars.replace(/,/g, "") : "";
       if (!/^\d+(\.\d{1,2})?$/.test(cleaned)) {
         ctx.addIssue({ code: "custom", message: `${label} must be an amount in dollars, like 4,850 or 4850.00.` });
         return z.NEVER;
