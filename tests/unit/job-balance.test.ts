@@ -35,14 +35,12 @@ import {
 import { jobCostFor, monthlyJobReport } from "~/lib/builds/job-cost.server";
 import { markJobBuilt } from "~/lib/builds/mark-built.server";
 import { db } from "~/lib/platform/db.server";
-import { env } from "~/lib/platform/env.server";
 import { createStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { requestDepositRefund, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
-import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
-import { routeArgs } from "./support/demo";
+import { deliverSigned, fakeEvents, fakeRefundsOf, newestRefundNotice } from "./support/payments";
 import { officeUser, sentProposal } from "./support/proposals";
 
 let fake: PaymentsFake;
@@ -56,7 +54,6 @@ beforeAll(async () => {
 });
 afterAll(() => fake.close());
 
-const stripe = new Stripe("sk_test_local");
 let seq = 0;
 const balanceOf = async (leadId: number) =>
   (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0];
@@ -112,20 +109,7 @@ const completed = (balance: JobBalance, overrides: Record<string, unknown> = {})
     ...overrides,
   });
 
-async function deliver(event: unknown) {
-  const payload = JSON.stringify(event);
-  const signature = stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
-  const response = (await webhookAction(
-    routeArgs(
-      new Request("http://localhost/api/webhooks/stripe", {
-        method: "POST",
-        body: payload,
-        headers: { "Stripe-Signature": signature },
-      }),
-    ),
-  )) as Response;
-  return { status: response.status, outcome: ((await response.json()) as { outcome: string }).outcome };
-}
+const deliver = deliverSigned;
 
 async function crewOf(companyId: number) {
   const [crew] = await db
@@ -330,29 +314,6 @@ test("a balance refund refused for good is counted for the owner and can be trie
   expect(await countFailedWork(lead.companyId)).toBe(before);
 });
 
-/** Events the payments fake recorded of one type, newest last (its webhooks are off in this file). */
-async function fakeEvents(type: string) {
-  const answer = (await (await fetch(`${fake.url}/_fake/events?type=${type}`)).json()) as {
-    data: { id: string; type: string; data: { object: Record<string, unknown> } }[];
-  };
-  return answer.data;
-}
-
-/** The payments fake's refunds of one payment. */
-async function fakeRefundsOf(paymentIntent: string) {
-  const answer = (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
-    data: { id: string; amount: number; payment_intent: string }[];
-  };
-  return answer.data.filter((r) => r.payment_intent === paymentIntent);
-}
-
-/** The newest refund notice the payments fake recorded for one payment. */
-async function newestRefundNotice(paymentIntent: string) {
-  const notices = (await fakeEvents("charge.refunded")).filter((e) => e.data.object.payment_intent === paymentIntent);
-  expect(notices.length).toBeGreaterThan(0);
-  return notices.at(-1)!;
-}
-
 /** A payments client that counts the refunds asked of it on one payment (other tests' rows share the queue). */
 function countingRefunds(client: Stripe, paymentIntent: string) {
   const counter = { calls: 0, client: client as Pick<Stripe, "refunds"> };
@@ -393,7 +354,7 @@ async function jobWithCardDeposit() {
     headers: { "Content-Type": "application/json" },
   });
   expect(paid.status).toBe(200);
-  const completedEvent = (await fakeEvents("checkout.session.completed")).find(
+  const completedEvent = (await fakeEvents(fake.url, "checkout.session.completed")).find(
     (e) => e.data.object.id === withSession!.checkoutSessionId,
   )!;
   expect(await deliver(completedEvent)).toEqual({ status: 200, outcome: "applied" });
@@ -455,12 +416,12 @@ test("a credit left by the change orders goes back to the deposit's card once, f
   ]);
   await processBalanceRefunds(counting.client, { owner: "worker-a" });
   expect(counting.calls).toBe(1);
-  const refunds = await fakeRefundsOf(job.proposal.paymentIntentId!);
+  const refunds = await fakeRefundsOf(fake.url, job.proposal.paymentIntentId!);
   expect(refunds.map((r) => r.amount)).toEqual([10_500]);
   expect((await balanceOf(job.lead.id))!.refundId).toBe(refunds[0]!.id);
 
   // The payment service's notice of it reaches the deposit's handler: applied to the balance, not a mismatch.
-  const refundedNotice = (await fakeEvents("charge.refunded")).find(
+  const refundedNotice = (await fakeEvents(fake.url, "charge.refunded")).find(
     (e) => e.data.object.payment_intent === job.proposal.paymentIntentId,
   )!;
   expect(await deliver(refundedNotice)).toEqual({ status: 200, outcome: "applied" });
@@ -493,22 +454,22 @@ test("a part of the deposit refunded by hand does not settle the credit; the who
   const intent = partJob.proposal.paymentIntentId!;
   // $50 back by hand from the payment service's dashboard, its notice delivered before any worker pass.
   await partJob.client.refunds.create({ payment_intent: intent, amount: 5_000 });
-  expect(await deliver(await newestRefundNotice(intent))).toEqual({ status: 200, outcome: "applied" });
+  expect(await deliver(await newestRefundNotice(fake.url, intent))).toEqual({ status: 200, outcome: "applied" });
   expect((await balanceOf(partJob.lead.id))!.refundId).toBeNull();
   await processBalanceRefunds(partJob.client, { owner: "worker-a" });
-  expect((await fakeRefundsOf(intent)).map((r) => r.amount).sort((a, b) => a - b)).toEqual([5_000, 10_500]);
+  expect((await fakeRefundsOf(fake.url, intent)).map((r) => r.amount).sort((a, b) => a - b)).toEqual([5_000, 10_500]);
 
   const handJob = await jobWithCardDeposit();
   await signedChange(handJob.proposal, -350_000);
   await markJobBuilt({ companyId: handJob.lead.companyId, leadId: handJob.lead.id, actorUserId: crew.id });
   const handIntent = handJob.proposal.paymentIntentId!;
   await handJob.client.refunds.create({ payment_intent: handIntent, amount: 10_500 });
-  expect(await deliver(await newestRefundNotice(handIntent))).toEqual({ status: 200, outcome: "applied" });
+  expect(await deliver(await newestRefundNotice(fake.url, handIntent))).toEqual({ status: 200, outcome: "applied" });
   expect((await balanceOf(handJob.lead.id))!.refundId).not.toBeNull();
   const counting = countingRefunds(handJob.client, handIntent);
   await processBalanceRefunds(counting.client, { owner: "worker-a" });
   expect(counting.calls).toBe(0);
-  expect((await fakeRefundsOf(handIntent)).map((r) => r.amount)).toEqual([10_500]);
+  expect((await fakeRefundsOf(fake.url, handIntent)).map((r) => r.amount)).toEqual([10_500]);
 });
 
 test("a deposit refunded before the job goes ahead again no longer counts: the balance is the whole contract, with no credit on its card", async () => {

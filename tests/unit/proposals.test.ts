@@ -25,7 +25,6 @@ import {
 import { jobTotalsFor, sendChangeOrder } from "~/lib/proposals/change-orders.server";
 import { getCompany } from "~/lib/catalog/catalog.server";
 import { db } from "~/lib/platform/db.server";
-import { env } from "~/lib/platform/env.server";
 import { createStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import { expireProposals, processDepositRefunds, startDepositCheckout } from "~/lib/proposals/proposal-payments.server";
@@ -33,7 +32,6 @@ import { renderProposalPdf } from "~/lib/proposals/proposal-pdf.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
 import { sendProposal, withdrawProposal } from "~/lib/proposals/proposals.server";
 import { changeStage } from "~/lib/leads/lead-workspace.server";
-import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { action as changeOrderAction } from "~/routes/app-lead-change-order";
 import { action as composeAction } from "~/routes/app-lead-proposal";
 import { parseComposeForm } from "~/lib/proposals/proposal-schema";
@@ -44,6 +42,7 @@ import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/serve
 import { routeArgs } from "./support/demo";
 import { requestWithCookie } from "./support/fixtures";
 import { loginAs } from "./support/login";
+import { deliverSigned } from "./support/payments";
 import { officeUser, sentProposal } from "./support/proposals";
 
 let fake: PaymentsFake;
@@ -232,7 +231,6 @@ test("the homeowner opening the link is counted; the office previewing it is not
   expect((await reload(proposal.id)).openCount).toBe(1);
 });
 
-const stripe = new Stripe("sk_test_local");
 let seq = 0;
 
 async function accepted(chosenKeys: string[] = []) {
@@ -282,20 +280,7 @@ const completed = (proposal: Proposal, overrides: Record<string, unknown> = {}) 
     ...overrides,
   });
 
-async function deliver(event: unknown) {
-  const payload = JSON.stringify(event);
-  const signature = stripe.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
-  const response = (await webhookAction(
-    routeArgs(
-      new Request("http://localhost/api/webhooks/stripe", {
-        method: "POST",
-        body: payload,
-        headers: { "Stripe-Signature": signature },
-      }),
-    ),
-  )) as Response;
-  return { status: response.status, outcome: ((await response.json()) as { outcome: string }).outcome };
-}
+const deliver = deliverSigned;
 
 test("the deposit's signed webhook signs the job once: proposal signed, job at “signed”, both sides e-mailed; a repeat changes nothing", async () => {
   const { proposal, lead } = await accepted(["a2"]);

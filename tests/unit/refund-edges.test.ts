@@ -18,7 +18,6 @@ import { getCompany } from "~/lib/catalog/catalog.server";
 import { LEASE_MS } from "~/lib/jobs/jobs.server";
 import { REFUND_BACKOFF, sendOwedRefunds, tableRefundQueue } from "~/lib/jobs/refund-queue.server";
 import { db, writeTransaction } from "~/lib/platform/db.server";
-import { env } from "~/lib/platform/env.server";
 import { createStripe } from "~/lib/platform/payments.server";
 import { parseProposalDocument } from "~/lib/proposals/proposal-document";
 import {
@@ -27,9 +26,8 @@ import {
   startDepositCheckout,
 } from "~/lib/proposals/proposal-payments.server";
 import { acceptProposal } from "~/lib/proposals/proposal-signing.server";
-import { action as webhookAction } from "~/routes/api/webhooks-stripe";
 import { startPaymentsFake, type PaymentsFake } from "../../fakes/payments/server";
-import { routeArgs } from "./support/demo";
+import { deliverSigned, fakeEvents, fakeRefundsOf, newestRefundNotice } from "./support/payments";
 import { officeUser, sentProposal } from "./support/proposals";
 
 let fake: PaymentsFake;
@@ -45,42 +43,12 @@ beforeAll(async () => {
 });
 afterAll(() => fake.close());
 
-const signer = new Stripe("sk_test_local");
 let seq = 0;
 
-async function deliver(event: unknown) {
-  const payload = JSON.stringify(event);
-  const signature = signer.webhooks.generateTestHeaderString({ payload, secret: env.STRIPE_WEBHOOK_SECRET });
-  const response = (await webhookAction(
-    routeArgs(
-      new Request("http://localhost/api/webhooks/stripe", {
-        method: "POST",
-        body: payload,
-        headers: { "Stripe-Signature": signature },
-      }),
-    ),
-  )) as Response;
-  return ((await response.json()) as { outcome: string }).outcome;
-}
-
-type FakeEvent = {
-  id: string;
-  type: string;
-  data: { object: Record<string, unknown>; previous_attributes?: Record<string, unknown> };
-};
-async function fakeEvents(type: string): Promise<FakeEvent[]> {
-  return ((await (await fetch(`${fake.url}/_fake/events?type=${type}`)).json()) as { data: FakeEvent[] }).data;
-}
-async function refundsOn(paymentIntent: string): Promise<number[]> {
-  const all = (await (await fetch(`${fake.url}/_fake/refunds`)).json()) as {
-    data: { amount: number; payment_intent: string }[];
-  };
-  return all.data.filter((r) => r.payment_intent === paymentIntent).map((r) => r.amount);
-}
-async function newestRefundNotice(paymentIntent: string): Promise<FakeEvent> {
-  const notices = (await fakeEvents("charge.refunded")).filter((e) => e.data.object.payment_intent === paymentIntent);
-  return notices.at(-1)!;
-}
+const deliver = async (event: unknown) => (await deliverSigned(event)).outcome;
+const fakeEventsOf = (type: string) => fakeEvents(fake.url, type);
+const refundsOn = async (paymentIntent: string) => (await fakeRefundsOf(fake.url, paymentIntent)).map((r) => r.amount);
+const newestNotice = (paymentIntent: string) => newestRefundNotice(fake.url, paymentIntent);
 const proposalOf = async (id: number) => (await db.select().from(proposals).where(eq(proposals.id, id)))[0]!;
 const balanceOf = async (leadId: number) =>
   (await db.select().from(jobBalances).where(eq(jobBalances.leadId, leadId)))[0];
@@ -117,7 +85,7 @@ async function cardDepositJob() {
     body: JSON.stringify({ card: "4242424242424242" }),
     headers: { "Content-Type": "application/json" },
   });
-  const paid = (await fakeEvents("checkout.session.completed")).find(
+  const paid = (await fakeEventsOf("checkout.session.completed")).find(
     (e) => e.data.object.id === withSession.checkoutSessionId,
   )!;
   expect(await deliver(paid)).toBe("applied");
@@ -228,7 +196,7 @@ test("a deposit refunded in full from the dashboard, with no refund asked for, s
     .set({ refundPaymentIntentId: `pi_late_${job.lead.id}`, refundOwedAt: new Date().toISOString() })
     .where(eq(jobBalances.leadId, job.lead.id));
   await client.refunds.create({ payment_intent: job.intent });
-  const notice = await newestRefundNotice(job.intent);
+  const notice = await newestNotice(job.intent);
   expect(await deliver(notice)).toBe("mismatch");
   expect((await proposalOf(job.proposal.id)).refundId).toBeNull();
   expect((await balanceOf(job.lead.id))!.refundId).toBeNull();
@@ -264,10 +232,10 @@ test("a deposit refund owed: a part refunded by hand does not settle it, a notic
 
   // $500 of the $1,455 back by hand, its notice before any worker pass.
   await client.refunds.create({ payment_intent: job.intent, amount: 50_000 });
-  expect(await deliver(await newestRefundNotice(job.intent))).toBe("applied");
+  expect(await deliver(await newestNotice(job.intent))).toBe("applied");
   expect((await proposalOf(job.proposal.id)).refundId).toBeNull();
   // A notice for this deposit naming someone else's payment, refunded in full: not applied.
-  const forged = await newestRefundNotice(job.intent);
+  const forged = await newestNotice(job.intent);
   seq += 1;
   const other = {
     ...forged,
@@ -406,18 +374,18 @@ test("a credit owed is settled by a notice of a refund of that much, not by refu
   const job = await cardDepositJob();
   // $200 back by hand before the build (its notice does not match anything owed then).
   await client.refunds.create({ payment_intent: job.intent, amount: 20_000 });
-  expect(await deliver(await newestRefundNotice(job.intent))).toBe("mismatch");
+  expect(await deliver(await newestNotice(job.intent))).toBe("mismatch");
   await change(job.proposal, -350_000, "signed");
   expect(await built(job)).toMatchObject({ ok: true });
   expect(await balanceOf(job.lead.id)).toMatchObject({ refundAmountCents: 10_500, refundId: null });
   // $50 more by hand: the charge now shows $250 back, more than the $105 owed, but this refund is $50.
   await client.refunds.create({ payment_intent: job.intent, amount: 5_000 });
-  expect(await deliver(await newestRefundNotice(job.intent))).toBe("applied");
+  expect(await deliver(await newestNotice(job.intent))).toBe("applied");
   expect((await balanceOf(job.lead.id))!.refundId).toBeNull();
   // The worker sends the $105, and its own notice confirms it.
   await processBalanceRefunds(client);
   expect((await refundsOn(job.intent)).sort((a, b) => a - b)).toEqual([5_000, 10_500, 20_000]);
-  const own = await newestRefundNotice(job.intent);
+  const own = await newestNotice(job.intent);
   expect(own.data.previous_attributes).toMatchObject({ amount_refunded: 25_000 });
   expect(await deliver(own)).toBe("applied");
   expect((await balanceOf(job.lead.id))!.refundId).toMatch(/^re_/);
