@@ -153,8 +153,11 @@ export async function applyDepositEvent(event: Stripe.Event, now = new Date()): 
         }
         const paymentIntentId =
           typeof session.payment_intent === "string" ? session.payment_intent : (session.payment_intent?.id ?? null);
-        const [stage] = await tx.select({ status: leads.status }).from(leads).where(eq(leads.id, proposal.leadId));
-        if (proposal.status === "accepted" && stage?.status === "not-going-ahead") {
+        const [stage] =
+          proposal.status === "accepted"
+            ? await tx.select({ status: leads.status }).from(leads).where(eq(leads.id, proposal.leadId))
+            : [];
+        if (stage?.status === "not-going-ahead") {
           // Paid on a job stopped meanwhile: the proposal is off the table and the money goes back.
           await tx
             .update(proposals)
